@@ -1,0 +1,31 @@
+#!/usr/bin/env node
+// Launcher: runs the bundled CLI (dist/tilth.mjs, built by `npm install`)
+// when it is newer than every file under src/ and tables/, otherwise the
+// TypeScript sources directly through tsx. No build step to remember.
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const dist = join(root, 'dist', 'tilth.mjs');
+
+function newest(dir) {
+  let t = 0;
+  if (!existsSync(dir)) return t;
+  for (const e of readdirSync(dir, { withFileTypes: true })) {
+    const p = join(dir, e.name);
+    t = Math.max(t, e.isDirectory() ? newest(p) : statSync(p).mtimeMs);
+  }
+  return t;
+}
+
+const useDist = existsSync(dist) && process.env.TILTH_FROM_SOURCE !== '1' &&
+  statSync(dist).mtimeMs >= Math.max(newest(join(root, 'src')), newest(join(root, 'tables')));
+
+if (useDist) {
+  await import(pathToFileURL(dist).href);
+} else {
+  const { register } = await import('tsx/esm/api');
+  register();
+  await import(pathToFileURL(join(root, 'src', 'cli', 'main.ts')).href);
+}

@@ -1,0 +1,35 @@
+/**
+ * tilth command line: one file per command under src/cli/, each exporting `register(program)`.
+ * Exit codes: 0 ok, 1 a bug (stack printed) or a check that failed, 2 a user error (message only).
+ */
+import { Command, CommanderError } from 'commander';
+import { isUserError } from '../errors.js';
+import { CAUTION } from './util.js';
+import { VERSION } from '../version.js';
+import * as inspect from './inspect.js';
+
+const program = new Command();
+program
+  .name('tilth')
+  .description('Variable-rate fertilizer prescriptions from soil-test samples and a field boundary.')
+  .version(VERSION)
+  .showHelpAfterError()
+  .addHelpText('after', `\n${CAUTION}`)
+  .exitOverride();
+
+for (const cmd of [inspect]) cmd.register(program);
+
+try {
+  await program.parseAsync(process.argv);
+} catch (e) {
+  if (e instanceof CommanderError) {
+    // --help and --version exit 0; usage errors are user errors
+    process.exitCode = e.exitCode === 0 ? 0 : 2;
+  } else if (isUserError(e)) {
+    process.stderr.write(`tilth: ${(e as Error).message}\n`);
+    process.exitCode = 2;
+  } else {
+    process.stderr.write(`tilth: internal error (a bug; please report it with this trace):\n${(e as Error)?.stack ?? String(e)}\n`);
+    process.exitCode = 1;
+  }
+}

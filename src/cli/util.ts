@@ -1,0 +1,76 @@
+/**
+ * Helpers shared by the CLI commands: reading files with user-level errors, atomic writes,
+ * printing. Only src/cli/ touches process, console and the file system.
+ */
+import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
+import { UserError, type Warning } from '../errors.js';
+
+/** Reads a whole file; a missing or unreadable file is a UserError naming it and the fix. */
+export function readInput(path: string, what: string): Buffer {
+  let st;
+  try {
+    st = statSync(path);
+  } catch {
+    throw new UserError(`${what} file "${path}" does not exist. Fix: check the path (it is relative to ${process.cwd()}).`, { file: path });
+  }
+  if (st.isDirectory()) throw new UserError(`${what} "${path}" is a folder, not a file. Fix: name the file inside it.`, { file: path });
+  try {
+    return readFileSync(path);
+  } catch (e) {
+    throw new UserError(`${what} file "${path}" cannot be read (${(e as Error).message}). Fix: check its permissions.`, { file: path });
+  }
+}
+
+/**
+ * Writes a file atomically: to a temporary name beside it, then rename, so a failure never
+ * leaves a half-written output.
+ */
+export function writeFileAtomic(path: string, data: string | Uint8Array): void {
+  const dir = dirname(path);
+  try {
+    mkdirSync(dir, { recursive: true });
+  } catch (e) {
+    throw new UserError(`cannot create the output folder "${dir}" (${(e as Error).message}). Fix: choose a writable location.`, { file: path });
+  }
+  const tmp = join(dir, `.${basename(path)}.${process.pid}.tmp`);
+  try {
+    writeFileSync(tmp, data);
+    renameSync(tmp, path);
+  } catch (e) {
+    rmSync(tmp, { force: true });
+    throw new UserError(`cannot write "${path}" (${(e as Error).message}). Fix: choose a writable location.`, { file: path });
+  }
+}
+
+/** Prints warnings on stderr, one per line. */
+export function printWarnings(warnings: readonly Warning[]): void {
+  for (const w of warnings) process.stderr.write(`warning: ${w.message}\n`);
+}
+
+/** Writes data to stdout (data on stdout, messages on stderr). */
+export function out(text: string): void {
+  process.stdout.write(text.endsWith('\n') ? text : text + '\n');
+}
+
+/** A message for people, on stderr. */
+export function info(text: string): void {
+  process.stderr.write(text.endsWith('\n') ? text : text + '\n');
+}
+
+/** Parses a number option or throws a UserError naming the option. */
+export function numberOption(name: string, value: string | undefined, opts: { min?: number; max?: number; integer?: boolean } = {}): number | undefined {
+  if (value === undefined) return undefined;
+  const v = Number(value);
+  if (!Number.isFinite(v) || (opts.integer && !Number.isInteger(v)) || (opts.min !== undefined && v < opts.min) || (opts.max !== undefined && v > opts.max)) {
+    const range = [opts.min !== undefined ? `>= ${opts.min}` : '', opts.max !== undefined ? `<= ${opts.max}` : ''].filter(Boolean).join(' and ');
+    throw new UserError(`option ${name}: "${value}" is not ${opts.integer ? 'a whole number' : 'a number'}${range ? ' ' + range : ''}. Fix: give e.g. ${name} ${opts.min ?? 1}.`);
+  }
+  return v;
+}
+
+/** The caution every command's help shows. */
+export const CAUTION =
+  'Caution: tilth computes suggestions from soil tests and editable default tables. Too much fertilizer with the\n' +
+  'seed injures or kills seedlings; wrong rates cost money and can pollute water. Follow local guidelines, and\n' +
+  'have a licensed agronomist or certified crop adviser check every prescription before it is applied.';

@@ -1,0 +1,67 @@
+/** Planar ring and polygon measures on flat coordinate arrays (x0 y0 x1 y1 ..., closed rings). */
+import type { RingsPart } from '../types.js';
+
+/**
+ * Signed shoelace area of a ring: positive when counter-clockwise (x east, y north).
+ * Works whether or not the ring repeats its first point.
+ * @example ringArea(new Float64Array([0,0, 1,0, 1,1, 0,1, 0,0])) // 1
+ */
+export function ringArea(ring: ArrayLike<number>): number {
+  const n = ring.length >> 1;
+  if (n < 3) return 0;
+  // shift to the first vertex to keep precision with large UTM coordinates
+  const ox = ring[0], oy = ring[1];
+  let s = 0;
+  for (let i = 0; i < n; i++) {
+    const j = (i + 1) % n;
+    s += (ring[2 * i] - ox) * (ring[2 * j + 1] - oy) - (ring[2 * j] - ox) * (ring[2 * i + 1] - oy);
+  }
+  return s / 2;
+}
+
+/** Area of a part: |exterior| minus |holes|. */
+export function partArea(part: RingsPart): number {
+  let a = Math.abs(ringArea(part.exterior));
+  for (const h of part.holes) a -= Math.abs(ringArea(h));
+  return a;
+}
+
+/** Planar area of all parts, m2 (no projection correction). */
+export function partsArea(parts: RingsPart[]): number {
+  let a = 0;
+  for (const p of parts) a += partArea(p);
+  return a;
+}
+
+/** Bounding box of parts: [xmin, ymin, xmax, ymax]. */
+export function partsBbox(parts: RingsPart[]): [number, number, number, number] {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  for (const p of parts) {
+    const r = p.exterior;
+    for (let i = 0; i < r.length; i += 2) {
+      if (r[i] < x0) x0 = r[i];
+      if (r[i] > x1) x1 = r[i];
+      if (r[i + 1] < y0) y0 = r[i + 1];
+      if (r[i + 1] > y1) y1 = r[i + 1];
+    }
+  }
+  return [x0, y0, x1, y1];
+}
+
+/**
+ * Point in polygon with holes (even-odd over all rings of the part list).
+ * A point exactly on an edge may fall either way.
+ */
+export function pointInParts(parts: RingsPart[], x: number, y: number): boolean {
+  let inside = false;
+  for (const p of parts) {
+    for (const r of [p.exterior, ...p.holes]) {
+      const n = r.length >> 1;
+      for (let i = 0, j = n - 1; i < n; j = i++) {
+        const xi = r[2 * i], yi = r[2 * i + 1], xj = r[2 * j], yj = r[2 * j + 1];
+        if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
+      }
+    }
+  }
+  return inside;
+}

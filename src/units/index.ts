@@ -1,0 +1,67 @@
+/**
+ * Unit conversions: the one source of truth. Every factor here has its source in
+ * ../shared/reference/agronomy.md and in tests/units.test.ts.
+ */
+
+/** Atomic weights (IUPAC): P 30.974, K 39.098, O 15.999. */
+const P = 30.974, K = 39.098, O = 15.999;
+
+/** P to P2O5 mass factor, about 2.2914 (from atomic weights). */
+export const P_TO_P2O5 = (2 * P + 5 * O) / (2 * P);
+/** K to K2O mass factor, about 1.2046 (from atomic weights). */
+export const K_TO_K2O = (2 * K + O) / (2 * K);
+
+/** 1 lb = 0.45359237 kg exactly; 1 acre = 0.40468564224 ha exactly (1959 agreement). */
+export const KG_PER_LB = 0.45359237;
+export const HA_PER_AC = 0.40468564224;
+export const M2_PER_AC = 4046.8564224;
+/** lb/ac to kg/ha, about 1.12085. */
+export const LBAC_TO_KGHA = KG_PER_LB / HA_PER_AC;
+
+/** Bushel weights, lb per bushel (Canada Grains Council bushel/tonne factors). */
+export const BUSHEL_LB: Readonly<Record<string, number>> = {
+  canola: 50, wheat: 60, peas: 60, barley: 48, oats: 34, flax: 56,
+};
+
+/** Element to oxide, e.g. `p2o5FromP(10)` = 22.9 lb P2O5. */
+export const p2o5FromP = (p: number): number => p * P_TO_P2O5;
+export const pFromP2o5 = (p2o5: number): number => p2o5 / P_TO_P2O5;
+export const k2oFromK = (k: number): number => k * K_TO_K2O;
+export const kFromK2o = (k2o: number): number => k2o / K_TO_K2O;
+
+export const lbacToKgha = (v: number): number => v * LBAC_TO_KGHA;
+export const kghaToLbac = (v: number): number => v / LBAC_TO_KGHA;
+export const acToHa = (v: number): number => v * HA_PER_AC;
+export const haToAc = (v: number): number => v / HA_PER_AC;
+export const m2ToAc = (v: number): number => v / M2_PER_AC;
+export const m2ToHa = (v: number): number => v / 10000;
+
+/**
+ * Factor from ppm to lb/ac for a soil layer of the given thickness in inches:
+ * 2 per 6 in of depth (about 2,000,000 lb of soil per acre-6 in). 0-24 in = 8, 6-24 in = 6.
+ * @example ppmToLbacFactor(0, 6) // 2
+ */
+export function ppmToLbacFactor(topIn: number, bottomIn: number): number {
+  if (!(bottomIn > topIn) || topIn < 0) throw new RangeError(`bad depth interval ${topIn}-${bottomIn} in`);
+  return (2 * (bottomIn - topIn)) / 6;
+}
+/** ppm in a layer to lb/ac. @example ppmToLbac(10, 0, 6) // 20 */
+export const ppmToLbac = (ppm: number, topIn: number, bottomIn: number): number => ppm * ppmToLbacFactor(topIn, bottomIn);
+/** lb/ac in a layer to ppm. @example lbacToPpm(250, 0, 6) // 125 */
+export const lbacToPpm = (lbac: number, topIn: number, bottomIn: number): number => lbac / ppmToLbacFactor(topIn, bottomIn);
+
+/**
+ * Yield in bu/ac to t/ha, given the crop's bushel weight in lb.
+ * @example buacToTha(50, 50) // canola: 50 bu/ac = 2.80 t/ha
+ */
+export function buacToTha(buPerAc: number, lbPerBu: number): number {
+  return (buPerAc * lbPerBu * KG_PER_LB) / 1000 / HA_PER_AC;
+}
+export function thaToBuac(tPerHa: number, lbPerBu: number): number {
+  return (tPerHa * 1000 * HA_PER_AC) / (lbPerBu * KG_PER_LB);
+}
+
+/** Rate units the plan may ask for. */
+export type RateUnit = 'lb/ac' | 'kg/ha';
+/** Converts a rate held in lb/ac into the requested unit. */
+export const rateIn = (lbac: number, unit: RateUnit): number => (unit === 'kg/ha' ? lbacToKgha(lbac) : lbac);

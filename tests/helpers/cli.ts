@@ -1,0 +1,19 @@
+/** Runs the tilth CLI as a user would (node bin/tilth.js ...), from the TypeScript sources. */
+import { spawnSync } from 'node:child_process';
+import { join } from 'node:path';
+
+export const ROOT = join(import.meta.dirname, '..', '..');
+
+export interface CliResult { code: number; stdout: string; stderr: string }
+
+/** Runs `tilth args...` in `cwd` (default the repository root). */
+export function tilth(args: string[], opts: { cwd?: string; env?: Record<string, string>; input?: string } = {}): CliResult {
+  const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'tilth.js'), ...args], {
+    cwd: opts.cwd ?? ROOT,
+    env: { ...process.env, TILTH_FROM_SOURCE: '1', NO_COLOR: '1', ...opts.env },
+    encoding: 'utf8',
+    input: opts.input,
+    timeout: 120_000,
+  });
+  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
+}

@@ -1,0 +1,31 @@
+/**
+ * Outside programs used as references in tests (GDAL, R/gstat, Chromium).
+ * When one is missing the test is skipped with a printed reason; with TILTH_REQUIRE_TOOLS=1
+ * (set by .ci/run) a missing program is a failure instead, so CI always runs them all.
+ */
+import { spawnSync } from 'node:child_process';
+
+const cache = new Map<string, boolean>();
+
+/** True when `cmd args...` runs and exits 0. */
+export function hasProgram(cmd: string, args: string[] = ['--version']): boolean {
+  const key = [cmd, ...args].join(' ');
+  if (!cache.has(key)) {
+    const r = spawnSync(cmd, args, { stdio: 'ignore', timeout: 30_000 });
+    cache.set(key, r.status === 0);
+  }
+  return cache.get(key)!;
+}
+
+/**
+ * Whether a test that needs an outside program should run. Prints why it is skipped,
+ * or throws when TILTH_REQUIRE_TOOLS=1 (CI) and the program is missing.
+ * @example describe.skipIf(!requireTool('gdal_grid', 'Debian gdal-bin'))('matches gdal_grid', ...)
+ */
+export function requireTool(cmd: string, pkg: string, args: string[] = ['--version']): boolean {
+  if (hasProgram(cmd, args)) return true;
+  const msg = `${cmd} is not installed (apt-get install -y ${pkg}); tests that compare with it are skipped`;
+  if (process.env.TILTH_REQUIRE_TOOLS === '1') throw new Error(`TILTH_REQUIRE_TOOLS=1 but ${msg.replace('; tests that compare with it are skipped', '')}`);
+  console.warn(`SKIP: ${msg}`);
+  return false;
+}
