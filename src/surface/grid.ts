@@ -214,3 +214,20 @@ function addLine(acc: Float64Array, W: number, rows: number, cols: number, x0: n
     }
   }
 }
+
+/**
+ * Warnings about a grid for people: a field smaller than one cell (the map is then one or a few cells).
+ * @example gridWarnings(grid, 'Home quarter') // [] for a normal field
+ */
+export function gridWarnings(grid: Grid, name: string): { code: string; message: string; field?: string }[] {
+  let s = 0;
+  for (let i = 0; i < grid.fraction.length; i++) s += grid.fraction[i];
+  if (s < 1) {
+    return [{
+      code: 'surface.field-smaller-than-cell',
+      message: `field "${name}" (${Math.round(s * grid.cell * grid.cell)} m2) is smaller than one ${grid.cell} m cell; the map has ${grid.cols * grid.rows} cell(s). Fix: use a smaller --cell.`,
+      field: 'cell',
+    }];
+  }
+  return [];
+}
