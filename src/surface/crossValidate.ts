@@ -97,7 +97,7 @@ export function crossValidate(xy: Float64Array, z: ArrayLike<number>, opts: CvOp
         g.begin(bx, bx, by, by, ring);
         for (let j = s; j < e; j++) {
           const self = b.si[j];
-          const found = g.nearest(b.sx[j], b.sy[j], self);
+          const found = g.nearest(b.sx[j], b.sy[j], self, true);
           for (const [k, ki] of finite) {
             const m = Math.min(k, found);
             if (m < minN) continue;
@@ -123,31 +123,29 @@ export function crossValidate(xy: Float64Array, z: ArrayLike<number>, opts: CvOp
   if (allIdx.length) {
     // every other sample (within the radius): symmetric weights, each pair once
     const num = new Float64Array(P * n), den = new Float64Array(P * n), cnt = new Int32Array(n), hit = new Int32Array(n).fill(-1);
-    const simple = powers.every((p) => p === 1 || p === 1.5 || p === 2 || p === 3);
+    const row = new Float64Array(n);
     for (let i = 0; i < n; i++) {
       const xi = xy[2 * i], yi = xy[2 * i + 1], zi = z[i];
+      // squared distances to the later samples; beyond the radius marked -1
       for (let j = i + 1; j < n; j++) {
         const dx = xy[2 * j] - xi, dy = xy[2 * j + 1] - yi;
         const d2 = dx * dx + dy * dy;
-        if (d2 > maxD2) continue;
+        if (d2 > maxD2) { row[j] = -1; continue; }
         cnt[i]++; cnt[j]++;
-        if (d2 < COINCIDENT_D2) { if (hit[i] < 0) hit[i] = j; if (hit[j] < 0) hit[j] = i; continue; }
-        const zj = z[j];
-        if (simple) {
-          const inv = 1 / d2, invs = Math.sqrt(inv);
-          for (let pi = 0; pi < P; pi++) {
-            const p = powers[pi];
-            const wt = p === 2 ? inv : p === 1 ? invs : p === 3 ? inv * invs : Math.sqrt(inv * invs);
-            num[pi * n + i] += wt * zj; den[pi * n + i] += wt;
-            num[pi * n + j] += wt * zi; den[pi * n + j] += wt;
-          }
-        } else {
-          for (let pi = 0; pi < P; pi++) {
-            const wt = weight(d2, powers[pi]);
-            num[pi * n + i] += wt * zj; den[pi * n + i] += wt;
-            num[pi * n + j] += wt * zi; den[pi * n + j] += wt;
-          }
+        if (d2 < COINCIDENT_D2) { if (hit[i] < 0) hit[i] = j; if (hit[j] < 0) hit[j] = i; row[j] = -1; continue; }
+        row[j] = d2;
+      }
+      for (let pi = 0; pi < P; pi++) {
+        const p = powers[pi], o = pi * n;
+        let ni = 0, di = 0;
+        for (let j = i + 1; j < n; j++) {
+          const d2 = row[j];
+          if (d2 < 0) continue;
+          const wt = p === 2 ? 1 / d2 : p === 1 ? 1 / Math.sqrt(d2) : p === 3 ? 1 / (d2 * Math.sqrt(d2)) : p === 1.5 ? 1 / Math.sqrt(d2 * Math.sqrt(d2)) : 1 / Math.pow(d2, p / 2);
+          ni += wt * z[j]; di += wt;
+          num[o + j] += wt * zi; den[o + j] += wt;
         }
+        num[o + i] += ni; den[o + i] += di;
       }
     }
     for (let i = 0; i < n; i++) {

@@ -77,7 +77,7 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
     return out;
   }
 
-  // bucket side: about half the expected k-th neighbour distance, in whole cells
+  // bucket side: about a quarter of the expected k-th neighbour distance, in whole cells (see docs/surface.md)
   let sxmin = Infinity, sxmax = -Infinity, symin = Infinity, symax = -Infinity;
   for (let i = 0; i < n; i++) {
     const x = xy[2 * i], y = xy[2 * i + 1];
@@ -88,7 +88,7 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
   const ux0 = Math.min(sxmin, xmin), ux1 = Math.max(sxmax, xmin + gw), uy0 = Math.min(symin, ymax - gh), uy1 = Math.max(symax, ymax);
   const areaEst = Math.max((ux1 - ux0) * (uy1 - uy0), cell * cell);
   const rk = Math.sqrt((k * areaEst) / (Math.PI * n));
-  const S = Math.max(1, Math.min(256, Math.round(rk / 2 / cell)));
+  const S = Math.max(1, Math.min(256, Math.round(rk / 4 / cell)));
   const B = S * cell;
   const bcols = Math.ceil(cols / S), brows = Math.ceil(rows / S);
   // extra buckets around the grid for samples outside it (capped; farther ones are clamped into the edge buckets,
@@ -102,7 +102,7 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
   const x0 = xmin - axL * B, y0 = ymax + ayT * B - ny * B;
   const buckets = buildBuckets(xy, B, x0, y0, nx, ny, xmin, ymax);
   const g = new KnnGroup(buckets, k, maxD2);
-  const ring = Math.max(1, Math.ceil((1.1 * Math.min(rk, radius)) / B));
+  const ring = Math.max(1, Math.ceil((1.3 * Math.min(rk, radius)) / B));
   const d2s = g.d2, idx = g.idx;
 
   for (let br = 0; br < brows; br++) {
@@ -124,14 +124,15 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
           if (where && !(where[i] > 0)) continue;
           const found = g.nearest((c + 0.5) * cell, qy);
           if (found < minN) continue;
-          if (d2s[0] < COINCIDENT_D2) { out[i] = z[idx[0]]; continue; }
-          let num = 0, den = 0;
+          let num = 0, den = 0, hit = -1;
           for (let j = 0; j < found; j++) {
-            const w = p2 ? 1 / d2s[j] : 1 / Math.pow(d2s[j], half);
+            const dd = d2s[j];
+            if (dd < COINCIDENT_D2) { hit = j; break; }
+            const w = p2 ? 1 / dd : 1 / Math.pow(dd, half);
             num += w * z[idx[j]];
             den += w;
           }
-          out[i] = num / den;
+          out[i] = hit >= 0 ? z[idx[hit]] : num / den;
         }
       }
     }

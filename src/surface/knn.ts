@@ -122,35 +122,98 @@ export class KnnGroup {
 
   /**
    * The k nearest candidates of (qx, qy) (relative to the buckets' origin) within maxD2, excluding
-   * original index `skip`; fills d2/idx ascending and returns how many were found. Grows the
-   * gathered region until the answer is proven.
+   * original index `skip`; fills d2/idx (ascending when `sorted`) and returns how many were found.
+   * Grows the gathered region until the answer is proven.
+   *
+   * Consecutive queries are usually close: the previous query's k-th distance plus the step between the
+   * two bounds this query's k-th distance (triangle inequality), so candidates beyond that bound are
+   * dropped without a heap or insertion; if too few remain, the pass is redone without the bound.
    */
-  nearest(qx: number, qy: number, skip = -1): number {
+  nearest(qx: number, qy: number, skip = -1, sorted = false): number {
     const k = this.k, maxD2 = this.maxD2, d2 = this.d2, idx = this.idx;
+    let bound = maxD2;
+    if (this.prevK2 >= 0) {
+      const step = Math.sqrt((qx - this.px) * (qx - this.px) + (qy - this.py) * (qy - this.py));
+      const b = Math.sqrt(this.prevK2) + step;
+      bound = b * b * (1 + 1e-12) + 1e-12;
+      if (bound > maxD2) bound = maxD2;
+    }
+    this.px = qx; this.py = qy;
     for (;;) {
-      let found = 0;
-      let worst = maxD2; // current admission bound
-      const { cx, cy, ci } = this;
+      if (this.sd.length < this.count) { this.sd = new Float64Array(this.cx.length); this.si2 = new Int32Array(this.cx.length); }
+      const { cx, cy, ci, sd, si2 } = this;
       const m = this.count;
+      let c = 0;
       for (let j = 0; j < m; j++) {
         const dx = cx[j] - qx, dy = cy[j] - qy;
         const dd = dx * dx + dy * dy;
-        if (dd > worst || (dd === worst && found === k)) continue;
-        if (ci[j] === skip) continue;
-        // insertion into the sorted top list
-        let p = found < k ? found++ : k - 1;
-        while (p > 0 && d2[p - 1] > dd) { d2[p] = d2[p - 1]; idx[p] = idx[p - 1]; p--; }
-        d2[p] = dd; idx[p] = ci[j];
-        if (found === k) worst = d2[k - 1] < maxD2 ? d2[k - 1] : maxD2;
+        if (dd <= bound) { sd[c] = dd; si2[c] = ci[j]; c++; }
+      }
+      if (skip >= 0) {
+        for (let t = 0; t < c; t++) if (si2[t] === skip) { c--; sd[t] = sd[c]; si2[t] = si2[c]; break; }
+      }
+      if (c < k && bound < maxD2) { bound = maxD2; continue; }
+      let found: number;
+      let kth: number;
+      if (c <= k) {
+        found = c;
+        kth = 0;
+        for (let t = 0; t < c; t++) { d2[t] = sd[t]; idx[t] = si2[t]; if (sd[t] > kth) kth = sd[t]; }
+        if (sorted) sortPairs(d2, idx, found);
+      } else if (c - k <= 6 && !sorted) {
+        // drop the c - k largest
+        for (let drop = c - k; drop > 0; drop--) {
+          let w = 0;
+          for (let t = 1; t < c; t++) if (sd[t] > sd[w]) w = t;
+          c--; sd[w] = sd[c]; si2[w] = si2[c];
+        }
+        found = k;
+        kth = 0;
+        for (let t = 0; t < k; t++) { d2[t] = sd[t]; idx[t] = si2[t]; if (sd[t] > kth) kth = sd[t]; }
+      } else {
+        // insertion into a sorted top-k
+        found = 0;
+        for (let t = 0; t < c; t++) {
+          const dd = sd[t];
+          if (found === k && dd >= d2[k - 1]) continue;
+          let p = found < k ? found++ : k - 1;
+          while (p > 0 && d2[p - 1] > dd) { d2[p] = d2[p - 1]; idx[p] = idx[p - 1]; p--; }
+          d2[p] = dd; idx[p] = si2[t];
+        }
+        kth = d2[found - 1];
       }
       // proof: every point outside the gathered region is at least `edge` away
       const ex = Math.min(qx - this.ex0, this.ex1 - qx), ey = Math.min(qy - this.ey0, this.ey1 - qy);
       const edge = ex < ey ? ex : ey;
-      const need2 = found === k ? d2[k - 1] : maxD2;
-      if (edge === Infinity || need2 <= edge * edge) return found;
+      const need2 = found === k ? kth : maxD2;
+      if (edge === Infinity || need2 <= edge * edge) {
+        this.prevK2 = found === k ? kth : -1;
+        return found;
+      }
       this.expansions++;
       this.gather(this.bxa - 1, this.bxb + 1, this.bya - 1, this.byb + 1);
     }
+  }
+
+  /** Forget the previous query (its bound no longer helps, e.g. at the start of a far-away group). */
+  reset(): void {
+    this.prevK2 = -1;
+  }
+
+  private prevK2 = -1;
+  private px = 0;
+  private py = 0;
+  private sd = new Float64Array(64);
+  private si2 = new Int32Array(64);
+}
+
+/** Sorts the first n pairs by distance (insertion sort; n is small). */
+function sortPairs(d2: Float64Array, idx: Int32Array, n: number): void {
+  for (let i = 1; i < n; i++) {
+    const d = d2[i], j0 = idx[i];
+    let p = i;
+    while (p > 0 && d2[p - 1] > d) { d2[p] = d2[p - 1]; idx[p] = idx[p - 1]; p--; }
+    d2[p] = d; idx[p] = j0;
   }
 }
 

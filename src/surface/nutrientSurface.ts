@@ -41,7 +41,7 @@ export function analyteFromName(name: string): Analyte {
 
 /** Options for {@link nutrientSurface}. */
 export interface NutrientSurfaceOptions {
-  /** IDW power, or 'auto' = lowest cross-validation RMSE among `powers` (default 'auto') */
+  /** IDW power, or 'auto' = lowest cross-validation RMSE among `powers` (default 'auto'); a number is the only candidate */
   power?: number | 'auto';
   /** nearest samples used (Infinity = all), or 'auto' (default 'auto') */
   neighbours?: number | 'auto';
@@ -53,7 +53,7 @@ export interface NutrientSurfaceOptions {
   radius?: number;
   /** NaN where fewer samples lie within the radius (default 1) */
   minNeighbours?: number;
-  /** skip cross-validation when power and neighbours are both given (default false: the table is always made) */
+  /** skip cross-validation when power and neighbours are both given (default false: a one-row table for the given pair is made) */
   skipCv?: boolean;
 }
 
@@ -133,9 +133,11 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
   const fixedK = typeof opts.neighbours === 'number' ? opts.neighbours : null;
   let cv: CvResult | null = null;
   if (!(opts.skipCv && fixedP !== null && fixedK !== null)) {
+    // a fixed value is the only candidate on its axis: with both given, the table is the one row that says
+    // how well the given pair predicts left-out samples (cheap), not a search
     cv = crossValidate(pts.xy, pts.z, {
-      powers: uniq([...(opts.powers ?? DEFAULT_POWERS), ...(fixedP !== null ? [fixedP] : [])]),
-      neighbours: uniq([...(opts.neighbourChoices ?? DEFAULT_NEIGHBOURS), ...(fixedK !== null ? [fixedK] : [])]),
+      powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
+      neighbours: fixedK !== null ? [fixedK] : (opts.neighbourChoices ?? DEFAULT_NEIGHBOURS),
       radius: opts.radius,
       minNeighbours: opts.minNeighbours,
     });
@@ -151,7 +153,7 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
     const what = fixedP === null && fixedK === null ? 'power and neighbours' : fixedP === null ? 'power' : fixedK === null ? 'neighbours' : '';
     choice = what
       ? `${what} chosen by leave-one-out cross-validation: lowest RMSE ${fmt(best.rmse)} at power ${power}, ${kName(neighbours)} neighbours`
-      : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation RMSE ${fmt(best.rmse)}; lowest in the table ${fmt(cv.best.rmse)} at power ${cv.best.power}, ${kName(cv.best.neighbours)} neighbours)`;
+      : `power ${power} and ${kName(neighbours)} neighbours as given (leave-one-out RMSE ${fmt(best.rmse)}; use --power auto --neighbours auto to compare others)`;
   } else {
     choice = n < 3 ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)` : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
     if (n < 3) warnings.push({ code: 'surface.few-samples', message: `${label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`, field: label });
@@ -169,6 +171,3 @@ function fmt(v: number): string {
   return Number.isFinite(v) ? String(Number(v.toPrecision(4))) : 'n/a';
 }
 
-function uniq(a: number[]): number[] {
-  return [...new Set(a)];
-}
