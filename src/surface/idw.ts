@@ -29,7 +29,8 @@ export const COINCIDENT_D2 = 1e-13;
 
 /**
  * IDW values at every cell centre of `grid` (row-major, north-up; NaN where not computed or too few neighbours).
- * Uses the k nearest samples found by bucketed, provably exact candidate sets per block of cells.
+ * Uses the k nearest samples found by bucketed, provably exact candidate sets per block of cells; samples at
+ * equal distance are taken in input order (lower index first).
  *
  * @param xy sample positions x0 y0 x1 y1 ... (metres, same frame as the grid)
  * @param z sample values (finite; filter missing ones first)
@@ -48,6 +49,8 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
   const out = new Float64Array(cols * rows).fill(NaN);
   if (n === 0 || k < 1) return out;
   const maxD2 = radius * radius;
+  let zlo = Infinity, zhi = -Infinity;
+  for (let i = 0; i < n; i++) { if (z[i] < zlo) zlo = z[i]; if (z[i] > zhi) zhi = z[i]; }
   const half = power / 2;
   const p2 = power === 2;
 
@@ -71,7 +74,8 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
           num += w * z[j];
           den += w;
         }
-        out[i] = hit >= 0 ? z[hit] : num / den;
+        const v = hit >= 0 ? z[hit] : num / den;
+        out[i] = v < zlo ? zlo : v > zhi ? zhi : v;
       }
     }
     return out;
@@ -127,12 +131,14 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
           let num = 0, den = 0, hit = -1;
           for (let j = 0; j < found; j++) {
             const dd = d2s[j];
-            if (dd < COINCIDENT_D2) { hit = j; break; }
+            if (dd < COINCIDENT_D2) { if (hit < 0 || idx[j] < idx[hit]) hit = j; continue; }
             const w = p2 ? 1 / dd : 1 / Math.pow(dd, half);
             num += w * z[idx[j]];
             den += w;
           }
-          out[i] = hit >= 0 ? z[idx[hit]] : num / den;
+          const v = hit >= 0 ? z[idx[hit]] : num / den;
+          // a weighted mean can land one rounding step outside the samples' range: keep it inside
+          out[i] = v < zlo ? zlo : v > zhi ? zhi : v;
         }
       }
     }

@@ -123,6 +123,7 @@ export class KnnGroup {
   /**
    * The k nearest candidates of (qx, qy) (relative to the buckets' origin) within maxD2, excluding
    * original index `skip`; fills d2/idx (ascending when `sorted`) and returns how many were found.
+   * Equal distances are broken by the lower original index (input order), so the answer is unique.
    * Grows the gathered region until the answer is proven.
    *
    * Consecutive queries are usually close: the previous query's k-th distance plus the step between the
@@ -164,7 +165,7 @@ export class KnnGroup {
         // drop the c - k largest
         for (let drop = c - k; drop > 0; drop--) {
           let w = 0;
-          for (let t = 1; t < c; t++) if (sd[t] > sd[w]) w = t;
+          for (let t = 1; t < c; t++) if (sd[t] > sd[w] || (sd[t] === sd[w] && si2[t] > si2[w])) w = t;
           c--; sd[w] = sd[c]; si2[w] = si2[c];
         }
         found = k;
@@ -174,11 +175,11 @@ export class KnnGroup {
         // insertion into a sorted top-k
         found = 0;
         for (let t = 0; t < c; t++) {
-          const dd = sd[t];
-          if (found === k && dd >= d2[k - 1]) continue;
+          const dd = sd[t], ii = si2[t];
+          if (found === k && (dd > d2[k - 1] || (dd === d2[k - 1] && ii > idx[k - 1]))) continue;
           let p = found < k ? found++ : k - 1;
-          while (p > 0 && d2[p - 1] > dd) { d2[p] = d2[p - 1]; idx[p] = idx[p - 1]; p--; }
-          d2[p] = dd; idx[p] = si2[t];
+          while (p > 0 && (d2[p - 1] > dd || (d2[p - 1] === dd && idx[p - 1] > ii))) { d2[p] = d2[p - 1]; idx[p] = idx[p - 1]; p--; }
+          d2[p] = dd; idx[p] = ii;
         }
         kth = d2[found - 1];
       }
@@ -186,7 +187,7 @@ export class KnnGroup {
       const ex = Math.min(qx - this.ex0, this.ex1 - qx), ey = Math.min(qy - this.ey0, this.ey1 - qy);
       const edge = ex < ey ? ex : ey;
       const need2 = found === k ? kth : maxD2;
-      if (edge === Infinity || need2 <= edge * edge) {
+      if (edge === Infinity || need2 < edge * edge) {
         this.prevK2 = found === k ? kth : -1;
         return found;
       }
@@ -212,7 +213,7 @@ function sortPairs(d2: Float64Array, idx: Int32Array, n: number): void {
   for (let i = 1; i < n; i++) {
     const d = d2[i], j0 = idx[i];
     let p = i;
-    while (p > 0 && d2[p - 1] > d) { d2[p] = d2[p - 1]; idx[p] = idx[p - 1]; p--; }
+    while (p > 0 && (d2[p - 1] > d || (d2[p - 1] === d && idx[p - 1] > j0))) { d2[p] = d2[p - 1]; idx[p] = idx[p - 1]; p--; }
     d2[p] = d; idx[p] = j0;
   }
 }
