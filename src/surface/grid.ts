@@ -49,14 +49,7 @@ export function fieldGrid(field: Pick<Field, 'parts' | 'name'> & Partial<Pick<Fi
   }
   const grid: Grid = { xmin, ymax, cell, cols, rows, mask: new Uint8Array(cols * rows), fraction: new Float32Array(cols * rows) };
   centreMask(field.parts, grid, grid.mask);
-  const cov = coverage(field.parts, grid);
-  const f = grid.fraction;
-  for (let i = 0; i < cov.length; i++) {
-    let v = Math.abs(cov[i]);
-    if (v > 1 - 1e-9) v = 1;
-    else if (v < 1e-12) v = 0;
-    f[i] = v;
-  }
+  coverage(field.parts, grid, grid.fraction);
   return grid;
 }
 
@@ -133,7 +126,12 @@ export function centreMask(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | '
  * cells it crosses and a running sum along each row completes them (the scheme of font rasterizers).
  * @example const cov = coverage(field.parts, grid); Math.abs(cov[i]) // share of cell i inside
  */
-export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>): Float64Array {
+export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>): Float64Array;
+/**
+ * The same, written as fractions 0..1 into `into` (absolute value; within 1e-9 of 1 written as 1, below 1e-12 as 0).
+ */
+export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>, into: Float32Array): Float32Array;
+export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>, into?: Float32Array): Float64Array | Float32Array {
   const W = g.cols + 2; // one spare column each side of the accumulation row
   const acc = new Float64Array(W * g.rows);
   const inv = 1 / g.cell;
@@ -148,12 +146,23 @@ export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'ce
       }
     }
   }
+  if (into) {
+    for (let row = 0; row < g.rows; row++) {
+      const b = row * W;
+      let s = acc[b];
+      for (let c = 0; c < g.cols; c++) {
+        s += acc[b + c + 1];
+        const v = s < 0 ? -s : s;
+        into[row * g.cols + c] = v > 1 - 1e-9 ? 1 : v < 1e-12 ? 0 : v;
+      }
+    }
+    return into;
+  }
   const out = new Float64Array(g.cols * g.rows);
   for (let row = 0; row < g.rows; row++) {
-    let s = 0;
     const b = row * W;
     // column -1 (index 0 of the row) holds nothing inside the grid; include it in the running sum
-    s += acc[b];
+    let s = acc[b];
     for (let c = 0; c < g.cols; c++) {
       s += acc[b + c + 1];
       out[row * g.cols + c] = s;
