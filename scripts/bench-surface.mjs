@@ -52,7 +52,7 @@ function makeCase(dir, n, side, seed) {
 
 /** Runs a command `runs` times; median wall seconds and max peak RSS (MB). */
 function measure(cmd, argv, runs, cwd) {
-  const walls = [], rss = [];
+  const walls = [], rss = [], cpu = [];
   for (let r = 0; r < runs; r++) {
     const t0 = process.hrtime.bigint();
     const res = TIME ? spawnSync(TIME, ['-v', cmd, ...argv], { cwd, encoding: 'utf8' }) : spawnSync(cmd, argv, { cwd, encoding: 'utf8' });
@@ -61,9 +61,11 @@ function measure(cmd, argv, runs, cwd) {
     walls.push(wall);
     const m = /Maximum resident set size \(kbytes\): (\d+)/.exec(res.stderr ?? '');
     if (m) rss.push(Number(m[1]) / 1024);
+    const u = /User time \(seconds\): ([\d.]+)/.exec(res.stderr ?? ''), sy = /System time \(seconds\): ([\d.]+)/.exec(res.stderr ?? '');
+    if (u && sy) cpu.push(Number(u[1]) + Number(sy[1]));
   }
-  walls.sort((a, b) => a - b);
-  return { wall: walls[Math.floor(walls.length / 2)], rss: rss.length ? Math.max(...rss) : NaN };
+  const med = (a) => (a.length ? [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)] : NaN);
+  return { wall: med(walls), cpu: med(cpu), rss: rss.length ? Math.max(...rss) : NaN };
 }
 
 const CASES = [
@@ -81,8 +83,9 @@ console.log(`machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${pr
 console.log('tilth: tilth surface --power 2 --neighbours 12 (whole process, bundled CLI)');
 if (HAS_GDAL) console.log('gdal_grid 3.6: invdist:power=2:smoothing=0 (all points) and invdistnn:power=2:max_points=12 on the same points and grid');
 console.log('');
-console.log('| samples | grid | tilth s | tilth MB | gdal invdist s | invdist / tilth | gdal invdistnn s | invdistnn / tilth |');
-console.log('|---:|---|---:|---:|---:|---:|---:|---:|');
+console.log('wall = median elapsed seconds; cpu = median user + system seconds (all threads); MB = peak resident memory');
+console.log('| samples | grid | tilth wall | tilth cpu | tilth MB | invdist wall | invdist cpu | invdist / tilth (wall) | invdistnn wall | invdistnn / tilth (wall) |');
+console.log('|---:|---|---:|---:|---:|---:|---:|---:|---:|---:|');
 for (const c of CASES) {
   const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-'));
   try {
@@ -93,11 +96,12 @@ for (const c of CASES) {
     const t = measure(process.execPath, tilthArgs, RUNS, root);
     const head = readFileSync(out, 'utf8').slice(0, 300).split('\n');
     const h = Object.fromEntries(head.slice(0, 6).map((l) => l.split(/\s+/)).map(([k, v]) => [k.toLowerCase(), Number(v)]));
-    let gi = '', gr = '', nn = '', nr = '';
+    let gi = '', gc = '', gr = '', nn = '', nr = '';
     if (HAS_GDAL) {
       const base = ['-q', '-ot', 'Float64', '-of', 'GTiff', '-txe', String(h.xllcorner), String(h.xllcorner + h.ncols * h.cellsize), '-tye', String(h.yllcorner + h.nrows * h.cellsize), String(h.yllcorner), '-outsize', String(h.ncols), String(h.nrows), '-zfield', 'z', '-l', 'points'];
       const g = measure('gdal_grid', [...base, '-a', 'invdist:power=2:smoothing=0', join(dir, 'points.vrt'), join(dir, 'g.tif')], Math.min(RUNS, 3), dir);
       gi = g.wall.toFixed(3);
+      gc = g.cpu.toFixed(3);
       gr = (g.wall / t.wall).toFixed(2);
       const nnCost = c.n * c.cells * c.cells;
       if (NN_ALL || nnCost <= 5000 * 160 * 160) {
@@ -108,7 +112,7 @@ for (const c of CASES) {
         nn = 'skipped (--nn)';
       }
     }
-    console.log(`| ${c.n} | ${c.label ?? `${c.cells} x ${c.cells}`} (${h.ncols} x ${h.nrows}) | ${t.wall.toFixed(3)} | ${Number.isNaN(t.rss) ? 'n/a' : t.rss.toFixed(0)} | ${gi} | ${gr} | ${nn} | ${nr} |`);
+    console.log(`| ${c.n} | ${c.label ?? `${c.cells} x ${c.cells}`} (${h.ncols} x ${h.nrows}) | ${t.wall.toFixed(3)} | ${t.cpu.toFixed(3)} | ${Number.isNaN(t.rss) ? 'n/a' : t.rss.toFixed(0)} | ${gi} | ${gc} | ${gr} | ${nn} | ${nr} |`);
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

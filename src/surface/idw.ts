@@ -123,7 +123,10 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
       g.begin(bx, bx, by, by, ring);
       for (let r = r0; r < r1; r++) {
         const qy = -(r + 0.5) * cell;
-        for (let c = c0; c < c1; c++) {
+        // serpentine order: each cell is next to the previous one, which keeps the search bound tight
+        const fwd = ((r - r0) & 1) === 0;
+        for (let t = c0; t < c1; t++) {
+          const c = fwd ? t : c1 - 1 - (t - c0);
           const i = r * cols + c;
           if (where && !(where[i] > 0)) continue;
           const found = g.nearest((c + 0.5) * cell, qy);

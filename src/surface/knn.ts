@@ -113,6 +113,7 @@ export class KnnGroup {
       for (let j = s; j < e; j++) { cx[m] = b.sx[j]; cy[m] = b.sy[j]; ci[m] = b.si[j]; m++; }
     }
     this.count = m;
+    this.gen++;
     const rx = b.x0 - b.ox, ry = b.y0 - b.oy;
     this.ex0 = bxa <= 0 ? -Infinity : rx + bxa * b.size;
     this.ex1 = bxb >= b.nx - 1 ? Infinity : rx + (bxb + 1) * b.size;
@@ -142,12 +143,20 @@ export class KnnGroup {
     this.px = qx; this.py = qy;
     for (;;) {
       if (this.sd.length < this.count) { this.sd = new Float64Array(this.cx.length); this.si2 = new Int32Array(this.cx.length); }
-      const { cx, cy, ci, sd, si2 } = this;
+      const { cx, ci, sd, si2 } = this;
       const m = this.count;
+      // squared y distances are shared by every query on one row (grid cells): computed once per row
+      if (qy !== this.rowQy || this.rowGen !== this.gen) {
+        if (this.rdy.length < this.cx.length) this.rdy = new Float64Array(this.cx.length);
+        const cy = this.cy, rdy = this.rdy;
+        for (let j = 0; j < m; j++) { const dy = cy[j] - qy; rdy[j] = dy * dy; }
+        this.rowQy = qy; this.rowGen = this.gen;
+      }
+      const rdy = this.rdy;
       let c = 0;
       for (let j = 0; j < m; j++) {
-        const dx = cx[j] - qx, dy = cy[j] - qy;
-        const dd = dx * dx + dy * dy;
+        const dx = cx[j] - qx;
+        const dd = dx * dx + rdy[j];
         if (dd <= bound) { sd[c] = dd; si2[c] = ci[j]; c++; }
       }
       if (skip >= 0) {
@@ -161,27 +170,13 @@ export class KnnGroup {
         kth = 0;
         for (let t = 0; t < c; t++) { d2[t] = sd[t]; idx[t] = si2[t]; if (sd[t] > kth) kth = sd[t]; }
         if (sorted) sortPairs(d2, idx, found);
-      } else if (c - k <= 6 && !sorted) {
-        // drop the c - k largest
-        for (let drop = c - k; drop > 0; drop--) {
-          let w = 0;
-          for (let t = 1; t < c; t++) if (sd[t] > sd[w] || (sd[t] === sd[w] && si2[t] > si2[w])) w = t;
-          c--; sd[w] = sd[c]; si2[w] = si2[c];
-        }
-        found = k;
-        kth = 0;
-        for (let t = 0; t < k; t++) { d2[t] = sd[t]; idx[t] = si2[t]; if (sd[t] > kth) kth = sd[t]; }
       } else {
-        // insertion into a sorted top-k
-        found = 0;
-        for (let t = 0; t < c; t++) {
-          const dd = sd[t], ii = si2[t];
-          if (found === k && (dd > d2[k - 1] || (dd === d2[k - 1] && ii > idx[k - 1]))) continue;
-          let p = found < k ? found++ : k - 1;
-          while (p > 0 && (d2[p - 1] > dd || (d2[p - 1] === dd && idx[p - 1] > ii))) { d2[p] = d2[p - 1]; idx[p] = idx[p - 1]; p--; }
-          d2[p] = dd; idx[p] = ii;
-        }
-        kth = d2[found - 1];
+        // the k smallest (by distance, then index) moved to the front; position k - 1 holds the k-th
+        selectK(sd, si2, c, k);
+        found = k;
+        kth = sd[k - 1];
+        for (let t = 0; t < k; t++) { d2[t] = sd[t]; idx[t] = si2[t]; }
+        if (sorted) sortPairs(d2, idx, found);
       }
       // proof: every point outside the gathered region is at least `edge` away
       const ex = Math.min(qx - this.ex0, this.ex1 - qx), ey = Math.min(qy - this.ey0, this.ey1 - qy);
@@ -202,10 +197,40 @@ export class KnnGroup {
   }
 
   private prevK2 = -1;
+  private gen = 0;
+  private rowGen = -1;
+  private rowQy = NaN;
+  private rdy = new Float64Array(64);
   private px = 0;
   private py = 0;
   private sd = new Float64Array(64);
   private si2 = new Int32Array(64);
+}
+
+/**
+ * Partial selection (Hoare's nth-element): afterwards the k smallest pairs by (distance, index) are in
+ * [0, k) and position k - 1 holds the k-th smallest. Keys are unique because indices are.
+ */
+function selectK(sd: Float64Array, si: Int32Array, c: number, k: number): void {
+  let lo = 0, hi = c - 1;
+  const target = k - 1;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    const pd = sd[mid], pi = si[mid];
+    let i = lo, j = hi;
+    while (i <= j) {
+      while (sd[i] < pd || (sd[i] === pd && si[i] < pi)) i++;
+      while (sd[j] > pd || (sd[j] === pd && si[j] > pi)) j--;
+      if (i <= j) {
+        const td = sd[i]; sd[i] = sd[j]; sd[j] = td;
+        const ti = si[i]; si[i] = si[j]; si[j] = ti;
+        i++; j--;
+      }
+    }
+    if (target <= j) hi = j;
+    else if (target >= i) lo = i;
+    else break;
+  }
 }
 
 /** Sorts the first n pairs by distance (insertion sort; n is small). */
