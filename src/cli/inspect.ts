@@ -17,6 +17,7 @@ export function register(program: Command): void {
     .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
     .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
     .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
+    .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)')
     .option('--json', 'print JSON for scripts')
     .addHelpText('after', '\nExample:\n  tilth inspect --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson\n' +
       '  tilth inspect --samples sample-fields/zoned/samples.geojson --boundary sample-fields/zoned/boundary.geojson --zones sample-fields/zoned/zones.geojson --json')
@@ -30,7 +31,7 @@ export function register(program: Command): void {
       const inputs = loadInputs({
         samples: o.samples, boundary: o.boundary, zones: o.zones, columns: o.columns, pMethod,
         depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 1, max: 10 }),
-        dropOutside: Boolean(o.dropOutside),
+        dropOutside: Boolean(o.dropOutside), assumeWgs84: Boolean(o.assumeWgs84),
       });
       const r = inspectInputs(inputs);
       if (o.json) out(JSON.stringify(r, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));

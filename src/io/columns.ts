@@ -25,9 +25,13 @@ export interface ColumnInfo {
 }
 
 export interface ColumnMapEntry {
+  role: Role;
   name: string;
   unit: ValueUnit | null;
 }
+
+/** A user column map: entries in the order given. Analyte keys may repeat (one column per depth). */
+export type ColumnMap = ColumnMapEntry[];
 
 /** Parses a unit word; null when none is recognised. */
 export function parseUnit(s: string): ValueUnit | null {
@@ -41,11 +45,12 @@ export function parseUnit(s: string): ValueUnit | null {
 /**
  * Parses a column map such as `id=Sample ID,lat=Latitude,lon=Longitude,no3_n=Nitrate:ppm`.
  * Keys are roles (id, lat, lon, depth, zone, texture, pmethod, no3_n, p, k, so4_s, om, ph); a value may end in
- * `:ppm`, `:lb/ac` or `:kg/ha` to state its unit.
- * @example parseColumnMap('id=Sample,p=P Olsen:ppm').get('p') // { name: 'P Olsen', unit: 'ppm' }
+ * `:ppm`, `:lb/ac` or `:kg/ha` to state its unit. Analyte keys may repeat for columns of different depths
+ * (`no3_n=NO3 0-6:lb/ac,no3_n=NO3 6-24:lb/ac`); the depth then comes from each column's name.
+ * @example parseColumnMap('id=Sample,p=P Olsen:ppm')[1] // { role: 'p', name: 'P Olsen', unit: 'ppm' }
  */
-export function parseColumnMap(spec: string | undefined): Map<Role, ColumnMapEntry> {
-  const out = new Map<Role, ColumnMapEntry>();
+export function parseColumnMap(spec: string | undefined): ColumnMap {
+  const out: ColumnMap = [];
   if (!spec || !spec.trim()) return out;
   for (const part of spec.split(',')) {
     const eq = part.indexOf('=');
@@ -64,8 +69,9 @@ export function parseColumnMap(spec: string | undefined): Map<Role, ColumnMapEnt
       if (u) { unit = u; name = name.slice(0, colon).trim(); }
     }
     if (!name) throw new UserError(`option --columns: "${part.trim()}" names no column. Fix: write ${key}=COLUMN NAME.`);
-    if (out.has(key)) throw new UserError(`option --columns: "${key}" is given twice. Fix: map each key to one column.`);
-    out.set(key, { name, unit });
+    const analyte = ['no3_n', 'p', 'k', 'so4_s'].includes(key);
+    if (!analyte && out.some((e) => e.role === key)) throw new UserError(`option --columns: "${key}" is given twice. Fix: map ${key} to one column.`);
+    out.push({ role: key, name, unit });
   }
   return out;
 }
@@ -77,6 +83,7 @@ function tokens(header: string): string[] {
     .replace(/no3[\s_-]*n|no3|nitrate[\s_-]*n/g, ' nitrate ')
     .replace(/so4[\s_-]*s|so4|sulph?ate[\s_-]*s|sulfate[\s_-]*s/g, ' sulphate ')
     .replace(/lbs?\s*\/\s*ac(re)?|\blbs? ac\b|\blbac\b|lbs?\s*\/\s*a\b/g, ' lbac ')
+    .replace(/\blbs?\b/g, ' lbac ')
     .replace(/kg\s*\/\s*ha|\bkgha\b/g, ' kgha ')
     .replace(/mg\s*\/\s*kg|\bmgkg\b/g, ' ppm ')
     .replace(/%/g, ' pct ')
@@ -126,12 +133,13 @@ export function classifyHeader(name: string): Omit<ColumnInfo, 'name'> | null {
  * Decides the column plan for a file: the user's map first, then recognised headers.
  * Throws a UserError when a mapped column is missing or a role is claimed twice where it must be unique.
  * @param columns the file's column names
- * @example planColumns(['Sample','Latitude','Longitude','P Olsen (ppm)'], new Map(), 'samples.csv')
+ * @example planColumns(['Sample','Latitude','Longitude','P Olsen (ppm)'], [], 'samples.csv')
  */
-export function planColumns(columns: string[], map: Map<Role, ColumnMapEntry>, file: string): ColumnInfo[] {
+export function planColumns(columns: string[], map: ColumnMap, file: string): ColumnInfo[] {
   const plan: ColumnInfo[] = [];
   const mapped = new Set<string>();
-  for (const [role, e] of map) {
+  for (const e of map) {
+    const role = e.role;
     const name = columns.find((c) => c === e.name) ?? columns.find((c) => c.trim().toLowerCase() === e.name.toLowerCase());
     if (name === undefined) {
       throw new UserError(
@@ -153,7 +161,7 @@ export function planColumns(columns: string[], map: Map<Role, ColumnMapEntry>, f
   for (const c of columns) {
     if (mapped.has(c)) continue;
     const info = classifyHeader(c);
-    if (!info || map.has(info.role)) continue;
+    if (!info || map.some((e) => e.role === info.role)) continue;
     plan.push({ name: c, ...info });
   }
   for (const role of ['id', 'lat', 'lon', 'depth', 'zone', 'texture', 'pmethod', 'om', 'ph'] as Role[]) {

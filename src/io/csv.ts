@@ -4,7 +4,7 @@
  * latitude/longitude columns. Values stay text here; src/validate parses and judges them.
  */
 import { UserError } from '../errors.js';
-import { classifyHeader, type ColumnMapEntry, type Role } from './columns.js';
+import { classifyHeader, type ColumnMap, type Role } from './columns.js';
 import type { RawRecord, RawTable } from './records.js';
 
 /**
@@ -52,14 +52,14 @@ export function parseCsv(text: string): { rows: string[][]; lines: number[] } {
  * Reads lab-style CSV into records. The header is the first row (of the first 50) that names a
  * latitude and a longitude column, by the column map or by recognisable names.
  * @param map the user's column map (parseColumnMap), may be empty
- * @example readCsvRecords(text, 'samples.csv', new Map()).records.length
+ * @example readCsvRecords(text, 'samples.csv', []).records.length
  */
-export function readCsvRecords(text: string, file: string, map: Map<Role, ColumnMapEntry>): RawTable {
+export function readCsvRecords(text: string, file: string, map: ColumnMap): RawTable {
   if (text.replace(/^\uFEFF/, '').trim() === '') throw new UserError(`${file} is empty. Fix: export the lab results again; the file has no content.`, { file });
   const { rows, lines } = parseCsv(text);
   const role = (cell: string): Role | null => {
     const c = cell.trim();
-    for (const [r, e] of map) if (e.name.toLowerCase() === c.toLowerCase()) return r;
+    for (const e of map) if (e.name.toLowerCase() === c.toLowerCase()) return e.role;
     return classifyHeader(c)?.role ?? null;
   };
   let h = -1;

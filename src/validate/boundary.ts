@@ -78,9 +78,6 @@ export function checkPartsMetres(parts: RingsPart[], where: string[], file: stri
   parts.forEach((p, i) => {
     rings.push(p.exterior); names.push(`${where[i]}, outer ring`);
     p.holes.forEach((h, j) => { rings.push(h); names.push(`${where[i]}, hole ${j + 1}`); });
-    if (Math.abs(ringArea(p.exterior)) < 1) {
-      throw new UserError(`${file} ${where[i]}: the outer ring has no area (its points lie on a line or on top of each other). Fix: draw the ${what} again.`, { file, where: where[i] });
-    }
   });
   const x = findCrossing(rings);
   if (x) {
@@ -91,6 +88,11 @@ export function checkPartsMetres(parts: RingsPart[], where: string[], file: stri
       { file, where: names[x.ringA] },
     );
   }
+  parts.forEach((p, i) => {
+    if (Math.abs(ringArea(p.exterior)) < 1) {
+      throw new UserError(`${file} ${where[i]}: the outer ring has no area (its points lie on a line or on top of each other). Fix: draw the ${what} again.`, { file, where: where[i] });
+    }
+  });
   parts.forEach((p, i) => {
     p.holes.forEach((h, j) => {
       if (!pointInRing(p.exterior, h[0], h[1])) {

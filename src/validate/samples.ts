@@ -6,13 +6,13 @@
 import { UserError, type Warning } from '../errors.js';
 import { ANALYTES, type Analyte, type Censor, type PMethod, type Samples, type Texture } from '../types.js';
 import { kghaToLbac, lbacToPpm, ppmToLbac } from '../units/index.js';
-import { planColumns, type ColumnInfo, type ColumnMapEntry, type Role } from '../io/columns.js';
+import { planColumns, type ColumnInfo, type ColumnMap, type Role } from '../io/columns.js';
 import type { RawRecord, RawTable } from '../io/records.js';
 import { parseLabValue } from './values.js';
 
 export interface SampleOptions {
   /** user column map (parseColumnMap) */
-  map?: Map<Role, ColumnMapEntry>;
+  map?: ColumnMap;
   /** factor from 0-6 in nitrate / sulphate lb/ac to 0-24 in; no default: without it 0-6 in only is an error */
   depthFactor?: number;
   /** P test method when the file does not say; must agree with the file when it does */
@@ -62,12 +62,12 @@ interface Layer { top: number; bottom: number; value: number; censor: Censor; wh
 /**
  * Builds samples from a table of records.
  * @throws UserError for anything that cannot be read unambiguously (see docs/method.md "Reading samples")
- * @example const { samples, warnings } = buildSamples(readCsvRecords(text, 'samples.csv', new Map()), {});
+ * @example const { samples, warnings } = buildSamples(readCsvRecords(text, 'samples.csv', []), {});
  */
 export function buildSamples(table: RawTable, opts: SampleOptions = {}): { samples: SamplesLonLat; warnings: Warning[] } {
   const file = table.file;
   const warnings: Warning[] = [];
-  const plan = planColumns(table.columns, opts.map ?? new Map(), file);
+  const plan = planColumns(table.columns, opts.map ?? [], file);
   const col = (role: Role) => plan.find((c) => c.role === role);
   const idCol = col('id'), depthCol = col('depth'), zoneCol = col('zone'), texCol = col('texture'), pmCol = col('pmethod');
   if (table.records.length === 0) {
@@ -171,7 +171,7 @@ export function buildSamples(table: RawTable, opts: SampleOptions = {}): { sampl
       const r = table.records[i];
       if (Math.abs(r.lon - first.lon) > 5e-5 || Math.abs(r.lat - first.lat) > 5e-5) {
         throw new UserError(
-          `${file}: sample id "${id}" appears at two places (${first.where}: ${first.lat}, ${first.lon}; ${r.where}: ${r.lat}, ${r.lon}). ` +
+          `${file}: sample id "${id}" is used twice, for two different places (${first.where}: ${first.lat}, ${first.lon}; ${r.where}: ${r.lat}, ${r.lon}). ` +
             'Fix: ids must be unique per sampling location; correct the id or the coordinates.',
           { file, where: r.where, field: idCol?.name, value: id },
         );
