@@ -75,7 +75,7 @@ export function formatInspection(r: Inspection): string {
     lines.push([d.label.padEnd(26), d.unit.padEnd(6), String(d.n).padStart(3), fmt(d.min, dec).padStart(7), fmt(d.median, dec).padStart(7),
       fmt(d.max, dec).padStart(7), fmt(d.mean, dec + 1).padStart(7), fmt(d.cv * 100, 0).padStart(6), `  ${cens || '-'}`].join(' '));
   }
-  if (r.analytes.no3_n.censoredBelow + r.analytes.so4_s.censoredAbove + r.analytes.p.censoredBelow > 0 || ANALYTES.some((a) => r.analytes[a].censoredBelow + r.analytes[a].censoredAbove > 0)) {
+  if (ANALYTES.some((a) => r.analytes[a].censoredBelow + r.analytes[a].censoredAbove > 0)) {
     lines.push('', 'censored values: below detection counted as half the limit, above range as the limit (docs/method.md)');
   }
   lines.push('', r.warnings.length ? `${r.warnings.length} warning(s) follow on stderr` : 'no warnings');
