@@ -154,3 +154,15 @@ describe('samples from the demo farm', () => {
     userError(() => readGeoJsonPolygons('{"type":"Point","coordinates":[0,0]}', 'b.geojson'), /Polygon or MultiPolygon/);
   });
 });
+
+describe('units printed in cells', () => {
+  it('a unit in the cell is used; two units in one column are refused', () => {
+    // source: Manitoba Agriculture, Soil Fertility Guide: ppm x 2 = lb/ac for a 6 in layer
+    const ok = 'Sample,Lat,Long,Depth (in),NO3-N\nA,52.3,-106.4,0-6,5 ppm\nA,52.3,-106.4,6-24,3 ppm\n';
+    expect(buildSamples(readCsvRecords(ok, 't.csv', [])).samples.values.no3_n[0]).toBe(5 * 2 + 3 * 6);
+    const mixed = 'Sample,Lat,Long,Depth (in),NO3-N\nA,52.3,-106.4,0-6,5 ppm\nA,52.3,-106.4,6-24,18 lb/ac\n';
+    userError(() => buildSamples(readCsvRecords(mixed, 't.csv', [])), /mixed units in one column/);
+    const clash = 'Sample,Lat,Long,Depth (in),NO3-N (lb/ac)\nA,52.3,-106.4,0-24,5 ppm\n';
+    userError(() => buildSamples(readCsvRecords(clash, 't.csv', [])), /header says lb\/ac/);
+  });
+});

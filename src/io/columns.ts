@@ -11,6 +11,8 @@ export const ROLES: readonly Role[] = ['id', 'lat', 'lon', 'depth', 'zone', 'tex
 
 /** Concentration units a column may hold. */
 export type ValueUnit = 'ppm' | 'lbac' | 'kgha';
+/** How a unit is written for people. */
+export const UNIT_LABEL: Record<ValueUnit, string> = { ppm: 'ppm', lbac: 'lb/ac', kgha: 'kg/ha' };
 
 export interface ColumnInfo {
   /** the column's name as in the file */

@@ -6,7 +6,7 @@
 import { UserError, type Warning } from '../errors.js';
 import { ANALYTES, type Analyte, type Censor, type PMethod, type Samples, type Texture } from '../types.js';
 import { kghaToLbac, lbacToPpm, ppmToLbac } from '../units/index.js';
-import { planColumns, type ColumnInfo, type ColumnMap, type Role } from '../io/columns.js';
+import { planColumns, UNIT_LABEL, type ColumnInfo, type ColumnMap, type Role, type ValueUnit } from '../io/columns.js';
 import type { RawRecord, RawTable } from '../io/records.js';
 import { parseLabValue } from './values.js';
 
@@ -159,6 +159,8 @@ export function buildSamples(table: RawTable, opts: SampleOptions = {}): { sampl
 
   const analyteCols = plan.filter((c) => (ANALYTES as readonly string[]).includes(c.role)) as (ColumnInfo & { role: Analyte })[];
   let assumedPpm = new Set<string>();
+  /** per column: the first unit printed in its cells and where, to catch mixed units */
+  const cellUnits = new Map<string, { unit: ValueUnit; where: string }>();
   const depthFactorUsed: Record<string, string[]> = {};
 
   ids.forEach((id, s) => {
@@ -221,19 +223,32 @@ export function buildSamples(table: RawTable, opts: SampleOptions = {}): { sampl
           );
         }
         let value = v.value;
+        let unit = c.unit;
+        if (v.unit) {
+          const seen = cellUnits.get(c.name);
+          if ((c.unit && v.unit !== c.unit) || (seen && seen.unit !== v.unit)) {
+            throw new UserError(
+              `${file} ${r.where} (sample "${id}"), column "${c.name}": "${raw}" is in ${UNIT_LABEL[v.unit]}, but ${c.unit ? `the header says ${UNIT_LABEL[c.unit]}` : `${seen!.where} is in ${UNIT_LABEL[seen!.unit]}`}: mixed units in one column. ` +
+                'Fix: convert the column to one unit (ppm or lb/ac) before loading.',
+              { file, where: r.where, field: c.name, value: raw },
+            );
+          }
+          if (!seen) cellUnits.set(c.name, { unit: v.unit, where: r.where });
+          unit = v.unit;
+        }
         if (c.role === 'no3_n' || c.role === 'so4_s') {
-          if (!c.unit) {
+          if (!unit) {
             throw new UserError(
               `${file}: column "${c.name}" does not say whether ${ANALYTE_NAMES[c.role]} is in ppm or lb/ac. Fix: add the unit to the header, e.g. "${c.name} (lb/ac)", or state it with --columns "${c.role}=${c.name}:ppm".`,
               { file, field: c.name },
             );
           }
-          if (c.unit === 'ppm') value = ppmToLbac(value, d[0], d[1]);
-          else if (c.unit === 'kgha') value = kghaToLbac(value);
+          if (unit === 'ppm') value = ppmToLbac(value, d[0], d[1]);
+          else if (unit === 'kgha') value = kghaToLbac(value);
         } else if (c.role === 'p' || c.role === 'k') {
-          if (c.unit === 'lbac') value = lbacToPpm(value, d[0], d[1]);
-          else if (c.unit === 'kgha') value = lbacToPpm(kghaToLbac(value), d[0], d[1]);
-          else if (!c.unit) assumedPpm.add(c.name);
+          if (unit === 'lbac') value = lbacToPpm(value, d[0], d[1]);
+          else if (unit === 'kgha') value = lbacToPpm(kghaToLbac(value), d[0], d[1]);
+          else if (!unit) assumedPpm.add(c.name);
         }
         const key = c.role;
         const list = (layers[key] ??= []);
