@@ -7,6 +7,7 @@ import { isUserError } from '../errors.js';
 import { CAUTION } from './util.js';
 import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
+import { preloadInputs } from './inputs.js';
 
 const program = new Command();
 program
@@ -18,6 +19,12 @@ program
   .exitOverride();
 
 for (const cmd of [inspect]) cmd.register(program);
+
+// shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
+program.hook('preAction', async (_program, action) => {
+  const o = action.opts();
+  if (o.samples || o.boundary || o.zones) await preloadInputs(o);
+});
 
 try {
   await program.parseAsync(process.argv);
