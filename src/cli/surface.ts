@@ -1,6 +1,7 @@
 /** `tilth surface`: one nutrient's interpolated map as an Esri ASCII grid (.asc + .prj), and the cross-validation table. */
 import type { Command } from 'commander';
 import { UserError } from '../errors.js';
+import type { PMethod } from '../types.js';
 import { analyteFromName, ANALYTE_LABEL, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, utmPrj, type NutrientSurface } from '../surface/index.js';
 import { loadInputs } from './inputs.js';
 import { info, numberOption, out, printWarnings, writeFileAtomic } from './util.js';
@@ -18,14 +19,20 @@ export function register(program: Command): void {
     .option('--neighbours <k|all|auto>', 'nearest samples per cell, all, or auto (lowest RMSE of 8, 12, 16, all)', 'auto')
     .option('--radius <metres>', 'use only samples within this distance (default: no limit)')
     .option('--min-neighbours <n>', 'leave a cell empty when fewer samples are within --radius', '1')
-    .option('--zones <file>', 'zone polygons for zone-composite samples')
-    .option('--depth-factor <f>', 'factor from 0-6 in to 0-24 in nitrate/sulphate (lb/ac) when only 0-6 in was sampled; no default')
+    .option('--zones <file>', 'zone polygons that zone-composite samples are keyed to (.geojson, .shp, .zip); each zone takes its sample value')
+    .option('--columns <map>', 'CSV column map, e.g. "id=Sample ID,lat=Lat,lon=Long,p=P Olsen:ppm" (headers are recognised otherwise)')
+    .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
+    .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
+    .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
+    .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)')
     .option('--decimals <n>', 'decimals written in the grid', '3')
     .option('--json', 'print the result (choice, cross-validation table, warnings) as JSON on stdout')
     .addHelpText(
       'after',
       '\nExample:\n  tilth surface --samples sample-fields/quarter/samples.geojson --boundary sample-fields/quarter/boundary.geojson \\\n' +
-        '    --nutrient p --cell 5 --power auto --neighbours 12 --out p.asc\n\n' +
+        '    --nutrient p --cell 5 --power auto --neighbours 12 --out p.asc\n' +
+        '  tilth surface --samples sample-fields/zoned/samples.geojson --boundary sample-fields/zoned/boundary.geojson \\\n' +
+        '    --zones sample-fields/zoned/zones.geojson --nutrient s --out s.asc\n\n' +
         'Values are in canonical units: nitrate-N and sulphate-S lb/ac 0-24 in, P and K ppm, OM %, pH.\n' +
         'Cells whose area is partly inside the field get values (so zones cover the field); others are NODATA (-9999).',
     )
@@ -39,7 +46,17 @@ export function register(program: Command): void {
       const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, { min: 1, integer: true });
       const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
       if (!/\.asc$/i.test(o.out)) throw new UserError(`--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`, { file: o.out });
-      const inputs = loadInputs({ samples: o.samples, boundary: o.boundary, zones: o.zones, depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 0.01 }) });
+      let pMethod: PMethod | undefined;
+      if (o.pMethod !== undefined) {
+        const m = String(o.pMethod).toLowerCase();
+        if (m !== 'olsen' && m !== 'kelowna') throw new UserError(`option --p-method: "${o.pMethod}" is not olsen or kelowna. Fix: give --p-method olsen or --p-method kelowna.`);
+        pMethod = m;
+      }
+      const inputs = loadInputs({
+        samples: o.samples, boundary: o.boundary, zones: o.zones, columns: o.columns, pMethod,
+        depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 1, max: 10 }),
+        dropOutside: Boolean(o.dropOutside), assumeWgs84: Boolean(o.assumeWgs84),
+      });
       const grid = fieldGrid(inputs.field, cell);
       const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours });
       const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
