@@ -41,7 +41,7 @@ function makeCase(dir, n, side, seed) {
     const x = X0 + 1 + rnd() * (side - 2), y = Y0 + 1 + rnd() * (side - 2);
     const [lon, lat] = toLonLat.forward([x, y]).map((v) => Math.round(v * 1e8) / 1e8);
     const p = Math.round((8 + 30 * rnd() + (10 * (x - X0)) / side) * 10) / 10;
-    feats.push({ type: 'Feature', properties: { id: `B${i + 1}`, P: p }, geometry: { type: 'Point', coordinates: [lon, lat] } });
+    feats.push({ type: 'Feature', properties: { sample_id: `B${i + 1}`, p_olsen_ppm: p }, geometry: { type: 'Point', coordinates: [lon, lat] } });
     const [px, py] = toLonLat.inverse([lon, lat]);
     csv.push(`${px},${py},${p}`);
   }

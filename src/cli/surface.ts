@@ -66,7 +66,7 @@ export function register(program: Command): void {
         out(JSON.stringify(summary(s, o.out, inputs.field.utm.epsg, warnings), (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? (Number.isNaN(v) ? null : 'all') : v), 2));
       } else {
         printWarnings(warnings);
-        out(cvText(s));
+        if (s.cv) out(cvText(s));
         info(`${ANALYTE_LABEL[analyte]}: ${s.choice}.`);
         info(`wrote ${o.out} (${grid.cols} x ${grid.rows} cells of ${cell} m, EPSG:${inputs.field.utm.epsg}) and its .prj; values ${round(s.min)} to ${round(s.max)} from ${s.samplesUsed} samples.`);
       }

@@ -34,14 +34,15 @@ export function zoneSurface(grid: Grid, zones: { key: string; parts: RingsPart[]
     const cov = coverage(z.parts, grid);
     for (let i = 0; i < N; i++) {
       const a = Math.abs(cov[i]);
-      if (a > 1e-9 && a > bestCov[i]) { bestCov[i] = a; zoneOf[i] = z.i; }
+      if (a > 1e-12 && a > bestCov[i]) { bestCov[i] = a; zoneOf[i] = z.i; }
     }
   }
   let orphans = 0;
   for (let i = 0; i < N; i++) {
     if (!(grid.fraction[i] > 0)) { zoneOf[i] = -1; continue; }
     if (zoneOf[i] < 0 && used.length) {
-      orphans++;
+      // slivers of rounding size between the field and zone outlines are filled without a warning
+      if (grid.fraction[i] > 1e-6) orphans++;
       const x = grid.xmin + ((i % grid.cols) + 0.5) * grid.cell, y = grid.ymax - (Math.floor(i / grid.cols) + 0.5) * grid.cell;
       let best = Infinity;
       for (const z of used) {
