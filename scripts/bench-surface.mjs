@@ -37,8 +37,14 @@ function makeCase(dir, n, side, seed) {
     .map(([x, y]) => toLonLat.forward([x, y]));
   writeFileSync(join(dir, 'boundary.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'Bench field' }, geometry: { type: 'Polygon', coordinates: [ring] } }] }));
   const feats = [], csv = ['x,y,z'];
+  // stratified random: one point in each of n strata of a m x m lattice (the input stage refuses two
+  // samples at one place), jittered within the middle 80 % of its stratum
+  const m = Math.ceil(Math.sqrt(n)), w = (side - 2) / m;
+  const strata = [...Array(m * m).keys()];
+  for (let i = strata.length - 1; i > 0; i--) { const j = Math.floor(rnd() * (i + 1)); [strata[i], strata[j]] = [strata[j], strata[i]]; }
   for (let i = 0; i < n; i++) {
-    const x = X0 + 1 + rnd() * (side - 2), y = Y0 + 1 + rnd() * (side - 2);
+    const sx = strata[i] % m, sy = Math.floor(strata[i] / m);
+    const x = X0 + 1 + (sx + 0.1 + 0.8 * rnd()) * w, y = Y0 + 1 + (sy + 0.1 + 0.8 * rnd()) * w;
     const [lon, lat] = toLonLat.forward([x, y]).map((v) => Math.round(v * 1e8) / 1e8);
     const p = Math.round((8 + 30 * rnd() + (10 * (x - X0)) / side) * 10) / 10;
     feats.push({ type: 'Feature', properties: { sample_id: `B${i + 1}`, p_olsen_ppm: p }, geometry: { type: 'Point', coordinates: [lon, lat] } });
