@@ -121,6 +121,7 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
       }
       const bx = axL + bc;
       g.begin(bx, bx, by, by, ring);
+      g.prune((c0 + 0.5) * cell, -(r1 - 0.5) * cell, (c1 - 0.5) * cell, -(r0 + 0.5) * cell);
       for (let r = r0; r < r1; r++) {
         const qy = -(r + 0.5) * cell;
         // serpentine order: each cell is next to the previous one, which keeps the search bound tight

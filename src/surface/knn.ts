@@ -191,6 +191,35 @@ export class KnnGroup {
     }
   }
 
+  /**
+   * Drops gathered candidates that cannot be among the k nearest of any query in the rectangle
+   * [x0, x1] x [y0, y1] (relative coordinates): the k-th smallest farthest-corner distance bounds every
+   * such query's k-th distance, so a candidate whose nearest distance to the rectangle exceeds it (or the
+   * search radius) is never chosen. Answers are unchanged; only work is saved.
+   */
+  prune(x0: number, y0: number, x1: number, y1: number): void {
+    const m = this.count, k = this.k;
+    if (m <= k) return;
+    if (this.sd.length < this.cx.length) { this.sd = new Float64Array(this.cx.length); this.si2 = new Int32Array(this.cx.length); }
+    const { cx, cy, ci, sd, si2 } = this;
+    for (let j = 0; j < m; j++) {
+      const dx = Math.max(cx[j] - x0, x1 - cx[j]), dy = Math.max(cy[j] - y0, y1 - cy[j]);
+      sd[j] = dx * dx + dy * dy;
+      si2[j] = j;
+    }
+    selectK(sd, si2, m, k);
+    const limit = Math.min(sd[k - 1], this.maxD2);
+    let w = 0;
+    for (let j = 0; j < m; j++) {
+      const x = cx[j], y = cy[j];
+      const dx = x < x0 ? x0 - x : x > x1 ? x - x1 : 0;
+      const dy = y < y0 ? y0 - y : y > y1 ? y - y1 : 0;
+      if (dx * dx + dy * dy <= limit) { cx[w] = x; cy[w] = y; ci[w] = ci[j]; w++; }
+    }
+    this.count = w;
+    this.gen++;
+  }
+
   /** Forget the previous query (its bound no longer helps, e.g. at the start of a far-away group). */
   reset(): void {
     this.prevK2 = -1;
