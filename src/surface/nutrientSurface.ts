@@ -39,6 +39,9 @@ export function analyteFromName(name: string): Analyte {
   return a;
 }
 
+/** Above this many samples "all" is left out of the automatic neighbour choice (n^2 cost); a warning says so. */
+export const ALL_CV_LIMIT = 20_000;
+
 /** Options for {@link nutrientSurface}. */
 export interface NutrientSurfaceOptions {
   /** IDW power, or 'auto' = lowest cross-validation RMSE among `powers` (default 'auto'); a number is the only candidate */
@@ -132,12 +135,18 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
   const fixedP = typeof opts.power === 'number' ? opts.power : null;
   const fixedK = typeof opts.neighbours === 'number' ? opts.neighbours : null;
   let cv: CvResult | null = null;
+  let choices = opts.neighbourChoices ?? DEFAULT_NEIGHBOURS;
+  if (fixedK === null && n > ALL_CV_LIMIT && choices.some((k) => !Number.isFinite(k))) {
+    // leave-one-out with every sample costs n^2 distance pairs: too slow for very dense data
+    choices = choices.filter((k) => Number.isFinite(k));
+    warnings.push({ code: 'surface.cv-all-skipped', message: `${label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (give --neighbours all to use it).`, field: label });
+  }
   if (!(opts.skipCv && fixedP !== null && fixedK !== null)) {
     // a fixed value is the only candidate on its axis: with both given, the table is the one row that says
     // how well the given pair predicts left-out samples (cheap), not a search
     cv = crossValidate(pts.xy, pts.z, {
       powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
-      neighbours: fixedK !== null ? [fixedK] : (opts.neighbourChoices ?? DEFAULT_NEIGHBOURS),
+      neighbours: fixedK !== null ? [fixedK] : choices,
       radius: opts.radius,
       minNeighbours: opts.minNeighbours,
     });
