@@ -87,6 +87,18 @@ describe('tilth surface', () => {
     expect(c.stderr).toMatch(/ending in \.asc/);
   });
 
+  it('zone-composite samples: every field cell takes one of the zone values (sample-fields/zoned)', () => {
+    const Z = join(ROOT, 'sample-fields', 'zoned');
+    const o = join(tmp, 's.asc');
+    const z = tilth(['surface', '--samples', join(Z, 'samples.geojson'), '--boundary', join(Z, 'boundary.geojson'), '--zones', join(Z, 'zones.geojson'), '--nutrient', 'sulphate', '--cell', '10', '--out', o, '--json']);
+    expect(z.code, z.stderr).toBe(0);
+    const j = JSON.parse(z.stdout);
+    expect(j.method).toBe('zones');
+    const distinct = new Set([...readAsc(readFileSync(o, 'utf8')).values].filter((v) => !Number.isNaN(v)));
+    expect(distinct.size).toBeGreaterThan(1);
+    expect(distinct.size).toBeLessThanOrEqual(4); // four zones (sample-fields/README.md)
+  });
+
   it('--help shows an example', () => {
     const h = tilth(['surface', '--help']);
     expect(h.code).toBe(0);
