@@ -168,6 +168,15 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
     if (n < 3) warnings.push({ code: 'surface.few-samples', message: `${label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`, field: label });
   }
   const values = idwSurface(pts.xy, pts.z, grid, { power, neighbours, radius: opts.radius, minNeighbours: opts.minNeighbours });
+  let empty = 0;
+  for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0 && Number.isNaN(values[i])) empty++;
+  if (empty) {
+    warnings.push({
+      code: 'surface.cells-empty',
+      message: `${label}: ${empty} field cell${empty > 1 ? 's have' : ' has'} fewer than ${opts.minNeighbours ?? 1} sample${(opts.minNeighbours ?? 1) > 1 ? 's' : ''} within the ${opts.radius} m search radius and no value. Fix: use a larger radius (--radius) or fewer minimum neighbours.`,
+      field: label,
+    });
+  }
   return { ...base, cv, values, method: 'idw', power, neighbours, choice };
 }
 

@@ -104,6 +104,15 @@ describe('nutrientSurface', () => {
     expect(s.cv!.table.map((r) => r.neighbours)).toEqual([8, 12, 16]);
   });
 
+  it('a search radius that leaves field cells without samples: those cells are empty and a warning counts them', () => {
+    const s = nutrientSurface(samples([[20, 20, 5], [30, 20, 7], [25, 35, 9]]), 'p', grid, null, { power: 2, neighbours: 12, radius: 60 });
+    let empty = 0, inField = 0;
+    for (let i = 0; i < s.values.length; i++) if (grid.fraction[i] > 0) { inField++; if (Number.isNaN(s.values[i])) empty++; }
+    expect(empty).toBeGreaterThan(0);
+    expect(empty).toBeLessThan(inField);
+    expect(s.warnings.find((w) => w.code === 'surface.cells-empty')!.message).toContain(`${empty} field cells have fewer than 1 sample within the 60 m search radius`);
+  });
+
   it('nutrient names as people type them', () => {
     expect(['no3_n', 'N', 'nitrate', 'p', 'K', 'so4_s', 's', 'Sulphate', 'sulfate', 'om', 'pH'].map(analyteFromName)).toEqual(['no3_n', 'no3_n', 'no3_n', 'p', 'k', 'so4_s', 'so4_s', 'so4_s', 'so4_s', 'om', 'ph']);
     expect(() => analyteFromName('zinc')).toThrow(/not known. Fix: use one of/);
