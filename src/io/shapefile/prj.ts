@@ -57,13 +57,13 @@ export function parseCrs(text: string): CrsInfo {
       const fn = /False_Northing",\s*([\d.]+)/i.exec(t);
       const south = m[2] ? m[2].toUpperCase() === 'S' : fn ? Number(fn[1]) > 0 : false;
       const epsg = datum === 'WGS84' ? (south ? 32700 : 32600) + zone : datum === 'NAD83' && !south && zone <= 23 ? 26900 + zone : null;
-      return { kind: 'utm', zone, south, datum, epsg, label: `${datum} / UTM zone ${zone}${south ? 'S' : 'N'}` };
+      return { kind: 'utm', zone, south, datum, epsg, label: `${datum} / UTM zone ${zone}${south ? 'S' : 'N'}${epsg ? ` (EPSG:${epsg})` : ''}` };
     }
     return { kind: null, datum, epsg: null, label: (/^PROJ(CS|CRS)\["([^"]*)"/i.exec(t)?.[2] ?? 'unnamed projected system') };
   }
   if (/^GEOG(CS|CRS)/i.test(t) && datum !== 'other' && /Degree/i.test(t)) {
     const epsg = datum === 'WGS84' ? 4326 : datum === 'NAD83' ? 4269 : 4617;
-    return { kind: 'lonlat', datum, epsg, label: `${datum} longitude/latitude` };
+    return { kind: 'lonlat', datum, epsg, label: `${datum} longitude/latitude (EPSG:${epsg})` };
   }
   return { kind: null, datum, epsg: null, label: t.slice(0, 60) || 'empty' };
 }
