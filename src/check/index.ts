@@ -215,7 +215,7 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
         const k = kinks(f as Feature<Polygon | MultiPolygon>);
         if (k.features.length) {
           const c = k.features[0].geometry.coordinates;
-          reason = `edges cross themselves (${k.features.length} crossing${k.features.length > 1 ? 's' : ''}, first near ${c[0].toFixed(6)}, ${c[1].toFixed(6)})`;
+          reason = `edges cross themselves (${k.features.length} crossing${k.features.length > 1 ? 's' : ''}, first near lat ${c[1].toFixed(6)}, lon ${c[0].toFixed(6)})`;
         } else if (!booleanValid(f)) reason = 'not a valid polygon (a hole outside its ring, touching rings or overlapping parts)';
       } catch (e) {
         reason = `unreadable geometry (${(e as Error).message})`;
@@ -275,12 +275,12 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
           const [cx, cy] = ringCentroid(p[0]);
           const [lon, lat] = work!.toLonLat(cx, cy);
           const near = usable.map((m, i) => (m && boxesMeet(boxes[i]!, bbox([p])) ? names[i] : '')).filter(Boolean);
-          return `${fmt(a)} m2 near ${lat.toFixed(6)}, ${lon.toFixed(6)}${near.length ? ` (beside ${list(near, 4)})` : ''}`;
+          return `${fmt(a)} m2 near lat ${lat.toFixed(6)}, lon ${lon.toFixed(6)}${near.length ? ` (beside ${list(near, 4)})` : ''}`;
         });
         const total = pieces.reduce((s, g) => s + g.a, 0);
         const near = new Set<string>();
         for (const { p } of pieces) usable.forEach((m, i) => m && boxesMeet(boxes[i]!, bbox([p])) && near.add(names[i]));
-        add('gaps', 'fail', `${pieces.length} part${pieces.length > 1 ? 's' : ''} of the field (${fmt(total)} m2, ${fmt(m2ToAc(total), 3)} ac) lie in no zone and get the terminal's default rate: ${where.join('; ')}`, [...near]);
+        add('gaps', 'fail', `${pieces.length} part${pieces.length > 1 ? 's' : ''} of the field (${fmt(total)} m2, ${fmt(m2ToAc(total), 3)} ac) ${pieces.length > 1 ? 'lie' : 'lies'} in no zone and get the terminal's default rate: ${where.join('; ')}`, [...near]);
       } else add('gaps', 'pass', 'the zones cover the whole field');
     }
   }
