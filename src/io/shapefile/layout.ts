@@ -90,8 +90,9 @@ function rateColumnNames(products: string[], units: RxUnit[]): string[] {
   const used = new Set<string>();
   return products.map((p, i) => {
     const suf = '_' + RX_UNITS[units[i]];
-    let stem = slug(p).replace(/_/g, '');
-    if (!/^[a-z]/.test(stem)) stem = 'p' + stem;
+    // the product's first word ("Urea 46-0-0" -> urea), or all of it when that is not a word
+    const words = slug(p).split('_');
+    let stem = /^[a-z]/.test(words[0]) ? words[0] : 'p' + words.join('');
     let name = stem.slice(0, 10 - suf.length) + suf;
     for (let k = 2; used.has(name); k++) name = stem.slice(0, 10 - suf.length - String(k).length) + k + suf;
     used.add(name);
@@ -182,8 +183,7 @@ export function prescriptionFiles(fc: FeatureCollection, opts: LayoutOptions): {
       })),
     ];
     const written = resolveColumns(specs);
-    const setFiles = writeShapefile(rows, specs, { name: set, crs: opts.crs, utm: opts.utm, shortFileName: false, date });
-    if (opts.shortFileNames) for (const k of Object.keys(setFiles)) if (k.endsWith('.columns.csv')) { setFiles[`${set}.CSV`] = setFiles[k]; delete setFiles[k]; }
+    const setFiles = writeShapefile(rows, specs, { name: set, crs: opts.crs, utm: opts.utm, shortFileName: opts.shortFileNames, date });
     const rateCols: RateColumn[] = plan.cols.map((c, k) => {
       const vals = rows.map((r) => r.properties![c.key] as number);
       return {

@@ -14,7 +14,7 @@ function uniqueShort(names: readonly string[], max: number, upper: boolean): str
   return names.map((n) => {
     let base = clean(n);
     if (upper) base = base.toUpperCase();
-    let cand = base.slice(0, max);
+    let cand = base.slice(0, max).replace(/_+$/, '');
     for (let k = 2; used.has(cand.toUpperCase()); k++) {
       const suffix = (upper ? '' : '_') + String(k);
       cand = base.slice(0, max - suffix.length).replace(/_+$/, '') + suffix;
@@ -38,7 +38,7 @@ export function shortFieldNames(names: readonly string[]): string[] {
 /**
  * 8.3 base names (at most 8 characters, upper case, unique) for file sets; the extension is added by the writer.
  *
- * @example shortFileNames(['rx_seed_row', 'rx_side_band']) // ['RX_SEED_', 'RX_SIDE_']
+ * @example shortFileNames(['rx_seed_row', 'rx_side_band']) // ['RX_SEED', 'RX_SIDE']
  */
 export function shortFileNames(names: readonly string[]): string[] {
   return uniqueShort(names, 8, true);
