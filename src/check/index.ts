@@ -112,16 +112,20 @@ interface Frame {
 }
 
 /** The layer's polygons in the working UTM metres (null for a feature that is not a polygon). */
-function toMetres(features: Feature[], frame: Frame, work: Projector | null): (Poly[] | null)[] {
+function toMetres(features: Feature[], frame: Frame, work: Projector | null, origin: [number, number]): (Poly[] | null)[] {
+  const [ox, oy] = origin;
+  // metres from a local origin, rounded to 0.1 mm: overlay (polyclip-ts) is exact arithmetic and fails on
+  // the nanometre noise a projection round trip leaves on edges that should be collinear
+  const snap = (p: number[]): [number, number] => [Math.round((p[0] - ox) * 1e4) / 1e4, Math.round((p[1] - oy) * 1e4) / 1e4];
   return features.map((f) => {
     const g = f.geometry as Polygon | MultiPolygon | null;
     if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) return null;
     const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
     return polys.map((p) => p.map((r) => r.map((pt): [number, number] => {
-      if (frame.kind === 'planar' || !work) return [pt[0], pt[1]];
+      if (frame.kind === 'planar' || !work) return snap(pt);
+      if (frame.kind === 'utm' && frame.utmProj!.utm.epsg === work.utm.epsg) return snap(pt);
       const ll = frame.kind === 'utm' ? frame.utmProj!.toLonLat(pt[0], pt[1]) : [pt[0], pt[1]];
-      if (frame.kind === 'utm' && frame.utmProj!.utm.epsg === work.utm.epsg) return [pt[0], pt[1]];
-      return work.toMetres(ll[0], ll[1]);
+      return snap(work.toMetres(ll[0], ll[1]));
     })));
   });
 }
@@ -183,23 +187,25 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
     add('crs', 'fail', `${layer.crs.label} declared but coordinates lie outside longitude -180..180 / latitude -90..90`);
   } else {
     const nad = layer.crs.datum !== 'WGS84' ? ` (${layer.crs.datum} is used as WGS 84; they differ by 1-2 m)` : '';
-    add('crs', layer.crs.datum === 'WGS84' ? 'pass' : 'warn', `${layer.crs.label}${layer.crs.epsg ? '' : ''}${nad}`);
+    add('crs', layer.crs.datum === 'WGS84' ? 'pass' : 'warn', `${layer.crs.label}${nad}`);
   }
   const [bx0, by0, bx1, by1] = bboxOf(feats);
   let work: Projector | null = null;
   let scale = 1;
+  let origin: [number, number] = Number.isFinite(bx0) ? [(bx0 + bx1) / 2, (by0 + by1) / 2] : [0, 0];
   if (frame.kind !== 'planar' && Number.isFinite(bx0)) {
     if (frame.kind === 'utm') {
       work = frame.utmProj;
-      const [clon, clat] = work!.toLonLat((bx0 + bx1) / 2, (by0 + by1) / 2);
+      const [clon, clat] = work!.toLonLat(origin[0], origin[1]);
       scale = arealScale(work!, clon, clat);
     } else if (lonlatLike(feats)) {
-      const clon = (bx0 + bx1) / 2, clat = (by0 + by1) / 2;
+      const [clon, clat] = origin;
       work = projector(utmZoneFor(clon, clat));
       scale = arealScale(work, clon, clat);
+      origin = work.toMetres(clon, clat);
     }
   }
-  const metres = toMetres(feats, work ? frame : { kind: 'planar', utmProj: null }, work);
+  const metres = toMetres(feats, work ? frame : { kind: 'planar', utmProj: null }, work, origin);
   const groundAreas = metres.map((m) => (m ? polysArea(m) / scale : 0));
 
   // --- geometry
@@ -231,9 +237,13 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
   const usable = metres.map((m, i) => (valid[i] && m ? m : null));
   const boxes = usable.map((m) => (m ? bbox(m) : null));
 
-  // --- overlaps between zones
+  // --- overlaps between zones: when the zones' areas add up to their union's, nothing overlaps and the
+  // pairwise search (the slow part) is skipped
+  const ok = usable.filter((m): m is Poly[] => !!m);
+  const covered = ok.length ? (clip.union(ok[0] as clip.Geom, ...(ok.slice(1) as clip.Geom[])) as Poly[]) : [];
+  const overlapTotal = ok.reduce((s, m) => s + polysArea(m), 0) - polysArea(covered);
   const pairs: string[] = [], overlapZones = new Set<string>();
-  for (let i = 0; i < usable.length; i++) for (let j = i + 1; j < usable.length; j++) {
+  if (overlapTotal >= SLIVER_M2) for (let i = 0; i < usable.length; i++) for (let j = i + 1; j < usable.length; j++) {
     if (!usable[i] || !usable[j] || !boxesMeet(boxes[i]!, boxes[j]!)) continue;
     const a = polysArea(clip.intersection(usable[i]! as clip.Geom, usable[j]! as clip.Geom) as Poly[]) / scale;
     if (a >= SLIVER_M2) {
@@ -245,7 +255,6 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
   else add('overlap', 'pass', 'no zones overlap');
 
   // --- boundary: outside parts and gaps
-  const ok = usable.filter((m): m is Poly[] => !!m);
   if (!opts.boundary) {
     add('outside', 'skip', 'no --boundary given');
     add('gaps', 'skip', 'no --boundary given');
@@ -256,24 +265,24 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
       add('outside', 'skip', 'the prescription or the boundary has no known coordinate system');
       add('gaps', 'skip', 'the prescription or the boundary has no known coordinate system');
     } else {
-      const bpolys = toMetres(bl.features, bframe, work).filter((m): m is Poly[] => !!m).flat();
+      const bpolys = toMetres(bl.features, bframe, work, origin).filter((m): m is Poly[] => !!m).flat();
       if (!bpolys.length) throw new UserError(`${bl.label}: holds no polygon to use as the field boundary. Fix: give the field's boundary polygon.`, { file: bl.label });
       const boundary = clip.union(bpolys[0] as clip.Geom, ...(bpolys.slice(1) as clip.Geom[])) as Poly[];
       const out: string[] = [], outZones: string[] = [];
-      usable.forEach((m, i) => {
+      const outsideTotal = covered.length ? polysArea(clip.difference(covered as clip.Geom, boundary as clip.Geom) as Poly[]) : 0;
+      if (outsideTotal >= SLIVER_M2) usable.forEach((m, i) => {
         if (!m) return;
         const a = polysArea(clip.difference(m as clip.Geom, boundary as clip.Geom) as Poly[]) / scale;
         if (a >= SLIVER_M2) { out.push(`${names[i]} (${fmt(a)} m2)`); outZones.push(names[i]); }
       });
       if (out.length) add('outside', 'fail', `parts outside the boundary: ${list(out, 8)}`, outZones);
       else add('outside', 'pass', 'every zone lies inside the boundary');
-      const covered = ok.length ? (clip.union(ok[0] as clip.Geom, ...(ok.slice(1) as clip.Geom[])) as Poly[]) : [];
       const gaps = (covered.length ? clip.difference(boundary as clip.Geom, covered as clip.Geom) : boundary) as Poly[];
       const pieces = gaps.map((p) => ({ p, a: polysArea([p]) / scale })).filter((g) => g.a >= SLIVER_M2).sort((a, b) => b.a - a.a);
       if (pieces.length) {
         const where = pieces.slice(0, 5).map(({ p, a }) => {
           const [cx, cy] = ringCentroid(p[0]);
-          const [lon, lat] = work!.toLonLat(cx, cy);
+          const [lon, lat] = work!.toLonLat(cx + origin[0], cy + origin[1]);
           const near = usable.map((m, i) => (m && boxesMeet(boxes[i]!, bbox([p])) ? names[i] : '')).filter(Boolean);
           return `${fmt(a)} m2 near lat ${lat.toFixed(6)}, lon ${lon.toFixed(6)}${near.length ? ` (beside ${list(near, 4)})` : ''}`;
         });
