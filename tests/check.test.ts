@@ -257,3 +257,26 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
     expect(code).toBe(0);
   });
 });
+
+describe('checkPrescription (library)', () => {
+  it('overlay survives edges split into many nearly collinear points after a projection round trip', async () => {
+    // regression: polyclip-ts (exact arithmetic) failed on the nanometre noise of UTM -> lon/lat -> UTM
+    const { checkPrescription, layerFromGeoJSON } = await import('../src/check/index.js');
+    const { projector, utmZoneFor } = await import('../src/geo/utm.js');
+    const p = projector(utmZoneFor(-105, 52));
+    const feats = [];
+    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) {
+      const x0 = 400000 + i * 200, y0 = 5780000 + j * 200, c = [[x0, y0], [x0 + 200, y0], [x0 + 200, y0 + 200], [x0, y0 + 200]];
+      const ring: number[][] = [];
+      for (let k = 0; k < 4; k++) for (let t = 0; t < 25; t++) ring.push(p.toLonLat(c[k][0] + ((c[(k + 1) % 4][0] - c[k][0]) * t) / 25, c[k][1] + ((c[(k + 1) % 4][1] - c[k][1]) * t) / 25));
+      ring.push(ring[0]);
+      feats.push({ type: 'Feature', properties: { zone_id: feats.length + 1, urea_lbac: 100 }, geometry: { type: 'Polygon', coordinates: [ring] } });
+    }
+    const sq = [[400000, 5780000], [400600, 5780000], [400600, 5780600], [400000, 5780600], [400000, 5780000]].map(([x, y]) => p.toLonLat(x, y));
+    const layer = layerFromGeoJSON(JSON.stringify({ type: 'FeatureCollection', features: feats }), 'grid.geojson');
+    const boundary = layerFromGeoJSON(JSON.stringify({ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [sq] } }), 'b.geojson');
+    const r = checkPrescription(layer, { boundary });
+    expect(r.lines.filter((l) => l.status === 'fail' || l.status === 'warn')).toEqual([]);
+    expect(r.ok).toBe(true);
+  });
+});

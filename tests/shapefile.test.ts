@@ -139,6 +139,21 @@ describe('prj', () => {
       expect(parseCrs(prjText(zone)).epsg).toBe(epsg);
     }
   });
+  it.skipIf(!requireTool('ogr2ogr', 'gdal-bin'))('recognises the .prj GDAL 3.6.2 writes for NAD83 (EPSG:4269, 26913) and NAD83(CSRS) UTM 13N (EPSG:2957)', () => {
+    const gj = join(dir, 'one-nad.geojson');
+    writeFileSync(gj, JSON.stringify({ type: 'FeatureCollection', features: [good.features[0]] }));
+    const want: Record<number, object> = {
+      4269: { kind: 'lonlat', datum: 'NAD83', epsg: 4269 },
+      26913: { kind: 'utm', zone: 13, south: false, datum: 'NAD83', epsg: 26913 },
+      2957: { kind: 'utm', zone: 13, south: false, datum: 'NAD83(CSRS)' },
+    };
+    for (const epsg of [4269, 26913, 2957]) {
+      const out = join(dir, `nad${epsg}.shp`);
+      sh('ogr2ogr', ['-t_srs', `EPSG:${epsg}`, out, gj]);
+      expect(parseCrs(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'))).toMatchObject(want[epsg]);
+    }
+    expect(parseCrs('PROJCS["Some_Local_Grid",GEOGCS["GCS_Other",DATUM["D_Other",SPHEROID["x",6378000,300]]],PROJECTION["Lambert"]]').kind).toBeNull();
+  });
 });
 
 for (const crs of ['lonlat', 'utm'] as const) {
