@@ -14,7 +14,9 @@ import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import { tilth } from './helpers/cli.js';
 import { writeShapefile, prescriptionFiles, type ColumnSpec } from '../src/io/shapefile/index.js';
 import { hullExtent } from '../src/check/shape.js';
-import type { CheckReport } from '../src/check/index.js';
+import { checkPrescription, type CheckReport } from '../src/check/index.js';
+import { loadLayer } from '../src/cli/check.js';
+import { isUserError } from '../src/errors.js';
 
 const FIX = join(import.meta.dirname, 'fixtures', 'check');
 const fx = (n: string) => join(FIX, n);
@@ -42,10 +44,36 @@ function json(args: string[]): { code: number; report: CheckReport; stderr: stri
   const r = tilth(['check', ...args, '--json']);
   return { code: r.code, report: r.stdout ? (JSON.parse(r.stdout) as CheckReport) : (undefined as unknown as CheckReport), stderr: r.stderr };
 }
+/**
+ * The same as `json` but in this process (spawning the CLI costs seconds on a shared machine): reads the
+ * files the way the command does (src/cli/check.ts loadLayer) and runs the library. Exit 0/1/2 as the CLI.
+ */
+async function lib(args: string[]): Promise<{ code: number; report: CheckReport; stderr: string }> {
+  const [file, ...rest] = args;
+  const o: Record<string, string | boolean> = {};
+  for (let i = 0; i < rest.length; i++) {
+    const k = rest[i].replace(/^--/, '').replace(/-(.)/g, (_, c: string) => c.toUpperCase());
+    if (rest[i + 1] === undefined || rest[i + 1].startsWith('--')) o[k] = true;
+    else o[k] = rest[++i];
+  }
+  const num = (k: string) => (o[k] === undefined ? undefined : Number(o[k]));
+  try {
+    const layer = await loadLayer(file, 'prescription');
+    const boundary = o.boundary ? await loadLayer(o.boundary as string, 'boundary') : undefined;
+    const report = checkPrescription(layer, {
+      boundary, rateField: o.rateField as string | undefined, min: num('min'), max: num('max'), speedKmh: num('speed'),
+      swathM: num('swath'), transitionS: num('transition'), strict: !!o.strict,
+    });
+    return { code: report.ok ? 0 : 1, report, stderr: '' };
+  } catch (e) {
+    if (!isUserError(e)) throw e;
+    return { code: 2, report: undefined as unknown as CheckReport, stderr: `tilth: ${(e as Error).message}` };
+  }
+}
 const line = (r: CheckReport, check: string) => r.lines.filter((l) => l.check === check);
 
 describe('hullExtent against brute force', () => {
-  it('diameter = largest distance between any two points; width = smallest spread over every pair direction', () => {
+  it('diameter = largest distance between any two points; width = smallest spread over every pair direction', async () => {
     const pt = fc.tuple(fc.integer({ min: -1000, max: 1000 }), fc.integer({ min: -1000, max: 1000 }));
     fc.assert(fc.property(fc.array(pt, { minLength: 3, maxLength: 25 }), (pts) => {
       const P = pts as [number, number][];
@@ -66,8 +94,8 @@ describe('hullExtent against brute force', () => {
 });
 
 describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
-  it('passes the good one: hole, MultiPolygon zone, with boundary, machine range and speed', () => {
-    const { code, report } = json([fx('good.geojson'), '--boundary', BOUNDARY, '--min', '40', '--max', '200', '--speed', '12']);
+  it('passes the good one: hole, MultiPolygon zone, with boundary, machine range and speed', async () => {
+    const { code, report } = await lib([fx('good.geojson'), '--boundary', BOUNDARY, '--min', '40', '--max', '200', '--speed', '12']);
     expect(code).toBe(0);
     expect(report.ok).toBe(true);
     expect(report.lines.filter((l) => l.status !== 'pass')).toEqual([]);
@@ -89,7 +117,7 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(urea.areaAc).toBeCloseTo(acres.reduce((s, a) => s + a, 0), 2);
   });
 
-  it('text output: one line per check, exit 0', () => {
+  it('text output: one line per check, exit 0', async () => {
     const r = tilth(['check', fx('good.geojson'), '--boundary', BOUNDARY]);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^PASS {2}overlap/m);
@@ -97,7 +125,7 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(r.stdout).toMatch(/result: nothing failed/);
   });
 
-  it('fails overlapping zones, naming both (overlap 400 m x 50 m by construction)', () => {
+  it('fails overlapping zones, naming both (overlap 400 m x 50 m by construction)', async () => {
     const { code, report } = json([fx('overlap.geojson'), '--boundary', BOUNDARY]);
     expect(code).toBe(1);
     const [l] = line(report, 'overlap');
@@ -107,8 +135,8 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(Math.abs(a - 20000 / K2) / (20000 / K2)).toBeLessThan(1e-3);
   });
 
-  it('fails a gap inside the boundary, naming the zones beside it (400 m x 50 m by construction)', () => {
-    const { code, report } = json([fx('gap.geojson'), '--boundary', BOUNDARY]);
+  it('fails a gap inside the boundary, naming the zones beside it (400 m x 50 m by construction)', async () => {
+    const { code, report } = await lib([fx('gap.geojson'), '--boundary', BOUNDARY]);
     expect(code).toBe(1);
     const [l] = line(report, 'gaps');
     expect(l.status).toBe('fail');
@@ -117,8 +145,8 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(Math.abs(a - 20000 / K2) / (20000 / K2)).toBeLessThan(1e-3);
   });
 
-  it('fails a zone reaching outside the boundary, naming it (50 m x 300 m by construction)', () => {
-    const { code, report } = json([fx('outside.geojson'), '--boundary', BOUNDARY]);
+  it('fails a zone reaching outside the boundary, naming it (50 m x 300 m by construction)', async () => {
+    const { code, report } = await lib([fx('outside.geojson'), '--boundary', BOUNDARY]);
     expect(code).toBe(1);
     const [l] = line(report, 'outside');
     expect(l.zones).toEqual(['zone 2']);
@@ -126,42 +154,42 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(Math.abs(a - 15000 / K2) / (15000 / K2)).toBeLessThan(1e-3);
   });
 
-  it('fails a self-crossing zone, naming it', () => {
-    const { code, report } = json([fx('self-crossing.geojson')]);
+  it('fails a self-crossing zone, naming it', async () => {
+    const { code, report } = await lib([fx('self-crossing.geojson')]);
     expect(code).toBe(1);
     const [l] = line(report, 'geometry');
     expect(l.status).toBe('fail');
     expect(l.zones).toEqual(['zone 4']);
   });
 
-  it('refuses a rate written as text, naming the zone and the value (exit 2)', () => {
+  it('refuses a rate written as text, naming the zone and the value (exit 2)', async () => {
     const r = tilth(['check', fx('bad-rate-text.geojson')]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/zone 3, column "urea_lbac": "95 lb"/);
     expect(r.stderr).not.toMatch(/at .*\.ts:/); // no stack
   });
 
-  it("fails rates outside the machine's range, naming the zones; 0 (off) passes", () => {
-    const { code, report } = json([fx('good.geojson'), '--rate-field', 'urea_lbac', '--min', '100', '--max', '150']);
+  it("fails rates outside the machine's range, naming the zones; 0 (off) passes", async () => {
+    const { code, report } = await lib([fx('good.geojson'), '--rate-field', 'urea_lbac', '--min', '100', '--max', '150']);
     expect(code).toBe(1);
     const [l] = line(report, 'rate_range');
     expect(l.zones.sort()).toEqual(['zone 3', 'zone 4']); // 90 below, 170 above
   });
 
-  it('flags zones too small for the speed: 100 m x 100 m island (zone 4)', () => {
+  it('flags zones too small for the speed: 100 m x 100 m island (zone 4)', async () => {
     // 100 km/h x 4 s = 111.1 m: longer than the island is wide (100 m), shorter than its diagonal (141 m) -> warn
-    let { report } = json([fx('good.geojson'), '--speed', '100']);
+    let { report } = await lib([fx('good.geojson'), '--speed', '100']);
     expect(line(report, 'zone_size')[0]).toMatchObject({ status: 'warn', zones: ['zone 4'] });
     // 60 km/h x 10 s = 166.7 m: longer than the diagonal -> fail
-    ({ report } = json([fx('good.geojson'), '--speed', '60', '--transition', '10']));
+    ({ report } = await lib([fx('good.geojson'), '--speed', '60', '--transition', '10']));
     expect(line(report, 'zone_size')[0]).toMatchObject({ status: 'fail', zones: ['zone 4'] });
     // one rate change x 30 m swath = 111.1 m x 30 m = 3333 m2 < 10 000 m2: passes the swath test
-    ({ report } = json([fx('good.geojson'), '--speed', '12', '--swath', '30']));
+    ({ report } = await lib([fx('good.geojson'), '--speed', '12', '--swath', '30']));
     expect(line(report, 'zone_size')[0].status).toBe('pass');
   });
 
-  it('fails when the rate column cannot be told apart, and names the columns', () => {
-    const { code, report } = json([fx('good.geojson'), '--rate-field', 'n_rate']);
+  it('fails when the rate column cannot be told apart, and names the columns', async () => {
+    const { code, report } = await lib([fx('good.geojson'), '--rate-field', 'n_rate']);
     expect(code).toBe(1);
     expect(line(report, 'rate_field')[0].message).toMatch(/no column "n_rate"; the columns are zone_id, urea_lbac, map_lbac/);
   });
@@ -176,13 +204,13 @@ describe("tilth check on tilth's own shapefile outputs", () => {
     })),
   };
   for (const [layout, crs, short] of [['per_placement', 'lonlat', false], ['per_product', 'utm', true]] as const) {
-    it(`${layout}, ${crs}${short ? ', 8.3 names' : ''}: every zip and .shp passes`, () => {
+    it(`${layout}, ${crs}${short ? ', 8.3 names' : ''}: every zip and .shp passes`, async () => {
       const { files } = prescriptionFiles(rx, { layout, crs, shortFileNames: short });
       const d = save(files, `own-${layout}`);
       const targets = Object.keys(files).filter((k) => /\.(zip|shp)$/i.test(k));
       expect(targets.length).toBe(4);
       for (const t of targets) {
-        const { code, report } = json([join(d, t), '--boundary', BOUNDARY, '--min', '40', '--max', '200', '--speed', '12', '--strict']);
+        const { code, report } = await lib([join(d, t), '--boundary', BOUNDARY, '--min', '40', '--max', '200', '--speed', '12', '--strict']);
         expect(report.lines.filter((l) => l.status !== 'pass')).toEqual([]);
         expect(code).toBe(0);
         expect(line(report, 'crs')[0].message).toMatch(crs === 'utm' ? /EPSG:32613/ : /EPSG:4326/);
@@ -194,10 +222,10 @@ describe("tilth check on tilth's own shapefile outputs", () => {
 describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing written)', () => {
   const set = () => writeShapefile(good.features, COLS, { name: 'rx' });
 
-  it('missing .prj: warns and reads WGS 84; --strict refuses', () => {
+  it('missing .prj: warns and reads WGS 84; --strict refuses', async () => {
     const d = save(set(), 'noprj');
     unlinkSync(join(d, 'rx.prj'));
-    const { code, report } = json([join(d, 'rx.shp')]);
+    const { code, report } = await lib([join(d, 'rx.shp')]);
     expect(code).toBe(0);
     expect(line(report, 'crs')[0].status).toBe('warn');
     const r = tilth(['check', join(d, 'rx.shp'), '--strict']);
@@ -205,39 +233,39 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
     expect(r.stderr).toMatch(/rx\.shp: has no coordinate system \(no \.prj/);
   });
 
-  it('truncated .shp', () => {
+  it('truncated .shp', async () => {
     const f = set();
     f['rx.shp'] = f['rx.shp'].subarray(0, f['rx.shp'].length - 40);
-    const r = tilth(['check', join(save(f, 'trunc'), 'rx.shp')]);
+    const r = await lib([join(save(f, 'trunc'), 'rx.shp')]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/rx\.shp: not a readable shapefile: .*truncated/);
   });
 
-  it('.dbf whose record count differs from the .shp', () => {
+  it('.dbf whose record count differs from the .shp', async () => {
     const f = set();
     f['rx.dbf'] = writeShapefile(good.features.slice(0, 3), COLS, { name: 'rx' })['rx.dbf'];
-    const r = tilth(['check', join(save(f, 'dbfcount'), 'rx.shp')]);
+    const r = await lib([join(save(f, 'dbfcount'), 'rx.shp')]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/rx\.dbf: holds 3 records but rx\.shp holds 4 shapes/);
   });
 
-  it('rate column of text in the .dbf, naming the zone', () => {
+  it('rate column of text in the .dbf, naming the zone', async () => {
     const feats = good.features.map((f) => ({ ...f, properties: { ...f.properties, urea_lbac: `${f.properties!.urea_lbac} lb` } }));
     const f = writeShapefile(feats, [COLS[0], { key: 'urea_lbac', type: 'C', width: 12 }], { name: 'rx' });
-    const r = tilth(['check', join(save(f, 'textrate'), 'rx.shp')]);
+    const r = await lib([join(save(f, 'textrate'), 'rx.shp')]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/zone 1, column "urea_lbac": "110 lb" is text/);
   });
 
-  it('zip without a .shp', () => {
+  it('zip without a .shp', async () => {
     const f = set();
     const d = save({ 'rx.zip': zipSync({ 'rx.dbf': f['rx.dbf'], 'rx.prj': f['rx.prj'] }) }, 'noshp');
-    const r = tilth(['check', join(d, 'rx.zip')]);
+    const r = await lib([join(d, 'rx.zip')]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/rx\.zip: holds no \.shp .*entries: rx\.dbf, rx\.prj/);
   });
 
-  it('zip whose entry escapes the folder (zip slip): refused, nothing written', () => {
+  it('zip whose entry escapes the folder (zip slip): refused, nothing written', async () => {
     const f = set();
     const d = save({ 'rx.zip': zipSync({ '../evil.shp': f['rx.shp'], '../evil.dbf': f['rx.dbf'], 'rx.shp': f['rx.shp'] }) }, 'slip/inner');
     const r = tilth(['check', join(d, 'rx.zip')], { cwd: d });
@@ -247,11 +275,11 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
     expect(existsSync(join(d, 'evil.shp'))).toBe(false);
   });
 
-  it('a UTM shapefile against a lon/lat boundary, and a .shp without .shx and .cpg', () => {
+  it('a UTM shapefile against a lon/lat boundary, and a .shp without .shx and .cpg', async () => {
     const f = writeShapefile(good.features, COLS, { name: 'rx', crs: 'utm' });
     delete f['rx.shx'];
     delete f['rx.cpg'];
-    const { code, report } = json([join(save(f, 'utm'), 'rx.shp'), '--boundary', BOUNDARY]);
+    const { code, report } = await lib([join(save(f, 'utm'), 'rx.shp'), '--boundary', BOUNDARY]);
     expect(report.lines.filter((l) => l.status === 'fail' || l.status === 'warn')).toEqual([]);
     expect(line(report, 'gaps')[0].status).toBe('pass');
     expect(code).toBe(0);

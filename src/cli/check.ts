@@ -6,7 +6,7 @@ import { checkPrescription, readLayer, DEFAULT_TRANSITION_S, type CheckLayer } f
 import { numberOption, out, readInput } from './util.js';
 
 /** Reads FILE and, for a .shp, the files of its set beside it (same base name, any letter case). */
-async function loadLayer(path: string, what: string): Promise<CheckLayer> {
+export async function loadLayer(path: string, what: string): Promise<CheckLayer> {
   const name = basename(path);
   const files: Record<string, Uint8Array> = { [name]: readInput(path, what) };
   if (/\.shp$/i.test(name)) {
