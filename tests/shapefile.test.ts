@@ -302,6 +302,23 @@ describe('prescriptionFiles (machine layouts)', () => {
     expect(files['rx_map_11_52_0.zip']).toBeDefined();
   });
 
+  it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))('every set of both layouts re-read by the shapefile package and GDAL 3.6.2 ogrinfo (count, ST_IsValid)', async () => {
+    for (const [layout, crs] of [['per_placement', 'lonlat'], ['per_product', 'utm']] as const) {
+      const { files } = prescriptionFiles(rx, { layout, crs, date: DATE });
+      const d = writeSet(files, `all-${layout}`);
+      const sets = Object.keys(files).filter((k) => k.endsWith('.shp'));
+      expect(sets.length).toBeGreaterThanOrEqual(2);
+      for (const shp of sets) {
+        const base = shp.slice(0, -4);
+        const r = await readShp(files[shp].slice().buffer, files[`${base}.dbf`].slice().buffer);
+        expect(r.features).toHaveLength(4);
+        const out = sh('ogrinfo', ['-ro', '-q', '-dialect', 'sqlite', '-sql', `SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM ${base}`, join(d, shp)]);
+        expect(out).toMatch(/n \(Integer\) = 4/);
+        expect(out).toMatch(/v \(Integer\) = 4/);
+      }
+    }
+  });
+
   it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))('8.3 names, UTM: GDAL 3.6.2 reads the zipped set through /vsizip/', () => {
     const { files } = prescriptionFiles(rx, { layout: 'per_placement', crs: 'utm', shortFileNames: true, date: DATE });
     for (const k of Object.keys(files)) expect(k).toMatch(/^[A-Z][A-Z0-9_]{0,7}\.[A-Z]{3}$/);
