@@ -123,6 +123,11 @@ describe('dbf bytes (dBASE III layout as given in the ESRI Shapefile Technical D
     expect(b[b.length - 1]).toBe(0x1a);
     expect(b.length).toBe(129 + 2 * 17 + 1);
   });
+  it('cuts UTF-8 text at a character boundary, never inside one', () => {
+    const b = encodeDbf([{ name: 't', type: 'C', width: 5, decimals: 0 }], [['abcdé']], DATE);
+    // 'abcdé' is 6 bytes in UTF-8 (é = C3 A9); 5 bytes would split é, so 4 are kept and a space pads
+    expect([...b.subarray(32 + 32 + 1 + 1, 32 + 32 + 1 + 6)]).toEqual([0x61, 0x62, 0x63, 0x64, 0x20]);
+  });
   it('refuses a value wider than its column', () => {
     expect(() => encodeDbf([{ name: 'r', type: 'N', width: 4, decimals: 1 }], [[1234.5]])).toThrow(RangeError);
   });

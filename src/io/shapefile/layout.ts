@@ -118,6 +118,7 @@ interface SetPlan { name: string; cols: { key: string; product: string; placemen
 export function prescriptionFiles(fc: FeatureCollection, opts: LayoutOptions): { files: Record<string, Uint8Array>; columns: RateColumn[] } {
   const prefix = opts.prefix ?? 'rx';
   const feats = fc.features as Feature<Polygon | MultiPolygon>[];
+  if (!feats.length) throw new RangeError('prescriptionFiles: the prescription has no zones');
   const rateOf = (f: Feature, product: string, placement: string): number => {
     const r = ((f.properties as RxZoneProperties | null)?.rates ?? []).find((x) => x.product === product && x.placement === placement);
     return r ? r.rate : 0;
