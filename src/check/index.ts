@@ -5,7 +5,7 @@
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import { booleanValid, kinks } from '@turf/turf';
 import * as clip from 'polyclip-ts';
-import { UserError } from '../errors.js';
+import { UserError, isUserError } from '../errors.js';
 import { arealScale, projector, utmZoneFor, type Projector } from '../geo/utm.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import type { CheckLayer } from './layer.js';
@@ -240,19 +240,28 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
   // --- overlaps between zones: when the zones' areas add up to their union's, nothing overlaps and the
   // pairwise search (the slow part) is skipped
   const ok = usable.filter((m): m is Poly[] => !!m);
-  const covered = ok.length ? (clip.union(ok[0] as clip.Geom, ...(ok.slice(1) as clip.Geom[])) as Poly[]) : [];
-  const overlapTotal = ok.reduce((s, m) => s + polysArea(m), 0) - polysArea(covered);
-  const pairs: string[] = [], overlapZones = new Set<string>();
-  if (overlapTotal >= SLIVER_M2) for (let i = 0; i < usable.length; i++) for (let j = i + 1; j < usable.length; j++) {
-    if (!usable[i] || !usable[j] || !boxesMeet(boxes[i]!, boxes[j]!)) continue;
-    const a = polysArea(clip.intersection(usable[i]! as clip.Geom, usable[j]! as clip.Geom) as Poly[]) / scale;
-    if (a >= SLIVER_M2) {
-      pairs.push(`${names[i]} & ${names[j]} (${fmt(a)} m2)`);
-      overlapZones.add(names[i]); overlapZones.add(names[j]);
+  const overlayFailed = (check: string, e: unknown) => {
+    if (isUserError(e)) throw e;
+    add(check, 'warn', `not computed: the polygon overlay failed (${(e as Error).message.slice(0, 120)}); inspect the zones in a GIS`);
+  };
+  let covered: Poly[] | null = null;
+  try {
+    covered = ok.length ? (clip.union(ok[0] as clip.Geom, ...(ok.slice(1) as clip.Geom[])) as Poly[]) : [];
+    const overlapTotal = ok.reduce((s, m) => s + polysArea(m), 0) - polysArea(covered);
+    const pairs: string[] = [], overlapZones = new Set<string>();
+    if (overlapTotal >= SLIVER_M2) for (let i = 0; i < usable.length; i++) for (let j = i + 1; j < usable.length; j++) {
+      if (!usable[i] || !usable[j] || !boxesMeet(boxes[i]!, boxes[j]!)) continue;
+      const a = polysArea(clip.intersection(usable[i]! as clip.Geom, usable[j]! as clip.Geom) as Poly[]) / scale;
+      if (a >= SLIVER_M2) {
+        pairs.push(`${names[i]} & ${names[j]} (${fmt(a)} m2)`);
+        overlapZones.add(names[i]); overlapZones.add(names[j]);
+      }
     }
+    if (pairs.length) add('overlap', 'fail', `zones overlap, the controller would pick one rate: ${list(pairs, 8)}`, [...overlapZones]);
+    else add('overlap', 'pass', 'no zones overlap');
+  } catch (e) {
+    overlayFailed('overlap', e);
   }
-  if (pairs.length) add('overlap', 'fail', `zones overlap, the controller would pick one rate: ${list(pairs, 8)}`, [...overlapZones]);
-  else add('overlap', 'pass', 'no zones overlap');
 
   // --- boundary: outside parts and gaps
   if (!opts.boundary) {
@@ -264,12 +273,16 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
     if (!work || bframe.kind === 'planar') {
       add('outside', 'skip', 'the prescription or the boundary has no known coordinate system');
       add('gaps', 'skip', 'the prescription or the boundary has no known coordinate system');
-    } else {
+    } else if (!covered) {
+      add('outside', 'skip', 'the zones could not be merged (see overlap)');
+      add('gaps', 'skip', 'the zones could not be merged (see overlap)');
+    } else try {
+      const cov = covered;
       const bpolys = toMetres(bl.features, bframe, work, origin).filter((m): m is Poly[] => !!m).flat();
       if (!bpolys.length) throw new UserError(`${bl.label}: holds no polygon to use as the field boundary. Fix: give the field's boundary polygon.`, { file: bl.label });
       const boundary = clip.union(bpolys[0] as clip.Geom, ...(bpolys.slice(1) as clip.Geom[])) as Poly[];
       const out: string[] = [], outZones: string[] = [];
-      const outsideTotal = covered.length ? polysArea(clip.difference(covered as clip.Geom, boundary as clip.Geom) as Poly[]) : 0;
+      const outsideTotal = cov.length ? polysArea(clip.difference(cov as clip.Geom, boundary as clip.Geom) as Poly[]) : 0;
       if (outsideTotal >= SLIVER_M2) usable.forEach((m, i) => {
         if (!m) return;
         const a = polysArea(clip.difference(m as clip.Geom, boundary as clip.Geom) as Poly[]) / scale;
@@ -277,7 +290,7 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
       });
       if (out.length) add('outside', 'fail', `parts outside the boundary: ${list(out, 8)}`, outZones);
       else add('outside', 'pass', 'every zone lies inside the boundary');
-      const gaps = (covered.length ? clip.difference(boundary as clip.Geom, covered as clip.Geom) : boundary) as Poly[];
+      const gaps = (cov.length ? clip.difference(boundary as clip.Geom, cov as clip.Geom) : boundary) as Poly[];
       const pieces = gaps.map((p) => ({ p, a: polysArea([p]) / scale })).filter((g) => g.a >= SLIVER_M2).sort((a, b) => b.a - a.a);
       if (pieces.length) {
         const where = pieces.slice(0, 5).map(({ p, a }) => {
@@ -291,6 +304,9 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
         for (const { p } of pieces) usable.forEach((m, i) => m && boxesMeet(boxes[i]!, bbox([p])) && near.add(names[i]));
         add('gaps', 'fail', `${pieces.length} part${pieces.length > 1 ? 's' : ''} of the field (${fmt(total)} m2, ${fmt(m2ToAc(total), 3)} ac) ${pieces.length > 1 ? 'lie' : 'lies'} in no zone and get the terminal's default rate: ${where.join('; ')}`, [...near]);
       } else add('gaps', 'pass', 'the zones cover the whole field');
+    } catch (e) {
+      if (!lines.some((l) => l.check === 'outside')) overlayFailed('outside', e);
+      overlayFailed('gaps', e);
     }
   }
 
