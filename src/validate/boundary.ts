@@ -79,6 +79,11 @@ export function checkPartsMetres(parts: RingsPart[], where: string[], file: stri
     rings.push(p.exterior); names.push(`${where[i]}, outer ring`);
     p.holes.forEach((h, j) => { rings.push(h); names.push(`${where[i]}, hole ${j + 1}`); });
   });
+  rings.forEach((r, k) => {
+    if (fanArea(r) < Math.max(1, 1e-4 * perimeter(r) ** 2)) {
+      throw new UserError(`${file} ${names[k]}: the ring has no area (its points lie on one line, or it is a sliver far thinner than any field). Fix: draw the ${what} again.`, { file, where: names[k] });
+    }
+  });
   const x = findCrossing(rings);
   if (x) {
     const same = x.ringA === x.ringB;
@@ -110,4 +115,20 @@ function pointInRing(r: Float64Array, x: number, y: number): boolean {
     if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
   }
   return inside;
+}
+
+/** Sum of |triangle areas| of the fan from the first point: 0 exactly when all points lie on one line. */
+function fanArea(r: Float64Array): number {
+  const n = r.length >> 1;
+  let a = 0;
+  for (let i = 1; i + 1 < n; i++) {
+    a += Math.abs((r[2 * i] - r[0]) * (r[2 * i + 3] - r[1]) - (r[2 * i + 2] - r[0]) * (r[2 * i + 1] - r[1]));
+  }
+  return a / 2;
+}
+
+function perimeter(r: Float64Array): number {
+  let p = 0;
+  for (let i = 0; i + 3 < r.length; i += 2) p += Math.hypot(r[i + 2] - r[i], r[i + 3] - r[i + 1]);
+  return p;
 }
