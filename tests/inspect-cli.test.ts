@@ -55,7 +55,7 @@ describe('tilth inspect', () => {
   it('--help has an example', () => {
     const r = tilth(['inspect', '--help']);
     expect(r.code).toBe(0);
-    expect(r.stdout).toMatch(/Example:\n\s+tilth inspect --samples/);
+    expect(r.stdout).toMatch(/Examples:\n\s+tilth inspect --samples/);
   });
 });
 

@@ -9,7 +9,9 @@ import { prepareInputs, type PolygonSource, type SampleSource } from '../validat
 import { readShapefile, shapefileFromZip, shapefilePoints, shapefilePolygons, type ShapefileParts } from '../io/shapefile.js';
 import { existsSync, readdirSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
-import { readInput } from './util.js';
+import type { Command } from 'commander';
+import { UserError } from '../errors.js';
+import { numberOption, readInput } from './util.js';
 
 export interface InputOptions {
   /** samples file: .geojson/.json, .csv (lab style), .shp (with .dbf/.prj/.cpg beside), or .zip */
@@ -90,4 +92,41 @@ export function loadInputs(opts: InputOptions): FieldInputs {
     dropOutside: opts.dropOutside,
     pMethod: opts.pMethod,
   });
+}
+
+/**
+ * Adds the input options every command that loads a field shares: --samples and --boundary (required),
+ * --zones, --columns, --p-method, --depth-factor, --drop-outside, --assume-wgs84. Pair with inputOptionsFrom.
+ * @example addInputOptions(program.command('surface')).action((o) => { const inp = loadInputs(inputOptionsFrom(o)); ... })
+ */
+export function addInputOptions(cmd: Command): Command {
+  return cmd
+    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
+    .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
+    .option('--zones <file>', 'zone polygons that zone-composite samples are keyed to (.geojson, .shp, .zip)')
+    .option('--columns <map>', 'CSV column map, e.g. "id=Sample ID,lat=Lat,lon=Long,p=P Olsen:ppm" (headers are recognised otherwise)')
+    .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
+    .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
+    .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
+    .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)');
+}
+
+/** Turns the parsed options of addInputOptions into InputOptions, checking their values (UserError). */
+export function inputOptionsFrom(o: Record<string, unknown>): InputOptions {
+  let pMethod: PMethod | undefined;
+  if (o.pMethod !== undefined) {
+    const m = String(o.pMethod).toLowerCase();
+    if (m !== 'olsen' && m !== 'kelowna') throw new UserError(`option --p-method: "${o.pMethod}" is not olsen or kelowna. Fix: give --p-method olsen or --p-method kelowna.`);
+    pMethod = m;
+  }
+  return {
+    samples: String(o.samples),
+    boundary: String(o.boundary),
+    zones: o.zones === undefined ? undefined : String(o.zones),
+    columns: o.columns === undefined ? undefined : String(o.columns),
+    pMethod,
+    depthFactor: numberOption('--depth-factor', o.depthFactor as string | undefined, { min: 1, max: 10 }),
+    dropOutside: Boolean(o.dropOutside),
+    assumeWgs84: Boolean(o.assumeWgs84),
+  };
 }
