@@ -62,6 +62,7 @@ function shapefileParts(path: string, what: string): ShapefileParts {
 /**
  * Reads any shapefile inputs (.shp or .zip) ahead of loadInputs; the CLI calls it from a preAction hook
  * (src/cli/main.ts) for every command with --samples / --boundary / --zones, so commands stay synchronous.
+ * @example await preloadInputs({ samples: 'samples.zip', boundary: 'field.shp' }); loadInputs({ samples: 'samples.zip', boundary: 'field.shp' })
  */
 export async function preloadInputs(opts: Partial<InputOptions>): Promise<void> {
   for (const [path, what] of [[opts.samples, 'samples'], [opts.boundary, 'boundary'], [opts.zones, 'zones']] as const) {
@@ -84,7 +85,12 @@ function polygonSource(path: string, what: string): PolygonSource {
   return { name: path, bytes: readInput(path, what) };
 }
 
-/** Reads, validates and projects the inputs. Throws UserError for anything the user must fix. */
+/**
+ * Reads, validates and projects the inputs. Throws UserError for anything the user must fix.
+ * Defaults: no depth factor (0-6 in only is an error), samples outside the boundary kept with a warning,
+ * shapefiles without .prj refused, P method from the file (else an error).
+ * @example const inp = loadInputs({ samples: 'sample-fields/quarter/samples.csv', boundary: 'sample-fields/quarter/boundary.geojson' });
+ */
 export function loadInputs(opts: InputOptions): FieldInputs {
   return prepareInputs(samplesSource(opts.samples), polygonSource(opts.boundary, 'boundary'), opts.zones ? polygonSource(opts.zones, 'zones') : undefined, {
     columns: opts.columns,
@@ -111,7 +117,10 @@ export function addInputOptions(cmd: Command): Command {
     .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)');
 }
 
-/** Turns the parsed options of addInputOptions into InputOptions, checking their values (UserError). */
+/**
+ * Turns the parsed options of addInputOptions into InputOptions, checking their values (UserError).
+ * @example loadInputs(inputOptionsFrom(cmd.opts()))
+ */
 export function inputOptionsFrom(o: Record<string, unknown>): InputOptions {
   let pMethod: PMethod | undefined;
   if (o.pMethod !== undefined) {

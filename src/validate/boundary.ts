@@ -71,6 +71,7 @@ export function checkPolygonsLonLat(src: RawPolygons, what: string): { coordinat
  * Checks a projected boundary: no ring crosses itself or another ring, holes lie inside their outer ring,
  * and the area is positive.
  * @param where one label per part, from checkPolygonsLonLat
+ * @example checkPartsMetres(field.parts, checked.where, 'boundary.geojson', 'boundary') // throws UserError or returns
  */
 export function checkPartsMetres(parts: RingsPart[], where: string[], file: string, what: string): void {
   const rings: Float64Array[] = [];

@@ -34,7 +34,11 @@ export type PolygonSource = InputFile | RawPolygons;
 const text = (f: InputFile) => new TextDecoder('utf-8').decode(f.bytes);
 const isFile = (x: object): x is InputFile => 'bytes' in x;
 
-/** Reads sample records from a GeoJSON or CSV file (by extension; content sniffed when unclear). */
+/**
+ * Reads sample records from a GeoJSON or CSV file (by extension; content sniffed when unclear).
+ * @param columns the --columns map text, for CSV header detection
+ * @example readSampleRecords({ name: 'samples.csv', bytes }).records.length
+ */
 export function readSampleRecords(src: SampleSource, columns?: string): RawTable {
   if (!isFile(src)) return src;
   const t = text(src);
@@ -44,7 +48,10 @@ export function readSampleRecords(src: SampleSource, columns?: string): RawTable
   throw new UserError(`${src.name}: tilth reads samples from .geojson, .json, .csv, .shp or .zip (shapefile) files. Fix: export the samples in one of these formats.`, { file: src.name });
 }
 
-/** Reads polygons (boundary or zones) from a GeoJSON file. */
+/**
+ * Reads polygons (boundary or zones) from a GeoJSON file; already-read polygons pass through.
+ * @example readPolygonSource({ name: 'boundary.geojson', bytes }, 'boundary').features.length
+ */
 export function readPolygonSource(src: PolygonSource, what: string): RawPolygons {
   if (!isFile(src)) return src;
   const ext = src.name.toLowerCase().split('.').pop();

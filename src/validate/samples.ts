@@ -32,7 +32,10 @@ const TEXTURES: Record<string, Texture> = {
   heavy: 'heavy', fine: 'heavy', clay: 'heavy', 'clay loam': 'heavy', 'silty clay': 'heavy', 'silty clay loam': 'heavy', 'sandy clay': 'heavy', 'heavy clay': 'heavy', h: 'heavy',
 };
 
-/** Parses a texture class word (light/medium/heavy, or a USDA/CSSC class name). null when blank. */
+/**
+ * Parses a texture class word (light/medium/heavy, or a soil texture class name); null when blank, 'bad' when unknown.
+ * @example parseTexture('Clay Loam') // 'heavy'
+ */
 export function parseTexture(raw: unknown): Texture | null | 'bad' {
   if (raw === null || raw === undefined) return null;
   const s = String(raw).trim().toLowerCase().replace(/[\s_-]+/g, ' ');
@@ -320,7 +323,10 @@ export function buildSamples(table: RawTable, opts: SampleOptions = {}): { sampl
   return { samples: { ids, lonlat, values, censored, texture, zone, pMethod, origin }, warnings };
 }
 
-/** "a, b, c and 4 more" */
+/**
+ * Shortens a list for a message.
+ * @example abbrev(['a', 'b', 'c'], 2) // 'a, b and 1 more'
+ */
 export function abbrev(list: string[], max = 8): string {
   return list.length <= max ? list.join(', ') : `${list.slice(0, max).join(', ')} and ${list.length - max} more`;
 }
