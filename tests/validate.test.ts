@@ -66,7 +66,13 @@ describe('prepareInputs', () => {
     userError(() => prepareInputs(file('s.geojson', JSON.stringify(gj)), Q('boundary.geojson')), /same place/);
     const sw = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/samples.geojson'), 'utf8'));
     for (const f of sw.features) f.geometry.coordinates.reverse();
-    userError(() => prepareInputs(file('s.geojson', JSON.stringify(sw)), Q('boundary.geojson')), /far from the boundary|not a longitude/);
+    userError(() => prepareInputs(file('s.geojson', JSON.stringify(sw)), Q('boundary.geojson')), /look swapped/);
+  });
+
+  it('a boundary with [latitude, longitude] order is named as swapped', () => {
+    const gj = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8'));
+    for (const ring of gj.features[0].geometry.coordinates) for (const p of ring) p.reverse();
+    userError(() => prepareInputs(Q('samples.geojson'), file('b.geojson', JSON.stringify(gj))), /latitude and longitude swapped/);
   });
 
   it('zone composites: keys checked against the zone polygons', () => {

@@ -33,6 +33,13 @@ export function checkPolygonsLonLat(src: RawPolygons, what: string): { coordinat
           if (!Number.isFinite(x) || !Number.isFinite(y)) {
             throw new UserError(`${file} ${at}, point ${k + 1}: coordinate [${x}, ${y}] is not a number. Fix: export the ${what} again.`, { file, where: at });
           }
+          if (Math.abs(y) > 90 && Math.abs(y) <= 180 && Math.abs(x) <= 90) {
+            throw new UserError(
+              `${file} ${at}, point ${k + 1}: [${x}, ${y}] has latitude and longitude swapped (GeoJSON is [longitude, latitude]). ` +
+                `Fix: export the ${what} again with longitude first, e.g. \`ogr2ogr -f GeoJSON ${what}-fixed.geojson ${file}\` from the original file.`,
+              { file, where: at, value: [x, y] },
+            );
+          }
           if (Math.abs(x) > 180 || Math.abs(y) > 90) {
             throw new UserError(
               `${file} ${at}, point ${k + 1}: [${x}, ${y}] is not a longitude/latitude; it looks like projected metres (e.g. UTM easting, northing). ` +

@@ -85,6 +85,13 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
   let s = built.samples;
   for (let i = 0; i < s.ids.length; i++) {
     const lon = s.lonlat[2 * i], lat = s.lonlat[2 * i + 1];
+    if (Math.abs(lat) > 90 && Math.abs(lat) <= 180 && Math.abs(lon) <= 90) {
+      throw new UserError(
+        `${table.file} sample "${s.ids[i]}" (${s.origin[i].replace(table.file + ' ', '')}): latitude ${lat} and longitude ${lon} look swapped. ` +
+          'Fix: swap the latitude and longitude columns (or name them with --columns "lat=...,lon=...").',
+        { file: table.file, where: s.ids[i], value: [lon, lat] },
+      );
+    }
     if (Math.abs(lon) > 180 || Math.abs(lat) > 90) {
       throw new UserError(
         `${table.file} sample "${s.ids[i]}" (${s.origin[i].replace(table.file + ' ', '')}): position [${lon}, ${lat}] is not a longitude/latitude; it looks like projected metres. ` +
