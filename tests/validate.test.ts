@@ -84,3 +84,39 @@ describe('prepareInputs', () => {
     userError(() => prepareInputs(file('s.csv', bad), Z('boundary.geojson'), Z('zones.geojson')), /zone "hilltop" is not among/);
   });
 });
+
+describe('robustness: a damaged input is a user error, never a crash (property)', () => {
+  const csv = readFileSync(join(ROOT, 'sample-fields/quarter/samples.csv'), 'utf8').split('\n');
+  const boundary = readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8');
+  const junk = fc.oneof(fc.constantFrom('', '-', '<', '>x', '1e999', 'NaN', '-0', '0-6', '6-24', '24-6', '"', ',', 'HQ-01', '999', '-106.4', '52.3', '<2', 'ppm', '12 ppm', '5 lb/ac'), fc.string({ maxLength: 5 }));
+  it('one CSV cell replaced by junk', () => {
+    fc.assert(fc.property(fc.integer({ min: 2, max: csv.length - 2 }), fc.integer({ min: 0, max: 12 }), junk, (row, col, v) => {
+      const lines = [...csv];
+      const cells = lines[row].split(',');
+      cells[Math.min(col, cells.length - 1)] = v;
+      lines[row] = cells.join(',');
+      try {
+        prepareInputs(file('s.csv', lines.join('\n')), file('b.geojson', boundary));
+      } catch (e) {
+        if (!isUserError(e)) throw e;
+      }
+    }), { seed: 21, numRuns: 300 });
+  });
+
+  it('the boundary GeoJSON cut or with one number replaced', () => {
+    fc.assert(fc.property(fc.integer({ min: 0, max: boundary.length }), fc.oneof(fc.constant(null), fc.constantFrom('0', '1e9', '-999', '"x"', 'null', '[]', '{}')), (at, repl) => {
+      let text: string;
+      if (repl === null) text = boundary.slice(0, at);
+      else {
+        const nums = [...boundary.matchAll(/-?\d+\.\d+/g)];
+        const m = nums[at % nums.length];
+        text = boundary.slice(0, m.index) + repl + boundary.slice(m.index! + m[0].length);
+      }
+      try {
+        prepareInputs(file('s.csv', csv.join('\n')), file('b.geojson', text));
+      } catch (e) {
+        if (!isUserError(e)) throw e;
+      }
+    }), { seed: 22, numRuns: 300 });
+  });
+});

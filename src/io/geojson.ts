@@ -33,7 +33,7 @@ export function parseGeoJson(text: string, file: string): Json {
   }
   if ((v as Json).crs !== undefined) {
     const name = JSON.stringify(((v as Json).crs as Json)?.properties ?? (v as Json).crs);
-    if (!/4326|CRS84|WGS ?84/i.test(name)) {
+    if (!/4326|4269|4617|CRS84|CRS83|WGS ?84/i.test(name)) {
       throw new UserError(
         `${file} declares the coordinate system ${name}; GeoJSON must be WGS 84 longitude/latitude (RFC 7946). ` +
           'Fix: export it again with longitude/latitude (EPSG:4326), e.g. `ogr2ogr -t_srs EPSG:4326 out.geojson in.geojson`.',

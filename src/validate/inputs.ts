@@ -31,7 +31,13 @@ export interface PrepareOptions {
 export type SampleSource = InputFile | RawTable;
 export type PolygonSource = InputFile | RawPolygons;
 
-const text = (f: InputFile) => new TextDecoder('utf-8').decode(f.bytes);
+const text = (f: InputFile) => {
+  const ext = f.name.toLowerCase().split('.').pop();
+  if (ext === 'dbf' || ext === 'shx' || ext === 'prj' || ext === 'cpg' || ext === 'qmd' || ext === 'sbn') {
+    throw new UserError(`${f.name} is one of the files beside a shapefile. Fix: give the .shp file (the others are found beside it), or a .zip of them all.`, { file: f.name });
+  }
+  return new TextDecoder('utf-8').decode(f.bytes);
+};
 const isFile = (x: object): x is InputFile => 'bytes' in x;
 
 /**
