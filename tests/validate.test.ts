@@ -69,6 +69,23 @@ describe('prepareInputs', () => {
     userError(() => prepareInputs(file('s.geojson', JSON.stringify(sw)), Q('boundary.geojson')), /look swapped/);
   });
 
+  it('zone composites drawn as their zone polygons give the same samples and zones as points + --zones', () => {
+    const Z = (f: string) => readFileSync(join(ROOT, 'sample-fields/zoned', f), 'utf8');
+    const zones = JSON.parse(Z('zones.geojson'));
+    const pts = JSON.parse(Z('samples.geojson'));
+    const polys = { type: 'FeatureCollection', features: pts.features.map((f: { properties: { zone: string } }) => ({
+      type: 'Feature', properties: f.properties,
+      geometry: zones.features.find((z: { properties: { zone: string } }) => z.properties.zone === f.properties.zone).geometry,
+    })) };
+    const a = prepareInputs(file('s.geojson', Z('samples.geojson')), file('b.geojson', Z('boundary.geojson')), file('z.geojson', Z('zones.geojson')));
+    const b = prepareInputs(file('p.geojson', JSON.stringify(polys)), file('b.geojson', Z('boundary.geojson')));
+    expect(b.zones!.keys).toEqual(a.zones!.keys);
+    expect(b.samples.values).toEqual(a.samples.values);
+    expect(b.samples.zone).toEqual(a.samples.zone);
+    expect(b.zones!.lonlat).toEqual(a.zones!.lonlat);
+    userError(() => prepareInputs(file('p.geojson', JSON.stringify(polys)), file('b.geojson', Z('boundary.geojson')), file('z.geojson', Z('zones.geojson'))), /zones once/);
+  });
+
   it('a boundary with [latitude, longitude] order is named as swapped', () => {
     const gj = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8'));
     for (const ring of gj.features[0].geometry.coordinates) for (const p of ring) p.reverse();

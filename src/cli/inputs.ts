@@ -18,7 +18,7 @@ export interface InputOptions {
   samples: string;
   /** boundary file: .geojson/.json, .shp or .zip */
   boundary: string;
-  /** zone polygons for zone-composite samples (optional) */
+  /** zone polygons for zone-composite samples (optional; a GeoJSON samples file of zone polygons carries its own) */
   zones?: string;
   /** CSV column map "id=Sample ID,lat=Latitude,..." (optional; headers are detected otherwise) */
   columns?: string;

@@ -110,6 +110,8 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
     }
   }
   let xy = proj.forward(s.lonlat);
+  /** for each sample now in s, its index in built.samples (changes when --drop-outside drops some) */
+  let kept = s.ids.map((_, i) => i);
 
   // far away from the field: a swapped lat/lon or the wrong file
   const [x0, y0, x1, y1] = field.bbox;
@@ -135,6 +137,7 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
       const keep = s.ids.map((_, i) => i).filter((i) => !outside.includes(i));
       s = subset(s, keep);
       xy = subsetXY(xy, keep);
+      kept = keep;
     } else {
       warnings.push({
         code: 'outside-boundary', file: table.file, where: outIds.join(','),
@@ -160,7 +163,20 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
 
   // zones
   let zones: SampleZones | null = null;
-  if (zonesSrc) {
+  if (table.polygons && zonesSrc) {
+    throw new UserError(`${table.file}: the samples are zone polygons and --zones also gives zones. Fix: give the zones once: either drop --zones, or give the samples as points keyed to the zones.`, { file: table.file });
+  }
+  if (table.polygons) {
+    // zone-composite samples drawn as their zones: each sample's polygon is its zone, keyed by its zone value or id
+    const polys = kept.map((i) => table.polygons![built.firstRecord[i]]);
+    const keys = s.ids.map((id, i) => s.zone[i] ?? id);
+    if (new Set(keys).size !== keys.length) {
+      throw new UserError(`${table.file}: two sample polygons have the same zone key. Fix: give each zone polygon its own zone key.`, { file: table.file });
+    }
+    const zoneFeatures: RawPolygons = { file: table.file, features: keys.map((k, i) => ({ where: `sample "${s.ids[i]}"`, props: { zone: k }, coordinates: polys[i] })) };
+    zones = readZones(zoneFeatures, proj.forward);
+    keys.forEach((k, i) => { s.zone[i] = k; });
+  } else if (zonesSrc) {
     zones = readZones(zonesSrc, proj.forward);
     const zset = new Set(zones.keys);
     for (let i = 0; i < s.ids.length; i++) {

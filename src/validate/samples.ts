@@ -64,10 +64,11 @@ interface Layer { top: number; bottom: number; value: number; censor: Censor; wh
 
 /**
  * Builds samples from a table of records.
+ * @returns samples, warnings, and for each sample the index of its first record in the table
  * @throws UserError for anything that cannot be read unambiguously (see docs/method.md "Reading samples")
  * @example const { samples, warnings } = buildSamples(readCsvRecords(text, 'samples.csv', []), {});
  */
-export function buildSamples(table: RawTable, opts: SampleOptions = {}): { samples: SamplesLonLat; warnings: Warning[] } {
+export function buildSamples(table: RawTable, opts: SampleOptions = {}): { samples: SamplesLonLat; warnings: Warning[]; firstRecord: number[] } {
   const file = table.file;
   const warnings: Warning[] = [];
   const plan = planColumns(table.columns, opts.map ?? [], file);
@@ -320,7 +321,7 @@ export function buildSamples(table: RawTable, opts: SampleOptions = {}): { sampl
     const miss = ids.filter((_, s) => Number.isNaN(values[a][s]));
     if (miss.length) warnings.push({ code: 'missing-value', file, field: a, message: `${file}: ${miss.length} sample(s) have no ${ANALYTE_NAMES[a]} value (${abbrev(miss)}).` });
   }
-  return { samples: { ids, lonlat, values, censored, texture, zone, pMethod, origin }, warnings };
+  return { samples: { ids, lonlat, values, censored, texture, zone, pMethod, origin }, warnings, firstRecord: ids.map((id) => groups.get(id)![0]) };
 }
 
 /**
