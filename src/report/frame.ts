@@ -1,0 +1,196 @@
+/**
+ * The frame every report map shares: a view of the field in UTM metres, a scale bar in metres and feet,
+ * a grid-north arrow and a legend column. Geometry is drawn in metres (x - x0, y0 - y) inside a group
+ * scaled to pixels, so the SVG holds the field's UTM coordinates shifted to the map's north-west corner
+ * (recorded in data-utm-origin); labels, scale bar and legend are drawn in pixels on top.
+ */
+import { M_PER_FT, mToFt } from '../units/index.js';
+import { esc, fmt } from './escape.js';
+import type { ReportPart } from './types.js';
+
+/** Width of the map area and of the legend column, px. */
+export const MAP_W = 700;
+export const LEGEND_W = 280;
+const MAX_MAP_H = 820;
+const PAD = 16;
+/** Room under the map for the scale bar, px. */
+const FOOT = 64;
+
+export interface Frame {
+  /** UTM easting / northing of the map area's north-west corner (x0, y0) */
+  x0: number;
+  y0: number;
+  /** pixels per metre */
+  k: number;
+  /** size of the map area in px */
+  w: number;
+  h: number;
+}
+
+/**
+ * A frame that fits a bounding box [xmin, ymin, xmax, ymax] (metres) with a 3 % margin.
+ * @example makeFrame([500000, 5700000, 500800, 5700800]) // k = 700 / 848 px per metre
+ */
+export function makeFrame(bbox: readonly [number, number, number, number]): Frame {
+  const [xmin, ymin, xmax, ymax] = bbox;
+  const mw = Math.max(1, xmax - xmin);
+  const mh = Math.max(1, ymax - ymin);
+  const m = 0.03 * Math.max(mw, mh);
+  const k = Math.min(MAP_W / (mw + 2 * m), MAX_MAP_H / (mh + 2 * m));
+  return { x0: xmin - m, y0: ymax + m, k, w: MAP_W, h: Math.ceil((mh + 2 * m) * k) };
+}
+
+/** Pixel x, y of a UTM point. */
+export const px = (f: Frame, x: number): number => PAD + (x - f.x0) * f.k;
+export const py = (f: Frame, y: number): number => PAD + (f.y0 - y) * f.k;
+
+/** Bounding box of parts' exterior rings. */
+export function partsBbox(parts: readonly ReportPart[]): [number, number, number, number] {
+  let xmin = Infinity, ymin = Infinity, xmax = -Infinity, ymax = -Infinity;
+  for (const p of parts) {
+    const e = p.exterior;
+    for (let i = 0; i + 1 < e.length; i += 2) {
+      xmin = Math.min(xmin, e[i]!);
+      xmax = Math.max(xmax, e[i]!);
+      ymin = Math.min(ymin, e[i + 1]!);
+      ymax = Math.max(ymax, e[i + 1]!);
+    }
+  }
+  return [xmin, ymin, xmax, ymax];
+}
+
+function ringPath(f: Frame, r: ArrayLike<number>): string {
+  if (r.length < 6) return '';
+  let d = '';
+  for (let i = 0; i + 1 < r.length; i += 2) {
+    d += (i === 0 ? 'M' : 'L') + (r[i]! - f.x0).toFixed(1) + ' ' + (f.y0 - r[i + 1]!).toFixed(1);
+  }
+  return d + 'Z';
+}
+
+/** SVG path data (metres from the frame origin, for use inside `geoGroup`) of parts with holes (even-odd). */
+export function partsPath(f: Frame, parts: readonly ReportPart[]): string {
+  return parts.map((p) => ringPath(f, p.exterior) + p.holes.map((h) => ringPath(f, h)).join('')).join('');
+}
+
+/** Opening tag of the group in which geometry is drawn in metres. */
+export function geoGroup(f: Frame, extra = ''): string {
+  return `<g class="geo" transform="translate(${PAD} ${PAD}) scale(${f.k.toPrecision(6)})"${extra}>`;
+}
+
+/**
+ * The largest "nice" length (1, 2 or 5 x 10^n) not over `max`.
+ * @example niceLength(730) // 500
+ */
+export function niceLength(max: number): number {
+  if (!(max > 0)) return 0;
+  const p = 10 ** Math.floor(Math.log10(max));
+  for (const m of [5, 2, 1]) if (m * p <= max) return m * p;
+  return p;
+}
+
+function bar(x: number, y: number, lenPx: number, label: string, cls: string): string {
+  const half = lenPx / 2;
+  return `<g class="${cls}">` +
+    `<rect x="${x.toFixed(1)}" y="${y}" width="${half.toFixed(1)}" height="6" fill="#222"/>` +
+    `<rect x="${(x + half).toFixed(1)}" y="${y}" width="${half.toFixed(1)}" height="6" fill="#fff" stroke="#222" stroke-width="1"/>` +
+    `<text x="${x.toFixed(1)}" y="${y + 19}" class="sb-t">0</text>` +
+    `<text x="${(x + lenPx).toFixed(1)}" y="${y + 19}" class="sb-t" text-anchor="end">${label}</text></g>`;
+}
+
+/**
+ * A scale bar with a round length in metres and another in feet, each about a quarter of the map wide.
+ * @example scaleBar(frame) // '<g class="scalebar" data-m="200" data-ft="500">...'
+ */
+export function scaleBar(f: Frame): string {
+  const maxM = (f.w * 0.3) / f.k;
+  const m = niceLength(maxM);
+  const ft = niceLength(mToFt(maxM));
+  const y = PAD + f.h + 10;
+  const mLabel = m >= 1000 ? `${fmt(m / 1000, m % 1000 ? 1 : 0)} km` : `${fmt(m)} m`;
+  const ftLabel = `${fmt(ft)} ft`;
+  return `<g class="scalebar" data-m="${m}" data-ft="${ft}">` +
+    bar(PAD, y, m * f.k, mLabel, 'sb-m') + bar(PAD + m * f.k + 40, y, ft * M_PER_FT * f.k, ftLabel, 'sb-ft') + '</g>';
+}
+
+/** An arrow pointing to grid north (the UTM grid's y axis), top right of the map area. */
+export function northArrow(f: Frame): string {
+  const x = PAD + f.w - 28;
+  const y = PAD + 12;
+  return `<g class="north" transform="translate(${x} ${y})"><title>Grid north (UTM)</title>` +
+    `<circle cx="0" cy="22" r="20" fill="#fff" fill-opacity="0.85" stroke="#222"/>` +
+    `<path d="M0 4 L9 32 L0 26 L-9 32 Z" fill="#222"/>` +
+    `<text x="0" y="56" text-anchor="middle" class="n-t">N</text></g>`;
+}
+
+export interface LegendItem {
+  /** fill colour, or 'point' for the sample symbol, or 'line' for the boundary */
+  fill: string;
+  label: string;
+}
+
+/**
+ * The legend column: a title (with the unit), one swatch per class, and notes in small print.
+ * @example legend(frame, 'Olsen P (ppm)', [{ fill: '#440154', label: '< 10' }])
+ */
+export function legend(f: Frame, title: string, items: readonly LegendItem[], notes: readonly string[] = []): string {
+  const x = PAD * 2 + f.w;
+  let y = PAD + 6;
+  let s = `<g class="legend"><text x="${x}" y="${y + 12}" class="lg-title">${esc(title)}</text>`;
+  y += 30;
+  for (const it of items) {
+    if (it.fill === 'point') {
+      s += `<circle cx="${x + 11}" cy="${y + 9}" r="4.5" fill="#fff" stroke="#000" stroke-width="1.5"/>`;
+    } else if (it.fill === 'line') {
+      s += `<rect x="${x + 1}" y="${y + 1}" width="20" height="16" fill="none" stroke="#000" stroke-width="2"/>`;
+    } else {
+      s += `<rect class="swatch" x="${x}" y="${y}" width="22" height="18" fill="${esc(it.fill)}" stroke="#555" stroke-width="0.6"/>`;
+    }
+    s += wrapText(it.label, x + 30, y + 13, 34, 'lg-t');
+    y += 24 + 14 * (Math.ceil(it.label.length / 34) - 1);
+  }
+  y += 8;
+  for (const n of notes) {
+    s += wrapText(n, x, y + 10, 42, 'lg-n');
+    y += 14 * Math.ceil(n.length / 42) + 6;
+  }
+  return s + '</g>';
+}
+
+/** Text broken on spaces into lines of about `width` characters, as <text> with <tspan>s. */
+function wrapText(text: string, x: number, y: number, width: number, cls: string): string {
+  const words = text.split(/\s+/);
+  const lines: string[] = [];
+  let cur = '';
+  for (const w of words) {
+    if (cur && (cur + ' ' + w).length > width) {
+      lines.push(cur);
+      cur = w;
+    } else cur = cur ? cur + ' ' + w : w;
+  }
+  if (cur) lines.push(cur);
+  return `<text x="${x}" y="${y}" class="${cls}">` +
+    lines.map((l, i) => `<tspan x="${x}" dy="${i === 0 ? 0 : 14}">${esc(l)}</tspan>`).join('') + '</text>';
+}
+
+/** Total legend height in px (so the SVG is tall enough). */
+export function legendHeight(items: readonly LegendItem[], notes: readonly string[] = []): number {
+  let y = PAD + 36;
+  for (const it of items) y += 24 + 14 * (Math.ceil(it.label.length / 34) - 1);
+  y += 8;
+  for (const n of notes) y += 14 * Math.ceil(n.length / 42) + 6;
+  return y + PAD;
+}
+
+/**
+ * The whole <svg> of one map: map content (already built), frame items and legend.
+ * @param id unique per page (used for clip paths)
+ */
+export function mapSvg(f: Frame, id: string, kind: string, body: string, legendSvg: string, legendH: number, utm: { epsg: number }, aria: string): string {
+  const W = PAD * 3 + MAP_W + LEGEND_W;
+  const H = Math.max(PAD + f.h + FOOT, legendH);
+  return `<svg class="map" data-map="${esc(id)}" data-kind="${esc(kind)}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" ` +
+    `role="img" aria-label="${esc(aria)}" data-epsg="${utm.epsg}" data-utm-origin="${f.x0.toFixed(2)} ${f.y0.toFixed(2)}" data-px-per-m="${f.k.toPrecision(6)}">` +
+    `<rect class="map-bg" x="${PAD}" y="${PAD}" width="${f.w}" height="${f.h}" fill="#fff"/>` +
+    body + northArrow(f) + scaleBar(f) + legendSvg + '</svg>';
+}
