@@ -84,7 +84,8 @@ export function geoGroup(f: Frame, extra = ''): string {
  */
 export function niceLength(max: number): number {
   if (!(max > 0)) return 0;
-  const p = 10 ** Math.floor(Math.log10(max));
+  let p = 10 ** Math.floor(Math.log10(max));
+  if (p > max) p /= 10; // log10 rounds up just below a power of ten
   for (const m of [5, 2, 1]) if (m * p <= max) return m * p;
   return p;
 }
