@@ -137,8 +137,8 @@ export interface LegendItem {
 export function legend(f: Frame, title: string, items: readonly LegendItem[], notes: readonly string[] = []): string {
   const x = PAD * 2 + f.w;
   let y = PAD + 6;
-  let s = `<g class="legend"><text x="${x}" y="${y + 12}" class="lg-title">${esc(title)}</text>`;
-  y += 30;
+  let s = `<g class="legend">${wrapText(title, x, y + 12, TITLE_CHARS, 'lg-title', 17)}`;
+  y += 30 + 17 * (lineCount(title, TITLE_CHARS) - 1);
   for (const it of items) {
     if (it.fill === 'point') {
       s += `<circle cx="${x + 11}" cy="${y + 9}" r="4.5" fill="#fff" stroke="#000" stroke-width="1.5"/>`;
@@ -147,39 +147,55 @@ export function legend(f: Frame, title: string, items: readonly LegendItem[], no
     } else {
       s += `<rect class="swatch" x="${x}" y="${y}" width="22" height="18" fill="${esc(it.fill)}" stroke="#555" stroke-width="0.6"/>`;
     }
-    s += wrapText(it.label, x + 30, y + 13, 34, 'lg-t');
-    y += 24 + 14 * (Math.ceil(it.label.length / 34) - 1);
+    s += wrapText(it.label, x + 30, y + 13, ITEM_CHARS, 'lg-t');
+    y += 24 + 14 * (lineCount(it.label, ITEM_CHARS) - 1);
   }
   y += 8;
   for (const n of notes) {
-    s += wrapText(n, x, y + 10, 42, 'lg-n');
-    y += 14 * Math.ceil(n.length / 42) + 6;
+    s += wrapText(n, x, y + 10, NOTE_CHARS, 'lg-n');
+    y += 14 * lineCount(n, NOTE_CHARS) + 6;
   }
   return s + '</g>';
 }
 
-/** Text broken on spaces into lines of about `width` characters, as <text> with <tspan>s. */
-function wrapText(text: string, x: number, y: number, width: number, cls: string): string {
-  const words = text.split(/\s+/);
-  const lines: string[] = [];
+/** Characters per line in the legend column (about 270 px at the legend's font sizes). */
+const TITLE_CHARS = 28;
+const ITEM_CHARS = 32;
+const NOTE_CHARS = 40;
+
+/** Lines of about `width` characters, broken on spaces (a longer word is cut). */
+function lines(text: string, width: number): string[] {
+  const out: string[] = [];
   let cur = '';
-  for (const w of words) {
+  for (let w of text.split(/\s+/)) {
+    while (w.length > width) {
+      if (cur) out.push(cur);
+      cur = '';
+      out.push(w.slice(0, width));
+      w = w.slice(width);
+    }
     if (cur && (cur + ' ' + w).length > width) {
-      lines.push(cur);
+      out.push(cur);
       cur = w;
     } else cur = cur ? cur + ' ' + w : w;
   }
-  if (cur) lines.push(cur);
+  if (cur) out.push(cur);
+  return out.length ? out : [''];
+}
+const lineCount = (text: string, width: number): number => lines(text, width).length;
+
+/** Text broken into lines, as <text> with <tspan>s. */
+function wrapText(text: string, x: number, y: number, width: number, cls: string, step = 14): string {
   return `<text x="${x}" y="${y}" class="${cls}">` +
-    lines.map((l, i) => `<tspan x="${x}" dy="${i === 0 ? 0 : 14}">${esc(l)}</tspan>`).join('') + '</text>';
+    lines(text, width).map((l, i) => `<tspan x="${x}" dy="${i === 0 ? 0 : step}">${esc(l)}</tspan>`).join('') + '</text>';
 }
 
 /** Total legend height in px (so the SVG is tall enough). */
-export function legendHeight(items: readonly LegendItem[], notes: readonly string[] = []): number {
-  let y = PAD + 36;
-  for (const it of items) y += 24 + 14 * (Math.ceil(it.label.length / 34) - 1);
+export function legendHeight(title: string, items: readonly LegendItem[], notes: readonly string[] = []): number {
+  let y = PAD + 36 + 17 * (lineCount(title, TITLE_CHARS) - 1);
+  for (const it of items) y += 24 + 14 * (lineCount(it.label, ITEM_CHARS) - 1);
   y += 8;
-  for (const n of notes) y += 14 * Math.ceil(n.length / 42) + 6;
+  for (const n of notes) y += 14 * lineCount(n, NOTE_CHARS) + 6;
   return y + PAD;
 }
 
