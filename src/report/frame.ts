@@ -1,6 +1,6 @@
 /**
  * The frame every report map shares: a view of the field in UTM metres, a scale bar in metres and feet,
- * a grid-north arrow and a legend column. Geometry is drawn in metres (x - x0, y0 - y) inside a group
+ * a grid-north arrow and a legend under the map. Geometry is drawn in metres (x - x0, y0 - y) inside a group
  * scaled to pixels, so the SVG holds the field's UTM coordinates shifted to the map's north-west corner
  * (recorded in data-utm-origin); labels, scale bar and legend are drawn in pixels on top.
  */
@@ -8,13 +8,12 @@ import { M_PER_FT, mToFt } from '../units/index.js';
 import { esc, fmt } from './escape.js';
 import type { ReportPart } from './types.js';
 
-/** Width of the map area and of the legend column, px. */
+/** Width of the map area, px (the legend goes under the map, so a portrait page holds both). */
 export const MAP_W = 700;
-export const LEGEND_W = 280;
-const MAX_MAP_H = 820;
+const MAX_MAP_H = 700;
 const PAD = 16;
 /** Room under the map for the scale bar, px. */
-const FOOT = 64;
+const FOOT = 50;
 
 export interface Frame {
   /** UTM easting / northing of the map area's north-west corner (x0, y0) */
@@ -130,38 +129,12 @@ export interface LegendItem {
   label: string;
 }
 
-/**
- * The legend column: a title (with the unit), one swatch per class, and notes in small print.
- * @example legend(frame, 'Olsen P (ppm)', [{ fill: '#440154', label: '< 10' }])
- */
-export function legend(f: Frame, title: string, items: readonly LegendItem[], notes: readonly string[] = []): string {
-  const x = PAD * 2 + f.w;
-  let y = PAD + 6;
-  let s = `<g class="legend">${wrapText(title, x, y + 12, TITLE_CHARS, 'lg-title', 17)}`;
-  y += 30 + 17 * (lineCount(title, TITLE_CHARS) - 1);
-  for (const it of items) {
-    if (it.fill === 'point') {
-      s += `<circle cx="${x + 11}" cy="${y + 9}" r="4.5" fill="#fff" stroke="#000" stroke-width="1.5"/>`;
-    } else if (it.fill === 'line') {
-      s += `<rect x="${x + 1}" y="${y + 1}" width="20" height="16" fill="none" stroke="#000" stroke-width="2"/>`;
-    } else {
-      s += `<rect class="swatch" x="${x}" y="${y}" width="22" height="18" fill="${esc(it.fill)}" stroke="#555" stroke-width="0.6"/>`;
-    }
-    s += wrapText(it.label, x + 30, y + 13, ITEM_CHARS, 'lg-t');
-    y += 24 + 14 * (lineCount(it.label, ITEM_CHARS) - 1);
-  }
-  y += 8;
-  for (const n of notes) {
-    s += wrapText(n, x, y + 10, NOTE_CHARS, 'lg-n');
-    y += 14 * lineCount(n, NOTE_CHARS) + 6;
-  }
-  return s + '</g>';
-}
-
-/** Characters per line in the legend column (about 270 px at the legend's font sizes). */
-const TITLE_CHARS = 28;
-const ITEM_CHARS = 32;
-const NOTE_CHARS = 40;
+/** Characters per line in the legend (at the legend's font sizes). */
+const TITLE_CHARS = 70;
+const ITEM_CHARS = 42;
+const NOTE_CHARS = 100;
+/** Legend items go in two columns under the map. */
+const COL_W = MAP_W / 2;
 
 /** Lines of about `width` characters, broken on spaces (a longer word is cut). */
 function lines(text: string, width: number): string[] {
@@ -182,7 +155,6 @@ function lines(text: string, width: number): string[] {
   if (cur) out.push(cur);
   return out.length ? out : [''];
 }
-const lineCount = (text: string, width: number): number => lines(text, width).length;
 
 /** Text broken into lines, as <text> with <tspan>s. */
 function wrapText(text: string, x: number, y: number, width: number, cls: string, step = 14): string {
@@ -190,24 +162,53 @@ function wrapText(text: string, x: number, y: number, width: number, cls: string
     lines(text, width).map((l, i) => `<tspan x="${x}" dy="${i === 0 ? 0 : step}">${esc(l)}</tspan>`).join('') + '</text>';
 }
 
-/** Total legend height in px (so the SVG is tall enough). */
-export function legendHeight(title: string, items: readonly LegendItem[], notes: readonly string[] = []): number {
-  let y = PAD + 36 + 17 * (lineCount(title, TITLE_CHARS) - 1);
-  for (const it of items) y += 24 + 14 * (lineCount(it.label, ITEM_CHARS) - 1);
-  y += 8;
-  for (const n of notes) y += 14 * lineCount(n, NOTE_CHARS) + 6;
-  return y + PAD;
+/** Where the legend starts: under the map and its scale bar. */
+const legendTop = (f: Frame): number => PAD + f.h + FOOT;
+
+/**
+ * The legend under the map: a title (with the unit), one swatch per class in two columns (down the
+ * first column, then the second), and notes in small print. Returns the SVG and the height used.
+ * @example legend(frame, 'Olsen P (ppm)', [{ fill: '#440154', label: '< 10' }])
+ */
+export function legend(f: Frame, title: string, items: readonly LegendItem[], notes: readonly string[] = []): { svg: string; bottom: number } {
+  const x0 = PAD;
+  let y = legendTop(f);
+  let s = `<g class="legend">${wrapText(title, x0, y + 12, TITLE_CHARS, 'lg-title', 17)}`;
+  y += 24 + 17 * (lines(title, TITLE_CHARS).length - 1);
+  const heights = items.map((it) => 24 + 14 * (lines(it.label, ITEM_CHARS).length - 1));
+  const half = Math.ceil(items.length / 2);
+  const colH = [0, 0];
+  items.forEach((it, i) => {
+    const col = items.length > 3 && i >= half ? 1 : 0;
+    const x = x0 + col * COL_W;
+    const yy = y + colH[col]!;
+    if (it.fill === 'point') {
+      s += `<circle cx="${x + 11}" cy="${yy + 9}" r="4.5" fill="#fff" stroke="#000" stroke-width="1.5"/>`;
+    } else if (it.fill === 'line') {
+      s += `<rect x="${x + 1}" y="${yy + 1}" width="20" height="16" fill="none" stroke="#000" stroke-width="2"/>`;
+    } else {
+      s += `<rect class="swatch" x="${x}" y="${yy}" width="22" height="18" fill="${esc(it.fill)}" stroke="#555" stroke-width="0.6"/>`;
+    }
+    s += wrapText(it.label, x + 30, yy + 13, ITEM_CHARS, 'lg-t');
+    colH[col]! += heights[i]!;
+  });
+  y += Math.max(colH[0]!, colH[1]!) + 4;
+  for (const n of notes) {
+    s += wrapText(n, x0, y + 10, NOTE_CHARS, 'lg-n');
+    y += 14 * lines(n, NOTE_CHARS).length + 4;
+  }
+  return { svg: s + '</g>', bottom: y };
 }
 
 /**
  * The whole <svg> of one map: map content (already built), frame items and legend.
  * @param id unique per page (used for clip paths)
  */
-export function mapSvg(f: Frame, id: string, kind: string, body: string, legendSvg: string, legendH: number, utm: { epsg: number }, aria: string): string {
-  const W = PAD * 3 + MAP_W + LEGEND_W;
-  const H = Math.max(PAD + f.h + FOOT, legendH);
+export function mapSvg(f: Frame, id: string, kind: string, body: string, lg: { svg: string; bottom: number }, utm: { epsg: number }, aria: string): string {
+  const W = PAD * 2 + MAP_W;
+  const H = Math.ceil(lg.bottom + PAD);
   return `<svg class="map" data-map="${esc(id)}" data-kind="${esc(kind)}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" ` +
     `role="img" aria-label="${esc(aria)}" data-epsg="${utm.epsg}" data-utm-origin="${f.x0.toFixed(2)} ${f.y0.toFixed(2)}" data-px-per-m="${f.k.toPrecision(6)}">` +
     `<rect class="map-bg" x="${PAD}" y="${PAD}" width="${f.w}" height="${f.h}" fill="#fff"/>` +
-    body + northArrow(f) + scaleBar(f) + legendSvg + '</svg>';
+    body + northArrow(f) + scaleBar(f) + lg.svg + '</svg>';
 }

@@ -6,7 +6,7 @@
 import { classColours, NEUTRAL, QUALITATIVE } from './colour.js';
 import { esc, fmt } from './escape.js';
 import {
-  type Frame, type LegendItem, geoGroup, legend, legendHeight, makeFrame, mapSvg, partsBbox, partsPath, px, py,
+  type Frame, type LegendItem, geoGroup, legend, makeFrame, mapSvg, partsBbox, partsPath, px, py,
 } from './frame.js';
 import { pngDataUri } from './png.js';
 import { areaLabel } from './tables.js';
@@ -180,7 +180,7 @@ export function buildMaps(input: ReportInput): ReportMap[] {
   let bodyFor: (id: string) => string = () => '';
   const add = (kind: ReportMap['kind'], title: string, caption: string, items: LegendItem[], legendTitle: string, notes: string[] = []): void => {
     const id = `map-${maps.length + 1}`;
-    const svg = mapSvg(f, id, kind, bodyFor(id), legend(f, legendTitle, items, notes), legendHeight(legendTitle, items, notes), input.utm, title);
+    const svg = mapSvg(f, id, kind, bodyFor(id), legend(f, legendTitle, items, notes), input.utm, title);
     maps.push({ id, kind, title, caption, svg, legendItems: items.length });
   };
   const utmNote = `UTM zone ${input.utm.zone}${input.utm.south ? 'S' : 'N'} (EPSG:${input.utm.epsg}); arrow points to grid north.`;

@@ -7,7 +7,7 @@ import { esc, fmt } from './escape.js';
 import { buildMaps } from './maps.js';
 import { base64 } from './png.js';
 import { REPORT_CSS } from './style.js';
-import { areaLabel, cvTable, tablesUsedTable, totalsTable, warningsList, zonesTable } from './tables.js';
+import { areaLabel, cvTable, tablesUsedTable, totalsTable, warningsList, zonesTables } from './tables.js';
 import type { ReportChart, ReportInput } from './types.js';
 
 /**
@@ -52,7 +52,7 @@ export function renderReport(input: ReportInput): string {
     `<div>Products<b>${products.length}</b>${esc(products.join(', '))}</div>` +
     `<div>Warnings<b>${input.warnings.length}</b></div></section>`;
   const cautions = `<section class="caution" id="cautions"><strong>Caution.</strong><ul>${input.cautions.map((c) => `<li>${esc(c)}</li>`).join('')}</ul></section>`;
-  const zones = input.zoneSets.map((s) => `${input.zoneSets.length > 1 ? `<h3>${esc(s.name)}</h3>` : ''}<div class="table-wrap">${zonesTable(input, s)}</div>`).join('');
+  const zones = input.zoneSets.map((s) => zonesTables(input, s)).join('');
   const mapFigs = maps.map((m) => `<figure class="map-page" id="${m.id}"><h3>${esc(m.title)}</h3>${m.svg}<figcaption>${esc(m.caption)}</figcaption></figure>`).join('');
   const body = `<body data-zone-count="${zoneCount}" data-map-count="${maps.length}">${title}${summary}${cautions}` +
     `<section id="totals"><h2>Product totals for ordering and loading</h2><div class="table-wrap">${totalsTable(input)}</div></section>` +

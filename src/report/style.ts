@@ -8,7 +8,7 @@ export const REPORT_CSS = `
 :root { --ink: #1a1a1a; --muted: #555; --rule: #c8c8c8; --band: #f3f3f3; --warn: #7a4a00; }
 * { box-sizing: border-box; }
 html { -webkit-text-size-adjust: 100%; }
-body { margin: 0 auto; max-width: 1040px; padding: 24px; font: 14px/1.45 system-ui, -apple-system, "Segoe UI", Roboto, "Noto Sans", "DejaVu Sans", sans-serif; color: var(--ink); background: #fff; }
+body { margin: 0 auto; max-width: 960px; padding: 24px; font: 14px/1.45 system-ui, -apple-system, "Segoe UI", Roboto, "Noto Sans", "DejaVu Sans", sans-serif; color: var(--ink); background: #fff; }
 h1 { font-size: 24px; margin: 0 0 4px; }
 h2 { font-size: 19px; margin: 28px 0 8px; padding-bottom: 3px; border-bottom: 2px solid var(--ink); break-after: avoid; page-break-after: avoid; }
 h3 { font-size: 15px; margin: 16px 0 6px; break-after: avoid; page-break-after: avoid; }
@@ -37,7 +37,7 @@ tr.zone-note td { color: var(--warn); border-bottom-style: dashed; }
 .warnings .where { color: var(--muted); }
 figure.map-page { margin: 20px 0; }
 figure.map-page h3 { margin-top: 0; }
-figure.map-page svg { display: block; width: 100%; height: auto; border: 1px solid var(--rule); }
+figure.map-page svg { display: block; width: 100%; max-width: 820px; height: auto; border: 1px solid var(--rule); }
 figure.map-page figcaption { color: var(--muted); font-size: 12.5px; margin-top: 4px; }
 figure.chart img { display: block; max-width: 100%; height: auto; border: 1px solid var(--rule); }
 svg.map text { font-family: system-ui, "Noto Sans", "DejaVu Sans", sans-serif; }
@@ -53,8 +53,10 @@ footer { margin-top: 28px; color: var(--muted); font-size: 12px; border-top: 1px
   @page { margin: 12mm; }
   body { max-width: none; padding: 0; font-size: 10pt; }
   h2 { margin-top: 14px; }
+  #maps > h2 { break-before: page; page-break-before: always; }
   figure.map-page { break-before: page; page-break-before: always; break-inside: avoid; page-break-inside: avoid; margin: 0; }
-  figure.map-page svg { width: 186mm; max-width: 100%; max-height: 220mm; border: none; }
+  #maps > h2 + figure.map-page { break-before: avoid; page-break-before: avoid; }
+  figure.map-page svg { width: 186mm; max-width: 100%; max-height: 225mm; border: none; }
   figure.chart { break-inside: avoid; page-break-inside: avoid; }
   figure.chart img { max-height: 200mm; }
   .table-wrap { overflow: visible; }

@@ -18,32 +18,46 @@ const th = (s: string, cls = ''): string => `<th${cls ? ` class="${cls}"` : ''}>
 const td = (s: string, cls = ''): string => `<td${cls ? ` class="${cls}"` : ''}>${esc(s)}</td>`;
 const num = (v: number | undefined, d = 0): string => td(fmt(v, d), 'num');
 
-/** Table of one zone set: area, class, soil means, targets, product rates, binding limit, notes. */
-export function zonesTable(input: ReportInput, set: ReportZoneSet): string {
+/**
+ * Two tables of one zone set, so each fits a printed page: soil (area, class, soil means, nutrient targets)
+ * and rates (area, product rate per placement, binding limit, notes).
+ */
+export function zonesTables(input: ReportInput, set: ReportZoneSet): string {
   const nutKeys = input.nutrients.filter((n) => set.zones.some((z) => n.key in z.soilMeans));
   const targetKeys = [...new Set(set.zones.flatMap((z) => Object.keys(z.targets)))];
   const rateCols = [...new Map(set.zones.flatMap((z) => z.rates.map((r) => [`${r.product}\u0000${r.placement}`, r] as const))).values()];
   const decimals = (v: number): number => (Number.isInteger(v) ? 0 : 1);
-  let h = '<table class="zones"><thead><tr>' + th('Zone') + th(`Area (${input.units.area})`, 'num') + th('Class', 'num');
-  for (const n of nutKeys) h += th(`${n.label}${n.unit ? ` (${n.unit})` : ''}`, 'num');
-  for (const t of targetKeys) h += th(`${t} target (${set.targetUnit})`, 'num');
-  for (const r of rateCols) h += th(`${r.product}, ${r.placement} (${r.unit})`, 'num');
-  h += th('Binding limit') + '</tr></thead><tbody>';
+  const areaOf = (m2: number): number => (input.units.area === 'ha' ? m2ToHa(m2) : m2ToAc(m2));
+  const total = set.zones.reduce((s, z) => s + z.areaM2, 0);
+  const foot = (extra: number): string => `</tbody><tfoot><tr>${td(`${set.zones.length} zones`)}${num(areaOf(total), 1)}${extra ? `<td colspan="${extra}"></td>` : ''}</tr></tfoot></table>`;
+
+  let soil = '<table class="zones zones-soil"><thead><tr>' + th('Zone') + th(`Area (${input.units.area})`, 'num') + th('Class', 'num');
+  for (const n of nutKeys) soil += th(`${n.label}${n.unit ? ` (${n.unit})` : ''}`, 'num');
+  for (const t of targetKeys) soil += th(`${t} target (${set.targetUnit})`, 'num');
+  soil += '</tr></thead><tbody>';
   for (const z of set.zones) {
-    h += `<tr data-zone="${esc(z.id)}">` + td(z.id) + num(input.units.area === 'ha' ? m2ToHa(z.areaM2) : m2ToAc(z.areaM2), 1) +
-      td(z.class === null ? '–' : String(z.class + 1), 'num');
-    for (const n of nutKeys) h += num(z.soilMeans[n.key], n.decimals ?? 0);
-    for (const t of targetKeys) h += num(z.targets[t], decimals(z.targets[t] ?? 0));
+    soil += `<tr data-zone="${esc(z.id)}">` + td(z.id) + num(areaOf(z.areaM2), 1) + td(z.class === null ? '–' : String(z.class + 1), 'num');
+    for (const n of nutKeys) soil += num(z.soilMeans[n.key], n.decimals ?? 0);
+    for (const t of targetKeys) soil += num(z.targets[t], decimals(z.targets[t] ?? 0));
+    soil += '</tr>';
+  }
+  soil += foot(1 + nutKeys.length + targetKeys.length);
+
+  let rates = '<table class="zones zones-rates"><thead><tr>' + th('Zone') + th(`Area (${input.units.area})`, 'num');
+  for (const r of rateCols) rates += th(`${r.product}, ${r.placement} (${r.unit})`, 'num');
+  rates += th('Binding limit') + '</tr></thead><tbody>';
+  for (const z of set.zones) {
+    rates += '<tr>' + td(z.id) + num(areaOf(z.areaM2), 1);
     for (const r of rateCols) {
       const v = z.rates.find((x) => x.product === r.product && x.placement === r.placement)?.rate;
-      h += num(v, v === undefined ? 0 : decimals(v));
+      rates += num(v, v === undefined ? 0 : decimals(v));
     }
-    h += td(z.bindingLimit ?? 'none') + '</tr>';
-    if (z.notes?.length) h += `<tr class="zone-note"><td></td><td colspan="${3 + nutKeys.length + targetKeys.length + rateCols.length}">${z.notes.map(esc).join('<br>')}</td></tr>`;
+    rates += td(z.bindingLimit ?? 'none') + '</tr>';
+    if (z.notes?.length) rates += `<tr class="zone-note"><td></td><td colspan="${2 + rateCols.length}">${z.notes.map(esc).join('<br>')}</td></tr>`;
   }
-  const total = set.zones.reduce((s, z) => s + z.areaM2, 0);
-  h += `</tbody><tfoot><tr>${td(`${set.zones.length} zones`)}${num(input.units.area === 'ha' ? m2ToHa(total) : m2ToAc(total), 1)}<td colspan="${2 + nutKeys.length + targetKeys.length + rateCols.length}"></td></tr></tfoot></table>`;
-  return h;
+  rates += foot(1 + rateCols.length);
+  return `<h3>Soil and targets${input.zoneSets.length > 1 ? `: ${esc(set.name)}` : ''}</h3><div class="table-wrap">${soil}</div>` +
+    `<h3>Product rates${input.zoneSets.length > 1 ? `: ${esc(set.name)}` : ''}</h3><div class="table-wrap">${rates}</div>`;
 }
 
 /** Product totals for ordering and loading. */
