@@ -6,7 +6,7 @@ import { renderReport, serializeReportInput, parseReportInput } from '../src/rep
 import { esc, fmt } from '../src/report/escape.js';
 import { encodeIndexedPng, crc32 } from '../src/report/png.js';
 import { niceLength, makeFrame } from '../src/report/frame.js';
-import { breakLabels, classify, labelPoint } from '../src/report/maps.js';
+import { breakLabels, classify, dilateClasses, labelPoint } from '../src/report/maps.js';
 import { M_PER_FT } from '../src/units/index.js';
 import { demoInput, demoInputAt } from './helpers/report-fixture.js';
 import { isUserError } from '../src/errors.js';
@@ -140,6 +140,24 @@ describe('maps', () => {
         if (c < breaks.length) expect(v).toBeLessThan(breaks[c]!);
       });
       expect(breakLabels(breaks).length).toBe(breaks.length + 1);
+    }));
+  });
+
+  it('dilateClasses only fills empty cells, each with the class of a neighbour (brute-force oracle)', () => {
+    fc.assert(fc.property(fc.integer({ min: 1, max: 12 }), fc.integer({ min: 1, max: 12 }), fc.array(fc.constantFrom(0, 1, 2, 255), { minLength: 144, maxLength: 144 }), (cols, rows, cells) => {
+      const idx = Uint8Array.from(cells.slice(0, cols * rows));
+      const out = dilateClasses(idx.slice(), cols, rows, 1);
+      for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
+        const i = r * cols + c;
+        if (idx[i] !== 255) { expect(out[i]).toBe(idx[i]); continue; }
+        const nb: number[] = [];
+        for (let dr = -1; dr <= 1; dr++) for (let dc = -1; dc <= 1; dc++) {
+          const rr = r + dr, cc = c + dc;
+          if (rr >= 0 && cc >= 0 && rr < rows && cc < cols && idx[rr * cols + cc] !== 255) nb.push(idx[rr * cols + cc]!);
+        }
+        if (nb.length === 0) expect(out[i]).toBe(255);
+        else expect(nb).toContain(out[i]);
+      }
     }));
   });
 

@@ -50,9 +50,34 @@ export function breakLabels(breaks: readonly number[], decimals = 0): string[] {
   return out;
 }
 
+/**
+ * Grows classes into empty cells next to them (8 neighbours, `passes` times), in place. A surface has values
+ * only where the cell centre is in the field; without this the boundary cells whose centres fall outside
+ * would show as white notches inside the drawn boundary. The image is clipped to the boundary afterwards.
+ * @example dilateClasses(new Uint8Array([0, 255, 255]), 3, 1, 1) // [0, 0, 255]
+ */
+export function dilateClasses(index: Uint8Array, cols: number, rows: number, passes = 2): Uint8Array {
+  for (let p = 0; p < passes; p++) {
+    const src = index.slice();
+    for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
+      if (src[r * cols + c] !== 255) continue;
+      search: for (let dr = -1; dr <= 1; dr++) for (let dc = -1; dc <= 1; dc++) {
+        const rr = r + dr, cc = c + dc;
+        if (rr < 0 || cc < 0 || rr >= rows || cc >= cols) continue;
+        const v = src[rr * cols + cc]!;
+        if (v !== 255) {
+          index[r * cols + c] = v;
+          break search;
+        }
+      }
+    }
+  }
+  return index;
+}
+
 function rasterImage(f: Frame, r: ReportRaster, index: Uint8Array, palette: readonly string[], clipId: string): string {
   const g = r.grid;
-  const uri = pngDataUri(index, g.cols, g.rows, palette);
+  const uri = pngDataUri(dilateClasses(index, g.cols, g.rows), g.cols, g.rows, palette);
   return `<image class="raster" x="${(g.xmin - f.x0).toFixed(2)}" y="${(f.y0 - g.ymax).toFixed(2)}" width="${g.cols * g.cell}" height="${g.rows * g.cell}" ` +
     `preserveAspectRatio="none" style="image-rendering:pixelated" clip-path="url(#${clipId})" href="${uri}"/>`;
 }
