@@ -247,3 +247,20 @@ describe('report-data.json', () => {
     expect(() => parseReportInput('{', 'x.json')).toThrow(/x\.json is not valid JSON/);
   });
 });
+
+describe('north arrow', () => {
+  it('points to true north: meridian convergence matches atan(tan(dlon) sin(lat)) within 0.02° (Snyder 1987, USGS PP 1395, transverse Mercator)', async () => {
+    const { trueNorthOnGrid } = await import('../src/report/north.js');
+    const { projector, utmZoneFor } = await import('../src/geo/utm.js');
+    fc.assert(fc.property(fc.double({ min: -2.9, max: 2.9, noNaN: true }), fc.double({ min: 30, max: 60, noNaN: true }), fc.boolean(), (dlon, alat, south) => {
+      const lat = south ? -alat : alat;
+      const lon = -105 + dlon; // zone 13, central meridian 105° W
+      const z = utmZoneFor(lon, lat);
+      const [x, y] = projector(z).toMetres(lon, lat);
+      const got = trueNorthOnGrid(z, x, y);
+      // grid convergence gamma = atan(tan(dlon) sin(lat)); on a north-up map true north sits -gamma clockwise of grid north
+      const gamma = (Math.atan(Math.tan((dlon * Math.PI) / 180) * Math.sin((lat * Math.PI) / 180)) * 180) / Math.PI;
+      expect(Math.abs(got + gamma)).toBeLessThan(0.02);
+    }), { numRuns: 50 });
+  });
+});

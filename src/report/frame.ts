@@ -1,6 +1,6 @@
 /**
  * The frame every report map shares: a view of the field in UTM metres, a scale bar in metres and feet,
- * a grid-north arrow and a legend under the map. Geometry is drawn in metres (x - x0, y0 - y) inside a group
+ * a north arrow and a legend under the map. Geometry is drawn in metres (x - x0, y0 - y) inside a group
  * scaled to pixels, so the SVG holds the field's UTM coordinates shifted to the map's north-west corner
  * (recorded in data-utm-origin); labels, scale bar and legend are drawn in pixels on top.
  */
@@ -113,13 +113,18 @@ export function scaleBar(f: Frame): string {
     bar(PAD, y, m * f.k, mLabel, 'sb-m') + bar(PAD + m * f.k + 40, y, ft * M_PER_FT * f.k, ftLabel, 'sb-ft') + '</g>';
 }
 
-/** An arrow pointing to grid north (the UTM grid's y axis), top right of the map area. */
-export function northArrow(f: Frame): string {
+/**
+ * A north arrow, top right of the map area, pointing to true north: `trueNorthDeg` is its clockwise angle
+ * from grid north (see north.ts); a thin tick marks grid north.
+ */
+export function northArrow(f: Frame, trueNorthDeg = 0): string {
   const x = PAD + f.w - 28;
   const y = PAD + 12;
-  return `<g class="north" transform="translate(${x} ${y})"><title>Grid north (UTM)</title>` +
+  return `<g class="north" transform="translate(${x} ${y})" data-true-north-deg="${trueNorthDeg.toFixed(3)}">` +
+    `<title>True north; grid north (UTM) differs by ${Math.abs(trueNorthDeg).toFixed(1)}°</title>` +
     `<circle cx="0" cy="22" r="20" fill="#fff" fill-opacity="0.85" stroke="#222"/>` +
-    `<path d="M0 4 L9 32 L0 26 L-9 32 Z" fill="#222"/>` +
+    `<line x1="0" y1="2" x2="0" y2="10" stroke="#222" stroke-width="1"/>` +
+    `<path d="M0 4 L9 32 L0 26 L-9 32 Z" fill="#222" transform="rotate(${trueNorthDeg.toFixed(2)} 0 22)"/>` +
     `<text x="0" y="56" text-anchor="middle" class="n-t">N</text></g>`;
 }
 
@@ -204,11 +209,11 @@ export function legend(f: Frame, title: string, items: readonly LegendItem[], no
  * The whole <svg> of one map: map content (already built), frame items and legend.
  * @param id unique per page (used for clip paths)
  */
-export function mapSvg(f: Frame, id: string, kind: string, body: string, lg: { svg: string; bottom: number }, utm: { epsg: number }, aria: string): string {
+export function mapSvg(f: Frame, id: string, kind: string, body: string, lg: { svg: string; bottom: number }, utm: { epsg: number }, aria: string, trueNorthDeg = 0): string {
   const W = PAD * 2 + MAP_W;
   const H = Math.ceil(lg.bottom + PAD);
   return `<svg class="map" data-map="${esc(id)}" data-kind="${esc(kind)}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" ` +
     `role="img" aria-label="${esc(aria)}" data-epsg="${utm.epsg}" data-utm-origin="${f.x0.toFixed(2)} ${f.y0.toFixed(2)}" data-px-per-m="${f.k.toPrecision(6)}">` +
     `<rect class="map-bg" x="${PAD}" y="${PAD}" width="${f.w}" height="${f.h}" fill="#fff"/>` +
-    body + northArrow(f) + scaleBar(f) + lg.svg + '</svg>';
+    body + northArrow(f, trueNorthDeg) + scaleBar(f) + lg.svg + '</svg>';
 }

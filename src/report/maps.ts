@@ -8,6 +8,7 @@ import { esc, fmt } from './escape.js';
 import {
   type Frame, type LegendItem, geoGroup, legend, makeFrame, mapSvg, partsBbox, partsPath, px, py,
 } from './frame.js';
+import { trueNorthOnGrid } from './north.js';
 import { pngDataUri } from './png.js';
 import { areaLabel } from './tables.js';
 import type { ReportInput, ReportNutrient, ReportPart, ReportRaster, ReportZone, ReportZoneSet } from './types.js';
@@ -196,7 +197,9 @@ function valueLabel(n: ReportNutrient, v: number, cens: number): string | null {
  * @example buildMaps(input).map((m) => m.title)
  */
 export function buildMaps(input: ReportInput): ReportMap[] {
-  const f = makeFrame(partsBbox(input.field.parts));
+  const bbox = partsBbox(input.field.parts);
+  const f = makeFrame(bbox);
+  const north = trueNorthOnGrid(input.utm, (bbox[0] + bbox[2]) / 2, (bbox[1] + bbox[3]) / 2);
   const maps: ReportMap[] = [];
   const fieldParts = input.field.parts;
   const nut = new Map(input.nutrients.map((n) => [n.key, n]));
@@ -205,10 +208,10 @@ export function buildMaps(input: ReportInput): ReportMap[] {
   let bodyFor: (id: string) => string = () => '';
   const add = (kind: ReportMap['kind'], title: string, caption: string, items: LegendItem[], legendTitle: string, notes: string[] = []): void => {
     const id = `map-${maps.length + 1}`;
-    const svg = mapSvg(f, id, kind, bodyFor(id), legend(f, legendTitle, items, notes), input.utm, title);
+    const svg = mapSvg(f, id, kind, bodyFor(id), legend(f, legendTitle, items, notes), input.utm, title, north);
     maps.push({ id, kind, title, caption, svg, legendItems: items.length });
   };
-  const utmNote = `UTM zone ${input.utm.zone}${input.utm.south ? 'S' : 'N'} (EPSG:${input.utm.epsg}); arrow points to grid north.`;
+  const utmNote = `UTM zone ${input.utm.zone}${input.utm.south ? 'S' : 'N'} (EPSG:${input.utm.epsg}); the arrow points to true north, ${fmt(Math.abs(north), 1)}° ${north < 0 ? 'west' : 'east'} of grid north.`;
 
   // 1. sample locations
   bodyFor = () => boundary(f, fieldParts) + samplePoints(f, input, (i) => input.samples.ids[i] ?? '');
