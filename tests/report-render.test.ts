@@ -264,3 +264,48 @@ describe('north arrow', () => {
     }), { numRuns: 50 });
   });
 });
+
+describe('other shapes of input', () => {
+  it('renders a zone-composite field: no surfaces, no cross-validation, classes per zone, two zone sets, hectares', () => {
+    const inp = demoInput();
+    inp.surfaces = [];
+    inp.crossValidation = [];
+    inp.charts = [];
+    inp.units.area = 'ha';
+    inp.response = inp.response.filter((r) => r.byZone);
+    const second = structuredClone(inp.zoneSets[0]!);
+    second.name = 'Potash pass';
+    second.zones = second.zones.slice(0, 3).map((z) => ({ ...z, class: null, rates: z.rates.slice(0, 1) }));
+    inp.zoneSets.push(second);
+    const html = renderReport(inp);
+    const zones = inp.zoneSets[0]!.zones.length + 3;
+    expect(html).toContain(`id="zone-count" data-count="${zones}"`);
+    expect((html.match(/<tr data-zone=/g) ?? []).length).toBe(zones);
+    expect(html).toContain('No cross-validation was run');
+    expect(html).toContain(`Area (ha)`);
+    expect(html).not.toContain('<image class="raster"');
+    expect((html.match(/data-kind="binding"/g) ?? []).length).toBe(2);
+  });
+
+  it('sample labels on a dense grid do not overlap where a free place exists', () => {
+    const inp = demoInput();
+    // a 16 x 16 grid at 40 m (0.4 ac per sample): at ~0.82 px/m the dots are ~33 px apart and a 6-character id
+    // is ~38 px wide, so labels all placed north-east would overlap their neighbours
+    const ids: string[] = [], xy: number[] = [], p: number[] = [];
+    const [ex, ey] = [inp.field.parts[0]!.exterior[0]!, inp.field.parts[0]!.exterior[1]!];
+    for (let r = 0; r < 16; r++) for (let c = 0; c < 16; c++) { ids.push(`PV-${String(ids.length + 1).padStart(3, '0')}`); xy.push(ex + 20 + c * 40, ey + 20 + r * 40); p.push(10 + ((r * 13 + c) % 17)); }
+    inp.samples = { ids, xy, values: { p } };
+    const svg = renderReport(inp).match(/<svg class="map"[^]*?<\/svg>/)![0];
+    const boxes = [...svg.matchAll(/<text x="([\d.]+)" y="([\d.]+)"( text-anchor="end")?>([^<]*)<\/text>/g)].map((m) => {
+      const x = Number(m[1]), y = Number(m[2]), w = m[4]!.length * 6.3;
+      return m[3] ? [x - w, y - 11, x, y] : [x, y - 11, x + w, y];
+    });
+    expect(boxes.length).toBe(256);
+    let overlaps = 0;
+    for (let i = 0; i < boxes.length; i++) for (let j = 0; j < i; j++) {
+      const a = boxes[i]!, b = boxes[j]!;
+      if (a[0]! < b[2]! && b[0]! < a[2]! && a[1]! < b[3]! && b[1]! < a[3]!) overlaps++;
+    }
+    expect(overlaps).toBe(0);
+  });
+});

@@ -91,18 +91,36 @@ function boundary(f: Frame, parts: readonly ReportPart[]): string {
   return `${geoGroup(f, ' class="boundary"')}<path d="${partsPath(f, parts)}" fill="none" fill-rule="evenodd" stroke="#000" stroke-width="2.2" vector-effect="non-scaling-stroke"/></g>`;
 }
 
-/** Sample dots (in metres) and their labels (in pixels, with a halo so they read on any fill). */
+/**
+ * Sample dots (in metres) and their labels (in pixels, with a halo so they read on any fill). Each label takes
+ * the first of four places around its dot (NE, SE, NW, SW) that does not overlap a label already placed, so
+ * dense grids (1 sample per acre) stay readable; where none is free it goes NE.
+ */
 function samplePoints(f: Frame, input: ReportInput, label: (i: number) => string | null): string {
   const { xy, ids } = input.samples;
   const r = 4.5 / f.k;
   let dots = '';
   let texts = '';
+  const placed: [number, number, number, number][] = [];
+  const CH = 6.3, H = 11; // approximate glyph width and height at 11 px
   for (let i = 0; i < ids.length; i++) {
     const x = xy[2 * i]!;
     const y = xy[2 * i + 1]!;
     dots += `<circle cx="${(x - f.x0).toFixed(1)}" cy="${(f.y0 - y).toFixed(1)}" r="${r.toPrecision(3)}"/>`;
     const t = label(i);
-    if (t !== null) texts += `<text x="${(px(f, x) + 6).toFixed(1)}" y="${(py(f, y) - 5).toFixed(1)}">${esc(t)}</text>`;
+    if (t === null) continue;
+    const X = px(f, x), Y = py(f, y), w = t.length * CH;
+    const options: [number, number, string][] = [[X + 6, Y - 5, 'start'], [X + 6, Y + 14, 'start'], [X - 6, Y - 5, 'end'], [X - 6, Y + 14, 'end']];
+    let pick = options[0]!;
+    for (const o of options) {
+      const box: [number, number, number, number] = o[2] === 'start' ? [o[0], o[1] - H, o[0] + w, o[1]] : [o[0] - w, o[1] - H, o[0], o[1]];
+      if (!placed.some((b) => box[0] < b[2] && b[0] < box[2] && box[1] < b[3] && b[1] < box[3])) {
+        pick = o;
+        break;
+      }
+    }
+    placed.push(pick[2] === 'start' ? [pick[0], pick[1] - H, pick[0] + w, pick[1]] : [pick[0] - w, pick[1] - H, pick[0], pick[1]]);
+    texts += `<text x="${pick[0].toFixed(1)}" y="${pick[1].toFixed(1)}"${pick[2] === 'end' ? ' text-anchor="end"' : ''}>${esc(t)}</text>`;
   }
   return `${geoGroup(f, ' class="samples"')}<g fill="#fff" stroke="#000" stroke-width="1.5" vector-effect="non-scaling-stroke" class="sample-dots">${dots}</g></g>` +
     `<g class="sample-labels">${texts}</g>`;
