@@ -122,7 +122,7 @@ function samplePoints(f: Frame, input: ReportInput, label: (i: number) => string
     placed.push(pick[2] === 'start' ? [pick[0], pick[1] - H, pick[0] + w, pick[1]] : [pick[0] - w, pick[1] - H, pick[0], pick[1]]);
     texts += `<text x="${pick[0].toFixed(1)}" y="${pick[1].toFixed(1)}"${pick[2] === 'end' ? ' text-anchor="end"' : ''}>${esc(t)}</text>`;
   }
-  return `${geoGroup(f, ' class="samples"')}<g fill="#fff" stroke="#000" stroke-width="1.5" vector-effect="non-scaling-stroke" class="sample-dots">${dots}</g></g>` +
+  return `${geoGroup(f, ' class="samples"')}<g fill="#fff" stroke="#000" stroke-width="1.5" class="sample-dots">${dots}</g></g>` +
     `<g class="sample-labels">${texts}</g>`;
 }
 
@@ -186,12 +186,25 @@ function partArea(p: ReportPart): number {
   return ring(p.exterior) - p.holes.reduce((s, h) => s + ring(h), 0);
 }
 
-/** Zone polygons filled by `fill(zone)`, labelled with `label(zone)` lines where the zone is big enough. */
-function zonePolys(f: Frame, zones: readonly ReportZone[], fill: (z: ReportZone) => string, label: (z: ReportZone) => string[]): string {
+/** Id of the shared path of zone `zi` of zone set `si` (see `zoneDefs`). */
+const zoneRef = (si: number, zi: number): string => `zp-${si}-${zi}`;
+
+/**
+ * Every zone's outline, once, for the page's shared <defs>: the rate, binding and response maps draw them
+ * with <use>, so a zone traced with thousands of vertices is written once, not once per map.
+ */
+export function zoneDefs(input: ReportInput): string {
+  const f = makeFrame(partsBbox(input.field.parts));
+  return input.zoneSets.map((set, si) => set.zones.map((z, zi) => `<path id="${zoneRef(si, zi)}" class="zp" fill-rule="evenodd" d="${partsPath(f, z.parts)}"/>`).join('')).join('');
+}
+
+/** Zone polygons of set `si` filled by `fill(zone)`, labelled with `label(zone)` lines where the zone is big enough. */
+function zonePolys(f: Frame, si: number, zones: readonly ReportZone[], fill: (z: ReportZone) => string, label: (z: ReportZone) => string[]): string {
   let polys = '';
   let texts = '';
-  for (const z of zones) {
-    polys += `<path data-zone-id="${esc(z.id)}" fill="${esc(fill(z))}" fill-rule="evenodd" d="${partsPath(f, z.parts)}"/>`;
+  for (let zi = 0; zi < zones.length; zi++) {
+    const z = zones[zi]!;
+    polys += `<use href="#${zoneRef(si, zi)}" data-zone-id="${esc(z.id)}" fill="${esc(fill(z))}"/>`;
     if (!z.parts.length) continue;
     const big = z.parts.reduce((a, b) => (partArea(b) > partArea(a) ? b : a));
     if (partArea(big) * f.k * f.k < 900) continue;
@@ -202,7 +215,7 @@ function zonePolys(f: Frame, zones: readonly ReportZone[], fill: (z: ReportZone)
     texts += `<text x="${X}" y="${Y0.toFixed(1)}" text-anchor="middle">` +
       lines.map((l, i) => `<tspan x="${X}" dy="${i === 0 ? 0 : 13}"${i === 0 ? ' font-weight="bold"' : ''}>${esc(l)}</tspan>`).join('') + '</text>';
   }
-  return `${geoGroup(f, ' class="zones"')}<g stroke="#fff" stroke-width="1" vector-effect="non-scaling-stroke">${polys}</g></g><g class="zone-labels">${texts}</g>`;
+  return `${geoGroup(f, ' class="zones"')}<g stroke="#fff" stroke-width="1">${polys}</g></g><g class="zone-labels">${texts}</g>`;
 }
 
 function valueLabel(n: ReportNutrient, v: number, cens: number): string | null {
@@ -266,9 +279,9 @@ export function buildMaps(input: ReportInput): ReportMap[] {
       }
       bodyFor = (id) => geoGroup(f) + clipDef(f, fieldParts, `${id}-clip`) + rasterImage(f, rr, idx, colours, `${id}-clip`) + '</g>' + boundary(f, fieldParts);
     } else if (r.byZone) {
-      const set = input.zoneSets.find((s) => s.name === r.byZone!.zoneSet);
+      const si = input.zoneSets.findIndex((s) => s.name === r.byZone!.zoneSet);
       const cls = r.byZone.classes;
-      bodyFor = () => zonePolys(f, set?.zones ?? [], (z) => colours[cls[z.id] ?? -1] ?? NEUTRAL, (z) => [z.id]) + boundary(f, fieldParts);
+      bodyFor = () => zonePolys(f, si, si >= 0 ? input.zoneSets[si]!.zones : [], (z) => colours[cls[z.id] ?? -1] ?? NEUTRAL, (z) => [z.id]) + boundary(f, fieldParts);
     } else bodyFor = () => boundary(f, fieldParts);
     add('response', `${n.label}: chance of a yield response`,
       `Chance that the crop responds to applied ${n.label}, by soil-test class${r.source ? ` (${r.source})` : ''}. ${utmNote}`,
@@ -276,7 +289,7 @@ export function buildMaps(input: ReportInput): ReportMap[] {
   }
 
   // 4. rates per zone set and product placement; 5. binding limits per zone set
-  for (const set of input.zoneSets) {
+  input.zoneSets.forEach((set, si) => {
     for (const { product, placement, unit } of productPlacements(set)) {
       const rateOf = (z: ReportZone): number | undefined => z.rates.find((r) => r.product === product && r.placement === placement)?.rate;
       const distinct = [...new Set(set.zones.map(rateOf).filter((v): v is number => v !== undefined && Number.isFinite(v)))].sort((a, b) => a - b);
@@ -293,7 +306,7 @@ export function buildMaps(input: ReportInput): ReportMap[] {
         return { fill: colours[i]!, label: `${fmt(v, decimals)} ${unit}: ${zs.length} zone${zs.length === 1 ? '' : 's'}, ${areaLabel(a, input.units.area)}` };
       });
       if (set.zones.some((z) => rateOf(z) === undefined)) items.push({ fill: NEUTRAL, label: 'not applied' });
-      bodyFor = () => zonePolys(f, set.zones, colourOf, (z) => {
+      bodyFor = () => zonePolys(f, si, set.zones, colourOf, (z) => {
         const v = rateOf(z);
         return [z.id, v === undefined ? '–' : `${fmt(v, decimals)}`];
       }) + boundary(f, fieldParts);
@@ -305,11 +318,11 @@ export function buildMaps(input: ReportInput): ReportMap[] {
     const colourOf = (z: ReportZone): string => (z.bindingLimit ? QUALITATIVE[limits.indexOf(z.bindingLimit) % QUALITATIVE.length]! : NEUTRAL);
     const items: LegendItem[] = limits.map((l, i) => ({ fill: QUALITATIVE[i % QUALITATIVE.length]!, label: l }));
     items.push({ fill: NEUTRAL, label: 'no limit binds: rates meet the targets' });
-    bodyFor = () => zonePolys(f, set.zones, colourOf, (z) => [z.id]) + boundary(f, fieldParts);
+    bodyFor = () => zonePolys(f, si, set.zones, colourOf, (z) => [z.id]) + boundary(f, fieldParts);
     add('binding', `Where limits bind${input.zoneSets.length > 1 ? ` (${set.name})` : ''}`,
       `Zones where a seed-row safety limit or another limit of the plan cut a rate below its target. ${utmNote}`,
       items, 'Binding limit');
-  }
+  });
   return maps;
 }
 

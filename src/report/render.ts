@@ -4,7 +4,7 @@
  */
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import { esc, fmt } from './escape.js';
-import { buildMaps } from './maps.js';
+import { buildMaps, zoneDefs } from './maps.js';
 import { base64 } from './png.js';
 import { REPORT_CSS } from './style.js';
 import { areaLabel, cvTable, tablesUsedTable, totalsTable, warningsList, zonesTables } from './tables.js';
@@ -54,7 +54,9 @@ export function renderReport(input: ReportInput): string {
   const cautions = `<section class="caution" id="cautions"><strong>Caution.</strong><ul>${input.cautions.map((c) => `<li>${esc(c)}</li>`).join('')}</ul></section>`;
   const zones = input.zoneSets.map((s) => zonesTables(input, s)).join('');
   const mapFigs = maps.map((m) => `<figure class="map-page" id="${m.id}"><h3>${esc(m.title)}</h3>${m.svg}<figcaption>${esc(m.caption)}</figcaption></figure>`).join('');
-  const body = `<body data-zone-count="${zoneCount}" data-map-count="${maps.length}">${title}${summary}${cautions}` +
+  // zone outlines once for all maps (see zoneDefs)
+  const defs = `<svg class="defs" width="0" height="0" aria-hidden="true" style="position:absolute"><defs>${zoneDefs(input)}</defs></svg>`;
+  const body = `<body data-zone-count="${zoneCount}" data-map-count="${maps.length}">${defs}${title}${summary}${cautions}` +
     `<section id="totals"><h2>Product totals for ordering and loading</h2><div class="table-wrap">${totalsTable(input)}</div></section>` +
     `<section id="zones"><h2>Zones</h2>${zones}</section>` +
     `<section id="maps"><h2>Maps</h2>${mapFigs}</section>` +

@@ -40,6 +40,7 @@ figure.map-page h3 { margin-top: 0; }
 figure.map-page svg { display: block; width: 100%; max-width: 820px; height: auto; border: 1px solid var(--rule); }
 figure.map-page figcaption { color: var(--muted); font-size: 12.5px; margin-top: 4px; }
 figure.chart img { display: block; max-width: 100%; height: auto; border: 1px solid var(--rule); }
+svg.map .geo *, svg.defs .zp { vector-effect: non-scaling-stroke; }
 svg.map text { font-family: system-ui, "Noto Sans", "DejaVu Sans", sans-serif; }
 svg.map .sample-labels text, svg.map .zone-labels text { font-size: 11px; paint-order: stroke; stroke: #fff; stroke-width: 3px; stroke-linejoin: round; fill: #000; }
 svg.map .zone-labels text { font-size: 12px; }
