@@ -76,7 +76,7 @@ export function encodeIndexedPng(index: Uint8Array, width: number, height: numbe
     chunk('IHDR', ihdr),
     chunk('PLTE', plte),
     chunk('tRNS', trns),
-    chunk('IDAT', zlibSync(raw, { level: 9 })),
+    chunk('IDAT', zlibSync(raw, { level: 6 })),
     chunk('IEND', new Uint8Array(0)),
   ];
   const out = new Uint8Array(parts.reduce((s, p) => s + p.length, 0));
