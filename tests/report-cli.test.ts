@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { tilth } from './helpers/cli.js';
 import { DEMO_INPUT_PATH } from './helpers/report-fixture.js';
+import { inputsHash } from '../src/cli/report.js';
 
 function buildDir(): string {
   const d = mkdtempSync(join(tmpdir(), 'tilth-report-'));
@@ -56,5 +57,22 @@ describe('tilth report DIR', () => {
     const r = tilth(['report', '--help']);
     expect(r.code).toBe(0);
     expect(r.stdout).toContain('Example:\n  tilth report');
+  });
+});
+
+describe('inputsHash', () => {
+  it('is the first 12 hex digits of SHA-256 of length-prefixed names and bytes (GNU coreutils sha256sum as reference)', async () => {
+    const { spawnSync } = await import('node:child_process');
+    const a = inputsHash([{ name: 'a', bytes: Buffer.from('xy') }, { name: 'b', bytes: Buffer.from('z') }]);
+    const u64 = (n: number): Buffer => { const b = Buffer.alloc(8); b.writeBigUInt64BE(BigInt(n)); return b; };
+    const stream = Buffer.concat([u64(1), u64(2), Buffer.from('axy'), u64(1), u64(1), Buffer.from('bz')]);
+    const ref = spawnSync('sha256sum', [], { input: stream, encoding: 'utf8' });
+    expect(ref.status).toBe(0);
+    expect(a).toBe(ref.stdout.slice(0, 12));
+    expect(a).toMatch(/^[0-9a-f]{12}$/);
+    // moving a byte from one file to the next, or renaming a file, changes the hash
+    expect(inputsHash([{ name: 'a', bytes: Buffer.from('x') }, { name: 'b', bytes: Buffer.from('yz') }])).not.toBe(a);
+    expect(inputsHash([{ name: 'c', bytes: Buffer.from('xy') }, { name: 'b', bytes: Buffer.from('z') }])).not.toBe(a);
+    expect(inputsHash([{ name: 'a', bytes: Buffer.from('xy') }, { name: 'b', bytes: Buffer.from('z') }])).toBe(a);
   });
 });
