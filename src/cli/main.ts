@@ -9,6 +9,7 @@ import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
 import { preloadInputs } from './inputs.js';
 import * as check from './check.js';
+import * as report from './report.js';
 
 const program = new Command();
 program
@@ -19,7 +20,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect, check]) cmd.register(program);
+for (const cmd of [inspect, check, report]) cmd.register(program);
 
 // shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
 program.hook('preAction', async (_program, action) => {
