@@ -96,19 +96,32 @@ export function labelComponents(classes: Int16Array, cols: number, rows: number)
 export function fillUnclassed(classes: Int16Array, cols: number, rows: number): Int16Array {
   const out = Int16Array.from(classes);
   const n = out.length;
-  let front: number[] = [];
-  for (let i = 0; i < n; i++) if (out[i] >= 0) front.push(i);
-  if (front.length === 0) return out;
-  while (front.length > 0) {
-    const next: number[] = [];
-    for (const i of front) {
-      const r = (i / cols) | 0, c = i - r * cols, k = out[i];
-      if (c > 0 && out[i - 1] < 0) { out[i - 1] = k; next.push(i - 1); }
-      if (c < cols - 1 && out[i + 1] < 0) { out[i + 1] = k; next.push(i + 1); }
-      if (r > 0 && out[i - cols] < 0) { out[i - cols] = k; next.push(i - cols); }
-      if (r < rows - 1 && out[i + cols] < 0) { out[i + cols] = k; next.push(i + cols); }
+  // start from classed cells that touch an unclassed one (a thin ring, not every cell)
+  let front = new Int32Array(1024), len = 0;
+  const push = (arr: Int32Array, l: number, i: number): Int32Array => {
+    if (l === arr.length) { const b = new Int32Array(arr.length * 2); b.set(arr); arr = b; }
+    arr[l] = i;
+    return arr;
+  };
+  let any = false;
+  for (let i = 0; i < n; i++) {
+    if (out[i] < 0) continue;
+    any = true;
+    const r = (i / cols) | 0, c = i - r * cols;
+    if ((c > 0 && out[i - 1] < 0) || (c < cols - 1 && out[i + 1] < 0) || (r > 0 && out[i - cols] < 0) || (r < rows - 1 && out[i + cols] < 0)) front = push(front, len++, i);
+  }
+  if (!any) return out;
+  let next = new Int32Array(1024);
+  while (len > 0) {
+    let nl = 0;
+    for (let t = 0; t < len; t++) {
+      const i = front[t], r = (i / cols) | 0, c = i - r * cols, k = out[i];
+      if (c > 0 && out[i - 1] < 0) { out[i - 1] = k; next = push(next, nl++, i - 1); }
+      if (c < cols - 1 && out[i + 1] < 0) { out[i + 1] = k; next = push(next, nl++, i + 1); }
+      if (r > 0 && out[i - cols] < 0) { out[i - cols] = k; next = push(next, nl++, i - cols); }
+      if (r < rows - 1 && out[i + cols] < 0) { out[i + cols] = k; next = push(next, nl++, i + cols); }
     }
-    front = next;
+    const tmp = front; front = next; next = tmp; len = nl;
   }
   return out;
 }
@@ -144,9 +157,13 @@ export function mergeSmallZones(classes: Int16Array, cols: number, rows: number,
   const parent = new Int32Array(count);
   for (let i = 0; i < count; i++) parent[i] = i;
   const find = (x: number) => { while (parent[x] !== x) { parent[x] = parent[parent[x]]; x = parent[x]; } return x; };
-  // adjacency: border length in cell edges, only needed for small zones and their neighbours, but cheap to build for all
+  // adjacency (border length in cell edges), kept only for pairs with at least one small zone: a zone at or
+  // above the minimum never has to choose a neighbour, and two large zones of one class are never adjacent
+  const isSmall = new Uint8Array(count);
+  for (let z = 0; z < count; z++) if (area[z] < minAreaM2) isSmall[z] = 1;
   const adj: Map<number, number>[] = Array.from({ length: count }, () => new Map());
   const addEdge = (a: number, b: number) => {
+    if (!isSmall[a] && !isSmall[b]) return;
     adj[a].set(b, (adj[a].get(b) ?? 0) + 1);
     adj[b].set(a, (adj[b].get(a) ?? 0) + 1);
   };
