@@ -97,7 +97,7 @@ export function fillUnclassed(classes: Int16Array, cols: number, rows: number): 
   const out = Int16Array.from(classes);
   const n = out.length;
   // start from classed cells that touch an unclassed one (a thin ring, not every cell)
-  let front = new Int32Array(1024), len = 0;
+  let front: Int32Array = new Int32Array(1024), len = 0;
   const push = (arr: Int32Array, l: number, i: number): Int32Array => {
     if (l === arr.length) { const b = new Int32Array(arr.length * 2); b.set(arr); arr = b; }
     arr[l] = i;
@@ -111,7 +111,7 @@ export function fillUnclassed(classes: Int16Array, cols: number, rows: number): 
     if ((c > 0 && out[i - 1] < 0) || (c < cols - 1 && out[i + 1] < 0) || (r > 0 && out[i - cols] < 0) || (r < rows - 1 && out[i + cols] < 0)) front = push(front, len++, i);
   }
   if (!any) return out;
-  let next = new Int32Array(1024);
+  let next: Int32Array = new Int32Array(1024);
   while (len > 0) {
     let nl = 0;
     for (let t = 0; t < len; t++) {
