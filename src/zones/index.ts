@@ -16,7 +16,7 @@ export { classify, classifyVectors, jenksUppers, kmeans1d } from './classify.js'
 export type { Classes, ClassMethod, ClassifyOptions, VectorClasses } from './classify.js';
 export { fillUnclassed, labelComponents, majorityFilter, mergeSmallZones, minZoneAreaM2 } from './clean.js';
 export type { Merged } from './clean.js';
-export { boundaryCells, clipParts, robust } from './clip.js';
+export { boundaryCells, clipParts, clipPartsPolyclip, robust } from './clip.js';
 export { traceZones, pointInRing } from './trace.js';
 export type { RasterFrame } from './trace.js';
 
