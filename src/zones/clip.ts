@@ -73,7 +73,6 @@ function toJsts(parts: RingsPart[], ox: number, oy: number): unknown {
   return gf.createMultiPolygon(parts.map((p) => gf.createPolygon(ring(p.exterior), p.holes.map(ring))));
 }
 
-/* eslint-disable @typescript-eslint/no-explicit-any */
 function fromJsts(g: any, ox: number, oy: number, minPartM2: number): RingsPart[] {
   const out: RingsPart[] = [];
   const ring = (ls: any) => {
@@ -117,9 +116,11 @@ export function clipParts(parts: RingsPart[], clip: RingsPart[], ox: number, oy:
     return clipPartsPolyclip(parts, clip, ox, oy, minPartM2);
   }
 }
-/* eslint-enable @typescript-eslint/no-explicit-any */
 
-/** The same intersection with polyclip-ts (slower, used when JTS fails). */
+/**
+ * The same intersection with polyclip-ts (slower; used when JTS fails, and as a cross-check in tests).
+ * @example const clipped = clipPartsPolyclip(zoneParts, field.parts, grid.xmin, grid.ymax);
+ */
 export function clipPartsPolyclip(parts: RingsPart[], clip: RingsPart[], ox: number, oy: number, minPartM2 = 1e-6): RingsPart[] {
   const a = parts.map((p) => [toLocal(p.exterior, ox, oy), ...p.holes.map((h) => toLocal(h, ox, oy))]);
   const b = clip.map((p) => [toLocal(p.exterior, ox, oy), ...p.holes.map((h) => toLocal(h, ox, oy))]);
@@ -140,6 +141,7 @@ export function clipPartsPolyclip(parts: RingsPart[], clip: RingsPart[], ox: num
  * Runs a polyclip-ts operation with a small snapping tolerance. With its default (exact) setting
  * polyclip-ts 0.16 sometimes fails to link output rings on staircase input ("Unable to complete output
  * ring"); a tolerance of 1e-9 (coordinates are local metres) avoids it. Retries coarser, then rethrows.
+ * @example const u = robust(() => polyclip.union(a, b));
  */
 export function robust<T>(op: () => T): T {
   let last: unknown;

@@ -137,7 +137,10 @@ function countMissing(raw: Int16Array, fraction: ArrayLike<number>): number {
   return k;
 }
 
-/** Polygon parts in metres to MultiPolygon lon/lat coordinates. */
+/**
+ * Polygon parts in metres to MultiPolygon lon/lat coordinates.
+ * @example toLonLat(zone.parts, projector(field.utm)) // [[[[lon, lat], ...]]]
+ */
 export function toLonLat(parts: RingsPart[], p: Projector): number[][][][] {
   const ring = (r: Float64Array) => {
     const ll = p.inverse(r);
