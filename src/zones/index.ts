@@ -18,6 +18,7 @@ export { fillUnclassed, labelComponents, majorityFilter, mergeSmallZones, minZon
 export type { Merged } from './clean.js';
 export { boundaryCells, clipParts, clipPartsPolyclip, robust } from './clip.js';
 export { traceZones, pointInRing } from './trace.js';
+export { zoneMeans } from './means.js';
 export type { RasterFrame } from './trace.js';
 
 /** One management zone. */

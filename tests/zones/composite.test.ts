@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { zonesFromSampleZones } from '../../src/zones/index.js';
+import { zoneMeans, zonesFromSampleZones } from '../../src/zones/index.js';
 import { pointInRing } from '../../src/zones/index.js';
 import { fieldFromParts, ring, X0, Y0 } from './fixtures.js';
 
@@ -29,5 +29,15 @@ describe('zone-composite fields', () => {
     expect(zones[1].areaM2).toBeCloseTo((390 - 210) * 300, 6); // by hand: B minus the 10 m strip A keeps
     expect(warnings.map((w) => w.code).sort()).toEqual(['zones-sampled-gap', 'zones-sampled-outside', 'zones-sampled-overlap']);
     expect(warnings.find((w) => w.code === 'zones-sampled-gap')!.message).toMatch(/Fix:/);
+  });
+});
+
+describe('zoneMeans', () => {
+  it('area-weighted means by hand, NaN cells left out', () => {
+    // zone 0: values 10 (w 1) and 20 (w 0.5) -> (10 + 10) / 1.5 = 13.33; zone 1: 30 and NaN -> 30; zone 2: no cell -> NaN
+    const m = zoneMeans(Int32Array.from([0, 0, 1, 1, -1]), 3, [10, 20, 30, NaN, 99], [1, 0.5, 1, 1, 1]);
+    expect(m[0]).toBeCloseTo(20 / 1.5, 12);
+    expect(m[1]).toBe(30);
+    expect(m[2]).toBeNaN();
   });
 });
