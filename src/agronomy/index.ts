@@ -8,3 +8,4 @@ export { productOptions, solveProducts, type ProductOption, type SolveResult } f
 export { defaultTables, loadTables, tablesToYaml, tablesSchema, PLACEMENTS, NUTRIENTS, type Tables, type Nutrient, type Placement } from './tables.js';
 export { targets, type Target, type Targets } from './targets.js';
 export { formatDecision } from './format.js';
+export { parseSoilSpec } from './soil.js';

@@ -18,15 +18,16 @@ export function sbuPct(spreadIn: number, rowSpacingIn: number): number {
 
 /** A table's cells as (SBU %, safe N) points sorted by SBU; equal SBUs keep the lowest N. */
 export function sbuPoints(cell: Exclude<SeedRowCell, { missing: true }>): { sbu: number; n: number }[] {
-  const pts = new Map<number, number>();
-  cell.spreads_in.forEach((s, i) =>
-    cell.rows_in.forEach((r, j) => {
-      const key = Math.round(sbuPct(s, r) * 1e6) / 1e6;
-      const n = cell.safe_n[i]![j]!;
-      pts.set(key, Math.min(n, pts.get(key) ?? Infinity));
-    }),
-  );
-  return [...pts].map(([sbu, n]) => ({ sbu, n })).sort((a, b) => a.sbu - b.sbu);
+  const raw: { sbu: number; n: number }[] = [];
+  cell.spreads_in.forEach((s, i) => cell.rows_in.forEach((r, j) => raw.push({ sbu: sbuPct(s, r), n: cell.safe_n[i]![j]! })));
+  raw.sort((a, b) => a.sbu - b.sbu || a.n - b.n);
+  const out: { sbu: number; n: number }[] = [];
+  for (const p of raw) {
+    const last = out[out.length - 1];
+    if (last && Math.abs(p.sbu - last.sbu) < 1e-9) last.n = Math.min(last.n, p.n);
+    else out.push({ ...p });
+  }
+  return out;
 }
 
 /**

@@ -109,7 +109,7 @@ function check(t: unknown, where: string): Tables {
   const tb = r.data;
   for (const [name, c] of Object.entries(tb.crops)) {
     if (!tb.seed_row_n[c.seed_row_group]) {
-      throw new UserError(`${where}: key "crops.${name}.seed_row_group" is "${c.seed_row_group}", which is not a seed_row_n table. Allowed: ${Object.keys(tb.seed_row_n).join(', ')}.`, { file: where });
+      throw new UserError(`${where}: key "crops.${name}.seed_row_group" is "${c.seed_row_group}", which is not a seed_row_n table; allowed: ${Object.keys(tb.seed_row_n).join(', ')}.`, { file: where });
     }
   }
   for (const [g, tex] of Object.entries(tb.seed_row_n)) {

@@ -7,6 +7,9 @@ import { isUserError } from '../errors.js';
 import { CAUTION } from './util.js';
 import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
+import * as plan from './plan.js';
+import * as rates from './rates.js';
+import * as tables from './tables.js';
 
 const program = new Command();
 program
@@ -17,7 +20,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect]) cmd.register(program);
+for (const cmd of [inspect, plan, rates, tables]) cmd.register(program);
 
 try {
   await program.parseAsync(process.argv);

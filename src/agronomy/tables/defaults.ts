@@ -186,7 +186,7 @@ export const DEFAULT_TABLES: TablesInput = {
     seed_row: { n: 1, p2o5: 1, k2o: 1, s: 1, source: 'common practice: reference placement' },
     side_band: { n: 1, p2o5: 1, k2o: 1, s: 1, source: 'common practice: banded as efficient as seed-placed' },
     mid_row_band: { n: 1, p2o5: 1, k2o: 1, s: 1, source: 'common practice: banded as efficient as seed-placed' },
-    broadcast: { n: 1, p2o5: 0.5, k2o: 0.5, s: 1, source: 'K2O 0.5 [published] Manitoba Agriculture, Soil Fertility Guide, Potassium: broadcast potash about half as efficient; P2O5 0.5 from memory; N and S 1 common practice (incorporated pre-seed)' },
+    broadcast: { n: 1, p2o5: 0.5, k2o: 0.5, s: 1, source: '[published] Manitoba Agriculture, Soil Fertility Guide, Potassium: broadcast potash about half as efficient (K2O 0.5); P2O5 0.5 is from memory; N and S 1 is common practice (incorporated pre-seed)' },
   },
   products: {
     map: { label: 'MAP 11-52-0', n: 11, p2o5: 52, k2o: 0, s: 0, form: 'granular', placements: ['seed_row', 'side_band', 'mid_row_band', 'broadcast'], price_per_tonne: 1100, source: IFA, price_source: PRICE },
