@@ -15,7 +15,6 @@ function plan(over: Partial<PlanInput> & Record<string, unknown> = {}, tables: T
     {
       crop: 'wheat',
       target_yield_bu: 60,
-      strategy: { n: { method: 'none' }, p: { method: 'none' }, k: { method: 'none' }, s: { method: 'none' }, tolerance_pct: 0 },
       implement: { placements: ['seed_row', 'side_band'] },
       products: [{ product: 'map', placements: ['side_band'], step: 0 }],
       // canola on medium soil has no published seed-row N value: these tests use the light-soil values

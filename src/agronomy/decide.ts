@@ -259,7 +259,7 @@ export function decide(soil: SoilValues, plan: Plan, tables: Tables): Decision {
     placements,
     costPerAc: feasible ? res.cost : NaN,
     binding,
-    infeasible: feasible ? [] : diagnose(opts, need, tol, lim, plan, tables),
+    infeasible: feasible ? [] : res.status === 'error' ? [{ nutrient: null, reason: `the solver stopped without an answer (${res.solver}); this is a bug, please report it with the plan and soil values` }] : diagnose(opts, need, tol, lim, plan, tables),
     economics,
     warnings,
   };

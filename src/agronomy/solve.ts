@@ -80,6 +80,8 @@ export interface SolveResult {
   steps: Float64Array;
   /** $ per acre */
   cost: number;
+  /** the solver's own status (yalps): optimal, infeasible, timedout, cycled, unbounded */
+  solver: string;
 }
 
 /** Small cost added per lb in later placements so ties go to the seed row first, then the band, then broadcast. */
@@ -113,26 +115,78 @@ function coefficients(o: ProductOption, unit: number): [string, number][] {
  */
 const SHORTFALL_PENALTY = 1000;
 
-/**
- * Solves one location. `target[n]` is the effective lb/ac each nutrient should reach (0 = none); the
- * supply may fall short of it by at most `tolerance` (a fraction), and only where the limits force it.
- * With `maximize`, ignores the costs and targets and finds the most of that nutrient the limits allow.
- */
-export function solveProducts(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maximize?: Nutrient): SolveResult {
-  const constraints: [string, Constraint][] = seedRowConstraints(limits);
+interface Problem {
+  options: readonly ProductOption[];
+  target: Record<Nutrient, number>;
+  tolerance: number;
+  limits: SeedRowLimits;
+  maximize: Nutrient | undefined;
+}
+
+function baseModel(pb: Problem): { constraints: [string, Constraint][]; variables: [string, [string, number][]][] } {
+  const constraints: [string, Constraint][] = seedRowConstraints(pb.limits);
   const variables: [string, [string, number][]][] = [];
-  if (!maximize) {
+  if (!pb.maximize) {
     for (const n of NUTRIENTS) {
-      if (!(target[n] > 0)) continue;
-      constraints.push([`t:${n}`, { min: target[n] }], [`short:${n}`, { max: target[n] * tolerance }]);
+      if (!(pb.target[n] > 0)) continue;
+      constraints.push([`t:${n}`, { min: pb.target[n] }], [`short:${n}`, { max: pb.target[n] * pb.tolerance }]);
       variables.push([`s_${n}`, [[`t:${n}`, 1], [`short:${n}`, 1], ['cost', SHORTFALL_PENALTY]]]);
     }
   }
+  return { constraints, variables };
+}
+
+/** The continuous LP (rates in lb/ac) with some rates fixed; returns the rates or null when infeasible. */
+function solveLp(pb: Problem, fixed: readonly (number | undefined)[]): Float64Array | null {
+  const { constraints, variables } = baseModel(pb);
+  pb.options.forEach((o, i) => {
+    const c = coefficients(o, 1);
+    c.push([`b${i}`, 1]);
+    constraints.push([`b${i}`, fixed[i] === undefined ? { max: o.maxLb } : { equal: fixed[i]! }]);
+    variables.push([`x${i}`, c]);
+  });
+  const sol = solve({ direction: pb.maximize ? 'maximize' : 'minimize', objective: pb.maximize ? `t:${pb.maximize}` : 'cost', constraints, variables });
+  if (sol.status !== 'optimal') return null;
+  const x = new Float64Array(pb.options.length);
+  for (const [name, v] of sol.variables) if (name[0] === 'x') x[Number(name.slice(1))] = v;
+  fixed.forEach((f, i) => f !== undefined && (x[i] = f));
+  return x;
+}
+
+const ON_STEP = 1e-7;
+
+/** True when a rate needs no rounding: zero, or at least the minimum and a whole number of steps. */
+function settled(o: ProductOption, v: number): boolean {
+  if (v <= 1e-9) return true;
+  if (o.minLb > 0 && v < o.minLb - 1e-9) return false;
+  return !(o.stepLb > 0) || Math.abs(v / o.stepLb - Math.round(v / o.stepLb)) < ON_STEP;
+}
+
+/** Rounded rates to try for one option, in order: up a step (at least the minimum), down a step, off. */
+function candidates(o: ProductOption, v: number): number[] {
+  const st = o.stepLb;
+  const snapUp = (x: number) => (st > 0 ? Math.ceil(x / st - ON_STEP) * st : x);
+  const lowest = o.minLb > 0 ? snapUp(o.minLb) : 0;
+  const up = Math.max(snapUp(v), lowest);
+  const down = st > 0 ? Math.floor(v / st + ON_STEP) * st : v;
+  const out: number[] = [];
+  for (const c of [up, down, 0]) {
+    if (c > o.maxLb + 1e-9 || (c > 0 && c < lowest - 1e-9)) continue;
+    if (!out.some((d) => Math.abs(d - c) < 1e-12)) out.push(c);
+  }
+  return out;
+}
+
+/**
+ * Exact branch and bound (yalps) over whole steps and on/off minimums: the fallback when the rounding
+ * dive finds no answer. Capped at a few thousand iterations.
+ */
+function solveMip(pb: Problem): { x: Float64Array; status: string } {
+  const { constraints, variables } = baseModel(pb);
   const integers: string[] = [];
   const binaries: string[] = [];
-  options.forEach((o, i) => {
+  pb.options.forEach((o, i) => {
     const unit = o.stepLb > 0 ? o.stepLb : 1;
-    const v = `x${i}`;
     const c = coefficients(o, unit);
     if (o.minLb > 0) {
       c.push([`lo${i}`, unit], [`hi${i}`, unit]);
@@ -143,35 +197,71 @@ export function solveProducts(options: readonly ProductOption[], target: Record<
       c.push([`hi${i}`, unit]);
       constraints.push([`hi${i}`, { max: o.maxLb }]);
     }
-    variables.push([v, c]);
-    if (o.stepLb > 0) integers.push(v);
+    variables.push([`x${i}`, c]);
+    if (o.stepLb > 0) integers.push(`x${i}`);
   });
   const sol = solve(
-    {
-      direction: maximize ? 'maximize' : 'minimize',
-      objective: maximize ? `t:${maximize}` : 'cost',
-      constraints,
-      variables,
-      integers,
-      binaries,
-    },
-    { maxIterations: 4000, tolerance: 1e-6 },
+    { direction: pb.maximize ? 'maximize' : 'minimize', objective: pb.maximize ? `t:${pb.maximize}` : 'cost', constraints, variables, integers, binaries },
+    { maxIterations: 4000 },
   );
-  const rates = new Float64Array(options.length);
-  const steps = new Float64Array(options.length);
-  if (sol.status !== 'optimal' && !(sol.status === 'timedout' && Number.isFinite(sol.result))) {
-    return { status: sol.status === 'infeasible' ? 'infeasible' : 'error', rates, steps, cost: NaN };
-  }
-  let cost = 0;
-  for (const [name, value] of sol.variables) {
+  const x = new Float64Array(pb.options.length);
+  if (sol.status !== 'optimal' && !(sol.status === 'timedout' && Number.isFinite(sol.result))) return { x, status: sol.status };
+  for (const [name, v] of sol.variables) {
     if (name[0] !== 'x') continue;
     const i = Number(name.slice(1));
-    const o = options[i]!;
-    if (o.stepLb > 0) {
-      steps[i] = Math.round(value);
-      rates[i] = steps[i] * o.stepLb;
-    } else rates[i] = value;
-    cost += rates[i] * o.pricePerLb;
+    const o = pb.options[i]!;
+    x[i] = o.stepLb > 0 ? v * o.stepLb : v;
   }
-  return { status: 'optimal', rates, steps, cost };
+  return { x, status: 'optimal' };
+}
+
+/**
+ * Solves one location. `target[n]` is the effective lb/ac each nutrient should reach (0 = none); the
+ * supply may fall short of it by at most `tolerance` (a fraction), and only where the limits force it.
+ * With `maximize`, ignores the costs and targets and finds the most of that nutrient the limits allow.
+ *
+ * Method: the continuous LP first (if it has no answer, nothing has). Then a rounding dive: take the first
+ * rate that is not a whole number of machine steps or is below the machine minimum, fix it up a step
+ * (or to the minimum), else down a step, else off, and re-solve the LP with it fixed, so every other rate
+ * re-adjusts and every limit is checked again; repeat until every rate is settled. Each option is fixed
+ * at most once, so this is at most (options + 1) x 3 small LPs. Should a dive dead-end, an exact branch
+ * and bound (yalps integers and binaries) takes over.
+ */
+export function solveProducts(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maximize?: Nutrient): SolveResult {
+  const pb: Problem = { options, target, tolerance, limits, maximize };
+  const rates = new Float64Array(options.length);
+  const steps = new Float64Array(options.length);
+  const fixed: (number | undefined)[] = new Array(options.length).fill(undefined);
+  let x = solveLp(pb, fixed);
+  if (!x) return { status: 'infeasible', rates, steps, cost: NaN, solver: 'infeasible' };
+  let solver = 'optimal (LP and rounding dive)';
+  for (;;) {
+    const i = options.findIndex((o, j) => fixed[j] === undefined && !settled(o, x![j]!));
+    if (i < 0) break;
+    let next: Float64Array | null = null;
+    for (const c of candidates(options[i]!, x[i]!)) {
+      fixed[i] = c;
+      next = solveLp(pb, fixed);
+      if (next) break;
+    }
+    if (!next) {
+      const m = solveMip(pb);
+      if (m.status !== 'optimal') return { status: m.status === 'infeasible' ? 'infeasible' : 'error', rates, steps, cost: NaN, solver: m.status };
+      x = m.x;
+      solver = 'optimal (branch and bound)';
+      break;
+    }
+    x = next;
+  }
+  let cost = 0;
+  options.forEach((o, i) => {
+    let v = x![i]! <= 1e-9 ? 0 : x![i]!;
+    if (o.stepLb > 0) {
+      steps[i] = Math.round(v / o.stepLb);
+      v = steps[i]! * o.stepLb;
+    }
+    rates[i] = v;
+    cost += v * o.pricePerLb;
+  });
+  return { status: 'optimal', rates, steps, cost, solver };
 }
