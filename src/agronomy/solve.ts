@@ -256,7 +256,7 @@ export function solveProducts(options: readonly ProductOption[], target: Record<
     const y = dive(pb, x0, policy);
     if (!y) continue;
     const sc = score(pb, y);
-    if (sc < bestScore - 1e-9) {
+    if (sc < bestScore - 1e-12) {
       bestScore = sc;
       x = y;
     }
@@ -270,7 +270,7 @@ export function solveProducts(options: readonly ProductOption[], target: Record<
       fixed[i] = 0;
       const start = solveLp(pb, fixed);
       const y = start && dive(pb, start, 'best', fixed);
-      if (y && score(pb, y) < bestScore - 1e-9) {
+      if (y && score(pb, y) < bestScore - 1e-12) {
         bestScore = score(pb, y);
         x = y;
       }
@@ -307,7 +307,7 @@ function score(pb: Problem, x: Float64Array): number {
     return -t;
   }
   let c = 0;
-  pb.options.forEach((o, i) => (c += x[i]! * o.pricePerLb));
+  pb.options.forEach((o, i) => (c += x[i]! * (o.pricePerLb + PLACEMENT_TIE * PLACEMENTS.indexOf(o.placement))));
   return c + SHORTFALL_PENALTY * shortfallOf(pb.options, x, pb.target);
 }
 
