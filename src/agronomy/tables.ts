@@ -75,7 +75,7 @@ export const tablesSchema = z.object({
   seed_row_n: z.record(z.string(), z.object({ light: seedRowCell, medium: seedRowCell, heavy: seedRowCell })),
   dry_seedbed_factor: prob,
   p_classes: z.object({ olsen: z.array(pClass).min(1), kelowna: z.array(pClass).min(1) }),
-  p_class_rates: z.record(z.string(), num()),
+  p_class_rates: z.record(z.string(), z.object({ value: z.number().min(0), source, at_least_removal: z.boolean().default(false) })),
   k_response_probability: z.object({ below_critical: prob, above_critical: prob }),
   yield_gain_pct: z.object({
     p: z.record(z.string(), num()),

@@ -53,7 +53,12 @@ export function targets(it: Interpretation, crop: CropTable, plan: Plan, tables:
     p = { lbac: removalP, strategy: 'removal', detail: `${rem.p2o5.value} lb P2O5/bu x ${y} bu = ${r1(removalP)}` };
   } else if (pm === 'response_class') {
     const rate = tables.p_class_rates[it.p.className!]!;
-    p = { lbac: rate.value, strategy: 'response_class', detail: `class ${it.p.className} (${it.p.ppm} ppm ${it.p.method}): ${rate.value} lb P2O5/ac (${rate.source})` };
+    const lb = rate.at_least_removal ? Math.max(rate.value, removalP) : rate.value;
+    p = {
+      lbac: lb,
+      strategy: 'response_class',
+      detail: `class ${it.p.className} (${r1(it.p.ppm)} ppm ${it.p.method}): ${rate.value} lb P2O5/ac (${rate.source})${rate.at_least_removal ? `, at least removal ${r1(removalP)}: ${r1(lb)}` : ''}`,
+    };
   } else {
     const perPpm = st.p.p2o5_per_ppm ?? tables.soil.p2o5_per_ppm.value;
     const test = Number.isFinite(it.p.ppm) ? it.p.ppm : st.p.build_to_ppm;
