@@ -48,6 +48,8 @@ export function formatDecision(d: Decision): string {
       }
     }
     L.push(`  product cost $${d.costPerAc.toFixed(2)}/ac`);
+    const ns = d.nutrients.s.supplied.lbac;
+    if (ns > 0) L.push(`  N:S applied ${f1(d.nutrients.n.supplied.lbac / ns)}:1 (reported, not enforced)`);
     L.push('');
     L.push('Binding');
     for (const b of d.binding) L.push(`  ${b}`);
