@@ -40,7 +40,11 @@ export interface ProductOption {
 
 const LB_PER_TONNE = 1000 / KG_PER_LB;
 
-/** The product x placement options a plan allows (plan choice ∩ product table ∩ implement). */
+/**
+ * The product x placement options a plan allows (plan choice ∩ product table ∩ implement), with machine
+ * limits converted to lb/ac.
+ * @example productOptions(plan, tables).map((o) => o.key) // ['map@seed_row', 'map@side_band', 'urea@side_band', ...]
+ */
 export function productOptions(plan: Plan, tables: Tables): ProductOption[] {
   const toLb = (v: number) => (plan.units === 'kg/ha' ? kghaToLbac(v) : v);
   const out: ProductOption[] = [];
@@ -242,6 +246,7 @@ function solveMip(pb: Problem, maxIterations = 4000): { x: Float64Array; status:
  * nearest); the best finished dive wins. Each dive fixes each option at most once (at most 3 x options small
  * LPs). A rate left at (about) its machine minimum is then tried switched off, with a fresh dive (at most
  * four such tries). Should every dive dead-end, an exact branch and bound (yalps integers and binaries) takes over.
+ * @example solveProducts(productOptions(plan, tables), { n: 100, p2o5: 30, k2o: 0, s: 15 }, 0.05, limits).rates
  */
 export function solveProducts(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maximize?: Nutrient): SolveResult {
   const pb: Problem = { options, target, tolerance, limits, maximize };
@@ -341,7 +346,8 @@ function dive(pb: Problem, x0: Float64Array, policy: DivePolicy, preset?: readon
 
 /**
  * The exact integer answer by branch and bound alone (no dive), for benchmarks and tests that measure the
- * dive against it. Slower, and can time out (status "error").
+ * dive against it. Slower, and can time out (status "error"). Default 4000 iterations.
+ * @example solveProductsExact(options, target, 0.05, limits, 30000).cost
  */
 export function solveProductsExact(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maxIterations = 4000): SolveResult {
   const pb: Problem = { options, target, tolerance, limits, maximize: undefined };

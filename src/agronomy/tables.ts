@@ -180,7 +180,10 @@ export function loadTables(userYamlText?: string, fileName = 'tables file'): Tab
   return check(merge(defaultTables(), user), fileName);
 }
 
-/** The tables as a YAML document users can edit and pass back with `--tables`. */
+/**
+ * The tables as a YAML document users can edit and pass back with `--tables`.
+ * @example loadTables(tablesToYaml(defaultTables())) // the same tables
+ */
 export function tablesToYaml(t: Tables): string {
   return (
     '# tilth agronomy tables. Edit values and their "source"; pass this file with --tables.\n' +

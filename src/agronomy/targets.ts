@@ -23,6 +23,8 @@ const r1 = (v: number) => Math.round(v * 10) / 10;
  * - P response_class: the class's rate; removal: removal/bu x yield; build: removal + (to - test) x lb/ppm / years
  * - K deficit: (critical - test) x lb K2O per ppm below the critical level; above it, removal only for crops that respond
  * - S: low test: max(need when low, removal, floor); otherwise the floor (test flagged uncertain)
+ * Pushes warnings (not tested, uncertain S) onto `warnings`.
+ * @example targets(interpret(soil, crop, plan, tables), crop, plan, tables, []).n.lbac
  */
 export function targets(it: Interpretation, crop: CropTable, plan: Plan, tables: Tables, warnings: Warning[]): Targets {
   const y = plan.target_yield_bu;
