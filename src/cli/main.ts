@@ -10,6 +10,9 @@ import * as inspect from './inspect.js';
 import { preloadInputs } from './inputs.js';
 import * as check from './check.js';
 import * as report from './report.js';
+import * as plan from './plan.js';
+import * as rates from './rates.js';
+import * as tables from './tables.js';
 
 const program = new Command();
 program
@@ -20,7 +23,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect, check, report]) cmd.register(program);
+for (const cmd of [inspect, check, report, plan, rates, tables]) cmd.register(program);
 
 // shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
 program.hook('preAction', async (_program, action) => {
