@@ -8,6 +8,7 @@ import { CAUTION } from './util.js';
 import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
 import { preloadInputs } from './inputs.js';
+import * as surface from './surface.js';
 
 const program = new Command();
 program
@@ -18,7 +19,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect]) cmd.register(program);
+for (const cmd of [inspect, surface]) cmd.register(program);
 
 // shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
 program.hook('preAction', async (_program, action) => {

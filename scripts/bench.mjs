@@ -1,0 +1,21 @@
+// `npm run bench`: runs every scripts/bench-*.mjs in turn (each is a separate benchmark that prints its own
+// table). Pass a name to run one: `npm run bench -- surface`. Figures go into docs/performance.md by hand.
+import { spawnSync } from 'node:child_process';
+import { readdirSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const here = dirname(fileURLToPath(import.meta.url));
+const only = process.argv[2];
+const scripts = readdirSync(here).filter((f) => /^bench-.+\.mjs$/.test(f) && (!only || f === `bench-${only}.mjs`)).sort();
+if (!scripts.length) {
+  console.error(`no benchmark ${only ? `"bench-${only}.mjs" ` : ''}in ${here}`);
+  process.exit(1);
+}
+let failed = 0;
+for (const s of scripts) {
+  console.log(`\n== ${s} ==`);
+  const r = spawnSync(process.execPath, [join(here, s), ...process.argv.slice(3)], { stdio: 'inherit' });
+  if (r.status !== 0) failed++;
+}
+process.exit(failed ? 1 : 0);
