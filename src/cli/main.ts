@@ -9,6 +9,9 @@ import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
 import { preloadInputs } from './inputs.js';
 import * as surface from './surface.js';
+import * as plan from './plan.js';
+import * as rates from './rates.js';
+import * as tables from './tables.js';
 
 const program = new Command();
 program
@@ -19,7 +22,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect, surface]) cmd.register(program);
+for (const cmd of [inspect, surface, plan, rates, tables]) cmd.register(program);
 
 // shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
 program.hook('preAction', async (_program, action) => {
