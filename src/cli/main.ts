@@ -12,6 +12,7 @@ import * as surface from './surface.js';
 import * as plan from './plan.js';
 import * as rates from './rates.js';
 import * as tables from './tables.js';
+import * as build from './build.js';
 
 const program = new Command();
 program
@@ -22,7 +23,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect, surface, plan, rates, tables]) cmd.register(program);
+for (const cmd of [inspect, surface, plan, rates, tables, build]) cmd.register(program);
 
 // shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
 program.hook('preAction', async (_program, action) => {
