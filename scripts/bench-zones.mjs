@@ -3,6 +3,7 @@
 // Bundles src/zones with esbuild first (no build step to remember); prints a table for docs/performance.md.
 import { build } from 'esbuild';
 import { mkdirSync } from 'node:fs';
+import os from 'node:os';
 import { join, dirname } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
@@ -78,33 +79,28 @@ for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
 const minArea = Z.minZoneAreaM2({ swathM: 18.3, speedKmh: 9 });
 const median = (a) => { const s = [...a].sort((x, y) => x - y); return s[Math.floor(s.length / 2)]; };
 const t = { classify: [], majority: [], merge: [], trace: [], clip: [], makeZones: [] };
+const cpu = { classify: [], majority: [], merge: [], trace: [], clip: [], makeZones: [] };
+const cpuMs = () => { const u = process.cpuUsage(); return (u.user + u.system) / 1000; };
 let last;
+const step = (name, fn) => { const c0 = cpuMs(), t0 = performance.now(); const r = fn(); t[name].push(performance.now() - t0); cpu[name].push(cpuMs() - c0); return r; };
 for (let k = 0; k < runs; k++) {
-  let t0 = performance.now();
-  const cls = Z.classify(value, { method: 'jenks', classes: 5, step: 5, weights: fraction });
-  let t1 = performance.now(); t.classify.push(t1 - t0);
-  const sm = Z.majorityFilter(cls.classOf, cols, rows, 1);
-  t0 = performance.now(); t.majority.push(t0 - t1);
-  const m = Z.mergeSmallZones(Z.fillUnclassed(sm, cols, rows), cols, rows, fraction, cell, minArea);
-  t1 = performance.now(); t.merge.push(t1 - t0);
-  const tr = Z.traceZones(m.zone, m.count, grid);
-  t0 = performance.now(); t.trace.push(t0 - t1);
-  const clipped = tr.map((p) => Z.clipParts(p, parts, xmin, ymax));
-  t1 = performance.now(); t.clip.push(t1 - t0);
-  t0 = performance.now();
-  last = Z.makeZones(grid, value, field, { method: 'jenks', classes: 5, step: 5, minAreaM2: minArea, majorityIterations: 1, lonlat: false });
-  t.makeZones.push(performance.now() - t0);
-  void clipped;
+  const cls = step('classify', () => Z.classify(value, { method: 'jenks', classes: 5, step: 5, weights: fraction }));
+  const sm = step('majority', () => Z.majorityFilter(cls.classOf, cols, rows, 1));
+  const m = step('merge', () => Z.mergeSmallZones(Z.fillUnclassed(sm, cols, rows), cols, rows, fraction, cell, minArea));
+  const tr = step('trace', () => Z.traceZones(m.zone, m.count, grid));
+  step('clip', () => tr.map((p) => Z.clipParts(p, parts, xmin, ymax)));
+  last = step('makeZones', () => Z.makeZones(grid, value, field, { method: 'jenks', classes: 5, step: 5, minAreaM2: minArea, majorityIterations: 1, lonlat: false }));
 }
 const verts = last.zones.reduce((s, z) => s + z.parts.reduce((q, p) => q + p.exterior.length / 2 + p.holes.reduce((h, r) => h + r.length / 2, 0), 0), 0);
 const area = last.zones.reduce((s, z) => s + z.areaM2, 0);
 console.log(`zones bench: ${cols} x ${rows} cells of ${cell} m (${(n / 1e6).toFixed(2)} M), field ${(field.areaM2 / 4046.8564224).toFixed(1)} ac, ${runs} runs, node ${process.version}`);
 console.log(`result: ${last.zones.length} zones, ${last.classCount} classes, ${verts} vertices, area sum / field = ${(area / field.areaM2).toFixed(9)}, min zone ${minArea.toFixed(0)} m2`);
-console.log('| step | median ms |\n|---|---|');
-console.log(`| classify (jenks, 5, 4096-bin summary) | ${median(t.classify).toFixed(0)} |`);
-console.log(`| majority filter 3x3, 1 pass | ${median(t.majority).toFixed(0)} |`);
-console.log(`| fill + label + merge small zones | ${median(t.merge).toFixed(0)} |`);
-console.log(`| trace (all zones, unclipped) | ${median(t.trace).toFixed(0)} |`);
-console.log(`| clip every zone to the boundary (polyclip-ts) | ${median(t.clip).toFixed(0)} |`);
-console.log(`| makeZones end to end (clips only zones that reach the edge) | ${median(t.makeZones).toFixed(0)} |`);
+console.log(`load average ${os.loadavg().map((x) => x.toFixed(1)).join(' ')} on ${os.cpus().length} CPUs (wall time suffers when the machine is shared; CPU time much less)`);
+console.log('| step | median wall ms | median CPU ms |\n|---|---|---|');
+console.log(`| classify (jenks, 5, 4096-bin summary) | ${median(t.classify).toFixed(0)} | ${median(cpu.classify).toFixed(0)} |`);
+console.log(`| majority filter 3x3, 1 pass | ${median(t.majority).toFixed(0)} | ${median(cpu.majority).toFixed(0)} |`);
+console.log(`| fill + label + merge small zones | ${median(t.merge).toFixed(0)} | ${median(cpu.merge).toFixed(0)} |`);
+console.log(`| trace (all zones, unclipped) | ${median(t.trace).toFixed(0)} | ${median(cpu.trace).toFixed(0)} |`);
+console.log(`| clip every zone to the boundary (JTS overlay) | ${median(t.clip).toFixed(0)} | ${median(cpu.clip).toFixed(0)} |`);
+console.log(`| makeZones end to end (clips only zones that reach the edge) | ${median(t.makeZones).toFixed(0)} | ${median(cpu.makeZones).toFixed(0)} |`);
 console.log(`peak RSS ${(process.memoryUsage().rss / 2 ** 20).toFixed(0)} MB`);

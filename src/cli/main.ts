@@ -14,6 +14,7 @@ import * as rates from './rates.js';
 import * as tables from './tables.js';
 import * as build from './build.js';
 import * as check from './check.js';
+import * as report from './report.js';
 
 const program = new Command();
 program
@@ -24,7 +25,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect, surface, plan, rates, tables, build, check]) cmd.register(program);
+for (const cmd of [inspect, surface, plan, rates, tables, build, check, report]) cmd.register(program);
 
 // shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
 program.hook('preAction', async (_program, action) => {

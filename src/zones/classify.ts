@@ -87,7 +87,11 @@ function summarize(values: ArrayLike<number>, weights: ArrayLike<number> | undef
   return { v, w, hi, min, max };
 }
 
-/** Upper bounds (k - 1 of them) of natural-breaks classes on a weighted sorted summary; O(k m log m). */
+/**
+ * Upper bounds (k - 1 of them) of natural-breaks classes on a weighted, sorted summary (values `v`,
+ * weights `w`, largest raw value of each entry `hi`); O(k m log m).
+ * @example jenksUppers([1, 2, 3, 10, 11, 12], [1, 1, 1, 1, 1, 1], [1, 2, 3, 10, 11, 12], 2) // [3]
+ */
 export function jenksUppers(v: ArrayLike<number>, w: ArrayLike<number>, hi: ArrayLike<number>, k: number): number[] {
   const m = v.length;
   if (k <= 1 || m <= 1) return [];
@@ -126,7 +130,10 @@ export function jenksUppers(v: ArrayLike<number>, w: ArrayLike<number>, hi: Arra
   return uppers.reverse();
 }
 
-/** 1-D weighted k-means (Lloyd) on a sorted summary, started at weighted quantiles; returns sorted centres. */
+/**
+ * 1-D weighted k-means (Lloyd) on sorted values, started at weighted quantiles; returns sorted centres.
+ * @example kmeans1d([1, 2, 3, 10, 11, 12], [1, 1, 1, 1, 1, 1], 2) // [2, 11]
+ */
 export function kmeans1d(v: ArrayLike<number>, w: ArrayLike<number>, k: number, maxIter = 100): number[] {
   const m = v.length;
   k = Math.min(k, m);

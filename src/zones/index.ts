@@ -16,8 +16,9 @@ export { classify, classifyVectors, jenksUppers, kmeans1d } from './classify.js'
 export type { Classes, ClassMethod, ClassifyOptions, VectorClasses } from './classify.js';
 export { fillUnclassed, labelComponents, majorityFilter, mergeSmallZones, minZoneAreaM2 } from './clean.js';
 export type { Merged } from './clean.js';
-export { boundaryCells, clipParts, robust } from './clip.js';
+export { boundaryCells, clipParts, clipPartsPolyclip, robust } from './clip.js';
 export { traceZones, pointInRing } from './trace.js';
+export { zoneMeans } from './means.js';
 export type { RasterFrame } from './trace.js';
 
 /** One management zone. */
@@ -137,7 +138,10 @@ function countMissing(raw: Int16Array, fraction: ArrayLike<number>): number {
   return k;
 }
 
-/** Polygon parts in metres to MultiPolygon lon/lat coordinates. */
+/**
+ * Polygon parts in metres to MultiPolygon lon/lat coordinates.
+ * @example toLonLat(zone.parts, projector(field.utm)) // [[[[lon, lat], ...]]]
+ */
 export function toLonLat(parts: RingsPart[], p: Projector): number[][][][] {
   const ring = (r: Float64Array) => {
     const ll = p.inverse(r);

@@ -134,7 +134,10 @@ function toRing(keys: number[], W: number, xmin: number, ymax: number, cell: num
   return out;
 }
 
-/** Even-odd point in ring test. */
+/**
+ * Even-odd point in ring test (a closed ring x0 y0 ... xn yn).
+ * @example pointInRing(zone.parts[0].exterior, x, y)
+ */
 export function pointInRing(r: ArrayLike<number>, x: number, y: number): boolean {
   let inside = false;
   const n = r.length >> 1;

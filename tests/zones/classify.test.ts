@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { classify, jenksUppers, kmeans1d, majorityFilter, minZoneAreaM2 } from '../../src/zones/index.js';
+import { classify, classifyVectors, jenksUppers, kmeans1d, majorityFilter, minZoneAreaM2 } from '../../src/zones/index.js';
 
 /** Brute-force natural breaks: every way to cut sorted values into k runs, least total squared deviation. */
 function bruteJenks(sorted: number[], k: number): number {
@@ -81,6 +81,29 @@ describe('classify', () => {
     expect(c.count).toBe(2);
     expect(c.breaks[1]).toBeCloseTo(99.9, 6);
     expect(c.value).toEqual([50, 250]); // means 49.95 and 249.95 rounded to 5
+  });
+});
+
+describe('classifyVectors (one zone set for several products)', () => {
+  it('separates well-separated groups whatever the units, orders classes by need, and skips NaN', () => {
+    fc.assert(fc.property(fc.integer({ min: 1, max: 1e6 }), fc.double({ min: 0.01, max: 1000, noNaN: true }), (seed, scale) => {
+      // three groups in (N lb/ac, S lb/ac x scale): low, middle, high need; S in arbitrary units must not matter
+      let s = seed;
+      const rnd = () => { s = (s * 1664525 + 1013904223) >>> 0; return s / 2 ** 32; };
+      const n = 300, nRate = new Float64Array(n + 1), sRate = new Float64Array(n + 1), group: number[] = [];
+      for (let i = 0; i < n; i++) {
+        const g = i % 3;
+        group.push(g);
+        nRate[i] = [40, 80, 120][g] + 4 * rnd();
+        sRate[i] = ([5, 10, 15][g] + 0.5 * rnd()) * scale;
+      }
+      nRate[n] = NaN; sRate[n] = 10;
+      const vc = classifyVectors([nRate, sRate], { classes: 3, steps: [5, 0] });
+      expect(vc.classOf[n]).toBe(-1);
+      expect(vc.count).toBe(3);
+      for (let i = 0; i < n; i++) expect(vc.classOf[i]).toBe(group[i]);
+      expect(vc.value.map((v) => v[0])).toEqual([40, 80, 120]); // means 42, 82, 122 rounded to 5
+    }), { numRuns: 40 });
   });
 });
 

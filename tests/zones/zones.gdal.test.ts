@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { requireTool } from '../helpers/tools.js';
 import { projectField } from '../../src/geo/field.js';
-import { makeZones, zonesFromSampleZones } from '../../src/zones/index.js';
+import { labelComponents, makeZones, toLonLat, traceZones, zonesFromSampleZones } from '../../src/zones/index.js';
 import { gridFor } from './fixtures.js';
 
 /** An invented quarter-section-like field near 52.1 N, 106.6 W with a slough (hole). */
@@ -53,6 +53,29 @@ describe.skipIf(!requireTool('ogrinfo', 'gdal-bin'))('zones open in GDAL ogrinfo
       writeFileSync(file, fc(zs.zones));
       const [n, valid] = ogrValid(file);
       expect(n).toBe(zs.zones.length);
+      expect(valid).toBe(n);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('traced noise rasters (many corner-only contacts, split rings, touching holes) are valid for GEOS', () => {
+    const f = field();
+    const cols = 40, rows = 40, zonesAll: { lonlat: number[][][][] }[] = [];
+    for (const seed of [3, 17, 101]) {
+      let s = seed;
+      const cls = new Int16Array(cols * rows);
+      for (let i = 0; i < cls.length; i++) { s = (s * 1103515245 + 12345) & 0x7fffffff; cls[i] = (s >> 8) % 3; }
+      const { label, count } = labelComponents(cls, cols, rows);
+      const traced = traceZones(label, count, { xmin: f.bbox[0] + seed * 100, ymax: f.bbox[3], cell: 2, cols, rows });
+      for (const parts of traced) zonesAll.push({ lonlat: toLonLat(parts, f.projector) });
+    }
+    const dir = mkdtempSync(join(tmpdir(), 'tilth-zones-'));
+    try {
+      const file = join(dir, 'zones.geojson');
+      writeFileSync(file, fc(zonesAll));
+      const [n, valid] = ogrValid(file);
+      expect(n).toBe(zonesAll.length);
       expect(valid).toBe(n);
     } finally {
       rmSync(dir, { recursive: true, force: true });
