@@ -283,3 +283,15 @@ describe('products', () => {
     expect(() => parseSoilSpec('texture=loam')).toThrow(/allowed: light, medium, heavy/);
   });
 });
+
+describe('P maintenance range', () => {
+  it('the medium class gets at least crop removal', () => {
+    // common practice (agronomy.md): 10-20 ppm is the maintenance range, apply at least crop removal there;
+    // canola 60 bu x 0.9 = 54 lb P2O5 (common practice) is above the class rate of 30 (from memory)
+    const p = plan({ crop: 'canola', target_yield_bu: 60, strategy: { p: { method: 'response_class' } }, products: [{ product: 'map', placements: ['side_band'], step: 0 }] });
+    expect(decide({ ...SOIL, p: 15 }, p, T).nutrients.p2o5.target.lbac).toBeCloseTo(54, 9);
+    // lower classes never get less than the maintenance range; the high class keeps its starter rate (15, from memory)
+    expect(decide({ ...SOIL, p: 8 }, p, T).nutrients.p2o5.target.lbac).toBeCloseTo(54, 9);
+    expect(decide({ ...SOIL, p: 25 }, p, T).nutrients.p2o5.target.lbac).toBe(15);
+  });
+});

@@ -242,7 +242,7 @@ export function decide(soil: SoilValues, plan: Plan, tables: Tables): Decision {
   }
 
   const sr = feasible ? seedRowTotals(opts, res.rates) : zero();
-  if (plan.crop === 'canola' && placements.some((p) => p.placement === 'seed_row' && p.products.some((q) => q.product === 'ammonium_sulphate'))) {
+  if (crop.seed_row_group === 'canola' && placements.some((p) => p.placement === 'seed_row' && p.products.some((q) => q.product === 'ammonium_sulphate'))) {
     warnings.push({ code: 'as-with-canola-seed', message: 'ammonium sulphate with canola seed further thins stands ([published] Canola Watch 2020); consider moving it out of the seed row', field: 'products' });
   }
   if (feasible && supplied.n > tg.n.lbac + 1) {

@@ -9,7 +9,11 @@ const NAME: Record<Nutrient, string> = { n: 'N', p2o5: 'P2O5', k2o: 'K2O', s: 'S
 const f1 = (v: number) => (Number.isFinite(v) ? (Math.round(v * 10) / 10).toFixed(1) : '-');
 const pct = (v: number) => (Number.isFinite(v) ? `${Math.round(v * 100)} %` : '-');
 
-/** Formats a decision: interpretation, targets, seed-row limits, products per placement, binding limits, return, warnings. */
+/**
+ * Formats a decision for people: interpretation, targets, seed-row limits, products per placement, binding
+ * limits, expected return, warnings. Rates show the plan's unit with lb/ac and kg/ha beside it.
+ * @example process.stdout.write(formatDecision(decide(soil, plan, tables)))
+ */
 export function formatDecision(d: Decision): string {
   const it = d.interpretation;
   const L: string[] = [];
@@ -48,6 +52,8 @@ export function formatDecision(d: Decision): string {
       }
     }
     L.push(`  product cost $${d.costPerAc.toFixed(2)}/ac`);
+    const ns = d.nutrients.s.supplied.lbac;
+    if (ns > 0) L.push(`  N:S applied ${f1(d.nutrients.n.supplied.lbac / ns)}:1 (reported, not enforced)`);
     L.push('');
     L.push('Binding');
     for (const b of d.binding) L.push(`  ${b}`);

@@ -38,7 +38,10 @@ export interface Interpretation {
   };
 }
 
-/** The P class of a test value by method (classes are half-open: [previous below, below)). */
+/**
+ * The P class of a test value by method (classes are half-open: [previous below, below)); null when not tested.
+ * @example pClass(10, 'olsen', defaultTables())!.name // 'medium'
+ */
 export function pClass(ppm: number, method: PMethod, tables: Tables): Tables['p_classes']['olsen'][number] | null {
   if (!Number.isFinite(ppm)) return null;
   for (const c of tables.p_classes[method]) if (c.below_ppm === null || ppm < c.below_ppm) return c;

@@ -106,6 +106,7 @@ function keyName(path: PropertyKey[]): string {
 /**
  * Validates a plan object (from YAML or JSON). Errors name the file, the key, the value and what is allowed.
  * With `tables`, also checks the crop and product names against them.
+ * @example validatePlan({ crop: 'wheat', target_yield_bu: 60, products: [{ product: 'urea' }] }, 'plan', defaultTables()).units // 'lb/ac'
  */
 export function validatePlan(input: unknown, fileName = 'plan', tables?: Tables): Plan {
   const r = planSchema.safeParse(input);

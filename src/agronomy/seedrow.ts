@@ -16,7 +16,10 @@ export function sbuPct(spreadIn: number, rowSpacingIn: number): number {
   return Math.min(100, (spreadIn / rowSpacingIn) * 100);
 }
 
-/** A table's cells as (SBU %, safe N) points sorted by SBU; equal SBUs keep the lowest N. */
+/**
+ * A table's cells as (SBU %, safe N) points sorted by SBU; equal SBUs keep the lowest N.
+ * @example sbuPoints(defaultTables().seed_row_n.cereal.medium)[0] // { sbu: 8.33, n: 10 }
+ */
 export function sbuPoints(cell: Exclude<SeedRowCell, { missing: true }>): { sbu: number; n: number }[] {
   const raw: { sbu: number; n: number }[] = [];
   cell.spreads_in.forEach((s, i) => cell.rows_in.forEach((r, j) => raw.push({ sbu: sbuPct(s, r), n: cell.safe_n[i]![j]! })));
@@ -63,6 +66,8 @@ export interface SeedRowLimits {
 /**
  * Seed-row limits for the plan's crop and implement on a soil of the given texture.
  * Missing table cells follow `plan.seed_row.when_table_missing`; `ask` throws a UserError naming the plan keys.
+ * `plan.seed_row.safe_n_lb`, when set, replaces the table (and the dry-seedbed factor).
+ * @example seedRowLimits(tables.crops.wheat, 'wheat', 'medium', plan, tables).n // 20 at 1 in on 6 in rows
  */
 export function seedRowLimits(crop: CropTable, cropKey: string, texture: Texture, plan: Plan, tables: Tables): SeedRowLimits {
   const sbu = sbuPct(plan.implement.opener_spread_in, plan.implement.row_spacing_in);

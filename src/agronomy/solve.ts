@@ -40,7 +40,11 @@ export interface ProductOption {
 
 const LB_PER_TONNE = 1000 / KG_PER_LB;
 
-/** The product x placement options a plan allows (plan choice ∩ product table ∩ implement). */
+/**
+ * The product x placement options a plan allows (plan choice ∩ product table ∩ implement), with machine
+ * limits converted to lb/ac.
+ * @example productOptions(plan, tables).map((o) => o.key) // ['map@seed_row', 'map@side_band', 'urea@side_band', ...]
+ */
 export function productOptions(plan: Plan, tables: Tables): ProductOption[] {
   const toLb = (v: number) => (plan.units === 'kg/ha' ? kghaToLbac(v) : v);
   const out: ProductOption[] = [];
@@ -82,6 +86,19 @@ export interface SolveResult {
   cost: number;
   /** the solver's own status (yalps): optimal, infeasible, timedout, cycled, unbounded */
   solver: string;
+  /** lb of nutrient short of the targets, summed over nutrients (within the tolerance) */
+  shortfall: number;
+}
+
+function shortfallOf(options: readonly ProductOption[], rates: Float64Array, target: Record<Nutrient, number>): number {
+  let short = 0;
+  for (const n of NUTRIENTS) {
+    if (!(target[n] > 0)) continue;
+    let eff = 0;
+    options.forEach((o, i) => (eff += rates[i]! * o.frac[n] * o.eff[n]));
+    short += Math.max(0, target[n] - eff);
+  }
+  return short;
 }
 
 /** Small cost added per lb in later placements so ties go to the seed row first, then the band, then broadcast. */
@@ -136,8 +153,8 @@ function baseModel(pb: Problem): { constraints: [string, Constraint][]; variable
   return { constraints, variables };
 }
 
-/** The continuous LP (rates in lb/ac) with some rates fixed; returns the rates or null when infeasible. */
-function solveLp(pb: Problem, fixed: readonly (number | undefined)[]): Float64Array | null {
+/** The continuous LP (rates in lb/ac) with some rates fixed; returns the rates (and, as `obj`, the objective) or null when infeasible. */
+function solveLp(pb: Problem, fixed: readonly (number | undefined)[]): (Float64Array & { obj?: number }) | null {
   const { constraints, variables } = baseModel(pb);
   pb.options.forEach((o, i) => {
     const c = coefficients(o, 1);
@@ -147,9 +164,10 @@ function solveLp(pb: Problem, fixed: readonly (number | undefined)[]): Float64Ar
   });
   const sol = solve({ direction: pb.maximize ? 'maximize' : 'minimize', objective: pb.maximize ? `t:${pb.maximize}` : 'cost', constraints, variables });
   if (sol.status !== 'optimal') return null;
-  const x = new Float64Array(pb.options.length);
+  const x: Float64Array & { obj?: number } = new Float64Array(pb.options.length);
   for (const [name, v] of sol.variables) if (name[0] === 'x') x[Number(name.slice(1))] = v;
   fixed.forEach((f, i) => f !== undefined && (x[i] = f));
+  x.obj = sol.result;
   return x;
 }
 
@@ -181,7 +199,7 @@ function candidates(o: ProductOption, v: number): number[] {
  * Exact branch and bound (yalps) over whole steps and on/off minimums: the fallback when the rounding
  * dive finds no answer. Capped at a few thousand iterations.
  */
-function solveMip(pb: Problem): { x: Float64Array; status: string } {
+function solveMip(pb: Problem, maxIterations = 4000): { x: Float64Array; status: string } {
   const { constraints, variables } = baseModel(pb);
   const integers: string[] = [];
   const binaries: string[] = [];
@@ -202,7 +220,7 @@ function solveMip(pb: Problem): { x: Float64Array; status: string } {
   });
   const sol = solve(
     { direction: pb.maximize ? 'maximize' : 'minimize', objective: pb.maximize ? `t:${pb.maximize}` : 'cost', constraints, variables, integers, binaries },
-    { maxIterations: 4000 },
+    { maxIterations },
   );
   const x = new Float64Array(pb.options.length);
   if (sol.status !== 'optimal' && !(sol.status === 'timedout' && Number.isFinite(sol.result))) return { x, status: sol.status };
@@ -220,38 +238,54 @@ function solveMip(pb: Problem): { x: Float64Array; status: string } {
  * supply may fall short of it by at most `tolerance` (a fraction), and only where the limits force it.
  * With `maximize`, ignores the costs and targets and finds the most of that nutrient the limits allow.
  *
- * Method: the continuous LP first (if it has no answer, nothing has). Then a rounding dive: take the first
- * rate that is not a whole number of machine steps or is below the machine minimum, fix it up a step
- * (or to the minimum), else down a step, else off, and re-solve the LP with it fixed, so every other rate
- * re-adjusts and every limit is checked again; repeat until every rate is settled. Each option is fixed
- * at most once, so this is at most (options + 1) x 3 small LPs. Should a dive dead-end, an exact branch
- * and bound (yalps integers and binaries) takes over.
+ * Method: the continuous LP first (if it has no answer, nothing has). Then rounding dives: take the first
+ * rate that is not a whole number of machine steps or is below the machine minimum; fix it up a step (or to
+ * the minimum), down a step, or off, and re-solve the LP with it fixed, so every other rate re-adjusts and
+ * every limit is checked again by the solver; repeat until every rate is settled. Three dives differ in
+ * which rounding they keep (the best LP objective; the first that fits, in the order up / down / off; the
+ * nearest); the best finished dive wins. Each dive fixes each option at most once (at most 3 x options small
+ * LPs). A rate left at (about) its machine minimum is then tried switched off, with a fresh dive (at most
+ * four such tries). Should every dive dead-end, an exact branch and bound (yalps integers and binaries) takes over.
+ * @example solveProducts(productOptions(plan, tables), { n: 100, p2o5: 30, k2o: 0, s: 15 }, 0.05, limits).rates
  */
 export function solveProducts(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maximize?: Nutrient): SolveResult {
   const pb: Problem = { options, target, tolerance, limits, maximize };
   const rates = new Float64Array(options.length);
   const steps = new Float64Array(options.length);
-  const fixed: (number | undefined)[] = new Array(options.length).fill(undefined);
-  let x = solveLp(pb, fixed);
-  if (!x) return { status: 'infeasible', rates, steps, cost: NaN, solver: 'infeasible' };
+  const x0 = solveLp(pb, new Array(options.length).fill(undefined));
+  if (!x0) return { status: 'infeasible', rates, steps, cost: NaN, solver: 'infeasible', shortfall: NaN };
+  let x: Float64Array | null = null;
+  let bestScore = Infinity;
   let solver = 'optimal (LP and rounding dive)';
-  for (;;) {
-    const i = options.findIndex((o, j) => fixed[j] === undefined && !settled(o, x![j]!));
-    if (i < 0) break;
-    let next: Float64Array | null = null;
-    for (const c of candidates(options[i]!, x[i]!)) {
-      fixed[i] = c;
-      next = solveLp(pb, fixed);
-      if (next) break;
+  for (const policy of DIVE_POLICIES) {
+    const y = dive(pb, x0, policy);
+    if (!y) continue;
+    const sc = score(pb, y);
+    if (sc < bestScore - 1e-12) {
+      bestScore = sc;
+      x = y;
     }
-    if (!next) {
-      const m = solveMip(pb);
-      if (m.status !== 'optimal') return { status: m.status === 'infeasible' ? 'infeasible' : 'error', rates, steps, cost: NaN, solver: m.status };
-      x = m.x;
-      solver = 'optimal (branch and bound)';
-      break;
+  }
+  // a rate left at its machine minimum often means a small remainder was pushed up to it: try each such
+  // option switched off (a fresh dive with it fixed at 0) and keep whatever scores better
+  if (x) {
+    const atMin = options.map((o, i) => i).filter((i) => options[i]!.minLb > 0 && x![i]! > 1e-9 && x![i]! <= options[i]!.minLb + options[i]!.stepLb + 1e-9).slice(0, 4);
+    for (const i of atMin) {
+      const fixed: (number | undefined)[] = new Array(options.length).fill(undefined);
+      fixed[i] = 0;
+      const start = solveLp(pb, fixed);
+      const y = start && dive(pb, start, 'best', fixed);
+      if (y && score(pb, y) < bestScore - 1e-12) {
+        bestScore = score(pb, y);
+        x = y;
+      }
     }
-    x = next;
+  }
+  if (!x) {
+    const m = solveMip(pb);
+    if (m.status !== 'optimal') return { status: m.status === 'infeasible' ? 'infeasible' : 'error', rates, steps, cost: NaN, solver: m.status, shortfall: NaN };
+    x = m.x;
+    solver = 'optimal (branch and bound)';
   }
   let cost = 0;
   options.forEach((o, i) => {
@@ -263,5 +297,73 @@ export function solveProducts(options: readonly ProductOption[], target: Record<
     rates[i] = v;
     cost += v * o.pricePerLb;
   });
-  return { status: 'optimal', rates, steps, cost, solver };
+  return { status: 'optimal', rates, steps, cost, solver, shortfall: maximize ? 0 : shortfallOf(options, rates, target) };
+}
+
+type DivePolicy = 'best' | 'first' | 'nearest';
+/** The dives tried: keep the best LP objective at each fix; the first of up / down / off that fits; the nearest. */
+const DIVE_POLICIES: readonly DivePolicy[] = ['best', 'first', 'nearest'];
+
+/** What the dive minimizes, for comparing finished dives: cost + shortfall penalty, or minus the nutrient maximized. */
+function score(pb: Problem, x: Float64Array): number {
+  if (pb.maximize) {
+    let t = 0;
+    pb.options.forEach((o, i) => (t += x[i]! * o.frac[pb.maximize!] * o.eff[pb.maximize!]));
+    return -t;
+  }
+  let c = 0;
+  pb.options.forEach((o, i) => (c += x[i]! * (o.pricePerLb + PLACEMENT_TIE * PLACEMENTS.indexOf(o.placement))));
+  return c + SHORTFALL_PENALTY * shortfallOf(pb.options, x, pb.target);
+}
+
+/** One rounding dive from the LP answer x0; null if it dead-ends. */
+function dive(pb: Problem, x0: Float64Array, policy: DivePolicy, preset?: readonly (number | undefined)[]): Float64Array | null {
+  const { options, maximize } = pb;
+  const fixed: (number | undefined)[] = preset ? [...preset] : new Array(options.length).fill(undefined);
+  let x: Float64Array = x0;
+  for (;;) {
+    const i = options.findIndex((o, j) => fixed[j] === undefined && !settled(o, x[j]!));
+    if (i < 0) return x;
+    let cands = candidates(options[i]!, x[i]!);
+    if (policy === 'nearest') cands = [...cands].sort((a, b) => Math.abs(a - x[i]!) - Math.abs(b - x[i]!));
+    let next: (Float64Array & { obj?: number }) | null = null;
+    let chosen: number | undefined;
+    for (const c of cands) {
+      fixed[i] = c;
+      const y = solveLp(pb, fixed);
+      if (!y) continue;
+      if (!next || (policy === 'best' && (maximize ? y.obj! > next.obj! + 1e-9 : y.obj! < next.obj! - 1e-9))) {
+        next = y;
+        chosen = c;
+      }
+      if (policy !== 'best') break;
+    }
+    if (!next) return null;
+    fixed[i] = chosen;
+    x = next;
+  }
+}
+
+/**
+ * The exact integer answer by branch and bound alone (no dive), for benchmarks and tests that measure the
+ * dive against it. Slower, and can time out (status "error"). Default 4000 iterations.
+ * @example solveProductsExact(options, target, 0.05, limits, 30000).cost
+ */
+export function solveProductsExact(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maxIterations = 4000): SolveResult {
+  const pb: Problem = { options, target, tolerance, limits, maximize: undefined };
+  const m = solveMip(pb, maxIterations);
+  const rates = new Float64Array(options.length);
+  const steps = new Float64Array(options.length);
+  if (m.status !== 'optimal') return { status: m.status === 'infeasible' ? 'infeasible' : 'error', rates, steps, cost: NaN, solver: m.status, shortfall: NaN };
+  let cost = 0;
+  options.forEach((o, i) => {
+    let v = m.x[i]! <= 1e-9 ? 0 : m.x[i]!;
+    if (o.stepLb > 0) {
+      steps[i] = Math.round(v / o.stepLb);
+      v = steps[i]! * o.stepLb;
+    }
+    rates[i] = v;
+    cost += v * o.pricePerLb;
+  });
+  return { status: 'optimal', rates, steps, cost, solver: 'optimal (branch and bound)', shortfall: shortfallOf(options, rates, target) };
 }

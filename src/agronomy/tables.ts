@@ -75,7 +75,7 @@ export const tablesSchema = z.object({
   seed_row_n: z.record(z.string(), z.object({ light: seedRowCell, medium: seedRowCell, heavy: seedRowCell })),
   dry_seedbed_factor: prob,
   p_classes: z.object({ olsen: z.array(pClass).min(1), kelowna: z.array(pClass).min(1) }),
-  p_class_rates: z.record(z.string(), num()),
+  p_class_rates: z.record(z.string(), z.object({ value: z.number().min(0), source, at_least_removal: z.boolean().default(false) })),
   k_response_probability: z.object({ below_critical: prob, above_critical: prob }),
   yield_gain_pct: z.object({
     p: z.record(z.string(), num()),
@@ -180,7 +180,10 @@ export function loadTables(userYamlText?: string, fileName = 'tables file'): Tab
   return check(merge(defaultTables(), user), fileName);
 }
 
-/** The tables as a YAML document users can edit and pass back with `--tables`. */
+/**
+ * The tables as a YAML document users can edit and pass back with `--tables`.
+ * @example loadTables(tablesToYaml(defaultTables())) // the same tables
+ */
 export function tablesToYaml(t: Tables): string {
   return (
     '# tilth agronomy tables. Edit values and their "source"; pass this file with --tables.\n' +

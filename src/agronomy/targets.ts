@@ -23,6 +23,8 @@ const r1 = (v: number) => Math.round(v * 10) / 10;
  * - P response_class: the class's rate; removal: removal/bu x yield; build: removal + (to - test) x lb/ppm / years
  * - K deficit: (critical - test) x lb K2O per ppm below the critical level; above it, removal only for crops that respond
  * - S: low test: max(need when low, removal, floor); otherwise the floor (test flagged uncertain)
+ * Pushes warnings (not tested, uncertain S) onto `warnings`.
+ * @example targets(interpret(soil, crop, plan, tables), crop, plan, tables, []).n.lbac
  */
 export function targets(it: Interpretation, crop: CropTable, plan: Plan, tables: Tables, warnings: Warning[]): Targets {
   const y = plan.target_yield_bu;
@@ -53,7 +55,12 @@ export function targets(it: Interpretation, crop: CropTable, plan: Plan, tables:
     p = { lbac: removalP, strategy: 'removal', detail: `${rem.p2o5.value} lb P2O5/bu x ${y} bu = ${r1(removalP)}` };
   } else if (pm === 'response_class') {
     const rate = tables.p_class_rates[it.p.className!]!;
-    p = { lbac: rate.value, strategy: 'response_class', detail: `class ${it.p.className} (${it.p.ppm} ppm ${it.p.method}): ${rate.value} lb P2O5/ac (${rate.source})` };
+    const lb = rate.at_least_removal ? Math.max(rate.value, removalP) : rate.value;
+    p = {
+      lbac: lb,
+      strategy: 'response_class',
+      detail: `class ${it.p.className} (${r1(it.p.ppm)} ppm ${it.p.method}): ${rate.value} lb P2O5/ac (${rate.source})${rate.at_least_removal ? `, at least removal ${r1(removalP)}: ${r1(lb)}` : ''}`,
+    };
   } else {
     const perPpm = st.p.p2o5_per_ppm ?? tables.soil.p2o5_per_ppm.value;
     const test = Number.isFinite(it.p.ppm) ? it.p.ppm : st.p.build_to_ppm;

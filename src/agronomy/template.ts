@@ -33,7 +33,7 @@ farm: Example Farm            # invented names; use your own
 field: Home Quarter
 crop: ${crop}                 # allowed: ${Object.keys(tables.crops).join(', ')}
 target_yield_bu: ${y}           # bu/ac you realistically expect on this field
-crop_price_per_bu: ${price}         # $/bu, for the expected return of P and K
+crop_price_per_bu: ${price}         # $/bu, a placeholder: use your own; for the expected return of P and K
 units: ${units}                # lb/ac | kg/ha: product rates and machine limits below are in these units
 
 soil_test:

@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import { decide, formatDecision, parsePlan, parseSoilSpec } from '../agronomy/index.js';
 import { tablesFromOption } from './plan.js';
-import { CAUTION, out, printWarnings, readInput } from './util.js';
+import { CAUTION, info, out, printWarnings, readInput } from './util.js';
 
 export function register(program: Command): void {
   program
@@ -21,7 +21,10 @@ export function register(program: Command): void {
       if (o.json) {
         out(JSON.stringify(d, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
         printWarnings(d.warnings);
-      } else out(formatDecision(d));
+      } else {
+        out(formatDecision(d));
+        info(CAUTION);
+      }
       if (d.status === 'infeasible') process.exitCode = 2;
     });
 }

@@ -153,9 +153,9 @@ export const DEFAULT_TABLES: TablesInput = {
     ],
   },
   p_class_rates: {
-    very_low: { value: 50, source: 'from memory: lb P2O5/ac on a very low test' },
-    low: { value: 40, source: 'from memory: lb P2O5/ac on a low test' },
-    medium: { value: 30, source: 'from memory: lb P2O5/ac in the maintenance range' },
+    very_low: { value: 50, at_least_removal: true, source: 'from memory: lb P2O5/ac on a very low test; never less than crop removal (common practice, as for the maintenance range below it)' },
+    low: { value: 40, at_least_removal: true, source: 'from memory: lb P2O5/ac on a low test; never less than crop removal (common practice, as for the maintenance range)' },
+    medium: { value: 30, at_least_removal: true, source: 'from memory: lb P2O5/ac in the maintenance range; at least crop removal there (common practice)' },
     high: { value: 15, source: 'from memory: starter rate on a high test' },
   },
   k_response_probability: {
