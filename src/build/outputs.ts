@@ -34,10 +34,10 @@ export function zoneAttributes(rx: Prescription, set: ZoneSetResult, zi: number)
     sample_zone: z.key,
     area_ac: round(z.areaAc, 3),
     area_ha: round(z.areaHa, 4),
-    soil_no3_n_lbac: round(z.soil.no3_n, 1),
+    soil_no3_n: round(z.soil.no3_n, 1),
     soil_p_ppm: round(z.soil.p, 1),
     soil_k_ppm: round(z.soil.k, 0),
-    soil_so4_s_lbac: round(z.soil.so4_s, 1),
+    soil_so4_s: round(z.soil.so4_s, 1),
     soil_om_pct: round(z.soil.om, 2),
     texture: d.texture,
     p_class: d.interpretation.p.className,
@@ -45,7 +45,9 @@ export function zoneAttributes(rx: Prescription, set: ZoneSetResult, zi: number)
     k_response_pct: round(d.interpretation.k.responseProbability * 100, 0),
     s_status: d.interpretation.s.status,
   };
-  for (const n of NUTRIENTS) a[`target_${n}_${unitTag(u)}`] = round(d.nutrients[n].target.value, 1);
+  // nutrient targets carry no unit ending, so that only product-rate columns end in the rate unit
+  a.target_unit = u;
+  for (const n of NUTRIENTS) a[`target_${n}`] = round(d.nutrients[n].target.value, 1);
   for (const pair of usedPairs(set)) a[rateColumn(pair.product, pair.placement, u)] = round(productRate(d, pair.product, pair.placement).value, 1);
   a.cost_per_ac = round(d.costPerAc, 2);
   a.binding_limit = d.binding.join('; ');
@@ -139,4 +141,24 @@ export function summaryText(rx: Prescription): string {
     }
   }
   return lines.join('\n') + '\n';
+}
+
+/**
+ * A zone set as the shapefile layout's input (src/io/shapefile/layout.ts): per zone `zone_id` and
+ * `rates` [{ product, placement, rate, unit }], geometry in lon/lat. Zones with no product still appear
+ * (all rates 0), so the files cover the whole field.
+ */
+export function shapefileFeatures(rx: Prescription, set: ZoneSetResult): FeatureCollection<Polygon | MultiPolygon> {
+  const pairs = usedPairs(set);
+  return {
+    type: 'FeatureCollection',
+    features: set.zones.map((z) => ({
+      type: 'Feature',
+      properties: {
+        zone_id: z.id,
+        rates: pairs.map((p) => ({ product: p.product, placement: p.placement, rate: round(productRate(z.decision, p.product, p.placement).value, 1) ?? 0, unit: rx.plan.units })),
+      },
+      geometry: z.lonlat.length === 1 ? { type: 'Polygon', coordinates: z.lonlat[0] } : { type: 'MultiPolygon', coordinates: z.lonlat },
+    })),
+  };
 }

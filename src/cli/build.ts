@@ -3,7 +3,11 @@ import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
 import { buildPrescription } from '../build/index.js';
-import { geojsonName, prescriptionGeojson, summaryObject, summaryText, zonesCsv, type Provenance } from '../build/outputs.js';
+import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, summaryText, zonesCsv, type Provenance } from '../build/outputs.js';
+import { reportInput } from '../build/reportInput.js';
+import { prescriptionFiles } from '../io/shapefile/index.js';
+import { renderReport, serializeReportInput } from '../report/index.js';
+import { inputsHash } from './report.js';
 import { VERSION } from '../version.js';
 import { loadInputs } from './inputs.js';
 import { tablesFromOption } from './plan.js';
@@ -53,15 +57,37 @@ export function register(program: Command): void {
         onProgress: (step) => { if (step !== last) { last = step; say(`${step} ...`); } },
       });
       const hash = (s: string | Buffer) => createHash('sha256').update(s).digest('hex');
-      const inputsHash: Record<string, string> = { samples: hash(readInput(o.samples, 'samples')), boundary: hash(readInput(o.boundary, 'boundary')), plan: hash(planText) };
-      if (o.zones) inputsHash.zones = hash(readInput(o.zones, 'zones'));
-      if (o.tables) inputsHash.tables = hash(readInput(o.tables, 'tables'));
-      const prov: Provenance = { tilth: VERSION, created: new Date().toISOString(), inputs: inputsHash, id: hash(Object.values(inputsHash).join('')).slice(0, 10) };
+      const named: { name: string; bytes: Uint8Array }[] = [
+        { name: 'samples', bytes: readInput(o.samples, 'samples') },
+        { name: 'boundary', bytes: readInput(o.boundary, 'boundary') },
+        { name: 'plan', bytes: Buffer.from(planText, 'utf8') },
+      ];
+      if (o.zones) named.push({ name: 'zones', bytes: readInput(o.zones, 'zones') });
+      if (o.tables) named.push({ name: 'tables', bytes: readInput(o.tables, 'tables') });
+      const prov: Provenance = { tilth: VERSION, created: new Date().toISOString(), inputs: Object.fromEntries(named.map((f) => [f.name, hash(Buffer.from(f.bytes))])), id: inputsHash(named) };
       const files = new Map<string, string | Uint8Array>();
       for (const set of rx.zoneSets) files.set(geojsonName(rx, set), prescriptionGeojson(rx, set));
       files.set('zones.csv', zonesCsv(rx));
       const summary = summaryObject(rx, prov);
       files.set('summary.json', JSON.stringify(summary, null, 2) + '\n');
+      say('writing shapefiles ...');
+      for (const set of rx.zoneSets) {
+        const fc = shapefileFeatures(rx, set);
+        if (fc.features.length === 0) continue;
+        const shp = prescriptionFiles(fc, {
+          layout: plan.output.shapefile_layout,
+          crs: plan.output.crs === 'utm' ? 'utm' : 'lonlat',
+          utm: rx.field.utm,
+          shortFileNames: plan.output.short_names,
+          prefix: rx.zoneSets.length > 1 ? `rx_${set.name}` : 'rx',
+          title: `${plan.farm ? plan.farm + ', ' : ''}${plan.field || rx.field.name}: ${plan.crop}, zone set ${set.name} (tilth ${VERSION}, inputs ${prov.id})`,
+        });
+        for (const [name, bytes] of Object.entries(shp.files)) files.set(`shapefiles/${name}`, bytes);
+      }
+      say('drawing the report ...');
+      const ri = reportInput(rx, inputs, tables, prov, { tablesEdited: !!o.tables });
+      files.set('report-data.json', serializeReportInput(ri));
+      files.set('report.html', renderReport(ri));
       writeOutputDir(o.out, files, o.force);
       if (o.json) out(JSON.stringify(summary, null, 2));
       else out(summaryText(rx));

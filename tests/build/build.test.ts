@@ -84,7 +84,14 @@ describe('tilth build (CLI)', () => {
     expect(r.code).toBe(0);
     const s = JSON.parse(r.stdout);
     expect(s.zone_sets[0].zones).toBeGreaterThan(1);
-    expect(readdirSync(out)).toEqual(expect.arrayContaining(['prescription.geojson', 'zones.csv', 'summary.json']));
+    expect(readdirSync(out)).toEqual(expect.arrayContaining(['prescription.geojson', 'zones.csv', 'summary.json', 'report.html', 'report-data.json', 'shapefiles']));
+    // tilth check passes its own outputs: the GeoJSON, each shapefile set and each zip
+    const sets = readdirSync(join(out, 'shapefiles')).filter((f) => f.endsWith('.shp') || f.endsWith('.zip'));
+    expect(sets.length).toBeGreaterThanOrEqual(2);
+    for (const f of [join(out, 'prescription.geojson'), ...sets.map((x) => join(out, 'shapefiles', x))]) {
+      const c = tilth(['check', f, '--boundary', 'sample-fields/quarter/boundary.geojson', '--speed', '8', '--json']);
+      expect(c.code, `${f}: ${c.stdout}${c.stderr}`).toBe(0);
+    }
     const gj = JSON.parse(readFileSync(join(out, 'prescription.geojson'), 'utf8'));
     expect(gj.features.length).toBe(s.zone_sets[0].zones);
     // refuses to overwrite without --force
