@@ -25,7 +25,7 @@ export const BUILD_ANALYTES: readonly Analyte[] = ['no3_n', 'p', 'k', 'so4_s', '
 export interface BuildOptions {
   /** grid cell size, m; default: about 1/200 of the field's longer side, rounded to 1, 2, 5, 10 or 20 m */
   cell?: number;
-  /** progress for long steps: step name and share done 0..1 */
+  /** progress for long steps: step name and share of it done, 0..1 (a new name starts a new step) */
   onProgress?: (step: string, done: number) => void;
 }
 
@@ -152,7 +152,7 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
   const surfaces: NutrientSurface[] = [];
   const byAnalyte: Partial<Record<Analyte, Float64Array>> = {};
   BUILD_ANALYTES.forEach((a, i) => {
-    progress(`surface ${a}`, i / BUILD_ANALYTES.length);
+    progress('surfaces (cross-validation and interpolation)', i / BUILD_ANALYTES.length);
     const vals = samples.values[a];
     if (!vals || !vals.some((v) => Number.isFinite(v))) {
       warnings.push({ code: 'build.analyte-missing', message: `no sample has ${a}; it is treated as not tested everywhere.`, field: a });
@@ -163,7 +163,7 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
     byAnalyte[a] = s.values;
     warnings.push(...s.warnings);
   });
-  progress('surfaces', 1);
+  progress('surfaces (cross-validation and interpolation)', 1);
 
   // 2. per-cell targets
   const tg = cellTargets(byAnalyte, grid.fraction, plan, tables);
@@ -189,7 +189,7 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
   };
 
   if (sampled) {
-    progress('zones', 0);
+    progress('zones (sampled polygons)', 0);
     const { zones: sz, warnings: zw } = zonesFromSampleZones(inputs.zones!, field);
     warnings.push(...zw);
     const zonesOut: PrescriptionZone[] = sz.map((z, i) => {
@@ -223,7 +223,7 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
       for (const [n, prods] of byNutrient) specs.push({ name: n, drivenBy: `${nutrientName(n)} target (${plan.zoning.method}, up to ${plan.zoning.classes} classes)`, products: prods, input: tg[n] });
     }
     specs.forEach((spec, si) => {
-      progress(`zones ${spec.name}`, si / specs.length);
+      progress('zones (classes, cleaning, tracing, rates per zone)', si / specs.length);
       const zs = makeZones(grid, spec.input, field, {
         method: plan.zoning.method,
         classes: plan.zoning.classes,
@@ -250,7 +250,7 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
       zoneSets.push({ name: spec.name, drivenBy: spec.drivenBy, products: spec.products, zones: zonesOut, breaks: zs.classes?.breaks ?? null, minZoneAreaM2: zs.minAreaM2, zoneOfCell: zs.zoneOfCell });
     });
   }
-  progress('rates', 1);
+  progress('zones (classes, cleaning, tracing, rates per zone)', 1);
 
   const infeasible: Prescription['infeasible'] = [];
   // the rate engine's warnings, grouped: one line per kind of warning, naming the zones it concerns

@@ -12,6 +12,7 @@ import { VERSION } from '../version.js';
 import { loadInputs } from './inputs.js';
 import { tablesFromOption } from './plan.js';
 import { CAUTION, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
+import { createTerminal, type Task } from './progress.js';
 
 interface BuildFlags {
   samples: string; boundary: string; zones?: string; plan: string; tables?: string; out: string;
@@ -40,7 +41,8 @@ export function register(program: Command): void {
     .option('--quiet', 'no progress messages')
     .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
     .action((o: BuildFlags) => {
-      const say = o.quiet ? () => {} : (s: string) => info(s);
+      const term = createTerminal({ quiet: o.quiet });
+      const say = (s: string) => term.line(s);
       const tables = tablesFromOption(o.tables);
       const planText = readInput(o.plan, 'plan').toString('utf8');
       const plan = parsePlan(planText, o.plan, tables);
@@ -52,10 +54,15 @@ export function register(program: Command): void {
       });
       if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
       let last = '';
+      let task: Task | null = null;
       const rx = buildPrescription(inputs, plan, tables, {
         cell: numberOption('--cell', o.cell, { min: 0.1 }),
-        onProgress: (step) => { if (step !== last) { last = step; say(`${step} ...`); } },
+        onProgress: (step, done) => {
+          if (step !== last) { task?.done(); last = step; task = term.task(step, 100); }
+          task!.update(Math.round(done * 100), 100);
+        },
       });
+      (task as Task | null)?.done();
       const hash = (s: string | Buffer) => createHash('sha256').update(s).digest('hex');
       const named: { name: string; bytes: Uint8Array }[] = [
         { name: 'samples', bytes: readInput(o.samples, 'samples') },
@@ -92,7 +99,8 @@ export function register(program: Command): void {
       if (o.json) out(JSON.stringify(summary, null, 2));
       else out(summaryText(rx));
       printWarnings(rx.warnings);
-      info(`wrote ${[...files.keys()].join(', ')} to ${o.out}`);
+      const top = [...new Set([...files.keys()].map((f) => f.replace(/\/.*/, '/')))];
+      info(`wrote ${files.size} files to ${o.out}: ${top.join(', ')}`);
       info(CAUTION);
       if (rx.infeasible.length > 0) {
         info(`\n${rx.infeasible.length} zone(s) cannot meet their targets within the plan's limits:`);
