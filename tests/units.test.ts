@@ -47,3 +47,12 @@ describe('units (values from ../shared/reference/agronomy.md)', () => {
     expect(u.thaToBuac(u.buacToTha(42, 48), 48)).toBeCloseTo(42, 10);
   });
 });
+
+describe('library entry', () => {
+  it('src/index.ts exports the pipeline (what dist/index.js bundles)', async () => {
+    const lib = await import('../src/index.js');
+    for (const name of ['prepareInputs', 'buildPrescription', 'decide', 'parsePlan', 'nutrientSurface', 'makeZones', 'writeShapefile', 'checkPrescription', 'renderReport']) {
+      expect(typeof (lib as Record<string, unknown>)[name], name).toBe('function');
+    }
+  });
+});

@@ -1,0 +1,27 @@
+/**
+ * tilth as a library: the pipeline's pure stages. Nothing here reads files, prints or exits;
+ * `src/cli/` does that. See docs/architecture.md.
+ *
+ * @example
+ * import { prepareInputs, parsePlan, defaultTables, buildPrescription } from 'tilth';
+ * const inputs = prepareInputs({ name: 'samples.csv', bytes }, { name: 'boundary.geojson', bytes: b });
+ * const tables = defaultTables();
+ * const rx = buildPrescription(inputs, parsePlan(planYaml, 'plan.yaml', tables), tables);
+ */
+export * from './types.js';
+export { UserError, isUserError, type Warning } from './errors.js';
+export * as units from './units/index.js';
+export { VERSION } from './version.js';
+export { prepareInputs } from './validate/inputs.js';
+export { projectField } from './geo/field.js';
+export { utmZoneFor, projector, type Projector } from './geo/utm.js';
+export * from './surface/index.js';
+export * from './agronomy/index.js';
+export * from './zones/index.js';
+export { buildPrescription, defaultCell, type Prescription, type PrescriptionZone, type ZoneSetResult, type ProductTotal, type BuildOptions } from './build/index.js';
+export { prescriptionGeojson, zonesCsv, summaryObject, summaryText, shapefileFeatures, type Provenance } from './build/outputs.js';
+export { reportInput } from './build/reportInput.js';
+export { writeShapefile, prescriptionFiles, readShapefile } from './io/shapefile/index.js';
+export { zipFiles, readZip } from './io/zip.js';
+export { checkPrescription } from './check/index.js';
+export { renderReport, serializeReportInput, parseReportInput } from './report/index.js';
