@@ -7,6 +7,7 @@ import { isUserError } from '../errors.js';
 import { CAUTION } from './util.js';
 import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
+import * as variability from './variability.js';
 
 const program = new Command();
 program
@@ -17,7 +18,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect]) cmd.register(program);
+for (const cmd of [inspect, variability]) cmd.register(program);
 
 try {
   await program.parseAsync(process.argv);

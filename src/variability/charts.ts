@@ -34,6 +34,14 @@ export function niceTicks(lo: number, hi: number, target = 6, cover = false): nu
   return out;
 }
 
+/** 3 significant digits without exponent for everyday magnitudes. */
+export function fmtNum(x: number): string {
+  if (!Number.isFinite(x)) return '-';
+  if (x === 0) return '0';
+  const a = Math.abs(x);
+  return a >= 1000 ? x.toFixed(0) : a >= 0.001 ? String(Number(x.toPrecision(3))) : x.toExponential(2);
+}
+
 function fmtTick(t: number, step: number): string {
   const d = step >= 1 ? 0 : Math.min(6, Math.ceil(-Math.log10(step) - 1e-9));
   return t.toFixed(d);
@@ -135,10 +143,10 @@ export function semivariogramSvg(input: SemivariogramChartInput, size: { width?:
     const st = MODEL_STYLE[b.kind];
     if (b.sill <= Y1) {
       o.push(`<line x1="${m.l}" y1="${sy(b.sill)}" x2="${m.l + pw}" y2="${sy(b.sill)}" stroke="${st.color}" stroke-width="1" stroke-dasharray="6 4" opacity="0.7"/>`);
-      o.push(`<text x="${m.l + pw - 4}" y="${sy(b.sill) - 5}" font-size="12" text-anchor="end" fill="${st.color}">sill ${b.sill.toPrecision(3)}</text>`);
+      o.push(`<text x="${m.l + pw - 4}" y="${sy(b.sill) - 5}" font-size="12" text-anchor="end" fill="${st.color}">sill ${fmtNum(b.sill)}</text>`);
     }
     o.push(`<circle cx="${sx(0)}" cy="${sy(b.nugget)}" r="4.5" fill="${st.color}"/>`);
-    o.push(`<text x="${m.l + 8}" y="${sy(b.nugget) - 7}" font-size="12" fill="${st.color}">nugget ${b.nugget.toPrecision(3)}</text>`);
+    o.push(`<text x="${m.l + 8}" y="${sy(b.nugget) - 7}" font-size="12" fill="${st.color}">nugget ${fmtNum(b.nugget)}</text>`);
     if (b.effectiveRange <= X1) {
       o.push(`<line x1="${sx(b.effectiveRange)}" y1="${m.t + ph}" x2="${sx(b.effectiveRange)}" y2="${m.t}" stroke="${st.color}" stroke-width="1" stroke-dasharray="6 4" opacity="0.7"/>`);
       o.push(`<text x="${sx(b.effectiveRange) + 5}" y="${m.t + ph - 8}" font-size="12" fill="${st.color}">effective range ${b.effectiveRange.toFixed(0)} m</text>`);
@@ -168,13 +176,13 @@ export function semivariogramSvg(input: SemivariogramChartInput, size: { width?:
     o.push(`<text x="${lx + 28}" y="${ly + 4}" font-size="12"${isBest ? ' font-weight="bold"' : ''}>${st.name}${isBest ? ' (best fit)' : ''}</text>`);
     ly += 16;
     const detail = f.ok
-      ? `nugget ${f.nugget.toPrecision(3)}, sill ${f.sill.toPrecision(3)}`
+      ? `nugget ${fmtNum(f.nugget)}, sill ${fmtNum(f.sill)}`
       : 'no usable fit';
     o.push(`<text x="${lx + 28}" y="${ly + 4}" font-size="11" fill="#444">${esc(detail)}</text>`);
     ly += 15;
     if (f.ok) {
-      const rng = f.kind === 'spherical' ? `range ${f.range.toFixed(0)} m` : `a ${f.range.toFixed(0)} m, effective ${f.effectiveRange.toFixed(0)} m`;
-      o.push(`<text x="${lx + 28}" y="${ly + 4}" font-size="11" fill="#444">${esc(rng)}${f.rangeAtLimit ? ' (no sill)' : ''}</text>`);
+      const rng = f.rangeAtLimit ? 'no sill within the data' : f.kind === 'spherical' ? `range ${f.range.toFixed(0)} m` : `a ${f.range.toFixed(0)} m, effective ${f.effectiveRange.toFixed(0)} m`;
+      o.push(`<text x="${lx + 28}" y="${ly + 4}" font-size="11" fill="#444">${esc(rng)}</text>`);
       ly += 15;
     }
     ly += 10;
@@ -271,7 +279,12 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
   const isLow = (i: number) => input.threshold !== null && input.values[i] < input.threshold;
   order.sort((a, b) => Number(isLow(a)) - Number(isLow(b)));
   const labels: string[] = [];
-  const taken: [number, number, number, number][] = [];
+  // sample dots are obstacles for labels too
+  const taken: [number, number, number, number][] = order.map((i) => {
+    const x = sx(input.xy[2 * i]);
+    const y = sy(input.xy[2 * i + 1]);
+    return [x - 8, y - 8, x + 8, y + 8];
+  });
   for (const i of order) {
     const x = sx(input.xy[2 * i]);
     const y = sy(input.xy[2 * i + 1]);
@@ -281,12 +294,16 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
       const label = `${input.ids[i]}: ${fmtVal(input.values[i])}`;
       const w = label.length * 7.2;
       // first free spot of right, left, above, below (simple collision avoidance); else right
-      const spots: [number, number, string][] = [[x + 15, y + 4, 'start'], [x - 15, y + 4, 'end'], [x, y - 17, 'middle'], [x, y + 25, 'middle']];
+      const spots: [number, number, string][] = [
+        [x + 15, y + 4, 'start'], [x - 15, y + 4, 'end'], [x, y - 17, 'middle'], [x, y + 25, 'middle'],
+        [x + 12, y - 14, 'start'], [x - 12, y - 14, 'end'], [x + 12, y + 22, 'start'], [x - 12, y + 22, 'end'],
+      ];
       const box = (sp: [number, number, string]): [number, number, number, number] => {
         const x0 = sp[2] === 'start' ? sp[0] : sp[2] === 'end' ? sp[0] - w : sp[0] - w / 2;
         return [x0, sp[1] - 11, x0 + w, sp[1] + 3];
       };
-      const free = (b: [number, number, number, number]) => taken.every((t) => b[2] < t[0] || b[0] > t[2] || b[3] < t[1] || b[1] > t[3]);
+      const own = (t: [number, number, number, number]) => Math.abs(t[0] + 8 - x) < 1e-6 && Math.abs(t[1] + 8 - y) < 1e-6;
+      const free = (b: [number, number, number, number]) => taken.every((t) => own(t) || b[2] < t[0] || b[0] > t[2] || b[3] < t[1] || b[1] > t[3]);
       const sp = spots.find((p) => free(box(p))) ?? spots[0];
       taken.push(box(sp));
       labels.push(`<text x="${sp[0].toFixed(1)}" y="${sp[1].toFixed(1)}" font-size="12" font-weight="bold" text-anchor="${sp[2]}" fill="#b10026" stroke="white" stroke-width="3" paint-order="stroke">${esc(label)}</text>`);

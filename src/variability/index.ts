@@ -19,6 +19,7 @@ export * from './sampling.js';
 export * from './area-share.js';
 export * from './thresholds.js';
 export * from './charts.js';
+export * from './text.js';
 
 /** Lags with fewer pairs than this are flagged (common practice). */
 export const MIN_PAIRS = 30;

@@ -1,0 +1,84 @@
+/** `tilth variability`: how variable one nutrient is across the field, whether the sampling can map it, the low spots. */
+import type { Command } from 'commander';
+import { join } from 'node:path';
+import { UserError } from '../errors.js';
+import type { Analyte } from '../types.js';
+import { loadInputs } from './inputs.js';
+import { CAUTION, info, numberOption, out, printWarnings, writeFileAtomic } from './util.js';
+import { analyzeVariability, sampleMapSvg, semivariogramSvg, variabilityText, type FitMethod } from '../variability/index.js';
+
+const NUTRIENTS: Record<string, Analyte> = {
+  s: 'so4_s', so4_s: 'so4_s', sulphur: 'so4_s', sulfur: 'so4_s', sulphate: 'so4_s', sulfate: 'so4_s',
+  n: 'no3_n', no3_n: 'no3_n', nitrate: 'no3_n',
+  p: 'p', phosphorus: 'p',
+  k: 'k', potassium: 'k',
+  om: 'om', ph: 'ph',
+};
+
+/** Parses --nutrient: S, N, P, K, OM, pH (or tilth's analyte names). */
+export function parseNutrient(v: string): Analyte {
+  const a = NUTRIENTS[v.trim().toLowerCase()];
+  if (!a) throw new UserError(`option --nutrient: "${v}" is not a nutrient tilth knows. Fix: give one of S, N, P, K, OM, pH.`);
+  return a;
+}
+
+export function register(program: Command): void {
+  program
+    .command('variability')
+    .description('Within-field variability of one nutrient (sulphate-S by default): statistics, semivariogram and fitted models, spatial dependence, sampling advice, low spots.')
+    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
+    .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
+    .option('--nutrient <name>', 'S, N, P, K, OM or pH', 'S')
+    .option('--threshold <value>', 'low means below this, in the nutrient\'s unit (default: S 20 lb S/ac 0-24 in, P 10 ppm Olsen / 17 ppm Kelowna, K 125 ppm; none for N, OM, pH)')
+    .option('--s-floor <lb/ac>', 'sulphate-S the plan applies regardless of the test, lb S/ac (default 10, canola, common practice)')
+    .option('--fit-method <n>', 'model fit weights: 7 = N_j/h_j^2 (default, as gstat), 2 = N_j/gamma(h_j)^2 (Cressie)', '7')
+    .option('--log', 'semivariogram of the natural logarithm of the values (for strongly skewed data)')
+    .option('--cutoff <m>', 'largest pair distance, metres (default a third of the samples\' bounding-box diagonal)')
+    .option('--width <m>', 'lag width, metres (default cutoff / 15)')
+    .option('--depth-factor <f>', 'factor from 0-6 in to 0-24 in nitrate/sulphate when only 0-6 in was sampled (no default)')
+    .option('--out <dir>', 'write the charts there: <nutrient>-semivariogram.svg and <nutrient>-map.svg')
+    .option('--json', 'print JSON for scripts')
+    .addHelpText('after', `
+Example:
+  tilth variability --samples sample-fields/quarter/samples.geojson --boundary sample-fields/quarter/boundary.geojson --nutrient S --out charts
+
+Defaults, all editable: threshold as above (sources in docs/variability.md); S floor 10 lb S/ac; model weights N_j/h_j^2;
+a lag with fewer than 30 pairs is flagged (common practice); sampling is judged against half the effective range
+(common practice). Dependence classes: Cambardella et al. 1994.
+
+${CAUTION}`)
+    .action((o) => {
+      const nutrient = parseNutrient(o.nutrient);
+      const threshold = numberOption('--threshold', o.threshold);
+      const sFloor = numberOption('--s-floor', o.sFloor, { min: 0 });
+      const method = numberOption('--fit-method', o.fitMethod, { integer: true });
+      if (method !== 7 && method !== 2) throw new UserError(`option --fit-method: "${o.fitMethod}" is not supported. Fix: give 7 (N_j/h_j^2) or 2 (Cressie).`);
+      const cutoff = numberOption('--cutoff', o.cutoff, { min: 0 });
+      const width = numberOption('--width', o.width, { min: 0 });
+      if (cutoff === 0 || width === 0) throw new UserError('options --cutoff and --width must be above 0. Fix: give a distance in metres, e.g. --cutoff 400.');
+      const depthFactor = numberOption('--depth-factor', o.depthFactor, { min: 0 });
+      const inputs = loadInputs({ samples: o.samples, boundary: o.boundary, depthFactor });
+      const report = analyzeVariability(inputs.samples, inputs.field, {
+        nutrient, threshold, sFloor, transform: o.log ? 'log' : 'none', cutoff, width, fit: { method: method as FitMethod },
+      });
+      const warnings = [...inputs.warnings, ...report.warnings];
+      if (o.out) {
+        const stem = nutrient;
+        const sv = semivariogramSvg({ semivariogram: report.semivariogram, fits: report.fits, best: report.best, label: report.label, unit: report.unit, transform: report.transform });
+        const map = sampleMapSvg({
+          parts: inputs.field.parts, xy: inputs.samples.xy, values: inputs.samples.values[nutrient], ids: inputs.samples.ids,
+          label: report.label, unit: report.unit, threshold: report.threshold?.value ?? null,
+        });
+        writeFileAtomic(join(o.out, `${stem}-semivariogram.svg`), sv);
+        writeFileAtomic(join(o.out, `${stem}-map.svg`), map);
+        info(`wrote ${join(o.out, `${stem}-semivariogram.svg`)} and ${join(o.out, `${stem}-map.svg`)}`);
+      }
+      if (o.json) {
+        out(JSON.stringify({ ...report, warnings }, null, 2));
+        printWarnings(inputs.warnings);
+      } else {
+        printWarnings(inputs.warnings);
+        out(variabilityText(report));
+      }
+    });
+}
