@@ -2,9 +2,9 @@
  * Helpers shared by the CLI commands: reading files with user-level errors, atomic writes,
  * printing. Only src/cli/ touches process, console and the file system.
  */
-import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
-import { UserError, type Warning } from '../errors.js';
+import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { basename, dirname, isAbsolute, join, resolve } from 'node:path';
+import { isUserError, UserError, type Warning } from '../errors.js';
 
 /** Reads a whole file; a missing or unreadable file is a UserError naming it and the fix. */
 export function readInput(path: string, what: string): Buffer {
@@ -74,3 +74,63 @@ export const CAUTION =
   'Caution: tilth computes suggestions from soil tests and editable default tables. Too much fertilizer with the\n' +
   'seed injures or kills seedlings; wrong rates cost money and can pollute water. Follow local guidelines, and\n' +
   'have a licensed agronomist or certified crop adviser check every prescription before it is applied.';
+
+/**
+ * Writes a whole output folder at once: every file goes into a temporary sibling folder, which is
+ * renamed into place only when all are written, so a failure never leaves a half-written output.
+ * An existing non-empty folder is refused unless `force`; then it is replaced as a whole.
+ *
+ * @param dir the output folder
+ * @param files relative path (may contain '/') -> contents
+ */
+export function writeOutputDir(dir: string, files: Map<string, string | Uint8Array>, force = false): void {
+  const abs = resolve(dir);
+  let existing: ReturnType<typeof statSync> | undefined;
+  try {
+    existing = statSync(abs);
+  } catch {
+    existing = undefined;
+  }
+  if (existing && !existing.isDirectory()) {
+    throw new UserError(`output "${dir}" is a file, not a folder. Fix: give --out a folder path (it will be created).`, { file: dir });
+  }
+  if (existing && readdirSync(abs).length > 0 && !force) {
+    throw new UserError(`output folder "${dir}" already exists and is not empty. Fix: choose a new folder, or add --force to replace it.`, { file: dir });
+  }
+  const parent = dirname(abs);
+  try {
+    mkdirSync(parent, { recursive: true });
+  } catch (e) {
+    throw new UserError(`cannot create "${parent}" (${(e as Error).message}). Fix: choose a writable location for --out.`, { file: dir });
+  }
+  const tmp = join(parent, `.${basename(abs)}.tmp-${process.pid}-${Date.now()}`);
+  try {
+    for (const [rel, data] of files) {
+      if (rel.split(/[\\/]/).some((s) => s === '..' || s === '') || isAbsolute(rel)) throw new Error(`bad output path ${rel}`);
+      const p = join(tmp, rel);
+      mkdirSync(dirname(p), { recursive: true });
+      writeFileSync(p, data);
+    }
+    if (existing) {
+      const old = `${tmp}.old`;
+      renameSync(abs, old);
+      try {
+        renameSync(tmp, abs);
+      } catch (e) {
+        renameSync(old, abs);
+        throw e;
+      }
+      rmSync(old, { recursive: true, force: true });
+    } else {
+      renameSync(tmp, abs);
+    }
+  } catch (e) {
+    rmSync(tmp, { recursive: true, force: true });
+    if (isUserError(e)) throw e;
+    const code = (e as NodeJS.ErrnoException).code;
+    if (code === 'EACCES' || code === 'EPERM' || code === 'EROFS' || code === 'ENOSPC') {
+      throw new UserError(`cannot write the output folder "${dir}" (${(e as Error).message}). Fix: choose a writable location for --out; nothing was written.`, { file: dir });
+    }
+    throw e;
+  }
+}
