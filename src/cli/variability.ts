@@ -1,10 +1,9 @@
 /** `tilth variability`: how variable one nutrient is across the field, whether the sampling can map it, the low spots. */
 import type { Command } from 'commander';
-import { join } from 'node:path';
 import { UserError } from '../errors.js';
 import type { Analyte } from '../types.js';
 import { loadInputs } from './inputs.js';
-import { CAUTION, info, numberOption, out, printWarnings, writeFileAtomic } from './util.js';
+import { CAUTION, info, numberOption, out, printWarnings, writeOutputDir } from './util.js';
 import { analyzeVariability, sampleMapSvg, semivariogramSvg, variabilityText, type FitMethod } from '../variability/index.js';
 
 const NUTRIENTS: Record<string, Analyte> = {
@@ -36,7 +35,8 @@ export function register(program: Command): void {
     .option('--cutoff <m>', 'largest pair distance, metres (default a third of the samples\' bounding-box diagonal)')
     .option('--width <m>', 'lag width, metres (default cutoff / 15)')
     .option('--depth-factor <f>', 'factor from 0-6 in to 0-24 in nitrate/sulphate when only 0-6 in was sampled (no default)')
-    .option('--out <dir>', 'write the charts there: <nutrient>-semivariogram.svg and <nutrient>-map.svg')
+    .option('--out <dir>', 'write a folder with the charts (<nutrient>-semivariogram.svg, <nutrient>-map.svg) and variability.json')
+    .option('--force', 'replace an existing, non-empty --out folder')
     .option('--json', 'print JSON for scripts')
     .addHelpText('after', `
 Example:
@@ -69,9 +69,13 @@ ${CAUTION}`)
           parts: inputs.field.parts, xy: inputs.samples.xy, values: inputs.samples.values[nutrient], ids: inputs.samples.ids,
           label: report.label, unit: report.unit, threshold: report.threshold?.value ?? null,
         });
-        writeFileAtomic(join(o.out, `${stem}-semivariogram.svg`), sv);
-        writeFileAtomic(join(o.out, `${stem}-map.svg`), map);
-        info(`wrote ${join(o.out, `${stem}-semivariogram.svg`)} and ${join(o.out, `${stem}-map.svg`)}`);
+        const files = new Map<string, string>([
+          [`${stem}-semivariogram.svg`, sv],
+          [`${stem}-map.svg`, map],
+          ['variability.json', JSON.stringify({ ...report, warnings }, null, 2) + '\n'],
+        ]);
+        writeOutputDir(o.out, files, Boolean(o.force));
+        info(`wrote ${o.out}/: ${[...files.keys()].join(', ')}`);
       }
       if (o.json) {
         out(JSON.stringify({ ...report, warnings }, null, 2));
