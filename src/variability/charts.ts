@@ -256,14 +256,23 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
   const nLow = input.threshold === null ? 0 : Array.from(input.values).filter((v) => Number.isFinite(v) && v < (input.threshold as number)).length;
   o.push(`<text x="${m.l}" y="46" font-size="13" fill="#444">${input.threshold === null ? 'samples coloured by value' : `${nLow} sample(s) below ${input.threshold} ${esc(input.unit)} ringed in red`}</text>`);
   if (input.surface) {
+    // colours quantised to 48 steps and equal neighbours in a row merged into one rectangle (small files)
     const g = input.surface.grid;
-    for (let r = 0; r < g.rows; r++) for (let c = 0; c < g.cols; c++) {
-      const k = r * g.cols + c;
-      const v = input.surface.values[k];
-      if (!g.mask[k] || !Number.isFinite(v)) continue;
-      const x0 = g.xmin + c * g.cell;
-      const y0 = g.ymax - r * g.cell;
-      o.push(`<rect x="${sx(x0).toFixed(1)}" y="${sy(y0).toFixed(1)}" width="${(g.cell * scale + 0.6).toFixed(1)}" height="${(g.cell * scale + 0.6).toFixed(1)}" fill="${col(v)}" opacity="0.75"/>`);
+    const q = (v: number) => Math.round(((v - vmin) / (vmax - vmin)) * 47);
+    for (let r = 0; r < g.rows; r++) {
+      let c = 0;
+      while (c < g.cols) {
+        const k = r * g.cols + c;
+        const v = input.surface.values[k];
+        if (!g.mask[k] || !Number.isFinite(v)) { c++; continue; }
+        const b = q(v);
+        let e = c + 1;
+        while (e < g.cols && g.mask[r * g.cols + e] && Number.isFinite(input.surface.values[r * g.cols + e]) && q(input.surface.values[r * g.cols + e]) === b) e++;
+        const x0 = g.xmin + c * g.cell;
+        const y0 = g.ymax - r * g.cell;
+        o.push(`<rect x="${sx(x0).toFixed(1)}" y="${sy(y0).toFixed(1)}" width="${((e - c) * g.cell * scale + 0.6).toFixed(1)}" height="${(g.cell * scale + 0.6).toFixed(1)}" fill="${viridis(b / 47)}" opacity="0.8"/>`);
+        c = e;
+      }
     }
   }
   // boundary
