@@ -149,7 +149,8 @@ export function semivariogramSvg(input: SemivariogramChartInput, size: { width?:
     o.push(`<text x="${m.l + 8}" y="${sy(b.nugget) - 7}" font-size="12" fill="${st.color}">nugget ${fmtNum(b.nugget)}</text>`);
     if (b.effectiveRange <= X1) {
       o.push(`<line x1="${sx(b.effectiveRange)}" y1="${m.t + ph}" x2="${sx(b.effectiveRange)}" y2="${m.t}" stroke="${st.color}" stroke-width="1" stroke-dasharray="6 4" opacity="0.7"/>`);
-      o.push(`<text x="${sx(b.effectiveRange) + 5}" y="${m.t + ph - 8}" font-size="12" fill="${st.color}">effective range ${b.effectiveRange.toFixed(0)} m</text>`);
+      const right = sx(b.effectiveRange) > m.l + pw * 0.7;
+      o.push(`<text x="${sx(b.effectiveRange) + (right ? -5 : 5)}" y="${m.t + ph - 8}" font-size="12" text-anchor="${right ? 'end' : 'start'}" fill="${st.color}" stroke="white" stroke-width="3" paint-order="stroke">effective range ${b.effectiveRange.toFixed(0)} m</text>`);
     }
   }
   // points
@@ -215,7 +216,7 @@ export interface SampleMapInput {
 export function sampleMapSvg(input: SampleMapInput, size: { width?: number; height?: number } = {}): string {
   const W = size.width ?? 860;
   const H = size.height ?? 640;
-  const m = { l: 24, r: 200, t: 56, b: 56 };
+  const m = { l: 96, r: 236, t: 60, b: 56 };
   let xmin = Infinity, ymin = Infinity, xmax = -Infinity, ymax = -Infinity;
   const grow = (x: number, y: number) => {
     if (x < xmin) xmin = x;
@@ -312,7 +313,7 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
         return [x0, sp[1] - 11, x0 + w, sp[1] + 3];
       };
       const own = (t: [number, number, number, number]) => Math.abs(t[0] + 8 - x) < 1e-6 && Math.abs(t[1] + 8 - y) < 1e-6;
-      const free = (b: [number, number, number, number]) => taken.every((t) => own(t) || b[2] < t[0] || b[0] > t[2] || b[3] < t[1] || b[1] > t[3]);
+      const free = (b: [number, number, number, number]) => b[0] >= 4 && b[2] <= W - m.r + 36 && b[1] >= m.t - 4 && b[3] <= H - m.b + 20 && taken.every((t) => own(t) || b[2] < t[0] || b[0] > t[2] || b[3] < t[1] || b[1] > t[3]);
       const sp = spots.find((p) => free(box(p))) ?? spots[0];
       taken.push(box(sp));
       labels.push(`<text x="${sp[0].toFixed(1)}" y="${sp[1].toFixed(1)}" font-size="12" font-weight="bold" text-anchor="${sp[2]}" fill="#b10026" stroke="white" stroke-width="3" paint-order="stroke">${esc(label)}</text>`);
@@ -320,7 +321,7 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
   }
   o.push(...labels);
   // colour legend
-  const lx = W - m.r + 30;
+  const lx = W - m.r + 58;
   const ly = m.t + 20;
   const lh = Math.min(300, ph - 120);
   o.push(`<text x="${lx}" y="${ly - 8}" font-size="13" font-weight="bold">${esc(input.unit)}</text>`);
@@ -354,13 +355,13 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
   const target = (xmax - xmin) / 4;
   const mag = Math.pow(10, Math.floor(Math.log10(Math.max(target, 1))));
   const len = [1, 2, 5, 10].map((k) => k * mag).filter((l) => l <= target).pop() ?? mag;
-  const bx = m.l + 10;
+  const bx = 24;
   const by = H - 22;
   o.push(`<rect x="${bx}" y="${by - 6}" width="${(len * scale).toFixed(1)}" height="6" fill="#222"/>`);
   o.push(`<text x="${bx}" y="${by - 10}" font-size="12">0</text><text x="${(bx + len * scale).toFixed(1)}" y="${by - 10}" font-size="12" text-anchor="middle">${len >= 1000 ? len / 1000 + ' km' : len + ' m'}</text>`);
-  // north arrow (the map is drawn in UTM metres: grid north up)
-  const nx = W - m.r - 20;
-  const ny = m.t + 10;
+  // north arrow under the legend (the map is drawn in UTM metres: grid north up)
+  const nx = lx + 11;
+  const ny = ky + 30;
   o.push(`<path d="M${nx} ${ny} l8 22 l-8 -6 l-8 6 Z" fill="#222"/><text x="${nx}" y="${ny + 38}" font-size="13" text-anchor="middle" font-weight="bold">N</text>`);
   o.push('</svg>');
   return o.join('\n');

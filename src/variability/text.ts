@@ -73,7 +73,7 @@ export function variabilityText(r: VariabilityReport): string {
   }
   if (r.sulphur) {
     const su = r.sulphur;
-    if (su.marginal.length) L.push(`Marginal (${r.threshold?.value}-${su.marginalUpper} lb S/ac, where canola may still respond): ${su.marginal.map((m) => `${m.id} ${f(m.value)}`).join(', ')}`);
+    if (su.marginal.length) L.push(wrap(`Marginal (${r.threshold?.value}-${su.marginalUpper} lb S/ac, where canola may still respond): ${su.marginal.map((m) => `${m.id} ${f(m.value)}`).join(', ')}`, ''));
     L.push(wrap(su.notLowIsUncertain, ''));
     L.push(wrap(su.compositeText, ''));
     L.push(wrap(su.floorText, ''));
