@@ -255,3 +255,33 @@ describe('analyzeVariability on sulphate-S', () => {
     expect(niceTicks(0, 1597, 6, true)).toEqual([0, 500, 1000, 1500, 2000]);
   });
 });
+
+describe('text and map with a surface', () => {
+  it('the text names the dependence class with its source, the sampling verdict and the S statements', async () => {
+    const { variabilityText } = await import('../src/variability/index.js');
+    const { samples, field } = syntheticField();
+    const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
+    const t = variabilityText(r);
+    expect(t).toContain('Cambardella et al. 1994');
+    expect(t).toContain('ac per sample');
+    expect(t).toContain('S36');
+    expect(t).toContain('not low says little');
+    expect(t).toContain('at least 10 lb S/ac');
+  });
+
+  it('zone-composite samples are flagged', () => {
+    const { samples, field } = syntheticField();
+    samples.zone = samples.ids.map((_, i) => (i < 20 ? 'a' : 'b'));
+    expect(analyzeVariability(samples, field).warnings.map((w) => w.code)).toContain('variability-zone-composites');
+  });
+
+  it('a surface row of equal colours becomes one rectangle; cells outside the mask are not drawn', () => {
+    const grid = { xmin: 0, ymax: 20, cell: 10, cols: 3, rows: 2, mask: new Uint8Array([1, 1, 1, 1, 1, 0]), fraction: new Float32Array(6).fill(1) };
+    const svg = sampleMapSvg({
+      parts: [{ exterior: new Float64Array([0, 0, 30, 0, 30, 20, 0, 20, 0, 0]), holes: [] }], xy: new Float64Array([5, 5]), values: [1], ids: ['A'],
+      label: 'x', unit: 'u', threshold: null, surface: { grid, values: [1, 1, 1, 1, 9, 9] },
+    });
+    // row 0: one run of three equal cells; row 1: two runs (1 and 9), the masked cell skipped
+    expect((svg.match(/<rect [^>]*opacity="0.8"/g) ?? []).length).toBe(3);
+  });
+});

@@ -145,6 +145,13 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
     for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && !Number.isFinite(z[i])) dropped++;
     if (dropped) warnings.push({ code: 'variability-log-nonpositive', message: `${dropped} ${nutrient} value(s) are 0 or negative and have no logarithm; they are left out of the semivariogram.`, field: nutrient });
   }
+  if (samples.zone.some((k) => k !== null)) {
+    warnings.push({
+      code: 'variability-zone-composites',
+      message: 'these are zone-composite samples: each stands for a whole zone, not a point, so the semivariogram and the sampling advice describe the zone centres only. Grid or point samples are needed to measure variation within the zones.',
+      field: nutrient,
+    });
+  }
   const xyUsed: number[] = [];
   for (let i = 0; i < values.length; i++) if (Number.isFinite(z[i])) xyUsed.push(samples.xy[2 * i], samples.xy[2 * i + 1]);
   if (xyUsed.length / 2 < 2) {
