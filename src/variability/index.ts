@@ -9,7 +9,7 @@ import { fitModels, type FitOptions, type FittedModel } from './fit.js';
 import { spatialDependence, type Dependence } from './dependence.js';
 import { samplingAdvice, type SamplingAdvice } from './sampling.js';
 import { areaShareBelow, sampleShareBelow } from './area-share.js';
-import { ANALYTE_LABEL, ANALYTE_UNIT, defaultThreshold, S_FLOOR_DEFAULT, S_MARGINAL_UPPER, type Threshold } from './thresholds.js';
+import { NUTRIENT_LABEL, NUTRIENT_UNIT, defaultThreshold, S_FLOOR_DEFAULT, S_MARGINAL_UPPER, type Threshold } from './thresholds.js';
 
 export * from './semivariogram.js';
 export * from './models.js';
@@ -130,7 +130,7 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
 
   const threshold: Threshold | null =
     opts.threshold === null ? null
-    : opts.threshold !== undefined ? { value: opts.threshold, unit: ANALYTE_UNIT[nutrient], source: 'set by the user' }
+    : opts.threshold !== undefined ? { value: opts.threshold, unit: NUTRIENT_UNIT[nutrient], source: 'set by the user' }
     : defaultThreshold(nutrient, samples.pMethod);
 
   // semivariogram on the tested samples
@@ -239,8 +239,8 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
 
   return {
     nutrient,
-    label: ANALYTE_LABEL[nutrient],
-    unit: ANALYTE_UNIT[nutrient],
+    label: NUTRIENT_LABEL[nutrient],
+    unit: NUTRIENT_UNIT[nutrient],
     stats: { ...stats, censoredBelow, censoredAbove },
     threshold,
     shareBelow,

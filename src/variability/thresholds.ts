@@ -44,7 +44,7 @@ export const S_MARGINAL_UPPER = 30;
 export const S_FLOOR_DEFAULT = 10;
 
 /** Units of each analyte's canonical value (src/types.ts). */
-export const ANALYTE_UNIT: Readonly<Record<Analyte, string>> = {
+export const NUTRIENT_UNIT: Readonly<Record<Analyte, string>> = {
   no3_n: 'lb N/ac',
   p: 'ppm',
   k: 'ppm',
@@ -54,7 +54,7 @@ export const ANALYTE_UNIT: Readonly<Record<Analyte, string>> = {
 };
 
 /** People's names of the analytes. */
-export const ANALYTE_LABEL: Readonly<Record<Analyte, string>> = {
+export const NUTRIENT_LABEL: Readonly<Record<Analyte, string>> = {
   no3_n: 'nitrate-N (0-24 in)',
   p: 'phosphorus (0-6 in)',
   k: 'potassium (0-6 in)',
