@@ -8,6 +8,7 @@ import { CAUTION } from './util.js';
 import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
 import * as variability from './variability.js';
+import { preloadInputs } from './inputs.js';
 
 const program = new Command();
 program
@@ -19,6 +20,12 @@ program
   .exitOverride();
 
 for (const cmd of [inspect, variability]) cmd.register(program);
+
+// shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
+program.hook('preAction', async (_program, action) => {
+  const o = action.opts();
+  if (o.samples || o.boundary || o.zones) await preloadInputs(o);
+});
 
 try {
   await program.parseAsync(process.argv);
