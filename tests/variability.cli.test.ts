@@ -1,6 +1,11 @@
 /** `tilth variability` as a user runs it. */
 import { describe, expect, it } from 'vitest';
-import { tilth } from './helpers/cli.js';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { tmpdir } from 'node:os';
+import { spawnSync } from 'node:child_process';
+import { ROOT, tilth } from './helpers/cli.js';
+import { requireTool } from './helpers/tools.js';
 
 describe('tilth variability', () => {
   it('--help shows an example and the caution', () => {
@@ -23,5 +28,51 @@ describe('tilth variability', () => {
     const r = tilth(['variability', '--samples', 'x.geojson', '--boundary', 'y.geojson', '--fit-method', '5']);
     expect(r.code).toBe(2);
     expect(r.stderr).toContain('--fit-method');
+  });
+});
+
+describe('tilth variability on the demo quarter (invented data: plumbing, not agronomy)', () => {
+  const args = ['variability', '--samples', 'sample-fields/quarter/samples.geojson', '--boundary', 'sample-fields/quarter/boundary.geojson'];
+
+  it('text names the low spots, the dependence class and a sampling recommendation', () => {
+    const r = tilth([...args, '--nutrient', 'S']);
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stdout).toMatch(/Low spots \(below 20 lb S\/ac\):\n\s+HQ-\d+/);
+    expect(r.stdout).toMatch(/Spatial dependence: (STRONG|MODERATE|WEAK)/);
+    expect(r.stdout).toMatch(/ac per sample/);
+    expect(r.stdout).toContain('not low says little');
+  });
+
+  it('--json agrees with the samples file: every listed low sample is below the threshold', () => {
+    const r = tilth([...args, '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout);
+    const fc = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/samples.geojson'), 'utf8'));
+    expect(j.low.length).toBeGreaterThan(0);
+    expect(j.stats.n).toBe(fc.features.length);
+    for (const l of j.low) expect(l.value).toBeLessThan(20);
+    expect(['strong', 'moderate', 'weak']).toContain(j.dependence.class);
+    expect(j.sulphur.floor).toBe(10);
+  });
+
+  it('--out writes the charts and JSON as one folder; they render in Chromium', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'tilth-var-'));
+    try {
+      const outDir = join(dir, 'charts');
+      const r = tilth([...args, '--out', outDir]);
+      expect(r.code, r.stderr).toBe(0);
+      expect(readdirSync(outDir).sort()).toEqual(['so4_s-map.svg', 'so4_s-semivariogram.svg', 'variability.json']);
+      // a second run into the same, now non-empty folder is refused without --force
+      expect(tilth([...args, '--out', outDir]).code).toBe(2);
+      if (requireTool('chromium', 'chromium')) {
+        for (const f of ['so4_s-map.svg']) {
+          const png = join(dir, f + '.png');
+          spawnSync('chromium', ['--headless', '--no-sandbox', '--disable-gpu', `--screenshot=${png}`, '--window-size=880,660', join(outDir, f)], { timeout: 60_000 });
+          expect(statSync(png).size).toBeGreaterThan(10_000);
+        }
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

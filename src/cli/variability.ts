@@ -1,7 +1,7 @@
 /** `tilth variability`: how variable one nutrient is across the field, whether the sampling can map it, the low spots. */
 import type { Command } from 'commander';
 import { UserError } from '../errors.js';
-import type { Analyte } from '../types.js';
+import type { Analyte, PMethod } from '../types.js';
 import { loadInputs } from './inputs.js';
 import { CAUTION, info, numberOption, out, printWarnings, writeOutputDir } from './util.js';
 import { analyzeVariability, sampleMapSvg, semivariogramSvg, variabilityText, type FitMethod } from '../variability/index.js';
@@ -21,12 +21,22 @@ export function parseNutrient(v: string): Analyte {
   return a;
 }
 
+/** JSON with non-finite numbers as null. */
+function toJson(v: unknown): string {
+  return JSON.stringify(v, (_k, x) => (typeof x === 'number' && !Number.isFinite(x) ? null : x), 2);
+}
+
 export function register(program: Command): void {
   program
     .command('variability')
     .description('Within-field variability of one nutrient (sulphate-S by default): statistics, semivariogram and fitted models, spatial dependence, sampling advice, low spots.')
     .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
     .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
+    .option('--zones <file>', 'zone polygons that zone-composite samples are keyed to (.geojson, .shp, .zip)')
+    .option('--columns <map>', 'CSV column map, e.g. "id=Sample ID,lat=Lat,lon=Long,s=SO4-S:lb/ac" (headers are recognised otherwise)')
+    .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
+    .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
+    .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)')
     .option('--nutrient <name>', 'S, N, P, K, OM or pH', 'S')
     .option('--threshold <value>', 'low means below this, in the nutrient\'s unit (default: S 20 lb S/ac 0-24 in, P 10 ppm Olsen / 17 ppm Kelowna, K 125 ppm; none for N, OM, pH)')
     .option('--s-floor <lb/ac>', 'sulphate-S the plan applies regardless of the test, lb S/ac (default 10, canola, common practice)')
@@ -34,13 +44,14 @@ export function register(program: Command): void {
     .option('--log', 'semivariogram of the natural logarithm of the values (for strongly skewed data)')
     .option('--cutoff <m>', 'largest pair distance, metres (default a third of the samples\' bounding-box diagonal)')
     .option('--width <m>', 'lag width, metres (default cutoff / 15)')
-    .option('--depth-factor <f>', 'factor from 0-6 in to 0-24 in nitrate/sulphate when only 0-6 in was sampled (no default)')
+    .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
     .option('--out <dir>', 'write a folder with the charts (<nutrient>-semivariogram.svg, <nutrient>-map.svg) and variability.json')
     .option('--force', 'replace an existing, non-empty --out folder')
     .option('--json', 'print JSON for scripts')
     .addHelpText('after', `
 Example:
-  tilth variability --samples sample-fields/quarter/samples.geojson --boundary sample-fields/quarter/boundary.geojson --nutrient S --out charts
+  tilth variability --samples sample-fields/quarter/samples.geojson --boundary sample-fields/quarter/boundary.geojson --nutrient S --out s-charts
+  tilth variability --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson --nutrient P --json
 
 Defaults, all editable: threshold as above (sources in docs/variability.md); S floor 10 lb S/ac; model weights N_j/h_j^2;
 a lag with fewer than 30 pairs is flagged (common practice); sampling is judged against half the effective range
@@ -56,8 +67,17 @@ ${CAUTION}`)
       const cutoff = numberOption('--cutoff', o.cutoff, { min: 0 });
       const width = numberOption('--width', o.width, { min: 0 });
       if (cutoff === 0 || width === 0) throw new UserError('options --cutoff and --width must be above 0. Fix: give a distance in metres, e.g. --cutoff 400.');
-      const depthFactor = numberOption('--depth-factor', o.depthFactor, { min: 0 });
-      const inputs = loadInputs({ samples: o.samples, boundary: o.boundary, depthFactor });
+      let pMethod: PMethod | undefined;
+      if (o.pMethod !== undefined) {
+        const pm = String(o.pMethod).toLowerCase();
+        if (pm !== 'olsen' && pm !== 'kelowna') throw new UserError(`option --p-method: "${o.pMethod}" is not olsen or kelowna. Fix: give --p-method olsen or --p-method kelowna.`);
+        pMethod = pm;
+      }
+      const inputs = loadInputs({
+        samples: o.samples, boundary: o.boundary, zones: o.zones, columns: o.columns, pMethod,
+        depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 1, max: 10 }),
+        dropOutside: Boolean(o.dropOutside), assumeWgs84: Boolean(o.assumeWgs84),
+      });
       const report = analyzeVariability(inputs.samples, inputs.field, {
         nutrient, threshold, sFloor, transform: o.log ? 'log' : 'none', cutoff, width, fit: { method: method as FitMethod },
       });
@@ -67,18 +87,18 @@ ${CAUTION}`)
         const sv = semivariogramSvg({ semivariogram: report.semivariogram, fits: report.fits, best: report.best, label: report.label, unit: report.unit, transform: report.transform });
         const map = sampleMapSvg({
           parts: inputs.field.parts, xy: inputs.samples.xy, values: inputs.samples.values[nutrient], ids: inputs.samples.ids,
-          label: report.label, unit: report.unit, threshold: report.threshold?.value ?? null,
+          label: report.label, unit: report.unit, threshold: report.threshold?.value ?? null, thresholdInclusive: report.threshold?.inclusive,
         });
         const files = new Map<string, string>([
           [`${stem}-semivariogram.svg`, sv],
           [`${stem}-map.svg`, map],
-          ['variability.json', JSON.stringify({ ...report, warnings }, null, 2) + '\n'],
+          ['variability.json', toJson({ ...report, warnings }) + '\n'],
         ]);
         writeOutputDir(o.out, files, Boolean(o.force));
         info(`wrote ${o.out}/: ${[...files.keys()].join(', ')}`);
       }
       if (o.json) {
-        out(JSON.stringify({ ...report, warnings }, null, 2));
+        out(toJson({ ...report, warnings }));
         printWarnings(inputs.warnings);
       } else {
         printWarnings(inputs.warnings);

@@ -204,6 +204,8 @@ export interface SampleMapInput {
   unit: string;
   /** "low" means below; null for no marking */
   threshold: number | null;
+  /** the threshold value itself counts as low (default false) */
+  thresholdInclusive?: boolean;
   /** optional interpolated surface drawn beneath the samples */
   surface?: { grid: Grid; values: ArrayLike<number> };
 }
@@ -254,8 +256,10 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
   o.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" ${FONT}>`);
   o.push(`<rect width="${W}" height="${H}" fill="white"/>`);
   o.push(`<text x="${m.l}" y="28" font-size="19" font-weight="bold">${esc(input.label)} (${esc(input.unit)})</text>`);
-  const nLow = input.threshold === null ? 0 : Array.from(input.values).filter((v) => Number.isFinite(v) && v < (input.threshold as number)).length;
-  o.push(`<text x="${m.l}" y="46" font-size="13" fill="#444">${input.threshold === null ? 'samples coloured by value' : `${nLow} sample(s) below ${input.threshold} ${esc(input.unit)} ringed in red`}</text>`);
+  const isLow = (i: number) => input.threshold !== null && Number.isFinite(input.values[i]) && (input.values[i] < input.threshold || (Boolean(input.thresholdInclusive) && input.values[i] === input.threshold));
+  let nLow = 0;
+  for (let i = 0; i < input.values.length; i++) if (isLow(i)) nLow++;
+  o.push(`<text x="${m.l}" y="46" font-size="13" fill="#444">${input.threshold === null ? 'samples coloured by value' : `${nLow} sample(s) ${input.thresholdInclusive ? 'at or below' : 'below'} ${input.threshold} ${esc(input.unit)} ringed in red`}</text>`);
   if (input.surface) {
     // colours quantised to 48 steps and equal neighbours in a row merged into one rectangle (small files)
     const g = input.surface.grid;
@@ -286,7 +290,6 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
   // samples: others first, low on top
   const order: number[] = [];
   for (let i = 0; i < input.values.length; i++) if (Number.isFinite(input.values[i])) order.push(i);
-  const isLow = (i: number) => input.threshold !== null && input.values[i] < input.threshold;
   order.sort((a, b) => Number(isLow(a)) - Number(isLow(b)));
   const labels: string[] = [];
   // sample dots are obstacles for labels too

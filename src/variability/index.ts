@@ -192,15 +192,16 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
   let shareBelow: VariabilityReport['shareBelow'] = null;
   let areaShare: number | null = null;
   if (threshold) {
-    for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && values[i] < threshold.value) low.push(sampleAt(i));
+    const inc = Boolean(threshold.inclusive);
+    for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && (values[i] < threshold.value || (inc && values[i] === threshold.value))) low.push(sampleAt(i));
     low.sort((a, b) => a.value - b.value);
     let areaAc: number | null = null;
     if (surface) {
-      const a = areaShareBelow(surface.values, surface.fraction, threshold.value);
+      const a = areaShareBelow(surface.values, surface.fraction, threshold.value, inc);
       areaShare = a.share;
       areaAc = (a.belowCells * surface.cell * surface.cell) / 4046.8564224;
     }
-    shareBelow = { samples: sampleShareBelow(values, threshold.value), area: areaShare, areaAc };
+    shareBelow = { samples: sampleShareBelow(values, threshold.value, inc), area: areaShare, areaAc };
   }
 
   let sulphur: SulphurFindings | null = null;

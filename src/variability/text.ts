@@ -26,7 +26,7 @@ export function variabilityText(r: VariabilityReport): string {
   L.push(`  samples tested  ${s.n}${s.censoredBelow ? `  (${s.censoredBelow} below detection)` : ''}${s.censoredAbove ? `  (${s.censoredAbove} above range)` : ''}`);
   L.push(`  mean ${f(s.mean)}   median ${f(s.median)}   SD ${f(s.sd)}   CV ${f(100 * s.cv, 0)} %   min ${f(s.min)}   max ${f(s.max)}`);
   if (r.threshold) {
-    L.push(`  threshold       ${r.threshold.value} ${r.threshold.unit} ("low" is below it)`);
+    L.push(`  threshold       ${r.threshold.value} ${r.threshold.unit} ("low" is ${r.threshold.inclusive ? 'at or below' : 'below'} it)`);
     L.push(wrap(`source: ${r.threshold.source}`, '                  '));
     const sb = r.shareBelow;
     if (sb) L.push(`  below it        ${f(100 * sb.samples, 0)} % of samples; ${sb.area === null ? 'share of the mapped area: not computed (no surface)' : `${f(100 * sb.area, 0)} % of the mapped area (${f(sb.areaAc ?? NaN)} ac)`}`);
@@ -67,7 +67,7 @@ export function variabilityText(r: VariabilityReport): string {
   L.push(wrap(r.sampling.text, '  '));
   L.push('');
   if (r.threshold) {
-    L.push(`Low spots (below ${r.threshold.value} ${r.unit}): ${r.low.length ? '' : 'none among the samples'}`);
+    L.push(`Low spots (${r.threshold.inclusive ? 'at or below' : 'below'} ${r.threshold.value} ${r.unit}):${r.low.length ? '' : ' none among the samples'}`);
     for (const l of r.low) L.push(`  ${pad(l.id, 10)} ${lpad(f(l.value), 7)} ${r.unit}${l.censored < 0 ? ' (below detection)' : ''}   lat ${f(l.lat, 6)} lon ${f(l.lon, 6)}  (UTM ${f(l.x, 0)} E, ${f(l.y, 0)} N)`);
     L.push('');
   }

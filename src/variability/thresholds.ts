@@ -7,6 +7,8 @@ import type { Analyte, PMethod } from '../types.js';
 
 export interface Threshold {
   value: number;
+  /** true when the value itself counts as low (the source says "<= value"); default: only below it */
+  inclusive?: boolean;
   unit: string;
   source: string;
 }
@@ -27,8 +29,8 @@ export function defaultThreshold(analyte: Analyte, pMethod: PMethod = 'olsen'): 
       };
     case 'p':
       return pMethod === 'olsen'
-        ? { value: 10, unit: 'ppm Olsen P 0-6 in', source: '[published] Canola Council of Canada, Canola Encyclopedia: "low" is <= 10 ppm Olsen P' }
-        : { value: 17, unit: 'ppm modified Kelowna P 0-6 in', source: '[published] Canola Council of Canada, Canola Encyclopedia: "low" is <= 17 ppm modified Kelowna P' };
+        ? { value: 10, inclusive: true, unit: 'ppm Olsen P 0-6 in', source: '[published] Canola Council of Canada, Canola Encyclopedia: "low" is <= 10 ppm Olsen P' }
+        : { value: 17, inclusive: true, unit: 'ppm modified Kelowna P 0-6 in', source: '[published] Canola Council of Canada, Canola Encyclopedia: "low" is <= 17 ppm modified Kelowna P' };
     case 'k':
       return { value: 125, unit: 'ppm K 0-6 in', source: 'common practice: critical level about 125 ppm ammonium acetate K' };
     default:
