@@ -285,3 +285,20 @@ describe('text and map with a surface', () => {
     expect((svg.match(/<rect [^>]*opacity="0.8"/g) ?? []).length).toBe(3);
   });
 });
+
+describe('thresholds', () => {
+  it('P "low" is <= 10 ppm Olsen, <= 17 ppm modified Kelowna ([published] Canola Encyclopedia), so 10 itself counts', () => {
+    expect(defaultThreshold('p', 'olsen')).toMatchObject({ value: 10, inclusive: true });
+    expect(defaultThreshold('p', 'kelowna')).toMatchObject({ value: 17, inclusive: true });
+    expect(defaultThreshold('k')?.value).toBe(125); // common practice
+    expect(defaultThreshold('no3_n')).toBeNull();
+    const { samples, field } = syntheticField();
+    samples.values.p = new Float64Array(samples.ids.length).fill(30);
+    samples.values.p[3] = 10;
+    samples.values.p[4] = 10.5;
+    const r = analyzeVariability(samples, field, { nutrient: 'p' });
+    expect(r.low.map((l) => l.id)).toEqual(['S4']);
+    expect(sampleShareBelow([10, 11], 10, true)).toBe(0.5);
+    expect(areaShareBelow([10, 11], [1, 1], 10, true).share).toBe(0.5);
+  });
+});
