@@ -272,7 +272,7 @@ describe('text and map with a surface', () => {
   it('zone-composite samples are flagged', () => {
     const { samples, field } = syntheticField();
     samples.zone = samples.ids.map((_, i) => (i < 20 ? 'a' : 'b'));
-    expect(analyzeVariability(samples, field).warnings.map((w) => w.code)).toContain('variability-zone-composites');
+    expect(analyzeVariability(samples, field).warnings.map((w) => w.code)).toContain('variability.zone-composites');
   });
 
   it('a surface row of equal colours becomes one rectangle; cells outside the mask are not drawn', () => {

@@ -143,11 +143,11 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
   if (transform === 'log') {
     let dropped = 0;
     for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && !Number.isFinite(z[i])) dropped++;
-    if (dropped) warnings.push({ code: 'variability-log-nonpositive', message: `${dropped} ${nutrient} value(s) are 0 or negative and have no logarithm; they are left out of the semivariogram.`, field: nutrient });
+    if (dropped) warnings.push({ code: 'variability.log-nonpositive', message: `${dropped} ${nutrient} value(s) are 0 or negative and have no logarithm; they are left out of the semivariogram.`, field: nutrient });
   }
   if (samples.zone.some((k) => k !== null)) {
     warnings.push({
-      code: 'variability-zone-composites',
+      code: 'variability.zone-composites',
       message: 'these are zone-composite samples: each stands for a whole zone, not a point, so the semivariogram and the sampling advice describe the zone centres only. Grid or point samples are needed to measure variation within the zones.',
       field: nutrient,
     });
@@ -155,7 +155,7 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
   const xyUsed: number[] = [];
   for (let i = 0; i < values.length; i++) if (Number.isFinite(z[i])) xyUsed.push(samples.xy[2 * i], samples.xy[2 * i + 1]);
   if (xyUsed.length / 2 < 2) {
-    warnings.push({ code: 'variability-too-few', message: `only ${xyUsed.length / 2} sample(s) have a ${nutrient} value: no semivariogram can be computed.`, field: nutrient });
+    warnings.push({ code: 'variability.too-few', message: `only ${xyUsed.length / 2} sample(s) have a ${nutrient} value: no semivariogram can be computed.`, field: nutrient });
   }
   const sv = xyUsed.length >= 4
     ? semivariogram(samples.xy, z, { cutoff: opts.cutoff, width: opts.width })
@@ -163,16 +163,16 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
   const fewPairLags = sv.lag.filter((_, j) => sv.np[j] < MIN_PAIRS);
   if (fewPairLags.length) {
     warnings.push({
-      code: 'variability-few-pairs',
+      code: 'variability.few-pairs',
       message: `${fewPairLags.length} of ${sv.lag.length} semivariogram lags hold fewer than ${MIN_PAIRS} pairs (common practice: at least ${MIN_PAIRS}); their semivariances are unreliable and the fitted model with them. Lags: ${fewPairLags.map((k) => k + 1).join(', ')}.`,
       field: nutrient,
     });
   }
   const { fits, best } = sv.lag.length ? fitModels(sv, opts.fit) : { fits: [], best: null };
   const dependence = best ? spatialDependence(best.nugget, best.psill) : null;
-  if (!best) warnings.push({ code: 'variability-no-fit', message: `no semivariogram model could be fitted to ${nutrient}: ${fits.find((f) => f.problem)?.problem ?? 'too few lags'}.`, field: nutrient });
+  if (!best) warnings.push({ code: 'variability.no-fit', message: `no semivariogram model could be fitted to ${nutrient}: ${fits.find((f) => f.problem)?.problem ?? 'too few lags'}.`, field: nutrient });
   else if (best.effectiveRange > sv.cutoff) {
-    warnings.push({ code: 'variability-range-beyond-cutoff', message: `the fitted effective range (${best.effectiveRange.toFixed(0)} m) is beyond the largest distance examined (${sv.cutoff.toFixed(0)} m): it is an extrapolation and uncertain.`, field: nutrient });
+    warnings.push({ code: 'variability.range-beyond-cutoff', message: `the fitted effective range (${best.effectiveRange.toFixed(0)} m) is beyond the largest distance examined (${sv.cutoff.toFixed(0)} m): it is an extrapolation and uncertain.`, field: nutrient });
   }
   const noSill = !best && fits.some((f) => f.ok && f.rangeAtLimit);
   const sampling = samplingAdvice({

@@ -68,7 +68,7 @@ export function variabilityText(r: VariabilityReport): string {
   L.push('');
   if (r.threshold) {
     L.push(`Low spots (${r.threshold.inclusive ? 'at or below' : 'below'} ${r.threshold.value} ${r.unit}):${r.low.length ? '' : ' none among the samples'}`);
-    for (const l of r.low) L.push(`  ${pad(l.id, 10)} ${lpad(f(l.value), 7)} ${r.unit}${l.censored < 0 ? ' (below detection)' : ''}   lat ${f(l.lat, 6)} lon ${f(l.lon, 6)}  (UTM ${f(l.x, 0)} E, ${f(l.y, 0)} N)`);
+    for (const l of r.low) L.push(`  ${pad(l.id, 10)} ${lpad(f(l.value), 7)} ${r.unit}${l.censored < 0 ? ' (below detection; half the limit used)' : l.censored > 0 ? ' (above range)' : ''}   lat ${f(l.lat, 6)} lon ${f(l.lon, 6)}  (UTM ${f(l.x, 0)} E, ${f(l.y, 0)} N)`);
     L.push('');
   }
   if (r.sulphur) {
