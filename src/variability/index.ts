@@ -46,6 +46,8 @@ export interface SurfaceForShare {
   fraction: ArrayLike<number>;
   /** cell size, metres */
   cell: number;
+  /** how the surface was made, for people (e.g. "IDW power 2, 12 neighbours, chosen by cross-validation") */
+  note?: string;
 }
 
 export interface LowSample {
@@ -83,7 +85,7 @@ export interface VariabilityReport {
   stats: Description & { censoredBelow: number; censoredAbove: number };
   threshold: Threshold | null;
   /** share below the threshold: of the samples, and of the interpolated area when a surface was given */
-  shareBelow: { samples: number; area: number | null; areaAc: number | null } | null;
+  shareBelow: { samples: number; area: number | null; areaAc: number | null; surface: string | null } | null;
   transform: 'none' | 'log';
   semivariogram: Semivariogram;
   /** lag numbers holding fewer than 30 pairs */
@@ -201,7 +203,7 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
       areaShare = a.share;
       areaAc = (a.belowCells * surface.cell * surface.cell) / 4046.8564224;
     }
-    shareBelow = { samples: sampleShareBelow(values, threshold.value, inc), area: areaShare, areaAc };
+    shareBelow = { samples: sampleShareBelow(values, threshold.value, inc), area: areaShare, areaAc, surface: surface ? surface.note ?? 'interpolated surface' : null };
   }
 
   let sulphur: SulphurFindings | null = null;
