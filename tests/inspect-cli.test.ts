@@ -55,7 +55,7 @@ describe('tilth inspect', () => {
   it('--help has an example', () => {
     const r = tilth(['inspect', '--help']);
     expect(r.code).toBe(0);
-    expect(r.stdout).toMatch(/Example:\n\s+tilth inspect --samples/);
+    expect(r.stdout).toMatch(/Examples:\n\s+tilth inspect --samples/);
   });
 });
 
@@ -66,6 +66,7 @@ describe('bad inputs: exit 2, a message naming the problem and the fix, no stack
     ['boundary in UTM metres as GeoJSON', ['--samples', S, '--boundary', `${BAD}/boundary-utm-metres.geojson`], /not a longitude\/latitude; it looks like projected metres.*Fix: reproject/],
     ['boundary with a projected crs member', ['--samples', S, '--boundary', `${BAD}/boundary-utm-crs.geojson`], /EPSG::32613.*must be WGS 84/],
     ['self-intersecting boundary', ['--samples', S, '--boundary', `${BAD}/self-intersecting.geojson`], /crosses itself.*Fix: redraw/],
+    ['zero-area boundary', ['--samples', S, '--boundary', `${BAD}/zero-area.geojson`], /has no area.*Fix: draw the boundary again/],
     ['unclosed ring', ['--samples', S, '--boundary', `${BAD}/unclosed.geojson`], /not closed.*Fix: repeat the first point/],
     ['text in a numeric CSV column', ['--samples', `${BAD}/text-in-number.csv`, '--boundary', B], /row 9 \(sample "HQ-03"\), column "SO4-S \(lb\/ac\)": "high" is not a number\. Fix:/],
     ['duplicate ids', ['--samples', `${BAD}/duplicate-ids.csv`, '--boundary', B], /sample id "HQ-01" is used twice.*Fix:/],

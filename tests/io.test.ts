@@ -166,3 +166,24 @@ describe('units printed in cells', () => {
     userError(() => buildSamples(readCsvRecords(clash, 't.csv', [])), /header says lb\/ac/);
   });
 });
+
+describe('layers to canonical units (property)', () => {
+  it('nitrate 0-6 + 6-24 in ppm equals 2 x ppm(0-6) + 6 x ppm(6-24) lb/ac; P and K stay ppm', () => {
+    // source: Manitoba Agriculture, Soil Fertility Guide: x2 per 6 in of depth (0-6 in x2, 6-24 in x6)
+    const v = fc.integer({ min: 0, max: 2000 }).map((x) => x / 10);
+    fc.assert(fc.property(fc.array(fc.tuple(v, v, v, v), { minLength: 1, maxLength: 6 }), (rows) => {
+      let text = 'Sample,Lat,Long,Depth (in),NO3-N (ppm),SO4-S (lb/ac),P Olsen (ppm),K (ppm)\n';
+      rows.forEach(([a, b, c, d], i) => {
+        const lat = (52.3 + i * 0.001).toFixed(4);
+        text += `S${i},${lat},-106.4,0-6,${a},${c},${b},${d}\nS${i},${lat},-106.4,6-24,${b},${d},,\n`;
+      });
+      const s = buildSamples(readCsvRecords(text, 't.csv', [])).samples;
+      rows.forEach(([a, b, c, d], i) => {
+        expect(s.values.no3_n[i]).toBeCloseTo(2 * a + 6 * b, 9);
+        expect(s.values.so4_s[i]).toBeCloseTo(c + d, 9);
+        expect(s.values.p[i]).toBe(b);
+        expect(s.values.k[i]).toBe(d);
+      });
+    }), { seed: 9, numRuns: 100 });
+  });
+});

@@ -66,7 +66,30 @@ describe('prepareInputs', () => {
     userError(() => prepareInputs(file('s.geojson', JSON.stringify(gj)), Q('boundary.geojson')), /same place/);
     const sw = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/samples.geojson'), 'utf8'));
     for (const f of sw.features) f.geometry.coordinates.reverse();
-    userError(() => prepareInputs(file('s.geojson', JSON.stringify(sw)), Q('boundary.geojson')), /far from the boundary|not a longitude/);
+    userError(() => prepareInputs(file('s.geojson', JSON.stringify(sw)), Q('boundary.geojson')), /look swapped/);
+  });
+
+  it('zone composites drawn as their zone polygons give the same samples and zones as points + --zones', () => {
+    const Z = (f: string) => readFileSync(join(ROOT, 'sample-fields/zoned', f), 'utf8');
+    const zones = JSON.parse(Z('zones.geojson'));
+    const pts = JSON.parse(Z('samples.geojson'));
+    const polys = { type: 'FeatureCollection', features: pts.features.map((f: { properties: { zone: string } }) => ({
+      type: 'Feature', properties: f.properties,
+      geometry: zones.features.find((z: { properties: { zone: string } }) => z.properties.zone === f.properties.zone).geometry,
+    })) };
+    const a = prepareInputs(file('s.geojson', Z('samples.geojson')), file('b.geojson', Z('boundary.geojson')), file('z.geojson', Z('zones.geojson')));
+    const b = prepareInputs(file('p.geojson', JSON.stringify(polys)), file('b.geojson', Z('boundary.geojson')));
+    expect(b.zones!.keys).toEqual(a.zones!.keys);
+    expect(b.samples.values).toEqual(a.samples.values);
+    expect(b.samples.zone).toEqual(a.samples.zone);
+    expect(b.zones!.lonlat).toEqual(a.zones!.lonlat);
+    userError(() => prepareInputs(file('p.geojson', JSON.stringify(polys)), file('b.geojson', Z('boundary.geojson')), file('z.geojson', Z('zones.geojson'))), /zones once/);
+  });
+
+  it('a boundary with [latitude, longitude] order is named as swapped', () => {
+    const gj = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8'));
+    for (const ring of gj.features[0].geometry.coordinates) for (const p of ring) p.reverse();
+    userError(() => prepareInputs(Q('samples.geojson'), file('b.geojson', JSON.stringify(gj))), /latitude and longitude swapped/);
   });
 
   it('zone composites: keys checked against the zone polygons', () => {
@@ -76,5 +99,41 @@ describe('prepareInputs', () => {
     expect(r.samples.zone).toEqual(['knoll', 'midslope', 'lowland', 'east-bench']);
     const bad = readFileSync(join(ROOT, 'sample-fields/zoned/samples.csv'), 'utf8').replace(/,knoll,/g, ',hilltop,');
     userError(() => prepareInputs(file('s.csv', bad), Z('boundary.geojson'), Z('zones.geojson')), /zone "hilltop" is not among/);
+  });
+});
+
+describe('robustness: a damaged input is a user error, never a crash (property)', () => {
+  const csv = readFileSync(join(ROOT, 'sample-fields/quarter/samples.csv'), 'utf8').split('\n');
+  const boundary = readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8');
+  const junk = fc.oneof(fc.constantFrom('', '-', '<', '>x', '1e999', 'NaN', '-0', '0-6', '6-24', '24-6', '"', ',', 'HQ-01', '999', '-106.4', '52.3', '<2', 'ppm', '12 ppm', '5 lb/ac'), fc.string({ maxLength: 5 }));
+  it('one CSV cell replaced by junk', () => {
+    fc.assert(fc.property(fc.integer({ min: 2, max: csv.length - 2 }), fc.integer({ min: 0, max: 12 }), junk, (row, col, v) => {
+      const lines = [...csv];
+      const cells = lines[row].split(',');
+      cells[Math.min(col, cells.length - 1)] = v;
+      lines[row] = cells.join(',');
+      try {
+        prepareInputs(file('s.csv', lines.join('\n')), file('b.geojson', boundary));
+      } catch (e) {
+        if (!isUserError(e)) throw e;
+      }
+    }), { seed: 21, numRuns: 300 });
+  });
+
+  it('the boundary GeoJSON cut or with one number replaced', () => {
+    fc.assert(fc.property(fc.integer({ min: 0, max: boundary.length }), fc.oneof(fc.constant(null), fc.constantFrom('0', '1e9', '-999', '"x"', 'null', '[]', '{}')), (at, repl) => {
+      let text: string;
+      if (repl === null) text = boundary.slice(0, at);
+      else {
+        const nums = [...boundary.matchAll(/-?\d+\.\d+/g)];
+        const m = nums[at % nums.length];
+        text = boundary.slice(0, m.index) + repl + boundary.slice(m.index! + m[0].length);
+      }
+      try {
+        prepareInputs(file('s.csv', csv.join('\n')), file('b.geojson', text));
+      } catch (e) {
+        if (!isUserError(e)) throw e;
+      }
+    }), { seed: 22, numRuns: 300 });
   });
 });

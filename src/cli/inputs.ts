@@ -9,14 +9,16 @@ import { prepareInputs, type PolygonSource, type SampleSource } from '../validat
 import { readShapefile, shapefileFromZip, shapefilePoints, shapefilePolygons, type ShapefileParts } from '../io/shapefile.js';
 import { existsSync, readdirSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
-import { readInput } from './util.js';
+import type { Command } from 'commander';
+import { UserError } from '../errors.js';
+import { numberOption, readInput } from './util.js';
 
 export interface InputOptions {
   /** samples file: .geojson/.json, .csv (lab style), .shp (with .dbf/.prj/.cpg beside), or .zip */
   samples: string;
   /** boundary file: .geojson/.json, .shp or .zip */
   boundary: string;
-  /** zone polygons for zone-composite samples (optional) */
+  /** zone polygons for zone-composite samples (optional; a GeoJSON samples file of zone polygons carries its own) */
   zones?: string;
   /** CSV column map "id=Sample ID,lat=Latitude,..." (optional; headers are detected otherwise) */
   columns?: string;
@@ -60,6 +62,7 @@ function shapefileParts(path: string, what: string): ShapefileParts {
 /**
  * Reads any shapefile inputs (.shp or .zip) ahead of loadInputs; the CLI calls it from a preAction hook
  * (src/cli/main.ts) for every command with --samples / --boundary / --zones, so commands stay synchronous.
+ * @example await preloadInputs({ samples: 'samples.zip', boundary: 'field.shp' }); loadInputs({ samples: 'samples.zip', boundary: 'field.shp' })
  */
 export async function preloadInputs(opts: Partial<InputOptions>): Promise<void> {
   for (const [path, what] of [[opts.samples, 'samples'], [opts.boundary, 'boundary'], [opts.zones, 'zones']] as const) {
@@ -82,7 +85,12 @@ function polygonSource(path: string, what: string): PolygonSource {
   return { name: path, bytes: readInput(path, what) };
 }
 
-/** Reads, validates and projects the inputs. Throws UserError for anything the user must fix. */
+/**
+ * Reads, validates and projects the inputs. Throws UserError for anything the user must fix.
+ * Defaults: no depth factor (0-6 in only is an error), samples outside the boundary kept with a warning,
+ * shapefiles without .prj refused, P method from the file (else an error).
+ * @example const inp = loadInputs({ samples: 'sample-fields/quarter/samples.csv', boundary: 'sample-fields/quarter/boundary.geojson' });
+ */
 export function loadInputs(opts: InputOptions): FieldInputs {
   return prepareInputs(samplesSource(opts.samples), polygonSource(opts.boundary, 'boundary'), opts.zones ? polygonSource(opts.zones, 'zones') : undefined, {
     columns: opts.columns,
@@ -90,4 +98,44 @@ export function loadInputs(opts: InputOptions): FieldInputs {
     dropOutside: opts.dropOutside,
     pMethod: opts.pMethod,
   });
+}
+
+/**
+ * Adds the input options every command that loads a field shares: --samples and --boundary (required),
+ * --zones, --columns, --p-method, --depth-factor, --drop-outside, --assume-wgs84. Pair with inputOptionsFrom.
+ * @example addInputOptions(program.command('surface')).action((o) => { const inp = loadInputs(inputOptionsFrom(o)); ... })
+ */
+export function addInputOptions(cmd: Command): Command {
+  return cmd
+    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
+    .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
+    .option('--zones <file>', 'zone polygons that zone-composite samples are keyed to (.geojson, .shp, .zip)')
+    .option('--columns <map>', 'CSV column map, e.g. "id=Sample ID,lat=Lat,lon=Long,p=P Olsen:ppm" (headers are recognised otherwise)')
+    .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
+    .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
+    .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
+    .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)');
+}
+
+/**
+ * Turns the parsed options of addInputOptions into InputOptions, checking their values (UserError).
+ * @example loadInputs(inputOptionsFrom(cmd.opts()))
+ */
+export function inputOptionsFrom(o: Record<string, unknown>): InputOptions {
+  let pMethod: PMethod | undefined;
+  if (o.pMethod !== undefined) {
+    const m = String(o.pMethod).toLowerCase();
+    if (m !== 'olsen' && m !== 'kelowna') throw new UserError(`option --p-method: "${o.pMethod}" is not olsen or kelowna. Fix: give --p-method olsen or --p-method kelowna.`);
+    pMethod = m;
+  }
+  return {
+    samples: String(o.samples),
+    boundary: String(o.boundary),
+    zones: o.zones === undefined ? undefined : String(o.zones),
+    columns: o.columns === undefined ? undefined : String(o.columns),
+    pMethod,
+    depthFactor: numberOption('--depth-factor', o.depthFactor as string | undefined, { min: 1, max: 10 }),
+    dropOutside: Boolean(o.dropOutside),
+    assumeWgs84: Boolean(o.assumeWgs84),
+  };
 }

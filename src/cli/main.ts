@@ -9,6 +9,11 @@ import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
 import * as variability from './variability.js';
 import { preloadInputs } from './inputs.js';
+import * as check from './check.js';
+import * as report from './report.js';
+import * as plan from './plan.js';
+import * as rates from './rates.js';
+import * as tables from './tables.js';
 
 const program = new Command();
 program
@@ -19,7 +24,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect, variability]) cmd.register(program);
+for (const cmd of [inspect, check, report, plan, rates, tables, variability]) cmd.register(program);
 
 // shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
 program.hook('preAction', async (_program, action) => {

@@ -35,7 +35,10 @@ export interface ColumnMapEntry {
 /** A user column map: entries in the order given. Analyte keys may repeat (one column per depth). */
 export type ColumnMap = ColumnMapEntry[];
 
-/** Parses a unit word; null when none is recognised. */
+/**
+ * Parses a unit word; null when none is recognised.
+ * @example parseUnit('lb/ac') // 'lbac'
+ */
 export function parseUnit(s: string): ValueUnit | null {
   const t = s.toLowerCase().replace(/\s+/g, '');
   if (/^(ppm|mg\/kg|mgkg|µg\/g|ug\/g)$/.test(t)) return 'ppm';

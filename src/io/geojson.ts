@@ -3,6 +3,7 @@
  * Structure only; ranges, rings and topology are judged in src/validate.
  */
 import { UserError } from '../errors.js';
+import { pointOnFeature } from '@turf/turf';
 import type { RawPolygons, RawRecord, RawTable, RawValue } from './records.js';
 
 type Json = Record<string, unknown>;
@@ -33,7 +34,7 @@ export function parseGeoJson(text: string, file: string): Json {
   }
   if ((v as Json).crs !== undefined) {
     const name = JSON.stringify(((v as Json).crs as Json)?.properties ?? (v as Json).crs);
-    if (!/4326|CRS84|WGS ?84/i.test(name)) {
+    if (!/4326|4269|4617|CRS84|CRS83|WGS ?84/i.test(name)) {
       throw new UserError(
         `${file} declares the coordinate system ${name}; GeoJSON must be WGS 84 longitude/latitude (RFC 7946). ` +
           'Fix: export it again with longitude/latitude (EPSG:4326), e.g. `ogr2ogr -t_srs EPSG:4326 out.geojson in.geojson`.',
@@ -74,7 +75,9 @@ function isPos(p: unknown): p is number[] {
 }
 
 /**
- * Point records (soil samples) from GeoJSON text. Point geometries only (a MultiPoint with one point is accepted).
+ * Point records (soil samples) from GeoJSON text. Point geometries (a MultiPoint with one point is accepted);
+ * or, for zone-composite samples, Polygon/MultiPolygon features, each a zone with its sample's values
+ * (`polygons` is then set and each record's position is a point inside its zone).
  * @example readGeoJsonPoints(text, 'samples.geojson').records[0].props.sample_id
  */
 export function readGeoJsonPoints(text: string, file: string): RawTable {
@@ -82,23 +85,41 @@ export function readGeoJsonPoints(text: string, file: string): RawTable {
   const fs = features(obj, file);
   const columns: string[] = [];
   const seen = new Set<string>();
+  const isPoly = (g: Json | null) => g !== null && (g.type === 'Polygon' || g.type === 'MultiPolygon');
+  const polys = fs.length > 0 && fs.every((f) => isPoly(f.geometry));
+  if (!polys && fs.some((f) => isPoly(f.geometry))) {
+    const f = fs.find((x) => isPoly(x.geometry))!;
+    throw new UserError(
+      `${file} ${f.where}: samples mix points and polygons. Fix: give either one point per sample, or one zone polygon per composite sample (or the zones in their own file with --zones).`,
+      { file, where: f.where },
+    );
+  }
+  const polygons: number[][][][][] = [];
   const records: RawRecord[] = fs.map((f) => {
     for (const k of Object.keys(f.props)) if (!seen.has(k)) { seen.add(k); columns.push(k); }
     const g = f.geometry;
     let c: unknown = null;
-    if (g && g.type === 'Point') c = g.coordinates;
+    if (polys) {
+      const mp = polygonsOf(g, file, f.where, 'sample zone');
+      polygons.push(mp);
+      try {
+        c = pointOnFeature({ type: 'Feature', properties: {}, geometry: { type: 'MultiPolygon', coordinates: mp } }).geometry.coordinates;
+      } catch {
+        c = mp[0]?.[0]?.[0] ?? null;
+      }
+    } else if (g && g.type === 'Point') c = g.coordinates;
     else if (g && g.type === 'MultiPoint' && Array.isArray(g.coordinates) && g.coordinates.length === 1) c = g.coordinates[0];
     else {
       throw new UserError(
-        `${file} ${f.where}: a soil sample must be a Point, not ${g ? String(g.type) : 'a feature without geometry'}. ` +
+        `${file} ${f.where}: a soil sample must be a Point (or a zone Polygon for a composite), not ${g ? String(g.type) : 'a feature without geometry'}. ` +
           'Fix: give each sample as one point where it was taken.',
         { file, where: f.where },
       );
     }
-    if (!isPos(c)) throw new UserError(`${file} ${f.where}: the point has no valid [longitude, latitude] coordinates. Fix: export the layer again.`, { file, where: f.where });
+    if (!isPos(c)) throw new UserError(`${file} ${f.where}: the sample has no valid [longitude, latitude] coordinates. Fix: export the layer again.`, { file, where: f.where });
     return { where: f.where, lon: c[0], lat: c[1], props: f.props };
   });
-  return { file, columns, records };
+  return polys ? { file, columns, records, polygons } : { file, columns, records };
 }
 
 /**

@@ -25,6 +25,11 @@ export interface RawTable {
   records: RawRecord[];
   /** a CRS stated by the file (.prj WKT), if any */
   crs?: string;
+  /**
+   * When the samples are zone polygons (composite samples drawn as their zones): per record its MultiPolygon
+   * coordinates; the record's lon/lat is then a point inside it.
+   */
+  polygons?: number[][][][][];
 }
 
 /** One polygon feature as read: MultiPolygon coordinates (lon/lat as read, not yet checked). */

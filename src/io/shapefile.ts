@@ -94,7 +94,10 @@ export function shapefileFromZip(bytes: Uint8Array, name: string): ShapefilePart
   return { name: `${name} (${shps[0]})`, shp: files[shps[0]], dbf: get('.dbf'), prj: dec(get('.prj')), cpg: dec(get('.cpg')) };
 }
 
-/** Text encoding for the .dbf from a .cpg ("UTF-8", "1252", "ISO-8859-1" ...); windows-1252 without one. */
+/**
+ * Text encoding for the .dbf from a .cpg ("UTF-8", "1252", "ISO-8859-1" ...); windows-1252 without one.
+ * @example encodingFromCpg('1252') // 'windows-1252'
+ */
 export function encodingFromCpg(cpg: string | undefined): string {
   if (!cpg || !cpg.trim()) return 'windows-1252';
   const c = cpg.trim().toLowerCase();
@@ -108,7 +111,9 @@ interface ShpFeature { where: string; props: Record<string, RawValue>; geometry:
 
 /**
  * Reads all features of a shapefile, in WGS 84 longitude/latitude.
+ * @param opts assumeWgs84 (default false): read a shapefile without .prj as WGS 84
  * @throws UserError for a missing or unreadable part, an unknown .prj, or no .prj without assumeWgs84
+ * @example const r = await readShapefile({ name: 'b.shp', shp, dbf, prj }); r.features[0].geometry
  */
 export async function readShapefile(parts: ShapefileParts, opts: ShapefileOptions = {}): Promise<{ file: string; features: ShpFeature[]; crs: string }> {
   const file = parts.name;
@@ -154,7 +159,10 @@ export async function readShapefile(parts: ShapefileParts, opts: ShapefileOption
   return { file, features, crs: crsText };
 }
 
-/** Shapefile points to sample records (for src/validate/samples.ts). */
+/**
+ * Shapefile points to sample records (for src/validate/samples.ts).
+ * @example buildSamples(shapefilePoints(await readShapefile(parts)))
+ */
 export function shapefilePoints(r: { file: string; features: ShpFeature[]; crs: string }): RawTable {
   const columns: string[] = [];
   for (const f of r.features) for (const k of Object.keys(f.props)) if (!columns.includes(k)) columns.push(k);
@@ -176,7 +184,10 @@ export function shapefilePoints(r: { file: string; features: ShpFeature[]; crs: 
   };
 }
 
-/** Shapefile polygons to polygon features (boundary or zones). */
+/**
+ * Shapefile polygons to polygon features (boundary or zones).
+ * @example shapefilePolygons(await readShapefile(parts), 'boundary').features[0].coordinates
+ */
 export function shapefilePolygons(r: { file: string; features: ShpFeature[] }, what: string): RawPolygons {
   return {
     file: r.file,

@@ -58,7 +58,10 @@ export function inspectInputs(inp: FieldInputs): Inspection {
 
 const fmt = (v: number, d: number) => (Number.isFinite(v) ? v.toFixed(d) : '-');
 
-/** Plain-text table of an Inspection. */
+/**
+ * Plain-text table of an Inspection, as `tilth inspect` prints it.
+ * @example console.log(formatInspection(inspectInputs(inputs)))
+ */
 export function formatInspection(r: Inspection): string {
   const f = r.field, s = r.samples;
   const lines = [

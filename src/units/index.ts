@@ -65,3 +65,7 @@ export function thaToBuac(tPerHa: number, lbPerBu: number): number {
 export type RateUnit = 'lb/ac' | 'kg/ha';
 /** Converts a rate held in lb/ac into the requested unit. */
 export const rateIn = (lbac: number, unit: RateUnit): number => (unit === 'kg/ha' ? lbacToKgha(lbac) : lbac);
+
+/** Metres per international foot, exact by definition [published] international yard and pound agreement (1959). */
+export const M_PER_FT = 0.3048;
+export const mToFt = (m: number): number => m / M_PER_FT;

@@ -33,6 +33,13 @@ export function checkPolygonsLonLat(src: RawPolygons, what: string): { coordinat
           if (!Number.isFinite(x) || !Number.isFinite(y)) {
             throw new UserError(`${file} ${at}, point ${k + 1}: coordinate [${x}, ${y}] is not a number. Fix: export the ${what} again.`, { file, where: at });
           }
+          if (Math.abs(y) > 90 && Math.abs(y) <= 180 && Math.abs(x) <= 90) {
+            throw new UserError(
+              `${file} ${at}, point ${k + 1}: [${x}, ${y}] has latitude and longitude swapped (GeoJSON is [longitude, latitude]). ` +
+                `Fix: export the ${what} again with longitude first, e.g. \`ogr2ogr -f GeoJSON ${what}-fixed.geojson ${file}\` from the original file.`,
+              { file, where: at, value: [x, y] },
+            );
+          }
           if (Math.abs(x) > 180 || Math.abs(y) > 90) {
             throw new UserError(
               `${file} ${at}, point ${k + 1}: [${x}, ${y}] is not a longitude/latitude; it looks like projected metres (e.g. UTM easting, northing). ` +
@@ -71,6 +78,7 @@ export function checkPolygonsLonLat(src: RawPolygons, what: string): { coordinat
  * Checks a projected boundary: no ring crosses itself or another ring, holes lie inside their outer ring,
  * and the area is positive.
  * @param where one label per part, from checkPolygonsLonLat
+ * @example checkPartsMetres(field.parts, checked.where, 'boundary.geojson', 'boundary') // throws UserError or returns
  */
 export function checkPartsMetres(parts: RingsPart[], where: string[], file: string, what: string): void {
   const rings: Float64Array[] = [];
@@ -78,6 +86,11 @@ export function checkPartsMetres(parts: RingsPart[], where: string[], file: stri
   parts.forEach((p, i) => {
     rings.push(p.exterior); names.push(`${where[i]}, outer ring`);
     p.holes.forEach((h, j) => { rings.push(h); names.push(`${where[i]}, hole ${j + 1}`); });
+  });
+  rings.forEach((r, k) => {
+    if (fanArea(r) < Math.max(1, 1e-4 * perimeter(r) ** 2)) {
+      throw new UserError(`${file} ${names[k]}: the ring has no area (its points lie on one line, or it is a sliver far thinner than any field). Fix: draw the ${what} again.`, { file, where: names[k] });
+    }
   });
   const x = findCrossing(rings);
   if (x) {
@@ -110,4 +123,20 @@ function pointInRing(r: Float64Array, x: number, y: number): boolean {
     if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
   }
   return inside;
+}
+
+/** Sum of |triangle areas| of the fan from the first point: 0 exactly when all points lie on one line. */
+function fanArea(r: Float64Array): number {
+  const n = r.length >> 1;
+  let a = 0;
+  for (let i = 1; i + 1 < n; i++) {
+    a += Math.abs((r[2 * i] - r[0]) * (r[2 * i + 3] - r[1]) - (r[2 * i + 2] - r[0]) * (r[2 * i + 1] - r[1]));
+  }
+  return a / 2;
+}
+
+function perimeter(r: Float64Array): number {
+  let p = 0;
+  for (let i = 0; i + 3 < r.length; i += 2) p += Math.hypot(r[i + 2] - r[i], r[i + 3] - r[i + 1]);
+  return p;
 }

@@ -31,10 +31,20 @@ export interface PrepareOptions {
 export type SampleSource = InputFile | RawTable;
 export type PolygonSource = InputFile | RawPolygons;
 
-const text = (f: InputFile) => new TextDecoder('utf-8').decode(f.bytes);
+const text = (f: InputFile) => {
+  const ext = f.name.toLowerCase().split('.').pop();
+  if (ext === 'dbf' || ext === 'shx' || ext === 'prj' || ext === 'cpg' || ext === 'qmd' || ext === 'sbn') {
+    throw new UserError(`${f.name} is one of the files beside a shapefile. Fix: give the .shp file (the others are found beside it), or a .zip of them all.`, { file: f.name });
+  }
+  return new TextDecoder('utf-8').decode(f.bytes);
+};
 const isFile = (x: object): x is InputFile => 'bytes' in x;
 
-/** Reads sample records from a GeoJSON or CSV file (by extension; content sniffed when unclear). */
+/**
+ * Reads sample records from a GeoJSON or CSV file (by extension; content sniffed when unclear).
+ * @param columns the --columns map text, for CSV header detection
+ * @example readSampleRecords({ name: 'samples.csv', bytes }).records.length
+ */
 export function readSampleRecords(src: SampleSource, columns?: string): RawTable {
   if (!isFile(src)) return src;
   const t = text(src);
@@ -44,7 +54,10 @@ export function readSampleRecords(src: SampleSource, columns?: string): RawTable
   throw new UserError(`${src.name}: tilth reads samples from .geojson, .json, .csv, .shp or .zip (shapefile) files. Fix: export the samples in one of these formats.`, { file: src.name });
 }
 
-/** Reads polygons (boundary or zones) from a GeoJSON file. */
+/**
+ * Reads polygons (boundary or zones) from a GeoJSON file; already-read polygons pass through.
+ * @example readPolygonSource({ name: 'boundary.geojson', bytes }, 'boundary').features.length
+ */
 export function readPolygonSource(src: PolygonSource, what: string): RawPolygons {
   if (!isFile(src)) return src;
   const ext = src.name.toLowerCase().split('.').pop();
@@ -78,6 +91,13 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
   let s = built.samples;
   for (let i = 0; i < s.ids.length; i++) {
     const lon = s.lonlat[2 * i], lat = s.lonlat[2 * i + 1];
+    if (Math.abs(lat) > 90 && Math.abs(lat) <= 180 && Math.abs(lon) <= 90) {
+      throw new UserError(
+        `${table.file} sample "${s.ids[i]}" (${s.origin[i].replace(table.file + ' ', '')}): latitude ${lat} and longitude ${lon} look swapped. ` +
+          'Fix: swap the latitude and longitude columns (or name them with --columns "lat=...,lon=...").',
+        { file: table.file, where: s.ids[i], value: [lon, lat] },
+      );
+    }
     if (Math.abs(lon) > 180 || Math.abs(lat) > 90) {
       throw new UserError(
         `${table.file} sample "${s.ids[i]}" (${s.origin[i].replace(table.file + ' ', '')}): position [${lon}, ${lat}] is not a longitude/latitude; it looks like projected metres. ` +
@@ -90,6 +110,8 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
     }
   }
   let xy = proj.forward(s.lonlat);
+  /** for each sample now in s, its index in built.samples (changes when --drop-outside drops some) */
+  let kept = s.ids.map((_, i) => i);
 
   // far away from the field: a swapped lat/lon or the wrong file
   const [x0, y0, x1, y1] = field.bbox;
@@ -115,6 +137,7 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
       const keep = s.ids.map((_, i) => i).filter((i) => !outside.includes(i));
       s = subset(s, keep);
       xy = subsetXY(xy, keep);
+      kept = keep;
     } else {
       warnings.push({
         code: 'outside-boundary', file: table.file, where: outIds.join(','),
@@ -140,7 +163,20 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
 
   // zones
   let zones: SampleZones | null = null;
-  if (zonesSrc) {
+  if (table.polygons && zonesSrc) {
+    throw new UserError(`${table.file}: the samples are zone polygons and --zones also gives zones. Fix: give the zones once: either drop --zones, or give the samples as points keyed to the zones.`, { file: table.file });
+  }
+  if (table.polygons) {
+    // zone-composite samples drawn as their zones: each sample's polygon is its zone, keyed by its zone value or id
+    const polys = kept.map((i) => table.polygons![built.firstRecord[i]]);
+    const keys = s.ids.map((id, i) => s.zone[i] ?? id);
+    if (new Set(keys).size !== keys.length) {
+      throw new UserError(`${table.file}: two sample polygons have the same zone key. Fix: give each zone polygon its own zone key.`, { file: table.file });
+    }
+    const zoneFeatures: RawPolygons = { file: table.file, features: keys.map((k, i) => ({ where: `sample "${s.ids[i]}"`, props: { zone: k }, coordinates: polys[i] })) };
+    zones = readZones(zoneFeatures, proj.forward);
+    keys.forEach((k, i) => { s.zone[i] = k; });
+  } else if (zonesSrc) {
     zones = readZones(zonesSrc, proj.forward);
     const zset = new Set(zones.keys);
     for (let i = 0; i < s.ids.length; i++) {

@@ -32,7 +32,10 @@ const TEXTURES: Record<string, Texture> = {
   heavy: 'heavy', fine: 'heavy', clay: 'heavy', 'clay loam': 'heavy', 'silty clay': 'heavy', 'silty clay loam': 'heavy', 'sandy clay': 'heavy', 'heavy clay': 'heavy', h: 'heavy',
 };
 
-/** Parses a texture class word (light/medium/heavy, or a USDA/CSSC class name). null when blank. */
+/**
+ * Parses a texture class word (light/medium/heavy, or a soil texture class name); null when blank, 'bad' when unknown.
+ * @example parseTexture('Clay Loam') // 'heavy'
+ */
 export function parseTexture(raw: unknown): Texture | null | 'bad' {
   if (raw === null || raw === undefined) return null;
   const s = String(raw).trim().toLowerCase().replace(/[\s_-]+/g, ' ');
@@ -61,10 +64,11 @@ interface Layer { top: number; bottom: number; value: number; censor: Censor; wh
 
 /**
  * Builds samples from a table of records.
+ * @returns samples, warnings, and for each sample the index of its first record in the table
  * @throws UserError for anything that cannot be read unambiguously (see docs/method.md "Reading samples")
  * @example const { samples, warnings } = buildSamples(readCsvRecords(text, 'samples.csv', []), {});
  */
-export function buildSamples(table: RawTable, opts: SampleOptions = {}): { samples: SamplesLonLat; warnings: Warning[] } {
+export function buildSamples(table: RawTable, opts: SampleOptions = {}): { samples: SamplesLonLat; warnings: Warning[]; firstRecord: number[] } {
   const file = table.file;
   const warnings: Warning[] = [];
   const plan = planColumns(table.columns, opts.map ?? [], file);
@@ -317,10 +321,13 @@ export function buildSamples(table: RawTable, opts: SampleOptions = {}): { sampl
     const miss = ids.filter((_, s) => Number.isNaN(values[a][s]));
     if (miss.length) warnings.push({ code: 'missing-value', file, field: a, message: `${file}: ${miss.length} sample(s) have no ${ANALYTE_NAMES[a]} value (${abbrev(miss)}).` });
   }
-  return { samples: { ids, lonlat, values, censored, texture, zone, pMethod, origin }, warnings };
+  return { samples: { ids, lonlat, values, censored, texture, zone, pMethod, origin }, warnings, firstRecord: ids.map((id) => groups.get(id)![0]) };
 }
 
-/** "a, b, c and 4 more" */
+/**
+ * Shortens a list for a message.
+ * @example abbrev(['a', 'b', 'c'], 2) // 'a, b and 1 more'
+ */
 export function abbrev(list: string[], max = 8): string {
   return list.length <= max ? list.join(', ') : `${list.slice(0, max).join(', ')} and ${list.length - max} more`;
 }

@@ -1,0 +1,162 @@
+/**
+ * The plan: the user's choices for one field and season, validated once at the edge.
+ * Rate-engine keys plus the zoning, machine and output sections the later stages read.
+ */
+import { parse as parseYaml } from 'yaml';
+import { z } from 'zod';
+import { UserError } from '../errors.js';
+import { PLACEMENTS, type Tables } from './tables.js';
+
+const placement = z.enum(PLACEMENTS);
+
+const productChoice = z.object({
+  /** key in the product table (`tilth tables`) */
+  product: z.string().min(1),
+  /** $ per tonne of product; omitted = the table's placeholder price */
+  price_per_tonne: z.number().min(0).optional(),
+  /** where this product may go; omitted = every implement placement the product table allows */
+  placements: z.array(placement).min(1).optional(),
+  /** machine limits, product rate in the plan's units; min: if applied at all, at least this much */
+  min_rate: z.number().min(0).default(0),
+  max_rate: z.number().positive().default(300),
+  /** rates are multiples of this (0 = any rate) */
+  step: z.number().min(0).default(1),
+}).strict();
+
+export const planSchema = z.object({
+  farm: z.string().default(''),
+  field: z.string().default(''),
+  crop: z.string().min(1),
+  target_yield_bu: z.number().positive().max(250),
+  crop_price_per_bu: z.number().min(0).default(0),
+  units: z.enum(['lb/ac', 'kg/ha']).default('lb/ac'),
+  soil_test: z.object({
+    p_method: z.enum(['olsen', 'kelowna']).default('olsen'),
+    nitrate_sampled: z.enum(['spring', 'fall']).default('spring'),
+  }).strict().prefault({}),
+  credits: z.object({
+    organic_matter: z.boolean().default(false),
+    previous_crop_legume: z.boolean().default(false),
+    other_lb_n: z.number().min(0).default(0),
+  }).strict().prefault({}),
+  strategy: z.object({
+    n: z.object({
+      method: z.enum(['mass_balance', 'none']).default('mass_balance'),
+      efficiency: z.number().gt(0).max(1).default(1),
+    }).strict().prefault({}),
+    p: z.object({
+      method: z.enum(['response_class', 'removal', 'build', 'none']).default('response_class'),
+      build_to_ppm: z.number().positive().default(15),
+      build_years: z.number().int().min(1).max(20).default(4),
+      /** lb P2O5/ac per ppm of rise; null = the table's soil value */
+      p2o5_per_ppm: z.number().positive().nullable().default(null),
+    }).strict().prefault({}),
+    k: z.object({ method: z.enum(['deficit', 'none']).default('deficit') }).strict().prefault({}),
+    s: z.object({ method: z.enum(['need_or_floor', 'none']).default('need_or_floor') }).strict().prefault({}),
+    tolerance_pct: z.number().min(0).max(25).default(5),
+  }).strict().prefault({}),
+  implement: z.object({
+    opener_spread_in: z.number().positive().max(24).default(1),
+    row_spacing_in: z.number().positive().max(30).default(10),
+    default_texture: z.enum(['light', 'medium', 'heavy']).default('medium'),
+    seedbed_moisture: z.enum(['good', 'dry']).default('good'),
+    placements: z.array(placement).min(1).default(['seed_row', 'side_band']),
+  }).strict().prefault({}),
+  seed_row: z.object({
+    /** lb N/ac you and your agronomist confirm for the seed row; null = the table */
+    safe_n_lb: z.number().min(0).nullable().default(null),
+    /** what to do where the seed-row N table has no published value */
+    when_table_missing: z.enum(['ask', 'light_soil_values', 'none_in_seed_row']).default('ask'),
+  }).strict().prefault({}),
+  products: z.array(productChoice).min(1),
+  machine: z.object({
+    swath_width_ft: z.number().positive().default(60),
+    speed_mph: z.number().positive().default(5),
+    rate_change_s: z.number().min(0).default(4),
+  }).strict().prefault({}),
+  zoning: z.object({
+    method: z.enum(['jenks', 'quantile', 'equal', 'kmeans']).default('jenks'),
+    classes: z.number().int().min(1).max(10).default(5),
+    smoothing_passes: z.number().int().min(0).max(10).default(2),
+    min_zone_ac: z.union([z.literal('auto'), z.number().positive()]).default('auto'),
+    zone_sets: z.enum(['per_product', 'shared']).default('per_product'),
+  }).strict().prefault({}),
+  output: z.object({
+    shapefile_layout: z.enum(['per_placement', 'per_product']).default('per_placement'),
+    short_names: z.boolean().default(false),
+    crs: z.enum(['wgs84', 'utm']).default('wgs84'),
+  }).strict().prefault({}),
+}).strict();
+
+/** A validated plan (every default filled in). */
+export type Plan = z.infer<typeof planSchema>;
+export type PlanInput = z.input<typeof planSchema>;
+export type ProductChoice = Plan['products'][number];
+
+function valueAt(obj: unknown, path: PropertyKey[]): unknown {
+  let v = obj;
+  for (const k of path) v = v && typeof v === 'object' ? (v as Record<PropertyKey, unknown>)[k] : undefined;
+  return v;
+}
+
+function keyName(path: PropertyKey[]): string {
+  return path.map((p, i) => (typeof p === 'number' ? `[${p}]` : (i ? '.' : '') + String(p))).join('');
+}
+
+/**
+ * Validates a plan object (from YAML or JSON). Errors name the file, the key, the value and what is allowed.
+ * With `tables`, also checks the crop and product names against them.
+ * @example validatePlan({ crop: 'wheat', target_yield_bu: 60, products: [{ product: 'urea' }] }, 'plan', defaultTables()).units // 'lb/ac'
+ */
+export function validatePlan(input: unknown, fileName = 'plan', tables?: Tables): Plan {
+  const r = planSchema.safeParse(input);
+  if (!r.success) {
+    const msgs = r.error.issues.slice(0, 4).map((i) => {
+      const key = keyName(i.path);
+      const got = valueAt(input, i.path);
+      const allowed = 'values' in i && Array.isArray(i.values) ? `; allowed: ${i.values.join(', ')}` : '';
+      if (i.code === 'unrecognized_keys') return `unknown key${i.keys.length > 1 ? 's' : ''} ${i.keys.map((k) => `"${key ? key + '.' : ''}${k}"`).join(', ')} (check the spelling against \`tilth plan init\`)`;
+      if (got === undefined) return `key "${key}" is missing (${i.message})`;
+      return `key "${key}" is ${JSON.stringify(got)}: ${i.message}${allowed}`;
+    });
+    throw new UserError(`${fileName}: ${msgs.join('; ')}. Fix: correct the plan; \`tilth plan init\` prints every key with its default.`, { file: fileName });
+  }
+  const plan = r.data;
+  if (tables) {
+    if (!tables.crops[plan.crop]) {
+      throw new UserError(`${fileName}: key "crop" is "${plan.crop}"; allowed: ${Object.keys(tables.crops).join(', ')}. Fix: choose one, or add the crop to your tables file.`, { file: fileName, field: 'crop', value: plan.crop });
+    }
+    plan.products.forEach((p, i) => {
+      const t = tables.products[p.product];
+      if (!t) throw new UserError(`${fileName}: key "products[${i}].product" is "${p.product}"; allowed: ${Object.keys(tables.products).join(', ')}. Fix: choose one, or add it to your tables file.`, { file: fileName, field: 'product', value: p.product });
+      for (const pl of p.placements ?? []) {
+        if (!t.placements.includes(pl)) throw new UserError(`${fileName}: key "products[${i}].placements" has "${pl}", which the product table does not allow for ${p.product}; allowed: ${t.placements.join(', ')}.`, { file: fileName });
+      }
+    });
+  }
+  plan.products.forEach((p, i) => {
+    if (p.min_rate > p.max_rate) throw new UserError(`${fileName}: key "products[${i}].min_rate" (${p.min_rate}) is above max_rate (${p.max_rate}). Fix: lower min_rate or raise max_rate.`, { file: fileName });
+    if (p.step > 0 && Math.floor(p.max_rate / p.step) * p.step < p.min_rate) throw new UserError(`${fileName}: products[${i}]: no multiple of step ${p.step} lies between min_rate ${p.min_rate} and max_rate ${p.max_rate}.`, { file: fileName });
+  });
+  return plan;
+}
+
+/**
+ * Parses and validates a plan file (YAML or JSON text).
+ * @param yamlText the file's text
+ * @param fileName named in every error message
+ * @param tables optional: also check crop and product names against these tables
+ * @example parsePlan('crop: canola\ntarget_yield_bu: 50\nproducts:\n  - product: map\n', 'plan.yaml')
+ */
+export function parsePlan(yamlText: string, fileName = 'plan.yaml', tables?: Tables): Plan {
+  let obj: unknown;
+  try {
+    obj = parseYaml(yamlText);
+  } catch (e) {
+    throw new UserError(`${fileName}: not valid YAML (${(e as Error).message.split('\n')[0]}). Fix: start from \`tilth plan init\`.`, { file: fileName });
+  }
+  if (obj === null || typeof obj !== 'object' || Array.isArray(obj)) {
+    throw new UserError(`${fileName}: expected a mapping with keys crop, target_yield_bu, products, ... Fix: start from \`tilth plan init --crop canola > ${fileName}\`.`, { file: fileName });
+  }
+  return validatePlan(obj, fileName, tables);
+}

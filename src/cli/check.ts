@@ -1,0 +1,70 @@
+/** `tilth check FILE`: will this prescription load and apply as meant? (see src/check) */
+import type { Command } from 'commander';
+import { readdirSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
+import { checkPrescription, readLayer, DEFAULT_TRANSITION_S, type CheckLayer } from '../check/index.js';
+import { numberOption, out, readInput } from './util.js';
+
+/** Reads FILE and, for a .shp, the files of its set beside it (same base name, any letter case). */
+export async function loadLayer(path: string, what: string): Promise<CheckLayer> {
+  const name = basename(path);
+  const files: Record<string, Uint8Array> = { [name]: readInput(path, what) };
+  if (/\.shp$/i.test(name)) {
+    const base = name.slice(0, -4).toLowerCase();
+    const dir = dirname(path);
+    let entries: string[] = [];
+    try {
+      entries = readdirSync(dir);
+    } catch {
+      /* readInput already proved the file is there */
+    }
+    for (const e of entries) {
+      if (e !== name && e.toLowerCase().startsWith(base + '.') && /\.(shx|dbf|prj|cpg)$/i.test(e) && e.length === base.length + 4) files[e] = readInput(join(dir, e), what);
+    }
+  }
+  return readLayer(files, name);
+}
+
+const MARK = { pass: 'PASS', warn: 'WARN', fail: 'FAIL', skip: 'SKIP' } as const;
+
+export function register(program: Command): void {
+  program
+    .command('check')
+    .description(
+      'Check a prescription (.geojson, .shp or .zip, from tilth or any program) before it goes to the field: coordinate system, valid zones, ' +
+        'overlaps, gaps and parts outside the boundary, numeric rate column, machine rate range, zones too small for the speed, total product. ' +
+        'Exits 0 when nothing fails, 1 when a check fails, 2 when the file cannot be read.',
+    )
+    .argument('<file>', 'prescription: .geojson, .shp (with .shx/.dbf/.prj/.cpg beside it) or .zip')
+    .option('--boundary <file>', 'field boundary (.geojson, .shp or .zip): enables the gap and outside checks')
+    .option('--rate-field <name>', 'rate column (default: columns ending in _lbac, _kgha, _galac or _lha; else the only numeric column)')
+    .option('--min <rate>', "machine's lowest rate above 0 (0 = off always passes); no default")
+    .option('--max <rate>', "machine's highest rate; no default")
+    .option('--speed <kmh>', 'travel speed, km/h: flags zones too short to reach their rate; no default')
+    .option('--swath <m>', 'swath width, m: also flags zones smaller than one rate change x swath')
+    .option('--transition <s>', `seconds the controller needs to reach a new rate (common practice 3-5 s)`, String(DEFAULT_TRANSITION_S))
+    .option('--strict', 'refuse a shapefile without .prj instead of reading it as WGS 84')
+    .option('--json', 'print the report as JSON for scripts')
+    .addHelpText(
+      'after',
+      '\nExamples:\n  tilth check out/shapefiles/rx_side_band.zip --boundary boundary.geojson --min 40 --max 250 --speed 12\n' +
+        '  tilth check rx.shp --rate-field N_RATE --strict --json',
+    )
+    .action(async (file: string, o) => {
+      const min = numberOption('--min', o.min, { min: 0 });
+      const max = numberOption('--max', o.max, { min: 0 });
+      const speedKmh = numberOption('--speed', o.speed, { min: 0.1, max: 100 });
+      const swathM = numberOption('--swath', o.swath, { min: 0.1, max: 200 });
+      const transitionS = numberOption('--transition', o.transition, { min: 0, max: 60 });
+      const layer = await loadLayer(file, 'prescription');
+      const boundary = o.boundary ? await loadLayer(o.boundary, 'boundary') : undefined;
+      const r = checkPrescription(layer, { boundary, rateField: o.rateField, min, max, speedKmh, swathM, transitionS, strict: !!o.strict });
+      if (o.json) out(JSON.stringify(r, null, 2));
+      else {
+        out(`tilth check ${r.file}`);
+        for (const l of r.lines) out(`${MARK[l.status]}  ${l.check.padEnd(10)} ${l.message}`);
+        out(r.ok ? 'result: nothing failed' : `result: ${r.lines.filter((l) => l.status === 'fail').length} check(s) failed`);
+      }
+      if (!r.ok) process.exitCode = 1;
+    });
+}

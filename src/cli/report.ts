@@ -1,0 +1,67 @@
+/** `tilth report DIR`: re-renders DIR/report.html from the build's DIR/report-data.json. */
+import type { Command } from 'commander';
+import { createHash } from 'node:crypto';
+import { statSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { UserError } from '../errors.js';
+import { parseReportInput, renderReport } from '../report/index.js';
+import { createTerminal } from './progress.js';
+import { out, readInput, writeFileAtomic } from './util.js';
+
+/** File the build writes beside its outputs, and the report it re-renders. */
+export const REPORT_DATA = 'report-data.json';
+export const REPORT_HTML = 'report.html';
+
+/**
+ * The short hash printed on the report's title block, so a printed copy can be matched to its files:
+ * the first 12 hex digits of SHA-256 over each input's name and bytes (samples, boundary, plan, tables ...),
+ * in the order given, each length-prefixed so that moving bytes between files changes the hash.
+ * @example inputsHash([{ name: 'plan.yaml', bytes: readFileSync('plan.yaml') }]) // e.g. '3f9a2c1e07b4'
+ */
+export function inputsHash(files: readonly { name: string; bytes: Uint8Array }[]): string {
+  const h = createHash('sha256');
+  for (const f of files) {
+    const name = Buffer.from(f.name, 'utf8');
+    const len = Buffer.alloc(16);
+    len.writeBigUInt64BE(BigInt(name.length), 0);
+    len.writeBigUInt64BE(BigInt(f.bytes.length), 8);
+    h.update(len).update(name).update(f.bytes);
+  }
+  return h.digest('hex').slice(0, 12);
+}
+
+export function register(program: Command): void {
+  program
+    .command('report')
+    .argument('<dir>', "a build's output folder (holding report-data.json)")
+    .description('Re-render the field report (report.html) from a build\'s output folder: one self-contained HTML page with maps, legends and tables that opens offline and prints on Letter or A4.')
+    .option('--out <file>', 'write the report here instead of DIR/report.html')
+    .option('--json', 'print what was written as JSON for scripts')
+    .option('--quiet', 'print nothing but warnings and errors')
+    .addHelpText('after', '\nExample:\n  tilth report out/prairie-view\n  (reads out/prairie-view/report-data.json, writes out/prairie-view/report.html)')
+    .action((dir: string, o: { out?: string; json?: boolean; quiet?: boolean }) => {
+      const term = createTerminal({ quiet: o.quiet || o.json });
+      let st;
+      try {
+        st = statSync(dir);
+      } catch {
+        throw new UserError(`output folder "${dir}" does not exist. Fix: give the folder \`tilth build --out\` wrote.`, { file: dir });
+      }
+      if (!st.isDirectory()) throw new UserError(`"${dir}" is a file, not a build's output folder. Fix: give the folder \`tilth build --out\` wrote.`, { file: dir });
+      const dataPath = join(dir, REPORT_DATA);
+      const text = readInput(dataPath, 'report data (written by `tilth build`)').toString('utf8');
+      const input = parseReportInput(text, dataPath);
+      const task = term.task('rendering report');
+      const html = renderReport(input);
+      const target = o.out ?? join(dir, REPORT_HTML);
+      writeFileAtomic(target, html);
+      task.done();
+      const zones = input.zoneSets.reduce((s, z) => s + z.zones.length, 0);
+      const maps = (html.match(/<svg class="map"/g) ?? []).length;
+      if (o.json) out(JSON.stringify({ report: resolve(target), bytes: Buffer.byteLength(html), maps, zones, warnings: input.warnings.length }));
+      else {
+        term.summary(`Report written: ${target}`, [['maps', String(maps)], ['zones', String(zones)], ['warnings', String(input.warnings.length)], ['size', `${(Buffer.byteLength(html) / 1024).toFixed(0)} KiB`]]);
+        for (const w of input.warnings) term.warn(w.message);
+      }
+    });
+}

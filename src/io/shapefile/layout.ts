@@ -1,0 +1,227 @@
+/**
+ * Machine layouts of a prescription: which shapefile sets, which rate columns, and a note for people.
+ */
+import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
+import type { UtmZone } from '../../types.js';
+import { writeShapefile, resolveColumns, baseFileName, type ColumnSpec } from './write.js';
+import { shortFileNames } from './names.js';
+import { zipFiles } from '../zip.js';
+import { groundAreaM2 } from '../../geo/ground-area.js';
+import { m2ToAc, m2ToHa } from '../../units/index.js';
+import { VERSION } from '../../version.js';
+
+/** Rate units a prescription may carry, and the short form used in column names. */
+export const RX_UNITS = { 'lb/ac': 'lbac', 'kg/ha': 'kgha', 'US gal/ac': 'galac', 'L/ha': 'lha' } as const;
+export type RxUnit = keyof typeof RX_UNITS;
+
+/** One product rate in one zone. */
+export interface RxRate {
+  /** product name as the plan gives it, e.g. "urea 46-0-0" */
+  product: string;
+  /** where it goes, e.g. "seed_row", "side_band", "broadcast" */
+  placement: string;
+  /** product (not nutrient) per area, >= 0 */
+  rate: number;
+  unit: RxUnit;
+}
+
+/**
+ * The properties the layout reads from each zone feature (other properties are ignored).
+ * Geometry: Polygon or MultiPolygon in WGS 84 lon/lat.
+ * @example { zone_id: 3, rates: [{ product: 'urea 46-0-0', placement: 'side_band', rate: 95, unit: 'lb/ac' }] }
+ */
+export interface RxZoneProperties {
+  /** whole number >= 0, or text up to 20 characters */
+  zone_id: number | string;
+  rates: RxRate[];
+}
+
+/** Options of {@link prescriptionFiles}. */
+export interface LayoutOptions {
+  /** per_placement: one set per placement, one rate column per product; per_product: one set per product and placement, one column `rate_<unit>` */
+  layout: 'per_placement' | 'per_product';
+  /** coordinates written (default 'lonlat', WGS 84) */
+  crs?: 'lonlat' | 'utm';
+  /** UTM zone (default: the zones' centre) */
+  utm?: UtmZone;
+  /** 8.3 upper-case file names (default false) */
+  shortFileNames?: boolean;
+  /** prefix of every set's name (default "rx") */
+  prefix?: string;
+  /** a line naming the field / plan, for the note (default none) */
+  title?: string;
+  /** date in .dbf headers and the note (default today, UTC) */
+  date?: Date;
+}
+
+/** One rate column of one set, as described in the note. */
+export interface RateColumn {
+  set: string;
+  column: string;
+  product: string;
+  placement: string;
+  unit: RxUnit;
+  min: number;
+  max: number;
+  /** product over the whole prescription: lb, kg, US gal or L */
+  total: number;
+}
+
+const TOTAL_UNIT: Record<RxUnit, string> = { 'lb/ac': 'lb', 'kg/ha': 'kg', 'US gal/ac': 'US gal', 'L/ha': 'L' };
+
+function slug(s: string): string {
+  return s.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').toLowerCase().replace(/[^a-z0-9]+/g, '_').replace(/^_+|_+$/g, '') || 'x';
+}
+
+/** Decimal places for a rate unit: 1 for mass, 2 for volume. */
+const decimalsFor = (u: RxUnit) => (u === 'lb/ac' || u === 'kg/ha' ? 1 : 2);
+
+function numberWidth(values: number[], decimals: number): number {
+  let w = 1;
+  for (const v of values) if (Number.isFinite(v)) w = Math.max(w, v.toFixed(decimals).length);
+  return Math.min(20, Math.max(w + 1, decimals ? decimals + 4 : 4));
+}
+
+/**
+ * Product stems for column names "<stem>_<unit>" (at most 10 characters): the product's name cut to fit,
+ * made unique with a digit.
+ */
+function rateColumnNames(products: string[], units: RxUnit[]): string[] {
+  const used = new Set<string>();
+  return products.map((p, i) => {
+    const suf = '_' + RX_UNITS[units[i]];
+    // the product's first word ("Urea 46-0-0" -> urea), or all of it when that is not a word
+    const words = slug(p).split('_');
+    let stem = /^[a-z]/.test(words[0]) ? words[0] : 'p' + words.join('');
+    let name = stem.slice(0, 10 - suf.length) + suf;
+    for (let k = 2; used.has(name); k++) name = stem.slice(0, 10 - suf.length - String(k).length) + k + suf;
+    used.add(name);
+    return name;
+  });
+}
+
+interface SetPlan { name: string; cols: { key: string; product: string; placement: string; unit: RxUnit; column: string }[] }
+
+/**
+ * Lays out a prescription for machines: shapefile sets (see {@link writeShapefile}) plus, per set,
+ * a readable note (`<set>.note.txt`, 8.3: `<SET>.TXT`) and a zip of the set with its note (`<set>.zip`).
+ * Every set has the columns `zone_id`, `area_ac`, `area_ha` (ground area from the geometry) and its rate
+ * columns; a rate column's name ends with its unit (`_lbac`, `_kgha`, `_galac`, `_lha`) and the note and
+ * `.columns.csv` give the full product and placement. A zone with no rate for a column gets 0 (no product).
+ *
+ * @param fc zones: each feature's properties follow {@link RxZoneProperties}
+ * @returns the files (name -> bytes, all in one folder) and the rate columns written
+ * @example
+ * const { files } = prescriptionFiles(fc, { layout: 'per_placement', crs: 'utm' });
+ * for (const [name, bytes] of Object.entries(files)) writeFileAtomic(join(out, 'shapefiles', name), bytes);
+ */
+export function prescriptionFiles(fc: FeatureCollection, opts: LayoutOptions): { files: Record<string, Uint8Array>; columns: RateColumn[] } {
+  const prefix = opts.prefix ?? 'rx';
+  const feats = fc.features as Feature<Polygon | MultiPolygon>[];
+  if (!feats.length) throw new RangeError('prescriptionFiles: the prescription has no zones');
+  const rateOf = (f: Feature, product: string, placement: string): number => {
+    const r = ((f.properties as RxZoneProperties | null)?.rates ?? []).find((x) => x.product === product && x.placement === placement);
+    return r ? r.rate : 0;
+  };
+  // distinct (product, placement) pairs in first-seen order, with their unit
+  const pairs: { product: string; placement: string; unit: RxUnit }[] = [];
+  feats.forEach((f, i) => {
+    const p = f.properties as RxZoneProperties | null;
+    if (!p || p.zone_id === undefined || !Array.isArray(p.rates)) throw new RangeError(`prescriptionFiles: feature ${i + 1} lacks zone_id or rates`);
+    for (const r of p.rates) {
+      if (!(r.unit in RX_UNITS)) throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: unknown unit ${r.unit}`);
+      if (!Number.isFinite(r.rate) || r.rate < 0) throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: rate ${r.rate} for ${r.product}`);
+      const have = pairs.find((q) => q.product === r.product && q.placement === r.placement);
+      if (!have) pairs.push({ product: r.product, placement: r.placement, unit: r.unit });
+      else if (have.unit !== r.unit) throw new RangeError(`prescriptionFiles: ${r.product} (${r.placement}) given in both ${have.unit} and ${r.unit}`);
+    }
+  });
+  const plans: SetPlan[] = [];
+  if (opts.layout === 'per_placement') {
+    const placements = [...new Set(pairs.map((q) => q.placement))];
+    for (const pl of placements) {
+      const ps = pairs.filter((q) => q.placement === pl);
+      const names = rateColumnNames(ps.map((q) => q.product), ps.map((q) => q.unit));
+      plans.push({ name: `${prefix}_${slug(pl)}`, cols: ps.map((q, k) => ({ key: `rate_${k}`, ...q, column: names[k] })) });
+    }
+  } else {
+    const multi = new Map<string, number>();
+    for (const q of pairs) multi.set(q.product, (multi.get(q.product) ?? 0) + 1);
+    for (const q of pairs) {
+      const name = multi.get(q.product)! > 1 ? `${prefix}_${slug(q.product)}_${slug(q.placement)}` : `${prefix}_${slug(q.product)}`;
+      plans.push({ name, cols: [{ key: 'rate_0', ...q, column: `rate_${RX_UNITS[q.unit]}` }] });
+    }
+  }
+  // unique set names (long and 8.3)
+  const longNames = plans.map((p, i) => (plans.findIndex((q) => q.name === p.name) < i ? `${p.name}_${i + 1}` : p.name));
+  const setNames = opts.shortFileNames ? shortFileNames(longNames) : longNames.map((n) => baseFileName(n));
+
+  const areasM2 = feats.map((f) => groundAreaM2(f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.coordinates));
+  const zoneIds = feats.map((f) => (f.properties as RxZoneProperties).zone_id);
+  const idsNumeric = zoneIds.every((z) => typeof z === 'number' && Number.isInteger(z) && z >= 0);
+  const files: Record<string, Uint8Array> = {};
+  const columns: RateColumn[] = [];
+  const date = opts.date ?? new Date();
+  const enc = new TextEncoder();
+
+  plans.forEach((plan, si) => {
+    const set = setNames[si];
+    const rows = feats.map((f, i) => {
+      const props: Record<string, unknown> = { zone_id: zoneIds[i], area_ac: m2ToAc(areasM2[i]), area_ha: m2ToHa(areasM2[i]) };
+      for (const c of plan.cols) props[c.key] = rateOf(f, c.product, c.placement);
+      return { type: 'Feature', properties: props, geometry: f.geometry } as Feature;
+    });
+    const specs: ColumnSpec[] = [
+      idsNumeric
+        ? { key: 'zone_id', type: 'N', width: numberWidth(zoneIds as number[], 0), description: 'zone number' }
+        : { key: 'zone_id', type: 'C', width: 20, description: 'zone name' },
+      { key: 'area_ac', type: 'N', width: numberWidth(rows.map((r) => r.properties!.area_ac as number), 2), decimals: 2, description: 'zone ground area, acres (WGS 84 ellipsoid)' },
+      { key: 'area_ha', type: 'N', width: numberWidth(rows.map((r) => r.properties!.area_ha as number), 2), decimals: 2, description: 'zone ground area, hectares' },
+      ...plan.cols.map((c): ColumnSpec => ({
+        key: c.key, name: c.column, type: 'N', decimals: decimalsFor(c.unit),
+        width: numberWidth(rows.map((r) => r.properties![c.key] as number), decimalsFor(c.unit)),
+        description: `${c.product}, ${c.placement}, ${c.unit} of product`,
+      })),
+    ];
+    const written = resolveColumns(specs);
+    const setFiles = writeShapefile(rows, specs, { name: set, crs: opts.crs, utm: opts.utm, shortFileName: opts.shortFileNames, date });
+    const rateCols: RateColumn[] = plan.cols.map((c, k) => {
+      const vals = rows.map((r) => r.properties![c.key] as number);
+      return {
+        set, column: written[3 + k].name, product: c.product, placement: c.placement, unit: c.unit,
+        min: Math.min(...vals), max: Math.max(...vals),
+        total: vals.reduce((s, v, i) => s + v * (c.unit === 'lb/ac' || c.unit === 'US gal/ac' ? m2ToAc(areasM2[i]) : m2ToHa(areasM2[i])), 0),
+      };
+    });
+    columns.push(...rateCols);
+    const note = noteText(set, rateCols, opts, feats.length, areasM2, date);
+    const noteName = opts.shortFileNames ? `${set}.TXT` : `${set}.note.txt`;
+    setFiles[noteName] = enc.encode(note);
+    Object.assign(files, setFiles);
+    files[opts.shortFileNames ? `${set}.ZIP` : `${set}.zip`] = zipFiles(setFiles);
+  });
+  return { files, columns };
+}
+
+function noteText(set: string, cols: RateColumn[], opts: LayoutOptions, zones: number, areas: number[], date: Date): string {
+  const acres = m2ToAc(areas.reduce((s, a) => s + a, 0));
+  const lines = [
+    `Prescription file set "${set}"${opts.title ? ` for ${opts.title}` : ''}`,
+    `Written by tilth ${VERSION} on ${date.toISOString().slice(0, 10)}.`,
+    '',
+    `Zones: ${zones}, ${acres.toFixed(2)} ac (${(acres * 0.40468564224).toFixed(2)} ha) in all.`,
+    `Coordinates: ${opts.crs === 'utm' ? 'WGS 84 / UTM metres (see the .prj)' : 'WGS 84 longitude/latitude, EPSG:4326'}.`,
+    `Layout: ${opts.layout === 'per_placement' ? 'one file set per placement, one rate column per product' : 'one file set per product, one rate column'}.`,
+    '',
+    'Rate columns (rates are product, not nutrient; the unit is the end of the column name):',
+    ...cols.map((c) => `  ${c.column}: ${c.product}, placed ${c.placement.replace(/_/g, ' ')}, ${c.unit}; ${c.min.toFixed(decimalsFor(c.unit))} to ${c.max.toFixed(decimalsFor(c.unit))}; about ${c.total.toFixed(0)} ${TOTAL_UNIT[c.unit]} in all`),
+    '',
+    'Other columns: zone_id (zone), area_ac and area_ha (zone ground area). The .columns.csv (8.3: .CSV) lists every column.',
+    'Outside every zone the controller applies its own default or off-field rate: set it on the terminal.',
+    '',
+    'Caution: too much fertilizer with the seed injures or kills seedlings; wrong rates cost money and can pollute',
+    'water. Check the rates against local guidelines, and have a licensed agronomist or certified crop adviser',
+    'approve the prescription before it is applied. Run `tilth check` on these files before going to the field.',
+  ];
+  return lines.join('\n') + '\n';
+}

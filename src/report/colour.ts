@@ -1,0 +1,84 @@
+/**
+ * Colour ramps for the report's maps: sequential, perceptually uniform and readable with colour-vision
+ * deficiency, because their lightness rises steadily from one end to the other.
+ *
+ * Anchor colours are nine evenly spaced samples of the viridis, magma and cividis colour maps
+ * (viridis/magma: van der Walt and Smith for matplotlib, CC0; cividis: Nuñez, Anderton and Renslow 2018,
+ * PLoS ONE 13(8)), as printed by R's viridisLite (from memory; tests/report-colour.test.ts checks that
+ * CIE L* rises monotonically along each ramp). Between anchors we interpolate linearly in sRGB.
+ *
+ * Our own assignment: soil surfaces use viridis, response probability magma (darker = more likely to
+ * respond), product rates cividis (lighter = more product), binding limits the Okabe-Ito qualitative set.
+ */
+
+export type RampName = 'viridis' | 'magma' | 'cividis';
+
+const ANCHORS: Record<RampName, string[]> = {
+  viridis: ['#440154', '#472d7b', '#3b528b', '#2c728e', '#21918c', '#28ae80', '#5ec962', '#addc30', '#fde725'],
+  magma: ['#000004', '#1d1147', '#51127c', '#822681', '#b63679', '#e65164', '#fb8861', '#fec287', '#fcfdbf'],
+  cividis: ['#00204d', '#00336f', '#39486b', '#575c6d', '#707173', '#8a8779', '#a69d75', '#c4b56c', '#ffea46'],
+};
+
+/** Part of each ramp used, so that the darkest class is not black and the lightest not white. */
+const RANGE: Record<RampName, [number, number]> = {
+  viridis: [0, 1],
+  magma: [0.2, 0.92],
+  cividis: [0.05, 1],
+};
+
+/**
+ * Okabe and Ito (2008) colour-universal-design palette, qualitative (from memory), without black:
+ * orange, sky blue, bluish green, yellow, blue, vermillion, reddish purple.
+ */
+export const QUALITATIVE = ['#e69f00', '#56b4e9', '#009e73', '#f0e442', '#0072b2', '#d55e00', '#cc79a7'];
+
+/** Grey for "no value" / "no limit binds". */
+export const NEUTRAL = '#d9d9d9';
+
+function hexToRgb(h: string): [number, number, number] {
+  const n = parseInt(h.slice(1), 16);
+  return [(n >> 16) & 255, (n >> 8) & 255, n & 255];
+}
+
+/**
+ * The colour at t (0..1) of a ramp's full range, as [r, g, b] 0-255.
+ * @example rampRgb('viridis', 0) // [68, 1, 84]
+ */
+export function rampRgb(name: RampName, t: number): [number, number, number] {
+  const a = ANCHORS[name];
+  const x = Math.min(1, Math.max(0, t)) * (a.length - 1);
+  const i = Math.min(a.length - 2, Math.floor(x));
+  const f = x - i;
+  const c0 = hexToRgb(a[i]!);
+  const c1 = hexToRgb(a[i + 1]!);
+  return [0, 1, 2].map((k) => Math.round(c0[k]! + (c1[k]! - c0[k]!) * f)) as [number, number, number];
+}
+
+/** [r, g, b] to "#rrggbb". */
+export function rgbHex(c: readonly number[]): string {
+  return '#' + c.map((v) => v.toString(16).padStart(2, '0')).join('');
+}
+
+/**
+ * n class colours from a ramp, lowest class first, spread over the ramp's used range.
+ * @example classColours('viridis', 3) // ['#440154', '#21918c', '#fde725']
+ */
+export function classColours(name: RampName, n: number): string[] {
+  const [lo, hi] = RANGE[name];
+  if (n <= 0) return [];
+  if (n === 1) return [rgbHex(rampRgb(name, (lo + hi) / 2))];
+  return Array.from({ length: n }, (_, i) => rgbHex(rampRgb(name, lo + ((hi - lo) * i) / (n - 1))));
+}
+
+/**
+ * Text colour that reads on a fill: black on light fills, white on dark (by WCAG relative luminance).
+ * @example textOn('#fde725') // '#000'
+ */
+export function textOn(fill: string): string {
+  const [r, g, b] = hexToRgb(fill).map((v) => {
+    const c = v / 255;
+    return c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4;
+  }) as [number, number, number];
+  const y = 0.2126 * r + 0.7152 * g + 0.0722 * b;
+  return y > 0.18 ? '#000' : '#fff';
+}

@@ -1,0 +1,373 @@
+/**
+ * Rate classes from a driving value per cell: equal interval, quantile, natural breaks (Jenks)
+ * and k-means (1-D), plus k-means on standardized vectors for a zone set shared by several products.
+ *
+ * Input values are a Float64Array per cell (NaN = no value, e.g. outside the field); optional
+ * weights (the grid's `fraction`) make quantiles and class means area-weighted, so an edge cell
+ * counts only its inside share. Output classes are an Int16Array (-1 = no value), 0 = lowest class.
+ */
+
+/** How the class breaks are chosen. */
+export type ClassMethod = 'equal' | 'quantile' | 'jenks' | 'kmeans';
+
+export interface ClassifyOptions {
+  /** class method; default 'jenks' */
+  method?: ClassMethod;
+  /** largest number of classes; default 5 (fewer when the data have fewer distinct values) */
+  classes?: number;
+  /** representative values are rounded to a multiple of this step (the machine's rate step); default 1; 0 = no rounding */
+  step?: number;
+  /** per-cell weights, e.g. Grid.fraction; default 1 per cell with a value */
+  weights?: ArrayLike<number>;
+  /**
+   * Jenks and k-means run on a summary of the values: the exact distinct values when there are at most
+   * this many, else this many equal-width bins (each bin at its weighted mean). Default 4096.
+   */
+  summaryBins?: number;
+}
+
+/** Classes of a 1-D driving value. */
+export interface Classes {
+  /** per cell: class index 0..count-1, -1 where the value is NaN */
+  classOf: Int16Array;
+  /** number of classes actually used */
+  count: number;
+  /** count + 1 bounds for legends: [min, upper of class 0, ..., max]; class c holds breaks[c] < v <= breaks[c+1] (class 0 includes its min) */
+  breaks: number[];
+  /** per class: area-weighted mean of its values */
+  mean: number[];
+  /** per class: mean rounded to `step` */
+  value: number[];
+  /** per class: summed weight (cells x fraction) */
+  weight: number[];
+  method: ClassMethod;
+}
+
+/** Weighted, sorted summary of the finite values: exact distinct values, or binned. */
+interface Summary { v: Float64Array; w: Float64Array; hi: Float64Array; min: number; max: number }
+
+function summarize(values: ArrayLike<number>, weights: ArrayLike<number> | undefined, bins: number): Summary | null {
+  let min = Infinity, max = -Infinity;
+  const n = values.length;
+  for (let i = 0; i < n; i++) {
+    const x = values[i];
+    if (x === x && (weights === undefined || weights[i] > 0)) { if (x < min) min = x; if (x > max) max = x; }
+  }
+  if (min === Infinity) return null;
+  // try exact distinct values first
+  const distinct = new Map<number, number>();
+  let exact = true;
+  for (let i = 0; i < n && exact; i++) {
+    const x = values[i];
+    if (x !== x) continue;
+    const wi = weights === undefined ? 1 : weights[i];
+    if (!(wi > 0)) continue;
+    distinct.set(x, (distinct.get(x) ?? 0) + wi);
+    if (distinct.size > bins) exact = false;
+  }
+  if (exact) {
+    const keys = [...distinct.keys()].sort((a, b) => a - b);
+    const v = Float64Array.from(keys), w = Float64Array.from(keys, (k) => distinct.get(k)!);
+    return { v, w, hi: v, min, max };
+  }
+  const sw = new Float64Array(bins), sv = new Float64Array(bins), bh = new Float64Array(bins).fill(-Infinity);
+  const scale = bins / (max - min);
+  for (let i = 0; i < n; i++) {
+    const x = values[i];
+    if (x !== x) continue;
+    const wi = weights === undefined ? 1 : weights[i];
+    if (!(wi > 0)) continue;
+    const b = Math.min(bins - 1, Math.floor((x - min) * scale));
+    sw[b] += wi; sv[b] += wi * x; if (x > bh[b]) bh[b] = x;
+  }
+  let m = 0;
+  for (let b = 0; b < bins; b++) if (sw[b] > 0) m++;
+  const v = new Float64Array(m), w = new Float64Array(m), hi = new Float64Array(m);
+  for (let b = 0, j = 0; b < bins; b++) if (sw[b] > 0) { v[j] = sv[b] / sw[b]; w[j] = sw[b]; hi[j] = bh[b]; j++; }
+  return { v, w, hi, min, max };
+}
+
+/**
+ * Upper bounds (k - 1 of them) of natural-breaks classes on a weighted, sorted summary (values `v`,
+ * weights `w`, largest raw value of each entry `hi`); O(k m log m).
+ * @example jenksUppers([1, 2, 3, 10, 11, 12], [1, 1, 1, 1, 1, 1], [1, 2, 3, 10, 11, 12], 2) // [3]
+ */
+export function jenksUppers(v: ArrayLike<number>, w: ArrayLike<number>, hi: ArrayLike<number>, k: number): number[] {
+  const m = v.length;
+  if (k <= 1 || m <= 1) return [];
+  k = Math.min(k, m);
+  const W = new Float64Array(m + 1), S = new Float64Array(m + 1), Q = new Float64Array(m + 1);
+  for (let i = 0; i < m; i++) { W[i + 1] = W[i] + w[i]; S[i + 1] = S[i] + w[i] * v[i]; Q[i + 1] = Q[i] + w[i] * v[i] * v[i]; }
+  // ssd of items a..b-1
+  const ssd = (a: number, b: number) => { const ww = W[b] - W[a], s = S[b] - S[a]; return Math.max(0, Q[b] - Q[a] - (s * s) / ww); };
+  let prev = new Float64Array(m + 1);
+  for (let j = 1; j <= m; j++) prev[j] = ssd(0, j);
+  const back: Int32Array[] = [];
+  // Each row of the programme is filled by divide and conquer: the best split point is monotone in j for
+  // this cost (sum of squared deviations satisfies the quadrangle inequality), so O(m log m) per class.
+  for (let c = 2; c <= k; c++) {
+    const cur = new Float64Array(m + 1).fill(Infinity);
+    const bk = new Int32Array(m + 1);
+    const solve = (jlo: number, jhi: number, ilo: number, ihi: number) => {
+      if (jlo > jhi) return;
+      const j = (jlo + jhi) >> 1;
+      let best = Infinity, arg = Math.max(c - 1, ilo);
+      for (let i = Math.max(c - 1, ilo); i <= Math.min(j - 1, ihi); i++) {
+        const t = prev[i] + ssd(i, j);
+        if (t < best) { best = t; arg = i; }
+      }
+      cur[j] = best; bk[j] = arg;
+      solve(jlo, j - 1, ilo, arg);
+      solve(j + 1, jhi, arg, ihi);
+    };
+    solve(c, m, c - 1, m - 1);
+    back.push(bk);
+    prev = cur;
+  }
+  const uppers: number[] = [];
+  let j = m;
+  for (let c = k; c >= 2; c--) { const i = back[c - 2][j]; uppers.push(hi[i - 1]); j = i; }
+  return uppers.reverse();
+}
+
+/**
+ * 1-D weighted k-means (Lloyd) on sorted values, started at weighted quantiles; returns sorted centres.
+ * @example kmeans1d([1, 2, 3, 10, 11, 12], [1, 1, 1, 1, 1, 1], 2) // [2, 11]
+ */
+export function kmeans1d(v: ArrayLike<number>, w: ArrayLike<number>, k: number, maxIter = 100): number[] {
+  const m = v.length;
+  k = Math.min(k, m);
+  let total = 0;
+  for (let i = 0; i < m; i++) total += w[i];
+  const c: number[] = [];
+  let acc = 0, q = 0;
+  for (let i = 0; i < m && q < k; i++) {
+    acc += w[i];
+    while (q < k && acc >= ((q + 0.5) / k) * total) { c.push(v[i]); q++; }
+  }
+  const centres = [...new Set(c)];
+  for (let it = 0; it < maxIter; it++) {
+    const sw = new Float64Array(centres.length), sv = new Float64Array(centres.length);
+    let j = 0;
+    for (let i = 0; i < m; i++) {
+      while (j + 1 < centres.length && Math.abs(v[i] - centres[j + 1]) < Math.abs(v[i] - centres[j])) j++;
+      sw[j] += w[i]; sv[j] += w[i] * v[i];
+    }
+    let moved = false;
+    for (let t = 0; t < centres.length; t++) {
+      if (sw[t] > 0) { const nc = sv[t] / sw[t]; if (nc !== centres[t]) { moved = true; centres[t] = nc; } }
+    }
+    centres.sort((a, b) => a - b);
+    if (!moved) break;
+  }
+  return centres;
+}
+
+function roundTo(x: number, step: number): number {
+  if (!(step > 0)) return x;
+  const r = Math.round(x / step) * step;
+  // trim binary noise (0.1 steps)
+  return Number.parseFloat(r.toPrecision(12));
+}
+
+/**
+ * Splits a driving value per cell into at most N classes.
+ *
+ * - `equal`: N equal-width intervals between the minimum and maximum;
+ * - `quantile`: N classes of equal area (weights);
+ * - `jenks`: natural breaks, least within-class squared deviation (exact dynamic programme on the
+ *   distinct values, or on 4096 weighted bins when there are more; O(N x 4096 log 4096) at worst);
+ * - `kmeans`: 1-D k-means, started at quantiles, breaks midway between sorted centres.
+ * Empty classes are dropped, so `count` may be below N. Defaults: jenks, 5 classes, step 1.
+ *
+ * @example
+ * const c = classify(rateGrid, { method: 'quantile', classes: 4, step: 5, weights: grid.fraction });
+ * c.breaks // [min, b1, b2, b3, max] for the legend; c.value // per-class rate rounded to 5
+ */
+export function classify(values: ArrayLike<number>, opts: ClassifyOptions = {}): Classes {
+  const method = opts.method ?? 'jenks';
+  const k = Math.max(1, Math.floor(opts.classes ?? 5));
+  const step = opts.step ?? 1;
+  const weights = opts.weights;
+  const n = values.length;
+  const classOf = new Int16Array(n).fill(-1);
+  const s = summarize(values, weights, opts.summaryBins ?? 4096);
+  if (!s) return { classOf, count: 0, breaks: [], mean: [], value: [], weight: [], method };
+  let uppers: number[];
+  if (method === 'equal') {
+    uppers = [];
+    for (let c = 1; c < k; c++) uppers.push(s.min + ((s.max - s.min) * c) / k);
+  } else if (method === 'quantile') {
+    let total = 0;
+    for (let i = 0; i < s.w.length; i++) total += s.w[i];
+    uppers = [];
+    let acc = 0, q = 1;
+    for (let i = 0; i < s.v.length && q < k; i++) {
+      acc += s.w[i];
+      while (q < k && acc >= (q / k) * total - 1e-12 * total) { uppers.push(s.hi[i]); q++; }
+    }
+  } else if (method === 'jenks') {
+    uppers = jenksUppers(s.v, s.w, s.hi, k);
+  } else if (method === 'kmeans') {
+    const cs = kmeans1d(s.v, s.w, k);
+    uppers = [];
+    for (let i = 0; i + 1 < cs.length; i++) uppers.push((cs[i] + cs[i + 1]) / 2);
+  } else {
+    throw new RangeError(`unknown class method "${String(method)}" (use equal, quantile, jenks or kmeans)`);
+  }
+  uppers = [...new Set(uppers.filter((u) => u >= s.min && u < s.max))].sort((a, b) => a - b);
+  const bounds = [...uppers, Infinity];
+  const raw = new Int16Array(n).fill(-1);
+  const cw = new Float64Array(bounds.length), cv = new Float64Array(bounds.length);
+  for (let i = 0; i < n; i++) {
+    const x = values[i];
+    if (x !== x) continue;
+    const wi = weights === undefined ? 1 : weights[i];
+    if (weights !== undefined && !(wi > 0)) continue;
+    let lo = 0, hi = bounds.length - 1;
+    while (lo < hi) { const mid = (lo + hi) >> 1; if (x <= bounds[mid]) hi = mid; else lo = mid + 1; }
+    raw[i] = lo; cw[lo] += wi; cv[lo] += wi * x;
+  }
+  // drop empty classes
+  const remap = new Int16Array(bounds.length).fill(-1);
+  const breaks = [s.min], mean: number[] = [], value: number[] = [], weight: number[] = [];
+  for (let c = 0; c < bounds.length; c++) {
+    if (cw[c] > 0) {
+      remap[c] = mean.length;
+      mean.push(cv[c] / cw[c]); value.push(roundTo(cv[c] / cw[c], step)); weight.push(cw[c]);
+      breaks.push(c === bounds.length - 1 ? s.max : bounds[c]);
+    } else if (mean.length > 0 && c < bounds.length - 1) {
+      breaks[breaks.length - 1] = bounds[c];
+    }
+  }
+  for (let i = 0; i < n; i++) if (raw[i] >= 0) classOf[i] = remap[raw[i]];
+  return { classOf, count: mean.length, breaks, mean, value, weight, method };
+}
+
+/** Classes of several driving values at once (one zone set for a multi-product pass). */
+export interface VectorClasses {
+  classOf: Int16Array;
+  count: number;
+  /** per class, per input dimension: area-weighted mean in the input's units */
+  mean: number[][];
+  /** the same rounded to each dimension's step */
+  value: number[][];
+  weight: number[];
+}
+
+/** Small seeded PRNG (mulberry32) so classes are reproducible. */
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/**
+ * k-means on standardized vectors: each dimension (e.g. the N, P2O5 and S targets of one pass) is
+ * centred and divided by its area-weighted standard deviation, so no nutrient dominates by its units.
+ * Centres are fitted on a seeded sample of at most `sample` cells (default 20000; k-means++ start),
+ * then every cell takes its nearest centre. A cell with NaN in any dimension gets -1. Classes are
+ * numbered by ascending sum of standardized centre coordinates (class 0 = lowest overall need).
+ *
+ * @example
+ * const vc = classifyVectors([nTarget, pTarget], { classes: 4, steps: [5, 5], weights: grid.fraction });
+ * vc.value[2] // [N rate, P2O5 rate] of class 2
+ */
+export function classifyVectors(
+  dims: ArrayLike<number>[],
+  opts: { classes?: number; steps?: number[]; weights?: ArrayLike<number>; sample?: number; seed?: number; maxIter?: number } = {},
+): VectorClasses {
+  const d = dims.length;
+  if (d === 0) throw new RangeError('classifyVectors needs at least one dimension');
+  const n = dims[0].length;
+  const k = Math.max(1, Math.floor(opts.classes ?? 5));
+  const weights = opts.weights;
+  const valid: number[] = [];
+  for (let i = 0; i < n; i++) {
+    if (weights !== undefined && !(weights[i] > 0)) continue;
+    let ok = true;
+    for (let j = 0; j < d; j++) { const x = dims[j][i]; if (x !== x) { ok = false; break; } }
+    if (ok) valid.push(i);
+  }
+  const classOf = new Int16Array(n).fill(-1);
+  if (valid.length === 0) return { classOf, count: 0, mean: [], value: [], weight: [] };
+  const mu = new Float64Array(d), sd = new Float64Array(d);
+  let tw = 0;
+  for (const i of valid) { const wi = weights ? weights[i] : 1; tw += wi; for (let j = 0; j < d; j++) mu[j] += wi * dims[j][i]; }
+  for (let j = 0; j < d; j++) mu[j] /= tw;
+  for (const i of valid) { const wi = weights ? weights[i] : 1; for (let j = 0; j < d; j++) sd[j] += wi * (dims[j][i] - mu[j]) ** 2; }
+  for (let j = 0; j < d; j++) { sd[j] = Math.sqrt(sd[j] / tw); if (!(sd[j] > 0)) sd[j] = 1; }
+  const z = (i: number, j: number) => (dims[j][i] - mu[j]) / sd[j];
+  const rnd = mulberry32(opts.seed ?? 1);
+  const m = Math.min(valid.length, opts.sample ?? 20000);
+  const sample: number[] = [];
+  if (m === valid.length) sample.push(...valid);
+  else for (let t = 0; t < m; t++) sample.push(valid[Math.floor(rnd() * valid.length)]);
+  // k-means++ start
+  const cent: Float64Array[] = [];
+  const first = sample[Math.floor(rnd() * sample.length)];
+  cent.push(Float64Array.from({ length: d }, (_, j) => z(first, j)));
+  const dist = new Float64Array(sample.length).fill(Infinity);
+  while (cent.length < k) {
+    const c = cent[cent.length - 1];
+    let sum = 0;
+    for (let s = 0; s < sample.length; s++) {
+      let dd = 0;
+      for (let j = 0; j < d; j++) dd += (z(sample[s], j) - c[j]) ** 2;
+      if (dd < dist[s]) dist[s] = dd;
+      sum += dist[s];
+    }
+    if (!(sum > 0)) break;
+    let r = rnd() * sum, pick = sample.length - 1;
+    for (let s = 0; s < sample.length; s++) { r -= dist[s]; if (r <= 0) { pick = s; break; } }
+    cent.push(Float64Array.from({ length: d }, (_, j) => z(sample[pick], j)));
+  }
+  const nearest = (i: number) => {
+    let best = Infinity, arg = 0;
+    for (let c = 0; c < cent.length; c++) {
+      let dd = 0;
+      for (let j = 0; j < d; j++) dd += (z(i, j) - cent[c][j]) ** 2;
+      if (dd < best) { best = dd; arg = c; }
+    }
+    return arg;
+  };
+  for (let it = 0; it < (opts.maxIter ?? 50); it++) {
+    const acc = cent.map(() => new Float64Array(d + 1));
+    for (const i of sample) { const c = nearest(i); for (let j = 0; j < d; j++) acc[c][j] += z(i, j); acc[c][d] += 1; }
+    let moved = 0;
+    for (let c = 0; c < cent.length; c++) {
+      if (acc[c][d] === 0) continue;
+      for (let j = 0; j < d; j++) { const v = acc[c][j] / acc[c][d]; moved += Math.abs(v - cent[c][j]); cent[c][j] = v; }
+    }
+    if (moved < 1e-9) break;
+  }
+  const order = cent.map((c, idx) => ({ idx, s: c.reduce((a, b) => a + b, 0) })).sort((a, b) => a.s - b.s);
+  const rank = new Int16Array(cent.length);
+  order.forEach((o, r) => (rank[o.idx] = r));
+  const sw = new Float64Array(cent.length), sm = cent.map(() => new Float64Array(d));
+  for (const i of valid) {
+    const c = rank[nearest(i)];
+    classOf[i] = c;
+    const wi = weights ? weights[i] : 1;
+    sw[c] += wi;
+    for (let j = 0; j < d; j++) sm[c][j] += wi * dims[j][i];
+  }
+  // drop empty classes
+  const remap = new Int16Array(cent.length).fill(-1);
+  const mean: number[][] = [], value: number[][] = [], weight: number[] = [];
+  for (let c = 0; c < cent.length; c++) {
+    if (!(sw[c] > 0)) continue;
+    remap[c] = mean.length;
+    const mc = Array.from(sm[c], (x) => x / sw[c]);
+    mean.push(mc);
+    value.push(mc.map((x, j) => roundTo(x, opts.steps?.[j] ?? 1)));
+    weight.push(sw[c]);
+  }
+  for (const i of valid) classOf[i] = remap[classOf[i]];
+  return { classOf, count: mean.length, mean, value, weight };
+}

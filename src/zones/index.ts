@@ -1,0 +1,222 @@
+/**
+ * Management zones: rate classes -> cleaned class raster -> traced polygons clipped to the field.
+ * Pure functions on flat typed arrays; see docs/zones.md for the method.
+ */
+import * as polyclip from 'polyclip-ts';
+import type { Field, Grid, RingsPart, SampleZones, Warning } from '../types.js';
+import { partsArea, ringArea } from '../geo/area.js';
+import { projector as makeProjector, type Projector } from '../geo/utm.js';
+import { M2_PER_AC } from '../units/index.js';
+import { classify, type Classes, type ClassifyOptions } from './classify.js';
+import { fillUnclassed, majorityFilter, mergeSmallZones } from './clean.js';
+import { boundaryCells, clipParts, robust } from './clip.js';
+import { traceZones } from './trace.js';
+
+export { classify, classifyVectors, jenksUppers, kmeans1d } from './classify.js';
+export type { Classes, ClassMethod, ClassifyOptions, VectorClasses } from './classify.js';
+export { fillUnclassed, labelComponents, majorityFilter, mergeSmallZones, minZoneAreaM2 } from './clean.js';
+export type { Merged } from './clean.js';
+export { boundaryCells, clipParts, clipPartsPolyclip, robust } from './clip.js';
+export { traceZones, pointInRing } from './trace.js';
+export { zoneMeans } from './means.js';
+export type { RasterFrame } from './trace.js';
+
+/** One management zone. */
+export interface Zone {
+  /** 0-based, in raster scan order of the zone's first cell (north-west first) */
+  id: number;
+  /** rate class 0..classCount-1 (0 = lowest) */
+  cls: number;
+  /** polygon parts in metres (field's UTM zone), exteriors CCW, holes CW */
+  parts: RingsPart[];
+  /** MultiPolygon coordinates in WGS 84 lon/lat (RFC 7946 winding); empty when `lonlat: false` */
+  lonlat: number[][][][];
+  /** ground area, m2 (planar UTM area scaled like the field's, so zone areas add up to Field.areaM2) */
+  areaM2: number;
+}
+
+/** Zones of a field, with the rasters they came from. */
+export interface ZoneSet {
+  zones: Zone[];
+  /** per cell: class after cleaning (-1 where the cell has no share of the field) */
+  classOfCell: Int16Array;
+  /** per cell: zone id (-1 where the cell has no share of the field) */
+  zoneOfCell: Int32Array;
+  /** number of classes present after cleaning */
+  classCount: number;
+  /** the classes when makeZones classified a driving value itself */
+  classes: Classes | null;
+  /** minimum zone area used, m2 */
+  minAreaM2: number;
+  warnings: Warning[];
+}
+
+export interface MakeZonesOptions extends ClassifyOptions {
+  /** majority filter passes (3 x 3); default 1; 0 = none */
+  majorityIterations?: number;
+  /** zones smaller than this are merged into a neighbour, m2; default 0.5 ac (2023.4 m2); see minZoneAreaM2 */
+  minAreaM2?: number;
+  /** also give each zone lon/lat coordinates; default true */
+  lonlat?: boolean;
+  /** projector for lon/lat (default: one built from field.utm) */
+  projector?: Projector;
+}
+
+/**
+ * Builds clean management zones from a driving value per cell (or ready-made classes).
+ *
+ * Steps: classes (default natural breaks, 5 classes, area-weighted) on cells with a share of the field;
+ * 3 x 3 majority filter (1 pass); zones smaller than `minAreaM2` (default 0.5 ac) merged into the neighbour
+ * with the longest shared border; cells with no value take their nearest zone so that traced zones cover
+ * every edge cell; linear-time tracing of cell edges; zones that reach the boundary clipped to it exactly.
+ * The zones do not overlap and together cover the field.
+ *
+ * @param grid the field grid (mask, fraction)
+ * @param input a driving value per cell (NaN = none; e.g. a rate), or classes from classify/classifyVectors
+ * @param field the field boundary in metres
+ * @example
+ * const zs = makeZones(grid, nRate, field, { method: 'jenks', classes: 4, step: 5, minAreaM2: minZoneAreaM2({ swathM: 18.3, speedKmh: 9 }) });
+ * zs.zones.map((z) => [z.cls, z.areaM2 / 4046.86]);
+ */
+export function makeZones(grid: Grid, input: ArrayLike<number> | { classOf: Int16Array }, field: Field, opts: MakeZonesOptions = {}): ZoneSet {
+  const { cols, rows, cell } = grid;
+  const n = cols * rows;
+  const warnings: Warning[] = [];
+  let classes: Classes | null = null;
+  let raw: Int16Array;
+  if ('classOf' in input) {
+    raw = Int16Array.from(input.classOf);
+    if (raw.length !== n) throw new RangeError(`classes have ${raw.length} cells, the grid ${n}`);
+    for (let i = 0; i < n; i++) if (!(grid.fraction[i] > 0)) raw[i] = -1;
+  } else {
+    if (input.length !== n) throw new RangeError(`values have ${input.length} cells, the grid ${n}`);
+    classes = classify(input, { ...opts, weights: grid.fraction });
+    raw = classes.classOf;
+  }
+  for (let i = 0; i < n; i++) {
+    if (grid.fraction[i] > 0 && raw[i] < 0) {
+      warnings.push({ code: 'zones-cell-without-value', message: `${countMissing(raw, grid.fraction)} cells inside the field have no driving value; they take the nearest zone's class.` });
+      break;
+    }
+  }
+  const smooth = (opts.majorityIterations ?? 1) > 0 ? majorityFilter(raw, cols, rows, opts.majorityIterations ?? 1) : raw;
+  const filled = fillUnclassed(smooth, cols, rows);
+  const minAreaM2 = opts.minAreaM2 ?? 0.5 * M2_PER_AC;
+  const merged = mergeSmallZones(filled, cols, rows, grid.fraction, cell, minAreaM2);
+  const traced = traceZones(merged.zone, merged.count, grid);
+  // which zones reach the boundary or outside
+  const band = boundaryCells(field.parts, grid);
+  const needsClip = new Uint8Array(merged.count);
+  for (let i = 0; i < n; i++) if (band[i] || !grid.mask[i]) { const z = merged.zone[i]; if (z >= 0) needsClip[z] = 1; }
+  const planarField = partsArea(field.parts);
+  const scale = planarField > 0 ? field.areaM2 / planarField : 1;
+  const proj = opts.lonlat === false ? null : (opts.projector ?? makeProjector(field.utm));
+  const zones: Zone[] = [];
+  const newId = new Int32Array(merged.count).fill(-1);
+  for (let z = 0; z < merged.count; z++) {
+    const parts = needsClip[z] ? clipParts(traced[z], field.parts, grid.xmin, grid.ymax) : traced[z];
+    if (parts.length === 0) continue;
+    newId[z] = zones.length;
+    zones.push({ id: zones.length, cls: merged.classOfZone[z], parts, lonlat: proj ? toLonLat(parts, proj) : [], areaM2: partsArea(parts) * scale });
+  }
+  const zoneOfCell = new Int32Array(n).fill(-1);
+  const classOfCell = new Int16Array(n).fill(-1);
+  let classCount = 0;
+  for (let i = 0; i < n; i++) {
+    const z = merged.zone[i];
+    if (z < 0 || !(grid.fraction[i] > 0)) continue;
+    zoneOfCell[i] = newId[z];
+    classOfCell[i] = merged.classOfZone[z];
+    if (classOfCell[i] + 1 > classCount) classCount = classOfCell[i] + 1;
+  }
+  return { zones, classOfCell, zoneOfCell, classCount, classes, minAreaM2, warnings };
+}
+
+function countMissing(raw: Int16Array, fraction: ArrayLike<number>): number {
+  let k = 0;
+  for (let i = 0; i < raw.length; i++) if (fraction[i] > 0 && raw[i] < 0) k++;
+  return k;
+}
+
+/**
+ * Polygon parts in metres to MultiPolygon lon/lat coordinates.
+ * @example toLonLat(zone.parts, projector(field.utm)) // [[[[lon, lat], ...]]]
+ */
+export function toLonLat(parts: RingsPart[], p: Projector): number[][][][] {
+  const ring = (r: Float64Array) => {
+    const ll = p.inverse(r);
+    const out: number[][] = [];
+    for (let i = 0; i + 1 < ll.length; i += 2) out.push([ll[i], ll[i + 1]]);
+    return out;
+  };
+  return parts.map((pt) => [ring(pt.exterior), ...pt.holes.map(ring)]);
+}
+
+/** A zone of a zone-composite field: the sampled zone polygon clipped to the boundary. */
+export interface SampledZone {
+  id: number;
+  /** the samples' zone key */
+  key: string;
+  parts: RingsPart[];
+  lonlat: number[][][][];
+  areaM2: number;
+}
+
+/**
+ * Zones of a zone-composite field: each sampled zone polygon clipped to the field boundary. Where
+ * sampled zones overlap, the overlap goes to the zone listed first (with a warning); field area that
+ * no sampled zone covers is reported in a warning (it gets no rate).
+ * @example const { zones, warnings } = zonesFromSampleZones(inputs.zones!, inputs.field);
+ */
+export function zonesFromSampleZones(sz: SampleZones, field: Field, opts: { projector?: Projector } = {}): { zones: SampledZone[]; warnings: Warning[] } {
+  const [ox, oy] = [field.bbox[0], field.bbox[3]];
+  const planarField = partsArea(field.parts);
+  const scale = planarField > 0 ? field.areaM2 / planarField : 1;
+  const proj = opts.projector ?? makeProjector(field.utm);
+  const warnings: Warning[] = [];
+  const zones: SampledZone[] = [];
+  const taken: RingsPart[][] = [];
+  for (let k = 0; k < sz.keys.length; k++) {
+    let parts = clipParts(sz.parts[k], field.parts, ox, oy);
+    if (taken.length > 0 && parts.length > 0) {
+      const before = partsArea(parts);
+      parts = differenceParts(parts, taken.flat(), ox, oy);
+      const lost = before - partsArea(parts);
+      if (lost > 1e-6 * Math.max(1, before)) {
+        warnings.push({ code: 'zones-sampled-overlap', where: sz.keys[k], message: `Sampled zone "${sz.keys[k]}" overlaps an earlier zone by ${(lost * scale / M2_PER_AC).toFixed(2)} ac; the overlap stays with the earlier zone. Fix: correct the zone polygons so they do not overlap.` });
+      }
+    }
+    if (parts.length === 0) {
+      warnings.push({ code: 'zones-sampled-outside', where: sz.keys[k], message: `Sampled zone "${sz.keys[k]}" lies outside the field boundary; it is left out. Fix: check that the zone file belongs to this field.` });
+      continue;
+    }
+    taken.push(parts);
+    zones.push({ id: zones.length, key: sz.keys[k], parts, lonlat: toLonLat(parts, proj), areaM2: partsArea(parts) * scale });
+  }
+  const covered = zones.reduce((s, z) => s + z.areaM2, 0);
+  if (field.areaM2 - covered > 1e-4 * field.areaM2) {
+    warnings.push({ code: 'zones-sampled-gap', message: `The sampled zones cover ${(covered / M2_PER_AC).toFixed(2)} of the field's ${(field.areaM2 / M2_PER_AC).toFixed(2)} ac; the rest gets no rate. Fix: extend the zone polygons to the boundary.` });
+  }
+  return { zones, warnings };
+}
+
+function differenceParts(a: RingsPart[], b: RingsPart[], ox: number, oy: number): RingsPart[] {
+  const g = (ps: RingsPart[]) => ps.map((p) => [p.exterior, ...p.holes].map((r) => {
+    const out: [number, number][] = [];
+    for (let i = 0; i + 1 < r.length; i += 2) out.push([r[i] - ox, r[i + 1] - oy]);
+    return out;
+  }));
+  const res = robust(() => polyclip.difference(g(a) as polyclip.Geom, g(b) as polyclip.Geom) as [number, number][][][]);
+  return res.map((poly) => {
+    const rings = poly.map((r) => Float64Array.from(r.flatMap(([x, y]) => [x + ox, y + oy])));
+    return { exterior: rings[0], holes: rings.slice(1) };
+  }).map((p) => ({ exterior: orientCCW(p.exterior, true), holes: p.holes.map((h) => orientCCW(h, false)) }));
+}
+
+function orientCCW(r: Float64Array, ccw: boolean): Float64Array {
+  const s = ringArea(r);
+  if (s > 0 === ccw || s === 0) return r;
+  const n = r.length >> 1, out = new Float64Array(r.length);
+  for (let i = 0; i < n; i++) { out[2 * i] = r[2 * (n - 1 - i)]; out[2 * i + 1] = r[2 * (n - 1 - i) + 1]; }
+  return out;
+}
