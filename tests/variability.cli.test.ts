@@ -1,6 +1,6 @@
 /** `tilth variability` as a user runs it. */
 import { describe, expect, it } from 'vitest';
-import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
 import { spawnSync } from 'node:child_process';
@@ -71,6 +71,31 @@ describe('tilth variability on the demo quarter (invented data: plumbing, not ag
           expect(statSync(png).size).toBeGreaterThan(10_000);
         }
       }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
+
+describe('tilth variability takes the S threshold and floor from the plan and tables', () => {
+  it('a wheat plan (no S floor in the default tables) and a tables file with another canola floor', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'tilth-var-plan-'));
+    try {
+      const plan = tilth(['plan', 'init', '--crop', 'wheat']);
+      expect(plan.code, plan.stderr).toBe(0);
+      writeFileSync(join(dir, 'plan.yaml'), plan.stdout);
+      const base = ['variability', '--samples', 'sample-fields/quarter/samples.geojson', '--boundary', 'sample-fields/quarter/boundary.geojson', '--json'];
+      const w = JSON.parse(tilth([...base, '--plan', join(dir, 'plan.yaml')]).stdout);
+      expect(w.sulphur.floor).toBe(0);
+      writeFileSync(join(dir, 'tables.yaml'), 'crops:\n  canola:\n    s_floor_lb: { value: 15, source: "test agronomist" }\n    s_low_below_lb: { value: 25, source: "test agronomist" }\n');
+      const c = JSON.parse(tilth([...base, '--tables', join(dir, 'tables.yaml')]).stdout);
+      expect(c.sulphur.floor).toBe(15);
+      expect(c.threshold.value).toBe(25);
+      expect(c.threshold.source).toContain('test agronomist');
+      // --threshold and --s-floor win over the tables
+      const o = JSON.parse(tilth([...base, '--tables', join(dir, 'tables.yaml'), '--threshold', '12', '--s-floor', '5']).stdout);
+      expect(o.threshold.value).toBe(12);
+      expect(o.sulphur.floor).toBe(5);
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }

@@ -3,8 +3,10 @@ import type { Command } from 'commander';
 import { UserError } from '../errors.js';
 import type { Analyte, PMethod } from '../types.js';
 import { loadInputs } from './inputs.js';
-import { CAUTION, info, numberOption, out, printWarnings, writeOutputDir } from './util.js';
-import { analyzeVariability, sampleMapSvg, semivariogramSvg, variabilityText, type FitMethod } from '../variability/index.js';
+import { CAUTION, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
+import { tablesFromOption } from './plan.js';
+import { parsePlan } from '../agronomy/index.js';
+import { analyzeVariability, sampleMapSvg, semivariogramSvg, variabilityText, type FitMethod, type Threshold } from '../variability/index.js';
 
 const NUTRIENTS: Record<string, Analyte> = {
   s: 'so4_s', so4_s: 'so4_s', sulphur: 'so4_s', sulfur: 'so4_s', sulphate: 'so4_s', sulfate: 'so4_s',
@@ -38,8 +40,10 @@ export function register(program: Command): void {
     .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
     .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)')
     .option('--nutrient <name>', 'S, N, P, K, OM or pH', 'S')
-    .option('--threshold <value>', 'low means below this, in the nutrient\'s unit (default: S 20 lb S/ac 0-24 in, P 10 ppm Olsen / 17 ppm Kelowna, K 125 ppm; none for N, OM, pH)')
-    .option('--s-floor <lb/ac>', 'sulphate-S the plan applies regardless of the test, lb S/ac (default 10, canola, common practice)')
+    .option('--plan <file>', 'plan file (see `tilth plan init`): its crop and S strategy set the S threshold and floor from the tables (default: canola)')
+    .option('--tables <file>', 'your edited tables (see `tilth tables`)')
+    .option('--threshold <value>', 'low means below this, in the nutrient\'s unit (default: S the crop\'s s_low_below_lb from the tables, 20 lb S/ac for canola; P at or below 10 ppm Olsen / 17 ppm Kelowna; K the crop\'s k_critical_ppm, 150 for canola; none for N, OM, pH)')
+    .option('--s-floor <lb/ac>', 'sulphate-S the plan applies regardless of the test, lb S/ac (default: the crop\'s s_floor_lb from the tables, 10 for canola, common practice; 0 when the plan\'s S strategy is none)')
     .option('--fit-method <n>', 'model fit weights: 7 = N_j/h_j^2 (default, as gstat), 2 = N_j/gamma(h_j)^2 (Cressie)', '7')
     .option('--log', 'semivariogram of the natural logarithm of the values (for strongly skewed data)')
     .option('--cutoff <m>', 'largest pair distance, metres (default a third of the samples\' bounding-box diagonal)')
@@ -60,8 +64,21 @@ a lag with fewer than 30 pairs is flagged (common practice); sampling is judged 
 ${CAUTION}`)
     .action((o) => {
       const nutrient = parseNutrient(o.nutrient);
-      const threshold = numberOption('--threshold', o.threshold);
-      const sFloor = numberOption('--s-floor', o.sFloor, { min: 0 });
+      const tables = tablesFromOption(o.tables);
+      const plan = o.plan ? parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables) : null;
+      const cropName = plan?.crop ?? 'canola';
+      const crop = tables.crops[cropName];
+      const from = `${o.tables ? o.tables : 'default tables'}, ${cropName}${plan ? ` (plan ${o.plan})` : ' (no --plan: canola assumed)'}`;
+      let threshold: number | Threshold | undefined = numberOption('--threshold', o.threshold);
+      if (threshold === undefined && crop && nutrient === 'so4_s') threshold = { value: crop.s_low_below_lb.value, unit: 'lb S/ac 0-24 in', source: `${from}: ${crop.s_low_below_lb.source}` };
+      if (threshold === undefined && crop && nutrient === 'k') threshold = { value: crop.k_critical_ppm.value, unit: 'ppm K 0-6 in', source: `${from}: ${crop.k_critical_ppm.source}` };
+      let sFloor = numberOption('--s-floor', o.sFloor, { min: 0 });
+      let sFloorSource = sFloor === undefined ? undefined : '--s-floor';
+      if (sFloor === undefined && crop) {
+        const none = plan?.strategy.s.method === 'none';
+        sFloor = none ? 0 : crop.s_floor_lb.value;
+        sFloorSource = none ? `plan ${o.plan}: S strategy none` : `${from}: ${crop.s_floor_lb.source}`;
+      }
       const method = numberOption('--fit-method', o.fitMethod, { integer: true });
       if (method !== 7 && method !== 2) throw new UserError(`option --fit-method: "${o.fitMethod}" is not supported. Fix: give 7 (N_j/h_j^2) or 2 (Cressie).`);
       const cutoff = numberOption('--cutoff', o.cutoff, { min: 0 });
@@ -79,7 +96,7 @@ ${CAUTION}`)
         dropOutside: Boolean(o.dropOutside), assumeWgs84: Boolean(o.assumeWgs84),
       });
       const report = analyzeVariability(inputs.samples, inputs.field, {
-        nutrient, threshold, sFloor, transform: o.log ? 'log' : 'none', cutoff, width, fit: { method: method as FitMethod },
+        nutrient, threshold, sFloor, sFloorSource, transform: o.log ? 'log' : 'none', cutoff, width, fit: { method: method as FitMethod },
       });
       const warnings = [...inputs.warnings, ...report.warnings];
       if (o.out) {

@@ -27,10 +27,13 @@ export const MIN_PAIRS = 30;
 export interface VariabilityOptions {
   /** analyte to study; default 'so4_s' */
   nutrient?: Analyte;
-  /** "low" means below this, in the analyte's unit; default {@link defaultThreshold}; null for none */
-  threshold?: number | null;
+  /** "low" means below this, in the analyte's unit (a number: source "set by the user"; or a Threshold with its
+   * source, e.g. from the plan's tables); default {@link defaultThreshold}; null for none */
+  threshold?: number | Threshold | null;
   /** sulphate-S floor the plan applies regardless of the test, lb S/ac; default 10 (canola, common practice) */
   sFloor?: number;
+  /** where the S floor comes from, for the statement (default: canola, common practice) */
+  sFloorSource?: string;
   /** semivariogram of the values as given (default) or of their natural logarithm (skewed data) */
   transform?: 'none' | 'log';
   /** semivariogram cutoff and lag width, metres (defaults as gstat) */
@@ -132,7 +135,8 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
 
   const threshold: Threshold | null =
     opts.threshold === null ? null
-    : opts.threshold !== undefined ? { value: opts.threshold, unit: NUTRIENT_UNIT[nutrient], source: 'set by the user' }
+    : typeof opts.threshold === 'number' ? { value: opts.threshold, unit: NUTRIENT_UNIT[nutrient], source: 'set by the user' }
+    : opts.threshold !== undefined ? opts.threshold
     : defaultThreshold(nutrient, samples.pMethod);
 
   // semivariogram on the tested samples
@@ -236,7 +240,9 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
       marginal,
       marginalUpper: S_MARGINAL_UPPER,
       floor,
-      floorText: `Whatever the test, the plan applies at least ${floor} lb S/ac as sulphate on every acre (--s-floor; canola default 10 lb S/ac, common practice; Canola Encyclopedia: 10-20 lb S/ac whatever the test).`,
+      floorText: floor <= 0
+        ? `The plan applies no sulphate-S floor (${opts.sFloorSource ?? 'set to 0'}); since a not-low result is uncertain, S on the low spots above rests on the test alone.`
+        : `Whatever the test, the plan applies at least ${floor} lb S/ac as sulphate on every acre (${opts.sFloorSource ?? 'canola default 10 lb S/ac, common practice; Canola Encyclopedia: 10-20 lb S/ac whatever the test'}).`,
     };
   }
 
