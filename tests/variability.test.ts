@@ -302,3 +302,22 @@ describe('thresholds', () => {
     expect(areaShareBelow([10, 11], [1, 1], 10, true).share).toBe(0.5);
   });
 });
+
+describe('report charts', () => {
+  it('the report embeds the variability charts (the same SVG) with captions carrying the findings', async () => {
+    const { variabilityReportCharts } = await import('../src/variability/index.js');
+    const { renderReport } = await import('../src/report/index.js');
+    const { demoInput } = await import('./helpers/report-fixture.js');
+    const { samples, field } = syntheticField();
+    const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
+    const charts = variabilityReportCharts(r, samples, field);
+    expect(charts.map((c) => c.title)).toEqual(['Semivariogram of sulphate-S (0-24 in)', 'sulphate-S (0-24 in): low spots']);
+    expect(charts[1].caption).toContain('S36');
+    const inp = demoInput();
+    inp.charts = charts;
+    const html = renderReport(inp);
+    const uris = [...html.matchAll(/src="data:image\/svg\+xml;base64,([^"]+)"/g)].map((m) => Buffer.from(m[1], 'base64').toString('utf8'));
+    expect(uris).toContain(charts[0].svg);
+    expect(uris).toContain(charts[1].svg);
+  });
+});

@@ -20,6 +20,7 @@ export * from './area-share.js';
 export * from './thresholds.js';
 export * from './charts.js';
 export * from './text.js';
+export * from './report-charts.js';
 
 /** Lags with fewer pairs than this are flagged (common practice). */
 export const MIN_PAIRS = 30;
