@@ -1,6 +1,6 @@
 /**
  * The semivariogram and model fits against R's gstat on the Meuse data set (Rikken & Van Rijn 1993, shipped with
- * R's sp). Reference: tests/fixtures/gstat/meuse-gstat.json, made by `Rscript tests/fixtures/gstat/make.R` with
+ * R's sp). Reference: tests/fixtures/gstat/meuse-gstat.json, made by `Rscript tests/fixtures/gstat/variogram.R` with
  * R 4.2.2, gstat 2.1.0, sp 1.6.0; the live test re-runs that script when Rscript with gstat is installed.
  */
 import { describe, expect, it } from 'vitest';
@@ -92,7 +92,7 @@ describe('semivariogram and fits agree with R gstat on Meuse log(zinc)', () => {
   it.skipIf(!requireTool('Rscript', 'r-cran-gstat r-cran-sp', ['-e', 'library(gstat); library(sp)']))('live: runs make.R with the installed R gstat', () => {
     const dir = mkdtempSync(join(tmpdir(), 'tilth-gstat-'));
     try {
-      const r = spawnSync('Rscript', [join(FIX, 'make.R'), dir], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
+      const r = spawnSync('Rscript', [join(FIX, 'variogram.R'), dir], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
       expect(r.status, r.stderr).toBe(0);
       const ref = JSON.parse(readFileSync(join(dir, 'meuse-gstat.json'), 'utf8')) as GstatRef;
       compare(ref, dir);

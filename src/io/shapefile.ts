@@ -6,7 +6,6 @@
  */
 import { unzipSync } from 'fflate';
 import proj4 from 'proj4';
-import * as shapefile from 'shapefile';
 import { UserError } from '../errors.js';
 import type { RawPolygons, RawTable, RawValue } from './records.js';
 
@@ -134,6 +133,9 @@ export async function readShapefile(parts: ShapefileParts, opts: ShapefileOption
   } else crs = parsePrj(parts.prj, `${file} .prj`);
   const encoding = encodingFromCpg(parts.cpg);
   let fc;
+  // loaded only when a shapefile is read: the package and its text-encoding polyfill cost about 0.1 s of
+  // start-up for every command otherwise (docs/performance.md)
+  const shapefile = await import('shapefile');
   try {
     fc = await shapefile.read(parts.shp, parts.dbf, { encoding });
   } catch (e) {

@@ -1,0 +1,125 @@
+// Surface benchmark (issue 3): the whole `tilth surface` process (start, read, project, index, interpolate,
+// write) on seeded data, against gdal_grid on the same points and grid when it is installed.
+// Medians of several runs; peak memory from /usr/bin/time -v (max resident set size).
+// Usage: node scripts/bench-surface.mjs [--runs 5] [--nn]   (--nn also times gdal_grid invdistnn on the
+// largest cases, which takes minutes)
+import { execFileSync, spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { cpus, tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import proj4 from 'proj4';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const args = process.argv.slice(2);
+const RUNS = Number(args[args.indexOf('--runs') + 1]) || 5;
+const NN_ALL = args.includes('--nn');
+const TIME = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
+const HAS_GDAL = spawnSync('gdal_grid', ['--version'], { stdio: 'ignore' }).status === 0;
+
+// the bundle is what `npx tilth` runs; make sure it is current
+execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
+
+const UTM = '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs';
+const toLonLat = proj4(UTM, 'EPSG:4326');
+const X0 = 450000, Y0 = 5770000; // whole multiples of every cell size used
+
+function rng(seed) {
+  let s = seed >>> 0;
+  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 4294967296);
+}
+
+/** Writes boundary, samples (GeoJSON, lon/lat) and the same points in UTM for gdal_grid. */
+function makeCase(dir, n, side, seed) {
+  const rnd = rng(seed);
+  const e = 0.01; // keep the corners just inside whole cells
+  const ring = [[X0 + e, Y0 + e], [X0 + side - e, Y0 + e], [X0 + side - e, Y0 + side - e], [X0 + e, Y0 + side - e], [X0 + e, Y0 + e]]
+    .map(([x, y]) => toLonLat.forward([x, y]));
+  writeFileSync(join(dir, 'boundary.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'Bench field' }, geometry: { type: 'Polygon', coordinates: [ring] } }] }));
+  const feats = [], csv = ['x,y,z'];
+  // stratified random: one point in each of n strata of a m x m lattice (the input stage refuses two
+  // samples at one place), jittered within the middle 80 % of its stratum
+  const m = Math.ceil(Math.sqrt(n)), w = (side - 2) / m;
+  const strata = [...Array(m * m).keys()];
+  for (let i = strata.length - 1; i > 0; i--) { const j = Math.floor(rnd() * (i + 1)); [strata[i], strata[j]] = [strata[j], strata[i]]; }
+  for (let i = 0; i < n; i++) {
+    const sx = strata[i] % m, sy = Math.floor(strata[i] / m);
+    const x = X0 + 1 + (sx + 0.1 + 0.8 * rnd()) * w, y = Y0 + 1 + (sy + 0.1 + 0.8 * rnd()) * w;
+    const [lon, lat] = toLonLat.forward([x, y]).map((v) => Math.round(v * 1e8) / 1e8);
+    const p = Math.round((8 + 30 * rnd() + (10 * (x - X0)) / side) * 10) / 10;
+    feats.push({ type: 'Feature', properties: { sample_id: `B${i + 1}`, p_olsen_ppm: p }, geometry: { type: 'Point', coordinates: [lon, lat] } });
+    const [px, py] = toLonLat.inverse([lon, lat]);
+    csv.push(`${px},${py},${p}`);
+  }
+  writeFileSync(join(dir, 'samples.geojson'), JSON.stringify({ type: 'FeatureCollection', features: feats }));
+  writeFileSync(join(dir, 'points.csv'), csv.join('\n') + '\n');
+  writeFileSync(join(dir, 'points.vrt'), `<OGRVRTDataSource><OGRVRTLayer name="points"><SrcDataSource>${join(dir, 'points.csv')}</SrcDataSource><SrcLayer>points</SrcLayer><GeometryType>wkbPoint</GeometryType><GeometryField encoding="PointFromColumns" x="x" y="y" z="z"/></OGRVRTLayer></OGRVRTDataSource>`);
+}
+
+/** Runs a command `runs` times; median wall seconds and max peak RSS (MB). */
+function measure(cmd, argv, runs, cwd) {
+  const walls = [], rss = [], cpu = [];
+  for (let r = 0; r < runs; r++) {
+    const t0 = process.hrtime.bigint();
+    const res = TIME ? spawnSync(TIME, ['-v', cmd, ...argv], { cwd, encoding: 'utf8' }) : spawnSync(cmd, argv, { cwd, encoding: 'utf8' });
+    const wall = Number(process.hrtime.bigint() - t0) / 1e9;
+    if (res.status !== 0) throw new Error(`${cmd} ${argv.join(' ')} failed (${res.status}):\n${res.stderr}`);
+    walls.push(wall);
+    const m = /Maximum resident set size \(kbytes\): (\d+)/.exec(res.stderr ?? '');
+    if (m) rss.push(Number(m[1]) / 1024);
+    const u = /User time \(seconds\): ([\d.]+)/.exec(res.stderr ?? ''), sy = /System time \(seconds\): ([\d.]+)/.exec(res.stderr ?? '');
+    if (u && sy) cpu.push(Number(u[1]) + Number(sy[1]));
+  }
+  const med = (a) => (a.length ? [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)] : NaN);
+  return { wall: med(walls), cpu: med(cpu), rss: rss.length ? Math.max(...rss) : NaN };
+}
+
+const CASES = [
+  { n: 50, cells: 160, cell: 5 },
+  { n: 500, cells: 160, cell: 5 },
+  { n: 5000, cells: 160, cell: 5 },
+  { n: 50, cells: 800, cell: 5 },
+  { n: 500, cells: 800, cell: 5 },
+  { n: 5000, cells: 800, cell: 5 },
+  // the build benchmark's size: 1 m cells on a 640 ac section (1 mile square), one sample per acre
+  { n: 640, cells: 1610, cell: 1, label: '640 ac @ 1 m' },
+];
+
+console.log(`machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; ${RUNS} runs per figure (median wall, max peak RSS)`);
+console.log('tilth: tilth surface --power 2 --neighbours 12 (whole process, bundled CLI)');
+if (HAS_GDAL) console.log('gdal_grid 3.6: invdist:power=2:smoothing=0 (all points) and invdistnn:power=2:max_points=12 on the same points and grid');
+console.log('');
+console.log('wall = median elapsed seconds; cpu = median user + system seconds (all threads); MB = peak resident memory');
+console.log('| samples | grid | tilth wall | tilth cpu | tilth MB | invdist wall | invdist cpu | invdist / tilth (wall) | invdistnn wall | invdistnn / tilth (wall) |');
+console.log('|---:|---|---:|---:|---:|---:|---:|---:|---:|---:|');
+for (const c of CASES) {
+  const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-'));
+  try {
+    const side = c.cells * c.cell;
+    makeCase(dir, c.n, side, 1000 + c.n);
+    const out = join(dir, 'p.asc');
+    const tilthArgs = [join(root, 'bin', 'tilth.js'), 'surface', '--samples', join(dir, 'samples.geojson'), '--boundary', join(dir, 'boundary.geojson'), '--nutrient', 'p', '--cell', String(c.cell), '--power', '2', '--neighbours', '12', '--out', out];
+    const t = measure(process.execPath, tilthArgs, RUNS, root);
+    const head = readFileSync(out, 'utf8').slice(0, 300).split('\n');
+    const h = Object.fromEntries(head.slice(0, 6).map((l) => l.split(/\s+/)).map(([k, v]) => [k.toLowerCase(), Number(v)]));
+    let gi = '', gc = '', gr = '', nn = '', nr = '';
+    if (HAS_GDAL) {
+      const base = ['-q', '-ot', 'Float64', '-of', 'GTiff', '-txe', String(h.xllcorner), String(h.xllcorner + h.ncols * h.cellsize), '-tye', String(h.yllcorner + h.nrows * h.cellsize), String(h.yllcorner), '-outsize', String(h.ncols), String(h.nrows), '-zfield', 'z', '-l', 'points'];
+      const g = measure('gdal_grid', [...base, '-a', 'invdist:power=2:smoothing=0', join(dir, 'points.vrt'), join(dir, 'g.tif')], Math.min(RUNS, 3), dir);
+      gi = g.wall.toFixed(3);
+      gc = g.cpu.toFixed(3);
+      gr = (g.wall / t.wall).toFixed(2);
+      const nnCost = c.n * c.cells * c.cells;
+      if (NN_ALL || nnCost <= 5000 * 160 * 160) {
+        const g2 = measure('gdal_grid', [...base, '-a', `invdistnn:power=2:max_points=12:radius=${2 * side}`, join(dir, 'points.vrt'), join(dir, 'g2.tif')], 1, dir);
+        nn = g2.wall.toFixed(2);
+        nr = (g2.wall / t.wall).toFixed(0);
+      } else {
+        nn = 'skipped (--nn)';
+      }
+    }
+    console.log(`| ${c.n} | ${c.label ?? `${c.cells} x ${c.cells}`} (${h.ncols} x ${h.nrows}) | ${t.wall.toFixed(3)} | ${t.cpu.toFixed(3)} | ${Number.isNaN(t.rss) ? 'n/a' : t.rss.toFixed(0)} | ${gi} | ${gc} | ${gr} | ${nn} | ${nr} |`);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}

@@ -1,0 +1,113 @@
+/** `tilth surface`: one nutrient's interpolated map as an Esri ASCII grid (.asc + .prj), and the cross-validation table. */
+import type { Command } from 'commander';
+import { UserError } from '../errors.js';
+import type { PMethod } from '../types.js';
+import { analyteFromName, ANALYTE_LABEL, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, utmPrj, type NutrientSurface } from '../surface/index.js';
+import { loadInputs } from './inputs.js';
+import { info, numberOption, out, printWarnings, writeFileAtomic } from './util.js';
+
+export function register(program: Command): void {
+  program
+    .command('surface')
+    .description('Map one soil-test nutrient over the field by inverse-distance weighting (power and neighbours chosen by cross-validation unless given) and write an Esri ASCII grid (.asc with .prj) in the field\'s UTM zone.')
+    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
+    .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
+    .requiredOption('--nutrient <name>', 'no3_n (or n, nitrate), p, k, so4_s (or s, sulphate, sulfate), om, ph')
+    .requiredOption('--out <file.asc>', 'output grid; the .prj is written beside it')
+    .option('--cell <metres>', 'cell size in metres', '5')
+    .option('--power <p|auto>', 'IDW distance power, or auto (lowest cross-validation RMSE of 1, 1.5, 2, 3)', 'auto')
+    .option('--neighbours <k|all|auto>', 'nearest samples per cell, all, or auto (lowest RMSE of 8, 12, 16, all)', 'auto')
+    .option('--radius <metres>', 'use only samples within this distance (default: no limit)')
+    .option('--min-neighbours <n>', 'leave a cell empty when fewer samples are within --radius', '1')
+    .option('--zones <file>', 'zone polygons that zone-composite samples are keyed to (.geojson, .shp, .zip); each zone takes its sample value')
+    .option('--columns <map>', 'CSV column map, e.g. "id=Sample ID,lat=Lat,lon=Long,p=P Olsen:ppm" (headers are recognised otherwise)')
+    .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
+    .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
+    .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
+    .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)')
+    .option('--decimals <n>', 'decimals written in the grid', '3')
+    .option('--json', 'print the result (choice, cross-validation table, warnings) as JSON on stdout')
+    .addHelpText(
+      'after',
+      '\nExample:\n  tilth surface --samples sample-fields/quarter/samples.geojson --boundary sample-fields/quarter/boundary.geojson \\\n' +
+        '    --nutrient p --cell 5 --power auto --neighbours 12 --out p.asc\n' +
+        '  tilth surface --samples sample-fields/zoned/samples.geojson --boundary sample-fields/zoned/boundary.geojson \\\n' +
+        '    --zones sample-fields/zoned/zones.geojson --nutrient s --out s.asc\n\n' +
+        'Values are in canonical units: nitrate-N and sulphate-S lb/ac 0-24 in, P and K ppm, OM %, pH.\n' +
+        'Cells whose area is partly inside the field get values (so zones cover the field); others are NODATA (-9999).',
+    )
+    .action((o) => {
+      const analyte = analyteFromName(o.nutrient);
+      const cell = numberOption('--cell', o.cell, { min: 0.01 })!;
+      const power = o.power === 'auto' ? 'auto' : numberOption('--power', o.power, { min: 0.1, max: 10 })!;
+      const nb = String(o.neighbours).toLowerCase();
+      const neighbours = nb === 'auto' ? 'auto' : nb === 'all' ? Infinity : numberOption('--neighbours', o.neighbours, { min: 1, integer: true })!;
+      const radius = numberOption('--radius', o.radius, { min: 0.01 });
+      const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, { min: 1, integer: true });
+      const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
+      if (!/\.asc$/i.test(o.out)) throw new UserError(`--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`, { file: o.out });
+      let pMethod: PMethod | undefined;
+      if (o.pMethod !== undefined) {
+        const m = String(o.pMethod).toLowerCase();
+        if (m !== 'olsen' && m !== 'kelowna') throw new UserError(`option --p-method: "${o.pMethod}" is not olsen or kelowna. Fix: give --p-method olsen or --p-method kelowna.`);
+        pMethod = m;
+      }
+      const inputs = loadInputs({
+        samples: o.samples, boundary: o.boundary, zones: o.zones, columns: o.columns, pMethod,
+        depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 1, max: 10 }),
+        dropOutside: Boolean(o.dropOutside), assumeWgs84: Boolean(o.assumeWgs84),
+      });
+      const grid = fieldGrid(inputs.field, cell);
+      const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours });
+      const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
+      writeFileAtomic(o.out, formatAsc(grid, s.values, { decimals }));
+      writeFileAtomic(o.out.replace(/\.asc$/i, '.prj'), utmPrj(inputs.field.utm));
+      if (o.json) {
+        out(JSON.stringify(summary(s, o.out, inputs.field.utm.epsg, warnings), (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? (Number.isNaN(v) ? null : 'all') : v), 2));
+      } else {
+        printWarnings(warnings);
+        if (s.cv) out(cvText(s));
+        info(`${ANALYTE_LABEL[analyte]}: ${s.choice}.`);
+        info(`wrote ${o.out} (${grid.cols} x ${grid.rows} cells of ${cell} m, EPSG:${inputs.field.utm.epsg}) and its .prj; values ${round(s.min)} to ${round(s.max)} from ${s.samplesUsed} samples.`);
+      }
+    });
+}
+
+function summary(s: NutrientSurface, file: string, epsg: number, warnings: unknown[]) {
+  const g = s.grid;
+  return {
+    nutrient: s.analyte,
+    unit: ANALYTE_LABEL[s.analyte],
+    file,
+    epsg,
+    grid: { xmin: g.xmin, ymax: g.ymax, cell: g.cell, cols: g.cols, rows: g.rows },
+    method: s.method,
+    power: s.power,
+    neighbours: s.neighbours,
+    choice: s.choice,
+    samplesUsed: s.samplesUsed,
+    min: s.min,
+    max: s.max,
+    crossValidation: s.cv?.table ?? null,
+    warnings,
+  };
+}
+
+/** The cross-validation table as aligned text, the chosen row marked with "*". */
+export function cvText(s: NutrientSurface): string {
+  if (!s.cv) return `${ANALYTE_LABEL[s.analyte]}: no cross-validation table (${s.choice}).`;
+  const lines = [`leave-one-out cross-validation, ${ANALYTE_LABEL[s.analyte]} (${s.samplesUsed} samples)`, '  power  neighbours        RMSE         MAE        bias     n'];
+  for (const r of s.cv.table) {
+    const mark = r.power === s.power && r.neighbours === s.neighbours ? '*' : ' ';
+    lines.push(`${mark} ${String(r.power).padStart(5)}  ${kName(r.neighbours).padStart(10)}  ${f(r.rmse)}  ${f(r.mae)}  ${f(r.bias)}  ${String(r.n).padStart(4)}`);
+  }
+  return lines.join('\n');
+}
+
+function f(v: number): string {
+  return (Number.isFinite(v) ? v.toPrecision(5) : 'n/a').padStart(10);
+}
+
+function round(v: number): number {
+  return Math.round(v * 1000) / 1000;
+}

@@ -1,0 +1,191 @@
+/**
+ * One call per nutrient: choose IDW power and neighbour count by cross-validation (or take the user's),
+ * interpolate on the field grid, or paint zone values for zone-composite samples.
+ */
+import { UserError, type Warning } from '../errors.js';
+import type { Analyte, Grid, SampleZones, Samples } from '../types.js';
+import { crossValidate, DEFAULT_NEIGHBOURS, DEFAULT_POWERS, type CvResult, type CvRow } from './crossValidate.js';
+import { idwSurface } from './idw.js';
+import { nutrientPoints } from './prepare.js';
+import { zoneSurface } from './zoneSurface.js';
+
+/** Label with the canonical unit (src/types.ts), for messages and tables. */
+export const ANALYTE_LABEL: Record<Analyte, string> = {
+  no3_n: 'nitrate-N (lb/ac, 0-24 in)',
+  p: 'P (ppm)',
+  k: 'K (ppm)',
+  so4_s: 'sulphate-S (lb/ac, 0-24 in)',
+  om: 'organic matter (%)',
+  ph: 'pH',
+};
+
+const NAMES: Record<string, Analyte> = {
+  no3_n: 'no3_n', n: 'no3_n', nitrate: 'no3_n', 'no3-n': 'no3_n', no3: 'no3_n',
+  p: 'p', phosphorus: 'p',
+  k: 'k', potassium: 'k',
+  so4_s: 'so4_s', s: 'so4_s', sulphate: 'so4_s', sulfate: 'so4_s', 'so4-s': 'so4_s', so4: 'so4_s',
+  om: 'om', ph: 'ph',
+};
+
+/**
+ * The analyte for a name as people type it (case-insensitive): no3_n | n | nitrate, p, k,
+ * so4_s | s | sulphate | sulfate, om, ph.
+ * @throws UserError naming the accepted names
+ * @example analyteFromName('Sulfate') // 'so4_s'
+ */
+export function analyteFromName(name: string): Analyte {
+  const a = NAMES[name.trim().toLowerCase()];
+  if (!a) throw new UserError(`nutrient "${name}" is not known. Fix: use one of no3_n (or n, nitrate), p, k, so4_s (or s, sulphate, sulfate), om, ph.`, { field: 'nutrient', value: name });
+  return a;
+}
+
+/** Above this many samples "all" is left out of the automatic neighbour choice (n^2 cost); a warning says so. */
+export const ALL_CV_LIMIT = 20_000;
+
+/** Options for {@link nutrientSurface}. */
+export interface NutrientSurfaceOptions {
+  /** IDW power, or 'auto' = lowest cross-validation RMSE among `powers` (default 'auto'); a number is the only candidate */
+  power?: number | 'auto';
+  /** nearest samples used (Infinity = all), or 'auto' (default 'auto') */
+  neighbours?: number | 'auto';
+  /** candidate powers for 'auto' (default 1, 1.5, 2, 3) */
+  powers?: number[];
+  /** candidate neighbour counts for 'auto' (default 8, 12, 16, all) */
+  neighbourChoices?: number[];
+  /** search radius in metres (default none) */
+  radius?: number;
+  /** NaN where fewer samples lie within the radius (default 1) */
+  minNeighbours?: number;
+  /** skip cross-validation when power and neighbours are both given (default false: a one-row table for the given pair is made) */
+  skipCv?: boolean;
+}
+
+/** A nutrient's surface on the field grid. */
+export interface NutrientSurface {
+  analyte: Analyte;
+  grid: Grid;
+  /** row-major north-up values where grid.fraction > 0, NaN elsewhere */
+  values: Float64Array;
+  method: 'idw' | 'zones' | 'single-sample';
+  /** power and neighbour count used (idw); NaN otherwise */
+  power: number;
+  neighbours: number;
+  /** how they were chosen, for people */
+  choice: string;
+  cv: CvResult | null;
+  /** samples used after skipping and merging */
+  samplesUsed: number;
+  min: number;
+  max: number;
+  warnings: Warning[];
+}
+
+/**
+ * Builds one nutrient's surface on a field grid. Zone-composite samples (zones given and samples keyed)
+ * paint each zone with its value; otherwise IDW with power and neighbours chosen by leave-one-out
+ * cross-validation ('auto') or as given.
+ *
+ * @param samples validated, projected samples (canonical units)
+ * @param analyte which nutrient
+ * @param grid the field grid (fieldGrid); values are computed where fraction > 0
+ * @param zones zone polygons for zone-composite samples, else null
+ * @param opts power 'auto', neighbours 'auto', powers [1, 1.5, 2, 3], neighbourChoices [8, 12, 16, all]
+ * @throws UserError when no sample has a value for the nutrient
+ * @example const s = nutrientSurface(inputs.samples, 'p', fieldGrid(inputs.field, 5), inputs.zones); s.cv?.table
+ */
+export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' | 'zone'>, analyte: Analyte, grid: Grid, zones: SampleZones | null = null, opts: NutrientSurfaceOptions = {}): NutrientSurface {
+  const label = ANALYTE_LABEL[analyte];
+  const pts = nutrientPoints(samples.xy, samples.values[analyte], samples.ids, label, samples.zone);
+  const warnings = [...pts.warnings];
+  const n = pts.z.length;
+  if (n === 0) {
+    throw new UserError(`no sample has a value for ${label}. Fix: choose a nutrient the lab tested, or add its values to the samples file.`, { field: analyte });
+  }
+  let min = Infinity, max = -Infinity;
+  for (const v of pts.z) { min = Math.min(min, v); max = Math.max(max, v); }
+  if (n > 1 && min === max) {
+    warnings.push({ code: 'surface.flat', message: `${label}: all ${n} samples have the value ${min}; the map is flat.`, field: label });
+  }
+  const base = { analyte, grid, cv: null as CvResult | null, samplesUsed: n, min, max, warnings };
+
+  const keyed = zones !== null && pts.zone.some((z) => z !== null);
+  if (keyed) {
+    const byKey = new Map<string, number[]>();
+    pts.zone.forEach((k, i) => { if (k !== null) { const a = byKey.get(k); if (a) a.push(pts.z[i]); else byKey.set(k, [pts.z[i]]); } });
+    for (const [k, vs] of byKey) {
+      if (!zones.keys.includes(k)) warnings.push({ code: 'surface.zone-unknown', message: `${label}: samples keyed to zone "${k}" match no zone polygon and are not used.`, where: k, field: label });
+      if (vs.length > 1) warnings.push({ code: 'surface.zone-several', message: `${label}: zone "${k}" has ${vs.length} samples (${vs.join(', ')}); their average is used.`, where: k, field: label });
+    }
+    const zs = zones.keys.map((key, i) => {
+      const vs = byKey.get(key);
+      return { key, parts: zones.parts[i], value: vs ? vs.reduce((a, b) => a + b, 0) / vs.length : NaN };
+    });
+    const r = zoneSurface(grid, zs, label);
+    warnings.push(...r.warnings);
+    return { ...base, values: r.values, method: 'zones', power: NaN, neighbours: NaN, choice: 'zone-composite samples: each zone takes its sample value' };
+  }
+
+  if (n === 1) {
+    const values = new Float64Array(grid.cols * grid.rows).fill(NaN);
+    for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0) values[i] = pts.z[0];
+    warnings.push({ code: 'surface.one-sample', message: `${label}: only one sample (${pts.ids[0]}) has a value; the whole field takes it.`, field: label });
+    return { ...base, values, method: 'single-sample', power: NaN, neighbours: NaN, choice: 'one sample: uniform value' };
+  }
+
+  const fixedP = typeof opts.power === 'number' ? opts.power : null;
+  const fixedK = typeof opts.neighbours === 'number' ? opts.neighbours : null;
+  let cv: CvResult | null = null;
+  let choices = opts.neighbourChoices ?? DEFAULT_NEIGHBOURS;
+  if (fixedK === null && n > ALL_CV_LIMIT && choices.some((k) => !Number.isFinite(k))) {
+    // leave-one-out with every sample costs n^2 distance pairs: too slow for very dense data
+    choices = choices.filter((k) => Number.isFinite(k));
+    warnings.push({ code: 'surface.cv-all-skipped', message: `${label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (give --neighbours all to use it).`, field: label });
+  }
+  if (!(opts.skipCv && fixedP !== null && fixedK !== null)) {
+    // a fixed value is the only candidate on its axis: with both given, the table is the one row that says
+    // how well the given pair predicts left-out samples (cheap), not a search
+    cv = crossValidate(pts.xy, pts.z, {
+      powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
+      neighbours: fixedK !== null ? [fixedK] : choices,
+      radius: opts.radius,
+      minNeighbours: opts.minNeighbours,
+    });
+  }
+  let power = fixedP ?? 2, neighbours = fixedK ?? 12;
+  let choice: string;
+  if (cv) {
+    const rows = cv.table.filter((r) => (fixedP === null || r.power === fixedP) && (fixedK === null || r.neighbours === fixedK));
+    let best: CvRow = rows[0];
+    for (const r of rows) if (r.rmse < best.rmse || Number.isNaN(best.rmse)) best = r;
+    power = best.power;
+    neighbours = best.neighbours;
+    const what = fixedP === null && fixedK === null ? 'power and neighbours' : fixedP === null ? 'power' : fixedK === null ? 'neighbours' : '';
+    choice = what
+      ? `${what} chosen by leave-one-out cross-validation: lowest RMSE ${fmt(best.rmse)} at power ${power}, ${kName(neighbours)} neighbours`
+      : `power ${power} and ${kName(neighbours)} neighbours as given (leave-one-out RMSE ${fmt(best.rmse)}; use --power auto --neighbours auto to compare others)`;
+  } else {
+    choice = n < 3 ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)` : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
+    if (n < 3) warnings.push({ code: 'surface.few-samples', message: `${label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`, field: label });
+  }
+  const values = idwSurface(pts.xy, pts.z, grid, { power, neighbours, radius: opts.radius, minNeighbours: opts.minNeighbours });
+  let empty = 0;
+  for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0 && Number.isNaN(values[i])) empty++;
+  if (empty) {
+    warnings.push({
+      code: 'surface.cells-empty',
+      message: `${label}: ${empty} field cell${empty > 1 ? 's have' : ' has'} fewer than ${opts.minNeighbours ?? 1} sample${(opts.minNeighbours ?? 1) > 1 ? 's' : ''} within the ${opts.radius} m search radius and no value. Fix: use a larger radius (--radius) or fewer minimum neighbours.`,
+      field: label,
+    });
+  }
+  return { ...base, cv, values, method: 'idw', power, neighbours, choice };
+}
+
+/** "all" for Infinity, else the count. */
+export function kName(k: number): string {
+  return Number.isFinite(k) ? String(k) : 'all';
+}
+
+function fmt(v: number): string {
+  return Number.isFinite(v) ? String(Number(v.toPrecision(4))) : 'n/a';
+}
+
