@@ -41,6 +41,8 @@ describe('tilth variability on the demo quarter (invented data: plumbing, not ag
     expect(r.stdout).toMatch(/Spatial dependence: (STRONG|MODERATE|WEAK)/);
     expect(r.stdout).toMatch(/ac per sample/);
     expect(r.stdout).toContain('not low says little');
+    // the share of the interpolated area below the threshold, from the surface stage's IDW
+    expect(r.stdout).toMatch(/\d+ % of the mapped area/);
   });
 
   it('--json agrees with the samples file: every listed low sample is below the threshold', () => {
@@ -53,6 +55,12 @@ describe('tilth variability on the demo quarter (invented data: plumbing, not ag
     for (const l of j.low) expect(l.value).toBeLessThan(20);
     expect(['strong', 'moderate', 'weak']).toContain(j.dependence.class);
     expect(j.sulphur.floor).toBe(10);
+    expect(j.shareBelow.area).toBeGreaterThan(0);
+    expect(j.shareBelow.area).toBeLessThan(1);
+    // without the surface, only the sample share
+    const ns = JSON.parse(tilth([...args, '--json', '--no-surface']).stdout);
+    expect(ns.shareBelow.area).toBeNull();
+    expect(ns.shareBelow.samples).toBe(j.shareBelow.samples);
   });
 
   it('--out writes the charts and JSON as one folder; they render in Chromium', () => {

@@ -89,7 +89,7 @@ describe('semivariogram and fits agree with R gstat on Meuse log(zinc)', () => {
     compare(ref, FIX);
   });
 
-  it.skipIf(!requireTool('Rscript', 'r-cran-gstat r-cran-sp', ['-e', 'library(gstat); library(sp)']))('live: runs make.R with the installed R gstat', () => {
+  it.skipIf(!requireTool('Rscript', 'r-cran-gstat r-cran-sp', ['-e', 'library(gstat); library(sp)']))('live: runs variogram.R with the installed R gstat', () => {
     const dir = mkdtempSync(join(tmpdir(), 'tilth-gstat-'));
     try {
       const r = spawnSync('Rscript', [join(FIX, 'variogram.R'), dir], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });

@@ -6,6 +6,7 @@ import { loadInputs } from './inputs.js';
 import { CAUTION, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
 import { tablesFromOption } from './plan.js';
 import { parsePlan } from '../agronomy/index.js';
+import { fieldGrid, gridWarnings, nutrientSurface } from '../surface/index.js';
 import { analyzeVariability, sampleMapSvg, semivariogramSvg, variabilityText, type FitMethod, type Threshold } from '../variability/index.js';
 
 const NUTRIENTS: Record<string, Analyte> = {
@@ -44,6 +45,8 @@ export function register(program: Command): void {
     .option('--tables <file>', 'your edited tables (see `tilth tables`)')
     .option('--threshold <value>', 'low means below this, in the nutrient\'s unit (default: S the crop\'s s_low_below_lb from the tables, 20 lb S/ac for canola; P at or below 10 ppm Olsen / 17 ppm Kelowna; K the crop\'s k_critical_ppm, 150 for canola; none for N, OM, pH)')
     .option('--s-floor <lb/ac>', 'sulphate-S the plan applies regardless of the test, lb S/ac (default: the crop\'s s_floor_lb from the tables, 10 for canola, common practice; 0 when the plan\'s S strategy is none)')
+    .option('--cell <metres>', 'cell size of the interpolated surface (IDW, power and neighbours by cross-validation, as `tilth surface`) used for the share of area below the threshold and the map', '10')
+    .option('--no-surface', 'skip the interpolated surface (samples only)')
     .option('--fit-method <n>', 'model fit weights: 7 = N_j/h_j^2 (default, as gstat), 2 = N_j/gamma(h_j)^2 (Cressie)', '7')
     .option('--log', 'semivariogram of the natural logarithm of the values (for strongly skewed data)')
     .option('--cutoff <m>', 'largest pair distance, metres (default a third of the samples\' bounding-box diagonal)')
@@ -95,9 +98,19 @@ ${CAUTION}`)
         depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 1, max: 10 }),
         dropOutside: Boolean(o.dropOutside), assumeWgs84: Boolean(o.assumeWgs84),
       });
+      const cell = numberOption('--cell', o.cell, { min: 0.5 })!;
+      let surf: { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string } | undefined;
+      const surfaceWarnings = [];
+      if (o.surface !== false) {
+        const grid = fieldGrid(inputs.field, cell);
+        const s = nutrientSurface(inputs.samples, nutrient, grid, inputs.zones);
+        surf = { grid, values: s.values, note: `${cell} m cells; ${s.choice}` };
+        surfaceWarnings.push(...gridWarnings(grid, inputs.field.name), ...s.warnings);
+      }
       const report = analyzeVariability(inputs.samples, inputs.field, {
         nutrient, threshold, sFloor, sFloorSource, transform: o.log ? 'log' : 'none', cutoff, width, fit: { method: method as FitMethod },
-      });
+      }, surf ? { values: surf.values, fraction: surf.grid.fraction, cell: surf.grid.cell, note: surf.note } : undefined);
+      report.warnings.push(...surfaceWarnings);
       const warnings = [...inputs.warnings, ...report.warnings];
       if (o.out) {
         const stem = nutrient;
@@ -105,6 +118,7 @@ ${CAUTION}`)
         const map = sampleMapSvg({
           parts: inputs.field.parts, xy: inputs.samples.xy, values: inputs.samples.values[nutrient], ids: inputs.samples.ids,
           label: report.label, unit: report.unit, threshold: report.threshold?.value ?? null, thresholdInclusive: report.threshold?.inclusive,
+          surface: surf ? { grid: surf.grid, values: surf.values } : undefined,
         });
         const files = new Map<string, string>([
           [`${stem}-semivariogram.svg`, sv],

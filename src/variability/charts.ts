@@ -264,6 +264,8 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
     // colours quantised to 48 steps and equal neighbours in a row merged into one rectangle (small files)
     const g = input.surface.grid;
     const q = (v: number) => Math.round(((v - vmin) / (vmax - vmin)) * 47);
+    // opacity on the group, so the slight overlaps that hide seams do not darken
+    o.push('<g opacity="0.75" shape-rendering="crispEdges">');
     for (let r = 0; r < g.rows; r++) {
       let c = 0;
       while (c < g.cols) {
@@ -275,10 +277,11 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
         while (e < g.cols && g.mask[r * g.cols + e] && Number.isFinite(input.surface.values[r * g.cols + e]) && q(input.surface.values[r * g.cols + e]) === b) e++;
         const x0 = g.xmin + c * g.cell;
         const y0 = g.ymax - r * g.cell;
-        o.push(`<rect x="${sx(x0).toFixed(1)}" y="${sy(y0).toFixed(1)}" width="${((e - c) * g.cell * scale + 0.6).toFixed(1)}" height="${(g.cell * scale + 0.6).toFixed(1)}" fill="${viridis(b / 47)}" opacity="0.8"/>`);
+        o.push(`<rect x="${sx(x0).toFixed(1)}" y="${sy(y0).toFixed(1)}" width="${((e - c) * g.cell * scale + 0.6).toFixed(1)}" height="${(g.cell * scale + 0.6).toFixed(1)}" fill="${viridis(b / 47)}"/>`);
         c = e;
       }
     }
+    o.push('</g>');
   }
   // boundary
   let d = '';
@@ -354,6 +357,10 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
     ky += 26;
   }
   o.push(`<line x1="${lx}" y1="${ky}" x2="${lx + 22}" y2="${ky}" stroke="#222" stroke-width="2"/><text x="${lx + 28}" y="${ky + 4}" font-size="12">field boundary</text>`);
+  if (input.surface) {
+    ky += 26;
+    o.push(`<rect x="${lx}" y="${ky - 8}" width="22" height="16" fill="${viridis(0.4)}" opacity="0.75"/><text x="${lx + 28}" y="${ky + 4}" font-size="12">interpolated (IDW)</text>`);
+  }
   // scale bar: a nice length about a quarter of the map width
   const target = (xmax - xmin) / 4;
   const mag = Math.pow(10, Math.floor(Math.log10(Math.max(target, 1))));

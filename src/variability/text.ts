@@ -29,7 +29,7 @@ export function variabilityText(r: VariabilityReport): string {
     L.push(`  threshold       ${r.threshold.value} ${r.threshold.unit} ("low" is ${r.threshold.inclusive ? 'at or below' : 'below'} it)`);
     L.push(wrap(`source: ${r.threshold.source}`, '                  '));
     const sb = r.shareBelow;
-    if (sb) L.push(`  below it        ${f(100 * sb.samples, 0)} % of samples; ${sb.area === null ? 'share of the mapped area: not computed (no surface)' : `${f(100 * sb.area, 0)} % of the mapped area (${f(sb.areaAc ?? NaN)} ac; ${sb.surface})`}`);
+ if (sb) L.push(wrap(`  below it        ${f(100 * sb.samples, 0)} % of samples; ${sb.area === null ? 'share of the mapped area: not computed (no surface)' : `${f(100 * sb.area, 0)} % of the mapped area (${f(sb.areaAc ?? NaN)} ac; ${sb.surface})`}`, '                  '));
   } else {
     L.push('  threshold       none for this nutrient (give --threshold to mark low spots)');
   }
