@@ -99,12 +99,12 @@ ${CAUTION}`)
         dropOutside: Boolean(o.dropOutside), assumeWgs84: Boolean(o.assumeWgs84),
       });
       const cell = numberOption('--cell', o.cell, { min: 0.5 })!;
-      let surf: { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string } | undefined;
+      let surf: { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string; label: string } | undefined;
       const surfaceWarnings = [];
       if (o.surface !== false) {
         const grid = fieldGrid(inputs.field, cell);
         const s = nutrientSurface(inputs.samples, nutrient, grid, inputs.zones);
-        surf = { grid, values: s.values, note: `${cell} m cells; ${s.choice}` };
+        surf = { grid, values: s.values, note: `${cell} m cells; ${s.choice}`, label: s.method === 'zones' ? 'zone sample value' : 'interpolated (IDW)' };
         surfaceWarnings.push(...gridWarnings(grid, inputs.field.name), ...s.warnings);
       }
       const report = analyzeVariability(inputs.samples, inputs.field, {
@@ -118,7 +118,7 @@ ${CAUTION}`)
         const map = sampleMapSvg({
           parts: inputs.field.parts, xy: inputs.samples.xy, values: inputs.samples.values[nutrient], ids: inputs.samples.ids,
           label: report.label, unit: report.unit, threshold: report.threshold?.value ?? null, thresholdInclusive: report.threshold?.inclusive,
-          surface: surf ? { grid: surf.grid, values: surf.values } : undefined,
+          surface: surf ? { grid: surf.grid, values: surf.values, label: surf.label } : undefined,
         });
         const files = new Map<string, string>([
           [`${stem}-semivariogram.svg`, sv],

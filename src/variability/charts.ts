@@ -207,7 +207,7 @@ export interface SampleMapInput {
   /** the threshold value itself counts as low (default false) */
   thresholdInclusive?: boolean;
   /** optional interpolated surface drawn beneath the samples */
-  surface?: { grid: Grid; values: ArrayLike<number> };
+  surface?: { grid: Grid; values: ArrayLike<number>; /** legend text, default 'interpolated (IDW)' */ label?: string };
 }
 
 /**
@@ -359,7 +359,7 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
   o.push(`<line x1="${lx}" y1="${ky}" x2="${lx + 22}" y2="${ky}" stroke="#222" stroke-width="2"/><text x="${lx + 28}" y="${ky + 4}" font-size="12">field boundary</text>`);
   if (input.surface) {
     ky += 26;
-    o.push(`<rect x="${lx}" y="${ky - 8}" width="22" height="16" fill="${viridis(0.4)}" opacity="0.75"/><text x="${lx + 28}" y="${ky + 4}" font-size="12">interpolated (IDW)</text>`);
+    o.push(`<rect x="${lx}" y="${ky - 8}" width="22" height="16" fill="${viridis(0.4)}" opacity="0.75"/><text x="${lx + 28}" y="${ky + 4}" font-size="12">${esc(input.surface.label ?? 'interpolated (IDW)')}</text>`);
   }
   // scale bar: a nice length about a quarter of the map width
   const target = (xmax - xmin) / 4;
