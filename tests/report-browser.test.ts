@@ -7,13 +7,13 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, readdirSync, rmSync, writeFileSync, existsSync, statSync } from 'node:fs';
+import { mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync, existsSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium, type Browser, type Page } from 'playwright-core';
-import { renderReport } from '../src/report/index.js';
+import { parseReportInput, renderReport, type ReportInput } from '../src/report/index.js';
 import { requireTool } from './helpers/tools.js';
-import { ROOT } from './helpers/cli.js';
+import { ROOT, tilth } from './helpers/cli.js';
 import { demoInput } from './helpers/report-fixture.js';
 
 const CHROMIUM = '/usr/bin/chromium';
@@ -25,13 +25,19 @@ const have = requireTool(CHROMIUM, 'chromium');
 
 describe.skipIf(!have)('report in Chromium', () => {
   let browser: Browser;
-  const input = demoInput();
-  const htmlPath = join(ART, 'report-demo.html');
+  // the demo's own report: `tilth build` on the sample quarter (the same command as `npm run demo`)
+  const demoOut = join(ART, 'demo-build');
+  const htmlPath = join(demoOut, 'report.html');
+  let input: ReportInput;
+  let geojsonZones = 0;
   const evilPath = join(ART, 'report-escaping.html');
 
   beforeAll(async () => {
     mkdirSync(ART, { recursive: true });
-    writeFileSync(htmlPath, renderReport(input));
+    const b = tilth(['build', '--samples', 'sample-fields/quarter/samples.csv', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', 'sample-fields/quarter/plan.yaml', '--out', demoOut, '--force', '--quiet']);
+    if (b.code !== 0) throw new Error(`tilth build failed: ${b.stderr}`);
+    input = parseReportInput(readFileSync(join(demoOut, 'report-data.json'), 'utf8'));
+    geojsonZones = JSON.parse(readFileSync(join(demoOut, 'prescription.geojson'), 'utf8')).features.length;
     const evil = demoInput();
     evil.title.field = EVIL;
     evil.title.farm = `" onmouseover="alert(2)`;
@@ -91,8 +97,9 @@ describe.skipIf(!have)('report in Chromium', () => {
       expect(m.scale, m.id!).toBe(true);
       expect(m.north, m.id!).toBe(true);
     }
-    // the zone count on the page equals the input's (later: the build's GeoJSON's)
+    // the zone count on the page equals the build's GeoJSON's
     const zones = input.zoneSets.reduce((s, z) => s + z.zones.length, 0);
+    expect(zones).toBe(geojsonZones);
     expect(await page.textContent('#zone-count')).toBe(String(zones));
     expect(await page.locator('tr[data-zone]').count()).toBe(zones);
     const perRateMap = await page.$$eval('svg.map[data-kind="rate"]', (svgs) => svgs.map((s) => new Set([...s.querySelectorAll('[data-zone-id]')].map((p) => p.getAttribute('data-zone-id'))).size));

@@ -60,10 +60,10 @@ describe('prepareInputs', () => {
     expect(dropped.samples.values.p.length).toBe(61);
   });
 
-  it('duplicate locations and swapped lat/lon are user errors', () => {
+  it('duplicate locations warn (the maps average them); swapped lat/lon is a user error', () => {
     const gj = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/samples.geojson'), 'utf8'));
     gj.features[1].geometry.coordinates = gj.features[0].geometry.coordinates;
-    userError(() => prepareInputs(file('s.geojson', JSON.stringify(gj)), Q('boundary.geojson')), /same place/);
+    expect(prepareInputs(file('s.geojson', JSON.stringify(gj)), Q('boundary.geojson')).warnings.map((w) => w.message).join('\n')).toMatch(/within 0.5 m of each other/);
     const sw = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/samples.geojson'), 'utf8'));
     for (const f of sw.features) f.geometry.coordinates.reverse();
     userError(() => prepareInputs(file('s.geojson', JSON.stringify(sw)), Q('boundary.geojson')), /look swapped/);

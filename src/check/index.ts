@@ -9,12 +9,15 @@ import { UserError, isUserError } from '../errors.js';
 import { arealScale, projector, utmZoneFor, type Projector } from '../geo/utm.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import type { CheckLayer } from './layer.js';
-import { hullExtent, polysArea, ringCentroid, type Poly } from './shape.js';
+import { hullExtent, polysArea, ringCentroid, significantArea, type Poly } from './shape.js';
 
 export { readLayer, layerFromGeoJSON, type CheckLayer, type LayerField } from './layer.js';
 
 /** Pieces of overlap, gap or outside area smaller than this are numeric slivers and ignored (m2). */
 export const SLIVER_M2 = 1;
+/** ... and pieces thinner than this on average (m): rounding slivers along shared edges and the boundary. */
+export const SLIVER_WIDTH_M = 0.05;
+const significant = (polys: Poly[], scale: number) => significantArea(polys, SLIVER_M2, SLIVER_WIDTH_M, scale);
 /**
  * Seconds a controller takes to reach a new rate: 4 s by default. Common practice; University of
  * Georgia Extension (2024) gives 3-5 s for typical rate controllers.
@@ -160,7 +163,7 @@ const boxesMeet = (a: number[], b: number[]) => a[0] <= b[2] && b[0] <= a[2] && 
  * field: coordinate system known, every zone a valid polygon, no overlaps, no parts outside and no gaps
  * inside the boundary (when given), rate column present and numeric, rates within the machine's range,
  * zones long enough to reach their rate at the travel speed, and total product per rate column.
- * Overlap, gap and outside pieces under {@link SLIVER_M2} are ignored.
+ * Overlap, gap and outside pieces under {@link SLIVER_M2}, or thinner on average than {@link SLIVER_WIDTH_M}, are ignored.
  *
  * Throws UserError for what makes the file unusable: a rate column holding text, or no coordinate
  * system with `strict`.
@@ -251,7 +254,7 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
     const pairs: string[] = [], overlapZones = new Set<string>();
     if (overlapTotal >= SLIVER_M2) for (let i = 0; i < usable.length; i++) for (let j = i + 1; j < usable.length; j++) {
       if (!usable[i] || !usable[j] || !boxesMeet(boxes[i]!, boxes[j]!)) continue;
-      const a = polysArea(clip.intersection(usable[i]! as clip.Geom, usable[j]! as clip.Geom) as Poly[]) / scale;
+      const a = significant(clip.intersection(usable[i]! as clip.Geom, usable[j]! as clip.Geom) as Poly[], scale);
       if (a >= SLIVER_M2) {
         pairs.push(`${names[i]} & ${names[j]} (${fmt(a)} m2)`);
         overlapZones.add(names[i]); overlapZones.add(names[j]);
@@ -285,13 +288,13 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
       const outsideTotal = cov.length ? polysArea(clip.difference(cov as clip.Geom, boundary as clip.Geom) as Poly[]) : 0;
       if (outsideTotal >= SLIVER_M2) usable.forEach((m, i) => {
         if (!m) return;
-        const a = polysArea(clip.difference(m as clip.Geom, boundary as clip.Geom) as Poly[]) / scale;
+        const a = significant(clip.difference(m as clip.Geom, boundary as clip.Geom) as Poly[], scale);
         if (a >= SLIVER_M2) { out.push(`${names[i]} (${fmt(a)} m2)`); outZones.push(names[i]); }
       });
       if (out.length) add('outside', 'fail', `parts outside the boundary: ${list(out, 8)}`, outZones);
       else add('outside', 'pass', 'every zone lies inside the boundary');
       const gaps = (cov.length ? clip.difference(boundary as clip.Geom, cov as clip.Geom) : boundary) as Poly[];
-      const pieces = gaps.map((p) => ({ p, a: polysArea([p]) / scale })).filter((g) => g.a >= SLIVER_M2).sort((a, b) => b.a - a.a);
+      const pieces = gaps.map((p) => ({ p, a: polysArea([p]) / scale })).filter((g) => g.a >= SLIVER_M2 && significant([g.p], scale) > 0).sort((a, b) => b.a - a.a);
       if (pieces.length) {
         const where = pieces.slice(0, 5).map(({ p, a }) => {
           const [cx, cy] = ringCentroid(p[0]);

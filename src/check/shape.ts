@@ -78,3 +78,25 @@ export function hullExtent(pts: readonly [number, number][]): { diameter: number
   }
   return { diameter, width };
 }
+
+/** Length of a polygon's exterior ring. */
+export function polyPerimeter(p: Poly): number {
+  const r = p[0];
+  let l = 0;
+  for (let i = 1; i < r.length; i++) l += Math.hypot(r[i][0] - r[i - 1][0], r[i][1] - r[i - 1][1]);
+  return l;
+}
+
+/**
+ * Area of the pieces that matter: each piece of `polys` with at least `minArea` and a mean width
+ * (2 x area / perimeter) of at least `minWidth`. Long hair-thin slivers along a boundary, left by rounding
+ * coordinates (7 decimals of a degree is about 1 cm), are not gaps or overlaps a controller could act on.
+ */
+export function significantArea(polys: readonly Poly[], minArea: number, minWidth: number, scale = 1): number {
+  let a = 0;
+  for (const p of polys) {
+    const pa = polysArea([p]) / scale;
+    if (pa >= minArea && (2 * pa) / Math.max(polyPerimeter(p), 1e-12) >= minWidth) a += pa;
+  }
+  return a;
+}

@@ -7,14 +7,15 @@ import { isUserError } from '../errors.js';
 import { CAUTION } from './util.js';
 import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
-import * as surface from './surface.js';
 import * as variability from './variability.js';
 import { preloadInputs } from './inputs.js';
-import * as check from './check.js';
-import * as report from './report.js';
+import * as surface from './surface.js';
 import * as plan from './plan.js';
 import * as rates from './rates.js';
 import * as tables from './tables.js';
+import * as build from './build.js';
+import * as check from './check.js';
+import * as report from './report.js';
 
 const program = new Command();
 program
@@ -25,7 +26,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect, surface, check, report, plan, rates, tables, variability]) cmd.register(program);
+for (const cmd of [inspect, surface, check, report, plan, rates, tables, build, variability]) cmd.register(program);
 
 // shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
 program.hook('preAction', async (_program, action) => {

@@ -146,19 +146,21 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
     }
   }
 
-  // duplicate locations (different ids within 0.5 m)
+  // duplicate locations (different ids within 0.5 m): a warning; where they share a point, the surface
+  // stage averages their values (src/surface/prepare.ts), as a lab would for a re-tested site
   const order = s.ids.map((_, i) => i).sort((a, c) => xy[2 * a] - xy[2 * c]);
+  const pairs: string[] = [];
   for (let a = 0; a < order.length; a++) {
     for (let c = a + 1; c < order.length && xy[2 * order[c]] - xy[2 * order[a]] < 0.5; c++) {
       const i = order[a], j = order[c];
-      if (Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]) < 0.5) {
-        throw new UserError(
-          `${table.file}: samples "${s.ids[i]}" and "${s.ids[j]}" are at the same place (${s.lonlat[2 * i + 1]}, ${s.lonlat[2 * i]}). ` +
-            'Fix: correct the coordinates of one of them, or merge them into one sample (a map cannot hold two values at one point).',
-          { file: table.file, where: `${s.ids[i]}, ${s.ids[j]}` },
-        );
-      }
+      if (Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]) < 0.5) pairs.push(`"${s.ids[i]}" and "${s.ids[j]}" (${s.lonlat[2 * i + 1]}, ${s.lonlat[2 * i]})`);
     }
+  }
+  if (pairs.length) {
+    warnings.push({
+      code: 'same-place', file: table.file, where: pairs.join('; '),
+      message: `${table.file}: samples ${abbrev(pairs, 5)} are within 0.5 m of each other; at one point their values are averaged in the maps. Fix: if they are different sites, correct the coordinates of one of them.`,
+    });
   }
 
   // zones

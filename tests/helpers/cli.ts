@@ -10,7 +10,8 @@ export interface CliResult { code: number; stdout: string; stderr: string }
 export function tilth(args: string[], opts: { cwd?: string; env?: Record<string, string>; input?: string } = {}): CliResult {
   const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'tilth.js'), ...args], {
     cwd: opts.cwd ?? ROOT,
-    env: { ...process.env, TILTH_FROM_SOURCE: '1', NO_COLOR: '1', ...opts.env },
+    // bin/tilth.js runs the esbuild bundle when it is newer than src/, else the sources through tsx
+    env: { ...process.env, NO_COLOR: '1', ...opts.env },
     encoding: 'utf8',
     input: opts.input,
     timeout: 120_000,

@@ -1,0 +1,84 @@
+/**
+ * Nutrient targets for every cell of the field grid, from the nutrient surfaces.
+ *
+ * Each nutrient's target depends only on its own soil values (N on nitrate and organic matter, P2O5 on
+ * the P test, K2O on the K test, S on sulphate-S: see src/agronomy/targets.ts), so the rate engine is run
+ * once per distinct value at lab reporting precision (nitrate 0.5 lb/ac, OM 0.05 %, P 0.1 ppm, K 1 ppm,
+ * sulphate 0.2 lb/ac) and looked up per cell. That makes a 2.6 million cell grid cheap while giving the
+ * same targets the engine gives a lab report. These cell targets only draw the zones; each zone's rates
+ * come from its mean soil values through the full engine (src/build/index.ts).
+ */
+import type { Warning } from '../errors.js';
+import { interpret, type SoilValues } from '../agronomy/interpret.js';
+import type { Plan } from '../agronomy/plan.js';
+import { NUTRIENTS, type Nutrient, type Tables } from '../agronomy/tables.js';
+import { targets } from '../agronomy/targets.js';
+import type { Analyte } from '../types.js';
+
+/** Reporting precision used to share rate-engine runs between cells. */
+export const TARGET_PRECISION = { no3_n: 0.5, om: 0.05, p: 0.1, k: 1, so4_s: 0.2 } as const;
+
+/** Which soil values each nutrient target reads. */
+const DRIVERS: Record<Nutrient, Analyte[]> = { n: ['no3_n', 'om'], p2o5: ['p'], k2o: ['k'], s: ['so4_s'] };
+
+/**
+ * Per-cell targets (lb/ac) of N, P2O5, K2O and S; NaN where the cell has no soil value.
+ * A nutrient whose surface is missing takes the target for "not tested" (NaN soil value).
+ *
+ * @param surfaces per analyte, row-major values (NaN = none); missing analytes are treated as not tested
+ * @param fraction per cell share of the field (cells with 0 are skipped)
+ * @example const t = cellTargets({ p: pValues, no3_n: nValues }, grid.fraction, plan, tables); t.p2o5[i]
+ */
+export function cellTargets(
+  surfaces: Partial<Record<Analyte, Float64Array>>,
+  fraction: ArrayLike<number>,
+  plan: Plan,
+  tables: Tables,
+): Record<Nutrient, Float64Array> {
+  const crop = tables.crops[plan.crop];
+  const n = fraction.length;
+  const out = {} as Record<Nutrient, Float64Array>;
+  const sink: Warning[] = [];
+  const base: SoilValues = { no3_n: NaN, p: NaN, k: NaN, so4_s: NaN, om: NaN };
+  for (const nut of NUTRIENTS) {
+    const arr = new Float64Array(n).fill(NaN);
+    const drivers = DRIVERS[nut];
+    const src = drivers.map((a) => surfaces[a]);
+    const q = drivers.map((a) => TARGET_PRECISION[a as keyof typeof TARGET_PRECISION]);
+    const cache = new Map<number, number>();
+    const one = (vals: number[]) => {
+      const soil: SoilValues = { ...base };
+      drivers.forEach((a, j) => { (soil as unknown as Record<string, number>)[a] = vals[j]; });
+      const it = interpret(soil, crop, plan, tables);
+      sink.length = 0;
+      return targets(it, crop, plan, tables, sink)[nut].lbac;
+    };
+    if (src.every((s) => s === undefined)) {
+      const v = one(drivers.map(() => NaN));
+      for (let i = 0; i < n; i++) if (fraction[i] > 0) arr[i] = v;
+      out[nut] = arr;
+      continue;
+    }
+    for (let i = 0; i < n; i++) {
+      if (!(fraction[i] > 0)) continue;
+      // integer key from the quantized driver values (at most two drivers)
+      let key = 0;
+      const vals: number[] = [];
+      let ok = true;
+      for (let j = 0; j < drivers.length; j++) {
+        const s = src[j];
+        const v = s ? s[i] : NaN;
+        if (s && v !== v) { ok = false; break; }
+        const k = s ? Math.round(v / q[j]) : -1;
+        vals.push(s ? k * q[j] : NaN);
+        key = key * 4_000_003 + (k + 2_000_000);
+      }
+      if (!ok) continue;
+      let t = cache.get(key);
+      if (t === undefined) { t = one(vals); cache.set(key, t); }
+      arr[i] = t;
+    }
+    out[nut] = arr;
+  }
+  return out;
+}

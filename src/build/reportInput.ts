@@ -1,0 +1,170 @@
+/**
+ * From a prescription to the report's input (src/report/types.ts): plain data, already computed.
+ */
+import type { Warning } from '../errors.js';
+import { pClass } from '../agronomy/interpret.js';
+import type { Tables } from '../agronomy/tables.js';
+import { classify } from '../zones/classify.js';
+import type { ReportChart, ReportInput, ReportNutrient, ReportTableUsed, ReportZoneSet } from '../report/types.js';
+import type { FieldInputs } from '../types.js';
+import { productRate, usedPairs, nutrientName, type Prescription } from './index.js';
+import type { Provenance } from './outputs.js';
+
+const NUTRIENT_INFO: Record<string, Omit<ReportNutrient, 'key'>> = {
+  no3_n: { label: 'Nitrate-N 0-24 in', unit: 'lb/ac', decimals: 0 },
+  p: { label: 'P 0-6 in', unit: 'ppm', decimals: 1 },
+  k: { label: 'K 0-6 in', unit: 'ppm', decimals: 0 },
+  so4_s: { label: 'Sulphate-S 0-24 in', unit: 'lb/ac', decimals: 0 },
+  om: { label: 'Organic matter', unit: '%', decimals: 1 },
+};
+const PLACEMENT_NAME: Record<string, string> = { seed_row: 'seed row', side_band: 'side band', mid_row_band: 'mid-row band', broadcast: 'broadcast' };
+
+/** The cautions printed in every report. */
+export const REPORT_CAUTIONS = [
+  'Too much fertilizer with the seed injures or kills seedlings. Seed-row limits here assume the implement, row spacing and seedbed moisture declared in the plan; lower them in dry seedbeds.',
+  'Rates are suggestions computed from soil tests and editable default tables, not recommendations. Follow your province\'s or region\'s guidelines.',
+  'A licensed agronomist or certified crop adviser must check this prescription before it is applied. Wrong rates cost money and can pollute water.',
+  'A sulphate-S test that is not low is uncertain: hilltops and slopes can be deficient where the average is not.',
+];
+
+function mark(source: string): string {
+  if (source.startsWith('[published]')) return 'published';
+  if (source.startsWith('common practice')) return 'common practice';
+  if (source.startsWith('from memory')) return 'from memory';
+  if (source.startsWith('missing')) return 'missing';
+  return 'user';
+}
+
+/**
+ * Builds the report input.
+ * @param charts extra charts from other stages (variability), complete SVG documents
+ */
+export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Tables, prov: Provenance, opts: { tablesEdited?: boolean; charts?: ReportChart[] } = {}): ReportInput {
+  const plan = rx.plan;
+  const grid = rx.grid;
+  const g = { xmin: grid.xmin, ymax: grid.ymax, cell: grid.cell, cols: grid.cols, rows: grid.rows };
+  const crop = tables.crops[plan.crop];
+  const pMethod = inputs.samples.pMethod;
+
+  const nutrients: ReportNutrient[] = rx.surfaces.map((s) => ({ key: s.analyte, ...NUTRIENT_INFO[s.analyte], label: s.analyte === 'p' ? `${pMethod === 'olsen' ? 'Olsen' : 'modified Kelowna'} P 0-6 in` : NUTRIENT_INFO[s.analyte].label }));
+  const pClasses = tables.p_classes[pMethod];
+
+  const surfaces = rx.surfaces.map((s) => {
+    let breaks: number[];
+    if (s.analyte === 'p') breaks = pClasses.map((c) => c.below_ppm).filter((b): b is number => b !== null);
+    else {
+      const c = classify(s.values, { method: 'quantile', classes: 5, weights: grid.fraction, step: 0 });
+      breaks = c.breaks.slice(1, -1);
+    }
+    return { nutrient: s.analyte, raster: { grid: g, values: s.values }, breaks, method: s.method === 'idw' ? `IDW power ${s.power}, ${Number.isFinite(s.neighbours) ? s.neighbours : 'all'} neighbours` : s.method === 'zones' ? 'zone composites' : 'one sample' };
+  });
+
+  const response: ReportInput['response'] = [];
+  const pS = rx.surfaces.find((s) => s.analyte === 'p');
+  if (pS) {
+    const vals = new Float64Array(pS.values.length).fill(NaN);
+    // classes in order of increasing chance: reverse the table (lowest test = highest chance)
+    const order = pClasses.map((_, i) => i).sort((a, b) => pClasses[a].response_probability - pClasses[b].response_probability);
+    const rank = new Map(order.map((ci, r) => [pClasses[ci].name, r]));
+    for (let i = 0; i < vals.length; i++) {
+      const c = pClass(pS.values[i], pMethod, tables);
+      if (c) vals[i] = rank.get(c.name)!;
+    }
+    response.push({ nutrient: 'p', classes: order.map((ci) => ({ label: `${pClasses[ci].name}: about ${Math.round(pClasses[ci].response_probability * 100)} % chance` })), raster: { grid: g, values: vals }, source: pClasses[0].source });
+  }
+  const kS = rx.surfaces.find((s) => s.analyte === 'k');
+  if (kS && crop) {
+    const kc = crop.k_critical_ppm.value;
+    const vals = new Float64Array(kS.values.length).fill(NaN);
+    for (let i = 0; i < vals.length; i++) if (kS.values[i] === kS.values[i]) vals[i] = kS.values[i] < kc ? 1 : 0;
+    response.push({
+      nutrient: 'k',
+      classes: [
+        { label: `at or above ${kc} ppm: about ${Math.round(tables.k_response_probability.above_critical.value * 100)} % chance` },
+        { label: `below ${kc} ppm: about ${Math.round(tables.k_response_probability.below_critical.value * 100)} % chance` },
+      ],
+      raster: { grid: g, values: vals },
+      source: crop.k_critical_ppm.source,
+    });
+  }
+
+  const zoneSets: ReportZoneSet[] = rx.zoneSets.map((set) => ({
+    name: set.name,
+    products: usedPairs(set).map((p) => p.product).filter((p, i, a) => a.indexOf(p) === i),
+    targetUnit: plan.units,
+    zones: set.zones.map((z) => ({
+      id: String(z.id),
+      parts: z.parts,
+      areaM2: z.areaM2,
+      class: set.name === 'sampled' ? null : z.rateClass - 1,
+      soilMeans: { no3_n: z.soil.no3_n, p: z.soil.p, k: z.soil.k, so4_s: z.soil.so4_s, om: z.soil.om },
+      targets: Object.fromEntries((['n', 'p2o5', 'k2o', 's'] as const).map((n) => [nutrientName(n), z.decision.nutrients[n].target.value])),
+      rates: usedPairs(set).map((p) => ({ product: p.product, placement: PLACEMENT_NAME[p.placement], rate: productRate(z.decision, p.product, p.placement).value, unit: plan.units })),
+      bindingLimit: z.decision.status === 'ok' ? (z.decision.binding[0]?.startsWith('none') ? null : z.decision.binding.join('; ')) : null,
+      notes: z.decision.status === 'ok' ? undefined : z.decision.infeasible.map((f) => f.reason),
+    })),
+  }));
+
+  const totals = rx.totals.map((t) => ({
+    product: t.product,
+    placement: PLACEMENT_NAME[t.placement],
+    total: plan.units === 'kg/ha' ? t.totalKg : t.totalLb,
+    totalUnit: plan.units === 'kg/ha' ? 'kg' : 'lb',
+    packaging: `${(t.totalKg / 1000).toFixed(2)} t${rx.zoneSets.length > 1 ? ` (zone set ${t.zoneSet})` : ''}`,
+    meanRate: t.meanRate,
+    minRate: t.minRate,
+    maxRate: t.maxRate,
+    rateUnit: t.unit,
+  }));
+
+  const crossValidation = rx.surfaces.flatMap((s) => (s.cv?.table ?? []).map((r) => ({
+    nutrient: s.analyte,
+    method: `IDW power ${r.power}, ${Number.isFinite(r.neighbours) ? r.neighbours : 'all'} neighbours`,
+    rmse: r.rmse,
+    meanError: r.bias,
+    mae: r.mae,
+    chosen: r.power === s.power && r.neighbours === s.neighbours,
+  })));
+
+  const tablesUsed: ReportTableUsed[] = [];
+  const add = (name: string, source: string) => tablesUsed.push({ name, source, mark: mark(source), edited: opts.tablesEdited });
+  if (crop) {
+    add(`${crop.label}: N need ${crop.n_per_bu.value} lb N/bu`, crop.n_per_bu.source);
+    add(`${crop.label}: P2O5 removal ${crop.removal_per_bu.p2o5.value} lb/bu`, crop.removal_per_bu.p2o5.source);
+    add(`${crop.label}: K critical level ${crop.k_critical_ppm.value} ppm`, crop.k_critical_ppm.source);
+    add(`${crop.label}: S floor ${crop.s_floor_lb.value} lb S/ac`, crop.s_floor_lb.source);
+    add(`${crop.label}: seed-row P2O5 + K2O at most ${crop.seed_row_p2o5_k2o_max.value} lb/ac`, crop.seed_row_p2o5_k2o_max.source);
+    const sr = tables.seed_row_n[crop.seed_row_group];
+    if (sr) for (const t of ['light', 'medium', 'heavy'] as const) add(`seed-row N, ${crop.seed_row_group}, ${t} soil`, sr[t].source);
+  }
+  add(`P response classes (${pMethod})`, pClasses[0].source);
+  for (const p of plan.products) { const pr = tables.products[p.product]; if (pr) add(`product ${pr.label}`, pr.source); }
+
+  const warnings: Warning[] = rx.warnings;
+  return {
+    title: {
+      farm: plan.farm,
+      field: plan.field || rx.field.name,
+      crop: crop?.label ?? plan.crop,
+      targetYield: `${plan.target_yield_bu} bu/ac`,
+      planSummary: `Zones: ${rx.zoneSets.map((s) => `${s.name} (${s.zones.length}, ${s.drivenBy})`).join('; ')}. Products: ${plan.products.map((p) => `${tables.products[p.product]?.label ?? p.product} (${(p.placements ?? plan.implement.placements).map((x) => PLACEMENT_NAME[x]).join(', ')})`).join('; ')}. Implement: ${plan.implement.opener_spread_in} in spread on ${plan.implement.row_spacing_in} in rows, ${plan.implement.seedbed_moisture} seedbed moisture.`,
+      date: prov.created.slice(0, 10),
+      version: prov.tilth,
+      hash: prov.id,
+    },
+    units: { area: plan.units === 'kg/ha' ? 'ha' : 'ac' },
+    utm: { zone: rx.field.utm.zone, south: rx.field.utm.south, epsg: rx.field.utm.epsg },
+    field: { parts: rx.field.parts, areaM2: rx.field.areaM2 },
+    nutrients,
+    samples: { ids: inputs.samples.ids, xy: inputs.samples.xy, values: Object.fromEntries(nutrients.map((n) => [n.key, inputs.samples.values[n.key as keyof typeof inputs.samples.values]])), censored: Object.fromEntries(nutrients.map((n) => [n.key, inputs.samples.censored[n.key as keyof typeof inputs.samples.censored]])) },
+    surfaces,
+    response,
+    zoneSets,
+    totals,
+    crossValidation,
+    warnings,
+    tablesUsed,
+    cautions: REPORT_CAUTIONS,
+    charts: opts.charts ?? [],
+  };
+}

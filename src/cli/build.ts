@@ -1,0 +1,111 @@
+/** `tilth build`: the whole prescription from samples, boundary and plan, written into one folder. */
+import { createHash } from 'node:crypto';
+import type { Command } from 'commander';
+import { parsePlan } from '../agronomy/index.js';
+import { buildPrescription } from '../build/index.js';
+import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, summaryText, zonesCsv, type Provenance } from '../build/outputs.js';
+import { reportInput } from '../build/reportInput.js';
+import { prescriptionFiles } from '../io/shapefile/index.js';
+import { renderReport, serializeReportInput } from '../report/index.js';
+import { inputsHash } from './report.js';
+import { VERSION } from '../version.js';
+import { loadInputs } from './inputs.js';
+import { tablesFromOption } from './plan.js';
+import { CAUTION, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
+import { createTerminal, type Task } from './progress.js';
+
+interface BuildFlags {
+  samples: string; boundary: string; zones?: string; plan: string; tables?: string; out: string;
+  force?: boolean; json?: boolean; cell?: string; columns?: string; depthFactor?: string; dropOutside?: boolean;
+  pMethod?: 'olsen' | 'kelowna'; assumeWgs84?: boolean; quiet?: boolean;
+}
+
+export function register(program: Command): void {
+  program
+    .command('build')
+    .description('Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.')
+    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
+    .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
+    .requiredOption('--plan <file>', 'plan file (see `tilth plan init`)')
+    .requiredOption('--out <dir>', 'output folder (created; refused if it exists and is not empty, unless --force)')
+    .option('--zones <file>', 'zone polygons for zone-composite samples')
+    .option('--tables <file>', 'your edited agronomy tables (see `tilth tables`)')
+    .option('--cell <m>', 'grid cell size in metres (default: about 200 cells across the field, 1-20 m)')
+    .option('--columns <map>', 'CSV column map, e.g. "id=Sample,lat=Lat,lon=Long"')
+    .option('--depth-factor <x>', 'factor from 0-6 in nitrate/sulphate to 0-24 in, when only 0-6 in was sampled (no default)')
+    .option('--p-method <method>', 'P test method when the samples do not say: olsen or kelowna')
+    .option('--drop-outside', 'drop samples outside the boundary (default: keep them, with a warning)')
+    .option('--assume-wgs84', 'read a shapefile without .prj as WGS 84 longitude/latitude')
+    .option('--force', 'replace an existing output folder')
+    .option('--json', 'print summary.json on stdout for scripts')
+    .option('--quiet', 'no progress messages')
+    .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
+    .action((o: BuildFlags) => {
+      const term = createTerminal({ quiet: o.quiet });
+      const say = (s: string) => term.line(s);
+      const tables = tablesFromOption(o.tables);
+      const planText = readInput(o.plan, 'plan').toString('utf8');
+      const plan = parsePlan(planText, o.plan, tables);
+      say('reading and checking the inputs ...');
+      const inputs = loadInputs({
+        samples: o.samples, boundary: o.boundary, zones: o.zones, columns: o.columns,
+        depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 0 }), dropOutside: o.dropOutside,
+        pMethod: o.pMethod, assumeWgs84: o.assumeWgs84,
+      });
+      if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
+      let last = '';
+      let task: Task | null = null;
+      const rx = buildPrescription(inputs, plan, tables, {
+        cell: numberOption('--cell', o.cell, { min: 0.1 }),
+        onProgress: (step, done) => {
+          if (step !== last) { task?.done(); last = step; task = term.task(step, 100); }
+          task!.update(Math.round(done * 100), 100);
+        },
+      });
+      (task as Task | null)?.done();
+      const hash = (s: string | Buffer) => createHash('sha256').update(s).digest('hex');
+      const named: { name: string; bytes: Uint8Array }[] = [
+        { name: 'samples', bytes: readInput(o.samples, 'samples') },
+        { name: 'boundary', bytes: readInput(o.boundary, 'boundary') },
+        { name: 'plan', bytes: Buffer.from(planText, 'utf8') },
+      ];
+      if (o.zones) named.push({ name: 'zones', bytes: readInput(o.zones, 'zones') });
+      if (o.tables) named.push({ name: 'tables', bytes: readInput(o.tables, 'tables') });
+      const prov: Provenance = { tilth: VERSION, created: new Date().toISOString(), inputs: Object.fromEntries(named.map((f) => [f.name, hash(Buffer.from(f.bytes))])), id: inputsHash(named) };
+      const files = new Map<string, string | Uint8Array>();
+      for (const set of rx.zoneSets) files.set(geojsonName(rx, set), prescriptionGeojson(rx, set));
+      files.set('zones.csv', zonesCsv(rx));
+      const summary = summaryObject(rx, prov);
+      files.set('summary.json', JSON.stringify(summary, null, 2) + '\n');
+      say('writing shapefiles ...');
+      for (const set of rx.zoneSets) {
+        const fc = shapefileFeatures(rx, set);
+        if (fc.features.length === 0) continue;
+        const shp = prescriptionFiles(fc, {
+          layout: plan.output.shapefile_layout,
+          crs: plan.output.crs === 'utm' ? 'utm' : 'lonlat',
+          utm: rx.field.utm,
+          shortFileNames: plan.output.short_names,
+          prefix: rx.zoneSets.length > 1 ? `rx_${set.name}` : 'rx',
+          title: `${plan.farm ? plan.farm + ', ' : ''}${plan.field || rx.field.name}: ${plan.crop}, zone set ${set.name} (tilth ${VERSION}, inputs ${prov.id})`,
+        });
+        for (const [name, bytes] of Object.entries(shp.files)) files.set(`shapefiles/${name}`, bytes);
+      }
+      say('drawing the report ...');
+      const ri = reportInput(rx, inputs, tables, prov, { tablesEdited: !!o.tables });
+      files.set('report-data.json', serializeReportInput(ri));
+      files.set('report.html', renderReport(ri));
+      writeOutputDir(o.out, files, o.force);
+      if (o.json) out(JSON.stringify(summary, null, 2));
+      else out(summaryText(rx));
+      printWarnings(rx.warnings);
+      const top = [...new Set([...files.keys()].map((f) => f.replace(/\/.*/, '/')))];
+      info(`wrote ${files.size} files to ${o.out}: ${top.join(', ')}`);
+      info(CAUTION);
+      if (rx.infeasible.length > 0) {
+        info(`\n${rx.infeasible.length} zone(s) cannot meet their targets within the plan's limits:`);
+        for (const f of rx.infeasible) info(`  zone set ${f.zoneSet}, zone ${f.zone}: ${f.reason}`);
+        process.exitCode = 1;
+      }
+    });
+}

@@ -1,0 +1,145 @@
+import { mkdtempSync, readFileSync, readdirSync, writeFileSync, existsSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { describe, expect, it } from 'vitest';
+import { booleanValid, area as turfArea, booleanPointInPolygon, point } from '@turf/turf';
+import { parse as parseYaml, stringify } from 'yaml';
+import { buildPrescription } from '../../src/build/index.js';
+import { prescriptionGeojson, zonesCsv } from '../../src/build/outputs.js';
+import { parsePlan, defaultTables, seedRowLimits } from '../../src/agronomy/index.js';
+import { prepareInputs } from '../../src/validate/inputs.js';
+import { M2_PER_AC } from '../../src/units/index.js';
+import { ROOT, tilth } from '../helpers/cli.js';
+import { requireTool } from '../helpers/tools.js';
+
+const src = (dir: string, f: string) => ({ name: f, bytes: readFileSync(join(ROOT, 'sample-fields', dir, f)) });
+const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
+const withPlan = (edit: (p: Record<string, any>) => void) => { const p = parseYaml(PLAN); edit(p); return stringify(p); };
+
+describe('buildPrescription on the demo quarter', () => {
+  const tables = defaultTables();
+  const inputs = prepareInputs(src('quarter', 'samples.csv'), src('quarter', 'boundary.geojson'));
+  for (const sets of ['shared', 'per_product'] as const) {
+    it(`${sets} zone sets: zones cover the field once, every sample in exactly one zone`, () => {
+      const plan = parsePlan(withPlan((p) => { p.zoning.zone_sets = sets; }), 'plan.yaml', tables);
+      const rx = buildPrescription(inputs, plan, tables, { cell: 5 });
+      expect(rx.zoneSets.length).toBe(sets === 'shared' ? 1 : new Set(plan.products.map((p) => p.product)).size);
+      for (const set of rx.zoneSets) {
+        // zone areas add up to the field (0.01 %): the zones neither overlap nor leave gaps
+        const sum = set.zones.reduce((s, z) => s + z.areaM2, 0);
+        expect(Math.abs(sum - rx.field.areaM2) / rx.field.areaM2).toBeLessThan(1e-4);
+        const fc = JSON.parse(prescriptionGeojson(rx, set));
+        expect(fc.features.length).toBe(set.zones.length);
+        // independent check: turf booleanValid, and the geodesic area of the written zones (turf, spherical) adds up
+        // to turf's area of the boundary within 0.01 %
+        let turfSum = 0;
+        for (const f of fc.features) { expect(booleanValid(f)).toBe(true); turfSum += turfArea(f); }
+        const boundary = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8'));
+        expect(Math.abs(turfSum - turfArea(boundary)) / turfArea(boundary)).toBeLessThan(1e-4);
+        // every sample inside the field lies in exactly one zone (turf point-in-polygon)
+        for (let i = 0; i < inputs.samples.ids.length; i++) {
+          const pt = point([inputs.samples.lonlat[2 * i], inputs.samples.lonlat[2 * i + 1]]);
+          const hits = fc.features.filter((f: any) => booleanPointInPolygon(pt, f, { ignoreBoundary: true })).length;
+          expect(hits).toBe(1);
+        }
+        // no zone puts more N, or P2O5 + K2O, in the seed row than the limits allow
+        for (const z of set.zones) {
+          const d = z.decision;
+          expect(d.seedRow.applied.n).toBeLessThanOrEqual(d.seedRow.n + 1e-6);
+          expect(d.seedRow.applied.p2o5 + d.seedRow.applied.k2o).toBeLessThanOrEqual(d.seedRow.p2o5K2o + 1e-6);
+        }
+      }
+      // totals: sum over zones of rate x area (arithmetic check of the ordering totals)
+      for (const t of rx.totals) {
+        const set = rx.zoneSets.find((s) => s.name === t.zoneSet)!;
+        let lb = 0;
+        for (const z of set.zones) for (const p of z.decision.placements) if (p.placement === t.placement) for (const q of p.products) if (q.product === t.product) lb += q.rate.lbac * z.areaM2 / M2_PER_AC;
+        expect(t.totalLb).toBeCloseTo(lb, 6);
+      }
+      const csv = zonesCsv(rx).trim().split('\n');
+      expect(csv.length).toBe(1 + rx.zoneSets.reduce((s, z) => s + z.zones.length, 0));
+    });
+  }
+
+  it('zone-composite field: the zones are the sampled polygons', () => {
+    const zin = prepareInputs(src('zoned', 'samples.geojson'), src('zoned', 'boundary.geojson'), src('zoned', 'zones.geojson'));
+    const plan = parsePlan(PLAN, 'plan.yaml', tables);
+    const rx = buildPrescription(zin, plan, tables);
+    expect(rx.sampled).toBe(true);
+    expect(rx.zoneSets[0].zones.length).toBe(zin.zones!.keys.length);
+    const sum = rx.zoneSets[0].zones.reduce((s, z) => s + z.areaM2, 0);
+    expect(sum).toBeLessThanOrEqual(rx.field.areaM2 * (1 + 1e-6));
+  });
+});
+
+describe('tilth build (CLI)', () => {
+  const tmp = () => mkdtempSync(join(tmpdir(), 'tilth-build-'));
+  const args = (out: string, plan = join(ROOT, 'sample-fields/quarter/plan.yaml')) => ['build', '--samples', 'sample-fields/quarter/samples.csv', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', plan, '--out', out, '--quiet'];
+
+  it('writes the prescription and its summary; --json parses', () => {
+    const out = join(tmp(), 'rx');
+    const r = tilth([...args(out), '--json']);
+    expect(r.stderr).not.toMatch(/internal error/);
+    expect(r.code).toBe(0);
+    const s = JSON.parse(r.stdout);
+    expect(s.zone_sets[0].zones).toBeGreaterThan(1);
+    expect(readdirSync(out)).toEqual(expect.arrayContaining(['prescription.geojson', 'zones.csv', 'summary.json', 'report.html', 'report-data.json', 'shapefiles']));
+    // tilth check passes its own outputs: the GeoJSON, each shapefile set and each zip
+    const sets = readdirSync(join(out, 'shapefiles')).filter((f) => f.endsWith('.shp') || f.endsWith('.zip'));
+    expect(sets.length).toBeGreaterThanOrEqual(2);
+    for (const f of [join(out, 'prescription.geojson'), ...sets.map((x) => join(out, 'shapefiles', x))]) {
+      const c = tilth(['check', f, '--boundary', 'sample-fields/quarter/boundary.geojson', '--speed', '8', '--json']);
+      expect(c.code, `${f}: ${c.stdout}${c.stderr}`).toBe(0);
+    }
+    const gj = JSON.parse(readFileSync(join(out, 'prescription.geojson'), 'utf8'));
+    expect(gj.features.length).toBe(s.zone_sets[0].zones);
+    // refuses to overwrite without --force
+    const again = tilth(args(out));
+    expect(again.code).toBe(2);
+    expect(again.stderr).toMatch(/not empty.*--force/);
+    expect(tilth([...args(out), '--force']).code).toBe(0);
+  });
+
+  it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))('every zone is valid for GDAL (ogrinfo ST_IsValid, GDAL 3.6.2)', () => {
+    const out = join(tmp(), 'rx');
+    expect(tilth(args(out)).code).toBe(0);
+    const r = spawnSync('ogrinfo', ['-ro', '-q', '-dialect', 'sqlite', '-sql', 'SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM prescription', join(out, 'prescription.geojson')], { encoding: 'utf8' });
+    const n = Number(/n \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
+    const v = Number(/v \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
+    expect(n).toBeGreaterThan(1);
+    expect(v).toBe(n);
+  });
+
+  it('bad input: unknown product, output is a file, no sample inside the boundary', () => {
+    const d = tmp();
+    const bad = join(d, 'plan.yaml');
+    writeFileSync(bad, withPlan((p) => { p.products[0].product = 'magic_dust'; }));
+    const r1 = tilth(args(join(d, 'o1'), bad));
+    expect(r1.code).toBe(2);
+    expect(r1.stderr).toMatch(/magic_dust/);
+    expect(existsSync(join(d, 'o1'))).toBe(false);
+    writeFileSync(join(d, 'file'), 'x');
+    const r2 = tilth(args(join(d, 'file')));
+    expect(r2.code).toBe(2);
+    expect(r2.stderr).toMatch(/is a file/);
+    const r3 = tilth(['build', '--samples', 'sample-fields/zoned/samples.geojson', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', 'sample-fields/quarter/plan.yaml', '--out', join(d, 'o3'), '--quiet']);
+    expect(r3.code).toBe(2);
+    expect(r3.stderr).not.toMatch(/at .*\.ts:\d+/);
+    expect(existsSync(join(d, 'o3'))).toBe(false);
+  });
+
+  it('an infeasible plan: each zone reports it, the files are still written, exit 1', () => {
+    const d = tmp();
+    const plan = join(d, 'plan.yaml');
+    // only MAP, only in the seed row, at most 10 lb/ac: the P2O5 targets cannot be met
+    writeFileSync(plan, withPlan((p) => { p.products = [{ product: 'map', placements: ['seed_row'], max_rate: 10 }]; p.implement.placements = ['seed_row']; }));
+    const r = tilth(args(join(d, 'rx'), plan));
+    expect(r.code).toBe(1);
+    expect(r.stderr).toMatch(/cannot meet their targets/);
+    expect(r.stderr).toMatch(/zone set shared, zone \d+:/);
+    expect(existsSync(join(d, 'rx', 'prescription.geojson'))).toBe(true);
+  });
+});
+
+void seedRowLimits;
