@@ -109,3 +109,21 @@ describe('tilth variability takes the S threshold and floor from the plan and ta
     }
   });
 });
+
+describe('tilth build report carries the sulphate-S variability charts', () => {
+  it('report.html embeds the semivariogram and the low-spot map', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'tilth-var-build-'));
+    try {
+      const plan = tilth(['plan', 'init', '--crop', 'canola']);
+      writeFileSync(join(dir, 'plan.yaml'), plan.stdout);
+      const r = tilth(['build', '--samples', 'sample-fields/quarter/samples.geojson', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', join(dir, 'plan.yaml'), '--out', join(dir, 'out')]);
+      expect(r.code, r.stderr).toBe(0);
+      const html = readFileSync(join(dir, 'out', 'report.html'), 'utf8');
+      expect(html).toContain('<h3>Semivariogram of sulphate-S (0-24 in)</h3>');
+      expect(html).toContain('<h3>sulphate-S (0-24 in): low spots</h3>');
+      expect(html).toMatch(/spatial dependence (strong|moderate|weak)/);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});

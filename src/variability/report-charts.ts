@@ -3,8 +3,8 @@
  * build's report shows the same pictures `tilth variability --out` writes.
  */
 import type { ReportChart } from '../report/types.js';
-import type { Field, Samples } from '../types.js';
-import type { VariabilityReport } from './index.js';
+import type { Field, Grid, Samples } from '../types.js';
+import { analyzeVariability, type VariabilityReport } from './index.js';
 import { sampleMapSvg, semivariogramSvg } from './charts.js';
 
 /**
@@ -32,4 +32,29 @@ export function variabilityReportCharts(r: VariabilityReport, samples: Samples, 
       caption: mapCaption,
     },
   ];
+}
+
+/** The crop entries of the rate engine's tables the sulphur study reads (src/agronomy/tables.ts). */
+export interface CropSulphurEntries {
+  s_low_below_lb: { value: number; source: string };
+  s_floor_lb: { value: number; source: string };
+}
+
+/**
+ * The sulphate-S study a build's report shows: threshold and floor from the plan's crop in the tables (no floor
+ * when the plan's S strategy is 'none'), the build's S surface for the share of area; null when no sample has S.
+ * @example const c = buildSulphurCharts(inputs.samples, inputs.field, tables.crops[plan.crop], plan.strategy.s.method, sSurface)
+ */
+export function buildSulphurCharts(
+  samples: Samples, field: Field, crop: CropSulphurEntries | undefined, sMethod: string,
+  surface?: { grid: Grid; values: ArrayLike<number>; note?: string; zones?: boolean },
+): ReportChart[] {
+  if (!Array.from(samples.values.so4_s).some(Number.isFinite)) return [];
+  const r = analyzeVariability(samples, field, {
+    nutrient: 'so4_s',
+    threshold: crop ? { value: crop.s_low_below_lb.value, unit: 'lb S/ac 0-24 in', source: `tables: ${crop.s_low_below_lb.source}` } : undefined,
+    sFloor: sMethod === 'none' ? 0 : crop?.s_floor_lb.value,
+    sFloorSource: sMethod === 'none' ? "the plan's S strategy is none" : crop ? `tables: ${crop.s_floor_lb.source}` : undefined,
+  }, surface ? { values: surface.values, fraction: surface.grid.fraction, cell: surface.grid.cell, note: surface.note } : undefined);
+  return variabilityReportCharts(r, samples, field, surface ? { grid: surface.grid, values: surface.values, label: surface.zones ? 'zone sample value' : 'interpolated (IDW)' } : undefined);
 }
