@@ -13,6 +13,7 @@ import { loadInputs } from './inputs.js';
 import { tablesFromOption } from './plan.js';
 import { CAUTION, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
 import { createTerminal, type Task } from './progress.js';
+import { buildSulphurCharts } from '../variability/index.js';
 
 interface BuildFlags {
   samples: string; boundary: string; zones?: string; plan: string; tables?: string; out: string;
@@ -92,7 +93,11 @@ export function register(program: Command): void {
         for (const [name, bytes] of Object.entries(shp.files)) files.set(`shapefiles/${name}`, bytes);
       }
       say('drawing the report ...');
-      const ri = reportInput(rx, inputs, tables, prov, { tablesEdited: !!o.tables });
+      // the sulphate-S variability charts (issue 8), from the build's own S surface
+      const sSurf = rx.surfaces.find((s) => s.analyte === 'so4_s');
+      const charts = buildSulphurCharts(inputs.samples, inputs.field, tables.crops[plan.crop], plan.strategy.s.method,
+        sSurf ? { grid: sSurf.grid, values: sSurf.values, note: sSurf.choice, zones: sSurf.method === 'zones' } : undefined);
+      const ri = reportInput(rx, inputs, tables, prov, { tablesEdited: !!o.tables, charts });
       files.set('report-data.json', serializeReportInput(ri));
       files.set('report.html', renderReport(ri));
       writeOutputDir(o.out, files, o.force);

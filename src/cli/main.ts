@@ -7,6 +7,7 @@ import { isUserError } from '../errors.js';
 import { CAUTION } from './util.js';
 import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
+import * as variability from './variability.js';
 import { preloadInputs } from './inputs.js';
 import * as surface from './surface.js';
 import * as plan from './plan.js';
@@ -25,7 +26,7 @@ program
   .addHelpText('after', `\n${CAUTION}`)
   .exitOverride();
 
-for (const cmd of [inspect, surface, check, report, plan, rates, tables, build]) cmd.register(program);
+for (const cmd of [inspect, surface, check, report, plan, rates, tables, build, variability]) cmd.register(program);
 
 // shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
 program.hook('preAction', async (_program, action) => {
