@@ -13,20 +13,11 @@ import { join } from 'node:path';
 import * as polyclip from 'polyclip-ts';
 import { pointOnFeature } from '@turf/turf';
 import { projector, utmZoneFor } from '../src/geo/utm.js';
+import { mulberry32 } from '../src/stats/random.js';
 
 const ROOT = join(import.meta.dirname, '..', 'sample-fields');
 
-/** mulberry32: small seeded PRNG */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = mulberry32;
 function gauss(r: () => number): number {
   const u = Math.max(r(), 1e-12), v = r();
   return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);

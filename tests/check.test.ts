@@ -308,16 +308,3 @@ describe('checkPrescription (library)', () => {
     expect(r.ok).toBe(true);
   });
 });
-
-describe('writeFolderAtomic (CLI helper for --out DIR/shapefiles/)', () => {
-  it('replaces the folder as a whole and refuses names with folders in them', async () => {
-    const { writeFolderAtomic } = await import('../src/cli/write-files.js');
-    const target = join(dir, 'out', 'shapefiles');
-    writeFolderAtomic(target, { 'a.shp': new Uint8Array([1]), 'old.txt': 'x' });
-    writeFolderAtomic(target, { 'b.shp': new Uint8Array([2]) });
-    expect(existsSync(join(target, 'b.shp'))).toBe(true);
-    expect(existsSync(join(target, 'old.txt'))).toBe(false);
-    expect(() => writeFolderAtomic(target, { '../x.shp': new Uint8Array([1]) })).toThrow(/unsafe/);
-    expect(existsSync(join(dir, 'out', 'x.shp'))).toBe(false);
-  });
-});

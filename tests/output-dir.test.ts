@@ -21,6 +21,12 @@ describe('writeOutputDir (all or nothing)', () => {
     expect(existsSync(join(d, 'old.txt'))).toBe(false);
     expect(readFileSync(join(d, 'a.txt'), 'utf8')).toBe('A');
   });
+  it('refuses a path that leaves the folder', () => {
+    const d = join(mkdtempSync(join(tmpdir(), 'tilth-')), 'out');
+    expect(() => writeOutputDir(d, new Map([['../x.shp', 'x']]))).toThrow(/bad output path/);
+    expect(existsSync(join(d, '..', 'x.shp'))).toBe(false);
+    expect(existsSync(d)).toBe(false);
+  });
   it('refuses a file as the output folder', () => {
     const d = mkdtempSync(join(tmpdir(), 'tilth-'));
     writeFileSync(join(d, 'f'), 'x');

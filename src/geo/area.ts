@@ -49,19 +49,27 @@ export function partsBbox(parts: RingsPart[]): [number, number, number, number] 
 }
 
 /**
+ * Even-odd point in ring test (a closed ring x0 y0 ... xn yn). A point exactly on an edge may fall either way.
+ * @example pointInRing(zone.parts[0].exterior, x, y)
+ */
+export function pointInRing(r: ArrayLike<number>, x: number, y: number): boolean {
+  let inside = false;
+  const n = r.length >> 1;
+  for (let i = 0, j = n - 1; i < n; j = i++) {
+    const xi = r[2 * i], yi = r[2 * i + 1], xj = r[2 * j], yj = r[2 * j + 1];
+    if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
+  }
+  return inside;
+}
+
+/**
  * Point in polygon with holes (even-odd over all rings of the part list).
  * A point exactly on an edge may fall either way.
  */
 export function pointInParts(parts: RingsPart[], x: number, y: number): boolean {
   let inside = false;
   for (const p of parts) {
-    for (const r of [p.exterior, ...p.holes]) {
-      const n = r.length >> 1;
-      for (let i = 0, j = n - 1; i < n; j = i++) {
-        const xi = r[2 * i], yi = r[2 * i + 1], xj = r[2 * j], yj = r[2 * j + 1];
-        if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
-      }
-    }
+    for (const r of [p.exterior, ...p.holes]) if (pointInRing(r, x, y)) inside = !inside;
   }
   return inside;
 }

@@ -6,7 +6,7 @@
 import { UserError, type Warning } from '../errors.js';
 import type { RawPolygons } from '../io/records.js';
 import type { RingsPart } from '../types.js';
-import { ringArea } from '../geo/area.js';
+import { pointInRing, ringArea } from '../geo/area.js';
 import { findCrossing } from './crossings.js';
 
 const ringName = (poly: number, ring: number, nPolys: number) =>
@@ -115,15 +115,6 @@ export function checkPartsMetres(parts: RingsPart[], where: string[], file: stri
   });
 }
 
-function pointInRing(r: Float64Array, x: number, y: number): boolean {
-  let inside = false;
-  const n = r.length >> 1;
-  for (let i = 0, j = n - 1; i < n; j = i++) {
-    const xi = r[2 * i], yi = r[2 * i + 1], xj = r[2 * j], yj = r[2 * j + 1];
-    if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
-  }
-  return inside;
-}
 
 /** Sum of |triangle areas| of the fan from the first point: 0 exactly when all points lie on one line. */
 function fanArea(r: Float64Array): number {

@@ -6,6 +6,7 @@
  * weights (the grid's `fraction`) make quantiles and class means area-weighted, so an edge cell
  * counts only its inside share. Output classes are an Int16Array (-1 = no value), 0 = lowest class.
  */
+import { mulberry32 } from '../stats/random.js';
 
 /** How the class breaks are chosen. */
 export type ClassMethod = 'equal' | 'quantile' | 'jenks' | 'kmeans';
@@ -255,17 +256,6 @@ export interface VectorClasses {
   weight: number[];
 }
 
-/** Small seeded PRNG (mulberry32) so classes are reproducible. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /**
  * k-means on standardized vectors: each dimension (e.g. the N, P2O5 and S targets of one pass) is

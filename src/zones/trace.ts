@@ -3,7 +3,7 @@
  * so the cost is linear in the number of cells (no union of cell squares). See docs/zones.md.
  */
 import type { RingsPart } from '../types.js';
-import { ringArea } from '../geo/area.js';
+import { pointInRing, ringArea } from '../geo/area.js';
 
 /** Raster placement of a zone raster: the Grid's geometry. */
 export interface RasterFrame { xmin: number; ymax: number; cell: number; cols: number; rows: number }
@@ -134,16 +134,4 @@ function toRing(keys: number[], W: number, xmin: number, ymax: number, cell: num
   return out;
 }
 
-/**
- * Even-odd point in ring test (a closed ring x0 y0 ... xn yn).
- * @example pointInRing(zone.parts[0].exterior, x, y)
- */
-export function pointInRing(r: ArrayLike<number>, x: number, y: number): boolean {
-  let inside = false;
-  const n = r.length >> 1;
-  for (let i = 0, j = n - 1; i < n; j = i++) {
-    const xi = r[2 * i], yi = r[2 * i + 1], xj = r[2 * j], yj = r[2 * j + 1];
-    if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
-  }
-  return inside;
-}
+export { pointInRing };
