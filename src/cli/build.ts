@@ -9,7 +9,7 @@ import { prescriptionFiles } from '../io/shapefile/index.js';
 import { renderReport, serializeReportInput } from '../report/index.js';
 import { inputsHash } from './report.js';
 import { VERSION } from '../version.js';
-import { loadInputs } from './inputs.js';
+import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { tablesFromOption } from './plan.js';
 import { CAUTION, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
 import { createTerminal, type Task } from './progress.js';
@@ -22,21 +22,13 @@ interface BuildFlags {
 }
 
 export function register(program: Command): void {
-  program
-    .command('build')
+  addInputOptions(program
+    .command('build'))
     .description('Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.')
-    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
-    .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
     .requiredOption('--plan <file>', 'plan file (see `tilth plan init`)')
     .requiredOption('--out <dir>', 'output folder (created; refused if it exists and is not empty, unless --force)')
-    .option('--zones <file>', 'zone polygons for zone-composite samples')
     .option('--tables <file>', 'your edited agronomy tables (see `tilth tables`)')
     .option('--cell <m>', 'grid cell size in metres (default: about 200 cells across the field, 1-20 m)')
-    .option('--columns <map>', 'CSV column map, e.g. "id=Sample,lat=Lat,lon=Long"')
-    .option('--depth-factor <x>', 'factor from 0-6 in nitrate/sulphate to 0-24 in, when only 0-6 in was sampled (no default)')
-    .option('--p-method <method>', 'P test method when the samples do not say: olsen or kelowna')
-    .option('--drop-outside', 'drop samples outside the boundary (default: keep them, with a warning)')
-    .option('--assume-wgs84', 'read a shapefile without .prj as WGS 84 longitude/latitude')
     .option('--force', 'replace an existing output folder')
     .option('--json', 'print summary.json on stdout for scripts')
     .option('--quiet', 'no progress messages')
@@ -48,11 +40,7 @@ export function register(program: Command): void {
       const planText = readInput(o.plan, 'plan').toString('utf8');
       const plan = parsePlan(planText, o.plan, tables);
       say('reading and checking the inputs ...');
-      const inputs = loadInputs({
-        samples: o.samples, boundary: o.boundary, zones: o.zones, columns: o.columns,
-        depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 0 }), dropOutside: o.dropOutside,
-        pMethod: o.pMethod, assumeWgs84: o.assumeWgs84,
-      });
+      const inputs = loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
       if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
       let last = '';
       let task: Task | null = null;

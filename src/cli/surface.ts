@@ -1,17 +1,14 @@
 /** `tilth surface`: one nutrient's interpolated map as an Esri ASCII grid (.asc + .prj), and the cross-validation table. */
 import type { Command } from 'commander';
 import { UserError } from '../errors.js';
-import type { PMethod } from '../types.js';
 import { analyteFromName, ANALYTE_LABEL, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, utmPrj, type NutrientSurface } from '../surface/index.js';
-import { loadInputs } from './inputs.js';
+import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { info, numberOption, out, printWarnings, writeFileAtomic } from './util.js';
 
 export function register(program: Command): void {
-  program
-    .command('surface')
+  addInputOptions(program
+    .command('surface'))
     .description('Map one soil-test nutrient over the field by inverse-distance weighting (power and neighbours chosen by cross-validation unless given) and write an Esri ASCII grid (.asc with .prj) in the field\'s UTM zone.')
-    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
-    .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
     .requiredOption('--nutrient <name>', 'no3_n (or n, nitrate), p, k, so4_s (or s, sulphate, sulfate), om, ph')
     .requiredOption('--out <file.asc>', 'output grid; the .prj is written beside it')
     .option('--cell <metres>', 'cell size in metres', '5')
@@ -19,12 +16,6 @@ export function register(program: Command): void {
     .option('--neighbours <k|all|auto>', 'nearest samples per cell, all, or auto (lowest RMSE of 8, 12, 16, all)', 'auto')
     .option('--radius <metres>', 'use only samples within this distance (default: no limit)')
     .option('--min-neighbours <n>', 'leave a cell empty when fewer samples are within --radius', '1')
-    .option('--zones <file>', 'zone polygons that zone-composite samples are keyed to (.geojson, .shp, .zip); each zone takes its sample value')
-    .option('--columns <map>', 'CSV column map, e.g. "id=Sample ID,lat=Lat,lon=Long,p=P Olsen:ppm" (headers are recognised otherwise)')
-    .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
-    .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
-    .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
-    .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)')
     .option('--decimals <n>', 'decimals written in the grid', '3')
     .option('--json', 'print the result (choice, cross-validation table, warnings) as JSON on stdout')
     .addHelpText(
@@ -46,17 +37,7 @@ export function register(program: Command): void {
       const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, { min: 1, integer: true });
       const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
       if (!/\.asc$/i.test(o.out)) throw new UserError(`--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`, { file: o.out });
-      let pMethod: PMethod | undefined;
-      if (o.pMethod !== undefined) {
-        const m = String(o.pMethod).toLowerCase();
-        if (m !== 'olsen' && m !== 'kelowna') throw new UserError(`option --p-method: "${o.pMethod}" is not olsen or kelowna. Fix: give --p-method olsen or --p-method kelowna.`);
-        pMethod = m;
-      }
-      const inputs = loadInputs({
-        samples: o.samples, boundary: o.boundary, zones: o.zones, columns: o.columns, pMethod,
-        depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 1, max: 10 }),
-        dropOutside: Boolean(o.dropOutside), assumeWgs84: Boolean(o.assumeWgs84),
-      });
+      const inputs = loadInputs(inputOptionsFrom(o));
       const grid = fieldGrid(inputs.field, cell);
       const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours });
       const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];

@@ -1,8 +1,8 @@
 /** `tilth variability`: how variable one nutrient is across the field, whether the sampling can map it, the low spots. */
 import type { Command } from 'commander';
 import { UserError } from '../errors.js';
-import type { Analyte, PMethod } from '../types.js';
-import { loadInputs } from './inputs.js';
+import type { Analyte } from '../types.js';
+import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { CAUTION, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
 import { tablesFromOption } from './plan.js';
 import { parsePlan } from '../agronomy/index.js';
@@ -30,16 +30,9 @@ function toJson(v: unknown): string {
 }
 
 export function register(program: Command): void {
-  program
-    .command('variability')
+  addInputOptions(program
+    .command('variability'))
     .description('Within-field variability of one nutrient (sulphate-S by default): statistics, semivariogram and fitted models, spatial dependence, sampling advice, low spots.')
-    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
-    .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
-    .option('--zones <file>', 'zone polygons that zone-composite samples are keyed to (.geojson, .shp, .zip)')
-    .option('--columns <map>', 'CSV column map, e.g. "id=Sample ID,lat=Lat,lon=Long,s=SO4-S:lb/ac" (headers are recognised otherwise)')
-    .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
-    .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
-    .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)')
     .option('--nutrient <name>', 'S, N, P, K, OM or pH', 'S')
     .option('--plan <file>', 'plan file (see `tilth plan init`): its crop and S strategy set the S threshold and floor from the tables (default: canola)')
     .option('--tables <file>', 'your edited tables (see `tilth tables`)')
@@ -51,7 +44,6 @@ export function register(program: Command): void {
     .option('--log', 'semivariogram of the natural logarithm of the values (for strongly skewed data)')
     .option('--cutoff <m>', 'largest pair distance, metres (default a third of the samples\' bounding-box diagonal)')
     .option('--width <m>', 'lag width, metres (default cutoff / 15)')
-    .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
     .option('--out <dir>', 'write a folder with the charts (<nutrient>-semivariogram.svg, <nutrient>-map.svg) and variability.json')
     .option('--force', 'replace an existing, non-empty --out folder')
     .option('--json', 'print JSON for scripts')
@@ -87,17 +79,7 @@ ${CAUTION}`)
       const cutoff = numberOption('--cutoff', o.cutoff, { min: 0 });
       const width = numberOption('--width', o.width, { min: 0 });
       if (cutoff === 0 || width === 0) throw new UserError('options --cutoff and --width must be above 0. Fix: give a distance in metres, e.g. --cutoff 400.');
-      let pMethod: PMethod | undefined;
-      if (o.pMethod !== undefined) {
-        const pm = String(o.pMethod).toLowerCase();
-        if (pm !== 'olsen' && pm !== 'kelowna') throw new UserError(`option --p-method: "${o.pMethod}" is not olsen or kelowna. Fix: give --p-method olsen or --p-method kelowna.`);
-        pMethod = pm;
-      }
-      const inputs = loadInputs({
-        samples: o.samples, boundary: o.boundary, zones: o.zones, columns: o.columns, pMethod,
-        depthFactor: numberOption('--depth-factor', o.depthFactor, { min: 1, max: 10 }),
-        dropOutside: Boolean(o.dropOutside), assumeWgs84: Boolean(o.assumeWgs84),
-      });
+      const inputs = loadInputs(inputOptionsFrom(o));
       const cell = numberOption('--cell', o.cell, { min: 0.5 })!;
       let surf: { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string; label: string } | undefined;
       const surfaceWarnings = [];
