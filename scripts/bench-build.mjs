@@ -13,6 +13,7 @@
 //   --quick (or TILTH_BENCH_QUICK=1): 1 run per figure (the section takes tens of seconds a run)
 //   --nn: also time gdal_grid invdistnn:power=2:max_points=12 on the section (takes many minutes)
 //   --keep: keep the temporary folder with the synthetic inputs and outputs, and print its path
+//   TILTH_BENCH_CLI=dist/x.mjs: time that entry point instead of bin/tilth.js (experiments)
 import { execFileSync, spawn, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
@@ -32,7 +33,8 @@ const HAS_GDAL = ['gdal_grid', 'gdal_calc.py', 'gdal_polygonize.py'].every((c) =
 
 // the bundle is what `npx tilth` runs; make sure it is current
 execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
-const TILTH = join(root, 'bin', 'tilth.js');
+// TILTH_BENCH_CLI=path: time another entry point (e.g. an experimental bundle) instead of bin/tilth.js
+const TILTH = process.env.TILTH_BENCH_CLI ? join(root, process.env.TILTH_BENCH_CLI) : join(root, 'bin', 'tilth.js');
 
 // seeded PRNG (mulberry32)
 function rng(seed) { let a = seed >>> 0; return () => { a = (a + 0x6d2b79f5) >>> 0; let t = a; t = Math.imul(t ^ (t >>> 15), t | 1); t ^= t + Math.imul(t ^ (t >>> 7), t | 61); return ((t ^ (t >>> 14)) >>> 0) / 4294967296; }; }
