@@ -1,6 +1,7 @@
-// `npm run bench`: runs every scripts/bench-*.mjs and scripts/bench-*.ts in turn (each a separate benchmark
-// that prints its own table; .ts through tsx). Pass a name to run one: `npm run bench -- surface`; later
-// arguments go to that script. Figures go into docs/performance.md by hand.
+// `npm run bench`: runs every scripts/bench-*.mjs and bench-*.ts in turn (.ts through tsx) (each is a separate benchmark that prints its own
+// table). Pass a name to run one: `npm run bench -- surface`; arguments after the name go to that script
+// (`npm run bench -- build --quick`). TILTH_BENCH_QUICK=1 shortens the build benchmark (1 run per figure) when
+// all run. Figures go into docs/performance.md by hand.
 import { spawnSync } from 'node:child_process';
 import { readdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';

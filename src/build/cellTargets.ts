@@ -46,36 +46,35 @@ export function cellTargets(
     const src = drivers.map((a) => surfaces[a]);
     const q = drivers.map((a) => TARGET_PRECISION[a as keyof typeof TARGET_PRECISION]);
     const cache = new Map<number, number>();
-    const one = (vals: number[]) => {
+    const one = (v0: number, v1: number) => {
       const soil: SoilValues = { ...base };
-      drivers.forEach((a, j) => { (soil as unknown as Record<string, number>)[a] = vals[j]; });
+      (soil as unknown as Record<string, number>)[drivers[0]] = v0;
+      if (drivers.length > 1) (soil as unknown as Record<string, number>)[drivers[1]] = v1;
       const it = interpret(soil, crop, plan, tables);
       sink.length = 0;
       return targets(it, crop, plan, tables, sink)[nut].lbac;
     };
     if (src.every((s) => s === undefined)) {
-      const v = one(drivers.map(() => NaN));
+      const v = one(NaN, NaN);
       for (let i = 0; i < n; i++) if (fraction[i] > 0) arr[i] = v;
       out[nut] = arr;
       continue;
     }
+    // at most two drivers (DRIVERS); scalars instead of a per-cell array keep 2.6 M cells free of garbage
+    const s0 = src[0], s1 = drivers.length > 1 ? src[1] : undefined, two = drivers.length > 1;
+    const q0 = q[0], q1 = two ? q[1] : 1;
     for (let i = 0; i < n; i++) {
       if (!(fraction[i] > 0)) continue;
-      // integer key from the quantized driver values (at most two drivers)
-      let key = 0;
-      const vals: number[] = [];
-      let ok = true;
-      for (let j = 0; j < drivers.length; j++) {
-        const s = src[j];
-        const v = s ? s[i] : NaN;
-        if (s && v !== v) { ok = false; break; }
-        const k = s ? Math.round(v / q[j]) : -1;
-        vals.push(s ? k * q[j] : NaN);
-        key = key * 4_000_003 + (k + 2_000_000);
-      }
-      if (!ok) continue;
+      // integer key from the quantized driver values; a missing surface counts as not tested (NaN)
+      const a = s0 ? s0[i] : NaN;
+      if (s0 && a !== a) continue;
+      const b = s1 ? s1[i] : NaN;
+      if (s1 && b !== b) continue;
+      const k0 = s0 ? Math.round(a / q0) : -1;
+      const k1 = s1 ? Math.round(b / q1) : -1;
+      const key = two ? (k0 + 2_000_000) * 4_000_003 + (k1 + 2_000_000) : k0 + 2_000_000;
       let t = cache.get(key);
-      if (t === undefined) { t = one(vals); cache.set(key, t); }
+      if (t === undefined) { t = one(s0 ? k0 * q0 : NaN, s1 ? k1 * q1 : NaN); cache.set(key, t); }
       arr[i] = t;
     }
     out[nut] = arr;

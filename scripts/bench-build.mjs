@@ -1,0 +1,220 @@
+// Build benchmark (issue 5, item 10): the whole `tilth build` CLI process (start, read, surfaces with
+// cross-validation, targets, classes, cleaning, polygons, rates, every output written) on
+//   - the demo quarter (sample-fields/quarter) at 2 m cells, and
+//   - a synthetic, seeded 640 ac section (1609 m square near 52 N 106.5 W, invented) at 1 m cells with
+//     5000 samples,
+// against GDAL's three-step chain on the same section data in the same run when GDAL is installed:
+// gdal_grid -a invdist:power=2:smoothing=0 (all points) -> gdal_calc.py (5 equal-interval classes) ->
+// gdal_polygonize.py, on the same 1 m grid (1609 x 1609 cells).
+// Medians of several runs (wall); peak memory from /usr/bin/time -v (maximum resident set size).
+// One extra run per case times the build's stages from its progress lines on stderr.
+//
+// Usage: node scripts/bench-build.mjs [--runs 5] [--quick] [--nn] [--keep]
+//   --quick (or TILTH_BENCH_QUICK=1): 1 run per figure (the section takes tens of seconds a run)
+//   --nn: also time gdal_grid invdistnn:power=2:max_points=12 on the section (takes many minutes)
+//   --keep: keep the temporary folder with the synthetic inputs and outputs, and print its path
+//   TILTH_BENCH_CLI=dist/x.mjs: time that entry point instead of bin/tilth.js (experiments)
+import { execFileSync, spawn, spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import proj4 from 'proj4';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const args = process.argv.slice(2);
+const QUICK = args.includes('--quick') || process.env.TILTH_BENCH_QUICK === '1';
+const RUNS = QUICK ? 1 : Number(args[args.indexOf('--runs') + 1]) || 5;
+const SECTION_RUNS = QUICK ? 1 : Math.min(RUNS, 3);
+const NN = args.includes('--nn');
+const KEEP = args.includes('--keep');
+const TIME = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
+const HAS_GDAL = ['gdal_grid', 'gdal_calc.py', 'gdal_polygonize.py'].every((c) => !spawnSync(c, ['--help'], { stdio: 'ignore' }).error);
+
+// the bundle is what `npx tilth` runs; make sure it is current
+execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
+// TILTH_BENCH_CLI=path: time another entry point (e.g. an experimental bundle) instead of bin/tilth.js
+const TILTH = process.env.TILTH_BENCH_CLI ? join(root, process.env.TILTH_BENCH_CLI) : join(root, 'bin', 'tilth.js');
+
+// seeded PRNG (mulberry32)
+function rng(seed) { let a = seed >>> 0; return () => { a = (a + 0x6d2b79f5) >>> 0; let t = a; t = Math.imul(t ^ (t >>> 15), t | 1); t ^= t + Math.imul(t ^ (t >>> 7), t | 61); return ((t ^ (t >>> 14)) >>> 0) / 4294967296; }; }
+
+const UTM = '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs';
+const toLonLat = proj4(UTM, 'EPSG:4326');
+const [cx, cy] = toLonLat.inverse([-106.5, 52.0]);
+const X0 = Math.round(cx), Y0 = Math.round(cy); // whole metres, so the 1 m grid starts on X0, Y0
+const SIDE = 1609; // 1609 m square = 639.7 ac (a section is 1609.344 m); 1609 x 1609 cells at 1 m
+const N_SAMPLES = 5000;
+
+/**
+ * Writes the synthetic section: boundary.geojson, samples.geojson (lon/lat, the quarter's property names),
+ * points.csv/.vrt (the same points in UTM, P Olsen as z) for gdal_grid, and plan.yaml from `tilth plan init`.
+ */
+function makeSection(dir) {
+  const rnd = rng(5000);
+  const e = 0.01; // corners just inside whole cells
+  const ring = [[X0 + e, Y0 + e], [X0 + SIDE - e, Y0 + e], [X0 + SIDE - e, Y0 + SIDE - e], [X0 + e, Y0 + SIDE - e], [X0 + e, Y0 + e]]
+    .map(([x, y]) => toLonLat.forward([x, y]));
+  writeFileSync(join(dir, 'boundary.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'Bench section (invented)' }, geometry: { type: 'Polygon', coordinates: [ring] } }] }));
+  // smooth seeded "soil" waves plus sample noise, one set per analyte
+  const waves = (k) => Array.from({ length: 4 }, () => ({ fx: (0.5 + 3 * rnd()) / SIDE, fy: (0.5 + 3 * rnd()) / SIDE, ph: 6.283 * rnd(), a: 0.5 + rnd() }));
+  const W = { n: waves(), p: waves(), k: waves(), s: waves(), om: waves() };
+  const wv = (w, x, y) => w.reduce((s, t) => s + t.a * Math.sin(6.283 * (t.fx * x + t.fy * y) + t.ph), 0) / 4; // about -1..1
+  const feats = [], csv = ['x,y,z'];
+  const taken = new Set(); // 1 m buckets: no two samples closer than 1 m (tilth refuses two samples at one place)
+  for (let i = 0; i < N_SAMPLES; i++) {
+    let x, y;
+    do { x = 1 + rnd() * (SIDE - 2); y = 1 + rnd() * (SIDE - 2); }
+    while ([-1, 0, 1].some((dx) => [-1, 0, 1].some((dy) => taken.has((Math.floor(x) + dx) * 4096 + Math.floor(y) + dy))));
+    taken.add(Math.floor(x) * 4096 + Math.floor(y));
+    const [lon, lat] = toLonLat.forward([X0 + x, Y0 + y]).map((v) => Math.round(v * 1e7) / 1e7);
+    const r1 = (v, d = 0) => Math.round(v * 10 ** d) / 10 ** d;
+    const p = Math.max(2, r1(14 + 9 * wv(W.p, x, y) + 3 * (rnd() - 0.5)));
+    const props = {
+      sample_id: `BS-${i + 1}`,
+      texture: wv(W.om, x, y) < -0.5 ? 'light' : 'medium',
+      no3_n_lbac_0_6: Math.max(1, r1(14 + 8 * wv(W.n, x, y) + 4 * (rnd() - 0.5))),
+      no3_n_lbac_6_24: Math.max(1, r1(16 + 10 * wv(W.n, x, y) + 4 * (rnd() - 0.5))),
+      p_olsen_ppm: p,
+      k_ppm: Math.max(40, r1(260 + 160 * wv(W.k, x, y) + 30 * (rnd() - 0.5))),
+      so4_s_lbac_0_6: Math.max(1, r1(8 + 6 * wv(W.s, x, y) + 2 * (rnd() - 0.5))),
+      so4_s_lbac_6_24: Math.max(1, r1(14 + 12 * wv(W.s, x, y) + 3 * (rnd() - 0.5))),
+      om_pct: Math.max(0.5, r1(3.5 + 1.5 * wv(W.om, x, y) + 0.3 * (rnd() - 0.5), 1)),
+      ph: r1(7 + 0.6 * (rnd() - 0.5), 1),
+    };
+    feats.push({ type: 'Feature', properties: props, geometry: { type: 'Point', coordinates: [lon, lat] } });
+    const [px, py] = toLonLat.inverse([lon, lat]); // the same (rounded) points that tilth reads
+    csv.push(`${px},${py},${p}`);
+  }
+  writeFileSync(join(dir, 'samples.geojson'), JSON.stringify({ type: 'FeatureCollection', name: 'Bench section samples (invented)', features: feats }));
+  writeFileSync(join(dir, 'points.csv'), csv.join('\n') + '\n');
+  writeFileSync(join(dir, 'points.vrt'), `<OGRVRTDataSource><OGRVRTLayer name="points"><SrcDataSource>${join(dir, 'points.csv')}</SrcDataSource><SrcLayer>points</SrcLayer><GeometryType>wkbPoint</GeometryType><LayerSRS>EPSG:32613</LayerSRS><GeometryField encoding="PointFromColumns" x="x" y="y" z="z"/></OGRVRTLayer></OGRVRTDataSource>`);
+  // the plan: tilth's own starter plan for canola; one shared zone set for the pass (as the demo quarter)
+  const plan = execFileSync(process.execPath, [TILTH, 'plan', 'init', '--crop', 'canola'], { cwd: root, encoding: 'utf8' })
+    .replace(/^(\s*zone_sets:\s*)per_product/m, '$1shared');
+  if (!/zone_sets:\s*shared/.test(plan)) throw new Error('could not set zoning.zone_sets in the starter plan');
+  writeFileSync(join(dir, 'plan.yaml'), plan);
+  const ps = feats.map((f) => f.properties.p_olsen_ppm);
+  return { pmin: Math.min(...ps), pmax: Math.max(...ps) };
+}
+
+const med = (a) => (a.length ? [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)] : NaN);
+
+/** Runs a command `runs` times; median wall and CPU seconds, max peak RSS (MB). Exit 1 (infeasible zones) is accepted for tilth. */
+function measure(cmd, argv, runs, cwd, okStatus = [0]) {
+  const walls = [], rss = [], cpu = [];
+  for (let r = 0; r < runs; r++) {
+    const t0 = process.hrtime.bigint();
+    const res = TIME ? spawnSync(TIME, ['-v', cmd, ...argv], { cwd, encoding: 'utf8', maxBuffer: 1 << 28 }) : spawnSync(cmd, argv, { cwd, encoding: 'utf8', maxBuffer: 1 << 28 });
+    const wall = Number(process.hrtime.bigint() - t0) / 1e9;
+    if (!okStatus.includes(res.status)) throw new Error(`${cmd} ${argv.join(' ')} failed (${res.status}):\n${res.stderr}`);
+    walls.push(wall);
+    const m = /Maximum resident set size \(kbytes\): (\d+)/.exec(res.stderr ?? '');
+    if (m) rss.push(Number(m[1]) / 1024);
+    const u = /User time \(seconds\): ([\d.]+)/.exec(res.stderr ?? ''), sy = /System time \(seconds\): ([\d.]+)/.exec(res.stderr ?? '');
+    if (u && sy) cpu.push(Number(u[1]) + Number(sy[1]));
+  }
+  return { wall: med(walls), cpu: med(cpu), rss: rss.length ? Math.max(...rss) : NaN, runs };
+}
+
+/** One run of `tilth build`, timing each stage from the progress lines it prints on stderr. */
+function stages(argv) {
+  return new Promise((resolve, reject) => {
+    const t0 = process.hrtime.bigint();
+    const at = () => Number(process.hrtime.bigint() - t0) / 1e9;
+    const marks = [];
+    const child = spawn(process.execPath, [TILTH, ...argv], { cwd: root, stdio: ['ignore', 'pipe', 'pipe'] });
+    let buf = '';
+    child.stdout.resume();
+    child.stderr.on('data', (d) => {
+      buf += d;
+      let i;
+      while ((i = buf.indexOf('\n')) >= 0) {
+        const line = buf.slice(0, i); buf = buf.slice(i + 1);
+        const m = /^(.*) \.\.\.$/.exec(line.trim());
+        if (m) marks.push({ step: m[1], t: at() });
+      }
+    });
+    child.on('error', reject);
+    child.on('close', (code) => {
+      if (code !== 0 && code !== 1) return reject(new Error(`tilth build exited ${code}`));
+      const end = at();
+      const rows = [{ step: 'start, read plan (before the first progress line)', s: marks.length ? marks[0].t : end }];
+      marks.forEach((m, i) => rows.push({ step: m.step, s: (i + 1 < marks.length ? marks[i + 1].t : end) - m.t }));
+      resolve({ rows, total: end });
+    });
+  });
+}
+
+const f3 = (x) => (Number.isFinite(x) ? x.toFixed(3) : 'n/a');
+const f0 = (x) => (Number.isFinite(x) ? x.toFixed(0) : 'n/a');
+const load = () => loadavg().map((x) => x.toFixed(2)).join(', ');
+
+console.log(`machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; load average at start ${load()}`);
+console.log(`quarter: ${RUNS} runs, section: ${SECTION_RUNS} runs per figure (median wall, median CPU = user + system, max peak RSS)`);
+
+const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-build-'));
+const results = [];
+try {
+  // 1. the demo quarter at 2 m cells
+  const q = 'sample-fields/quarter';
+  const qArgs = ['build', '--samples', `${q}/samples.csv`, '--boundary', `${q}/boundary.geojson`, '--plan', `${q}/plan.yaml`, '--out', join(dir, 'rx-quarter'), '--force', '--cell', '2'];
+  const tq = measure(process.execPath, [TILTH, ...qArgs], RUNS, root, [0, 1]);
+  results.push({ name: 'quarter (demo, 2 m cells)', ...tq });
+  const sq = await stages(qArgs);
+
+  // 2. the synthetic section at 1 m cells, 5000 samples
+  const { pmin, pmax } = makeSection(dir);
+  const sArgs = ['build', '--samples', join(dir, 'samples.geojson'), '--boundary', join(dir, 'boundary.geojson'), '--plan', join(dir, 'plan.yaml'), '--out', join(dir, 'rx-section'), '--force', '--cell', '1'];
+  const ts = measure(process.execPath, [TILTH, ...sArgs], SECTION_RUNS, root, [0, 1]);
+  results.push({ name: `section (synthetic, 1 m cells, ${N_SAMPLES} samples)`, ...ts });
+  const ss = await stages(sArgs);
+
+  // 3. GDAL's chain on the section's points and grid
+  let chain = null;
+  if (HAS_GDAL) {
+    const grid = ['-q', '-ot', 'Float32', '-of', 'GTiff', '-a_srs', 'EPSG:32613', '-txe', String(X0), String(X0 + SIDE), '-tye', String(Y0 + SIDE), String(Y0), '-outsize', String(SIDE), String(SIDE), '-zfield', 'z', '-l', 'points'];
+    const g1 = measure('gdal_grid', [...grid, '-a', 'invdist:power=2:smoothing=0', join(dir, 'points.vrt'), join(dir, 'p.tif')], SECTION_RUNS, dir);
+    // five equal-interval classes of P Olsen between the samples' min and max
+    const br = [1, 2, 3, 4].map((k) => pmin + ((pmax - pmin) * k) / 5);
+    const calc = `1+${br.map((b) => `(A>${b.toFixed(4)})`).join('+')}`;
+    const g2 = measure('gdal_calc.py', ['--quiet', '--overwrite', '-A', join(dir, 'p.tif'), '--outfile', join(dir, 'class.tif'), '--type', 'Byte', '--NoDataValue', '0', '--calc', calc], SECTION_RUNS, dir);
+    const g3 = measure('sh', ['-c', `rm -f ${join(dir, 'zones.gpkg')} && gdal_polygonize.py -q ${join(dir, 'class.tif')} -of GPKG ${join(dir, 'zones.gpkg')} zones class`], SECTION_RUNS, dir);
+    const nz = spawnSync('ogrinfo', ['-so', join(dir, 'zones.gpkg'), 'zones'], { encoding: 'utf8' }).stdout.match(/Feature Count: (\d+)/)?.[1];
+    chain = { g1, g2, g3, wall: g1.wall + g2.wall + g3.wall, cpu: g1.cpu + g2.cpu + g3.cpu, rss: Math.max(g1.rss, g2.rss, g3.rss), polygons: nz, calc };
+    let gnn = null;
+    if (NN) gnn = measure('gdal_grid', [...grid, '-a', `invdistnn:power=2:max_points=12:radius=${2 * SIDE}`, join(dir, 'points.vrt'), join(dir, 'pnn.tif')], 1, dir);
+    chain.nn = gnn;
+  }
+  const loadEnd = load();
+
+  console.log('');
+  console.log('| case | wall s (median) | CPU s | peak MB |');
+  console.log('|---|---:|---:|---:|');
+  for (const r of results) console.log(`| tilth build: ${r.name} | ${f3(r.wall)} | ${f3(r.cpu)} | ${f0(r.rss)} |`);
+  if (chain) {
+    console.log(`| gdal_grid -a invdist:power=2:smoothing=0 (all ${N_SAMPLES} points, ${SIDE} x ${SIDE}) | ${f3(chain.g1.wall)} | ${f3(chain.g1.cpu)} | ${f0(chain.g1.rss)} |`);
+    console.log(`| gdal_calc.py (5 equal-interval classes, Byte) | ${f3(chain.g2.wall)} | ${f3(chain.g2.cpu)} | ${f0(chain.g2.rss)} |`);
+    console.log(`| gdal_polygonize.py (GPKG, ${chain.polygons ?? '?'} polygons) | ${f3(chain.g3.wall)} | ${f3(chain.g3.cpu)} | ${f0(chain.g3.rss)} |`);
+    console.log(`| GDAL chain total | ${f3(chain.wall)} | ${f3(chain.cpu)} | ${f0(chain.rss)} (largest step) |`);
+    if (chain.nn) console.log(`| gdal_grid -a invdistnn:power=2:max_points=12 (1 run) | ${f3(chain.nn.wall)} | ${f3(chain.nn.cpu)} | ${f0(chain.nn.rss)} |`);
+  } else {
+    console.log('(GDAL not installed: gdal_grid, gdal_calc.py and gdal_polygonize.py are needed for the comparison)');
+  }
+  console.log('');
+  const sec = results[1], qu = results[0];
+  if (chain) console.log(`section: tilth build / GDAL chain (wall) = ${(sec.wall / chain.wall).toFixed(2)}; target <= 1: ${sec.wall <= chain.wall ? 'met' : 'NOT met'}`);
+  console.log(`section: peak memory ${f0(sec.rss)} MB; target < 500 MB: ${sec.rss < 500 ? 'met' : Number.isFinite(sec.rss) ? 'NOT met' : 'not measured (/usr/bin/time missing)'}`);
+  console.log(`quarter at 2 m: ${f3(qu.wall)} s; target < 1 s: ${qu.wall < 1 ? 'met' : 'NOT met'}`);
+  for (const [name, st] of [['quarter', sq], ['section', ss]]) {
+    console.log(`\nstages of one ${name} run (from the progress lines; wall ${f3(st.total)} s):`);
+    console.log('| stage | wall s |');
+    console.log('|---|---:|');
+    for (const r of st.rows) console.log(`| ${r.step} | ${f3(r.s)} |`);
+  }
+  console.log(`\nload average at end ${loadEnd}`);
+  if (chain) console.log(`gdal_calc expression: ${chain.calc}`);
+} finally {
+  if (KEEP) console.log(`inputs and outputs kept in ${dir}`);
+  else rmSync(dir, { recursive: true, force: true });
+}
