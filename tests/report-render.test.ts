@@ -309,3 +309,17 @@ describe('other shapes of input', () => {
     expect(overlaps).toBe(0);
   });
 });
+
+describe('base64 (RFC 4648)', () => {
+  it('agrees with the web platform btoa over a binary string, and round-trips', async () => {
+    const { base64, fromBase64 } = await import('../src/report/png.js');
+    // source: btoa (WHATWG HTML, forgiving-base64 encode), an independent encoder
+    for (const n of [0, 1, 2, 3, 4, 5, 1000, 70_001]) {
+      const bytes = new Uint8Array(n).map((_, i) => (i * 7919 + n) & 255);
+      let bin = '';
+      for (const b of bytes) bin += String.fromCharCode(b);
+      expect(base64(bytes)).toBe(btoa(bin));
+      expect([...fromBase64(base64(bytes))]).toEqual([...bytes]);
+    }
+  });
+});

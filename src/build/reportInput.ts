@@ -19,6 +19,26 @@ const NUTRIENT_INFO: Record<string, Omit<ReportNutrient, 'key'>> = {
 };
 const PLACEMENT_NAME: Record<string, string> = { seed_row: 'seed row', side_band: 'side band', mid_row_band: 'mid-row band', broadcast: 'broadcast' };
 
+/** Rasters in the report hold at most about this many cells; finer grids are shown coarser (see `coarsen`). */
+export const REPORT_MAX_CELLS = 400_000;
+
+/**
+ * A grid coarsened by a whole factor for display: each new cell takes the value of the original cell at its
+ * centre (nearest, so class rasters keep their classes). A 1 m grid on a section (2.6 million cells) is shown
+ * at 3 m; the prescription itself is unchanged.
+ */
+export function coarsen(g: { xmin: number; ymax: number; cell: number; cols: number; rows: number }, factor: number) {
+  if (factor <= 1) return { grid: g, pick: (v: ArrayLike<number>) => v };
+  const cols = Math.ceil(g.cols / factor), rows = Math.ceil(g.rows / factor);
+  const grid = { xmin: g.xmin, ymax: g.ymax, cell: g.cell * factor, cols, rows };
+  const idx = new Int32Array(cols * rows);
+  for (let r = 0; r < rows; r++) {
+    const rr = Math.min(g.rows - 1, r * factor + (factor >> 1));
+    for (let c = 0; c < cols; c++) idx[r * cols + c] = rr * g.cols + Math.min(g.cols - 1, c * factor + (factor >> 1));
+  }
+  return { grid, pick: (v: ArrayLike<number>) => Float64Array.from(idx, (i) => v[i]) };
+}
+
 /** The cautions printed in every report. */
 export const REPORT_CAUTIONS = [
   'Too much fertilizer with the seed injures or kills seedlings. Seed-row limits here assume the implement, row spacing and seedbed moisture declared in the plan; lower them in dry seedbeds.',
@@ -42,7 +62,8 @@ function mark(source: string): string {
 export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Tables, prov: Provenance, opts: { tablesEdited?: boolean; charts?: ReportChart[] } = {}): ReportInput {
   const plan = rx.plan;
   const grid = rx.grid;
-  const g = { xmin: grid.xmin, ymax: grid.ymax, cell: grid.cell, cols: grid.cols, rows: grid.rows };
+  const view = coarsen({ xmin: grid.xmin, ymax: grid.ymax, cell: grid.cell, cols: grid.cols, rows: grid.rows }, Math.ceil(Math.sqrt((grid.cols * grid.rows) / REPORT_MAX_CELLS)));
+  const g = view.grid;
   const crop = tables.crops[plan.crop];
   const pMethod = inputs.samples.pMethod;
 
@@ -56,7 +77,7 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
       const c = classify(s.values, { method: 'quantile', classes: 5, weights: grid.fraction, step: 0 });
       breaks = c.breaks.slice(1, -1);
     }
-    return { nutrient: s.analyte, raster: { grid: g, values: s.values }, breaks, method: s.method === 'idw' ? `IDW power ${s.power}, ${Number.isFinite(s.neighbours) ? s.neighbours : 'all'} neighbours` : s.method === 'zones' ? 'zone composites' : 'one sample' };
+    return { nutrient: s.analyte, raster: { grid: g, values: view.pick(s.values) }, breaks, method: s.method === 'idw' ? `IDW power ${s.power}, ${Number.isFinite(s.neighbours) ? s.neighbours : 'all'} neighbours` : s.method === 'zones' ? 'zone composites' : 'one sample' };
   });
 
   const response: ReportInput['response'] = [];
@@ -70,7 +91,7 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
       const c = pClass(pS.values[i], pMethod, tables);
       if (c) vals[i] = rank.get(c.name)!;
     }
-    response.push({ nutrient: 'p', classes: order.map((ci) => ({ label: `${pClasses[ci].name}: about ${Math.round(pClasses[ci].response_probability * 100)} % chance` })), raster: { grid: g, values: vals }, source: pClasses[0].source });
+    response.push({ nutrient: 'p', classes: order.map((ci) => ({ label: `${pClasses[ci].name}: about ${Math.round(pClasses[ci].response_probability * 100)} % chance` })), raster: { grid: g, values: view.pick(vals) }, source: pClasses[0].source });
   }
   const kS = rx.surfaces.find((s) => s.analyte === 'k');
   if (kS && crop) {
@@ -83,7 +104,7 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
         { label: `at or above ${kc} ppm: about ${Math.round(tables.k_response_probability.above_critical.value * 100)} % chance` },
         { label: `below ${kc} ppm: about ${Math.round(tables.k_response_probability.below_critical.value * 100)} % chance` },
       ],
-      raster: { grid: g, values: vals },
+      raster: { grid: g, values: view.pick(vals) },
       source: crop.k_critical_ppm.source,
     });
   }

@@ -143,3 +143,16 @@ describe('tilth build (CLI)', () => {
 });
 
 void seedRowLimits;
+
+describe('report rasters of very fine grids are shown coarser', () => {
+  it('coarsen keeps the value at each coarse cell centre (nearest), factor 1 is the identity', async () => {
+    const { coarsen } = await import('../../src/build/reportInput.js');
+    const g = { xmin: 100, ymax: 500, cell: 1, cols: 7, rows: 5 };
+    const v = Float64Array.from({ length: 35 }, (_, i) => i);
+    expect(coarsen(g, 1).pick(v)).toBe(v);
+    const c = coarsen(g, 3);
+    expect(c.grid).toEqual({ xmin: 100, ymax: 500, cell: 3, cols: 3, rows: 2 });
+    // coarse cell (r, c) covers fine rows 3r..3r+2, cols 3c..3c+2; its centre is fine cell (3r+1, 3c+1), clamped
+    expect([...c.pick(v)]).toEqual([1 * 7 + 1, 1 * 7 + 4, 1 * 7 + 6, 4 * 7 + 1, 4 * 7 + 4, 4 * 7 + 6]);
+  });
+});
