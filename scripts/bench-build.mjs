@@ -131,14 +131,18 @@ function stages(argv) {
       let i;
       while ((i = buf.indexOf('\n')) >= 0) {
         const line = buf.slice(0, i); buf = buf.slice(i + 1);
+        // "step ..." starts a step; "step: done in 276 ms" (the terminal helper off a TTY) ends one
         const m = /^(.*) \.\.\.$/.exec(line.trim());
+        const d = /^(.*): done in ([\d.]+) (ms|s)\b/.exec(line.trim());
         if (m) marks.push({ step: m[1], t: at() });
+        else if (d) marks.push({ step: d[1], t: at() - Number(d[2]) / (d[3] === 'ms' ? 1000 : 1) });
       }
     });
     child.on('error', reject);
     child.on('close', (code) => {
       if (code !== 0 && code !== 1) return reject(new Error(`tilth build exited ${code}`));
       const end = at();
+      marks.sort((a, b) => a.t - b.t);
       const rows = [{ step: 'start, read plan (before the first progress line)', s: marks.length ? marks[0].t : end }];
       marks.forEach((m, i) => rows.push({ step: m.step, s: (i + 1 < marks.length ? marks[i + 1].t : end) - m.t }));
       resolve({ rows, total: end });
