@@ -153,6 +153,6 @@ describe('report rasters of very fine grids are shown coarser', () => {
     const c = coarsen(g, 3);
     expect(c.grid).toEqual({ xmin: 100, ymax: 500, cell: 3, cols: 3, rows: 2 });
     // coarse cell (r, c) covers fine rows 3r..3r+2, cols 3c..3c+2; its centre is fine cell (3r+1, 3c+1), clamped
-    expect([...c.pick(v)]).toEqual([1 * 7 + 1, 1 * 7 + 4, 1 * 7 + 6, 4 * 7 + 1, 4 * 7 + 4, 4 * 7 + 6]);
+    expect(Array.from(c.pick(v))).toEqual([1 * 7 + 1, 1 * 7 + 4, 1 * 7 + 6, 4 * 7 + 1, 4 * 7 + 4, 4 * 7 + 6]);
   });
 });
