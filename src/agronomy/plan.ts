@@ -80,6 +80,8 @@ export const planSchema = z.object({
     smoothing_passes: z.number().int().min(0).max(10).default(2),
     min_zone_ac: z.union([z.literal('auto'), z.number().positive()]).default('auto'),
     zone_sets: z.enum(['per_product', 'shared']).default('per_product'),
+    /** per_product sets: neighbouring classes whose mean targets differ by less than this % of the field's mean target are merged (tilth default, no published source) */
+    min_class_difference_pct: z.number().min(0).max(100).default(5),
   }).strict().prefault({}),
   output: z.object({
     shapefile_layout: z.enum(['per_placement', 'per_product']).default('per_placement'),

@@ -112,6 +112,7 @@ zoning:
   smoothing_passes: 2
   min_zone_ac: auto           # auto | acres
   zone_sets: per_product      # per_product | shared
+  min_class_difference_pct: 5 # per_product: merge classes whose targets differ by less than this % of the mean (tilth default)
 
 output:
   shapefile_layout: per_placement   # per_placement | per_product

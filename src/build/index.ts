@@ -13,7 +13,7 @@ import type { Plan } from '../agronomy/plan.js';
 import { NUTRIENTS, type Nutrient, type Placement, type Tables } from '../agronomy/tables.js';
 import { fieldGrid } from '../surface/grid.js';
 import { nutrientSurface, type NutrientSurface } from '../surface/nutrientSurface.js';
-import { classifyVectors } from '../zones/classify.js';
+import { classify, classifyVectors, type Classes } from '../zones/classify.js';
 import { makeZones, minZoneAreaM2, zonesFromSampleZones } from '../zones/index.js';
 import type { Analyte, FieldInputs, Grid, RingsPart, Texture } from '../types.js';
 import { m2ToAc, m2ToHa, M2_PER_AC } from '../units/index.js';
@@ -224,7 +224,15 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
     }
     specs.forEach((spec, si) => {
       progress('zones (classes, cleaning, tracing, rates per zone)', si / specs.length);
-      const zs = makeZones(grid, spec.input, field, {
+      let input = spec.input;
+      let breaks: number[] | null = null;
+      if (input instanceof Float64Array) {
+        const c = classify(input, { method: plan.zoning.method, classes: plan.zoning.classes, weights: grid.fraction, step: 0 });
+        const merged = mergeCloseClasses(c, plan.zoning.min_class_difference_pct);
+        input = { classOf: merged.classOf };
+        breaks = merged.breaks;
+      }
+      const zs = makeZones(grid, input, field, {
         method: plan.zoning.method,
         classes: plan.zoning.classes,
         majorityIterations: plan.zoning.smoothing_passes,
@@ -247,7 +255,7 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
         soil.pMethod = samples.pMethod;
         return zoneRecord(zi + 1, z.cls + 1, null, z.parts, z.lonlat, z.areaM2, soil, sampleIdx[zi].map((j) => samples.ids[j]), plan, tables);
       });
-      zoneSets.push({ name: spec.name, drivenBy: spec.drivenBy, products: spec.products, zones: zonesOut, breaks: zs.classes?.breaks ?? null, minZoneAreaM2: zs.minAreaM2, zoneOfCell: zs.zoneOfCell });
+      zoneSets.push({ name: spec.name, drivenBy: spec.drivenBy, products: spec.products, zones: zonesOut, breaks, minZoneAreaM2: zs.minAreaM2, zoneOfCell: zs.zoneOfCell });
     });
   }
   progress('zones (classes, cleaning, tracing, rates per zone)', 1);
@@ -285,6 +293,31 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
 
 function zoneRecord(id: number, rateClass: number, key: string | null, parts: RingsPart[], lonlat: number[][][][], areaM2: number, soil: SoilValues, ids: string[], plan: Plan, tables: Tables): PrescriptionZone {
   return { id, rateClass, key, parts, lonlat, areaM2, areaAc: m2ToAc(areaM2), areaHa: m2ToHa(areaM2), soil, samples: ids, decision: decide(soil, plan, tables) };
+}
+
+/**
+ * Merges neighbouring 1-D classes whose area-weighted mean values differ by less than `pct` % of the overall
+ * mean: a rate step that small is not worth a zone boundary (tilth default 5 %, no published source; set
+ * plan key zoning.min_class_difference_pct, 0 = keep every class). Returns the remapped classes (0 = lowest)
+ * and the legend breaks [min, upper of each class..., max].
+ * @example mergeCloseClasses(classify(v, { classes: 5 }), 5).classOf
+ */
+export function mergeCloseClasses(c: Classes, pct: number): { classOf: Int16Array; breaks: number[]; count: number } {
+  if (c.count <= 1 || !(pct > 0)) return { classOf: c.classOf, breaks: c.breaks, count: c.count };
+  let tw = 0, tm = 0;
+  for (let k = 0; k < c.count; k++) { tw += c.weight[k]; tm += c.weight[k] * c.mean[k]; }
+  const thr = (Math.abs(tm / tw) * pct) / 100;
+  const group = new Int16Array(c.count);
+  const breaks = [c.breaks[0]];
+  let g = 0, gw = c.weight[0], gm = c.weight[0] * c.mean[0];
+  for (let k = 1; k < c.count; k++) {
+    if (c.mean[k] - gm / gw < thr) { gw += c.weight[k]; gm += c.weight[k] * c.mean[k]; }
+    else { breaks.push(c.breaks[k]); g++; gw = c.weight[k]; gm = c.weight[k] * c.mean[k]; }
+    group[k] = g;
+  }
+  breaks.push(c.breaks[c.count]);
+  const classOf = c.classOf.map((v) => (v >= 0 ? group[v] : v));
+  return { classOf, breaks, count: g + 1 };
 }
 
 /** Rate of one product in one placement of a decision, in the plan's unit (0 when not applied). */

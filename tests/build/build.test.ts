@@ -156,3 +156,18 @@ describe('report rasters of very fine grids are shown coarser', () => {
     expect(Array.from(c.pick(v))).toEqual([1 * 7 + 1, 1 * 7 + 4, 1 * 7 + 6, 4 * 7 + 1, 4 * 7 + 4, 4 * 7 + 6]);
   });
 });
+
+describe('mergeCloseClasses', () => {
+  it('merges neighbouring classes closer than the share of the mean (hand-worked)', async () => {
+    const { mergeCloseClasses } = await import('../../src/build/index.js');
+    // four classes of equal weight with means 100, 103, 120, 150: overall mean 118.25, 5 % = 5.9
+    // 100 and 103 merge (3 < 5.9); 120 - 101.5 = 18.5 and 150 - 120 = 30 stay apart
+    const c = { classOf: Int16Array.from([0, 1, 2, 3, -1]), count: 4, breaks: [98, 101, 110, 130, 160], mean: [100, 103, 120, 150], value: [100, 103, 120, 150], weight: [1, 1, 1, 1], method: 'jenks' as const };
+    const m = mergeCloseClasses(c, 5);
+    expect(m.count).toBe(3);
+    expect(Array.from(m.classOf)).toEqual([0, 0, 1, 2, -1]);
+    expect(m.breaks).toEqual([98, 110, 130, 160]);
+    expect(mergeCloseClasses(c, 0).count).toBe(4);
+    expect(mergeCloseClasses(c, 100).count).toBe(1);
+  });
+});
