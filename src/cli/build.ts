@@ -11,7 +11,7 @@ import { inputsHash } from './report.js';
 import { VERSION } from '../version.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { tablesFromOption } from './plan.js';
-import { CAUTION, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
+import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
 import { createTerminal, type Task } from './progress.js';
 import { buildSulphurCharts } from '../variability/index.js';
 
@@ -34,6 +34,7 @@ export function register(program: Command): void {
     .option('--quiet', 'no progress messages')
     .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
     .action((o: BuildFlags) => {
+      checkOutputDir(o.out, o.force); // before any work: a long build should not end in "folder not empty"
       const term = createTerminal({ quiet: o.quiet });
       const say = (s: string) => term.line(s);
       const tables = tablesFromOption(o.tables);

@@ -76,14 +76,10 @@ export const CAUTION =
   'have a licensed agronomist or certified crop adviser check every prescription before it is applied.';
 
 /**
- * Writes a whole output folder at once: every file goes into a temporary sibling folder, which is
- * renamed into place only when all are written, so a failure never leaves a half-written output.
- * An existing non-empty folder is refused unless `force`; then it is replaced as a whole.
- *
- * @param dir the output folder
- * @param files relative path (may contain '/') -> contents
+ * Checks an output folder before any work is done: a file there, or a non-empty folder without `force`,
+ * is a UserError. Returns the folder's stat when it exists.
  */
-export function writeOutputDir(dir: string, files: Map<string, string | Uint8Array>, force = false): void {
+export function checkOutputDir(dir: string, force = false): ReturnType<typeof statSync> | undefined {
   const abs = resolve(dir);
   let existing: ReturnType<typeof statSync> | undefined;
   try {
@@ -97,6 +93,20 @@ export function writeOutputDir(dir: string, files: Map<string, string | Uint8Arr
   if (existing && readdirSync(abs).length > 0 && !force) {
     throw new UserError(`output folder "${dir}" already exists and is not empty. Fix: choose a new folder, or add --force to replace it.`, { file: dir });
   }
+  return existing;
+}
+
+/**
+ * Writes a whole output folder at once: every file goes into a temporary sibling folder, which is
+ * renamed into place only when all are written, so a failure never leaves a half-written output.
+ * An existing non-empty folder is refused unless `force`; then it is replaced as a whole.
+ *
+ * @param dir the output folder
+ * @param files relative path (may contain '/') -> contents
+ */
+export function writeOutputDir(dir: string, files: Map<string, string | Uint8Array>, force = false): void {
+  const abs = resolve(dir);
+  const existing = checkOutputDir(dir, force);
   const parent = dirname(abs);
   try {
     mkdirSync(parent, { recursive: true });
