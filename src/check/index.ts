@@ -3,7 +3,8 @@
  * One line per check (pass / warn / fail / skip) with the zones involved. Pure: layers in, report out.
  */
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
-import { booleanValid, kinks } from '@turf/turf';
+import { booleanValid } from '@turf/boolean-valid';
+import { kinks } from '@turf/kinks';
 import * as clip from 'polyclip-ts';
 import { UserError, isUserError } from '../errors.js';
 import { arealScale, projector, utmZoneFor, type Projector } from '../geo/utm.js';

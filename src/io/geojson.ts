@@ -3,7 +3,7 @@
  * Structure only; ranges, rings and topology are judged in src/validate.
  */
 import { UserError } from '../errors.js';
-import { pointOnFeature } from '@turf/turf';
+import { pointOnFeature } from '@turf/point-on-feature';
 import type { RawPolygons, RawRecord, RawTable, RawValue } from './records.js';
 
 type Json = Record<string, unknown>;

@@ -2,7 +2,7 @@
  * Clipping traced zones to the exact field boundary (polyclip-ts), only where a zone reaches the edge.
  */
 import * as polyclip from 'polyclip-ts';
-import jsts from 'jsts';
+import { createRequire } from 'node:module';
 import type { Field, RingsPart } from '../types.js';
 import { ringArea } from '../geo/area.js';
 import type { RasterFrame } from './trace.js';
@@ -61,10 +61,22 @@ function orientTo(r: Float64Array, ccw: boolean): Float64Array {
   return out;
 }
 
-const gf = new jsts.geom.GeometryFactory();
+// jsts (a 1 MB bundle) is loaded on first use, so commands that never clip start faster
+let jstsLib: any = null; // the jsts module (untyped)
+let gfInstance: any = null;
+function jstsModule() {
+  jstsLib ??= createRequire(import.meta.url)('jsts');
+  return jstsLib;
+}
+function geometryFactory() {
+  gfInstance ??= new (jstsModule().geom.GeometryFactory)();
+  return gfInstance;
+}
 const fieldCache = new WeakMap<RingsPart[], { ox: number; oy: number; g: unknown }>();
 
 function toJsts(parts: RingsPart[], ox: number, oy: number): unknown {
+  const jsts = jstsModule();
+  const gf = geometryFactory();
   const ring = (r: Float64Array) => {
     const cs = [];
     for (let i = 0; i + 1 < r.length; i += 2) cs.push(new jsts.geom.Coordinate(r[i] - ox, r[i + 1] - oy));
