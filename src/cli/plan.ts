@@ -10,7 +10,10 @@ export function tablesFromOption(path: string | undefined): Tables {
 }
 
 export function register(program: Command): void {
-  const plan = program.command('plan').description('Write or check a plan file (crop, yield, strategies, implement, products, zoning, output).');
+  const plan = program
+    .command('plan')
+    .description('Write or check a plan file (crop, yield, strategies, implement, products, zoning, output).')
+    .addHelpText('after', '\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth plan check --plan plan.yaml');
   plan
     .command('init')
     .description('Print a commented starter plan with every default visible (redirect it to a file and edit it).')
