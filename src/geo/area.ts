@@ -33,12 +33,11 @@ export function partsArea(parts: RingsPart[]): number {
   return a;
 }
 
-/** Bounding box of parts: [xmin, ymin, xmax, ymax]. */
-export function partsBbox(parts: RingsPart[]): [number, number, number, number] {
+/** Bounding box of flat rings (x0 y0 x1 y1 ...): [xmin, ymin, xmax, ymax]. */
+export function ringsBbox(rings: Iterable<ArrayLike<number>>): [number, number, number, number] {
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (const p of parts) {
-    const r = p.exterior;
-    for (let i = 0; i < r.length; i += 2) {
+  for (const r of rings) {
+    for (let i = 0; i + 1 < r.length; i += 2) {
       if (r[i] < x0) x0 = r[i];
       if (r[i] > x1) x1 = r[i];
       if (r[i + 1] < y0) y0 = r[i + 1];
@@ -46,6 +45,11 @@ export function partsBbox(parts: RingsPart[]): [number, number, number, number] 
     }
   }
   return [x0, y0, x1, y1];
+}
+
+/** Bounding box of parts (their exterior rings): [xmin, ymin, xmax, ymax]. */
+export function partsBbox(parts: RingsPart[]): [number, number, number, number] {
+  return ringsBbox(parts.map((p) => p.exterior));
 }
 
 /**

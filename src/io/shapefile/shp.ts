@@ -2,6 +2,7 @@
  * Polygon geometry in the ESRI shapefile main file (.shp) and its index (.shx),
  * following the ESRI Shapefile Technical Description (July 1998). Shape type 5 (Polygon) only.
  */
+import { ringsBbox } from '../../geo/area.js';
 
 /** One feature: its rings (closed, x0 y0 ... xn yn, first == last), already in shapefile winding. */
 export type ShpPolygon = Float64Array[];
@@ -19,19 +20,8 @@ function contentBytes(rings: ShpPolygon): number {
   return 44 + 4 * rings.length + 16 * pts;
 }
 
-/** [xmin, ymin, xmax, ymax] of rings; NaN-free input assumed. */
-export function ringsBbox(rings: ShpPolygon): [number, number, number, number] {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (const r of rings) {
-    for (let i = 0; i < r.length; i += 2) {
-      if (r[i] < x0) x0 = r[i];
-      if (r[i] > x1) x1 = r[i];
-      if (r[i + 1] < y0) y0 = r[i + 1];
-      if (r[i + 1] > y1) y1 = r[i + 1];
-    }
-  }
-  return [x0, y0, x1, y1];
-}
+/** [xmin, ymin, xmax, ymax] of rings (src/geo/area.ts); NaN-free input assumed. */
+export { ringsBbox };
 
 function writeHeader(v: DataView, lengthWords: number, bbox: [number, number, number, number]): void {
   v.setInt32(0, FILE_CODE, false);
