@@ -77,3 +77,16 @@ export function pointInParts(parts: RingsPart[], x: number, y: number): boolean 
   }
   return inside;
 }
+
+/** Returns the ring oriented counter-clockwise (ccw = true) or clockwise (a new array only when reversed; a zero-area ring as is). */
+export function orient(ring: Float64Array, ccw: boolean): Float64Array {
+  const a = ringArea(ring);
+  if (a > 0 === ccw || a === 0) return ring;
+  const n = ring.length >> 1;
+  const out = new Float64Array(ring.length);
+  for (let i = 0; i < n; i++) {
+    out[2 * i] = ring[2 * (n - 1 - i)];
+    out[2 * i + 1] = ring[2 * (n - 1 - i) + 1];
+  }
+  return out;
+}

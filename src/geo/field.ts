@@ -3,7 +3,7 @@
  */
 import type { Field, RingsPart } from '../types.js';
 import { arealScale, projector, utmZoneFor, type Projector } from './utm.js';
-import { partsArea, partsBbox, ringArea } from './area.js';
+import { orient, partsArea, partsBbox } from './area.js';
 
 /**
  * Projects a boundary to the UTM zone of its centre, orients rings (exterior CCW, holes CW)
@@ -33,15 +33,4 @@ export function projectField(lonlat: number[][][][], name = 'field'): Field & { 
   return { name, lonlat, parts, utm, areaM2, bbox: partsBbox(parts), projector: p };
 }
 
-/** Returns the ring oriented counter-clockwise (ccw = true) or clockwise. */
-export function orient(ring: Float64Array, ccw: boolean): Float64Array {
-  const a = ringArea(ring);
-  if (a > 0 === ccw || a === 0) return ring;
-  const n = ring.length >> 1;
-  const out = new Float64Array(ring.length);
-  for (let i = 0; i < n; i++) {
-    out[2 * i] = ring[2 * (n - 1 - i)];
-    out[2 * i + 1] = ring[2 * (n - 1 - i) + 1];
-  }
-  return out;
-}
+export { orient };

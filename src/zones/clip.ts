@@ -4,7 +4,7 @@
 import * as polyclip from 'polyclip-ts';
 import { createRequire } from 'node:module';
 import type { Field, RingsPart } from '../types.js';
-import { ringArea } from '../geo/area.js';
+import { orient, partArea } from '../geo/area.js';
 import type { RasterFrame } from './trace.js';
 
 /**
@@ -53,13 +53,6 @@ function fromLocal(r: Ring, ox: number, oy: number): Float64Array {
   return out;
 }
 
-function orientTo(r: Float64Array, ccw: boolean): Float64Array {
-  const a = ringArea(r);
-  if (a > 0 === ccw || a === 0) return r;
-  const n = r.length >> 1, out = new Float64Array(r.length);
-  for (let i = 0; i < n; i++) { out[2 * i] = r[2 * (n - 1 - i)]; out[2 * i + 1] = r[2 * (n - 1 - i) + 1]; }
-  return out;
-}
 
 // jsts (a 1 MB bundle) is loaded on first use, so commands that never clip start faster
 let jstsLib: any = null; // the jsts module (untyped)
@@ -98,11 +91,9 @@ function fromJsts(g: any, ox: number, oy: number, minPartM2: number): RingsPart[
     if (type === 'Polygon') {
       if (x.isEmpty()) return;
       const holes: Float64Array[] = [];
-      for (let k = 0; k < x.getNumInteriorRing(); k++) holes.push(orientTo(ring(x.getInteriorRingN(k)), false));
-      const part = { exterior: orientTo(ring(x.getExteriorRing()), true), holes };
-      let area = Math.abs(ringArea(part.exterior));
-      for (const h of holes) area -= Math.abs(ringArea(h));
-      if (area >= minPartM2) out.push(part);
+      for (let k = 0; k < x.getNumInteriorRing(); k++) holes.push(orient(ring(x.getInteriorRingN(k)), false));
+      const part = { exterior: orient(ring(x.getExteriorRing()), true), holes };
+      if (partArea(part) >= minPartM2) out.push(part);
     } else if (type === 'MultiPolygon' || type === 'GeometryCollection') {
       for (let k = 0; k < x.getNumGeometries(); k++) visit(x.getGeometryN(k));
     }
@@ -139,12 +130,10 @@ export function clipPartsPolyclip(parts: RingsPart[], clip: RingsPart[], ox: num
   const res = robust(() => polyclip.intersection(a as polyclip.Geom, b as polyclip.Geom) as Ring[][]);
   const out: RingsPart[] = [];
   for (const poly of res) {
-    const ext = orientTo(fromLocal(poly[0], ox, oy), true);
-    const holes = poly.slice(1).map((h) => orientTo(fromLocal(h, ox, oy), false));
+    const ext = orient(fromLocal(poly[0], ox, oy), true);
+    const holes = poly.slice(1).map((h) => orient(fromLocal(h, ox, oy), false));
     const part: RingsPart = { exterior: ext, holes };
-    let area = Math.abs(ringArea(ext));
-    for (const h of holes) area -= Math.abs(ringArea(h));
-    if (area >= minPartM2) out.push(part);
+    if (partArea(part) >= minPartM2) out.push(part);
   }
   return out;
 }

@@ -4,7 +4,7 @@
  */
 import * as polyclip from 'polyclip-ts';
 import type { Field, Grid, RingsPart, SampleZones, Warning } from '../types.js';
-import { partsArea, ringArea } from '../geo/area.js';
+import { orient, partsArea } from '../geo/area.js';
 import { projector as makeProjector, type Projector } from '../geo/utm.js';
 import { M2_PER_AC } from '../units/index.js';
 import { classify, type Classes, type ClassifyOptions } from './classify.js';
@@ -210,13 +210,6 @@ function differenceParts(a: RingsPart[], b: RingsPart[], ox: number, oy: number)
   return res.map((poly) => {
     const rings = poly.map((r) => Float64Array.from(r.flatMap(([x, y]) => [x + ox, y + oy])));
     return { exterior: rings[0], holes: rings.slice(1) };
-  }).map((p) => ({ exterior: orientCCW(p.exterior, true), holes: p.holes.map((h) => orientCCW(h, false)) }));
+  }).map((p) => ({ exterior: orient(p.exterior, true), holes: p.holes.map((h) => orient(h, false)) }));
 }
 
-function orientCCW(r: Float64Array, ccw: boolean): Float64Array {
-  const s = ringArea(r);
-  if (s > 0 === ccw || s === 0) return r;
-  const n = r.length >> 1, out = new Float64Array(r.length);
-  for (let i = 0; i < n; i++) { out[2 * i] = r[2 * (n - 1 - i)]; out[2 * i + 1] = r[2 * (n - 1 - i) + 1]; }
-  return out;
-}
