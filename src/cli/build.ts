@@ -2,9 +2,9 @@
 import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
-import { buildPrescription } from '../build/index.js';
-import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, summaryText, zonesCsv, type Provenance } from '../build/outputs.js';
-import { reportInput } from '../build/reportInput.js';
+import { buildPrescription } from '../prescription/index.js';
+import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, summaryText, zonesCsv, type Provenance } from '../prescription/outputs.js';
+import { reportInput } from '../prescription/reportInput.js';
 import { prescriptionFiles } from '../io/shapefile/index.js';
 import { renderReport, serializeReportInput } from '../report/index.js';
 import { inputsHash } from './report.js';

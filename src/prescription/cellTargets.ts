@@ -6,7 +6,7 @@
  * once per distinct value at lab reporting precision (nitrate 0.5 lb/ac, OM 0.05 %, P 0.1 ppm, K 1 ppm,
  * sulphate 0.2 lb/ac) and looked up per cell. That makes a 2.6 million cell grid cheap while giving the
  * same targets the engine gives a lab report. These cell targets only draw the zones; each zone's rates
- * come from its mean soil values through the full engine (src/build/index.ts).
+ * come from its mean soil values through the full engine (src/prescription/index.ts).
  */
 import type { Warning } from '../errors.js';
 import { interpret, type SoilValues } from '../agronomy/interpret.js';

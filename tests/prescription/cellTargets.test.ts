@@ -5,7 +5,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { cellTargets, TARGET_PRECISION } from '../../src/build/cellTargets.js';
+import { cellTargets, TARGET_PRECISION } from '../../src/prescription/cellTargets.js';
 import { parsePlan, defaultTables } from '../../src/agronomy/index.js';
 import { interpret, type SoilValues } from '../../src/agronomy/interpret.js';
 import { targets } from '../../src/agronomy/targets.js';

@@ -5,8 +5,8 @@ import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { booleanValid, area as turfArea, booleanPointInPolygon, point } from '@turf/turf';
 import { parse as parseYaml, stringify } from 'yaml';
-import { buildPrescription } from '../../src/build/index.js';
-import { prescriptionGeojson, zonesCsv } from '../../src/build/outputs.js';
+import { buildPrescription } from '../../src/prescription/index.js';
+import { prescriptionGeojson, zonesCsv } from '../../src/prescription/outputs.js';
 import { parsePlan, defaultTables, seedRowLimits } from '../../src/agronomy/index.js';
 import { prepareInputs } from '../../src/validate/inputs.js';
 import { M2_PER_AC } from '../../src/units/index.js';
@@ -146,7 +146,7 @@ void seedRowLimits;
 
 describe('report rasters of very fine grids are shown coarser', () => {
   it('coarsen keeps the value at each coarse cell centre (nearest), factor 1 is the identity', async () => {
-    const { coarsen } = await import('../../src/build/reportInput.js');
+    const { coarsen } = await import('../../src/prescription/reportInput.js');
     const g = { xmin: 100, ymax: 500, cell: 1, cols: 7, rows: 5 };
     const v = Float64Array.from({ length: 35 }, (_, i) => i);
     expect(coarsen(g, 1).pick(v)).toBe(v);
@@ -159,7 +159,7 @@ describe('report rasters of very fine grids are shown coarser', () => {
 
 describe('mergeCloseClasses', () => {
   it('merges neighbouring classes closer than the share of the mean (hand-worked)', async () => {
-    const { mergeCloseClasses } = await import('../../src/build/index.js');
+    const { mergeCloseClasses } = await import('../../src/prescription/index.js');
     // four classes of equal weight with means 100, 103, 120, 150: overall mean 118.25, 5 % = 5.9
     // 100 and 103 merge (3 < 5.9); 120 - 101.5 = 18.5 and 150 - 120 = 30 stay apart
     const c = { classOf: Int16Array.from([0, 1, 2, 3, -1]), count: 4, breaks: [98, 101, 110, 130, 160], mean: [100, 103, 120, 150], value: [100, 103, 120, 150], weight: [1, 1, 1, 1], method: 'jenks' as const };
