@@ -4,9 +4,9 @@
  */
 import { UserError, type Warning } from '../errors.js';
 import type { Analyte, Grid, SampleZones, Samples } from '../types.js';
-import { crossValidate, DEFAULT_NEIGHBOURS, DEFAULT_POWERS, type CvResult, type CvRow } from './crossValidate.js';
-import { idwSurface } from './idw.js';
-import { nutrientPoints } from './prepare.js';
+import { crossValidateMany, DEFAULT_NEIGHBOURS, DEFAULT_POWERS, type CvResult, type CvRow } from './crossValidate.js';
+import { idwSurfaces } from './idw.js';
+import { nutrientPoints, type NutrientPoints } from './prepare.js';
 import { zoneSurface } from './zoneSurface.js';
 
 /** Label with the canonical unit (src/types.ts), for messages and tables. */
@@ -39,8 +39,12 @@ export function analyteFromName(name: string): Analyte {
   return a;
 }
 
-/** Above this many samples "all" is left out of the automatic neighbour choice (n^2 cost); a warning says so. */
-export const ALL_CV_LIMIT = 20_000;
+/**
+ * Above this many samples "all" is left out of the automatic neighbour choice; a warning says so. Its
+ * leave-one-out costs samples^2 / 2 pairs x powers x nutrients, and its map cells x samples; with this many
+ * samples a few nearest predict the left-out ones better anyway (docs/surface.md, "Cross-validation cost").
+ */
+export const ALL_CV_LIMIT = 2000;
 
 /** Options for {@link nutrientSurface}. */
 export interface NutrientSurfaceOptions {
@@ -83,7 +87,7 @@ export interface NutrientSurface {
 /**
  * Builds one nutrient's surface on a field grid. Zone-composite samples (zones given and samples keyed)
  * paint each zone with its value; otherwise IDW with power and neighbours chosen by leave-one-out
- * cross-validation ('auto') or as given.
+ * cross-validation ('auto') or as given. For several nutrients use {@link nutrientSurfaces} (one search).
  *
  * @param samples validated, projected samples (canonical units)
  * @param analyte which nutrient
@@ -94,6 +98,54 @@ export interface NutrientSurface {
  * @example const s = nutrientSurface(inputs.samples, 'p', fieldGrid(inputs.field, 5), inputs.zones); s.cv?.table
  */
 export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' | 'zone'>, analyte: Analyte, grid: Grid, zones: SampleZones | null = null, opts: NutrientSurfaceOptions = {}): NutrientSurface {
+  return nutrientSurfaces(samples, [analyte], grid, zones, opts)[0];
+}
+
+/**
+ * Every listed nutrient's surface, each identical to its own {@link nutrientSurface}, but nutrients
+ * measured at the same sample sites share one leave-one-out neighbour search (and one pass over sample
+ * pairs for "all") in cross-validation and one k-nearest search per cell (the largest k chosen) for IDW.
+ *
+ * @param analytes nutrients, in the order of the result
+ * @param opts as {@link nutrientSurface}, applied to every nutrient
+ * @param onProgress share of the work done, 0..1 (optional)
+ * @throws UserError when no sample has a value for one of the nutrients
+ * @example const [p, k] = nutrientSurfaces(inputs.samples, ['p', 'k'], grid, null)
+ */
+export function nutrientSurfaces(samples: Pick<Samples, 'xy' | 'values' | 'ids' | 'zone'>, analytes: readonly Analyte[], grid: Grid, zones: SampleZones | null = null, opts: NutrientSurfaceOptions = {}, onProgress: (done: number) => void = () => {}): NutrientSurface[] {
+  const out: NutrientSurface[] = new Array(analytes.length);
+  const groups: Pending[][] = [];
+  analytes.forEach((a, slot) => {
+    const r = prepare(samples, a, grid, zones, slot);
+    if ('values' in r) { out[slot] = r; return; }
+    const g = groups.find((q) => sameSites(q[0].pts.xy, r.pts.xy));
+    if (g) g.push(r); else groups.push([r]);
+  });
+  let done = analytes.length - groups.reduce((s, g) => s + g.length, 0);
+  for (const g of groups) {
+    interpolate(g, grid, opts, out, () => onProgress((done + g.length / 2) / analytes.length));
+    done += g.length;
+    onProgress(done / analytes.length);
+  }
+  return out;
+}
+
+/** A nutrient waiting for IDW: its points and the result fields known so far. */
+interface Pending {
+  slot: number;
+  label: string;
+  pts: NutrientPoints;
+  base: Omit<NutrientSurface, 'values' | 'method' | 'power' | 'neighbours' | 'choice'>;
+}
+
+function sameSites(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+/** The nutrient's points; zone-composite and one-sample surfaces finished here, IDW ones left pending. */
+function prepare(samples: Pick<Samples, 'xy' | 'values' | 'ids' | 'zone'>, analyte: Analyte, grid: Grid, zones: SampleZones | null, slot: number): NutrientSurface | Pending {
   const label = ANALYTE_LABEL[analyte];
   const pts = nutrientPoints(samples.xy, samples.values[analyte], samples.ids, label, samples.zone);
   const warnings = [...pts.warnings];
@@ -107,77 +159,89 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
     warnings.push({ code: 'surface.flat', message: `${label}: all ${n} samples have the value ${min}; the map is flat.`, field: label });
   }
   const base = { analyte, grid, cv: null as CvResult | null, samplesUsed: n, min, max, warnings };
-
-  const keyed = zones !== null && pts.zone.some((z) => z !== null);
-  if (keyed) {
-    const byKey = new Map<string, number[]>();
-    pts.zone.forEach((k, i) => { if (k !== null) { const a = byKey.get(k); if (a) a.push(pts.z[i]); else byKey.set(k, [pts.z[i]]); } });
-    for (const [k, vs] of byKey) {
-      if (!zones.keys.includes(k)) warnings.push({ code: 'surface.zone-unknown', message: `${label}: samples keyed to zone "${k}" match no zone polygon and are not used.`, where: k, field: label });
-      if (vs.length > 1) warnings.push({ code: 'surface.zone-several', message: `${label}: zone "${k}" has ${vs.length} samples (${vs.join(', ')}); their average is used.`, where: k, field: label });
-    }
-    const zs = zones.keys.map((key, i) => {
-      const vs = byKey.get(key);
-      return { key, parts: zones.parts[i], value: vs ? vs.reduce((a, b) => a + b, 0) / vs.length : NaN };
-    });
-    const r = zoneSurface(grid, zs, label);
-    warnings.push(...r.warnings);
-    return { ...base, values: r.values, method: 'zones', power: NaN, neighbours: NaN, choice: 'zone-composite samples: each zone takes its sample value' };
-  }
-
+  if (zones !== null && pts.zone.some((z) => z !== null)) return keyedSurface(pts, zones, grid, label, base);
   if (n === 1) {
     const values = new Float64Array(grid.cols * grid.rows).fill(NaN);
     for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0) values[i] = pts.z[0];
     warnings.push({ code: 'surface.one-sample', message: `${label}: only one sample (${pts.ids[0]}) has a value; the whole field takes it.`, field: label });
     return { ...base, values, method: 'single-sample', power: NaN, neighbours: NaN, choice: 'one sample: uniform value' };
   }
+  return { slot, label, pts, base };
+}
 
+/** Zone-composite samples: each zone painted with its (averaged) sample value. */
+function keyedSurface(pts: NutrientPoints, zones: SampleZones, grid: Grid, label: string, base: Pending['base']): NutrientSurface {
+  const warnings = base.warnings;
+  const byKey = new Map<string, number[]>();
+  pts.zone.forEach((k, i) => { if (k !== null) { const a = byKey.get(k); if (a) a.push(pts.z[i]); else byKey.set(k, [pts.z[i]]); } });
+  for (const [k, vs] of byKey) {
+    if (!zones.keys.includes(k)) warnings.push({ code: 'surface.zone-unknown', message: `${label}: samples keyed to zone "${k}" match no zone polygon and are not used.`, where: k, field: label });
+    if (vs.length > 1) warnings.push({ code: 'surface.zone-several', message: `${label}: zone "${k}" has ${vs.length} samples (${vs.join(', ')}); their average is used.`, where: k, field: label });
+  }
+  const zs = zones.keys.map((key, i) => {
+    const vs = byKey.get(key);
+    return { key, parts: zones.parts[i], value: vs ? vs.reduce((a, b) => a + b, 0) / vs.length : NaN };
+  });
+  const r = zoneSurface(grid, zs, label);
+  warnings.push(...r.warnings);
+  return { ...base, values: r.values, method: 'zones', power: NaN, neighbours: NaN, choice: 'zone-composite samples: each zone takes its sample value' };
+}
+
+/** IDW for nutrients at the same sites: shared cross-validation, then one shared search per cell. */
+function interpolate(group: Pending[], grid: Grid, opts: NutrientSurfaceOptions, out: NutrientSurface[], halfway: () => void): void {
+  const { xy } = group[0].pts, n = group[0].pts.z.length;
   const fixedP = typeof opts.power === 'number' ? opts.power : null;
   const fixedK = typeof opts.neighbours === 'number' ? opts.neighbours : null;
-  let cv: CvResult | null = null;
   let choices = opts.neighbourChoices ?? DEFAULT_NEIGHBOURS;
   if (fixedK === null && n > ALL_CV_LIMIT && choices.some((k) => !Number.isFinite(k))) {
-    // leave-one-out with every sample costs n^2 distance pairs: too slow for very dense data
+    // leave-one-out with every sample costs n^2 distance pairs, and so does the surface per cell: too slow for dense data
     choices = choices.filter((k) => Number.isFinite(k));
-    warnings.push({ code: 'surface.cv-all-skipped', message: `${label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (give --neighbours all to use it).`, field: label });
+    for (const p of group) p.base.warnings.push({ code: 'surface.cv-all-skipped', message: `${p.label}: ${n} samples; "all" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (its cost grows with the square of the sample count; tilth surface --neighbours all still uses it).`, field: p.label });
   }
-  if (!(opts.skipCv && fixedP !== null && fixedK !== null)) {
-    // a fixed value is the only candidate on its axis: with both given, the table is the one row that says
-    // how well the given pair predicts left-out samples (cheap), not a search
-    cv = crossValidate(pts.xy, pts.z, {
-      powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
-      neighbours: fixedK !== null ? [fixedK] : choices,
-      radius: opts.radius,
-      minNeighbours: opts.minNeighbours,
-    });
-  }
+  // a fixed value is the only candidate on its axis: with both given, the table is the one row that says
+  // how well the given pair predicts left-out samples (cheap), not a search
+  const cvs = opts.skipCv && fixedP !== null && fixedK !== null ? group.map(() => null) : crossValidateMany(xy, group.map((p) => p.pts.z), {
+    powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
+    neighbours: fixedK !== null ? [fixedK] : choices,
+    radius: opts.radius,
+    minNeighbours: opts.minNeighbours,
+  });
+  const chosen = group.map((p, i) => choose(cvs[i], fixedP, fixedK, n, p));
+  halfway();
+  const values = idwSurfaces(xy, group.map((p, i) => ({ z: p.pts.z, power: chosen[i].power, neighbours: chosen[i].neighbours })), grid, { radius: opts.radius, minNeighbours: opts.minNeighbours });
+  group.forEach((p, i) => {
+    const v = values[i], label = p.label;
+    let empty = 0;
+    for (let c = 0; c < v.length; c++) if (grid.fraction[c] > 0 && Number.isNaN(v[c])) empty++;
+    if (empty) {
+      p.base.warnings.push({
+        code: 'surface.cells-empty',
+        message: `${label}: ${empty} field cell${empty > 1 ? 's have' : ' has'} fewer than ${opts.minNeighbours ?? 1} sample${(opts.minNeighbours ?? 1) > 1 ? 's' : ''} within the ${opts.radius} m search radius and no value. Fix: use a larger radius (--radius) or fewer minimum neighbours.`,
+        field: label,
+      });
+    }
+    out[p.slot] = { ...p.base, cv: cvs[i], values: v, method: 'idw', ...chosen[i] };
+  });
+}
+
+/** Power and neighbours from the cross-validation table (restricted to the given values), and why. */
+function choose(cv: CvResult | null, fixedP: number | null, fixedK: number | null, n: number, p: Pending): { power: number; neighbours: number; choice: string } {
   let power = fixedP ?? 2, neighbours = fixedK ?? 12;
-  let choice: string;
-  if (cv) {
-    const rows = cv.table.filter((r) => (fixedP === null || r.power === fixedP) && (fixedK === null || r.neighbours === fixedK));
-    let best: CvRow = rows[0];
-    for (const r of rows) if (r.rmse < best.rmse || Number.isNaN(best.rmse)) best = r;
-    power = best.power;
-    neighbours = best.neighbours;
-    const what = fixedP === null && fixedK === null ? 'power and neighbours' : fixedP === null ? 'power' : fixedK === null ? 'neighbours' : '';
-    choice = what
-      ? `${what} chosen by leave-one-out cross-validation: lowest RMSE ${fmt(best.rmse)} at power ${power}, ${kName(neighbours)} neighbours`
-      : `power ${power} and ${kName(neighbours)} neighbours as given (leave-one-out RMSE ${fmt(best.rmse)}; use --power auto --neighbours auto to compare others)`;
-  } else {
-    choice = n < 3 ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)` : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
-    if (n < 3) warnings.push({ code: 'surface.few-samples', message: `${label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`, field: label });
+  if (!cv) {
+    if (n < 3) p.base.warnings.push({ code: 'surface.few-samples', message: `${p.label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`, field: p.label });
+    const choice = n < 3 ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)` : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
+    return { power, neighbours, choice };
   }
-  const values = idwSurface(pts.xy, pts.z, grid, { power, neighbours, radius: opts.radius, minNeighbours: opts.minNeighbours });
-  let empty = 0;
-  for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0 && Number.isNaN(values[i])) empty++;
-  if (empty) {
-    warnings.push({
-      code: 'surface.cells-empty',
-      message: `${label}: ${empty} field cell${empty > 1 ? 's have' : ' has'} fewer than ${opts.minNeighbours ?? 1} sample${(opts.minNeighbours ?? 1) > 1 ? 's' : ''} within the ${opts.radius} m search radius and no value. Fix: use a larger radius (--radius) or fewer minimum neighbours.`,
-      field: label,
-    });
-  }
-  return { ...base, cv, values, method: 'idw', power, neighbours, choice };
+  const rows = cv.table.filter((r) => (fixedP === null || r.power === fixedP) && (fixedK === null || r.neighbours === fixedK));
+  let best: CvRow = rows[0];
+  for (const r of rows) if (r.rmse < best.rmse || Number.isNaN(best.rmse)) best = r;
+  power = best.power;
+  neighbours = best.neighbours;
+  const what = fixedP === null && fixedK === null ? 'power and neighbours' : fixedP === null ? 'power' : fixedK === null ? 'neighbours' : '';
+  const choice = what
+    ? `${what} chosen by leave-one-out cross-validation: lowest RMSE ${fmt(best.rmse)} at power ${power}, ${kName(neighbours)} neighbours`
+    : `power ${power} and ${kName(neighbours)} neighbours as given (leave-one-out RMSE ${fmt(best.rmse)}; use --power auto --neighbours auto to compare others)`;
+  return { power, neighbours, choice };
 }
 
 /** "all" for Infinity, else the count. */
