@@ -93,10 +93,15 @@ export function parseXml(text: string, label: string): XmlElement {
     const line = body.slice(0, dt.index).split('\n').length;
     throw new UserError(`${label} line ${line}: has a DOCTYPE or ENTITY declaration; task data never needs one and tilth does not read documents that declare entities (they can point at other files or expand without end). Fix: export the task data again from the program that made it, without a DOCTYPE.`, { file: label, where: `line ${line}` });
   }
+  const rootTag = /<([A-Za-z_][\w.-]*)/.exec(body.replace(/<\?[\s\S]*?\?>/g, ''))?.[1];
+  const closed = rootTag !== undefined && (new RegExp(`</${rootTag}\\s*>\\s*$`).test(body) || /^\s*(<\?[\s\S]*?\?>\s*)?<[^<>]*\/>\s*$/.test(body));
+  if (rootTag && !closed) {
+    const lines = body.trimEnd().split('\n').length;
+    throw new UserError(`${label} line ${lines}: not well-formed XML: the file ends before its root element ${rootTag} is closed (</${rootTag}> is missing): it is cut short. Fix: copy the file again from its source, or export the task data again.`, { file: label, where: rootTag });
+  }
   const v = XMLValidator.validate(body, { allowBooleanAttributes: false });
   if (v !== true) {
-    const cut = /unclosed|closing tag|end of|not closed/i.test(v.err.msg) ? ' (the file may be cut short)' : '';
-    throw new UserError(`${label} line ${v.err.line}, column ${v.err.col}: not well-formed XML: ${v.err.msg}${cut}. Fix: copy the file again from its source, or export the task data again.`, { file: label, where: `line ${v.err.line}` });
+    throw new UserError(`${label} line ${v.err.line}, column ${v.err.col}: not well-formed XML: ${v.err.msg}. Fix: copy the file again from its source, or export the task data again.`, { file: label, where: `line ${v.err.line}` });
   }
   const p = new XMLParser({ preserveOrder: true, ignoreAttributes: false, attributeNamePrefix: '', processEntities: false, htmlEntities: false, parseAttributeValue: false, parseTagValue: false, trimValues: true });
   const nodes = p.parse(body) as Ordered[];
