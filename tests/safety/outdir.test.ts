@@ -29,7 +29,7 @@ describe('writeOutputDir: new folders and replacing tilth\'s own', () => {
   it('an earlier tilth output: refused without --force, replaced with it', () => {
     const d = join(tmp(), 'out');
     writeOutputDir(d, files('old'), quiet);
-    expect(() => writeOutputDir(d, files('new'), quiet)).toThrow(/earlier tilth output.*--force/);
+    expect(() => writeOutputDir(d, files('new'), quiet)).toThrow(/not empty \(it holds an earlier tilth output\).*--force/);
     expect(readFileSync(join(d, 'a.txt'), 'utf8')).toBe('old');
     writeOutputDir(d, new Map([['c.txt', 'C']]), { force: true, ...quiet });
     expect(readdirSync(d).sort()).toEqual([MARKER, 'c.txt']);

@@ -67,7 +67,7 @@ export function checkOutputDir(dir: string, opts: boolean | OutputDirOptions = {
       `output folder "${dir}" holds files tilth did not write (${list}); tilth replaces only an empty folder or one it wrote itself. ` +
       'Fix: give --out a new folder, or move those files out of it first.', { file: dir });
   }
-  if (!force) throw new UserError(`output folder "${dir}" already holds an earlier tilth output. Fix: add --force to replace it, or choose a new folder.`, { file: dir });
+  if (!force) throw new UserError(`output folder "${dir}" is not empty (it holds an earlier tilth output). Fix: add --force to replace it, or choose a new folder.`, { file: dir });
   return { target, exists: true };
 }
 
