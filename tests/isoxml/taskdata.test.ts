@@ -172,6 +172,23 @@ describe('task data as a type-2 grid, read by the isoxml package', () => {
   }, 120_000);
 });
 
+describe('task layouts', () => {
+  it('per_product: one task per product and placement; per-product zone sets: tasks per set, ids unique', async () => {
+    const rx = buildPrescription(inputs, plan((p) => { p.zoning.zone_sets = 'per_product'; }), tables, { cell: 10 });
+    const m = await outside(prescriptionTaskDataFiles(rx, tables, { layout: 'per_product' }));
+    expect(m.getWarnings()).toEqual([]);
+    const tasks = A(m.rootElement).Task;
+    expect(tasks.length).toBe(rx.zoneSets.reduce((s, set) => s + usedPairs(set).length, 0));
+    for (const t of tasks) {
+      const set = rx.zoneSets.find((x) => A(t).TaskDesignator.endsWith(`(${x.name} zones)`))!;
+      expect(A(t).TreatmentZone.length).toBe(set.zones.length + 1);
+      expect(A(t).TreatmentZone.every((z: any) => A(z).ProcessDataVariable.length === 1)).toBe(true);
+    }
+    // every TSK, TZN code within a task and PDT is unique (the reader warns on a repeated id)
+    expect(new Set(tasks.map((t: any) => m.getReferenceByEntity(t).xmlId)).size).toBe(tasks.length);
+  }, 120_000);
+});
+
 describe('names and liquids', () => {
   it('names from the plan are escaped and read back exactly; a liquid is written as DDI 1 through its density', async () => {
     const name = `Smith & "Sons" <North> 'A'`;
