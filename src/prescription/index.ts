@@ -154,7 +154,8 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
   // analytes at the same sample sites share one neighbour search (src/surface nutrientSurfaces)
   const present = BUILD_ANALYTES.filter((a) => samples.values[a]?.some((v) => Number.isFinite(v)));
   progress('surfaces (cross-validation and interpolation)', 0);
-  const made = nutrientSurfaces(samples, present, grid, inputs.zones, {}, (d) => progress('surfaces (cross-validation and interpolation)', d));
+  const surfaceOpts = { method: plan.surface.method, kriging: { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours } };
+  const made = nutrientSurfaces(samples, present, grid, inputs.zones, surfaceOpts, (d) => progress('surfaces (cross-validation and interpolation)', d));
   for (const a of BUILD_ANALYTES) {
     const s = made.find((m) => m.analyte === a);
     if (!s) {

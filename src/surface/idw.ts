@@ -4,11 +4,10 @@
  * search radius); a cell centre within 1e-13 m^2 squared distance of a sample takes that sample's value
  * (the rule GDAL's gdal_grid uses), so there is never a division by zero.
  */
-import type { Grid } from '../types.js';
+import type { GridShape } from './cellNeighbours.js';
 import { forEachNeighbourBand, type NeighbourBand } from './neighbours.js';
 
-/** The geometry of a north-up grid (see Grid in src/types.ts). */
-export type GridShape = Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>;
+export type { GridShape };
 
 /** Options for {@link idwSurface}. */
 export interface IdwOptions {

@@ -10,7 +10,7 @@
  * See docs/surface.md ("One neighbour search") for the method.
  */
 import { buildBuckets, KnnGroup, type Buckets } from './knn.js';
-import type { GridShape } from './idw.js';
+import type { GridShape } from './cellNeighbours.js';
 
 /**
  * Neighbours of the searched cells of one band of grid rows. Reused between bands: copy what you keep.
