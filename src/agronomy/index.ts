@@ -4,7 +4,7 @@ export { interpret, pClass, type SoilValues, type Interpretation } from './inter
 export { parsePlan, validatePlan, planSchema, type Plan, type PlanInput, type ProductChoice } from './plan.js';
 export { planTemplate } from './template.js';
 export { sbuPct, sbuPoints, interpolateSbu, seedRowLimits, type SeedRowLimits } from './seedrow.js';
-export { productOptions, solveProducts, solveProductsExact, type ProductOption, type SolveResult } from './solve.js';
+export { productOptions, solveProducts, type ProductOption, type SolveResult } from './solve.js';
 export { defaultTables, loadTables, tablesToYaml, tablesSchema, PLACEMENTS, NUTRIENTS, type Tables, type Nutrient, type Placement } from './tables.js';
 export { targets, type Target, type Targets } from './targets.js';
 export { formatDecision } from './format.js';

@@ -2,7 +2,7 @@ import { mkdtempSync, mkdirSync, readFileSync, readdirSync, writeFileSync, exist
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { writeOutputDir } from '../src/cli/util.js';
+import { writeOutputDir } from '../../src/cli/util.js';
 
 const files = () => new Map<string, string>([['a.txt', 'A'], ['sub/b.txt', 'B']]);
 
