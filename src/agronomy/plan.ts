@@ -98,6 +98,12 @@ export const planSchema = z.object({
     shapefile_layout: z.enum(['per_placement', 'per_product']).default('per_placement'),
     short_names: z.boolean().default(false),
     crs: z.enum(['wgs84', 'utm']).default('wgs84'),
+    /** machine files besides prescription.geojson, zones.csv, summary and report (always written) */
+    formats: z.array(z.enum(['shapefile', 'isoxml'])).default(['shapefile', 'isoxml']),
+    /** ISO 11783-10 task data: a type-2 grid of rates instead of zone polygons */
+    isoxml_grid: z.boolean().default(false),
+    /** grid cell, m; null = half the build's grid cell, so every zone holds whole grid cells */
+    isoxml_grid_cell_m: z.number().positive().max(100).nullable().default(null),
   }).strict().prefault({}),
 }).strict();
 

@@ -127,5 +127,8 @@ output:
   shapefile_layout: per_placement   # per_placement | per_product
   short_names: false
   crs: wgs84                  # wgs84 | utm
+  formats: [shapefile, isoxml]  # shapefile | isoxml (ISO 11783-10 TASKDATA); GeoJSON, zones.csv, summary, report always
+  isoxml_grid: false          # true: task data as a grid of rates (GRD type 2) instead of zone polygons
+  isoxml_grid_cell_m: null    # grid cell, m; null = half the build's grid cell
 `;
 }
