@@ -61,6 +61,14 @@ export function thaToBuac(tPerHa: number, lbPerBu: number): number {
   return (tPerHa * 1000 * HA_PER_AC) / (lbPerBu * KG_PER_LB);
 }
 
+/**
+ * Exchangeable K in meq/100 g (= cmol(+)/kg) to ppm (mg/kg): x 390.98 (K 39.098 g/mol, one charge; 1 meq/100 g =
+ * 10 mmol(+)/kg). @example kMeqToPpm(0.5) // 195.49
+ */
+export const kMeqToPpm = (meq: number): number => meq * K * 10;
+/** Electrical conductivity µS/cm to dS/m (1 dS/m = 1 mS/cm = 1 mmho/cm = 1000 µS/cm). @example uscmToDsm(850) // 0.85 */
+export const uscmToDsm = (v: number): number => v / 1000;
+
 /** Rate units the plan may ask for. */
 export type RateUnit = 'lb/ac' | 'kg/ha';
 /** Converts a rate held in lb/ac into the requested unit. */
