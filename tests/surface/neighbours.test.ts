@@ -6,7 +6,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { cellNeighbours, sampleNeighbours } from '../../src/surface/neighbours.js';
-import { bruteKnn } from '../../src/surface/knn.js';
+import { bruteKnn } from '../helpers/oracles.js';
 import { idwSurface, idwSurfaces } from '../../src/surface/idw.js';
 import { crossValidate, crossValidateMany } from '../../src/surface/crossValidate.js';
 import { nutrientSurface, nutrientSurfaces } from '../../src/surface/nutrientSurface.js';
