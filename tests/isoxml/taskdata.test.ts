@@ -19,6 +19,9 @@ import { projector } from '../../src/geo/utm.js';
 import { labelPoint } from '../../src/report/maps.js';
 import { zipFiles } from '../../src/io/zip.js';
 import { lbacToKgha } from '../../src/units/index.js';
+import { readTaskData, taskDataFiles } from '../../src/io/isoxml/index.js';
+import { layersFromTaskData } from '../../src/check/taskdata.js';
+import { checkPrescription, layerFromGeoJSON } from '../../src/check/index.js';
 import { ROOT } from '../helpers/cli.js';
 import { requireTool } from '../helpers/tools.js';
 
@@ -142,9 +145,31 @@ describe('task data with zone polygons, read by the isoxml package', () => {
 });
 
 describe('task data as a type-2 grid, read by the isoxml package', () => {
+  let rx: Prescription, files: Record<string, Uint8Array>;
+  beforeAll(() => {
+    rx = buildPrescription(inputs, plan((p) => { p.output.isoxml_grid = true; }), tables, { cell: 10 });
+    files = prescriptionTaskDataFiles(rx, tables, { grid: true });
+  }, 120_000);
+
+  it('passes tilth check with the boundary (the staircase along the edge is under one cell wide); a grid cut short leaves a gap', () => {
+    const boundary = layerFromGeoJSON(readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8'), 'boundary.geojson');
+    const layers = layersFromTaskData(readTaskData(files), 'TASKDATA.XML');
+    expect(layers.length).toBeGreaterThan(2);
+    for (const l of layers) {
+      const r = checkPrescription(l, { boundary, speedKmh: 8 });
+      expect(r.lines.filter((x) => x.status === 'fail')).toEqual([]);
+    }
+    const td = readTaskData(files);
+    const g = td.tasks[0].grid!;
+    const per = td.tasks[0].zones.find((z) => z.code === g.zoneCode)!.values.length;
+    g.rows = Math.floor(g.rows / 2);
+    g.data = g.data.slice(0, g.rows * g.cols * per * 4);
+    const cut = layersFromTaskData(readTaskData(taskDataFiles(td)), 'TASKDATA.XML')[0];
+    expect(checkPrescription(cut, { boundary }).lines.find((x) => x.check === 'gaps')!.status).toBe('fail');
+  }, 120_000);
+
   it("decodes to each zone's rate at the zone's label point", async () => {
-    const rx = buildPrescription(inputs, plan((p) => { p.output.isoxml_grid = true; }), tables, { cell: 10 });
-    const m = await outside(prescriptionTaskDataFiles(rx, tables, { grid: true }));
+    const m = await outside(files);
     expect(m.getWarnings()).toEqual([]);
     const set = rx.zoneSets[0];
     const proj = projector(rx.field.utm);
@@ -169,6 +194,23 @@ describe('task data as a type-2 grid, read by the isoxml package', () => {
         });
       }
     }
+  }, 120_000);
+});
+
+describe('task layouts', () => {
+  it('per_product: one task per product and placement; per-product zone sets: tasks per set, ids unique', async () => {
+    const rx = buildPrescription(inputs, plan((p) => { p.zoning.zone_sets = 'per_product'; }), tables, { cell: 10 });
+    const m = await outside(prescriptionTaskDataFiles(rx, tables, { layout: 'per_product' }));
+    expect(m.getWarnings()).toEqual([]);
+    const tasks = A(m.rootElement).Task;
+    expect(tasks.length).toBe(rx.zoneSets.reduce((s, set) => s + usedPairs(set).length, 0));
+    for (const t of tasks) {
+      const set = rx.zoneSets.find((x) => A(t).TaskDesignator.endsWith(`(${x.name} zones)`))!;
+      expect(A(t).TreatmentZone.length).toBe(set.zones.length + 1);
+      expect(A(t).TreatmentZone.every((z: any) => A(z).ProcessDataVariable.length === 1)).toBe(true);
+    }
+    // every TSK, TZN code within a task and PDT is unique (the reader warns on a repeated id)
+    expect(new Set(tasks.map((t: any) => m.getReferenceByEntity(t).xmlId)).size).toBe(tasks.length);
   }, 120_000);
 });
 
