@@ -7,13 +7,13 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { readCsvRecords } from '../src/io/csv.js';
-import { readXlsxRecords } from '../src/io/xlsx.js';
-import { readGeoJsonPoints } from '../src/io/geojson.js';
-import { parseColumnMap } from '../src/io/columns.js';
-import { buildSamples } from '../src/validate/samples.js';
-import type { RawTable } from '../src/io/records.js';
-import { ROOT, tilth } from './helpers/cli.js';
+import { readCsvRecords } from '../../src/io/csv.js';
+import { readXlsxRecords } from '../../src/io/xlsx.js';
+import { readGeoJsonPoints } from '../../src/io/geojson.js';
+import { parseColumnMap } from '../../src/io/columns.js';
+import { buildSamples } from '../../src/validate/samples.js';
+import type { RawTable } from '../../src/io/records.js';
+import { ROOT } from '../helpers/cli.js';
 
 const DIR = join(ROOT, 'tests/fixtures/labs');
 const truth: Record<string, number | string>[] = JSON.parse(readFileSync(join(DIR, 'truth.json'), 'utf8'));
@@ -131,30 +131,5 @@ describe('lab corpus: refused with the column, the ambiguity and the exact fix',
 
   it('10-utm-easting-northing.csv without --crs: says the columns hold metres and how to name the system', async () => {
     expect(() => readCsvRecords(readFileSync(join(DIR, '10-utm-easting-northing.csv'), 'utf8'), '10.csv', [])).toThrow(/"Easting" and "Northing" hold metres.*Fix: say which with --crs, e\.g\. --crs EPSG:26913/);
-  });
-});
-
-describe('lab corpus from the command line', () => {
-  const B = 'sample-fields/quarter/boundary.geojson';
-  it('inspect --json on a second sheet of an .xlsx: the column reading, EC kept', () => {
-    const r = tilth(['inspect', '--samples', 'tests/fixtures/labs/30-xlsx-second-sheet.xlsx', '--sheet', 'Results', '--boundary', B, '--json']);
-    expect(r.code).toBe(0);
-    const j = JSON.parse(r.stdout);
-    expect(j.columns.find((c: { column: string }) => c.column === 'pH (1:2)')).toMatchObject({ role: 'ph', method: '1:2 water', how: 'header' });
-    expect(j.samples.count).toBe(6);
-  });
-
-  it('an unknown sheet names the sheets there are', () => {
-    const r = tilth(['inspect', '--samples', 'tests/fixtures/labs/30-xlsx-second-sheet.xlsx', '--sheet', 'Data', '--boundary', B]);
-    expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/no sheet "Data"\. Fix: give one of --sheet "Cover", --sheet "Results"/);
-  });
-
-  it('--columns wins and can give a depth: ph=pH (1:2)@0-6; --verbose prints the reading on stderr', () => {
-    const r = tilth(['inspect', '--samples', 'tests/fixtures/labs/01-long-ppm-depth-column.csv', '--boundary', B, '--columns', 'ph=pH (1:2)@0-6', '--verbose', '--json']);
-    expect(r.code).toBe(0);
-    const ph = JSON.parse(r.stdout).columns.find((c: { column: string }) => c.column === 'pH (1:2)');
-    expect(ph).toMatchObject({ role: 'ph', how: 'column map, depth from map' });
-    expect(r.stderr).toMatch(/columns of .*01-long-ppm-depth-column\.csv:[\s\S]*pH \(1:2\)\s+ph/);
   });
 });
