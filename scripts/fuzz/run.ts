@@ -8,7 +8,7 @@
 import { fork, type ChildProcess } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { targetOf } from './targets.js';
+import { ensureBomb, targetOf } from './targets.js';
 
 interface Reply { seed: number; target: string; outcome: string; message?: string; mustRefuse?: string; ms: number; rssMb: number }
 
@@ -41,6 +41,7 @@ async function main() {
   const o = args();
   const counts: Record<string, Record<string, number>> = {};
   const bad: Reply[] = [];
+  if (!o.only || o.only.includes('zip-bomb')) ensureBomb();
   let w = await startWorker();
   let sinceStart = 0, slowest = 0, peakRss = 0;
   const t0 = Date.now();
