@@ -74,6 +74,14 @@ export const planSchema = z.object({
     speed_mph: z.number().positive().default(5),
     rate_change_s: z.number().min(0).default(4),
   }).strict().prefault({}),
+  /** how each nutrient's soil-test surface is interpolated (docs/surface.md) */
+  surface: z.object({
+    /** idw (default), kriging (ordinary kriging; refused with the reason when the semivariogram is unusable), or auto (lowest leave-one-out RMSE) */
+    method: z.enum(['auto', 'idw', 'kriging']).default('idw'),
+    /** krige natural logarithms and back-transform to the lognormal mean (skewed soil tests) */
+    log: z.boolean().default(false),
+    kriging_neighbours: z.number().int().min(1).max(256).default(16),
+  }).strict().prefault({}),
   zoning: z.object({
     method: z.enum(['jenks', 'quantile', 'equal', 'kmeans']).default('jenks'),
     classes: z.number().int().min(1).max(10).default(5),
@@ -87,6 +95,12 @@ export const planSchema = z.object({
     shapefile_layout: z.enum(['per_placement', 'per_product']).default('per_placement'),
     short_names: z.boolean().default(false),
     crs: z.enum(['wgs84', 'utm']).default('wgs84'),
+    /** machine files besides prescription.geojson, zones.csv, summary and report (always written) */
+    formats: z.array(z.enum(['shapefile', 'isoxml'])).default(['shapefile', 'isoxml']),
+    /** ISO 11783-10 task data: a type-2 grid of rates instead of zone polygons */
+    isoxml_grid: z.boolean().default(false),
+    /** grid cell, m; null = half the build's grid cell, so every zone holds whole grid cells */
+    isoxml_grid_cell_m: z.number().positive().max(100).nullable().default(null),
   }).strict().prefault({}),
 }).strict();
 

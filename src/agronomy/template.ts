@@ -106,6 +106,11 @@ machine:
   speed_mph: 5
   rate_change_s: 4            # seconds the controller takes to change rate
 
+surface:
+  method: idw                 # idw | kriging | auto (lowest leave-one-out RMSE of IDW and ordinary kriging)
+  log: false                  # kriging on logarithms (skewed soil tests), back-transformed to the lognormal mean
+  kriging_neighbours: 16
+
 zoning:
   method: jenks               # jenks | quantile | equal | kmeans
   classes: 5
@@ -118,5 +123,8 @@ output:
   shapefile_layout: per_placement   # per_placement | per_product
   short_names: false
   crs: wgs84                  # wgs84 | utm
+  formats: [shapefile, isoxml]  # shapefile | isoxml (ISO 11783-10 TASKDATA); GeoJSON, zones.csv, summary, report always
+  isoxml_grid: false          # true: task data as a grid of rates (GRD type 2) instead of zone polygons
+  isoxml_grid_cell_m: null    # grid cell, m; null = half the build's grid cell
 `;
 }

@@ -19,7 +19,7 @@ export { readLayer, layerFromGeoJSON, type CheckLayer, type LayerField } from '.
 export const SLIVER_M2 = 1;
 /** ... and pieces thinner than this on average (m): rounding slivers along shared edges and the boundary. */
 export const SLIVER_WIDTH_M = 0.05;
-const significant = (polys: Poly[], scale: number) => significantArea(polys, SLIVER_M2, SLIVER_WIDTH_M, scale);
+const significantWith = (width: number) => (polys: Poly[], scale: number) => significantArea(polys, SLIVER_M2, width, scale);
 /**
  * Seconds a controller takes to reach a new rate: 4 s by default. Common practice; University of
  * Georgia Extension (2024) gives 3-5 s for typical rate controllers.
@@ -182,6 +182,8 @@ export function checkPrescription(rawLayer: CheckLayer, opts: CheckOptions = {})
   const add = (check: string, status: CheckStatus, message: string, zones: string[] = []) => lines.push({ check, status, message, zones });
   const names = zoneNames(layer);
   const feats = layer.features;
+  // a grid follows the boundary only to a cell: pieces thinner on average than a cell are its staircase
+  const significant = significantWith(Math.max(SLIVER_WIDTH_M, layer.resolutionM ?? 0));
 
   // --- coordinate system
   const frame = frameOf(layer);

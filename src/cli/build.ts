@@ -6,6 +6,8 @@ import { buildPrescription } from '../prescription/index.js';
 import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, summaryText, zonesCsv, type Provenance } from '../prescription/outputs.js';
 import { reportInput } from '../prescription/reportInput.js';
 import { prescriptionFiles } from '../io/shapefile/index.js';
+import { zipFiles } from '../io/zip.js';
+import { prescriptionTaskDataFiles } from '../prescription/taskdata.js';
 import { renderReport, serializeReportInput } from '../report/index.js';
 import { inputsHash } from './report.js';
 import { VERSION } from '../version.js';
@@ -32,7 +34,7 @@ export function register(program: Command): void {
     .option('--force', 'replace an earlier tilth output folder (never one holding other files, an input, the current or home folder)')
     .option('--json', 'print summary.json on stdout for scripts')
     .option('--quiet', 'no progress messages')
-    .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
+    .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json, report.html;\nshapefiles/ and ISO 11783-10 task data (TASKDATA/ and taskdata.zip) as the plan's output.formats asks.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
     .action((o: BuildFlags) => {
       const inputFiles = [o.samples, o.boundary, o.plan, o.zones, o.tables].filter((f): f is string => !!f);
       checkOutputDir(o.out, { force: o.force, inputs: inputFiles }); // before any work: a long build should not end in a refusal
@@ -68,8 +70,8 @@ export function register(program: Command): void {
       files.set('zones.csv', zonesCsv(rx));
       const summary = summaryObject(rx, prov);
       files.set('summary.json', JSON.stringify(summary, null, 2) + '\n');
-      say('writing shapefiles ...');
-      for (const set of rx.zoneSets) {
+      if (plan.output.formats.includes('shapefile')) say('writing shapefiles ...');
+      for (const set of plan.output.formats.includes('shapefile') ? rx.zoneSets : []) {
         const fc = shapefileFeatures(rx, set);
         if (fc.features.length === 0) continue;
         const shp = prescriptionFiles(fc, {
@@ -81,6 +83,13 @@ export function register(program: Command): void {
           title: `${plan.farm ? plan.farm + ', ' : ''}${plan.field || rx.field.name}: ${plan.crop}, zone set ${set.name} (tilth ${VERSION}, inputs ${prov.id})`,
         });
         for (const [name, bytes] of Object.entries(shp.files)) files.set(`shapefiles/${name}`, bytes);
+      }
+      if (plan.output.formats.includes('isoxml')) {
+        say('writing ISO 11783-10 task data ...');
+        const td = prescriptionTaskDataFiles(rx, tables, { layout: plan.output.shapefile_layout, grid: plan.output.isoxml_grid, gridCellM: plan.output.isoxml_grid_cell_m ?? undefined });
+        const inFolder = Object.fromEntries(Object.entries(td).map(([n, b]) => [`TASKDATA/${n}`, b]));
+        for (const [n, b] of Object.entries(inFolder)) files.set(n, b);
+        files.set('taskdata.zip', zipFiles(inFolder));
       }
       say('drawing the report ...');
       // the sulphate-S variability charts (issue 8), from the build's own S surface
