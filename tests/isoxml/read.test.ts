@@ -111,6 +111,14 @@ describe('readTaskData', () => {
     expect(parseXml(writeXml(el('R', { B: 'tab\there' })), 'x').attrs.B).toBe('tab here');
   });
 
+  it('external files (XFR) are merged in; a missing one is named', () => {
+    const xml = xmlOf(sample()).replace(/ <PDT [^>]*\/>\n/, ' <XFR A="PDT00001" B="1"/>\n');
+    const ext = '<?xml version="1.0" encoding="UTF-8"?>\n<XFC>\n <PDT A="PDT1" B="urea from an external file"/>\n</XFC>\n';
+    const td = readTaskData({ 'TASKDATA.XML': enc(xml), 'PDT00001.XML': enc(ext) });
+    expect(td.products.map((p) => p.name)).toEqual(['urea from an external file']);
+    expect(userError(() => readTaskData({ 'TASKDATA.XML': enc(xml) }))).toMatch(/XFR PDT00001: the external file PDT00001\.XML is missing/);
+  });
+
   it('a zip holding TASKDATA/ is read in memory', () => {
     const files = taskDataFiles(sample(true));
     const zip = zipFiles(Object.fromEntries(Object.entries(files).map(([k, v]) => [`TASKDATA/${k}`, v])));

@@ -2,7 +2,7 @@
  * Task data written by tilth, read back by outside readers: the `isoxml` npm package (ISO 11783-10
  * entities, grids) and xmllint (libxml2, well-formedness). Areas by GeographicLib (Karney 2013).
  */
-import { readFileSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { readFileSync, readdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -244,6 +244,13 @@ describe('names and liquids', () => {
       const lbac = productRate(set.zones.find((x) => x.id === code)!.decision, 'uan', 'side_band').lbac;
       expect(Math.abs(A(v).ProcessDataValue - lbacToKgha(lbac) / 1.28 * 100)).toBeLessThanOrEqual(0.5);
     }
+    // tilth check reads it back in L/ha (DDI 1: mm3/m2 / 100)
+    const layer = layersFromTaskData(readTaskData(files), 'TASKDATA.XML').find((l) => l.label.includes('side band') && l.label.includes('UAN'))!;
+    expect(layer.fields.map((f) => f.name)).toEqual(['zone_id', 'rate_lha']);
+    for (const f of layer.features) {
+      const lbac = productRate(set.zones.find((x) => x.id === f.properties!.zone_id)!.decision, 'uan', 'side_band').lbac;
+      expect(Math.abs(f.properties!.rate_lha - lbacToKgha(lbac) / 1.28)).toBeLessThanOrEqual(0.005 + 1e-9);
+    }
   }, 120_000);
 });
 
@@ -268,5 +275,19 @@ describe('the demo build (CLI)', () => {
         expect(Math.abs(r.totals[0].total - t.total_kg)).toBeLessThan(Math.max(0.001 * t.total_kg, 0.5));
       }
     }
+  }, 240_000);
+
+  it('output.formats: [isoxml] with isoxml_grid writes grid task data and no shapefiles', () => {
+    const d = mkdtempSync(join(tmpdir(), 'tilth-demo-grid-'));
+    const p = parseYaml(PLAN);
+    Object.assign(p.output, { formats: ['isoxml'], isoxml_grid: true, isoxml_grid_cell_m: 4 });
+    writeFileSync(join(d, 'plan.yaml'), stringify(p));
+    const b = spawnSync(process.execPath, [join(ROOT, 'bin/tilth.js'), 'build', '--samples', 'sample-fields/quarter/samples.csv', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', join(d, 'plan.yaml'), '--out', join(d, 'out'), '--quiet'], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
+    expect(b.status).toBe(0);
+    expect(readdirSync(join(d, 'out'))).not.toContain('shapefiles');
+    expect(readdirSync(join(d, 'out', 'TASKDATA')).sort()).toEqual(['GRD00001.bin', 'GRD00002.bin', 'TASKDATA.XML']);
+    // 4 m cells: the GRD's north size is 4 m of latitude (1 degree of latitude is about 111.25 km at 52 N, from memory)
+    const xml = readFileSync(join(d, 'out', 'TASKDATA', 'TASKDATA.XML'), 'utf8');
+    expect(Number(/<GRD A="[^"]+" B="[^"]+" C="([^"]+)"/.exec(xml)![1]) * 111_250).toBeCloseTo(4, 1);
   }, 240_000);
 });
