@@ -74,6 +74,14 @@ export const planSchema = z.object({
     speed_mph: z.number().positive().default(5),
     rate_change_s: z.number().min(0).default(4),
   }).strict().prefault({}),
+  /** how each nutrient's soil-test surface is interpolated (docs/surface.md) */
+  surface: z.object({
+    /** idw (default), kriging (ordinary kriging; refused with the reason when the semivariogram is unusable), or auto (lowest leave-one-out RMSE) */
+    method: z.enum(['auto', 'idw', 'kriging']).default('idw'),
+    /** krige natural logarithms and back-transform to the lognormal mean (skewed soil tests) */
+    log: z.boolean().default(false),
+    kriging_neighbours: z.number().int().min(1).max(256).default(16),
+  }).strict().prefault({}),
   zoning: z.object({
     method: z.enum(['jenks', 'quantile', 'equal', 'kmeans']).default('jenks'),
     classes: z.number().int().min(1).max(10).default(5),

@@ -106,6 +106,11 @@ machine:
   speed_mph: 5
   rate_change_s: 4            # seconds the controller takes to change rate
 
+surface:
+  method: idw                 # idw | kriging | auto (lowest leave-one-out RMSE of IDW and ordinary kriging)
+  log: false                  # kriging on logarithms (skewed soil tests), back-transformed to the lognormal mean
+  kriging_neighbours: 16
+
 zoning:
   method: jenks               # jenks | quantile | equal | kmeans
   classes: 5

@@ -158,7 +158,7 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
       warnings.push({ code: 'build.analyte-missing', message: `no sample has ${a}; it is treated as not tested everywhere.`, field: a });
       return;
     }
-    const s = nutrientSurface(samples, a, grid, inputs.zones);
+    const s = nutrientSurface(samples, a, grid, inputs.zones, { method: plan.surface.method, kriging: { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours } });
     surfaces.push(s);
     byAnalyte[a] = s.values;
     warnings.push(...s.warnings);

@@ -140,11 +140,13 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
 
   const crossValidation = rx.surfaces.flatMap((s) => (s.cv?.table ?? []).map((r) => ({
     nutrient: s.analyte,
-    method: `IDW power ${r.power}, ${Number.isFinite(r.neighbours) ? r.neighbours : 'all'} neighbours`,
+    method: r.method === 'kriging'
+      ? `ordinary kriging, ${r.neighbours} neighbours (${s.kriging?.modelText ?? ''}; MSSE ${Number.isFinite(r.msse ?? NaN) ? (r.msse as number).toFixed(2) : 'n/a'})`
+      : `IDW power ${r.power}, ${Number.isFinite(r.neighbours) ? r.neighbours : 'all'} neighbours`,
     rmse: r.rmse,
     meanError: r.bias,
     mae: r.mae,
-    chosen: r.power === s.power && r.neighbours === s.neighbours,
+    chosen: r === s.cv!.best,
   })));
 
   const tablesUsed: ReportTableUsed[] = [];

@@ -7,6 +7,9 @@ import { COINCIDENT_D2 } from './idw.js';
 
 /** One row of the cross-validation table. */
 export interface CvRow {
+  /** 'kriging' for the ordinary-kriging row the surface stage adds; IDW otherwise (absent = IDW) */
+  method?: 'idw' | 'kriging';
+  /** IDW power (NaN for kriging) */
   power: number;
   /** neighbour count; Infinity = all samples */
   neighbours: number;
@@ -14,6 +17,8 @@ export interface CvRow {
   mae: number;
   /** mean of (predicted - observed) */
   bias: number;
+  /** kriging only: mean standardized squared error, mean(e^2 / kriging variance); near 1 when the variances fit */
+  msse?: number;
   /** samples predicted (a sample with no neighbour within the radius is not) */
   n: number;
 }

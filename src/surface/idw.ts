@@ -4,11 +4,9 @@
  * search radius); a cell centre within 1e-13 m^2 squared distance of a sample takes that sample's value
  * (the rule GDAL's gdal_grid uses), so there is never a division by zero.
  */
-import type { Grid } from '../types.js';
-import { buildBuckets, KnnGroup } from './knn.js';
+import { visitCellNeighbours, type GridShape } from './cellNeighbours.js';
 
-/** The geometry of a north-up grid (see Grid in src/types.ts). */
-export type GridShape = Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>;
+export type { GridShape };
 
 /** Options for {@link idwSurface}. */
 export interface IdwOptions {
@@ -48,7 +46,6 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
   const { cols, rows, cell, xmin, ymax } = grid;
   const out = new Float64Array(cols * rows).fill(NaN);
   if (n === 0 || k < 1) return out;
-  const maxD2 = radius * radius;
   let zlo = Infinity, zhi = -Infinity;
   for (let i = 0; i < n; i++) { if (z[i] < zlo) zlo = z[i]; if (z[i] > zhi) zhi = z[i]; }
   const half = power / 2;
@@ -81,71 +78,19 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
     return out;
   }
 
-  // bucket side: about a quarter of the expected k-th neighbour distance, in whole cells (see docs/surface.md)
-  let sxmin = Infinity, sxmax = -Infinity, symin = Infinity, symax = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const x = xy[2 * i], y = xy[2 * i + 1];
-    if (x < sxmin) sxmin = x; if (x > sxmax) sxmax = x;
-    if (y < symin) symin = y; if (y > symax) symax = y;
-  }
-  const gw = cols * cell, gh = rows * cell;
-  const ux0 = Math.min(sxmin, xmin), ux1 = Math.max(sxmax, xmin + gw), uy0 = Math.min(symin, ymax - gh), uy1 = Math.max(symax, ymax);
-  const areaEst = Math.max((ux1 - ux0) * (uy1 - uy0), cell * cell);
-  const rk = Math.sqrt((k * areaEst) / (Math.PI * n));
-  const S = Math.max(1, Math.min(256, Math.round(rk / 4 / cell)));
-  const B = S * cell;
-  const bcols = Math.ceil(cols / S), brows = Math.ceil(rows / S);
-  // extra buckets around the grid for samples outside it (capped; farther ones are clamped into the edge buckets,
-  // which keeps the nearest-neighbour proof valid because they are still beyond every inner bucket edge)
-  const cap = 64;
-  const axL = Math.min(cap, Math.max(0, Math.ceil((xmin - sxmin) / B)));
-  const axR = Math.min(cap, Math.max(0, Math.ceil((sxmax - (xmin + bcols * B)) / B)));
-  const ayT = Math.min(cap, Math.max(0, Math.ceil((symax - ymax) / B)));
-  const ayB = Math.min(cap, Math.max(0, Math.ceil((ymax - brows * B - symin) / B)));
-  const nx = axL + bcols + axR, ny = ayT + brows + ayB;
-  const x0 = xmin - axL * B, y0 = ymax + ayT * B - ny * B;
-  const buckets = buildBuckets(xy, B, x0, y0, nx, ny, xmin, ymax);
-  const g = new KnnGroup(buckets, k, maxD2);
-  const ring = Math.max(1, Math.ceil((1.3 * Math.min(rk, radius)) / B));
-  const d2s = g.d2, idx = g.idx;
-
-  for (let br = 0; br < brows; br++) {
-    const by = ny - 1 - ayT - br;
-    const r0 = br * S, r1 = Math.min(rows, r0 + S);
-    for (let bc = 0; bc < bcols; bc++) {
-      const c0 = bc * S, c1 = Math.min(cols, c0 + S);
-      let any = false;
-      if (where) {
-        for (let r = r0; r < r1 && !any; r++) for (let c = c0; c < c1; c++) if (where[r * cols + c] > 0) { any = true; break; }
-        if (!any) continue;
-      }
-      const bx = axL + bc;
-      g.begin(bx, bx, by, by, ring);
-      g.prune((c0 + 0.5) * cell, -(r1 - 0.5) * cell, (c1 - 0.5) * cell, -(r0 + 0.5) * cell);
-      for (let r = r0; r < r1; r++) {
-        const qy = -(r + 0.5) * cell;
-        // serpentine order: each cell is next to the previous one, which keeps the search bound tight
-        const fwd = ((r - r0) & 1) === 0;
-        for (let t = c0; t < c1; t++) {
-          const c = fwd ? t : c1 - 1 - (t - c0);
-          const i = r * cols + c;
-          if (where && !(where[i] > 0)) continue;
-          const found = g.nearest((c + 0.5) * cell, qy);
-          if (found < minN) continue;
-          let num = 0, den = 0, hit = -1;
-          for (let j = 0; j < found; j++) {
-            const dd = d2s[j];
-            if (dd < COINCIDENT_D2) { if (hit < 0 || idx[j] < idx[hit]) hit = j; continue; }
-            const w = p2 ? 1 / dd : 1 / Math.pow(dd, half);
-            num += w * z[idx[j]];
-            den += w;
-          }
-          const v = hit >= 0 ? z[idx[hit]] : num / den;
-          // a weighted mean can land one rounding step outside the samples' range: keep it inside
-          out[i] = v < zlo ? zlo : v > zhi ? zhi : v;
-        }
-      }
+  visitCellNeighbours(xy, grid, k, radius, where, (i, found, d2s, idx) => {
+    if (found < minN) return;
+    let num = 0, den = 0, hit = -1;
+    for (let j = 0; j < found; j++) {
+      const dd = d2s[j];
+      if (dd < COINCIDENT_D2) { if (hit < 0 || idx[j] < idx[hit]) hit = j; continue; }
+      const w = p2 ? 1 / dd : 1 / Math.pow(dd, half);
+      num += w * z[idx[j]];
+      den += w;
     }
-  }
+    const v = hit >= 0 ? z[idx[hit]] : num / den;
+    // a weighted mean can land one rounding step outside the samples' range: keep it inside
+    out[i] = v < zlo ? zlo : v > zhi ? zhi : v;
+  });
   return out;
 }

@@ -6,8 +6,9 @@ import { UserError, type Warning } from '../errors.js';
 import type { Analyte, Grid, SampleZones, Samples } from '../types.js';
 import { crossValidate, DEFAULT_NEIGHBOURS, DEFAULT_POWERS, type CvResult, type CvRow } from './crossValidate.js';
 import { idwSurface } from './idw.js';
-import { nutrientPoints } from './prepare.js';
+import { nutrientPoints, type NutrientPoints } from './prepare.js';
 import { zoneSurface } from './zoneSurface.js';
+import { krigeGrid, krigingCandidate, type KrigingChoiceOptions, type KrigingInfo } from './krigingChoice.js';
 
 /** Label with the canonical unit (src/types.ts), for messages and tables. */
 export const ANALYTE_LABEL: Record<Analyte, string> = {
@@ -58,7 +59,16 @@ export interface NutrientSurfaceOptions {
   minNeighbours?: number;
   /** skip cross-validation when power and neighbours are both given (default false: a one-row table for the given pair is made) */
   skipCv?: boolean;
+  /** 'idw' (default), 'kriging' (ordinary kriging; a UserError with the reason when the semivariogram cannot
+   * carry it), or 'auto': the lowest leave-one-out RMSE of the IDW candidates and kriging */
+  method?: SurfaceMethod;
+  /** kriging: neighbours 16, log false, model fitted by the variability stage */
+  kriging?: KrigingChoiceOptions;
 }
+
+/** How a surface is interpolated: see {@link NutrientSurfaceOptions.method}. */
+export type SurfaceMethod = 'auto' | 'idw' | 'kriging';
+export const SURFACE_METHODS: readonly SurfaceMethod[] = ['auto', 'idw', 'kriging'];
 
 /** A nutrient's surface on the field grid. */
 export interface NutrientSurface {
@@ -66,13 +76,20 @@ export interface NutrientSurface {
   grid: Grid;
   /** row-major north-up values where grid.fraction > 0, NaN elsewhere */
   values: Float64Array;
-  method: 'idw' | 'zones' | 'single-sample';
-  /** power and neighbour count used (idw); NaN otherwise */
+  method: 'idw' | 'kriging' | 'zones' | 'single-sample';
+  /** power used (idw); NaN otherwise */
   power: number;
+  /** neighbour count used (idw, kriging); NaN otherwise */
   neighbours: number;
   /** how they were chosen, for people */
   choice: string;
+  /** leave-one-out table: the IDW rows, then the kriging row when kriging was a candidate; `best` is the row used */
   cv: CvResult | null;
+  /** kriging's model, cross-validation or the reason it was refused; null when it was not considered */
+  kriging: KrigingInfo | null;
+  /** kriging only: mean and variance per cell on the kriged scale (natural logarithms when kriging.transform is 'log') */
+  krigedMean: Float64Array | null;
+  variance: Float64Array | null;
   /** samples used after skipping and merging */
   samplesUsed: number;
   min: number;
@@ -106,21 +123,11 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
   if (n > 1 && min === max) {
     warnings.push({ code: 'surface.flat', message: `${label}: all ${n} samples have the value ${min}; the map is flat.`, field: label });
   }
-  const base = { analyte, grid, cv: null as CvResult | null, samplesUsed: n, min, max, warnings };
+  const base = { analyte, grid, cv: null as CvResult | null, samplesUsed: n, min, max, warnings, kriging: null, krigedMean: null, variance: null };
 
   const keyed = zones !== null && pts.zone.some((z) => z !== null);
   if (keyed) {
-    const byKey = new Map<string, number[]>();
-    pts.zone.forEach((k, i) => { if (k !== null) { const a = byKey.get(k); if (a) a.push(pts.z[i]); else byKey.set(k, [pts.z[i]]); } });
-    for (const [k, vs] of byKey) {
-      if (!zones.keys.includes(k)) warnings.push({ code: 'surface.zone-unknown', message: `${label}: samples keyed to zone "${k}" match no zone polygon and are not used.`, where: k, field: label });
-      if (vs.length > 1) warnings.push({ code: 'surface.zone-several', message: `${label}: zone "${k}" has ${vs.length} samples (${vs.join(', ')}); their average is used.`, where: k, field: label });
-    }
-    const zs = zones.keys.map((key, i) => {
-      const vs = byKey.get(key);
-      return { key, parts: zones.parts[i], value: vs ? vs.reduce((a, b) => a + b, 0) / vs.length : NaN };
-    });
-    const r = zoneSurface(grid, zs, label);
+    const r = zoneValues(pts, zones, grid, label);
     warnings.push(...r.warnings);
     return { ...base, values: r.values, method: 'zones', power: NaN, neighbours: NaN, choice: 'zone-composite samples: each zone takes its sample value' };
   }
@@ -132,6 +139,50 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
     return { ...base, values, method: 'single-sample', power: NaN, neighbours: NaN, choice: 'one sample: uniform value' };
   }
 
+  const method = opts.method ?? 'idw';
+  const idw = method === 'kriging' ? null : chooseIdw(pts, opts, label, warnings);
+  const kriging = method === 'idw' ? null : krigingCandidate(pts.xy, pts.z, opts.kriging);
+  if (kriging?.refused && method === 'kriging') {
+    throw new UserError(`${label}: ordinary kriging is refused: ${kriging.refused}. Fix: use --method idw (or auto, which falls back to IDW), or add samples.`, { field: analyte });
+  }
+  const useKriging = kriging !== null && kriging.cv !== null && (idw === null || !idw.cv || kriging.cv.rmse < idw.cv.best.rmse);
+  if (useKriging) {
+    const g = krigeGrid(pts.xy, pts.z, grid, kriging);
+    if (g.singular) warnings.push({ code: 'surface.kriging-singular', message: `${label}: ${g.singular} cells have no value: their neighbours' covariance matrix is singular under the ${kriging.modelText} model.`, field: label });
+    const table = [...(idw?.cv?.table ?? []), kriging.cv!];
+    const choice = idw
+      ? `ordinary kriging chosen by leave-one-out cross-validation: RMSE ${fmt(kriging.cv!.rmse)} against ${fmt(idw.cv!.best.rmse)} for the best IDW (power ${idw.power}, ${kName(idw.neighbours)} neighbours); ${kriging.modelText}, ${kriging.neighbours} neighbours`
+      : `ordinary kriging as asked (leave-one-out RMSE ${fmt(kriging.cv!.rmse)}, MSSE ${fmt(kriging.cv!.msse ?? NaN)}); ${kriging.modelText}, ${kriging.neighbours} neighbours`;
+    return { ...base, values: g.values, krigedMean: g.mean, variance: g.variance, kriging, cv: { table, best: kriging.cv! }, method: 'kriging', power: NaN, neighbours: kriging.neighbours, choice };
+  }
+  const { power, neighbours } = idw!;
+  let choice = idw!.choice;
+  let cv = idw!.cv;
+  if (kriging) {
+    if (kriging.cv && cv) {
+      cv = { table: [...cv.table, kriging.cv], best: cv.best };
+      choice = `IDW chosen by leave-one-out cross-validation over IDW and ordinary kriging: RMSE ${fmt(cv.best.rmse)} against ${fmt(kriging.cv.rmse)} for kriging (${kriging.modelText}); ${choice}`;
+    } else if (kriging.refused) {
+      choice = `IDW (ordinary kriging was not a candidate: ${kriging.refused}); ${choice}`;
+      warnings.push({ code: 'surface.kriging-refused', message: `${label}: ordinary kriging was not used: ${kriging.refused}.`, field: label });
+    }
+  }
+  const values = idwSurface(pts.xy, pts.z, grid, { power, neighbours, radius: opts.radius, minNeighbours: opts.minNeighbours });
+  let empty = 0;
+  for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0 && Number.isNaN(values[i])) empty++;
+  if (empty) {
+    warnings.push({
+      code: 'surface.cells-empty',
+      message: `${label}: ${empty} field cell${empty > 1 ? 's have' : ' has'} fewer than ${opts.minNeighbours ?? 1} sample${(opts.minNeighbours ?? 1) > 1 ? 's' : ''} within the ${opts.radius} m search radius and no value. Fix: use a larger radius (--radius) or fewer minimum neighbours.`,
+      field: label,
+    });
+  }
+  return { ...base, cv, kriging, values, method: 'idw', power, neighbours, choice };
+}
+
+/** IDW power and neighbours: by cross-validation ('auto') or as given; the table and the sentence for people. */
+function chooseIdw(pts: NutrientPoints, opts: NutrientSurfaceOptions, label: string, warnings: Warning[]): { cv: CvResult | null; power: number; neighbours: number; choice: string } {
+  const n = pts.z.length;
   const fixedP = typeof opts.power === 'number' ? opts.power : null;
   const fixedK = typeof opts.neighbours === 'number' ? opts.neighbours : null;
   let cv: CvResult | null = null;
@@ -159,6 +210,7 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
     for (const r of rows) if (r.rmse < best.rmse || Number.isNaN(best.rmse)) best = r;
     power = best.power;
     neighbours = best.neighbours;
+    cv = { table: cv.table, best };
     const what = fixedP === null && fixedK === null ? 'power and neighbours' : fixedP === null ? 'power' : fixedK === null ? 'neighbours' : '';
     choice = what
       ? `${what} chosen by leave-one-out cross-validation: lowest RMSE ${fmt(best.rmse)} at power ${power}, ${kName(neighbours)} neighbours`
@@ -167,17 +219,24 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
     choice = n < 3 ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)` : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
     if (n < 3) warnings.push({ code: 'surface.few-samples', message: `${label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`, field: label });
   }
-  const values = idwSurface(pts.xy, pts.z, grid, { power, neighbours, radius: opts.radius, minNeighbours: opts.minNeighbours });
-  let empty = 0;
-  for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0 && Number.isNaN(values[i])) empty++;
-  if (empty) {
-    warnings.push({
-      code: 'surface.cells-empty',
-      message: `${label}: ${empty} field cell${empty > 1 ? 's have' : ' has'} fewer than ${opts.minNeighbours ?? 1} sample${(opts.minNeighbours ?? 1) > 1 ? 's' : ''} within the ${opts.radius} m search radius and no value. Fix: use a larger radius (--radius) or fewer minimum neighbours.`,
-      field: label,
-    });
+  return { cv, power, neighbours, choice };
+}
+
+/** Zone-composite samples: each zone painted with its (averaged) sample value. */
+function zoneValues(pts: NutrientPoints, zones: SampleZones, grid: Grid, label: string): { values: Float64Array; warnings: Warning[] } {
+  const warnings: Warning[] = [];
+  const byKey = new Map<string, number[]>();
+  pts.zone.forEach((k, i) => { if (k !== null) { const a = byKey.get(k); if (a) a.push(pts.z[i]); else byKey.set(k, [pts.z[i]]); } });
+  for (const [k, vs] of byKey) {
+    if (!zones.keys.includes(k)) warnings.push({ code: 'surface.zone-unknown', message: `${label}: samples keyed to zone "${k}" match no zone polygon and are not used.`, where: k, field: label });
+    if (vs.length > 1) warnings.push({ code: 'surface.zone-several', message: `${label}: zone "${k}" has ${vs.length} samples (${vs.join(', ')}); their average is used.`, where: k, field: label });
   }
-  return { ...base, cv, values, method: 'idw', power, neighbours, choice };
+  const zs = zones.keys.map((key, i) => {
+    const vs = byKey.get(key);
+    return { key, parts: zones.parts[i], value: vs ? vs.reduce((a, b) => a + b, 0) / vs.length : NaN };
+  });
+  const r = zoneSurface(grid, zs, label);
+  return { values: r.values, warnings: [...warnings, ...r.warnings] };
 }
 
 /** "all" for Infinity, else the count. */
