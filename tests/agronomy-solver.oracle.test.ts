@@ -12,6 +12,7 @@ const mk = (key: string, placement: 'seed_row' | 'side_band', f: [number, number
   key, product: key, label: key, placement,
   frac: { n: f[0], p2o5: f[1], k2o: f[2], s: f[3] },
   eff: { n: 1, p2o5: 1, k2o: 1, s: 1 },
+  nCounts: true,
   pricePerLb: price, minLb, maxLb: 100, stepLb: 10, step: 10, min: minLb, max: 100,
 });
 
@@ -55,7 +56,7 @@ describe('product solver vs brute force', () => {
             mk('urea', 'side_band', [0.46, 0, 0, 0], c.prices[1], c.mins[1]),
             mk('as', 'side_band', [0.21, 0, 0, 0.24], c.prices[2], c.mins[2]),
           ];
-          const lim: SeedRowLimits = { sbu: 10, texture: 'medium', n: c.limN, nSource: 'test', p2o5: c.limP, p2o5K2o: c.limP, k2o: 0, notes: [] };
+          const lim: SeedRowLimits = { sbu: 10, texture: 'medium', n: c.limN, nSource: 'test', p2o5: c.limP, p2o5K2o: c.limP, k2o: 0, pSource: 'test', kSource: 'test', nK2o: Infinity, kAlone: false, notes: [] };
           const target = { n: c.n, p2o5: c.p, k2o: 0, s: c.s };
           let best = Infinity;
           for (let a = 0; a <= 100; a += 10) for (let b = 0; b <= 100; b += 10) for (let d = 0; d <= 100; d += 10) {

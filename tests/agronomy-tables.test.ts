@@ -17,7 +17,7 @@ describe('default tables', () => {
   it('every entry carries a source marked as in agronomy.md', () => {
     let entries = 0;
     walk(DEFAULT_TABLES, '', (path, node) => {
-      const holdsValue = 'value' in node || 'safe_n' in node || 'missing' in node || 'response_probability' in node || 'p2o5' in node && 'label' in node || 'n' in node && 'k2o' in node && 'form' in node;
+      const holdsValue = 'value' in node || 'rule' in node || 'safe_n' in node || 'missing' in node || 'response_probability' in node || 'p2o5' in node && 'label' in node || 'n' in node && 'k2o' in node && 'form' in node;
       const isEff = path.startsWith('placement_efficiency.') && path.split('.').length === 2;
       if (!holdsValue && !isEff) return;
       entries++;
@@ -34,13 +34,32 @@ describe('default tables', () => {
     expect([t.products.map!.n, t.products.map!.p2o5]).toEqual([11, 52]);
     expect([t.products.ammonium_sulphate!.n, t.products.ammonium_sulphate!.s]).toEqual([21, 24]);
     expect(t.products.potash!.k2o).toBe(60);
-    // [published] Manitoba Agriculture, Safe Rates of Seed-Placed Phosphorus: cereals 50, canola 20, peas 20
-    expect(t.crops.wheat!.seed_row_p2o5_max.value).toBe(50);
-    expect(t.crops.canola!.seed_row_p2o5_max.value).toBe(20);
-    expect(t.crops.peas!.seed_row_p2o5_max.value).toBe(20);
-    // the gaps are marked missing, never filled with an invented number
-    expect('missing' in t.seed_row_n.canola!.medium).toBe(true);
+    // [published] Manitoba Agriculture, Safe Rates of Seed-Placed Phosphorus (as MAP, 1 in spread, 6-7 in rows):
+    // cereals 50, canola 20, peas 20; Saskatchewan alongside: 50, 25, 15
+    expect(['wheat', 'canola', 'peas'].map((c) => t.crops[c]!.seed_row_p2o5.manitoba.value)).toEqual([50, 20, 20]);
+    expect(['wheat', 'canola', 'peas'].map((c) => t.crops[c]!.seed_row_p2o5.saskatchewan.value)).toEqual([50, 25, 15]);
+    expect(t.crops.canola!.seed_row_p2o5.manitoba).toMatchObject({ spread_in: 1 });
+    // the P2O5 limit is stated as MAP: MAP's N is within it, urea-type N counts against the urea-N table
+    expect(t.products.map!.seed_row_n).toBe('within_p_limit');
+    for (const k of ['urea', 'ammonium_sulphate', 'uan', 'ammonium_thiosulphate']) expect(t.products[k]!.seed_row_n).toBe('counts');
+    // [published] Alberta Agriculture potassium guide (older edition): canola and peas 15 lb K2O alone; cereals N + K2O 40
+    expect([t.crops.canola!.seed_row_k2o_max.value, t.crops.canola!.seed_row_k2o_alone.value]).toEqual([15, true]);
+    expect(t.crops.wheat!.seed_row_n_k2o_max.value).toBe(40);
+    // [published] Manitoba Agriculture, Seed-Placed Nitrogen Fertilizer: A Second Opinion Please, Table 1:
+    // canola medium soil, 1 in spread, 0 on 6 and 9 in rows; the cells not found are null (asked, never invented)
+    const med = t.seed_row_n.canola!.medium;
+    expect('missing' in med).toBe(false);
+    if (!('missing' in med)) {
+      expect(med.safe_n[0]!.slice(0, 2)).toEqual([0, 0]);
+      expect(med.safe_n.flat().filter((v) => v === null).length).toBe(7);
+    }
     expect('missing' in t.seed_row_n.canola!.heavy).toBe(true);
+    // [published] Manitoba Agriculture, Fertilizer Recommendation Guidelines Based on Soil Tests: 8 lb/ac mineralizes
+    // between fall sampling and spring; Canola Digest 2018: spring band about 20 % above spring broadcast (100)
+    expect(t.soil.spring_mineralization_lb.value).toBe(8);
+    const eff = t.n_relative_efficiency;
+    expect(['spring', 'fall'].map((x) => eff[x as 'spring'].broadcast)).toMatchObject([{ value: 100 }, { missing: true }]);
+    expect(eff.spring.band).toMatchObject({ value: 120 });
   });
 
   it('a user file overrides one entry and adds a product; the rest stays default', () => {

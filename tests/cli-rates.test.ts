@@ -26,10 +26,15 @@ describe('tilth plan / rates / tables', () => {
     expect(d.status).toBe('ok');
     expect(d.texture).toBe('light');
     // canola, light soil, 1 in spread on 10 in rows = SBU 10 %: [published] Manitoba Agriculture, Seed-Placed
-    // Nitrogen Fertilizer: 0 lb N at 1 in / 6-12 in rows, so nothing carrying N goes with the seed
+    // Nitrogen Fertilizer: 0 lb urea-N at 1 in / 6-12 in rows, so no urea or ammonium sulphate with the seed;
+    // MAP goes with the seed within its P2O5-as-MAP limit ([published] Manitoba Agriculture, Safe Rates of Seed-Placed
+    // Phosphorus: 20 lb P2O5 at 1 in on 6-7 in rows, lowered to 20 x 7/10 = 14 on 10 in rows)
     expect(d.seedRow.n).toBe(0);
-    expect(d.seedRow.applied.n).toBe(0);
-    expect(d.binding.join()).toContain('seed-row N limit 0 lb/ac');
+    expect(d.seedRow.applied.nCounted).toBe(0);
+    expect(d.seedRow.p2o5).toBeCloseTo(14, 9);
+    expect(d.seedRow.applied.p2o5).toBeGreaterThan(10);
+    expect(d.seedRow.applied.p2o5).toBeLessThanOrEqual(14);
+    expect(d.placements.find((p: { placement: string }) => p.placement === 'seed_row').products.map((q: { product: string }) => q.product)).toEqual(['map']);
   });
 
   it('tables prints editable YAML that --tables reads back', () => {
