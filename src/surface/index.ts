@@ -4,7 +4,7 @@
  */
 export { fieldGrid, gridWarnings, centreMask, coverage, MAX_CELLS, type FieldGridOptions } from './grid.js';
 export { idwSurface, COINCIDENT_D2, type IdwOptions, type GridShape } from './idw.js';
-export { buildBuckets, KnnGroup, bruteKnn, type Buckets } from './knn.js';
+export { buildBuckets, KnnGroup, type Buckets } from './knn.js';
 export { crossValidate, pickBest, DEFAULT_POWERS, DEFAULT_NEIGHBOURS, type CvRow, type CvResult, type CvOptions } from './crossValidate.js';
 export { nutrientPoints, SAME_PLACE_M, type NutrientPoints } from './prepare.js';
 export { zoneSurface } from './zoneSurface.js';

@@ -8,7 +8,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { decide, defaultTables, sbuPct, validatePlan, PLACEMENTS, type Decision, type Plan } from '../src/agronomy/index.js';
+import { decide, defaultTables, sbuPct, validatePlan, PLACEMENTS, type Decision, type Plan } from '../../src/agronomy/index.js';
 
 const T = defaultTables();
 const crops = Object.keys(T.crops);

@@ -2,14 +2,14 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { crc32 as nodeCrc32, inflateSync } from 'node:zlib';
 import { booleanPointInPolygon, polygon, point } from '@turf/turf';
-import { renderReport, serializeReportInput, parseReportInput } from '../src/report/index.js';
-import { esc, fmt } from '../src/report/escape.js';
-import { encodeIndexedPng, crc32 } from '../src/report/png.js';
-import { niceLength, makeFrame } from '../src/report/frame.js';
-import { breakLabels, classify, dilateClasses, labelPoint } from '../src/report/maps.js';
-import { M_PER_FT } from '../src/units/index.js';
-import { demoInput, demoInputAt } from './helpers/report-fixture.js';
-import { isUserError } from '../src/errors.js';
+import { renderReport, serializeReportInput, parseReportInput } from '../../src/report/index.js';
+import { esc, fmt } from '../../src/report/escape.js';
+import { encodeIndexedPng, crc32 } from '../../src/report/png.js';
+import { niceLength, makeFrame } from '../../src/report/frame.js';
+import { breakLabels, classify, dilateClasses, labelPoint } from '../../src/report/maps.js';
+import { M_PER_FT } from '../../src/units/index.js';
+import { demoInput, demoInputAt } from '../helpers/report-fixture.js';
+import { isUserError } from '../../src/errors.js';
 
 const EVIL = '<script>alert(1)</script>';
 const ATTR = '" onmouseover="alert(2)" x="';
@@ -250,8 +250,8 @@ describe('report-data.json', () => {
 
 describe('north arrow', () => {
   it('points to true north: meridian convergence matches atan(tan(dlon) sin(lat)) within 0.02° (Snyder 1987, USGS PP 1395, transverse Mercator)', async () => {
-    const { trueNorthOnGrid } = await import('../src/report/north.js');
-    const { projector, utmZoneFor } = await import('../src/geo/utm.js');
+    const { trueNorthOnGrid } = await import('../../src/report/north.js');
+    const { projector, utmZoneFor } = await import('../../src/geo/utm.js');
     fc.assert(fc.property(fc.double({ min: -2.9, max: 2.9, noNaN: true }), fc.double({ min: 30, max: 60, noNaN: true }), fc.boolean(), (dlon, alat, south) => {
       const lat = south ? -alat : alat;
       const lon = -105 + dlon; // zone 13, central meridian 105° W
@@ -312,7 +312,7 @@ describe('other shapes of input', () => {
 
 describe('base64 (RFC 4648)', () => {
   it('agrees with the web platform btoa over a binary string, and round-trips', async () => {
-    const { base64, fromBase64 } = await import('../src/report/png.js');
+    const { base64, fromBase64 } = await import('../../src/report/png.js');
     // source: btoa (WHATWG HTML, forgiving-base64 encode), an independent encoder
     for (const n of [0, 1, 2, 3, 4, 5, 1000, 70_001]) {
       const bytes = new Uint8Array(n).map((_, i) => (i * 7919 + n) & 255);

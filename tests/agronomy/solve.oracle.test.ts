@@ -5,7 +5,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { solveProducts, type ProductOption, type SeedRowLimits } from '../src/agronomy/index.js';
+import { solveProducts, type ProductOption, type SeedRowLimits } from '../../src/agronomy/index.js';
 
 const PENALTY = 1000; // same as the solver's shortfall penalty ($ per lb short)
 const mk = (key: string, placement: 'seed_row' | 'side_band', f: [number, number, number, number], price: number, minLb: number): ProductOption => ({

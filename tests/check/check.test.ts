@@ -11,14 +11,13 @@ import fc from 'fast-check';
 import { zipSync } from 'fflate';
 import geodesic from 'geographiclib-geodesic';
 import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
-import { tilth } from './helpers/cli.js';
-import { writeShapefile, prescriptionFiles, type ColumnSpec } from '../src/io/shapefile/index.js';
-import { hullExtent } from '../src/check/shape.js';
-import { checkPrescription, type CheckReport } from '../src/check/index.js';
-import { loadLayer } from '../src/cli/check.js';
-import { isUserError } from '../src/errors.js';
+import { writeShapefile, prescriptionFiles, type ColumnSpec } from '../../src/io/shapefile/index.js';
+import { hullExtent } from '../../src/check/shape.js';
+import { checkPrescription, type CheckReport } from '../../src/check/index.js';
+import { loadLayer } from '../../src/cli/check.js';
+import { isUserError } from '../../src/errors.js';
 
-const FIX = join(import.meta.dirname, 'fixtures', 'check');
+const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
 const fx = (n: string) => join(FIX, n);
 const BOUNDARY = fx('boundary.geojson');
 const good = JSON.parse(readFileSync(fx('good.geojson'), 'utf8')) as FeatureCollection<Polygon | MultiPolygon>;
@@ -40,12 +39,8 @@ function save(files: Record<string, Uint8Array>, sub: string): string {
   for (const [k, v] of Object.entries(files)) writeFileSync(join(d, k), v);
   return d;
 }
-function json(args: string[]): { code: number; report: CheckReport; stderr: string } {
-  const r = tilth(['check', ...args, '--json']);
-  return { code: r.code, report: r.stdout ? (JSON.parse(r.stdout) as CheckReport) : (undefined as unknown as CheckReport), stderr: r.stderr };
-}
 /**
- * The same as `json` but in this process (spawning the CLI costs seconds on a shared machine): reads the
+ * `tilth check ARGS --json`, but in this process (spawning the CLI costs seconds on a shared machine): reads the
  * files the way the command does (src/cli/check.ts loadLayer) and runs the library. Exit 0/1/2 as the CLI.
  */
 async function lib(args: string[]): Promise<{ code: number; report: CheckReport; stderr: string }> {
@@ -117,23 +112,7 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(urea.areaAc).toBeCloseTo(acres.reduce((s, a) => s + a, 0), 2);
   });
 
-  it('text output: one line per check, exit 0', async () => {
-    const r = tilth(['check', fx('good.geojson'), '--boundary', BOUNDARY]);
-    expect(r.code).toBe(0);
-    expect(r.stdout).toMatch(/^PASS {2}overlap/m);
-    expect(r.stdout).toMatch(/^SKIP {2}zone_size/m);
-    expect(r.stdout).toMatch(/result: nothing failed/);
-  });
 
-  it('fails overlapping zones, naming both (overlap 400 m x 50 m by construction)', async () => {
-    const { code, report } = json([fx('overlap.geojson'), '--boundary', BOUNDARY]);
-    expect(code).toBe(1);
-    const [l] = line(report, 'overlap');
-    expect(l.status).toBe('fail');
-    expect(l.zones.sort()).toEqual(['zone 2', 'zone 3']);
-    const a = Number(/\(([\d.]+) m2\)/.exec(l.message)![1]);
-    expect(Math.abs(a - 20000 / K2) / (20000 / K2)).toBeLessThan(1e-3);
-  });
 
   it('fails a gap inside the boundary, naming the zones beside it (400 m x 50 m by construction)', async () => {
     const { code, report } = await lib([fx('gap.geojson'), '--boundary', BOUNDARY]);
@@ -162,12 +141,6 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(l.zones).toEqual(['zone 4']);
   });
 
-  it('refuses a rate written as text, naming the zone and the value (exit 2)', async () => {
-    const r = tilth(['check', fx('bad-rate-text.geojson')]);
-    expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/zone 3, column "urea_lbac": "95 lb"/);
-    expect(r.stderr).not.toMatch(/at .*\.ts:/); // no stack
-  });
 
   it("fails rates outside the machine's range, naming the zones; 0 (off) passes", async () => {
     const { code, report } = await lib([fx('good.geojson'), '--rate-field', 'urea_lbac', '--min', '100', '--max', '150']);
@@ -222,17 +195,6 @@ describe("tilth check on tilth's own shapefile outputs", () => {
 describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing written)', () => {
   const set = () => writeShapefile(good.features, COLS, { name: 'rx' });
 
-  it('missing .prj: warns and reads WGS 84; --strict refuses', async () => {
-    const d = save(set(), 'noprj');
-    unlinkSync(join(d, 'rx.prj'));
-    const { code, report } = await lib([join(d, 'rx.shp')]);
-    expect(code).toBe(0);
-    expect(line(report, 'crs')[0].status).toBe('warn');
-    const r = tilth(['check', join(d, 'rx.shp'), '--strict']);
-    expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/rx\.shp: has no coordinate system \(no \.prj/);
-  });
-
   it('truncated .shp', async () => {
     const f = set();
     f['rx.shp'] = f['rx.shp'].subarray(0, f['rx.shp'].length - 40);
@@ -265,15 +227,6 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
     expect(r.stderr).toMatch(/rx\.zip: holds no \.shp .*entries: rx\.dbf, rx\.prj/);
   });
 
-  it('zip whose entry escapes the folder (zip slip): refused, nothing written', async () => {
-    const f = set();
-    const d = save({ 'rx.zip': zipSync({ '../evil.shp': f['rx.shp'], '../evil.dbf': f['rx.dbf'], 'rx.shp': f['rx.shp'] }) }, 'slip/inner');
-    const r = tilth(['check', join(d, 'rx.zip')], { cwd: d });
-    expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/entry "\.\.\/evil\.shp" points outside the folder/);
-    expect(existsSync(join(dir, 'slip', 'evil.shp'))).toBe(false);
-    expect(existsSync(join(d, 'evil.shp'))).toBe(false);
-  });
 
   it('a UTM shapefile against a lon/lat boundary, and a .shp without .shx and .cpg', async () => {
     const f = writeShapefile(good.features, COLS, { name: 'rx', crs: 'utm' });
@@ -289,8 +242,8 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
 describe('checkPrescription (library)', () => {
   it('overlay survives edges split into many nearly collinear points after a projection round trip', async () => {
     // regression: polyclip-ts (exact arithmetic) failed on the nanometre noise of UTM -> lon/lat -> UTM
-    const { checkPrescription, layerFromGeoJSON } = await import('../src/check/index.js');
-    const { projector, utmZoneFor } = await import('../src/geo/utm.js');
+    const { checkPrescription, layerFromGeoJSON } = await import('../../src/check/index.js');
+    const { projector, utmZoneFor } = await import('../../src/geo/utm.js');
     const p = projector(utmZoneFor(-105, 52));
     const feats = [];
     for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) {

@@ -11,10 +11,10 @@ import { mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync, existsSync
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium, type Browser, type Page } from 'playwright-core';
-import { parseReportInput, renderReport, type ReportInput } from '../src/report/index.js';
-import { requireTool } from './helpers/tools.js';
-import { ROOT, tilth } from './helpers/cli.js';
-import { demoInput } from './helpers/report-fixture.js';
+import { parseReportInput, renderReport, type ReportInput } from '../../src/report/index.js';
+import { requireTool } from '../helpers/tools.js';
+import { ROOT, tilth } from '../helpers/cli.js';
+import { demoInput } from '../helpers/report-fixture.js';
 
 const CHROMIUM = '/usr/bin/chromium';
 const ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];

@@ -1,8 +1,8 @@
 import { spawnSync } from 'node:child_process';
 import { describe as suite, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { describe } from '../src/stats/describe.js';
-import { requireTool } from './helpers/tools.js';
+import { describe } from '../../src/stats/describe.js';
+import { requireTool } from '../helpers/tools.js';
 
 suite('describe', () => {
   it('textbook example: 2 4 4 4 5 5 7 9', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { defaultTables, parsePlan, planTemplate } from '../src/agronomy/index.js';
-import { isUserError } from '../src/errors.js';
+import { defaultTables, parsePlan, planTemplate } from '../../src/agronomy/index.js';
+import { isUserError } from '../../src/errors.js';
 
 const tables = defaultTables();
 const MIN = 'crop: canola\ntarget_yield_bu: 50\nproducts:\n  - product: map\n';

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parse } from 'yaml';
-import { tilth } from './helpers/cli.js';
+import { tilth } from '../helpers/cli.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'tilth-rates-'));
 

@@ -2,13 +2,13 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { parseCsv, readCsvRecords } from '../src/io/csv.js';
-import { classifyHeader, parseColumnMap } from '../src/io/columns.js';
-import { readGeoJsonPoints, readGeoJsonPolygons } from '../src/io/geojson.js';
-import { parseLabValue } from '../src/validate/values.js';
-import { buildSamples, parseDepth } from '../src/validate/samples.js';
-import { isUserError } from '../src/errors.js';
-import { ROOT } from './helpers/cli.js';
+import { parseCsv, readCsvRecords } from '../../src/io/csv.js';
+import { classifyHeader, parseColumnMap } from '../../src/io/columns.js';
+import { readGeoJsonPoints, readGeoJsonPolygons } from '../../src/io/geojson.js';
+import { parseLabValue } from '../../src/validate/values.js';
+import { buildSamples, parseDepth } from '../../src/validate/samples.js';
+import { isUserError } from '../../src/errors.js';
+import { ROOT } from '../helpers/cli.js';
 
 const read = (f: string) => readFileSync(join(ROOT, f), 'utf8');
 const userError = (f: () => unknown, re: RegExp) => {

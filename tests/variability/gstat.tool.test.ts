@@ -8,9 +8,9 @@ import { readFileSync, mkdtempSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
 import { spawnSync } from 'node:child_process';
-import { semivariogram, fitModel, modelAt, type ModelKind, type FitMethod } from '../src/variability/index.js';
-import { requireTool } from './helpers/tools.js';
-import { ROOT } from './helpers/cli.js';
+import { semivariogram, fitModel, modelAt, type ModelKind, type FitMethod } from '../../src/variability/index.js';
+import { requireTool } from '../helpers/tools.js';
+import { ROOT } from '../helpers/cli.js';
 
 const FIX = join(ROOT, 'tests', 'fixtures', 'gstat');
 const KIND: Record<string, ModelKind> = { Sph: 'spherical', Exp: 'exponential', Gau: 'gaussian' };

@@ -2,9 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { copyFileSync, existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { tilth } from './helpers/cli.js';
-import { DEMO_INPUT_PATH } from './helpers/report-fixture.js';
-import { inputsHash } from '../src/cli/report.js';
+import { tilth } from '../helpers/cli.js';
+import { DEMO_INPUT_PATH } from '../helpers/report-fixture.js';
+import { inputsHash } from '../../src/cli/report.js';
 
 function buildDir(): string {
   const d = mkdtempSync(join(tmpdir(), 'tilth-report-'));

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { classColours, QUALITATIVE, rampRgb, textOn, type RampName } from '../src/report/colour.js';
+import { classColours, QUALITATIVE, rampRgb, textOn, type RampName } from '../../src/report/colour.js';
 
 /** CIE 1976 L* of an sRGB colour (sRGB transfer function IEC 61966-2-1; L* from CIE 15:2004). */
 function lightness(hex: string): number {

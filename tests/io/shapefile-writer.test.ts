@@ -13,12 +13,12 @@ import { read as readShp } from 'shapefile';
 import { unzipSync } from 'fflate';
 import geodesic from 'geographiclib-geodesic';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
-import { writeShapefile, encodeDbf, shortFieldNames, shortFileNames, prjText, parseCrs, prescriptionFiles, type ColumnSpec } from '../src/io/shapefile/index.js';
-import { zipFiles, readZip, isSafeEntryName } from '../src/io/zip.js';
-import { utmZoneFor } from '../src/geo/utm.js';
-import { requireTool } from './helpers/tools.js';
+import { writeShapefile, encodeDbf, shortFieldNames, shortFileNames, prjText, parseCrs, prescriptionFiles, type ColumnSpec } from '../../src/io/shapefile/index.js';
+import { zipFiles, readZip, isSafeEntryName } from '../../src/io/zip.js';
+import { utmZoneFor } from '../../src/geo/utm.js';
+import { requireTool } from '../helpers/tools.js';
 
-const FIX = join(import.meta.dirname, 'fixtures', 'check');
+const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
 const good = JSON.parse(readFileSync(join(FIX, 'good.geojson'), 'utf8')) as FeatureCollection<Polygon | MultiPolygon>;
 const DATE = new Date(Date.UTC(2026, 3, 1));
 const COLS: ColumnSpec[] = [

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import geodesic from 'geographiclib-geodesic';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { tilth, ROOT } from './helpers/cli.js';
+import { tilth, ROOT } from '../helpers/cli.js';
 
 const Q = 'sample-fields/quarter', Z = 'sample-fields/zoned', BAD = 'tests/fixtures/bad';
 const noStack = (s: string) => expect(s).not.toMatch(/\n\s+at .+:\d+:\d+|internal error/);

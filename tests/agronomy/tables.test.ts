@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { defaultTables, loadTables, tablesToYaml } from '../src/agronomy/index.js';
-import { DEFAULT_TABLES } from '../src/agronomy/tables/defaults.js';
-import { isUserError } from '../src/errors.js';
+import { defaultTables, loadTables, tablesToYaml } from '../../src/agronomy/index.js';
+import { DEFAULT_TABLES } from '../../src/agronomy/tables/defaults.js';
+import { isUserError } from '../../src/errors.js';
 
 /** Every object in the tree that holds a value (value, safe_n, analysis, class) must carry a marked source. */
 function walk(o: unknown, path: string, visit: (path: string, node: Record<string, unknown>) => void): void {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { createTerminal, type TermStream } from '../src/cli/progress.js';
+import { createTerminal, type TermStream } from '../../src/cli/progress.js';
 
 function fake(isTTY: boolean): TermStream & { text: string } {
   const s = { text: '', isTTY, columns: 100, write(t: string) { s.text += t; return true; } };

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { kinks, polygon } from '@turf/turf';
-import { findCrossing } from '../src/validate/crossings.js';
-import { prepareInputs } from '../src/validate/inputs.js';
-import { isUserError } from '../src/errors.js';
+import { findCrossing } from '../../src/validate/crossings.js';
+import { prepareInputs } from '../../src/validate/inputs.js';
+import { isUserError } from '../../src/errors.js';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { ROOT } from './helpers/cli.js';
+import { ROOT } from '../helpers/cli.js';
 
 const file = (name: string, t: string) => ({ name, bytes: new TextEncoder().encode(t) });
 const Q = (f: string) => file(f, readFileSync(join(ROOT, 'sample-fields/quarter', f), 'utf8'));

@@ -9,9 +9,9 @@ import {
   semivariogram, lagIndex, fitModel, fitModels, modelAt, unitVariogram, effectiveRange, spatialDependence,
   areaShareBelow, sampleShareBelow, samplingAdvice, medianNearest, analyzeVariability, semivariogramSvg,
   sampleMapSvg, niceTicks, defaultThreshold, type ModelKind,
-} from '../src/variability/index.js';
-import { describe as describeStats } from '../src/stats/describe.js';
-import type { Analyte, Field, Samples } from '../src/types.js';
+} from '../../src/variability/index.js';
+import { describe as describeStats } from '../../src/stats/describe.js';
+import type { Analyte, Field, Samples } from '../../src/types.js';
 
 /** Oracle: each pair tested against every lag interval (j w, (j+1) w], zero distance in lag 0, d > cutoff dropped. */
 function oracle(xy: number[], z: number[], cutoff: number, width: number) {
@@ -258,7 +258,7 @@ describe('analyzeVariability on sulphate-S', () => {
 
 describe('text and map with a surface', () => {
   it('the text names the dependence class with its source, the sampling verdict and the S statements', async () => {
-    const { variabilityText } = await import('../src/variability/index.js');
+    const { variabilityText } = await import('../../src/variability/index.js');
     const { samples, field } = syntheticField();
     const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
     const t = variabilityText(r);
@@ -306,9 +306,9 @@ describe('thresholds', () => {
 
 describe('report charts', () => {
   it('the report embeds the variability charts (the same SVG) with captions carrying the findings', async () => {
-    const { variabilityReportCharts } = await import('../src/variability/index.js');
-    const { renderReport } = await import('../src/report/index.js');
-    const { demoInput } = await import('./helpers/report-fixture.js');
+    const { variabilityReportCharts } = await import('../../src/variability/index.js');
+    const { renderReport } = await import('../../src/report/index.js');
+    const { demoInput } = await import('../helpers/report-fixture.js');
     const { samples, field } = syntheticField();
     const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
     const charts = variabilityReportCharts(r, samples, field);

@@ -4,9 +4,9 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import geodesic from 'geographiclib-geodesic';
 import { area as turfArea } from '@turf/turf';
-import { projectField } from '../src/geo/field.js';
-import { projector, utmZoneFor } from '../src/geo/utm.js';
-import { ROOT } from './helpers/cli.js';
+import { projectField } from '../../src/geo/field.js';
+import { projector, utmZoneFor } from '../../src/geo/utm.js';
+import { ROOT } from '../helpers/cli.js';
 
 const geod = geodesic.Geodesic.WGS84;
 

@@ -1,11 +1,11 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { readShapefile, parsePrj, shapefileFromZip, shapefilePoints, shapefilePolygons, encodingFromCpg } from '../src/io/shapefile.js';
-import { readGeoJsonPoints, readGeoJsonPolygons } from '../src/io/geojson.js';
-import { buildSamples } from '../src/validate/samples.js';
-import { isUserError } from '../src/errors.js';
-import { ROOT } from './helpers/cli.js';
+import { readShapefile, parsePrj, shapefileFromZip, shapefilePoints, shapefilePolygons, encodingFromCpg } from '../../src/io/shapefile.js';
+import { readGeoJsonPoints, readGeoJsonPolygons } from '../../src/io/geojson.js';
+import { buildSamples } from '../../src/validate/samples.js';
+import { isUserError } from '../../src/errors.js';
+import { ROOT } from '../helpers/cli.js';
 
 // Fixtures made by tests/fixtures/make-fixtures.sh with GDAL 3.6.2 ogr2ogr (the outside writer).
 const F = (f: string) => join(ROOT, 'tests/fixtures', f);

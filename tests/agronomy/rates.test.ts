@@ -2,9 +2,9 @@ import { describe, expect, it } from 'vitest';
 import {
   decide, defaultTables, interpolateSbu, loadTables, parseSoilSpec, pClass, sbuPct, sbuPoints, seedRowLimits, validatePlan,
   type PlanInput, type Tables,
-} from '../src/agronomy/index.js';
-import { isUserError } from '../src/errors.js';
-import { LBAC_TO_KGHA, ppmToLbac } from '../src/units/index.js';
+} from '../../src/agronomy/index.js';
+import { isUserError } from '../../src/errors.js';
+import { LBAC_TO_KGHA, ppmToLbac } from '../../src/units/index.js';
 
 const T = defaultTables();
 const SOIL = { no3_n: 25, p: 8, k: 140, so4_s: 12, om: 4 };

@@ -4,8 +4,8 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
 import { spawnSync } from 'node:child_process';
-import { ROOT, tilth } from './helpers/cli.js';
-import { requireTool } from './helpers/tools.js';
+import { ROOT, tilth } from '../helpers/cli.js';
+import { requireTool } from '../helpers/tools.js';
 
 describe('tilth variability', () => {
   it('--help shows an example and the caution', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { tilth } from './helpers/cli.js';
+import { tilth } from '../helpers/cli.js';
 
 // The guide's rule: every command has --help with an example; the top-level help shows the cautions.
 const COMMANDS = ['inspect', 'surface', 'plan', 'rates', 'tables', 'build', 'check', 'report', 'variability'];

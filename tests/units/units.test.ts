@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import * as u from '../src/units/index.js';
+import * as u from '../../src/units/index.js';
 
 describe('units (values from ../shared/reference/agronomy.md)', () => {
   it('P to P2O5 and K to K2O from IUPAC atomic weights', () => {
@@ -50,7 +50,7 @@ describe('units (values from ../shared/reference/agronomy.md)', () => {
 
 describe('library entry', () => {
   it('src/index.ts exports the pipeline (what dist/index.js bundles)', async () => {
-    const lib = await import('../src/index.js');
+    const lib = await import('../../src/index.js');
     for (const name of ['prepareInputs', 'buildPrescription', 'decide', 'parsePlan', 'nutrientSurface', 'makeZones', 'writeShapefile', 'checkPrescription', 'renderReport']) {
       expect(typeof (lib as Record<string, unknown>)[name], name).toBe('function');
     }
