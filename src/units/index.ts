@@ -69,3 +69,8 @@ export const rateIn = (lbac: number, unit: RateUnit): number => (unit === 'kg/ha
 /** Metres per international foot, exact by definition [published] international yard and pound agreement (1959). */
 export const M_PER_FT = 0.3048;
 export const mToFt = (m: number): number => m / M_PER_FT;
+
+/** Metres per international mile (5280 ft), exact by definition [published] international yard and pound agreement (1959). */
+export const M_PER_MI = 1609.344;
+/** Miles per hour to metres per second. */
+export const mphToMs = (mph: number): number => (mph * M_PER_MI) / 3600;
