@@ -41,7 +41,21 @@ export interface Samples {
   pMethod: PMethod;
   /** where each sample came from, for messages: "samples.csv rows 4-5" */
   origin: string[];
+  /**
+   * Soil values read and shown but used for no rate unless a plan says so, when the file has them (0-6 in):
+   * `ec` soluble salts in dS/m (as the lab measured it, method in `ecMethod`), `carbonate` % CaCO3 equivalent.
+   */
+  extra?: Partial<Record<ExtraValue, Float64Array>>;
+  /** the EC extraction as the header named it ("saturated paste", "1:2 water"), else null */
+  ecMethod?: string | null;
+  /** free lime rating as the lab wrote it, normalised: none, low, medium, high; null where not given */
+  limeRating?: (LimeRating | null)[];
 }
+
+/** Soil values beyond the analytes: soluble salts (EC, dS/m) and carbonate / free lime (% CaCO3 equivalent). */
+export type ExtraValue = 'ec' | 'carbonate';
+export const EXTRA_VALUES: readonly ExtraValue[] = ['ec', 'carbonate'];
+export type LimeRating = 'none' | 'low' | 'medium' | 'high';
 
 /** One polygon part of a boundary: exterior ring and holes, each a closed ring x0 y0 ... xn yn (first == last). */
 export interface RingsPart {
@@ -110,4 +124,22 @@ export interface FieldInputs {
   /** present when samples are zone composites */
   zones: SampleZones | null;
   warnings: Warning[];
+  /** how the samples file's columns were read (shown by `tilth inspect` and `--verbose`) */
+  reading?: ColumnReading[];
+}
+
+/** One column of the samples file as tilth read it. */
+export interface ColumnReading {
+  column: string;
+  /** role (no3_n, p, id, lat ...) or null when the column is not read */
+  role: string | null;
+  unit: string | null;
+  /** depth as used: "0-6 in", "from the depth column", or null */
+  depth: string | null;
+  method: string | null;
+  /** how it was decided: header, header + second row, column map; or why it is not used */
+  how: string;
+  used: boolean;
+  /** cells not read as values (e.g. "n/a", "QNS"), with their rows */
+  refused: { where: string; value: string }[];
 }

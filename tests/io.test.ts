@@ -51,7 +51,7 @@ describe('headers and values', () => {
   it('recognises lab-style headers with units and depths', () => {
     expect(classifyHeader('NO3-N (lb/ac)')).toMatchObject({ role: 'no3_n', unit: 'lbac', depth: null });
     expect(classifyHeader('no3_n_lbac_6_24')).toMatchObject({ role: 'no3_n', unit: 'lbac', depth: [6, 24] });
-    expect(classifyHeader('Sulphate-S 0-15 cm (ppm)')).toMatchObject({ role: 'so4_s', unit: 'ppm', depth: [6 * 0, 6] });
+    expect(classifyHeader('Sulphate-S 0-15 cm (ppm)')).toMatchObject({ role: 'so4_s', unit: 'ppm', depth: [0, 15], depthUnit: 'cm' });
     expect(classifyHeader('P Olsen (ppm)')).toMatchObject({ role: 'p', pMethod: 'olsen' });
     expect(classifyHeader('P (mod. Kelowna) mg/kg')).toMatchObject({ role: 'p', pMethod: 'kelowna', unit: 'ppm' });
     expect(classifyHeader('pH')).toMatchObject({ role: 'ph' });
@@ -84,7 +84,12 @@ describe('headers and values', () => {
   it('column map: keys, units, repeated analyte keys', () => {
     const m = parseColumnMap('id=Site,lat=Y,lon=X,no3_n=N top:lb/ac,no3_n=N sub:lb/ac,p=Phos:ppm');
     expect(m.map((e) => e.role)).toEqual(['id', 'lat', 'lon', 'no3_n', 'no3_n', 'p']);
-    expect(m[3]).toEqual({ role: 'no3_n', name: 'N top', unit: 'lbac' });
+    expect(m[3]).toEqual({ role: 'no3_n', name: 'N top', unit: 'lbac', depth: null });
+    expect(parseColumnMap('ph=pH (1:2)@0-6,latlon="Lat, Lon",no3_n=N sub:ppm@15-60cm')).toEqual([
+      { role: 'ph', name: 'pH (1:2)', unit: null, depth: [0, 6] },
+      { role: 'latlon', name: 'Lat, Lon', unit: null, depth: null },
+      { role: 'no3_n', name: 'N sub', unit: 'ppm', depth: [6, 24] },
+    ]);
     userError(() => parseColumnMap('id=A,id=B'), /given twice/);
     userError(() => parseColumnMap('nitrogen=A'), /KEY one of/);
   });
@@ -141,7 +146,7 @@ describe('samples from the demo farm', () => {
   });
 
   it('nitrate without a unit is refused, negative values are refused', () => {
-    userError(() => buildSamples(readCsvRecords('Sample,Lat,Long,NO3-N 0-24\nA,52.3,-106.4,10\n', 't.csv', [])), /ppm or lb\/ac/);
+    userError(() => buildSamples(readCsvRecords('Sample,Lat,Long,NO3-N 0-24\nA,52.3,-106.4,10\n', 't.csv', [])), /does not say its unit.*--columns "no3_n=NO3-N 0-24:lb\/ac"/);
     userError(() => buildSamples(readCsvRecords('Sample,Lat,Long,K (ppm)\nA,52.3,-106.4,-5\n', 't.csv', [])), /negative/);
   });
 

@@ -55,4 +55,15 @@ describe('library entry', () => {
       expect(typeof (lib as Record<string, unknown>)[name], name).toBe('function');
     }
   });
+  it('ISO 11783-10 rate units (DDI 6 mg/m2, DDI 1 mm3/m2) and the US gallon', () => {
+    // source: SI prefixes: 1 kg/ha = 1e6 mg / 1e4 m2 = 100 mg/m2; 1 L = 1e6 mm3, so 1 L/ha = 100 mm3/m2
+    expect(u.kghaToMgm2(1)).toBe(100);
+    expect(u.lhaToMm3m2(1)).toBe(100);
+    expect(u.mgm2ToKgha(u.kghaToMgm2(37.5))).toBeCloseTo(37.5, 12);
+    // ../shared/reference/formats.md: 1 lb/ac = 112.085 mg/m2
+    expect(u.kghaToMgm2(u.lbacToKgha(1))).toBeCloseTo(112.085, 3);
+    // source: NIST Handbook 44 Appendix C: 1 US gal = 3.785411784 L exactly; 10 US gal/ac = 93.54 L/ha
+    expect(u.lhaToGalac(93.5396)).toBeCloseTo(10, 4);
+    expect(u.kgPerLToMgPerL(1.28)).toBe(1_280_000);
+  });
 });

@@ -69,7 +69,7 @@ describe('tilth variability on the demo quarter (invented data: plumbing, not ag
       const outDir = join(dir, 'charts');
       const r = tilth([...args, '--out', outDir]);
       expect(r.code, r.stderr).toBe(0);
-      expect(readdirSync(outDir).sort()).toEqual(['so4_s-map.svg', 'so4_s-semivariogram.svg', 'variability.json']);
+      expect(readdirSync(outDir).sort()).toEqual(['.tilth-output.json', 'so4_s-map.svg', 'so4_s-semivariogram.svg', 'variability.json']);
       // a second run into the same, now non-empty folder is refused without --force
       expect(tilth([...args, '--out', outDir]).code).toBe(2);
       if (requireTool('chromium', 'chromium')) {

@@ -95,6 +95,12 @@ export const planSchema = z.object({
     crs: z.enum(['wgs84', 'utm']).default('wgs84'),
     /** a zone set whose polygons would need more vertices than this fails with an error; null = no limit */
     max_vertices: z.number().int().positive().nullable().default(null),
+    /** machine files besides prescription.geojson, zones.csv, summary and report (always written) */
+    formats: z.array(z.enum(['shapefile', 'isoxml'])).default(['shapefile', 'isoxml']),
+    /** ISO 11783-10 task data: a type-2 grid of rates instead of zone polygons */
+    isoxml_grid: z.boolean().default(false),
+    /** grid cell, m; null = half the build's grid cell, so every zone holds whole grid cells */
+    isoxml_grid_cell_m: z.number().positive().max(100).nullable().default(null),
   }).strict().prefault({}),
 }).strict();
 

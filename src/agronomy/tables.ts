@@ -62,6 +62,8 @@ const productSchema = z.object({
   k2o: z.number().min(0).max(100),
   s: z.number().min(0).max(100),
   form: z.enum(['granular', 'liquid']),
+  /** liquids: kg per litre, for volume rates (ISO 11783-10 task data writes liquids as volume per area) */
+  density_kg_l: z.object({ value: z.number().positive().max(3), source }).optional(),
   placements: z.array(z.enum(PLACEMENTS)).min(1),
   price_per_tonne: z.number().min(0),
   source,

@@ -122,5 +122,8 @@ output:
   short_names: false
   crs: wgs84                  # wgs84 | utm
   max_vertices: null          # null | a number: stop with an error when a zone set would need more polygon vertices
+  formats: [shapefile, isoxml]  # shapefile | isoxml (ISO 11783-10 TASKDATA); GeoJSON, zones.csv, summary, report always
+  isoxml_grid: false          # true: task data as a grid of rates (GRD type 2) instead of zone polygons
+  isoxml_grid_cell_m: null    # grid cell, m; null = half the build's grid cell
 `;
 }

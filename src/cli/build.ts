@@ -6,6 +6,8 @@ import { buildPrescription } from '../prescription/index.js';
 import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, summaryText, zonesCsv, type Provenance } from '../prescription/outputs.js';
 import { reportInput } from '../prescription/reportInput.js';
 import { prescriptionFiles } from '../io/shapefile/index.js';
+import { zipFiles } from '../io/zip.js';
+import { prescriptionTaskDataFiles } from '../prescription/taskdata.js';
 import { renderReport, serializeReportInput } from '../report/index.js';
 import { inputsHash } from './report.js';
 import { VERSION } from '../version.js';
@@ -26,15 +28,16 @@ export function register(program: Command): void {
     .command('build'))
     .description('Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.')
     .requiredOption('--plan <file>', 'plan file (see `tilth plan init`)')
-    .requiredOption('--out <dir>', 'output folder (created; refused if it exists and is not empty, unless --force)')
+    .requiredOption('--out <dir>', 'output folder (created; an existing one is replaced only with --force and only when empty or written by tilth)')
     .option('--tables <file>', 'your edited agronomy tables (see `tilth tables`)')
     .option('--cell <m>', 'grid cell size in metres (default: about 200 cells across the field, 1-20 m)')
-    .option('--force', 'replace an existing output folder')
+    .option('--force', 'replace an earlier tilth output folder (never one holding other files, an input, the current or home folder)')
     .option('--json', 'print summary.json on stdout for scripts')
     .option('--quiet', 'no progress messages')
-    .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
+    .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json, report.html;\nshapefiles/ and ISO 11783-10 task data (TASKDATA/ and taskdata.zip) as the plan's output.formats asks.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
     .action((o: BuildFlags) => {
-      checkOutputDir(o.out, o.force); // before any work: a long build should not end in "folder not empty"
+      const inputFiles = [o.samples, o.boundary, o.plan, o.zones, o.tables].filter((f): f is string => !!f);
+      checkOutputDir(o.out, { force: o.force, inputs: inputFiles }); // before any work: a long build should not end in a refusal
       const term = createTerminal({ quiet: o.quiet });
       const say = (s: string) => term.line(s);
       const tables = tablesFromOption(o.tables);
@@ -67,8 +70,8 @@ export function register(program: Command): void {
       files.set('zones.csv', zonesCsv(rx));
       const summary = summaryObject(rx, prov);
       files.set('summary.json', JSON.stringify(summary, null, 2) + '\n');
-      say('writing shapefiles ...');
-      for (const set of rx.zoneSets) {
+      if (plan.output.formats.includes('shapefile')) say('writing shapefiles ...');
+      for (const set of plan.output.formats.includes('shapefile') ? rx.zoneSets : []) {
         const fc = shapefileFeatures(rx, set);
         if (fc.features.length === 0) continue;
         const shp = prescriptionFiles(fc, {
@@ -81,6 +84,13 @@ export function register(program: Command): void {
         });
         for (const [name, bytes] of Object.entries(shp.files)) files.set(`shapefiles/${name}`, bytes);
       }
+      if (plan.output.formats.includes('isoxml')) {
+        say('writing ISO 11783-10 task data ...');
+        const td = prescriptionTaskDataFiles(rx, tables, { layout: plan.output.shapefile_layout, grid: plan.output.isoxml_grid, gridCellM: plan.output.isoxml_grid_cell_m ?? undefined });
+        const inFolder = Object.fromEntries(Object.entries(td).map(([n, b]) => [`TASKDATA/${n}`, b]));
+        for (const [n, b] of Object.entries(inFolder)) files.set(n, b);
+        files.set('taskdata.zip', zipFiles(inFolder));
+      }
       say('drawing the report ...');
       // the sulphate-S variability charts (issue 8), from the build's own S surface
       const sSurf = rx.surfaces.find((s) => s.analyte === 'so4_s');
@@ -89,7 +99,7 @@ export function register(program: Command): void {
       const ri = reportInput(rx, inputs, tables, prov, { tablesEdited: !!o.tables, charts });
       files.set('report-data.json', serializeReportInput(ri));
       files.set('report.html', renderReport(ri));
-      writeOutputDir(o.out, files, o.force);
+      writeOutputDir(o.out, files, { force: o.force, inputs: inputFiles });
       if (o.json) out(JSON.stringify(summary, null, 2));
       else out(summaryText(rx));
       printWarnings(rx.warnings);

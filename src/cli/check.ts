@@ -1,8 +1,10 @@
 /** `tilth check FILE`: will this prescription load and apply as meant? (see src/check) */
 import type { Command } from 'commander';
-import { readdirSync } from 'node:fs';
+import { readdirSync, statSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
-import { checkPrescription, readLayer, DEFAULT_TRANSITION_S, type CheckLayer } from '../check/index.js';
+import { checkPrescription, readLayer, DEFAULT_TRANSITION_S, type CheckLayer, type CheckReport } from '../check/index.js';
+import { isTaskDataXml, layersFromTaskDataFiles } from '../check/taskdata.js';
+import { readZip } from '../io/zip.js';
 import { numberOption, out, readInput } from './util.js';
 
 /** Reads FILE and, for a .shp, the files of its set beside it (same base name, any letter case). */
@@ -25,6 +27,33 @@ export async function loadLayer(path: string, what: string): Promise<CheckLayer>
   return readLayer(files, name);
 }
 
+/**
+ * ISO 11783-10 task data: a TASKDATA folder, a TASKDATA.XML (its grid and external files read from beside
+ * it) or a zip holding one: one layer per task and product. Null when `path` is none of these.
+ */
+function loadTaskData(path: string): CheckLayer[] | null {
+  let dir: string | null = null;
+  try {
+    if (statSync(path).isDirectory()) dir = path;
+  } catch {
+    /* readInput below names the missing file */
+  }
+  if (dir === null && isTaskDataXml(path)) dir = dirname(path);
+  if (dir !== null) {
+    const files: Record<string, Uint8Array> = {};
+    for (const e of readdirSync(dir)) if (/\.(xml|bin)$/i.test(e)) files[e] = readInput(join(dir, e), 'task data');
+    const xml = Object.keys(files).find(isTaskDataXml);
+    if (!xml) return null;
+    return layersFromTaskDataFiles(files, join(dir, xml));
+  }
+  if (/\.zip$/i.test(path)) {
+    const bytes = readInput(path, 'prescription');
+    if (!Object.keys(readZip(bytes, path)).some(isTaskDataXml)) return null;
+    return layersFromTaskDataFiles({ [path]: bytes }, path);
+  }
+  return null;
+}
+
 const MARK = { pass: 'PASS', warn: 'WARN', fail: 'FAIL', skip: 'SKIP' } as const;
 
 export function register(program: Command): void {
@@ -35,7 +64,7 @@ export function register(program: Command): void {
         'overlaps, gaps and parts outside the boundary, numeric rate column, machine rate range, zones too small for the speed, total product. ' +
         'Exits 0 when nothing fails, 1 when a check fails, 2 when the file cannot be read.',
     )
-    .argument('<file>', 'prescription: .geojson, .shp (with .shx/.dbf/.prj/.cpg beside it) or .zip')
+    .argument('<file>', 'prescription: .geojson, .shp (with .shx/.dbf/.prj/.cpg beside it), .zip, or ISO 11783-10 task data (TASKDATA.XML, a TASKDATA folder or a zip holding one)')
     .option('--boundary <file>', 'field boundary (.geojson, .shp or .zip): enables the gap and outside checks')
     .option('--rate-field <name>', 'rate column (default: columns ending in _lbac, _kgha, _galac or _lha; else the only numeric column)')
     .option('--min <rate>', "machine's lowest rate above 0 (0 = off always passes); no default")
@@ -48,7 +77,8 @@ export function register(program: Command): void {
     .addHelpText(
       'after',
       '\nExamples:\n  tilth check out/shapefiles/rx_side_band.zip --boundary boundary.geojson --min 40 --max 250 --speed 12\n' +
-        '  tilth check rx.shp --rate-field N_RATE --strict --json',
+        '  tilth check rx.shp --rate-field N_RATE --strict --json\n' +
+        '  tilth check out/taskdata.zip --boundary boundary.geojson --max 250   (task data: one report per task and product, rates in kg/ha or L/ha)',
     )
     .action(async (file: string, o) => {
       const min = numberOption('--min', o.min, { min: 0 });
@@ -56,15 +86,17 @@ export function register(program: Command): void {
       const speedKmh = numberOption('--speed', o.speed, { min: 0.1, max: 100 });
       const swathM = numberOption('--swath', o.swath, { min: 0.1, max: 200 });
       const transitionS = numberOption('--transition', o.transition, { min: 0, max: 60 });
-      const layer = await loadLayer(file, 'prescription');
+      const taskLayers = loadTaskData(file);
+      const layers = taskLayers ?? [await loadLayer(file, 'prescription')];
       const boundary = o.boundary ? await loadLayer(o.boundary, 'boundary') : undefined;
-      const r = checkPrescription(layer, { boundary, rateField: o.rateField, min, max, speedKmh, swathM, transitionS, strict: !!o.strict });
-      if (o.json) out(JSON.stringify(r, null, 2));
-      else {
+      const reports: CheckReport[] = layers.map((layer) => checkPrescription(layer, { boundary, rateField: o.rateField, min, max, speedKmh, swathM, transitionS, strict: !!o.strict }));
+      const ok = reports.every((r) => r.ok);
+      if (o.json) out(JSON.stringify(taskLayers ? { file, ok, reports } : reports[0], null, 2));
+      else for (const r of reports) {
         out(`tilth check ${r.file}`);
         for (const l of r.lines) out(`${MARK[l.status]}  ${l.check.padEnd(10)} ${l.message}`);
         out(r.ok ? 'result: nothing failed' : `result: ${r.lines.filter((l) => l.status === 'fail').length} check(s) failed`);
       }
-      if (!r.ok) process.exitCode = 1;
+      if (!ok) process.exitCode = 1;
     });
 }

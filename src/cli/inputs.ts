@@ -12,6 +12,10 @@ import { basename, dirname, join } from 'node:path';
 import type { Command } from 'commander';
 import { UserError } from '../errors.js';
 import { numberOption, readInput } from './util.js';
+import { readXlsxRecords } from '../io/xlsx.js';
+import { parseColumnMap } from '../io/columns.js';
+import type { RawTable } from '../io/records.js';
+import { formatReading } from '../validate/reading.js';
 
 export interface InputOptions {
   /** samples file: .geojson/.json, .csv (lab style), .shp (with .dbf/.prj/.cpg beside), or .zip */
@@ -30,6 +34,12 @@ export interface InputOptions {
   pMethod?: PMethod;
   /** a shapefile without .prj: read its coordinates as WGS 84 degrees instead of refusing */
   assumeWgs84?: boolean;
+  /** coordinate system of easting / northing columns in a samples table, e.g. "EPSG:26913" */
+  crs?: string;
+  /** sheet of an .xlsx samples file (default: the first) */
+  sheet?: string;
+  /** print the column reading on stderr */
+  verbose?: boolean;
 }
 
 type ShapefileRead = Awaited<ReturnType<typeof readShapefile>>;
@@ -38,6 +48,8 @@ type ShapefileRead = Awaited<ReturnType<typeof readShapefile>>;
 const preloaded = new Map<string, ShapefileRead>();
 
 const isShapefile = (path: string) => /\.(shp|zip)$/i.test(path);
+/** .xlsx samples read ahead by preloadInputs (the reader is asynchronous), by path. */
+const preloadedTables = new Map<string, RawTable>();
 
 /** The files of a shapefile on disk: the .shp and its .dbf/.prj/.cpg siblings (any letter case). */
 function shapefileParts(path: string, what: string): ShapefileParts {
@@ -65,6 +77,10 @@ function shapefileParts(path: string, what: string): ShapefileParts {
  * @example await preloadInputs({ samples: 'samples.zip', boundary: 'field.shp' }); loadInputs({ samples: 'samples.zip', boundary: 'field.shp' })
  */
 export async function preloadInputs(opts: Partial<InputOptions>): Promise<void> {
+  if (opts.samples && /\.xlsx$/i.test(opts.samples) && !preloadedTables.has(opts.samples)) {
+    const map = parseColumnMap(opts.columns);
+    preloadedTables.set(opts.samples, await readXlsxRecords(readInput(opts.samples, 'samples'), opts.samples, map, { sheet: opts.sheet, crs: opts.crs }));
+  }
   for (const [path, what] of [[opts.samples, 'samples'], [opts.boundary, 'boundary'], [opts.zones, 'zones']] as const) {
     if (!path || !isShapefile(path) || preloaded.has(path)) continue;
     preloaded.set(path, await readShapefile(shapefileParts(path, what), { assumeWgs84: opts.assumeWgs84 }));
@@ -72,6 +88,9 @@ export async function preloadInputs(opts: Partial<InputOptions>): Promise<void> 
 }
 
 function samplesSource(path: string): SampleSource {
+  const table = preloadedTables.get(path);
+  if (table) return table;
+  if (/\.xlsx$/i.test(path)) throw new Error(`spreadsheet ${path} was not preloaded (call preloadInputs first)`);
   const pre = preloaded.get(path);
   if (pre) return shapefilePoints(pre);
   if (isShapefile(path)) throw new Error(`shapefile ${path} was not preloaded (call preloadInputs first)`);
@@ -92,12 +111,15 @@ function polygonSource(path: string, what: string): PolygonSource {
  * @example const inp = loadInputs({ samples: 'sample-fields/quarter/samples.csv', boundary: 'sample-fields/quarter/boundary.geojson' });
  */
 export function loadInputs(opts: InputOptions): FieldInputs {
-  return prepareInputs(samplesSource(opts.samples), polygonSource(opts.boundary, 'boundary'), opts.zones ? polygonSource(opts.zones, 'zones') : undefined, {
+  const inputs = prepareInputs(samplesSource(opts.samples), polygonSource(opts.boundary, 'boundary'), opts.zones ? polygonSource(opts.zones, 'zones') : undefined, {
     columns: opts.columns,
     depthFactor: opts.depthFactor,
     dropOutside: opts.dropOutside,
     pMethod: opts.pMethod,
+    crs: opts.crs,
   });
+  if (opts.verbose && inputs.reading) process.stderr.write(`${formatReading(inputs.reading, `columns of ${opts.samples}`)}\n`);
+  return inputs;
 }
 
 /**
@@ -107,10 +129,13 @@ export function loadInputs(opts: InputOptions): FieldInputs {
  */
 export function addInputOptions(cmd: Command): Command {
   return cmd
-    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .shp, .zip)')
+    .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .xlsx, .shp, .zip)')
     .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
     .option('--zones <file>', 'zone polygons that zone-composite samples are keyed to (.geojson, .shp, .zip)')
-    .option('--columns <map>', 'CSV column map, e.g. "id=Sample ID,lat=Lat,lon=Long,p=P Olsen:ppm" (headers are recognised otherwise)')
+    .option('--columns <map>', 'column map, e.g. "id=Sample ID,lat=Lat,lon=Long,p=P Olsen:ppm,ph=pH (1:2)@0-6" (headers are recognised otherwise; the map always wins)')
+    .option('--sheet <name>', 'sheet of an .xlsx samples file (default: the first sheet)')
+    .option('--crs <EPSG:code>', 'coordinate system of easting/northing columns in a samples table, e.g. EPSG:26913 (NAD83 / UTM 13N)')
+    .option('--verbose', 'print how each column of the samples file was read (on stderr)')
     .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
     .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
     .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
@@ -137,5 +162,8 @@ export function inputOptionsFrom(o: Record<string, unknown>): InputOptions {
     depthFactor: numberOption('--depth-factor', o.depthFactor as string | undefined, { min: 1, max: 10 }),
     dropOutside: Boolean(o.dropOutside),
     assumeWgs84: Boolean(o.assumeWgs84),
+    crs: o.crs === undefined ? undefined : String(o.crs),
+    sheet: o.sheet === undefined ? undefined : String(o.sheet),
+    verbose: Boolean(o.verbose),
   };
 }

@@ -3,12 +3,13 @@ import type { Command } from 'commander';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { out, printWarnings } from './util.js';
 import { inspectInputs, formatInspection } from '../stats/inspect.js';
+import { formatReading } from '../validate/reading.js';
 
 export function register(program: Command): void {
   addInputOptions(
     program
       .command('inspect')
-      .description('Summarise a field boundary and its soil samples: area, UTM zone, density, nutrient statistics, warnings.'),
+      .description('Summarise a field boundary and its soil samples: area, UTM zone, density, nutrient statistics, how each column was read, warnings.'),
   )
     .option('--json', 'print JSON for scripts')
     .addHelpText('after', '\nExamples:\n  tilth inspect --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson\n' +
@@ -16,9 +17,10 @@ export function register(program: Command): void {
     .action((o) => {
       const inputs = loadInputs(inputOptionsFrom(o));
       const r = inspectInputs(inputs);
-      if (o.json) out(JSON.stringify(r, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
+      if (o.json) out(JSON.stringify({ ...r, columns: inputs.reading ?? [] }, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
       else {
         out(formatInspection(r));
+        if (inputs.reading) out(`\n${formatReading(inputs.reading, `columns of ${o.samples}`)}`);
         printWarnings(inputs.warnings);
       }
     });

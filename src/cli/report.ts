@@ -6,7 +6,10 @@ import { join, resolve } from 'node:path';
 import { UserError } from '../errors.js';
 import { parseReportInput, renderReport } from '../report/index.js';
 import { createTerminal } from './progress.js';
-import { out, readInput, writeFileAtomic } from './util.js';
+import { out, readInput, writeOutputFile } from './util.js';
+
+/** A report page tilth rendered names tilth as its generator. */
+const REPORT_OURS = (h: string) => h.includes('<meta name="generator" content="tilth');
 
 /** File the build writes beside its outputs, and the report it re-renders. */
 export const REPORT_DATA = 'report-data.json';
@@ -36,10 +39,11 @@ export function register(program: Command): void {
     .argument('<dir>', "a build's output folder (holding report-data.json)")
     .description('Re-render the field report (report.html) from a build\'s output folder: one self-contained HTML page with maps, legends and tables that opens offline and prints on Letter or A4.')
     .option('--out <file>', 'write the report here instead of DIR/report.html')
+    .option('--force', 'replace an existing --out file that is not a tilth report')
     .option('--json', 'print what was written as JSON for scripts')
     .option('--quiet', 'print nothing but warnings and errors')
     .addHelpText('after', '\nExample:\n  tilth report out/prairie-view\n  (reads out/prairie-view/report-data.json, writes out/prairie-view/report.html)')
-    .action((dir: string, o: { out?: string; json?: boolean; quiet?: boolean }) => {
+    .action((dir: string, o: { out?: string; json?: boolean; quiet?: boolean; force?: boolean }) => {
       const term = createTerminal({ quiet: o.quiet || o.json });
       let st;
       try {
@@ -54,7 +58,7 @@ export function register(program: Command): void {
       const task = term.task('rendering report');
       const html = renderReport(input);
       const target = o.out ?? join(dir, REPORT_HTML);
-      writeFileAtomic(target, html);
+      writeOutputFile(target, html, { inputs: [dataPath], force: o.force, ours: REPORT_OURS });
       task.done();
       const zones = input.zoneSets.reduce((s, z) => s + z.zones.length, 0);
       const maps = (html.match(/<svg class="map"/g) ?? []).length;

@@ -1,9 +1,14 @@
 /** `tilth surface`: one nutrient's interpolated map as an Esri ASCII grid (.asc + .prj), and the cross-validation table. */
+import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
 import { UserError } from '../errors.js';
 import { analyteFromName, ANALYTE_LABEL, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, utmPrj, type NutrientSurface } from '../surface/index.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
-import { info, numberOption, out, printWarnings, writeFileAtomic } from './util.js';
+import { checkOutputFile, info, numberOption, out, printWarnings, writeOutputFile } from './util.js';
+
+/** An Esri ASCII grid starts with its ncols line; a .prj tilth writes is a projected WKT. */
+const ASC_OURS = (h: string) => /^\s*ncols\s/i.test(h);
+const PRJ_OURS = (h: string) => /^PROJCS\["WGS_1984_UTM_Zone_\d+[NS]"/.test(h);
 
 export function register(program: Command): void {
   addInputOptions(program
@@ -17,6 +22,7 @@ export function register(program: Command): void {
     .option('--radius <metres>', 'use only samples within this distance (default: no limit)')
     .option('--min-neighbours <n>', 'leave a cell empty when fewer samples are within --radius', '1')
     .option('--decimals <n>', 'decimals written in the grid', '3')
+    .option('--force', 'replace an existing .asc/.prj that tilth cannot recognise as its own grid (never an input file)')
     .option('--json', 'print the result (choice, cross-validation table, warnings) as JSON on stdout')
     .addHelpText(
       'after',
@@ -37,12 +43,19 @@ export function register(program: Command): void {
       const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, { min: 1, integer: true });
       const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
       if (!/\.asc$/i.test(o.out)) throw new UserError(`--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`, { file: o.out });
+      const inputFiles = [o.samples, o.boundary, o.zones].filter((f): f is string => !!f);
+      const prjPath = o.out.replace(/\.asc$/i, '.prj');
+      const shpBeside = /\.asc$/i.test(o.out) && existsSync(o.out.replace(/\.asc$/i, '.shp'));
+      const prjOurs = (h: string) => !shpBeside && PRJ_OURS(h); // a .prj beside a .shp belongs to that shapefile
+      const fileOpts = { inputs: inputFiles, force: Boolean(o.force) };
+      checkOutputFile(o.out, { ...fileOpts, ours: ASC_OURS });
+      checkOutputFile(prjPath, { ...fileOpts, ours: prjOurs });
       const inputs = loadInputs(inputOptionsFrom(o));
       const grid = fieldGrid(inputs.field, cell);
       const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours });
       const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
-      writeFileAtomic(o.out, formatAsc(grid, s.values, { decimals }));
-      writeFileAtomic(o.out.replace(/\.asc$/i, '.prj'), utmPrj(inputs.field.utm));
+      writeOutputFile(o.out, formatAsc(grid, s.values, { decimals }), { ...fileOpts, ours: ASC_OURS });
+      writeOutputFile(prjPath, utmPrj(inputs.field.utm), { ...fileOpts, ours: prjOurs });
       if (o.json) {
         out(JSON.stringify(summary(s, o.out, inputs.field.utm.epsg, warnings), (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? (Number.isNaN(v) ? null : 'all') : v), 2));
       } else {

@@ -3,7 +3,7 @@ import type { Command } from 'commander';
 import { UserError } from '../errors.js';
 import type { Analyte } from '../types.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
-import { CAUTION, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
+import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
 import { tablesFromOption } from './plan.js';
 import { parsePlan } from '../agronomy/index.js';
 import { fieldGrid, gridWarnings, nutrientSurface } from '../surface/index.js';
@@ -45,7 +45,7 @@ export function register(program: Command): void {
     .option('--cutoff <m>', 'largest pair distance, metres (default a third of the samples\' bounding-box diagonal)')
     .option('--width <m>', 'lag width, metres (default cutoff / 15)')
     .option('--out <dir>', 'write a folder with the charts (<nutrient>-semivariogram.svg, <nutrient>-map.svg) and variability.json')
-    .option('--force', 'replace an existing, non-empty --out folder')
+    .option('--force', 'replace an earlier tilth --out folder (never one holding other files)')
     .option('--json', 'print JSON for scripts')
     .addHelpText('after', `
 Example:
@@ -79,6 +79,8 @@ ${CAUTION}`)
       const cutoff = numberOption('--cutoff', o.cutoff, { min: 0 });
       const width = numberOption('--width', o.width, { min: 0 });
       if (cutoff === 0 || width === 0) throw new UserError('options --cutoff and --width must be above 0. Fix: give a distance in metres, e.g. --cutoff 400.');
+      const inputFiles = [o.samples, o.boundary, o.zones, o.plan, o.tables].filter((f): f is string => !!f);
+      if (o.out) checkOutputDir(o.out, { force: Boolean(o.force), inputs: inputFiles });
       const inputs = loadInputs(inputOptionsFrom(o));
       const cell = numberOption('--cell', o.cell, { min: 0.5 })!;
       let surf: { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string; label: string } | undefined;
@@ -107,7 +109,7 @@ ${CAUTION}`)
           [`${stem}-map.svg`, map],
           ['variability.json', toJson({ ...report, warnings }) + '\n'],
         ]);
-        writeOutputDir(o.out, files, Boolean(o.force));
+        writeOutputDir(o.out, files, { force: Boolean(o.force), inputs: inputFiles });
         info(`wrote ${o.out}/: ${[...files.keys()].join(', ')}`);
       }
       if (o.json) {

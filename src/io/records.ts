@@ -23,6 +23,14 @@ export interface RawTable {
   /** property / column names in file order */
   columns: string[];
   records: RawRecord[];
+  /** tables: per column, the text of a second header row (units, methods, depths), else null */
+  headerNotes?: (string | null)[];
+  /** tables: the header's row number as a person counts it */
+  headerRow?: number;
+  /** tables: rows read past and why (repeated header, notes below the table) */
+  skipped?: { where: string; why: string }[];
+  /** tables: how positions were read, for people */
+  position?: string;
   /** a CRS stated by the file (.prj WKT), if any */
   crs?: string;
   /**

@@ -61,6 +61,14 @@ export function thaToBuac(tPerHa: number, lbPerBu: number): number {
   return (tPerHa * 1000 * HA_PER_AC) / (lbPerBu * KG_PER_LB);
 }
 
+/**
+ * Exchangeable K in meq/100 g (= cmol(+)/kg) to ppm (mg/kg): x 390.98 (K 39.098 g/mol, one charge; 1 meq/100 g =
+ * 10 mmol(+)/kg). @example kMeqToPpm(0.5) // 195.49
+ */
+export const kMeqToPpm = (meq: number): number => meq * K * 10;
+/** Electrical conductivity µS/cm to dS/m (1 dS/m = 1 mS/cm = 1 mmho/cm = 1000 µS/cm). @example uscmToDsm(850) // 0.85 */
+export const uscmToDsm = (v: number): number => v / 1000;
+
 /** Rate units the plan may ask for. */
 export type RateUnit = 'lb/ac' | 'kg/ha';
 /** Converts a rate held in lb/ac into the requested unit. */
@@ -74,3 +82,25 @@ export const mToFt = (m: number): number => m / M_PER_FT;
 export const M_PER_MI = 1609.344;
 /** Miles per hour to metres per second. */
 export const mphToMs = (mph: number): number => (mph * M_PER_MI) / 3600;
+
+/**
+ * ISO 11783-10 process data units. DDI 6 (setpoint mass per area) counts mg/m2 and DDI 1 (setpoint
+ * volume per area) mm3/m2, both with resolution 1 [published] ISO 11783-11 data dictionary.
+ * 1 kg/ha = 10^6 mg / 10^4 m2 = 100 mg/m2; 1 L/ha = 10^6 mm3 / 10^4 m2 = 100 mm3/m2 (SI prefixes).
+ */
+export const MGM2_PER_KGHA = 100;
+export const MM3M2_PER_LHA = 100;
+/** kg/ha to mg/m2 (DDI 6). @example kghaToMgm2(112.085) // 11208.5 */
+export const kghaToMgm2 = (v: number): number => v * MGM2_PER_KGHA;
+export const mgm2ToKgha = (v: number): number => v / MGM2_PER_KGHA;
+/** L/ha to mm3/m2 (DDI 1). @example lhaToMm3m2(50) // 5000 */
+export const lhaToMm3m2 = (v: number): number => v * MM3M2_PER_LHA;
+export const mm3m2ToLha = (v: number): number => v / MM3M2_PER_LHA;
+/** Product mass per area (kg/ha) to volume per area (L/ha) for a liquid of the given density (kg/L). */
+export const kghaToLha = (kgha: number, densityKgPerL: number): number => kgha / densityKgPerL;
+/** Density kg/L to the ISO 11783-10 product density unit mg/L (PDT DensityMassPerVolume). */
+export const kgPerLToMgPerL = (v: number): number => v * 1e6;
+/** Litres per US gallon, exact by definition (231 cubic inches) [published] NIST Handbook 44, Appendix C. */
+export const L_PER_US_GAL = 3.785411784;
+/** L/ha to US gal/ac. @example lhaToGalac(93.54) // ~10 */
+export const lhaToGalac = (v: number): number => (v / L_PER_US_GAL) * HA_PER_AC;

@@ -25,6 +25,8 @@ export interface PrepareOptions {
   pMethod?: PMethod;
   /** fewest point samples for a map (default 3; zone composites need 1 per zone) */
   minSamples?: number;
+  /** coordinate system of easting / northing columns in a table, e.g. "EPSG:26913" */
+  crs?: string;
 }
 
 /** What a source may be: a file's bytes (GeoJSON or CSV by its name) or an already-read table (shapefile). */
@@ -45,13 +47,15 @@ const isFile = (x: object): x is InputFile => 'bytes' in x;
  * @param columns the --columns map text, for CSV header detection
  * @example readSampleRecords({ name: 'samples.csv', bytes }).records.length
  */
-export function readSampleRecords(src: SampleSource, columns?: string): RawTable {
+export function readSampleRecords(src: SampleSource, columns?: string, crs?: string): RawTable {
   if (!isFile(src)) return src;
   const t = text(src);
   const ext = src.name.toLowerCase().split('.').pop();
   if (ext === 'geojson' || ext === 'json' || (ext !== 'csv' && ext !== 'txt' && /^\s*\{/.test(t))) return readGeoJsonPoints(t, src.name);
-  if (ext === 'csv' || ext === 'txt' || ext === 'tsv') return readCsvRecords(t, src.name, parseColumnMap(columns));
-  throw new UserError(`${src.name}: tilth reads samples from .geojson, .json, .csv, .shp or .zip (shapefile) files. Fix: export the samples in one of these formats.`, { file: src.name });
+  if (ext === 'xls') throw new UserError(`${src.name} is an old-style .xls workbook. Fix: save it from the spreadsheet as .xlsx (Excel Workbook) or as CSV.`, { file: src.name });
+  if (ext === 'xlsx') throw new Error(`${src.name}: read .xlsx with readXlsxRecords (asynchronous) and pass the table`);
+  if (ext === 'csv' || ext === 'txt' || ext === 'tsv') return readCsvRecords(t, src.name, parseColumnMap(columns), { crs });
+  throw new UserError(`${src.name}: tilth reads samples from .geojson, .json, .csv, .xlsx, .shp or .zip (shapefile) files. Fix: export the samples in one of these formats.`, { file: src.name });
 }
 
 /**
@@ -85,7 +89,7 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
   checkPartsMetres(field.parts, b.where, rawB.file, 'boundary');
 
   // samples
-  const table = readSampleRecords(samplesSrc, opts.columns);
+  const table = readSampleRecords(samplesSrc, opts.columns, opts.crs);
   const built = buildSamples(table, { map: parseColumnMap(opts.columns), depthFactor: opts.depthFactor, pMethod: opts.pMethod });
   warnings.push(...built.warnings);
   let s = built.samples;
@@ -223,7 +227,7 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
   }
 
   const samples: Samples = { ...s, xy };
-  return { samples, field, zones, warnings };
+  return { samples, field, zones, warnings, reading: built.reading };
 }
 
 function readZones(src: PolygonSource, forward: (a: ArrayLike<number>) => Float64Array): SampleZones {
@@ -263,6 +267,8 @@ function subset<T extends Omit<Samples, 'xy'>>(s: T, keep: number[]): T {
     lonlat: subsetXY(s.lonlat, keep),
     values, censored,
     texture: keep.map((i) => s.texture[i]),
+    ...(s.extra ? { extra: Object.fromEntries(Object.entries(s.extra).map(([k, v]) => [k, Float64Array.from(keep, (i) => v[i])])) } : {}),
+    ...(s.limeRating ? { limeRating: keep.map((i) => s.limeRating![i]) } : {}),
     zone: keep.map((i) => s.zone[i]),
     origin: keep.map((i) => s.origin[i]),
   };

@@ -23,6 +23,9 @@ export interface ZoneArcs {
   fixed: boolean[];
   /** per arc: a closed loop with no junction */
   closed: boolean[];
+  /** per arc: the zones on its left and right (-1 = outside every zone) */
+  left: number[];
+  right: number[];
   /** per zone: rings, each a list of arc references (index + 1; negative = walked backwards) */
   rings: number[][][];
 }
@@ -54,10 +57,10 @@ export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneA
     if (j1 < j0) return lab(i0, j1);
     return lab(i0 - 1, j0);
   };
-  const out: ZoneArcs = { W, arcs: [], fixed: [], closed: [], rings: Array.from({ length: count }, () => []) };
+  const out: ZoneArcs = { W, arcs: [], fixed: [], closed: [], left: [], right: [], rings: Array.from({ length: count }, () => []) };
   const byEdge = new Map<number, number>(), byNode = new Map<number, number>();
   const ek = (a: number, b: number) => (a < b ? a * V + b : b * V + a);
-  const register = (nodes: number[], closed: boolean): number => {
+  const register = (nodes: number[], closed: boolean, z: number): number => {
     const n = nodes.length;
     const key = closed ? Math.min(...nodes) : Math.min(ek(nodes[0], nodes[1]), ek(nodes[n - 2], nodes[n - 1]));
     const map = closed ? byNode : byEdge;
@@ -65,8 +68,11 @@ export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneA
     if (found !== undefined) return -(found + 1); // the neighbour walked it the other way
     map.set(key, out.arcs.length);
     out.arcs.push(nodes);
-    out.fixed.push(rightOf(nodes[0], nodes[1]) < 0);
+    const right = rightOf(nodes[0], nodes[1]);
+    out.fixed.push(right < 0);
     out.closed.push(closed);
+    out.left.push(z);
+    out.right.push(right);
     return out.arcs.length;
   };
   for (const [z, loop] of walkLoops(zone, count, f)) {
@@ -77,7 +83,7 @@ export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneA
       let s = 0;
       for (let t = 1; t < m; t++) if (loop[t] < loop[s]) s = t;
       const nodes = [...loop.slice(s), ...loop.slice(0, s), loop[s]];
-      const ref = register(nodes, true);
+      const ref = register(nodes, true, z);
       if (ref < 0) alignClosed(out.arcs[-ref - 1], nodes);
       out.rings[z].push([ref]);
       continue;
@@ -87,7 +93,7 @@ export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneA
       const a = js[q], b = q + 1 < js.length ? js[q + 1] : js[0] + m;
       const nodes: number[] = [];
       for (let t = a; t <= b; t++) nodes.push(loop[t % m]);
-      refs.push(register(nodes, false));
+      refs.push(register(nodes, false, z));
     }
     out.rings[z].push(refs);
   }

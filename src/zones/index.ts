@@ -146,25 +146,17 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
     pairs = neighbourPairs(zoneLabel, cols, rows).map(({ a, b }) => ({ a, b, why: judge.compare(profiles![a], profiles![b]).why }));
   } else pairs = neighbourPairs(zoneLabel, cols, rows);
   // 4. polygons: shared borders simplified once, then clipped to the exact boundary
-  const tol = opts.simplifyCells ?? 1;
-  const arcs = zoneArcs(zoneLabel, count, grid);
-  const staircase = simplifyArcs(arcs, 0);
-  const smoothArcs = tol > 0 ? simplifyArcs(arcs, tol) : staircase;
-  const traced = arcsToParts(arcs, smoothArcs, grid);
-  const vertices = { traced: ringsVertexCount(arcs, staircase), simplified: ringsVertexCount(arcs, smoothArcs), clipped: 0 };
-  const needsClip = zonesNearBoundary(field, grid, zoneLabel, count, Math.ceil(tol) + 1);
-  const planarField = partsArea(field.parts);
-  const scale = planarField > 0 ? field.areaM2 / planarField : 1;
+  const poly = zonePolygons(grid, field, zoneLabel, count, opts.simplifyCells ?? 1, minAreaM2);
   const proj = opts.lonlat === false ? null : (opts.projector ?? makeProjector(field.utm));
   const zones: Zone[] = [];
   const newId = new Int32Array(count).fill(-1);
   for (let z = 0; z < count; z++) {
-    const parts = needsClip[z] ? clipParts(traced[z], field.parts, grid.xmin, grid.ymax) : traced[z];
+    const parts = poly.parts[z];
     if (parts.length === 0) continue;
     newId[z] = zones.length;
-    zones.push({ id: zones.length, cls: classOfZone[z], parts, lonlat: proj ? toLonLat(parts, proj) : [], areaM2: partsArea(parts) * scale });
-    vertices.clipped += vertexCount(parts);
+    zones.push({ id: zones.length, cls: classOfZone[z], parts, lonlat: proj ? toLonLat(parts, proj) : [], areaM2: partsArea(parts) * poly.scale });
   }
+  const vertices = poly.vertices;
   const zoneOfCell = new Int32Array(n).fill(-1);
   const classOfCell = new Int16Array(n).fill(-1);
   let classCount = 0;
@@ -182,6 +174,38 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
     counts: { classes: nClasses, classesMerged, zonesCleaned: cleaned.count, zonesMerged, rateClasses, zones: zones.length },
     vertices,
   };
+}
+
+/**
+ * Zone polygons from a zone raster: arcs simplified to `tol` cells (0 = staircase), rings rebuilt, zones near
+ * the boundary clipped to it. A zone that simplification would take under `minAreaM2` although its cells
+ * reach it keeps its staircase borders (simplification is redone with them fixed).
+ */
+function zonePolygons(grid: Grid, field: Field, label: Int32Array, count: number, tol: number, minAreaM2: number): { parts: RingsPart[][]; vertices: ZoneSet['vertices']; scale: number } {
+  const arcs = zoneArcs(label, count, grid);
+  const staircase = simplifyArcs(arcs, 0);
+  const cellArea = new Float64Array(count);
+  for (let i = 0; i < label.length; i++) if (label[i] >= 0) cellArea[label[i]] += grid.fraction[i] * grid.cell * grid.cell;
+  const needsClip = zonesNearBoundary(field, grid, label, count, Math.ceil(tol) + 1);
+  const planarField = partsArea(field.parts);
+  const scale = planarField > 0 ? field.areaM2 / planarField : 1;
+  const keep = new Uint8Array(count);
+  for (let attempt = 0; ; attempt++) {
+    const smooth = tol > 0 ? simplifyArcs(arcs, tol) : staircase;
+    const traced = arcsToParts(arcs, smooth, grid);
+    const parts = traced.map((p, z) => (needsClip[z] ? clipParts(p, field.parts, grid.xmin, grid.ymax) : p));
+    let redo = false;
+    for (let z = 0; z < count; z++) {
+      if (keep[z] || tol <= 0 || cellArea[z] < minAreaM2 || partsArea(parts[z]) >= minAreaM2 * (1 - 1e-9)) continue;
+      keep[z] = 1;
+      redo = true;
+      arcs.arcs.forEach((_, k) => { if (arcs.left[k] === z || arcs.right[k] === z) arcs.fixed[k] = true; });
+    }
+    if (!redo || attempt >= 3) {
+      const vertices = { traced: ringsVertexCount(arcs, staircase), simplified: ringsVertexCount(arcs, smooth), clipped: parts.reduce((s, p) => s + vertexCount(p), 0) };
+      return { parts, vertices, scale };
+    }
+  }
 }
 
 /** Zones with a cell within `reach` cells of one the boundary crosses, or of a cell outside: these are clipped. */

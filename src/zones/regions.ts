@@ -82,18 +82,25 @@ export function mergeRegions<P, Why>(label: ArrayLike<number>, count: number, co
   judge.prepare?.(prof.filter((p, z) => parent[z] === z) as P[], Float64Array.from(area.filter((_, z) => parent[z] === z)));
   const pk = (a: number, b: number) => (a < b ? a * count + b : b * count + a);
   const cmp = new Map<number, { apart: boolean; score: number; why: Why | null }>();
-  const judgePairs = (z: number) => { for (const nb of adj[z].keys()) cmp.set(pk(z, nb), judge.compare(prof[z]!, prof[nb]!)); };
+  // candidate merges in a heap (score, pair), checked against each region's version when taken
+  const version = new Int32Array(count);
+  const heap = new MinHeap();
+  const judgePairs = (z: number) => {
+    for (const nb of adj[z].keys()) {
+      const c = judge.compare(prof[z]!, prof[nb]!);
+      cmp.set(pk(z, nb), c);
+      if (!c.apart) heap.push(c.score, z, nb, version[z], version[nb]);
+    }
+  };
   for (let z = 0; z < count; z++) if (parent[z] === z) judgePairs(z);
   let merges = 0;
-  for (;;) {
-    let best = -1, bs = Infinity;
-    for (const [k, c] of cmp) if (!c.apart && c.score < bs) { bs = c.score; best = k; }
-    if (best < 0) break;
-    const a = Math.floor(best / count), b = best - a * count;
+  for (let top = heap.pop(); top; top = heap.pop()) {
+    const { a, b, va, vb } = top;
+    if (parent[a] !== a || parent[b] !== b || version[a] !== va || version[b] !== vb) continue;
     const [into, from] = area[a] >= area[b] ? [a, b] : [b, a];
     for (const nb of adj[from].keys()) cmp.delete(pk(from, nb));
-    for (const nb of adj[into].keys()) cmp.delete(pk(into, nb));
     join(into, from);
+    version[into]++;
     prof[into] = judge.profile(means(into), area[into]);
     judgePairs(into);
     merges++;
@@ -132,4 +139,44 @@ function finish<P, Why>(label: ArrayLike<number>, count: number, find: (x: numbe
   }
   pairs.sort((p, q) => p.a - q.a || p.b - q.b);
   return { label: out, count: n, of, profiles, areaM2, pairs, merges };
+}
+
+/** A binary min-heap of candidate merges (score, regions a and b, and their versions when judged). */
+class MinHeap {
+  private items: { s: number; a: number; b: number; va: number; vb: number }[] = [];
+  push(s: number, a: number, b: number, va: number, vb: number): void {
+    const h = this.items;
+    h.push({ s, a, b, va, vb });
+    for (let i = h.length - 1; i > 0; ) {
+      const p = (i - 1) >> 1;
+      if (!less(h[i], h[p])) break;
+      [h[i], h[p]] = [h[p], h[i]];
+      i = p;
+    }
+  }
+  pop(): { a: number; b: number; va: number; vb: number } | undefined {
+    const h = this.items;
+    if (h.length === 0) return undefined;
+    const top = h[0], last = h.pop()!;
+    if (h.length > 0) {
+      h[0] = last;
+      for (let i = 0; ; ) {
+        const l = 2 * i + 1, r = l + 1;
+        let m = i;
+        if (l < h.length && less(h[l], h[m])) m = l;
+        if (r < h.length && less(h[r], h[m])) m = r;
+        if (m === i) break;
+        [h[i], h[m]] = [h[m], h[i]];
+        i = m;
+      }
+    }
+    return top;
+  }
+}
+
+/** Lower score first; ties by the smaller pair, so merges do not depend on the heap's layout. */
+function less(x: { s: number; a: number; b: number }, y: { s: number; a: number; b: number }): boolean {
+  if (x.s !== y.s) return x.s < y.s;
+  const xa = Math.min(x.a, x.b), ya = Math.min(y.a, y.b);
+  return xa !== ya ? xa < ya : Math.max(x.a, x.b) < Math.max(y.a, y.b);
 }

@@ -194,7 +194,7 @@ export const DEFAULT_TABLES: TablesInput = {
     urea: { label: 'urea 46-0-0', n: 46, p2o5: 0, k2o: 0, s: 0, form: 'granular', placements: ['seed_row', 'side_band', 'mid_row_band', 'broadcast'], price_per_tonne: 850, source: IFA, price_source: PRICE },
     ammonium_sulphate: { label: 'ammonium sulphate 21-0-0-24', n: 21, p2o5: 0, k2o: 0, s: 24, form: 'granular', placements: ['seed_row', 'side_band', 'mid_row_band', 'broadcast'], price_per_tonne: 650, source: IFA, price_source: PRICE },
     potash: { label: 'potash (KCl) 0-0-60', n: 0, p2o5: 0, k2o: 60, s: 0, form: 'granular', placements: ['seed_row', 'side_band', 'mid_row_band', 'broadcast'], price_per_tonne: 700, source: IFA, price_source: PRICE },
-    uan: { label: 'UAN 28-0-0', n: 28, p2o5: 0, k2o: 0, s: 0, form: 'liquid', placements: ['side_band', 'mid_row_band', 'broadcast'], price_per_tonne: 600, source: IFA, price_source: PRICE },
-    ammonium_thiosulphate: { label: 'ammonium thiosulphate 12-0-0-26', n: 12, p2o5: 0, k2o: 0, s: 26, form: 'liquid', placements: ['side_band', 'mid_row_band'], price_per_tonne: 600, source: 'from memory: 12-0-0-26', price_source: PRICE },
+    uan: { label: 'UAN 28-0-0', n: 28, p2o5: 0, k2o: 0, s: 0, form: 'liquid', density_kg_l: { value: 1.28, source: 'from memory: UAN 28-0-0 weighs about 10.7 lb per US gallon, 1.28 kg/L' }, placements: ['side_band', 'mid_row_band', 'broadcast'], price_per_tonne: 600, source: IFA, price_source: PRICE },
+    ammonium_thiosulphate: { label: 'ammonium thiosulphate 12-0-0-26', n: 12, p2o5: 0, k2o: 0, s: 26, form: 'liquid', density_kg_l: { value: 1.33, source: 'from memory: ammonium thiosulphate 12-0-0-26 weighs about 11.1 lb per US gallon, 1.33 kg/L' }, placements: ['side_band', 'mid_row_band'], price_per_tonne: 600, source: 'from memory: 12-0-0-26', price_source: PRICE },
   },
 };
