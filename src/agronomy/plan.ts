@@ -33,16 +33,23 @@ export const planSchema = z.object({
   soil_test: z.object({
     p_method: z.enum(['olsen', 'kelowna']).default('olsen'),
     nitrate_sampled: z.enum(['spring', 'fall']).default('spring'),
+    /** modified Kelowna reads this many times Olsen; scales the Olsen class bounds where no published Kelowna bound exists */
+    kelowna_factor: z.number().min(1).max(2).default(1.3),
   }).strict().prefault({}),
   credits: z.object({
     organic_matter: z.boolean().default(false),
     previous_crop_legume: z.boolean().default(false),
     other_lb_n: z.number().min(0).default(0),
+    /** fall-sampled nitrate: add the spring mineralization (tables soil.spring_mineralization_lb); never a deduction */
+    fall_sample_mineralization: z.boolean().default(false),
   }).strict().prefault({}),
   strategy: z.object({
     n: z.object({
       method: z.enum(['mass_balance', 'none']).default('mass_balance'),
-      efficiency: z.number().gt(0).max(1).default(1),
+      /** null = the tables' relative efficiency by placement and timing; a number replaces it for every placement */
+      efficiency: z.number().gt(0).max(1.5).nullable().default(null),
+      /** when the N outside the seed row goes on */
+      timing: z.enum(['spring', 'fall']).default('spring'),
     }).strict().prefault({}),
     p: z.object({
       method: z.enum(['response_class', 'removal', 'build', 'none']).default('response_class'),
@@ -51,7 +58,7 @@ export const planSchema = z.object({
       /** lb P2O5/ac per ppm of rise; null = the table's soil value */
       p2o5_per_ppm: z.number().positive().nullable().default(null),
     }).strict().prefault({}),
-    k: z.object({ method: z.enum(['deficit', 'none']).default('deficit') }).strict().prefault({}),
+    k: z.object({ method: z.enum(['response_class', 'none']).default('response_class') }).strict().prefault({}),
     s: z.object({ method: z.enum(['need_or_floor', 'none']).default('need_or_floor') }).strict().prefault({}),
     tolerance_pct: z.number().min(0).max(25).default(5),
   }).strict().prefault({}),
@@ -67,12 +74,24 @@ export const planSchema = z.object({
     safe_n_lb: z.number().min(0).nullable().default(null),
     /** what to do where the seed-row N table has no published value */
     when_table_missing: z.enum(['ask', 'light_soil_values', 'none_in_seed_row']).default('ask'),
+    /** which seed-placed P2O5 (as MAP) guideline: its value and drill configuration come from the tables */
+    p_guideline: z.enum(['manitoba', 'saskatchewan']).default('manitoba'),
+    /** canola and peas: potash with the seed (at most the crop's K2O limit, and only with nothing else there) */
+    potash_with_seed: z.boolean().default(false),
   }).strict().prefault({}),
   products: z.array(productChoice).min(1),
   machine: z.object({
     swath_width_ft: z.number().positive().default(60),
     speed_mph: z.number().positive().default(5),
     rate_change_s: z.number().min(0).default(4),
+  }).strict().prefault({}),
+  /** how each nutrient's soil-test surface is interpolated (docs/surface.md) */
+  surface: z.object({
+    /** idw (default), kriging (ordinary kriging; refused with the reason when the semivariogram is unusable), or auto (lowest leave-one-out RMSE) */
+    method: z.enum(['auto', 'idw', 'kriging']).default('idw'),
+    /** krige natural logarithms and back-transform to the lognormal mean (skewed soil tests) */
+    log: z.boolean().default(false),
+    kriging_neighbours: z.number().int().min(1).max(256).default(16),
   }).strict().prefault({}),
   zoning: z.object({
     method: z.enum(['jenks', 'quantile', 'equal', 'kmeans']).default('jenks'),

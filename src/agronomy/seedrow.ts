@@ -16,13 +16,19 @@ export function sbuPct(spreadIn: number, rowSpacingIn: number): number {
   return Math.min(100, (spreadIn / rowSpacingIn) * 100);
 }
 
+type SeedRowTable = Exclude<SeedRowCell, { missing: true }>;
+
 /**
- * A table's cells as (SBU %, safe N) points sorted by SBU; equal SBUs keep the lowest N.
+ * A table's known cells as (SBU %, safe N) points sorted by SBU; equal SBUs keep the lowest N. Cells marked
+ * null (not found in the source) are left out.
  * @example sbuPoints(defaultTables().seed_row_n.cereal.medium)[0] // { sbu: 8.33, n: 10 }
  */
-export function sbuPoints(cell: Exclude<SeedRowCell, { missing: true }>): { sbu: number; n: number }[] {
+export function sbuPoints(cell: SeedRowTable): { sbu: number; n: number }[] {
   const raw: { sbu: number; n: number }[] = [];
-  cell.spreads_in.forEach((s, i) => cell.rows_in.forEach((r, j) => raw.push({ sbu: sbuPct(s, r), n: cell.safe_n[i]![j]! })));
+  cell.spreads_in.forEach((s, i) => cell.rows_in.forEach((r, j) => {
+    const v = cell.safe_n[i]![j];
+    if (v !== null && v !== undefined) raw.push({ sbu: sbuPct(s, r), n: v });
+  }));
   raw.sort((a, b) => a.sbu - b.sbu || a.n - b.n);
   const out: { sbu: number; n: number }[] = [];
   for (const p of raw) {
@@ -49,73 +55,112 @@ export function interpolateSbu(points: readonly { sbu: number; n: number }[], sb
   return 0;
 }
 
+/**
+ * Safe N from a table that may have cells not found in the source (null). Safe N never falls as SBU rises, so
+ * a known 0 at or above the SBU settles it at 0. Otherwise the value is interpolated only where no unknown cell
+ * lies between the known points around the SBU, and never beyond the largest known SBU while unknown cells
+ * lie there; else null (ask the user). A table without null cells is plain `interpolateSbu`.
+ * @example safeNFromTable(defaultTables().seed_row_n.canola.medium, 10) // 0
+ */
+export function safeNFromTable(cell: SeedRowTable, sbu: number): number | null {
+  const pts = sbuPoints(cell);
+  const unknown: number[] = [];
+  cell.spreads_in.forEach((s, i) => cell.rows_in.forEach((r, j) => {
+    if (cell.safe_n[i]![j] === null) unknown.push(sbuPct(s, r));
+  }));
+  if (unknown.length === 0) return interpolateSbu(pts, sbu);
+  const above = pts.filter((p) => p.sbu >= sbu - 1e-9);
+  if (above.length && Math.min(...above.map((p) => p.n)) === 0) return 0;
+  if (!above.length || pts.length === 0) return null;
+  const hi = above[0]!.sbu;
+  const lo = pts.filter((p) => p.sbu < sbu).pop()?.sbu ?? 0;
+  return unknown.some((u) => u > lo + 1e-9 && u < hi - 1e-9) ? null : interpolateSbu(pts, sbu);
+}
+
 /** The seed-row limits for one location. */
 export interface SeedRowLimits {
   /** percent */
   sbu: number;
   texture: Texture;
-  /** lb N/ac, all N with the seed (urea, MAP, ammonium sulphate ...) */
+  /** lb N/ac from products whose seed-row N counts against the urea-N table (urea, UAN, ammonium sulphate, thiosulphate) */
   n: number;
   nSource: string;
+  /** lb P2O5/ac as MAP (the N of a `within_p_limit` product inside it is allowed for) */
   p2o5: number;
+  pSource: string;
+  /** P2O5 + K2O together stay within the P limit */
   p2o5K2o: number;
   k2o: number;
+  kSource: string;
+  /** all N + K2O with the seed (Infinity: no such limit) */
+  nK2o: number;
+  /** potash may go with the seed only when nothing else is there */
+  kAlone: boolean;
   notes: string[];
+}
+
+function missingN(cropKey: string, texture: Texture, why: string, group: Tables['seed_row_n'][string], sbu: number, plan: Plan): { n: number; nSource: string } {
+  const light = group.light;
+  const lightN = 'missing' in light ? null : safeNFromTable(light, sbu);
+  const mode = plan.seed_row.when_table_missing;
+  if (mode === 'ask') {
+    const hint = lightN === null ? '' : ` (the light-soil value at SBU ${sbu.toFixed(1)} % is ${lightN.toFixed(1)} lb N/ac)`;
+    throw new UserError(
+      `seed-row N for ${cropKey} on ${texture} soil at SBU ${sbu.toFixed(1)} % is not in the tables: ${why}. ` +
+        `Fix: in the plan set seed_row.safe_n_lb to the lb N/ac you and your agronomist confirm, or seed_row.when_table_missing: light_soil_values${hint} or none_in_seed_row.`,
+      { field: 'seed_row.when_table_missing' },
+    );
+  }
+  if (mode === 'light_soil_values' && lightN !== null) {
+    return { n: lightN, nSource: `${texture}-soil value missing (${why}); light-soil value used as confirmed in plan key seed_row.when_table_missing: ${(light as SeedRowTable).source}` };
+  }
+  return { n: 0, nSource: `${texture}-soil value missing (${why}); no urea-type N in the seed row (plan key seed_row.when_table_missing)` };
+}
+
+function seedRowN(crop: CropTable, cropKey: string, texture: Texture, sbu: number, plan: Plan, tables: Tables, notes: string[]): { n: number; nSource: string } {
+  if (plan.seed_row.safe_n_lb !== null) return { n: plan.seed_row.safe_n_lb, nSource: `plan key seed_row.safe_n_lb (${plan.seed_row.safe_n_lb} lb N/ac, supplied by the user)` };
+  const group = tables.seed_row_n[crop.seed_row_group]!;
+  const cell = group[texture];
+  const v = 'missing' in cell ? null : safeNFromTable(cell, sbu);
+  let r: { n: number; nSource: string };
+  if (v !== null && !('missing' in cell)) r = { n: v, nSource: `${cell.source}; at SBU ${sbu.toFixed(1)} %` };
+  else {
+    r = missingN(cropKey, texture, 'missing' in cell ? cell.source : `no published cell at this SBU (${cell.source})`, group, sbu, plan);
+    notes.push(r.nSource);
+  }
+  if (plan.implement.seedbed_moisture === 'dry') {
+    r.n *= tables.dry_seedbed_factor.value;
+    r.nSource += `; x ${tables.dry_seedbed_factor.value} for a dry seedbed (${tables.dry_seedbed_factor.source})`;
+  }
+  return r;
 }
 
 /**
  * Seed-row limits for the plan's crop and implement on a soil of the given texture.
- * Missing table cells follow `plan.seed_row.when_table_missing`; `ask` throws a UserError naming the plan keys.
- * `plan.seed_row.safe_n_lb`, when set, replaces the table (and the dry-seedbed factor).
- * @example seedRowLimits(tables.crops.wheat, 'wheat', 'medium', plan, tables).n // 20 at 1 in on 6 in rows
+ * - urea-type N: the crop's table at the plan's SBU; missing cells follow `plan.seed_row.when_table_missing`
+ *   (`ask` throws a UserError naming the plan keys); `plan.seed_row.safe_n_lb`, when set, replaces the table.
+ * - P2O5 as MAP: the plan's guideline (`seed_row.p_guideline`, default manitoba) x min(1, SBU / the SBU of the
+ *   configuration the guideline was stated for): lowered for a narrower spread or wider rows, never raised.
+ * - P2O5 + K2O: the same limit. K2O: the crop's limit; for crops whose potash must go alone (canola, peas) 0
+ *   unless the plan sets `seed_row.potash_with_seed`. N + K2O: the crop's limit (cereals 40).
+ * - a dry seedbed multiplies every limit by `dry_seedbed_factor`.
+ * @example seedRowLimits(tables.crops.wheat, 'wheat', 'medium', plan, tables).n // 15.6 at 1 in on 10 in rows
  */
 export function seedRowLimits(crop: CropTable, cropKey: string, texture: Texture, plan: Plan, tables: Tables): SeedRowLimits {
   const sbu = sbuPct(plan.implement.opener_spread_in, plan.implement.row_spacing_in);
   const notes: string[] = [];
-  let n: number;
-  let nSource: string;
-  if (plan.seed_row.safe_n_lb !== null) {
-    n = plan.seed_row.safe_n_lb;
-    nSource = `plan key seed_row.safe_n_lb (${n} lb N/ac, supplied by the user)`;
-  } else {
-    const group = tables.seed_row_n[crop.seed_row_group]!;
-    const cell = group[texture];
-    if (!('missing' in cell)) {
-      n = interpolateSbu(sbuPoints(cell), sbu);
-      nSource = `${cell.source}; interpolated at SBU ${sbu.toFixed(1)} %`;
-    } else {
-      const light = group.light;
-      const mode = plan.seed_row.when_table_missing;
-      if (mode === 'ask') {
-        const hint = 'missing' in light ? '' : ` (the light-soil value at SBU ${sbu.toFixed(1)} % is ${interpolateSbu(sbuPoints(light), sbu).toFixed(1)} lb N/ac)`;
-        throw new UserError(
-          `seed-row N for ${cropKey} on ${texture} soil is not in the tables: ${cell.source}. ` +
-            `Fix: in the plan set seed_row.safe_n_lb to the lb N/ac you and your agronomist confirm, or seed_row.when_table_missing: light_soil_values${hint} or none_in_seed_row.`,
-          { field: 'seed_row.when_table_missing' },
-        );
-      }
-      if (mode === 'light_soil_values' && !('missing' in light)) {
-        n = interpolateSbu(sbuPoints(light), sbu);
-        nSource = `${texture}-soil value missing (${cell.source}); light-soil value used as confirmed in plan key seed_row.when_table_missing: ${light.source}`;
-      } else {
-        n = 0;
-        nSource = `${texture}-soil value missing (${cell.source}); no N in the seed row (plan key seed_row.when_table_missing)`;
-      }
-      notes.push(nSource);
-    }
-    if (plan.implement.seedbed_moisture === 'dry') {
-      n *= tables.dry_seedbed_factor.value;
-      nSource += `; x ${tables.dry_seedbed_factor.value} for a dry seedbed (${tables.dry_seedbed_factor.source})`;
-    }
-  }
-  return {
-    sbu,
-    texture,
-    n,
-    nSource,
-    p2o5: crop.seed_row_p2o5_max.value,
-    p2o5K2o: crop.seed_row_p2o5_k2o_max.value,
-    k2o: crop.seed_row_k2o_max.value,
-    notes,
-  };
+  const { n, nSource } = seedRowN(crop, cropKey, texture, sbu, plan, tables, notes);
+  const dry = plan.implement.seedbed_moisture === 'dry' ? tables.dry_seedbed_factor.value : 1;
+  const dryText = dry < 1 ? `; x ${dry} for a dry seedbed` : '';
+  const g = crop.seed_row_p2o5[plan.seed_row.p_guideline];
+  const refSbu = sbuPct(g.spread_in, g.rows_in);
+  const f = Math.min(1, sbu / refSbu);
+  const p2o5 = g.value * f * dry;
+  const pSource = `${g.source}; ${g.value} lb P2O5/ac at ${g.spread_in} in on ${g.rows_in} in rows (SBU ${refSbu.toFixed(1)} %)${f < 1 ? `, x ${f.toFixed(2)} for SBU ${sbu.toFixed(1)} % (lowered, never raised)` : ''}${dryText} (plan key seed_row.p_guideline: ${plan.seed_row.p_guideline})`;
+  const alone = crop.seed_row_k2o_alone.value;
+  const kAllowed = !alone || plan.seed_row.potash_with_seed;
+  const k2o = kAllowed ? crop.seed_row_k2o_max.value * dry : 0;
+  const kSource = kAllowed ? `${crop.seed_row_k2o_max.source}${alone ? ' (plan key seed_row.potash_with_seed: true)' : ''}${dryText}` : `no potash with ${crop.label} seed unless the plan sets seed_row.potash_with_seed (${crop.seed_row_k2o_alone.source})`;
+  const nk = crop.seed_row_n_k2o_max.value;
+  return { sbu, texture, n, nSource, p2o5, pSource, p2o5K2o: p2o5, k2o, kSource, nK2o: nk === null ? Infinity : nk * dry, kAlone: alone && kAllowed, notes };
 }

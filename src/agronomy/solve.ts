@@ -10,6 +10,7 @@
  * See docs/method.md, "Product solver", for why we do not round an LP answer instead.
  */
 import { solve, type Constraint } from 'yalps';
+import { UserError } from '../errors.js';
 import { kghaToLbac, KG_PER_LB } from '../units/index.js';
 import type { Plan } from './plan.js';
 import type { SeedRowLimits } from './seedrow.js';
@@ -24,8 +25,10 @@ export interface ProductOption {
   placement: Placement;
   /** mass fraction of each nutrient in the product (0-1) */
   frac: Record<Nutrient, number>;
-  /** placement efficiency per nutrient (effective = actual x efficiency) */
+  /** placement efficiency per nutrient (effective = actual x efficiency); N: relative efficiency / the reference's */
   eff: Record<Nutrient, number>;
+  /** in the seed row, this product's N counts against the urea-N table (false: within the P2O5-as-MAP limit) */
+  nCounts: boolean;
   /** $ per lb of product */
   pricePerLb: number;
   /** machine limits, lb product/ac (step 0 = any rate) */
@@ -39,6 +42,29 @@ export interface ProductOption {
 }
 
 const LB_PER_TONNE = 1000 / KG_PER_LB;
+
+/**
+ * N efficiency of a placement for the plan's N timing: the relative efficiency (spring broadcast = 100) over the
+ * reference's (tables `n_relative_efficiency`). The seed row is always at seeding (spring). When the plan sets
+ * `strategy.n.efficiency` the target already carries it and this is 1.
+ * @example nEfficiency('broadcast', plan, tables) // 0.83 (spring broadcast 100 / spring band 120)
+ */
+export function nEfficiency(placement: Placement, plan: Plan, tables: Tables): number {
+  if (plan.strategy.n.efficiency !== null) return 1;
+  const t = tables.n_relative_efficiency;
+  const timing = placement === 'seed_row' ? 'spring' : plan.strategy.n.timing;
+  const kind = placement === 'seed_row' ? 'seed_row' : placement === 'broadcast' ? 'broadcast' : 'band';
+  const cell = t[timing][kind];
+  const ref = t[t.reference.timing][t.reference.placement];
+  if ('missing' in ref) throw new UserError(`tables: the reference N efficiency (n_relative_efficiency.${t.reference.timing}.${t.reference.placement}) is missing. Fix: give it a value or choose another reference.`, { field: 'n_relative_efficiency.reference' });
+  if ('missing' in cell) {
+    throw new UserError(
+      `N relative efficiency for ${timing} ${kind} is not in the tables: ${cell.source}. Fix: set the plan key strategy.n.efficiency to the efficiency you and your agronomist confirm, add n_relative_efficiency.${timing}.${kind} to your tables file, or keep N products out of that placement.`,
+      { field: 'strategy.n.efficiency' },
+    );
+  }
+  return cell.value / ref.value;
+}
 
 /**
  * The product x placement options a plan allows (plan choice ∩ product table ∩ implement), with machine
@@ -56,13 +82,15 @@ export function productOptions(plan: Plan, tables: Tables): ProductOption[] {
     for (const pl of PLACEMENTS) {
       if (!allowed.includes(pl)) continue;
       const e = tables.placement_efficiency[pl];
+      const en = t.n > 0 ? nEfficiency(pl, plan, tables) : 1;
       out.push({
         key: `${ch.product}@${pl}`,
         product: ch.product,
         label: t.label,
         placement: pl,
         frac: { n: t.n / 100, p2o5: t.p2o5 / 100, k2o: t.k2o / 100, s: t.s / 100 },
-        eff: { n: e.n, p2o5: e.p2o5, k2o: e.k2o, s: e.s },
+        eff: { n: en, p2o5: e.p2o5, k2o: e.k2o, s: e.s },
+        nCounts: t.seed_row_n === 'counts',
         pricePerLb: price,
         minLb: toLb(ch.min_rate),
         maxLb: toLb(ch.max_rate),
@@ -106,20 +134,23 @@ const PLACEMENT_TIE = 1e-7;
 
 /** Seed-row limits as LP constraint rows (shared with the infeasibility diagnosis). */
 function seedRowConstraints(limits: SeedRowLimits): [string, Constraint][] {
-  return [
+  const c: [string, Constraint][] = [
     ['sr:n', { max: limits.n }],
     ['sr:p2o5', { max: limits.p2o5 }],
     ['sr:pk', { max: limits.p2o5K2o }],
     ['sr:k2o', { max: limits.k2o }],
   ];
+  if (Number.isFinite(limits.nK2o)) c.push(['sr:nk', { max: limits.nK2o }]);
+  return c;
 }
 
 function coefficients(o: ProductOption, unit: number): [string, number][] {
   const c: [string, number][] = [['cost', unit * (o.pricePerLb + PLACEMENT_TIE * PLACEMENTS.indexOf(o.placement))]];
   for (const n of NUTRIENTS) if (o.frac[n] > 0) c.push([`t:${n}`, unit * o.frac[n] * o.eff[n]]);
   if (o.placement === 'seed_row') {
-    if (o.frac.n > 0) c.push(['sr:n', unit * o.frac.n]);
-    if (o.frac.p2o5 > 0) c.push(['sr:p2o5', unit * o.frac.p2o5]);
+    if (o.frac.n > 0 && o.nCounts) c.push(['sr:n', unit * o.frac.n]);
+    if (o.frac.n + o.frac.k2o > 0) c.push(['sr:nk', unit * (o.frac.n + o.frac.k2o)]);
+    if (o.frac.p2o5 > 0) c.push(['sr:p2o5', unit * o.frac.p2o5], ['prio', -unit * o.frac.p2o5]);
     if (o.frac.p2o5 + o.frac.k2o > 0) c.push(['sr:pk', unit * (o.frac.p2o5 + o.frac.k2o)]);
     if (o.frac.k2o > 0) c.push(['sr:k2o', unit * o.frac.k2o]);
   }
@@ -131,6 +162,12 @@ function coefficients(o: ProductOption, unit: number): [string, number][] {
  * solver meets each target in full whenever the limits allow and uses the tolerance only when they do not.
  */
 const SHORTFALL_PENALTY = 1000;
+
+/**
+ * Credit, $ per lb of seed-row P2O5 up to the P target: phosphate fills the seed row before potash (common
+ * practice), whatever the prices. Above any product's cost per lb of nutrient, far below the shortfall penalty.
+ */
+const SEED_P_PRIORITY = 20;
 
 interface Problem {
   options: readonly ProductOption[];
@@ -148,6 +185,11 @@ function baseModel(pb: Problem): { constraints: [string, Constraint][]; variable
       if (!(pb.target[n] > 0)) continue;
       constraints.push([`t:${n}`, { min: pb.target[n] }], [`short:${n}`, { max: pb.target[n] * pb.tolerance }]);
       variables.push([`s_${n}`, [[`t:${n}`, 1], [`short:${n}`, 1], ['cost', SHORTFALL_PENALTY]]]);
+    }
+    if (pb.target.p2o5 > 0) {
+      // seedP <= target and seedP <= seed-row P2O5 ('prio' row: seedP - seed-row P2O5 <= 0)
+      constraints.push(['prio', { max: 0 }], ['prioCap', { max: pb.target.p2o5 }]);
+      variables.push(['seedP', [['prio', 1], ['prioCap', 1], ['cost', -SEED_P_PRIORITY]]]);
     }
   }
   return { constraints, variables };
@@ -266,21 +308,7 @@ export function solveProducts(options: readonly ProductOption[], target: Record<
       x = y;
     }
   }
-  // a rate left at its machine minimum often means a small remainder was pushed up to it: try each such
-  // option switched off (a fresh dive with it fixed at 0) and keep whatever scores better
-  if (x) {
-    const atMin = options.map((o, i) => i).filter((i) => options[i]!.minLb > 0 && x![i]! > 1e-9 && x![i]! <= options[i]!.minLb + options[i]!.stepLb + 1e-9).slice(0, 4);
-    for (const i of atMin) {
-      const fixed: (number | undefined)[] = new Array(options.length).fill(undefined);
-      fixed[i] = 0;
-      const start = solveLp(pb, fixed);
-      const y = start && dive(pb, start, 'best', fixed);
-      if (y && score(pb, y) < bestScore - 1e-12) {
-        bestScore = score(pb, y);
-        x = y;
-      }
-    }
-  }
+  if (x) x = dropTrickles(pb, x);
   if (!x) {
     const m = solveMip(pb);
     if (m.status !== 'optimal') return { status: m.status === 'infeasible' ? 'infeasible' : 'error', rates, steps, cost: NaN, solver: m.status, shortfall: NaN };
@@ -300,6 +328,35 @@ export function solveProducts(options: readonly ProductOption[], target: Record<
   return { status: 'optimal', rates, steps, cost, solver, shortfall: maximize ? 0 : shortfallOf(options, rates, target) };
 }
 
+function productCost(pb: Problem, x: Float64Array): number {
+  let c = 0;
+  pb.options.forEach((o, i) => (c += x[i]! * o.pricePerLb));
+  return c;
+}
+
+/**
+ * A rate left at (about) its machine minimum usually means a small remainder was pushed up to it: try each such
+ * option switched off (a fresh dive with it fixed at 0) and keep the answer when it scores better, or when it
+ * costs less and still meets every target within the plan's tolerance (the LP never lets a shortfall pass it):
+ * the tolerance is used before a trickle of product is added (the decision then says the target was left short).
+ * Options switched off stay off. At most six tries.
+ */
+function dropTrickles(pb: Problem, x: Float64Array): Float64Array {
+  if (pb.maximize) return x;
+  const { options } = pb;
+  const fixed: (number | undefined)[] = new Array(options.length).fill(undefined);
+  const atMin = options.map((_, i) => i).filter((i) => options[i]!.minLb > 0 && x[i]! > 1e-9 && x[i]! <= options[i]!.minLb + options[i]!.stepLb + 1e-9).slice(0, 6);
+  for (const i of atMin) {
+    if (!(x[i]! > 1e-9)) continue;
+    fixed[i] = 0;
+    const start = solveLp(pb, fixed);
+    const y = start && dive(pb, start, 'best', fixed);
+    if (y && (score(pb, y) < score(pb, x) - 1e-12 || productCost(pb, y) < productCost(pb, x) - 1e-9)) x = y;
+    else fixed[i] = undefined;
+  }
+  return x;
+}
+
 type DivePolicy = 'best' | 'first' | 'nearest';
 /** The dives tried: keep the best LP objective at each fix; the first of up / down / off that fits; the nearest. */
 const DIVE_POLICIES: readonly DivePolicy[] = ['best', 'first', 'nearest'];
@@ -312,8 +369,12 @@ function score(pb: Problem, x: Float64Array): number {
     return -t;
   }
   let c = 0;
-  pb.options.forEach((o, i) => (c += x[i]! * (o.pricePerLb + PLACEMENT_TIE * PLACEMENTS.indexOf(o.placement))));
-  return c + SHORTFALL_PENALTY * shortfallOf(pb.options, x, pb.target);
+  let seedP = 0;
+  pb.options.forEach((o, i) => {
+    c += x[i]! * (o.pricePerLb + PLACEMENT_TIE * PLACEMENTS.indexOf(o.placement));
+    if (o.placement === 'seed_row') seedP += x[i]! * o.frac.p2o5;
+  });
+  return c + SHORTFALL_PENALTY * shortfallOf(pb.options, x, pb.target) - SEED_P_PRIORITY * Math.min(seedP, Math.max(0, pb.target.p2o5));
 }
 
 /** One rounding dive from the LP answer x0; null if it dead-ends. */
@@ -345,8 +406,8 @@ function dive(pb: Problem, x0: Float64Array, policy: DivePolicy, preset?: readon
 }
 
 /**
- * The exact integer answer by branch and bound alone (no dive), for benchmarks and tests that measure the
- * dive against it. Slower, and can time out (status "error"). Default 4000 iterations.
+ * The exact integer answer by branch and bound alone (no dive), for the benchmark that measures the dive
+ * against it (scripts/bench-rates.ts; not exported from the library). Slower, and can time out (status "error"). Default 4000 iterations.
  * @example solveProductsExact(options, target, 0.05, limits, 30000).cost
  */
 export function solveProductsExact(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maxIterations = 4000): SolveResult {

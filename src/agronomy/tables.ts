@@ -19,21 +19,33 @@ export const NUTRIENTS = ['n', 'p2o5', 'k2o', 's'] as const;
 export type Nutrient = (typeof NUTRIENTS)[number];
 export const TEXTURES = ['light', 'medium', 'heavy'] as const;
 
+/** A seed-placed P2O5 guideline "as MAP": the value and the drill configuration it was stated for. */
+const seedPGuide = z.object({ value: z.number().min(0), spread_in: z.number().positive(), rows_in: z.number().positive(), source });
+
 const cropSchema = z.object({
   label: z.string(),
   bushel_lb: num(1),
   n_per_bu: num(),
   removal_per_bu: z.object({ n: num(), p2o5: num(), k2o: num(), s: num() }),
+  /** the soil-test K below which a response class may call for K2O (the upper bound of the crop's K classes) */
   k_critical_ppm: num(),
   k_responds_above_critical: bool,
+  /** which K class table the crop uses (a key of `k_classes`) */
+  k_class_group: z.string(),
   s_low_below_lb: num(),
   s_when_low_lb: num(),
   s_floor_lb: num(),
   /** which seed-row N table the crop uses (a key of `seed_row_n`) */
   seed_row_group: z.string(),
-  seed_row_p2o5_max: num(),
-  seed_row_p2o5_k2o_max: num(),
+  /** seed-placed P2O5 as MAP, by provincial guideline (plan key seed_row.p_guideline) */
+  seed_row_p2o5: z.object({ manitoba: seedPGuide, saskatchewan: seedPGuide }),
   seed_row_k2o_max: num(),
+  /** potash with the seed only when nothing else goes there (and only when the plan opts in) */
+  seed_row_k2o_alone: bool,
+  /** N + K2O with the seed at most this (null: no such limit) */
+  seed_row_n_k2o_max: z.object({ value: z.number().min(0).nullable(), source }),
+  /** the crop is always offered its seed-row P starter, whatever the soil test */
+  seed_row_starter: bool,
 });
 
 const seedRowCell = z.union([
@@ -41,7 +53,7 @@ const seedRowCell = z.union([
     spreads_in: z.array(z.number().positive()).min(1),
     rows_in: z.array(z.number().positive()).min(1),
     /** safe_n[spread index][row index], lb N/ac */
-    safe_n: z.array(z.array(z.number().min(0))),
+      safe_n: z.array(z.array(z.number().min(0).nullable())),
     source,
   }),
   z.object({ missing: z.literal(true), source }),
@@ -49,11 +61,26 @@ const seedRowCell = z.union([
 
 const pClass = z.object({
   name: z.string(),
-  /** upper bound (exclusive) of the class in ppm; null for the last class */
+  /** upper bound (exclusive) of the class in ppm Olsen; null for the last class */
   below_ppm: z.number().positive().nullable(),
   response_probability: z.number().min(0).max(1),
   source,
 });
+
+const kClass = z.object({
+  name: z.string(),
+  /** upper bound (exclusive) in ppm; null for the last class (at or above the critical level) */
+  below_ppm: z.number().positive().nullable(),
+  response_probability: z.number().min(0).max(1),
+  /** lb K2O/ac for the class */
+  k2o_lb: z.number().min(0),
+  source,
+});
+
+export const P_RULES = ['build_plus_removal', 'removal', 'fraction_of_removal', 'starter_or_none'] as const;
+
+const nEffCell = z.union([z.object({ value: z.number().positive(), source }), z.object({ missing: z.literal(true), source })]);
+const nEffTiming = z.object({ seed_row: nEffCell, band: nEffCell, broadcast: nEffCell });
 
 const productSchema = z.object({
   label: z.string(),
@@ -66,31 +93,39 @@ const productSchema = z.object({
   density_kg_l: z.object({ value: z.number().positive().max(3), source }).optional(),
   placements: z.array(z.enum(PLACEMENTS)).min(1),
   price_per_tonne: z.number().min(0),
+  /** in the seed row: `counts` against the urea-N table, or `within_p_limit` (the P2O5 limit is stated as this product, its N allowed for) */
+  seed_row_n: z.enum(['counts', 'within_p_limit']).default('counts'),
   source,
   price_source: source,
 });
 
-const effSchema = z.object({ n: z.number().positive().max(1), p2o5: z.number().positive().max(1), k2o: z.number().positive().max(1), s: z.number().positive().max(1), source });
+const effSchema = z.object({ p2o5: z.number().positive().max(1), k2o: z.number().positive().max(1), s: z.number().positive().max(1), source });
 
 export const tablesSchema = z.object({
   crops: z.record(z.string(), cropSchema),
   seed_row_n: z.record(z.string(), z.object({ light: seedRowCell, medium: seedRowCell, heavy: seedRowCell })),
   dry_seedbed_factor: prob,
-  p_classes: z.object({ olsen: z.array(pClass).min(1), kelowna: z.array(pClass).min(1) }),
-  p_class_rates: z.record(z.string(), z.object({ value: z.number().min(0), source, at_least_removal: z.boolean().default(false) })),
-  k_response_probability: z.object({ below_critical: prob, above_critical: prob }),
+  p_classes: z.object({
+    olsen: z.array(pClass).min(1),
+    /** published modified Kelowna class bounds (ppm) that win over Olsen x soil_test.kelowna_factor, by class name */
+    kelowna_published_below_ppm: z.record(z.string(), num()),
+  }),
+  p_class_rates: z.record(z.string(), z.object({ rule: z.enum(P_RULES), fraction: z.number().min(0).max(2).default(1), source })),
+  k_classes: z.record(z.string(), z.array(kClass).min(1)),
+  k_min_useful_lb: num(),
   yield_gain_pct: z.object({
     p: z.record(z.string(), num()),
-    k: z.object({ below_critical: num(), above_critical: num() }),
+    k: z.record(z.string(), num()),
   }),
   soil: z.object({
     p2o5_per_ppm: num(),
-    k2o_per_ppm: num(),
     om_n_lb_per_pct: num(),
     om_n_available: prob,
-    fall_nitrate_adjust_lb: num(),
+    spring_mineralization_lb: num(),
     legume_credit_lb: num(),
   }),
+  /** N relative efficiency by timing and placement, spring broadcast = 100; `reference` is what the N/bu values assume */
+  n_relative_efficiency: z.object({ reference: z.object({ timing: z.enum(['spring', 'fall']), placement: z.enum(['seed_row', 'band', 'broadcast']), source }), spring: nEffTiming, fall: nEffTiming }),
   placement_efficiency: z.object({ seed_row: effSchema, side_band: effSchema, mid_row_band: effSchema, broadcast: effSchema }),
   products: z.record(z.string(), productSchema),
 });
@@ -121,19 +156,33 @@ function check(t: unknown, where: string): Tables {
       if (!ok) throw new UserError(`${where}: key "seed_row_n.${g}.${t}.safe_n" must have one row per spread (${cell.spreads_in.length}) and one value per row spacing (${cell.rows_in.length}).`, { file: where });
     }
   }
-  for (const m of ['olsen', 'kelowna'] as const) {
-    const cl = tb.p_classes[m];
-    for (let i = 0; i < cl.length; i++) {
-      const b = cl[i]!.below_ppm;
-      const last = i === cl.length - 1;
-      if (last ? b !== null : b === null || (i > 0 && b <= (cl[i - 1]!.below_ppm ?? Infinity))) {
-        throw new UserError(`${where}: key "p_classes.${m}[${i}].below_ppm" must rise from class to class, and only the last class has null.`, { file: where });
-      }
-      if (!tb.p_class_rates[cl[i]!.name]) throw new UserError(`${where}: P class "${cl[i]!.name}" has no rate in "p_class_rates". Fix: add p_class_rates.${cl[i]!.name}.`, { file: where });
-      if (!tb.yield_gain_pct.p[cl[i]!.name]) throw new UserError(`${where}: P class "${cl[i]!.name}" has no entry in "yield_gain_pct.p". Fix: add yield_gain_pct.p.${cl[i]!.name}.`, { file: where });
-    }
+  checkBounds(tb.p_classes.olsen, 'p_classes.olsen', where);
+  for (const c of tb.p_classes.olsen) {
+    if (!tb.p_class_rates[c.name]) throw new UserError(`${where}: P class "${c.name}" has no rate in "p_class_rates". Fix: add p_class_rates.${c.name}.`, { file: where });
+    if (!tb.yield_gain_pct.p[c.name]) throw new UserError(`${where}: P class "${c.name}" has no entry in "yield_gain_pct.p". Fix: add yield_gain_pct.p.${c.name}.`, { file: where });
+  }
+  for (const k of Object.keys(tb.p_classes.kelowna_published_below_ppm)) {
+    if (!tb.p_classes.olsen.some((c) => c.name === k && c.below_ppm !== null)) throw new UserError(`${where}: key "p_classes.kelowna_published_below_ppm.${k}" names no bounded Olsen class; allowed: ${tb.p_classes.olsen.filter((c) => c.below_ppm !== null).map((c) => c.name).join(', ')}.`, { file: where });
+  }
+  for (const [g, cl] of Object.entries(tb.k_classes)) {
+    checkBounds(cl, `k_classes.${g}`, where);
+    for (const c of cl) if (!tb.yield_gain_pct.k[c.name]) throw new UserError(`${where}: K class "${c.name}" has no entry in "yield_gain_pct.k". Fix: add yield_gain_pct.k.${c.name}.`, { file: where });
+  }
+  for (const [name, c] of Object.entries(tb.crops)) {
+    if (!tb.k_classes[c.k_class_group]) throw new UserError(`${where}: key "crops.${name}.k_class_group" is "${c.k_class_group}", which is not a k_classes table; allowed: ${Object.keys(tb.k_classes).join(', ')}.`, { file: where });
   }
   return tb;
+}
+
+/** Class bounds rise from class to class; only the last class is open (null). */
+function checkBounds(cl: readonly { below_ppm: number | null }[], key: string, where: string): void {
+  for (let i = 0; i < cl.length; i++) {
+    const b = cl[i]!.below_ppm;
+    const last = i === cl.length - 1;
+    if (last ? b !== null : b === null || (i > 0 && b <= (cl[i - 1]!.below_ppm ?? Infinity))) {
+      throw new UserError(`${where}: key "${key}[${i}].below_ppm" must rise from class to class, and only the last class has null.`, { file: where });
+    }
+  }
 }
 
 let cachedDefaults: Tables | undefined;

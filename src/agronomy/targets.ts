@@ -17,88 +17,127 @@ export type Targets = Record<Nutrient, Target>;
 
 const r1 = (v: number) => Math.round(v * 10) / 10;
 
+function nTarget(it: Interpretation, crop: CropTable, plan: Plan): Target {
+  const st = plan.strategy.n;
+  if (st.method === 'none') return { lbac: 0, strategy: 'none', detail: 'no N (plan strategy.n.method: none)' };
+  const y = plan.target_yield_bu;
+  const need = crop.n_per_bu.value * y;
+  const eff = st.efficiency ?? 1;
+  const lb = Math.max(0, need - it.n.availableLb) / eff;
+  const n = it.n;
+  const cr = [n.springMineralizationLb ? `+ ${r1(n.springMineralizationLb)} spring mineralization (fall sample)` : '', n.omCreditLb ? `+ ${r1(n.omCreditLb)} organic matter` : '', n.legumeCreditLb ? `+ ${r1(n.legumeCreditLb)} legume` : '', n.otherCreditLb ? `+ ${r1(n.otherCreditLb)} other` : ''].filter(Boolean).join(' ');
+  const effText = st.efficiency === null ? 'N placed by the relative efficiency of its placement and timing (n_relative_efficiency)' : `/ efficiency ${st.efficiency} (plan key strategy.n.efficiency)`;
+  return {
+    lbac: lb,
+    strategy: 'mass_balance',
+    detail: `${crop.n_per_bu.value} lb N/bu x ${y} bu = ${r1(need)}; available ${r1(n.nitrateLbac)} nitrate (${plan.soil_test.nitrate_sampled} sample, used as read)${cr ? ' ' + cr : ''} = ${r1(n.availableLb)}; need - available = ${r1(lb * eff)}, ${effText}${st.efficiency === null ? '' : ` = ${r1(lb)}`}`,
+  };
+}
+
+function buildPart(it: Interpretation, plan: Plan, tables: Tables): { lb: number; text: string } {
+  const st = plan.strategy.p;
+  const perPpm = st.p2o5_per_ppm ?? tables.soil.p2o5_per_ppm.value;
+  const lb = (Math.max(0, st.build_to_ppm - it.p.ppm) * perPpm) / st.build_years;
+  return { lb, text: `(${st.build_to_ppm} - ${r1(it.p.ppm)} ppm) x ${perPpm} lb P2O5/ppm / ${st.build_years} yr = ${r1(lb)}` };
+}
+
+function pTarget(it: Interpretation, crop: CropTable, plan: Plan, tables: Tables, starterLb: number, warnings: Warning[]): Target {
+  const y = plan.target_yield_bu;
+  const removal = crop.removal_per_bu.p2o5.value * y;
+  const remText = `removal ${crop.removal_per_bu.p2o5.value} lb P2O5/bu x ${y} bu = ${r1(removal)}`;
+  const pm = plan.strategy.p.method;
+  if (pm === 'none') return { lbac: 0, strategy: 'none', detail: 'no P (plan strategy.p.method: none)' };
+  if (pm === 'removal' || it.p.className === null) {
+    if (it.p.className === null && pm !== 'removal') warnings.push({ code: 'p-not-tested', message: 'P not tested here: P target set to crop removal', field: 'p' });
+    return { lbac: removal, strategy: 'removal', detail: remText };
+  }
+  if (pm === 'build') {
+    const b = buildPart(it, plan, tables);
+    return { lbac: removal + b.lb, strategy: 'build', detail: `${remText} + build ${b.text} = ${r1(removal + b.lb)}` };
+  }
+  const rule = tables.p_class_rates[it.p.className]!;
+  const cls = `class ${it.p.className} (${r1(it.p.ppm)} ppm ${it.p.method}${it.p.kelownaFactor ? `, Kelowna factor ${it.p.kelownaFactor}` : ''})`;
+  let lb: number;
+  let how: string;
+  if (rule.rule === 'build_plus_removal') {
+    const b = buildPart(it, plan, tables);
+    lb = removal + b.lb;
+    how = `build and maintenance: ${remText} + build ${b.text}`;
+  } else if (rule.rule === 'removal') {
+    lb = removal;
+    how = `maintenance: ${remText}`;
+  } else if (rule.rule === 'fraction_of_removal') {
+    lb = removal * rule.fraction;
+    how = `reduced: ${rule.fraction} x ${remText}`;
+  } else {
+    lb = crop.seed_row_starter.value ? starterLb : 0;
+    how = crop.seed_row_starter.value ? `seed-row starter only: ${r1(starterLb)} lb P2O5 (what fits in the seed row)` : 'none on a very high test';
+  }
+  if (crop.seed_row_starter.value && starterLb > lb) {
+    how += `; raised to the seed-row starter ${r1(starterLb)} (${crop.seed_row_starter.source})`;
+    lb = starterLb;
+  }
+  return { lbac: lb, strategy: 'response_class', detail: `${cls}: ${how} = ${r1(lb)} (${rule.source})` };
+}
+
+function kTarget(it: Interpretation, crop: CropTable, plan: Plan, tables: Tables, warnings: Warning[]): Target {
+  if (plan.strategy.k.method === 'none') return { lbac: 0, strategy: 'none', detail: 'no K (plan strategy.k.method: none)' };
+  if (it.k.className === null) {
+    warnings.push({ code: 'k-not-tested', message: 'K not tested here: no K target', field: 'k' });
+    return { lbac: 0, strategy: 'response_class', detail: 'K not tested' };
+  }
+  const y = plan.target_yield_bu;
+  const minUseful = tables.k_min_useful_lb.value;
+  let lb = it.k.classK2o;
+  let detail = `class ${it.k.className} (${r1(it.k.ppm)} ppm; critical ${it.k.criticalPpm} ppm): ${lb} lb K2O/ac (${it.k.source})`;
+  if (!it.k.below && crop.k_responds_above_critical.value) {
+    lb = crop.removal_per_bu.k2o.value * y;
+    detail = `above the critical ${it.k.criticalPpm} ppm but ${crop.label} responds (${crop.k_responds_above_critical.source}): removal ${crop.removal_per_bu.k2o.value} x ${y} = ${r1(lb)}`;
+  }
+  if (lb > 0 && lb < minUseful) {
+    warnings.push({ code: 'target-rounded-to-zero', message: `K2O target ${r1(lb)} lb/ac is below the minimum useful rate ${minUseful} lb/ac: rounded to 0`, field: 'k' });
+    detail += `; below the minimum useful ${minUseful} lb K2O/ac: rounded to 0 (${tables.k_min_useful_lb.source})`;
+    lb = 0;
+  }
+  return { lbac: lb, strategy: 'response_class', detail };
+}
+
+function sTarget(it: Interpretation, crop: CropTable, plan: Plan, warnings: Warning[]): Target {
+  if (plan.strategy.s.method === 'none') return { lbac: 0, strategy: 'none', detail: 'no S (plan strategy.s.method: none)' };
+  const y = plan.target_yield_bu;
+  const floor = crop.s_floor_lb.value;
+  const rem = crop.removal_per_bu.s.value * y;
+  if (it.s.status === 'low') {
+    const lb = Math.max(crop.s_when_low_lb.value, rem, floor);
+    return { lbac: lb, strategy: 'need_or_floor', detail: `low test (${r1(it.s.lbac)} < ${it.s.lowBelowLb} lb/ac): max(need ${crop.s_when_low_lb.value}, removal ${r1(rem)}, floor ${floor}) = ${r1(lb)}` };
+  }
+  warnings.push({
+    code: it.s.status === 'not_tested' ? 's-not-tested' : 's-uncertain',
+    message: it.s.status === 'not_tested' ? 'S not tested here: only the S floor applies' : `sulphate-S ${r1(it.s.lbac)} lb/ac is not low, but that result is uncertain (large test error; hilltops and slopes may be deficient)`,
+    field: 'so4_s',
+  });
+  return { lbac: floor, strategy: 'need_or_floor', detail: it.s.status === 'not_tested' ? `S not tested: floor ${floor}` : `test ${r1(it.s.lbac)} lb/ac is not low, but a sulphate test that is not low is unreliable: floor ${floor} (${crop.s_floor_lb.source})` };
+}
+
 /**
  * Targets for one location.
- * - N mass balance: max(0, need/bu x yield - available N) / efficiency
- * - P response_class: the class's rate; removal: removal/bu x yield; build: removal + (to - test) x lb/ppm / years
- * - K deficit: (critical - test) x lb K2O per ppm below the critical level; above it, removal only for crops that respond
+ * - N mass balance: max(0, need/bu x yield - available N) (/ the plan's efficiency when it sets one; otherwise
+ *   each placement's relative efficiency applies in the product solve)
+ * - P response_class by the class's rule: build + removal (very low, low), removal (medium), a fraction of removal
+ *   (high), the seed-row starter or none (very high); a crop always offered a starter gets at least `starterLb`.
+ *   removal: removal/bu x yield; build: removal + (to - test) x lb/ppm / years
+ * - K response_class: the crop's K class rate; above the critical level removal only for crops that respond;
+ *   a rate below the minimum useful K2O is rounded to 0 (said in a warning)
  * - S: low test: max(need when low, removal, floor); otherwise the floor (test flagged uncertain)
- * Pushes warnings (not tested, uncertain S) onto `warnings`.
- * @example targets(interpret(soil, crop, plan, tables), crop, plan, tables, []).n.lbac
+ * Pushes warnings (not tested, uncertain S, rounded to 0) onto `warnings`.
+ * @param starterLb lb P2O5 the seed row takes as a starter (0 without a seed row); default 0
+ * @example targets(interpret(soil, crop, plan, tables), crop, plan, tables, [], 20).p2o5.lbac
  */
-export function targets(it: Interpretation, crop: CropTable, plan: Plan, tables: Tables, warnings: Warning[]): Targets {
-  const y = plan.target_yield_bu;
-  const st = plan.strategy;
-  const rem = crop.removal_per_bu;
-
-  // N
-  let n: Target;
-  if (st.n.method === 'none') n = { lbac: 0, strategy: 'none', detail: 'no N (plan strategy.n.method: none)' };
-  else {
-    const need = crop.n_per_bu.value * y;
-    const lb = Math.max(0, need - it.n.availableLb) / st.n.efficiency;
-    const cr = [it.n.fallAdjustLb ? `- ${r1(it.n.fallAdjustLb)} fall adjustment` : '', it.n.omCreditLb ? `+ ${r1(it.n.omCreditLb)} organic matter` : '', it.n.legumeCreditLb ? `+ ${r1(it.n.legumeCreditLb)} legume` : '', it.n.otherCreditLb ? `+ ${r1(it.n.otherCreditLb)} other` : ''].filter(Boolean).join(' ');
-    n = {
-      lbac: lb,
-      strategy: 'mass_balance',
-      detail: `${crop.n_per_bu.value} lb N/bu x ${y} bu = ${r1(need)}; available ${r1(it.n.nitrateLbac)} nitrate${cr ? ' ' + cr : ''} = ${r1(it.n.availableLb)}; (need - available) / efficiency ${st.n.efficiency} = ${r1(lb)}`,
-    };
-  }
-
-  // P2O5
-  const removalP = rem.p2o5.value * y;
-  let p: Target;
-  const pm = st.p.method;
-  if (pm === 'none') p = { lbac: 0, strategy: 'none', detail: 'no P (plan strategy.p.method: none)' };
-  else if (pm === 'removal' || (pm === 'response_class' && it.p.className === null)) {
-    if (pm === 'response_class') warnings.push({ code: 'p-not-tested', message: 'P not tested here: P target set to crop removal instead of a response-class rate', field: 'p' });
-    p = { lbac: removalP, strategy: 'removal', detail: `${rem.p2o5.value} lb P2O5/bu x ${y} bu = ${r1(removalP)}` };
-  } else if (pm === 'response_class') {
-    const rate = tables.p_class_rates[it.p.className!]!;
-    const lb = rate.at_least_removal ? Math.max(rate.value, removalP) : rate.value;
-    p = {
-      lbac: lb,
-      strategy: 'response_class',
-      detail: `class ${it.p.className} (${r1(it.p.ppm)} ppm ${it.p.method}): ${rate.value} lb P2O5/ac (${rate.source})${rate.at_least_removal ? `, at least removal ${r1(removalP)}: ${r1(lb)}` : ''}`,
-    };
-  } else {
-    const perPpm = st.p.p2o5_per_ppm ?? tables.soil.p2o5_per_ppm.value;
-    const test = Number.isFinite(it.p.ppm) ? it.p.ppm : st.p.build_to_ppm;
-    if (!Number.isFinite(it.p.ppm)) warnings.push({ code: 'p-not-tested', message: 'P not tested here: build strategy applies crop removal only', field: 'p' });
-    const build = (Math.max(0, st.p.build_to_ppm - test) * perPpm) / st.p.build_years;
-    p = { lbac: removalP + build, strategy: 'build', detail: `removal ${r1(removalP)} + (${st.p.build_to_ppm} - ${r1(test)} ppm) x ${perPpm} lb/ppm / ${st.p.build_years} yr = ${r1(removalP + build)}` };
-  }
-
-  // K2O
-  let k: Target;
-  if (st.k.method === 'none') k = { lbac: 0, strategy: 'none', detail: 'no K (plan strategy.k.method: none)' };
-  else if (it.k.below === null) {
-    warnings.push({ code: 'k-not-tested', message: 'K not tested here: no K target', field: 'k' });
-    k = { lbac: 0, strategy: 'deficit', detail: 'K not tested' };
-  } else if (it.k.below) {
-    const lb = (it.k.criticalPpm - it.k.ppm) * tables.soil.k2o_per_ppm.value;
-    k = { lbac: lb, strategy: 'deficit', detail: `(${it.k.criticalPpm} - ${r1(it.k.ppm)} ppm) x ${tables.soil.k2o_per_ppm.value} lb K2O/ppm = ${r1(lb)}` };
-  } else if (crop.k_responds_above_critical.value) {
-    const lb = rem.k2o.value * y;
-    k = { lbac: lb, strategy: 'deficit', detail: `above the critical ${it.k.criticalPpm} ppm but ${crop.label} responds (${crop.k_responds_above_critical.source}): removal ${rem.k2o.value} x ${y} = ${r1(lb)}` };
-  } else k = { lbac: 0, strategy: 'deficit', detail: `${r1(it.k.ppm)} ppm is at or above the critical ${it.k.criticalPpm} ppm: no K` };
-
-  // S
-  let s: Target;
-  if (st.s.method === 'none') s = { lbac: 0, strategy: 'none', detail: 'no S (plan strategy.s.method: none)' };
-  else {
-    const floor = crop.s_floor_lb.value;
-    if (it.s.status === 'low') {
-      const lb = Math.max(crop.s_when_low_lb.value, rem.s.value * y, floor);
-      s = { lbac: lb, strategy: 'need_or_floor', detail: `low test (${r1(it.s.lbac)} < ${it.s.lowBelowLb} lb/ac): max(need ${crop.s_when_low_lb.value}, removal ${r1(rem.s.value * y)}, floor ${floor}) = ${r1(lb)}` };
-    } else {
-      s = { lbac: floor, strategy: 'need_or_floor', detail: it.s.status === 'not_tested' ? `S not tested: floor ${floor}` : `test ${r1(it.s.lbac)} lb/ac is not low, but a sulphate test that is not low is unreliable: floor ${floor} (${crop.s_floor_lb.source})` };
-      warnings.push({
-        code: it.s.status === 'not_tested' ? 's-not-tested' : 's-uncertain',
-        message: it.s.status === 'not_tested' ? 'S not tested here: only the S floor applies' : `sulphate-S ${r1(it.s.lbac)} lb/ac is not low, but that result is uncertain (large test error; hilltops and slopes may be deficient)`,
-        field: 'so4_s',
-      });
-    }
-  }
-  return { n, p2o5: p, k2o: k, s };
+export function targets(it: Interpretation, crop: CropTable, plan: Plan, tables: Tables, warnings: Warning[], starterLb = 0): Targets {
+  return {
+    n: nTarget(it, crop, plan),
+    p2o5: pTarget(it, crop, plan, tables, starterLb, warnings),
+    k2o: kTarget(it, crop, plan, tables, warnings),
+    s: sTarget(it, crop, plan, warnings),
+  };
 }

@@ -27,6 +27,8 @@ export interface CheckLayer {
   crsSource: 'prj' | 'geojson' | 'none';
   /** raw text of each value per column (shapefiles), to tell "blank" from "text the reader dropped" */
   rawText?: Record<string, string[]>;
+  /** cell size in metres when the zones are grid cells: overlap, gap and outside pieces thinner on average are ignored */
+  resolutionM?: number;
 }
 
 const ext = (n: string) => (/\.([^./\\]+)$/.exec(n)?.[1] ?? '').toLowerCase();

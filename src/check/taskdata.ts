@@ -2,11 +2,12 @@
  * ISO 11783-10 task data as layers for `tilth check`: one layer per task and product, zones with their
  * setpoint rate in the DDI's unit (DDI 6 mass per area -> kg/ha, DDI 1 volume per area -> L/ha).
  * Polygon zones come as they are; a grid becomes one polygon per run of equal values (traced along cell
- * edges), cells with no product at all being left out. Pure: file bytes in, layers out.
+ * edges), cells with no product at all being left out unless their centre lies in the task's field. Pure: file bytes in, layers out.
  */
 import type { Feature, MultiPolygon } from 'geojson';
 import { UserError } from '../errors.js';
-import { readTaskData, decodeInt32LE, RATE_DDIS, ddiHex, type IsoGrid, type IsoTask, type IsoZone, type TaskData } from '../io/isoxml/index.js';
+import { readTaskData, decodeInt32LE, RATE_DDIS, ddiHex, type IsoGrid, type IsoPartfield, type IsoTask, type IsoZone, type TaskData } from '../io/isoxml/index.js';
+import { rasterizeLonLat } from '../geo/rasterize.js';
 import { readZip } from '../io/zip.js';
 import { traceZones } from '../zones/trace.js';
 import { mgm2ToKgha, mm3m2ToLha } from '../units/index.js';
@@ -42,8 +43,11 @@ function zoneFeatures(t: IsoTask, productId: string, label: string, where: strin
   return { features, column };
 }
 
-/** Per cell: the product's value, or NaN where the cell has no product at all. */
-function gridValues(g: IsoGrid, zones: IsoZone[], productId: string, label: string, where: string): { values: Float64Array; column: string } {
+/**
+ * Per cell: the product's value, or NaN for a cell that is no zone: one with no product at all whose centre
+ * lies outside the task's field (`inField`; without a field boundary, every cell with no product).
+ */
+function gridValues(g: IsoGrid, zones: IsoZone[], productId: string, inField: Int32Array | null, label: string, where: string): { values: Float64Array; column: string } {
   const n = g.cols * g.rows;
   const values = new Float64Array(n).fill(NaN);
   if (g.type === 2) {
@@ -52,8 +56,8 @@ function gridValues(g: IsoGrid, zones: IsoZone[], productId: string, label: stri
     const r = rateOf(z.values[k].ddi, label, `${where} > TZN code ${z.code}`);
     const per = z.values.length, cells = decodeInt32LE(g.data);
     for (let i = 0; i < n; i++) {
-      let any = false;
-      for (let j = 0; j < per; j++) any ||= cells[i * per + j] !== 0;
+      let any = inField !== null && inField[i] >= 0;
+      for (let j = 0; j < per && !any; j++) any = cells[i * per + j] !== 0;
       if (any) values[i] = r.convert(cells[i * per + k]);
     }
     return { values, column: r.column };
@@ -65,15 +69,19 @@ function gridValues(g: IsoGrid, zones: IsoZone[], productId: string, label: stri
     if (!v) continue;
     const r = rateOf(v.ddi, label, `${where} > TZN code ${z.code}`);
     column ||= r.column;
-    if (z.values.some((x) => x.value !== 0)) byCode.set(z.code, r.convert(v.value));
+    byCode.set(z.code, z.values.some((x) => x.value !== 0) ? r.convert(v.value) : NaN);
   }
-  for (let i = 0; i < n; i++) values[i] = byCode.get(g.data[i]) ?? NaN;
+  for (let i = 0; i < n; i++) {
+    const v = byCode.get(g.data[i]) ?? NaN;
+    values[i] = Number.isNaN(v) && inField !== null && inField[i] >= 0 ? 0 : v;
+  }
   return { values, column: column || 'rate_kgha' };
 }
 
 /** A grid's runs of equal values as zones: traced along cell edges (rows flipped to north-up). */
-function gridFeatures(g: IsoGrid, zones: IsoZone[], productId: string, label: string, where: string): { features: Feature[]; column: string } {
-  const { values, column } = gridValues(g, zones, productId, label, where);
+function gridFeatures(g: IsoGrid, zones: IsoZone[], productId: string, field: IsoPartfield | undefined, label: string, where: string): { features: Feature[]; column: string } {
+  const inField = field?.polygons.length ? rasterizeLonLat([field.polygons.map((p) => [ringCoords(p.exterior), ...p.holes.map(ringCoords)])], g) : null;
+  const { values, column } = gridValues(g, zones, productId, inField, label, where);
   const ids = new Map<number, number>();
   const lab = new Int32Array(g.cols * g.rows).fill(-1);
   for (let r = 0; r < g.rows; r++) for (let c = 0; c < g.cols; c++) {
@@ -110,18 +118,25 @@ export function layersFromTaskData(td: TaskData, label: string): CheckLayer[] {
     const pids = [...new Set(t.zones.flatMap((z) => z.values.map((v) => v.productId ?? '')))];
     for (const pid of pids) {
       const pname = td.products.find((p) => p.id === pid)?.name ?? (pid || 'no product named');
-      const { features, column } = t.grid ? gridFeatures(t.grid, t.zones, pid, label, where) : zoneFeatures(t, pid, label, where);
+      const { features, column } = t.grid ? gridFeatures(t.grid, t.zones, pid, td.partfields.find((p) => p.id === t.partfieldId), label, where) : zoneFeatures(t, pid, label, where);
       layers.push({
         label: `${label} task ${t.id} "${t.name}", product ${pid || '-'} "${pname}"`,
         features,
         fields: [{ name: 'zone_id', numeric: true }, { name: column || 'rate_kgha', numeric: true }],
         crs: { ...CRS },
         crsSource: 'geojson',
+        resolutionM: t.grid ? cellMetres(t.grid) : undefined,
       });
     }
   }
   if (layers.length === 0) throw new UserError(`${label}: holds no task with a rate (no TSK with TZN and PDV). Fix: export the prescription as a task with treatment zones.`, { file: label });
   return layers;
+}
+
+/** A grid cell's shorter side in metres (a sphere of 6371 km is close enough for a tolerance). */
+function cellMetres(g: IsoGrid): number {
+  const m = (6_371_000 * Math.PI) / 180;
+  return Math.min(g.cellNorth * m, g.cellEast * m * Math.cos(((g.south + (g.rows * g.cellNorth) / 2) * Math.PI) / 180));
 }
 
 /** True when `name` (a path or zip entry) is a TASKDATA.XML. */

@@ -2,7 +2,7 @@
 import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
 import { UserError } from '../errors.js';
-import { analyteFromName, ANALYTE_LABEL, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, utmPrj, type NutrientSurface } from '../surface/index.js';
+import { analyteFromName, ANALYTE_LABEL, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, SURFACE_METHODS, utmPrj, type NutrientSurface, type SurfaceMethod } from '../surface/index.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { checkOutputFile, info, numberOption, out, printWarnings, writeOutputFile } from './util.js';
 
@@ -13,10 +13,13 @@ const PRJ_OURS = (h: string) => /^PROJCS\["WGS_1984_UTM_Zone_\d+[NS]"/.test(h);
 export function register(program: Command): void {
   addInputOptions(program
     .command('surface'))
-    .description('Map one soil-test nutrient over the field by inverse-distance weighting (power and neighbours chosen by cross-validation unless given) and write an Esri ASCII grid (.asc with .prj) in the field\'s UTM zone.')
+    .description('Map one soil-test nutrient over the field by inverse-distance weighting (power and neighbours chosen by cross-validation unless given) or ordinary kriging, and write an Esri ASCII grid (.asc with .prj) in the field\'s UTM zone.')
     .requiredOption('--nutrient <name>', 'no3_n (or n, nitrate), p, k, so4_s (or s, sulphate, sulfate), om, ph')
     .requiredOption('--out <file.asc>', 'output grid; the .prj is written beside it')
     .option('--cell <metres>', 'cell size in metres', '5')
+    .option('--method <idw|kriging|auto>', 'idw (inverse distance), kriging (ordinary kriging with the semivariogram model fitted as `tilth variability` fits it; refused with the reason when the fit is unusable), or auto (the lowest leave-one-out RMSE of the IDW candidates and kriging)', 'idw')
+    .option('--kriging-neighbours <k>', 'nearest samples per cell for kriging', '16')
+    .option('--log', 'krige the natural logarithm of the values (skewed data) and back-transform to the lognormal mean (docs/surface.md)')
     .option('--power <p|auto>', 'IDW distance power, or auto (lowest cross-validation RMSE of 1, 1.5, 2, 3)', 'auto')
     .option('--neighbours <k|all|auto>', 'nearest samples per cell, all, or auto (lowest RMSE of 8, 12, 16, all)', 'auto')
     .option('--radius <metres>', 'use only samples within this distance (default: no limit)')
@@ -28,6 +31,8 @@ export function register(program: Command): void {
       'after',
       '\nExample:\n  tilth surface --samples sample-fields/quarter/samples.geojson --boundary sample-fields/quarter/boundary.geojson \\\n' +
         '    --nutrient p --cell 5 --power auto --neighbours 12 --out p.asc\n' +
+        '  tilth surface --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n' +
+        '    --nutrient s --method auto --out s.asc\n' +
         '  tilth surface --samples sample-fields/zoned/samples.geojson --boundary sample-fields/zoned/boundary.geojson \\\n' +
         '    --zones sample-fields/zoned/zones.geojson --nutrient s --out s.asc\n\n' +
         'Values are in canonical units: nitrate-N and sulphate-S lb/ac 0-24 in, P and K ppm, OM %, pH.\n' +
@@ -41,6 +46,9 @@ export function register(program: Command): void {
       const neighbours = nb === 'auto' ? 'auto' : nb === 'all' ? Infinity : numberOption('--neighbours', o.neighbours, { min: 1, integer: true })!;
       const radius = numberOption('--radius', o.radius, { min: 0.01 });
       const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, { min: 1, integer: true });
+      const method = String(o.method).toLowerCase();
+      if (!SURFACE_METHODS.includes(method as SurfaceMethod)) throw new UserError(`option --method: "${o.method}" is not a method. Fix: give idw, kriging or auto.`, { value: o.method });
+      const kNeighbours = numberOption('--kriging-neighbours', o.krigingNeighbours, { min: 1, integer: true })!;
       const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
       if (!/\.asc$/i.test(o.out)) throw new UserError(`--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`, { file: o.out });
       const inputFiles = [o.samples, o.boundary, o.zones].filter((f): f is string => !!f);
@@ -52,7 +60,7 @@ export function register(program: Command): void {
       checkOutputFile(prjPath, { ...fileOpts, ours: prjOurs });
       const inputs = loadInputs(inputOptionsFrom(o));
       const grid = fieldGrid(inputs.field, cell);
-      const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours });
+      const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours, method: method as SurfaceMethod, kriging: { neighbours: kNeighbours, log: Boolean(o.log) } });
       const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
       writeOutputFile(o.out, formatAsc(grid, s.values, { decimals }), { ...fileOpts, ours: ASC_OURS });
       writeOutputFile(prjPath, utmPrj(inputs.field.utm), { ...fileOpts, ours: prjOurs });
@@ -82,19 +90,22 @@ function summary(s: NutrientSurface, file: string, epsg: number, warnings: unkno
     samplesUsed: s.samplesUsed,
     min: s.min,
     max: s.max,
-    crossValidation: s.cv?.table ?? null,
+    crossValidation: s.cv?.table.map((r) => ({ ...r, method: r.method ?? 'idw', chosen: r === s.cv!.best })) ?? null,
+    kriging: s.kriging ? { model: s.kriging.model, refused: s.kriging.refused, transform: s.kriging.transform, neighbours: s.kriging.neighbours, modelText: s.kriging.modelText, modelSource: s.kriging.modelSource } : null,
     warnings,
   };
 }
 
-/** The cross-validation table as aligned text, the chosen row marked with "*". */
+/** The cross-validation table as aligned text, the chosen row marked with "*" (MSSE for kriging). */
 export function cvText(s: NutrientSurface): string {
   if (!s.cv) return `${ANALYTE_LABEL[s.analyte]}: no cross-validation table (${s.choice}).`;
-  const lines = [`leave-one-out cross-validation, ${ANALYTE_LABEL[s.analyte]} (${s.samplesUsed} samples)`, '  power  neighbours        RMSE         MAE        bias     n'];
+  const lines = [`leave-one-out cross-validation, ${ANALYTE_LABEL[s.analyte]} (${s.samplesUsed} samples)`, '  method    power  neighbours        RMSE         MAE        bias     n        MSSE'];
   for (const r of s.cv.table) {
-    const mark = r.power === s.power && r.neighbours === s.neighbours ? '*' : ' ';
-    lines.push(`${mark} ${String(r.power).padStart(5)}  ${kName(r.neighbours).padStart(10)}  ${f(r.rmse)}  ${f(r.mae)}  ${f(r.bias)}  ${String(r.n).padStart(4)}`);
+    const mark = r === s.cv.best ? '*' : ' ';
+    const krig = r.method === 'kriging';
+    lines.push(`${mark} ${(krig ? 'kriging' : 'idw').padEnd(7)}  ${(krig ? '-' : String(r.power)).padStart(5)}  ${kName(r.neighbours).padStart(10)}  ${f(r.rmse)}  ${f(r.mae)}  ${f(r.bias)}  ${String(r.n).padStart(4)}  ${krig ? f(r.msse ?? NaN) : ''}`.trimEnd());
   }
+  if (s.kriging?.model) lines.push(`  kriging model: ${s.kriging.modelText}; ${s.kriging.modelSource}. MSSE = mean(error^2 / kriging variance), near 1 when the variances fit.`);
   return lines.join('\n');
 }
 

@@ -36,7 +36,7 @@ export function register(program: Command): void {
     .option('--nutrient <name>', 'S, N, P, K, OM or pH', 'S')
     .option('--plan <file>', 'plan file (see `tilth plan init`): its crop and S strategy set the S threshold and floor from the tables (default: canola)')
     .option('--tables <file>', 'your edited tables (see `tilth tables`)')
-    .option('--threshold <value>', 'low means below this, in the nutrient\'s unit (default: S the crop\'s s_low_below_lb from the tables, 20 lb S/ac for canola; P at or below 10 ppm Olsen / 17 ppm Kelowna; K the crop\'s k_critical_ppm, 150 for canola; none for N, OM, pH)')
+    .option('--threshold <value>', 'low means below this, in the nutrient\'s unit (default: S the crop\'s s_low_below_lb from the tables, 20 lb S/ac for canola; P at or below 10 ppm Olsen / 17 ppm Kelowna; K the crop\'s k_critical_ppm, 125 for every crop; none for N, OM, pH)')
     .option('--s-floor <lb/ac>', 'sulphate-S the plan applies regardless of the test, lb S/ac (default: the crop\'s s_floor_lb from the tables, 10 for canola, common practice; 0 when the plan\'s S strategy is none)')
     .option('--cell <metres>', 'cell size of the interpolated surface (IDW, power and neighbours by cross-validation, as `tilth surface`) used for the share of area below the threshold and the map', '10')
     .option('--no-surface', 'skip the interpolated surface (samples only)')

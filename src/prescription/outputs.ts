@@ -2,6 +2,7 @@
  * Writers of a prescription as text: GeoJSON per zone set, zones.csv, summary.json and the printed
  * summary. Pure: they return strings; the CLI writes them.
  */
+import { csvCell } from '../io/csv-escape.js';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import type { Placement } from '../agronomy/tables.js';
 import { NUTRIENTS } from '../agronomy/tables.js';
@@ -75,11 +76,6 @@ export function prescriptionGeojson(rx: Prescription, set: ZoneSetResult): strin
   return JSON.stringify(fc) + '\n';
 }
 
-function csvCell(v: unknown): string {
-  const s = v === null || v === undefined ? '' : String(v);
-  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
 /** Every zone of every set as CSV, one row per zone (same attributes as the GeoJSON). */
 export function zonesCsv(rx: Prescription): string {
   const rows = rx.zoneSets.flatMap((set) => set.zones.map((z, zi) => {
@@ -113,7 +109,7 @@ export function summaryObject(rx: Prescription, prov: Provenance): unknown {
     target_yield_bu: rx.plan.target_yield_bu,
     units: rx.plan.units,
     grid: { cell_m: rx.grid.cell, cols: rx.grid.cols, rows: rx.grid.rows },
-    surfaces: rx.surfaces.map((s) => ({ analyte: s.analyte, method: s.method, power: Number.isFinite(s.power) ? s.power : null, neighbours: Number.isFinite(s.neighbours) ? s.neighbours : s.method === 'idw' ? 'all' : null, choice: s.choice, cv: s.cv?.table.map((r) => ({ power: r.power, neighbours: Number.isFinite(r.neighbours) ? r.neighbours : 'all', rmse: round(r.rmse, 4), mae: round(r.mae, 4), bias: round(r.bias, 4), n: r.n })) ?? null })),
+    surfaces: rx.surfaces.map((s) => ({ analyte: s.analyte, method: s.method, power: Number.isFinite(s.power) ? s.power : null, neighbours: Number.isFinite(s.neighbours) ? s.neighbours : s.method === 'idw' ? 'all' : null, choice: s.choice, cv: s.cv?.table.map((r) => ({ method: r.method ?? 'idw', power: Number.isFinite(r.power) ? r.power : null, ...(r.method === 'kriging' ? { msse: round(r.msse ?? NaN, 4), model: s.kriging?.modelText } : {}), chosen: r === s.cv!.best, neighbours: Number.isFinite(r.neighbours) ? r.neighbours : 'all', rmse: round(r.rmse, 4), mae: round(r.mae, 4), bias: round(r.bias, 4), n: r.n })) ?? null })),
     zone_sets: rx.zoneSets.map((s) => ({ name: s.name, driven_by: s.drivenBy, products: s.products, zones: s.zones.length, min_zone_ac: round(s.minZoneAreaM2 / 4046.8564224, 3), file: geojsonName(rx, s), breaks_lbac: s.breaks?.map((b) => round(b, 2)) ?? null, design: s.design ? designObject(s.design) : null })),
     totals: rx.totals.map((t) => ({ zone_set: t.zoneSet, product: t.product, label: t.label, placement: t.placement, total_lb: round(t.totalLb, 0), total_kg: round(t.totalKg, 0), total_tonnes: round(t.totalKg / 1000, 3), mean_rate: round(t.meanRate, 1), min_rate: round(t.minRate, 1), max_rate: round(t.maxRate, 1), unit: t.unit, applied_ac: round(t.appliedAc, 2) })),
     infeasible: rx.infeasible,

@@ -3,7 +3,7 @@
  */
 import { designLines } from './zoneDesign.js';
 import type { Warning } from '../errors.js';
-import { pClass } from '../agronomy/interpret.js';
+import { kClass, pClass, pClassTable } from '../agronomy/interpret.js';
 import type { Tables } from '../agronomy/tables.js';
 import { classify } from '../zones/classify.js';
 import type { ReportChart, ReportInput, ReportNutrient, ReportTableUsed, ReportZoneSet } from '../report/types.js';
@@ -69,7 +69,8 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
   const pMethod = inputs.samples.pMethod;
 
   const nutrients: ReportNutrient[] = rx.surfaces.map((s) => ({ key: s.analyte, ...NUTRIENT_INFO[s.analyte], label: s.analyte === 'p' ? `${pMethod === 'olsen' ? 'Olsen' : 'modified Kelowna'} P 0-6 in` : NUTRIENT_INFO[s.analyte].label }));
-  const pClasses = tables.p_classes[pMethod];
+  const kFactor = plan.soil_test.kelowna_factor;
+  const pClasses = pClassTable(pMethod, tables, kFactor);
 
   const surfaces = rx.surfaces.map((s) => {
     let breaks: number[];
@@ -89,24 +90,26 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
     const order = pClasses.map((_, i) => i).sort((a, b) => pClasses[a].response_probability - pClasses[b].response_probability);
     const rank = new Map(order.map((ci, r) => [pClasses[ci].name, r]));
     for (let i = 0; i < vals.length; i++) {
-      const c = pClass(pS.values[i], pMethod, tables);
+      const c = pClass(pS.values[i], pMethod, tables, kFactor);
       if (c) vals[i] = rank.get(c.name)!;
     }
-    response.push({ nutrient: 'p', classes: order.map((ci) => ({ label: `${pClasses[ci].name}: about ${Math.round(pClasses[ci].response_probability * 100)} % chance` })), raster: { grid: g, values: view.pick(vals) }, source: pClasses[0].source });
+    response.push({ nutrient: 'p', classes: order.map((ci) => ({ label: `${pClasses[ci].name}: about ${Math.round(pClasses[ci].response_probability * 100)} % chance${pMethod === 'kelowna' ? ` (Kelowna factor ${kFactor})` : ''}` })), raster: { grid: g, values: view.pick(vals) }, source: pClasses[0].source });
   }
   const kS = rx.surfaces.find((s) => s.analyte === 'k');
   if (kS && crop) {
-    const kc = crop.k_critical_ppm.value;
+    const kClasses = tables.k_classes[crop.k_class_group] ?? [];
+    const order = kClasses.map((_, i) => i).sort((a, b) => kClasses[a]!.response_probability - kClasses[b]!.response_probability);
+    const rank = new Map(order.map((ci, r) => [kClasses[ci]!.name, r]));
     const vals = new Float64Array(kS.values.length).fill(NaN);
-    for (let i = 0; i < vals.length; i++) if (kS.values[i] === kS.values[i]) vals[i] = kS.values[i] < kc ? 1 : 0;
+    for (let i = 0; i < vals.length; i++) {
+      const c = kClass(kS.values[i], crop, tables);
+      if (c) vals[i] = rank.get(c.name)!;
+    }
     response.push({
       nutrient: 'k',
-      classes: [
-        { label: `at or above ${kc} ppm: about ${Math.round(tables.k_response_probability.above_critical.value * 100)} % chance` },
-        { label: `below ${kc} ppm: about ${Math.round(tables.k_response_probability.below_critical.value * 100)} % chance` },
-      ],
+      classes: order.map((ci) => ({ label: `${kClasses[ci]!.name}: about ${Math.round(kClasses[ci]!.response_probability * 100)} % chance, ${kClasses[ci]!.k2o_lb} lb K2O` })),
       raster: { grid: g, values: view.pick(vals) },
-      source: crop.k_critical_ppm.source,
+      source: kClasses[0]?.source ?? crop.k_critical_ppm.source,
     });
   }
 
@@ -148,11 +151,13 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
 
   const crossValidation = rx.surfaces.flatMap((s) => (s.cv?.table ?? []).map((r) => ({
     nutrient: s.analyte,
-    method: `IDW power ${r.power}, ${Number.isFinite(r.neighbours) ? r.neighbours : 'all'} neighbours`,
+    method: r.method === 'kriging'
+      ? `ordinary kriging, ${r.neighbours} neighbours (${s.kriging?.modelText ?? ''}; MSSE ${Number.isFinite(r.msse ?? NaN) ? (r.msse as number).toFixed(2) : 'n/a'})`
+      : `IDW power ${r.power}, ${Number.isFinite(r.neighbours) ? r.neighbours : 'all'} neighbours`,
     rmse: r.rmse,
     meanError: r.bias,
     mae: r.mae,
-    chosen: r.power === s.power && r.neighbours === s.neighbours,
+    chosen: r === s.cv!.best,
   })));
 
   const tablesUsed: ReportTableUsed[] = [];
@@ -162,11 +167,22 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
     add(`${crop.label}: P2O5 removal ${crop.removal_per_bu.p2o5.value} lb/bu`, crop.removal_per_bu.p2o5.source);
     add(`${crop.label}: K critical level ${crop.k_critical_ppm.value} ppm`, crop.k_critical_ppm.source);
     add(`${crop.label}: S floor ${crop.s_floor_lb.value} lb S/ac`, crop.s_floor_lb.source);
-    add(`${crop.label}: seed-row P2O5 + K2O at most ${crop.seed_row_p2o5_k2o_max.value} lb/ac`, crop.seed_row_p2o5_k2o_max.source);
+    const gP = crop.seed_row_p2o5[plan.seed_row.p_guideline];
+    add(`${crop.label}: seed-row P2O5 as MAP ${gP.value} lb/ac at ${gP.spread_in} in on ${gP.rows_in} in rows (P2O5 + K2O within it; lowered for wider rows)`, gP.source);
+    add(`${crop.label}: seed-row K2O at most ${crop.seed_row_k2o_max.value} lb/ac${crop.seed_row_k2o_alone.value ? ', alone, only when the plan opts in' : ''}`, crop.seed_row_k2o_max.source);
+    if (crop.seed_row_n_k2o_max.value !== null) add(`${crop.label}: seed-row N + K2O at most ${crop.seed_row_n_k2o_max.value} lb/ac`, crop.seed_row_n_k2o_max.source);
+    for (const c of tables.k_classes[crop.k_class_group] ?? []) add(`${crop.label}: K class ${c.name}${c.below_ppm === null ? '' : ` (below ${c.below_ppm} ppm)`}: ${c.k2o_lb} lb K2O, ${Math.round(c.response_probability * 100)} % chance`, c.source);
+    add(`minimum useful K2O rate ${tables.k_min_useful_lb.value} lb/ac`, tables.k_min_useful_lb.source);
     const sr = tables.seed_row_n[crop.seed_row_group];
     if (sr) for (const t of ['light', 'medium', 'heavy'] as const) add(`seed-row N, ${crop.seed_row_group}, ${t} soil`, sr[t].source);
   }
-  add(`P response classes (${pMethod})`, pClasses[0].source);
+  for (const c of pClasses) add(`P class ${c.name} (${pMethod}${c.below_ppm === null ? '' : `, below ${c.below_ppm} ppm`}): ${tables.p_class_rates[c.name]?.rule.replace(/_/g, ' ') ?? ''}`, `${c.source}; rate: ${tables.p_class_rates[c.name]?.source ?? ''}`);
+  const nEff = tables.n_relative_efficiency;
+  for (const tm of ['spring', 'fall'] as const) for (const pl of ['seed_row', 'band', 'broadcast'] as const) {
+    const cell = nEff[tm][pl];
+    add(`N relative efficiency, ${tm} ${pl.replace('_', ' ')}: ${'missing' in cell ? 'missing' : cell.value} (spring broadcast = 100; reference ${nEff.reference.timing} ${nEff.reference.placement})`, cell.source);
+  }
+  if (plan.soil_test.nitrate_sampled === 'fall') add(`fall nitrate sample used as read${plan.credits.fall_sample_mineralization ? ` + ${tables.soil.spring_mineralization_lb.value} lb N/ac spring mineralization` : ''}`, tables.soil.spring_mineralization_lb.source);
   for (const p of plan.products) { const pr = tables.products[p.product]; if (pr) add(`product ${pr.label}`, pr.source); }
 
   const warnings: Warning[] = rx.warnings;
