@@ -5,8 +5,9 @@
  *    how often each answers, time, and the dive's extra cost.
  */
 import {
-  decide, defaultTables, parsePlan, planTemplate, productOptions, seedRowLimits, solveProducts, solveProductsExact, validatePlan,
+  decide, defaultTables, parsePlan, planTemplate, productOptions, seedRowLimits, solveProducts, validatePlan,
 } from '../src/agronomy/index.js';
+import { solveProductsExact } from '../src/agronomy/solve.js';
 
 let seed = 20261201;
 const rnd = () => ((seed = (seed * 1664525 + 1013904223) >>> 0) / 2 ** 32);

@@ -4,7 +4,7 @@ export { interpret, pClass, pClassTable, kClass, DEFAULT_KELOWNA_FACTOR, type So
 export { parsePlan, validatePlan, planSchema, type Plan, type PlanInput, type ProductChoice } from './plan.js';
 export { planTemplate } from './template.js';
 export { sbuPct, sbuPoints, interpolateSbu, safeNFromTable, seedRowLimits, type SeedRowLimits } from './seedrow.js';
-export { productOptions, nEfficiency, solveProducts, solveProductsExact, type ProductOption, type SolveResult } from './solve.js';
+export { productOptions, nEfficiency, solveProducts, type ProductOption, type SolveResult } from './solve.js';
 export { defaultTables, loadTables, tablesToYaml, tablesSchema, PLACEMENTS, NUTRIENTS, type Tables, type Nutrient, type Placement } from './tables.js';
 export { targets, type Target, type Targets } from './targets.js';
 export { formatDecision } from './format.js';

@@ -323,8 +323,8 @@ function dive(pb: Problem, x0: Float64Array, policy: DivePolicy, preset?: readon
 }
 
 /**
- * The exact integer answer by branch and bound alone (no dive), for benchmarks and tests that measure the
- * dive against it. Slower, and can time out (status "error"). Default 4000 iterations.
+ * The exact integer answer by branch and bound alone (no dive), for the benchmark that measures the dive
+ * against it (scripts/bench-rates.ts; not exported from the library). Slower, and can time out (status "error"). Default 4000 iterations.
  * @example solveProductsExact(options, target, 0.05, limits, 30000).cost
  */
 export function solveProductsExact(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maxIterations = 4000): SolveResult {

@@ -4,7 +4,7 @@
  *
  * Anchor colours are nine evenly spaced samples of the viridis, magma and cividis colour maps
  * (viridis/magma: van der Walt and Smith for matplotlib, CC0; cividis: Nuñez, Anderton and Renslow 2018,
- * PLoS ONE 13(8)), as printed by R's viridisLite (from memory; tests/report-colour.test.ts checks that
+ * PLoS ONE 13(8)), as printed by R's viridisLite (from memory; tests/report/colour.test.ts checks that
  * CIE L* rises monotonically along each ramp). Between anchors we interpolate linearly in sRGB.
  *
  * Our own assignment: soil surfaces use viridis, response probability magma (darker = more likely to

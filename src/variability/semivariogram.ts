@@ -1,6 +1,6 @@
 /**
  * The empirical semivariogram (Matheron's method-of-moments estimator), binned the way R's gstat
- * `variogram()` bins it, so the two agree to rounding (tests/variability.gstat.test.ts).
+ * `variogram()` bins it, so the two agree to rounding (tests/variability/gstat.tool.test.ts).
  *
  * gamma(h_j) = 1 / (2 N_j) * sum over the N_j pairs in lag j of (z_a - z_b)^2
  *

@@ -2,6 +2,7 @@
  * Outside programs used as references in tests (GDAL, R/gstat, Chromium).
  * When one is missing the test is skipped with a printed reason; with TILTH_REQUIRE_TOOLS=1
  * (set by .ci/run) a missing program is a failure instead, so CI always runs them all.
+ * In the fast tier (`npm test`, TILTH_TIER=fast; see vitest.config.ts) every such test is skipped.
  */
 import { spawnSync } from 'node:child_process';
 
@@ -23,6 +24,7 @@ export function hasProgram(cmd: string, args: string[] = ['--version']): boolean
  * @example describe.skipIf(!requireTool('gdal_grid', 'Debian gdal-bin'))('matches gdal_grid', ...)
  */
 export function requireTool(cmd: string, pkg: string, args: string[] = ['--version']): boolean {
+  if (process.env.TILTH_TIER === 'fast') return false;
   if (hasProgram(cmd, args)) return true;
   const msg = `${cmd} is not installed (apt-get install -y ${pkg}); tests that compare with it are skipped`;
   if (process.env.TILTH_REQUIRE_TOOLS === '1') throw new Error(`TILTH_REQUIRE_TOOLS=1 but ${msg.replace('; tests that compare with it are skipped', '')}`);

@@ -5,7 +5,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { idwSurface } from '../../src/surface/idw.js';
-import { bruteKnn, buildBuckets, KnnGroup } from '../../src/surface/knn.js';
+import { buildBuckets, KnnGroup } from '../../src/surface/knn.js';
+import { bruteKnn } from '../helpers/oracles.js';
 
 const OX = 600000, OY = 5500000;
 

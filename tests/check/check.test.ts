@@ -1,0 +1,263 @@
+/**
+ * `tilth check`: passes tilth's own outputs and the hand-made good prescription, fails each broken
+ * fixture naming the zone, and refuses unreadable input with exit 2. Fixtures: tests/fixtures/check/
+ * (invented field, written by scripts/make-check-fixtures.ts); binary broken sets are made here.
+ */
+import { describe, expect, it, beforeAll, afterAll } from 'vitest';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, unlinkSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import fc from 'fast-check';
+import { zipSync } from 'fflate';
+import geodesic from 'geographiclib-geodesic';
+import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
+import { writeShapefile, prescriptionFiles, type ColumnSpec } from '../../src/io/shapefile/index.js';
+import { hullExtent } from '../../src/check/shape.js';
+import { checkPrescription, type CheckReport } from '../../src/check/index.js';
+import { loadLayer } from '../../src/cli/check.js';
+import { isUserError } from '../../src/errors.js';
+
+const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
+const fx = (n: string) => join(FIX, n);
+const BOUNDARY = fx('boundary.geojson');
+const good = JSON.parse(readFileSync(fx('good.geojson'), 'utf8')) as FeatureCollection<Polygon | MultiPolygon>;
+const COLS: ColumnSpec[] = [
+  { key: 'zone_id', type: 'N', width: 4 },
+  { key: 'urea_lbac', type: 'N', width: 8, decimals: 1 },
+  { key: 'map_lbac', type: 'N', width: 8, decimals: 1 },
+];
+/** UTM areal scale k^2 at the fixture field (E about 400 400 m): k = k0 (1 + x^2 / 2R^2), Snyder 1987 eq. 8-11 to first order */
+const K2 = (0.9996 * (1 + (400400 - 500000) ** 2 / (2 * 6371000 ** 2))) ** 2;
+
+let dir = '';
+beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'tilth-check-')); });
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+function save(files: Record<string, Uint8Array>, sub: string): string {
+  const d = join(dir, sub);
+  mkdirSync(d, { recursive: true });
+  for (const [k, v] of Object.entries(files)) writeFileSync(join(d, k), v);
+  return d;
+}
+/**
+ * `tilth check ARGS --json`, but in this process (spawning the CLI costs seconds on a shared machine): reads the
+ * files the way the command does (src/cli/check.ts loadLayer) and runs the library. Exit 0/1/2 as the CLI.
+ */
+async function lib(args: string[]): Promise<{ code: number; report: CheckReport; stderr: string }> {
+  const [file, ...rest] = args;
+  const o: Record<string, string | boolean> = {};
+  for (let i = 0; i < rest.length; i++) {
+    const k = rest[i].replace(/^--/, '').replace(/-(.)/g, (_, c: string) => c.toUpperCase());
+    if (rest[i + 1] === undefined || rest[i + 1].startsWith('--')) o[k] = true;
+    else o[k] = rest[++i];
+  }
+  const num = (k: string) => (o[k] === undefined ? undefined : Number(o[k]));
+  try {
+    const layer = await loadLayer(file, 'prescription');
+    const boundary = o.boundary ? await loadLayer(o.boundary as string, 'boundary') : undefined;
+    const report = checkPrescription(layer, {
+      boundary, rateField: o.rateField as string | undefined, min: num('min'), max: num('max'), speedKmh: num('speed'),
+      swathM: num('swath'), transitionS: num('transition'), strict: !!o.strict,
+    });
+    return { code: report.ok ? 0 : 1, report, stderr: '' };
+  } catch (e) {
+    if (!isUserError(e)) throw e;
+    return { code: 2, report: undefined as unknown as CheckReport, stderr: `tilth: ${(e as Error).message}` };
+  }
+}
+const line = (r: CheckReport, check: string) => r.lines.filter((l) => l.check === check);
+
+describe('hullExtent against brute force', () => {
+  it('diameter = largest distance between any two points; width = smallest spread over every pair direction', async () => {
+    const pt = fc.tuple(fc.integer({ min: -1000, max: 1000 }), fc.integer({ min: -1000, max: 1000 }));
+    fc.assert(fc.property(fc.array(pt, { minLength: 3, maxLength: 25 }), (pts) => {
+      const P = pts as [number, number][];
+      let diam = 0, width = Infinity;
+      for (const a of P) for (const b of P) diam = Math.max(diam, Math.hypot(a[0] - b[0], a[1] - b[1]));
+      // the minimum-width strip has one side through two of the points (a hull edge)
+      for (const a of P) for (const b of P) {
+        const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+        if (!len) continue;
+        const d = P.map(([x, y]) => ((b[0] - a[0]) * (y - a[1]) - (b[1] - a[1]) * (x - a[0])) / len);
+        width = Math.min(width, Math.max(...d) - Math.min(...d));
+      }
+      const h = hullExtent(P);
+      expect(h.diameter).toBeCloseTo(diam, 6);
+      if (Number.isFinite(width) && width > 1e-9) expect(h.width).toBeCloseTo(width, 6);
+    }));
+  });
+});
+
+describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
+  it('passes the good one: hole, MultiPolygon zone, with boundary, machine range and speed', async () => {
+    const { code, report } = await lib([fx('good.geojson'), '--boundary', BOUNDARY, '--min', '40', '--max', '200', '--speed', '12']);
+    expect(code).toBe(0);
+    expect(report.ok).toBe(true);
+    expect(report.lines.filter((l) => l.status !== 'pass')).toEqual([]);
+    // totals = rate x ground area per zone; areas from GeographicLib (Karney 2013) geodesic polygons
+    const acres = good.features.map((f) => {
+      const polys = f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.coordinates;
+      let a = 0;
+      for (const poly of polys) poly.forEach((ring, k) => {
+        const p = geodesic.Geodesic.WGS84.Polygon(false);
+        for (const [lon, lat] of ring.slice(0, -1)) p.AddPoint(lat, lon);
+        a += (k ? -1 : 1) * Math.abs(p.Compute(false, true).area!);
+      });
+      return a / 4046.8564224; // 1 ac = 4046.8564224 m2 (international yard and pound, 1959)
+    });
+    const urea = report.totals.find((t) => t.field === 'urea_lbac')!;
+    expect(urea.unit).toBe('lb/ac');
+    const want = good.features.reduce((s, f, i) => s + (f.properties!.urea_lbac as number) * acres[i], 0);
+    expect(Math.abs(urea.total - want) / want).toBeLessThan(1e-4);
+    expect(urea.areaAc).toBeCloseTo(acres.reduce((s, a) => s + a, 0), 2);
+  });
+
+
+
+  it('fails a gap inside the boundary, naming the zones beside it (400 m x 50 m by construction)', async () => {
+    const { code, report } = await lib([fx('gap.geojson'), '--boundary', BOUNDARY]);
+    expect(code).toBe(1);
+    const [l] = line(report, 'gaps');
+    expect(l.status).toBe('fail');
+    expect(l.zones).toContain('zone 3');
+    const a = Number(/\(([\d.]+) m2,/.exec(l.message)![1]);
+    expect(Math.abs(a - 20000 / K2) / (20000 / K2)).toBeLessThan(1e-3);
+  });
+
+  it('fails a zone reaching outside the boundary, naming it (50 m x 300 m by construction)', async () => {
+    const { code, report } = await lib([fx('outside.geojson'), '--boundary', BOUNDARY]);
+    expect(code).toBe(1);
+    const [l] = line(report, 'outside');
+    expect(l.zones).toEqual(['zone 2']);
+    const a = Number(/\(([\d.]+) m2\)/.exec(l.message)![1]);
+    expect(Math.abs(a - 15000 / K2) / (15000 / K2)).toBeLessThan(1e-3);
+  });
+
+  it('fails a self-crossing zone, naming it', async () => {
+    const { code, report } = await lib([fx('self-crossing.geojson')]);
+    expect(code).toBe(1);
+    const [l] = line(report, 'geometry');
+    expect(l.status).toBe('fail');
+    expect(l.zones).toEqual(['zone 4']);
+  });
+
+
+  it("fails rates outside the machine's range, naming the zones; 0 (off) passes", async () => {
+    const { code, report } = await lib([fx('good.geojson'), '--rate-field', 'urea_lbac', '--min', '100', '--max', '150']);
+    expect(code).toBe(1);
+    const [l] = line(report, 'rate_range');
+    expect(l.zones.sort()).toEqual(['zone 3', 'zone 4']); // 90 below, 170 above
+  });
+
+  it('flags zones too small for the speed: 100 m x 100 m island (zone 4)', async () => {
+    // 100 km/h x 4 s = 111.1 m: longer than the island is wide (100 m), shorter than its diagonal (141 m) -> warn
+    let { report } = await lib([fx('good.geojson'), '--speed', '100']);
+    expect(line(report, 'zone_size')[0]).toMatchObject({ status: 'warn', zones: ['zone 4'] });
+    // 60 km/h x 10 s = 166.7 m: longer than the diagonal -> fail
+    ({ report } = await lib([fx('good.geojson'), '--speed', '60', '--transition', '10']));
+    expect(line(report, 'zone_size')[0]).toMatchObject({ status: 'fail', zones: ['zone 4'] });
+    // one rate change x 30 m swath = 111.1 m x 30 m = 3333 m2 < 10 000 m2: passes the swath test
+    ({ report } = await lib([fx('good.geojson'), '--speed', '12', '--swath', '30']));
+    expect(line(report, 'zone_size')[0].status).toBe('pass');
+  });
+
+  it('fails when the rate column cannot be told apart, and names the columns', async () => {
+    const { code, report } = await lib([fx('good.geojson'), '--rate-field', 'n_rate']);
+    expect(code).toBe(1);
+    expect(line(report, 'rate_field')[0].message).toMatch(/no column "n_rate"; the columns are zone_id, urea_lbac, map_lbac/);
+  });
+});
+
+describe("tilth check on tilth's own shapefile outputs", () => {
+  const rx: FeatureCollection = {
+    type: 'FeatureCollection',
+    features: good.features.map((f) => ({
+      ...f,
+      properties: { zone_id: f.properties!.zone_id, rates: [{ product: 'Urea 46-0-0', placement: 'side_band', rate: f.properties!.urea_lbac, unit: 'lb/ac' }, { product: 'MAP 11-52-0', placement: 'seed_row', rate: f.properties!.map_lbac, unit: 'lb/ac' }] },
+    })),
+  };
+  for (const [layout, crs, short] of [['per_placement', 'lonlat', false], ['per_product', 'utm', true]] as const) {
+    it(`${layout}, ${crs}${short ? ', 8.3 names' : ''}: every zip and .shp passes`, async () => {
+      const { files } = prescriptionFiles(rx, { layout, crs, shortFileNames: short });
+      const d = save(files, `own-${layout}`);
+      const targets = Object.keys(files).filter((k) => /\.(zip|shp)$/i.test(k));
+      expect(targets.length).toBe(4);
+      for (const t of targets) {
+        const { code, report } = await lib([join(d, t), '--boundary', BOUNDARY, '--min', '40', '--max', '200', '--speed', '12', '--strict']);
+        expect(report.lines.filter((l) => l.status !== 'pass')).toEqual([]);
+        expect(code).toBe(0);
+        expect(line(report, 'crs')[0].message).toMatch(crs === 'utm' ? /EPSG:32613/ : /EPSG:4326/);
+      }
+    });
+  }
+});
+
+describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing written)', () => {
+  const set = () => writeShapefile(good.features, COLS, { name: 'rx' });
+
+  it('truncated .shp', async () => {
+    const f = set();
+    f['rx.shp'] = f['rx.shp'].subarray(0, f['rx.shp'].length - 40);
+    const r = await lib([join(save(f, 'trunc'), 'rx.shp')]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/rx\.shp: not a readable shapefile: .*truncated/);
+  });
+
+  it('.dbf whose record count differs from the .shp', async () => {
+    const f = set();
+    f['rx.dbf'] = writeShapefile(good.features.slice(0, 3), COLS, { name: 'rx' })['rx.dbf'];
+    const r = await lib([join(save(f, 'dbfcount'), 'rx.shp')]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/rx\.dbf: holds 3 records but rx\.shp holds 4 shapes/);
+  });
+
+  it('rate column of text in the .dbf, naming the zone', async () => {
+    const feats = good.features.map((f) => ({ ...f, properties: { ...f.properties, urea_lbac: `${f.properties!.urea_lbac} lb` } }));
+    const f = writeShapefile(feats, [COLS[0], { key: 'urea_lbac', type: 'C', width: 12 }], { name: 'rx' });
+    const r = await lib([join(save(f, 'textrate'), 'rx.shp')]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/zone 1, column "urea_lbac": "110 lb" is text/);
+  });
+
+  it('zip without a .shp', async () => {
+    const f = set();
+    const d = save({ 'rx.zip': zipSync({ 'rx.dbf': f['rx.dbf'], 'rx.prj': f['rx.prj'] }) }, 'noshp');
+    const r = await lib([join(d, 'rx.zip')]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/rx\.zip: holds no \.shp .*entries: rx\.dbf, rx\.prj/);
+  });
+
+
+  it('a UTM shapefile against a lon/lat boundary, and a .shp without .shx and .cpg', async () => {
+    const f = writeShapefile(good.features, COLS, { name: 'rx', crs: 'utm' });
+    delete f['rx.shx'];
+    delete f['rx.cpg'];
+    const { code, report } = await lib([join(save(f, 'utm'), 'rx.shp'), '--boundary', BOUNDARY]);
+    expect(report.lines.filter((l) => l.status === 'fail' || l.status === 'warn')).toEqual([]);
+    expect(line(report, 'gaps')[0].status).toBe('pass');
+    expect(code).toBe(0);
+  });
+});
+
+describe('checkPrescription (library)', () => {
+  it('overlay survives edges split into many nearly collinear points after a projection round trip', async () => {
+    // regression: polyclip-ts (exact arithmetic) failed on the nanometre noise of UTM -> lon/lat -> UTM
+    const { checkPrescription, layerFromGeoJSON } = await import('../../src/check/index.js');
+    const { projector, utmZoneFor } = await import('../../src/geo/utm.js');
+    const p = projector(utmZoneFor(-105, 52));
+    const feats = [];
+    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) {
+      const x0 = 400000 + i * 200, y0 = 5780000 + j * 200, c = [[x0, y0], [x0 + 200, y0], [x0 + 200, y0 + 200], [x0, y0 + 200]];
+      const ring: number[][] = [];
+      for (let k = 0; k < 4; k++) for (let t = 0; t < 25; t++) ring.push(p.toLonLat(c[k][0] + ((c[(k + 1) % 4][0] - c[k][0]) * t) / 25, c[k][1] + ((c[(k + 1) % 4][1] - c[k][1]) * t) / 25));
+      ring.push(ring[0]);
+      feats.push({ type: 'Feature', properties: { zone_id: feats.length + 1, urea_lbac: 100 }, geometry: { type: 'Polygon', coordinates: [ring] } });
+    }
+    const sq = [[400000, 5780000], [400600, 5780000], [400600, 5780600], [400000, 5780600], [400000, 5780000]].map(([x, y]) => p.toLonLat(x, y));
+    const layer = layerFromGeoJSON(JSON.stringify({ type: 'FeatureCollection', features: feats }), 'grid.geojson');
+    const boundary = layerFromGeoJSON(JSON.stringify({ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [sq] } }), 'b.geojson');
+    const r = checkPrescription(layer, { boundary });
+    expect(r.lines.filter((l) => l.status === 'fail' || l.status === 'warn')).toEqual([]);
+    expect(r.ok).toBe(true);
+  });
+});

@@ -1,0 +1,55 @@
+import { describe, expect, it } from 'vitest';
+import { classColours, QUALITATIVE, rampRgb, textOn, type RampName } from '../../src/report/colour.js';
+
+/** CIE 1976 L* of an sRGB colour (sRGB transfer function IEC 61966-2-1; L* from CIE 15:2004). */
+function lightness(hex: string): number {
+  const n = parseInt(hex.slice(1), 16);
+  const lin = [(n >> 16) & 255, (n >> 8) & 255, n & 255].map((v) => {
+    const c = v / 255;
+    return c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4;
+  });
+  const y = 0.2126 * lin[0]! + 0.7152 * lin[1]! + 0.0722 * lin[2]!;
+  return y > 216 / 24389 ? 116 * Math.cbrt(y) - 16 : (24389 / 27) * y;
+}
+
+describe('colour ramps', () => {
+  const ramps: RampName[] = ['viridis', 'magma', 'cividis'];
+
+  it('lightness (CIE L*) rises steadily along each ramp, so classes read in order without hue (colour-blind safe)', () => {
+    for (const r of ramps) {
+      let prev = -1;
+      for (let i = 0; i <= 100; i++) {
+        const [R, G, B] = rampRgb(r, i / 100);
+        const L = lightness('#' + [R, G, B].map((v) => v.toString(16).padStart(2, '0')).join(''));
+        expect(L, `${r} at ${i / 100}`).toBeGreaterThan(prev - 0.5); // interpolation rounding of 8-bit channels
+        prev = L;
+      }
+    }
+  });
+
+  it('neighbouring classes differ in lightness by at least 5 L* for up to 7 classes', () => {
+    for (const r of ramps) for (let n = 2; n <= 7; n++) {
+      const L = classColours(r, n).map(lightness);
+      for (let i = 1; i < n; i++) expect(L[i]! - L[i - 1]!, `${r} n=${n} class ${i}`).toBeGreaterThanOrEqual(5);
+    }
+  });
+
+  it("viridis ends at matplotlib's published end colours #440154 and #fde725 (from memory)", () => {
+    expect(classColours('viridis', 2)).toEqual(['#440154', '#fde725']);
+  });
+
+  it('label text is black on light fills and white on dark (WCAG 2 contrast of at least 4.5:1)', () => {
+    const contrast = (a: string, b: string): number => {
+      const lum = (h: string): number => {
+        const full = h.length === 4 ? '#' + [...h.slice(1)].map((c) => c + c).join('') : h;
+        const n = parseInt(full.slice(1), 16);
+        const [r, g, bl] = [(n >> 16) & 255, (n >> 8) & 255, n & 255].map((v) => { const c = v / 255; return c <= 0.03928 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4; });
+        return 0.2126 * r! + 0.7152 * g! + 0.0722 * bl!;
+      };
+      const [x, y] = [lum(a), lum(b)].sort((p, q) => q - p);
+      return (x! + 0.05) / (y! + 0.05);
+    };
+    for (const r of ramps) for (const c of classColours(r, 7)) expect(contrast(c, textOn(c))).toBeGreaterThanOrEqual(4.5);
+    for (const c of QUALITATIVE) expect(contrast(c, textOn(c))).toBeGreaterThanOrEqual(4.5);
+  });
+});
