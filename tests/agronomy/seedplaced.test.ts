@@ -4,8 +4,8 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { decide, defaultTables, loadTables, parsePlan, planTemplate, seedRowLimits, validatePlan, type PlanInput, type Tables } from '../src/agronomy/index.js';
-import { isUserError } from '../src/errors.js';
+import { decide, defaultTables, loadTables, parsePlan, planTemplate, seedRowLimits, validatePlan, type PlanInput, type Tables } from '../../src/agronomy/index.js';
+import { isUserError } from '../../src/errors.js';
 
 const T = defaultTables();
 const SOIL = { no3_n: 25, p: 8, k: 140, so4_s: 12, om: 4, texture: 'medium' as const };
@@ -192,10 +192,10 @@ describe('N efficiency by placement and timing', () => {
 
 describe('demo data', () => {
   it('the demo plan says fall sampling, as the lab file does', () => {
-    const csv = readFileSync(new URL('../sample-fields/quarter/samples.csv', import.meta.url), 'utf8');
+    const csv = readFileSync(new URL('../../sample-fields/quarter/samples.csv', import.meta.url), 'utf8');
     const received = /^Received,(\d{4})-(\d{2})-\d{2}/m.exec(csv)!;
     expect(Number(received[2])).toBeGreaterThanOrEqual(9); // received in the fall
-    const p = parsePlan(readFileSync(new URL('../sample-fields/quarter/plan.yaml', import.meta.url), 'utf8'), 'plan.yaml', T);
+    const p = parsePlan(readFileSync(new URL('../../sample-fields/quarter/plan.yaml', import.meta.url), 'utf8'), 'plan.yaml', T);
     expect(p.soil_test.nitrate_sampled).toBe('fall');
   });
 });
