@@ -4,7 +4,7 @@
  * .cpg (text encoding of the .dbf). Also a .zip holding one shapefile (fflate).
  * Takes bytes, never paths: src/cli reads the files.
  */
-import { unzipSync } from 'fflate';
+import { readZip } from './zip.js';
 import proj4 from 'proj4';
 import { UserError } from '../errors.js';
 import type { RawPolygons, RawTable, RawValue } from './records.js';
@@ -75,12 +75,7 @@ export function parsePrj(wkt: string, file: string): PrjKind {
  * @example shapefileFromZip(bytes, 'boundary.zip').shp.length
  */
 export function shapefileFromZip(bytes: Uint8Array, name: string): ShapefileParts {
-  let files: Record<string, Uint8Array>;
-  try {
-    files = unzipSync(bytes);
-  } catch (e) {
-    throw new UserError(`${name} is not a readable .zip file (${(e as Error).message}). Fix: zip the shapefile again (.shp, .shx, .dbf, .prj, .cpg).`, { file: name });
-  }
+  const files = readZip(bytes, name); // size, ratio and entry-name limits (src/io/zip.ts)
   const shps = Object.keys(files).filter((f) => f.toLowerCase().endsWith('.shp') && !f.startsWith('__MACOSX'));
   if (shps.length === 0) throw new UserError(`${name} holds no .shp file. Fix: zip the shapefile's files (.shp, .shx, .dbf, .prj) together.`, { file: name });
   if (shps.length > 1) throw new UserError(`${name} holds several shapefiles (${shps.join(', ')}). Fix: zip one shapefile per file.`, { file: name });
