@@ -14,7 +14,7 @@ import { buildPrescription, productRate, usedPairs, type Prescription } from '..
 import { prescriptionGeojson, rateColumn } from '../../src/prescription/outputs.js';
 import { prescriptionTaskDataFiles } from '../../src/prescription/taskdata.js';
 import { parsePlan, defaultTables } from '../../src/agronomy/index.js';
-import { prepareInputs } from '../../src/validate/inputs.js';
+import { fieldInputs } from '../helpers/inputs.js';
 import { projector } from '../../src/geo/utm.js';
 import { labelPoint } from '../../src/report/maps.js';
 import { zipFiles } from '../../src/io/zip.js';
@@ -29,7 +29,7 @@ const tables = defaultTables();
 const src = (f: string) => ({ name: f, bytes: readFileSync(join(ROOT, 'sample-fields/quarter', f)) });
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
 const plan = (edit: (p: Record<string, any>) => void = () => {}) => { const p = parseYaml(PLAN); edit(p); return parsePlan(stringify(p), 'plan.yaml', tables); };
-const inputs = prepareInputs(src('samples.csv'), src('boundary.geojson'));
+const inputs = await fieldInputs(src('samples.csv'), src('boundary.geojson'));
 
 /** Parses a TASKDATA folder (as a zip, the way isoxml reads grid files) with the isoxml library. */
 async function outside(files: Record<string, Uint8Array>): Promise<ISOXMLManager> {
@@ -60,7 +60,7 @@ describe('task data with zone polygons, read by the isoxml package', () => {
     m = await outside(files);
   }, 120_000);
 
-  it('parses without a warning; products, tasks and zones as written', () => {
+  it('parses without a warning; products, tasks and zones as written', async () => {
     expect(m.getWarnings()).toEqual([]);
     const root = A(m.rootElement);
     expect(root.VersionMajor).toBe('4');
@@ -79,7 +79,7 @@ describe('task data with zone polygons, read by the isoxml package', () => {
     expect(A(root.Farm[0]).FarmDesignator).toBe('Willowbrae Farms');
   });
 
-  it("each zone's rate (DDI 6 -> lb/ac) equals prescription.geojson's within the DDI's resolution", () => {
+  it("each zone's rate (DDI 6 -> lb/ac) equals prescription.geojson's within the DDI's resolution", async () => {
     const set = rx.zoneSets[0];
     const fc = JSON.parse(prescriptionGeojson(rx, set));
     const root = A(m.rootElement);
@@ -104,7 +104,7 @@ describe('task data with zone polygons, read by the isoxml package', () => {
     expect(compared).toBeGreaterThan(set.zones.length);
   });
 
-  it('zone polygons rebuilt from the parsed file match prescription.geojson (area 0.01 %, same holes)', () => {
+  it('zone polygons rebuilt from the parsed file match prescription.geojson (area 0.01 %, same holes)', async () => {
     const fc = JSON.parse(prescriptionGeojson(rx, rx.zoneSets[0]));
     for (const t of A(m.rootElement).Task) for (const z of A(t).TreatmentZone) {
       const code = A(z).TreatmentZoneCode;
@@ -128,7 +128,7 @@ describe('task data with zone polygons, read by the isoxml package', () => {
     }
   });
 
-  it('the partfield boundary keeps its hole', () => {
+  it('the partfield boundary keeps its hole', async () => {
     const pfd = A(m.rootElement).Partfield[0];
     const plns = A(pfd).PolygonnonTreatmentZoneonly ?? A(pfd).Polygon;
     expect(plns.length).toBe(rx.field.lonlat.length);
@@ -248,7 +248,7 @@ describe('names and liquids', () => {
 });
 
 describe('the demo build (CLI)', () => {
-  it('writes TASKDATA/ and taskdata.zip, and tilth check passes both', () => {
+  it('writes TASKDATA/ and taskdata.zip, and tilth check passes both', async () => {
     const out = join(mkdtempSync(join(tmpdir(), 'tilth-demo-td-')), 'out');
     const b = spawnSync(process.execPath, [join(ROOT, 'bin/tilth.js'), 'build', '--samples', 'sample-fields/quarter/samples.csv', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', 'sample-fields/quarter/plan.yaml', '--out', out, '--quiet'], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
     expect(b.status).toBe(0);
