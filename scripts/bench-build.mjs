@@ -19,7 +19,7 @@ import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import proj4 from 'proj4';
+import { makeSection, N_SAMPLES, SIDE, X0, Y0 } from './bench-section.mjs';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const args = process.argv.slice(2);
@@ -35,68 +35,6 @@ const HAS_GDAL = ['gdal_grid', 'gdal_calc.py', 'gdal_polygonize.py'].every((c) =
 execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
 // TILTH_BENCH_CLI=path: time another entry point (e.g. an experimental bundle) instead of bin/tilth.js
 const TILTH = process.env.TILTH_BENCH_CLI ? join(root, process.env.TILTH_BENCH_CLI) : join(root, 'bin', 'tilth.js');
-
-// seeded PRNG (mulberry32)
-function rng(seed) { let a = seed >>> 0; return () => { a = (a + 0x6d2b79f5) >>> 0; let t = a; t = Math.imul(t ^ (t >>> 15), t | 1); t ^= t + Math.imul(t ^ (t >>> 7), t | 61); return ((t ^ (t >>> 14)) >>> 0) / 4294967296; }; }
-
-const UTM = '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs';
-const toLonLat = proj4(UTM, 'EPSG:4326');
-const [cx, cy] = toLonLat.inverse([-106.5, 52.0]);
-const X0 = Math.round(cx), Y0 = Math.round(cy); // whole metres, so the 1 m grid starts on X0, Y0
-const SIDE = 1609; // 1609 m square = 639.7 ac (a section is 1609.344 m); 1609 x 1609 cells at 1 m
-const N_SAMPLES = 5000;
-
-/**
- * Writes the synthetic section: boundary.geojson, samples.geojson (lon/lat, the quarter's property names),
- * points.csv/.vrt (the same points in UTM, P Olsen as z) for gdal_grid, and plan.yaml from `tilth plan init`.
- */
-function makeSection(dir) {
-  const rnd = rng(5000);
-  const e = 0.01; // corners just inside whole cells
-  const ring = [[X0 + e, Y0 + e], [X0 + SIDE - e, Y0 + e], [X0 + SIDE - e, Y0 + SIDE - e], [X0 + e, Y0 + SIDE - e], [X0 + e, Y0 + e]]
-    .map(([x, y]) => toLonLat.forward([x, y]));
-  writeFileSync(join(dir, 'boundary.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'Bench section (invented)' }, geometry: { type: 'Polygon', coordinates: [ring] } }] }));
-  // smooth seeded "soil" waves plus sample noise, one set per analyte
-  const waves = (k) => Array.from({ length: 4 }, () => ({ fx: (0.5 + 3 * rnd()) / SIDE, fy: (0.5 + 3 * rnd()) / SIDE, ph: 6.283 * rnd(), a: 0.5 + rnd() }));
-  const W = { n: waves(), p: waves(), k: waves(), s: waves(), om: waves() };
-  const wv = (w, x, y) => w.reduce((s, t) => s + t.a * Math.sin(6.283 * (t.fx * x + t.fy * y) + t.ph), 0) / 4; // about -1..1
-  const feats = [], csv = ['x,y,z'];
-  const taken = new Set(); // 1 m buckets: no two samples closer than 1 m (tilth refuses two samples at one place)
-  for (let i = 0; i < N_SAMPLES; i++) {
-    let x, y;
-    do { x = 1 + rnd() * (SIDE - 2); y = 1 + rnd() * (SIDE - 2); }
-    while ([-1, 0, 1].some((dx) => [-1, 0, 1].some((dy) => taken.has((Math.floor(x) + dx) * 4096 + Math.floor(y) + dy))));
-    taken.add(Math.floor(x) * 4096 + Math.floor(y));
-    const [lon, lat] = toLonLat.forward([X0 + x, Y0 + y]).map((v) => Math.round(v * 1e7) / 1e7);
-    const r1 = (v, d = 0) => Math.round(v * 10 ** d) / 10 ** d;
-    const p = Math.max(2, r1(14 + 9 * wv(W.p, x, y) + 3 * (rnd() - 0.5)));
-    const props = {
-      sample_id: `BS-${i + 1}`,
-      texture: wv(W.om, x, y) < -0.5 ? 'light' : 'medium',
-      no3_n_lbac_0_6: Math.max(1, r1(14 + 8 * wv(W.n, x, y) + 4 * (rnd() - 0.5))),
-      no3_n_lbac_6_24: Math.max(1, r1(16 + 10 * wv(W.n, x, y) + 4 * (rnd() - 0.5))),
-      p_olsen_ppm: p,
-      k_ppm: Math.max(40, r1(260 + 160 * wv(W.k, x, y) + 30 * (rnd() - 0.5))),
-      so4_s_lbac_0_6: Math.max(1, r1(8 + 6 * wv(W.s, x, y) + 2 * (rnd() - 0.5))),
-      so4_s_lbac_6_24: Math.max(1, r1(14 + 12 * wv(W.s, x, y) + 3 * (rnd() - 0.5))),
-      om_pct: Math.max(0.5, r1(3.5 + 1.5 * wv(W.om, x, y) + 0.3 * (rnd() - 0.5), 1)),
-      ph: r1(7 + 0.6 * (rnd() - 0.5), 1),
-    };
-    feats.push({ type: 'Feature', properties: props, geometry: { type: 'Point', coordinates: [lon, lat] } });
-    const [px, py] = toLonLat.inverse([lon, lat]); // the same (rounded) points that tilth reads
-    csv.push(`${px},${py},${p}`);
-  }
-  writeFileSync(join(dir, 'samples.geojson'), JSON.stringify({ type: 'FeatureCollection', name: 'Bench section samples (invented)', features: feats }));
-  writeFileSync(join(dir, 'points.csv'), csv.join('\n') + '\n');
-  writeFileSync(join(dir, 'points.vrt'), `<OGRVRTDataSource><OGRVRTLayer name="points"><SrcDataSource>${join(dir, 'points.csv')}</SrcDataSource><SrcLayer>points</SrcLayer><GeometryType>wkbPoint</GeometryType><LayerSRS>EPSG:32613</LayerSRS><GeometryField encoding="PointFromColumns" x="x" y="y" z="z"/></OGRVRTLayer></OGRVRTDataSource>`);
-  // the plan: tilth's own starter plan for canola; one shared zone set for the pass (as the demo quarter)
-  const plan = execFileSync(process.execPath, [TILTH, 'plan', 'init', '--crop', 'canola'], { cwd: root, encoding: 'utf8' })
-    .replace(/^(\s*zone_sets:\s*)per_product/m, '$1shared');
-  if (!/zone_sets:\s*shared/.test(plan)) throw new Error('could not set zoning.zone_sets in the starter plan');
-  writeFileSync(join(dir, 'plan.yaml'), plan);
-  const ps = feats.map((f) => f.properties.p_olsen_ppm);
-  return { pmin: Math.min(...ps), pmax: Math.max(...ps) };
-}
 
 const med = (a) => (a.length ? [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)] : NaN);
 
@@ -168,7 +106,7 @@ try {
   const sq = await stages(qArgs);
 
   // 2. the synthetic section at 1 m cells, 5000 samples
-  const { pmin, pmax } = makeSection(dir);
+  const { pmin, pmax } = makeSection(dir, TILTH);
   const sArgs = ['build', '--samples', join(dir, 'samples.geojson'), '--boundary', join(dir, 'boundary.geojson'), '--plan', join(dir, 'plan.yaml'), '--out', join(dir, 'rx-section'), '--force', '--cell', '1'];
   const ts = measure(process.execPath, [TILTH, ...sArgs], SECTION_RUNS, root, [0, 1]);
   results.push({ name: `section (synthetic, 1 m cells, ${N_SAMPLES} samples)`, ...ts });

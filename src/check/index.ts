@@ -11,6 +11,7 @@ import { arealScale, projector, utmZoneFor, type Projector } from '../geo/utm.js
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import type { CheckLayer } from './layer.js';
 import { hullExtent, polysArea, ringCentroid, significantArea, type Poly } from './shape.js';
+import { usableFeatures } from './coords.js';
 
 export { readLayer, layerFromGeoJSON, type CheckLayer, type LayerField } from './layer.js';
 
@@ -173,7 +174,10 @@ const boxesMeet = (a: number[], b: number[]) => a[0] <= b[2] && b[0] <= a[2] && 
  * const report = checkPrescription(await readLayer({ 'rx.zip': bytes }, 'rx.zip'), { min: 40, max: 250, speedKmh: 12 });
  * report.ok // false when any line failed
  */
-export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): CheckReport {
+export function checkPrescription(rawLayer: CheckLayer, opts: CheckOptions = {}): CheckReport {
+  // unusable coordinates (NaN, null, out of range) fail the geometry check and are kept out of the others
+  const { features: cleaned, problems } = usableFeatures(rawLayer.features);
+  const layer: CheckLayer = { ...rawLayer, features: cleaned };
   const lines: CheckLine[] = [];
   const add = (check: string, status: CheckStatus, message: string, zones: string[] = []) => lines.push({ check, status, message, zones });
   const names = zoneNames(layer);
@@ -218,8 +222,8 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
   const bad: string[] = [], why: string[] = [];
   const valid = feats.map((f, i) => {
     const g = f.geometry;
-    let reason = '';
-    if (!g) reason = 'no geometry';
+    let reason = problems[i] ?? '';
+    if (reason) { /* coordinates unusable */ } else if (!g) reason = 'no geometry';
     else if (g.type !== 'Polygon' && g.type !== 'MultiPolygon') reason = `a ${g.type}, not a polygon`;
     else if ((g.type === 'Polygon' ? [g.coordinates] : g.coordinates).some((p) => p.some((r) => r.length < 4))) reason = 'a ring with fewer than 4 points';
     else {
@@ -275,6 +279,8 @@ export function checkPrescription(layer: CheckLayer, opts: CheckOptions = {}): C
     add('gaps', 'skip', 'no --boundary given');
   } else {
     const bl = opts.boundary;
+    const bp = usableFeatures(bl.features).problems.findIndex(Boolean);
+    if (bp >= 0) throw new UserError(`${bl.label} feature ${bp + 1}: ${usableFeatures([bl.features[bp]!]).problems[0]}. Fix: export the field boundary again.`, { file: bl.label, where: `feature ${bp + 1}` });
     const bframe = frameOf(bl);
     if (!work || bframe.kind === 'planar') {
       add('outside', 'skip', 'the prescription or the boundary has no known coordinate system');

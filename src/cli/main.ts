@@ -5,6 +5,7 @@
 import { Command, CommanderError } from 'commander';
 import { isUserError } from '../errors.js';
 import { CAUTION } from './util.js';
+import { installStdioGuards, terminalSafe } from './safety/stdio.js';
 import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
 import * as variability from './variability.js';
@@ -15,6 +16,8 @@ import * as tables from './tables.js';
 import * as build from './build.js';
 import * as check from './check.js';
 import * as report from './report.js';
+
+installStdioGuards(); // `tilth ... | head` ends quietly
 
 const program = new Command();
 program
@@ -34,7 +37,7 @@ try {
     // --help and --version exit 0; usage errors are user errors
     process.exitCode = e.exitCode === 0 ? 0 : 2;
   } else if (isUserError(e)) {
-    process.stderr.write(`tilth: ${(e as Error).message}\n`);
+    process.stderr.write(`tilth: ${terminalSafe((e as Error).message)}\n`);
     process.exitCode = 2;
   } else {
     process.stderr.write(`tilth: internal error (a bug; please report it with this trace):\n${(e as Error)?.stack ?? String(e)}\n`);

@@ -11,6 +11,7 @@
  * t.done();
  * term.summary('Prescription', [['zones', '14'], ['field', '158.2 ac']]);
  */
+import { terminalSafe } from './safety/stdio.js';
 
 /** Where the terminal writes: process.stderr, or a fake in tests. */
 export interface TermStream {
@@ -122,15 +123,15 @@ export function createTerminal(opts: TerminalOptions = {}): Terminal {
       return { update, onProgress: (d: number, t: number) => update(d, t), done: (n) => end(true, n), fail: (n) => end(false, n) };
     },
     line(text) {
-      if (!quiet) write(text);
+      if (!quiet) write(terminalSafe(text));
     },
     warn(text) {
-      write(`${paint.yellow('warning:')} ${text}`);
+      write(`${paint.yellow('warning:')} ${terminalSafe(text)}`);
     },
     summary(title, rows) {
       if (quiet) return;
       const w = Math.max(0, ...rows.map(([k]) => k.length));
-      write([paint.bold(title), ...rows.map(([k, v]) => `  ${k.padEnd(w)}  ${paint.cyan(v)}`)].join('\n'));
+      write([paint.bold(terminalSafe(title)), ...rows.map(([k, v]) => `  ${terminalSafe(k).padEnd(w)}  ${paint.cyan(terminalSafe(v))}`)].join('\n'));
     },
   };
 }

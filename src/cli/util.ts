@@ -4,6 +4,7 @@
  */
 import { readFileSync, statSync } from 'node:fs';
 import { UserError, type Warning } from '../errors.js';
+import { terminalSafe } from './safety/stdio.js';
 
 // output writing lives in ./safety/ (never lose a user's files); re-exported for the commands
 export { checkOutputDir, writeOutputDir, type OutputDirOptions } from './safety/outdir.js';
@@ -25,19 +26,21 @@ export function readInput(path: string, what: string): Buffer {
   }
 }
 
-/** Prints warnings on stderr, one per line. */
+/** Prints warnings on stderr, one per line (control characters from the data removed). */
 export function printWarnings(warnings: readonly Warning[]): void {
-  for (const w of warnings) process.stderr.write(`warning: ${w.message}\n`);
+  for (const w of warnings) process.stderr.write(`warning: ${terminalSafe(w.message)}\n`);
 }
 
-/** Writes data to stdout (data on stdout, messages on stderr). */
+/** Writes data to stdout (data on stdout, messages on stderr); on a terminal, control characters from the data are removed. */
 export function out(text: string): void {
-  process.stdout.write(text.endsWith('\n') ? text : text + '\n');
+  const t = process.stdout.isTTY ? terminalSafe(text) : text;
+  process.stdout.write(t.endsWith('\n') ? t : t + '\n');
 }
 
-/** A message for people, on stderr. */
+/** A message for people, on stderr (control characters from the data removed). */
 export function info(text: string): void {
-  process.stderr.write(text.endsWith('\n') ? text : text + '\n');
+  const t = terminalSafe(text);
+  process.stderr.write(t.endsWith('\n') ? t : t + '\n');
 }
 
 /** Parses a number option or throws a UserError naming the option. */

@@ -4,6 +4,7 @@
  * the same header recognition and row reading as CSV (src/io/table.ts). Why this library: docs/formats.md.
  */
 import { UserError } from '../errors.js';
+import { readZip } from './zip.js';
 import type { ColumnMap } from './columns.js';
 import type { RawTable } from './records.js';
 import { readTable, type Cell, type TableOptions } from './table.js';
@@ -21,6 +22,7 @@ export async function readXlsxRows(bytes: Uint8Array, file: string, opts: { shee
   if (bytes[0] !== 0x50 || bytes[1] !== 0x4b) {
     throw new UserError(`${file} is not an .xlsx workbook (an old .xls, or another file renamed?). Fix: save it from the spreadsheet as .xlsx (Excel Workbook) or as CSV.`, { file });
   }
+  readZip(bytes, file); // an .xlsx is a zip: its size and ratio limits first (src/io/zip.ts), the library has none
   const { default: readXlsxFile } = await import('read-excel-file/node');
   let sheets: { sheet: string; data: unknown[][] }[];
   try {

@@ -12,7 +12,7 @@ import type { SoilValues } from '../agronomy/interpret.js';
 import type { Plan } from '../agronomy/plan.js';
 import { NUTRIENTS, type Nutrient, type Placement, type Tables } from '../agronomy/tables.js';
 import { fieldGrid } from '../surface/grid.js';
-import { nutrientSurface, type NutrientSurface } from '../surface/nutrientSurface.js';
+import { nutrientSurfaces, type NutrientSurface } from '../surface/nutrientSurface.js';
 import { classify, classifyVectors, type Classes } from '../zones/classify.js';
 import { makeZones, minZoneAreaM2, zonesFromSampleZones } from '../zones/index.js';
 import type { Analyte, FieldInputs, Grid, RingsPart, Texture } from '../types.js';
@@ -151,18 +151,21 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
   // 1. surfaces
   const surfaces: NutrientSurface[] = [];
   const byAnalyte: Partial<Record<Analyte, Float64Array>> = {};
-  BUILD_ANALYTES.forEach((a, i) => {
-    progress('surfaces (cross-validation and interpolation)', i / BUILD_ANALYTES.length);
-    const vals = samples.values[a];
-    if (!vals || !vals.some((v) => Number.isFinite(v))) {
+  // analytes at the same sample sites share one neighbour search (src/surface nutrientSurfaces)
+  const present = BUILD_ANALYTES.filter((a) => samples.values[a]?.some((v) => Number.isFinite(v)));
+  progress('surfaces (cross-validation and interpolation)', 0);
+  const surfaceOpts = { method: plan.surface.method, kriging: { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours } };
+  const made = nutrientSurfaces(samples, present, grid, inputs.zones, surfaceOpts, (d) => progress('surfaces (cross-validation and interpolation)', d));
+  for (const a of BUILD_ANALYTES) {
+    const s = made.find((m) => m.analyte === a);
+    if (!s) {
       warnings.push({ code: 'build.analyte-missing', message: `no sample has ${a}; it is treated as not tested everywhere.`, field: a });
-      return;
+      continue;
     }
-    const s = nutrientSurface(samples, a, grid, inputs.zones, { method: plan.surface.method, kriging: { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours } });
     surfaces.push(s);
     byAnalyte[a] = s.values;
     warnings.push(...s.warnings);
-  });
+  }
   progress('surfaces (cross-validation and interpolation)', 1);
 
   // 2. per-cell targets

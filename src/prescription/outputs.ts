@@ -2,6 +2,7 @@
  * Writers of a prescription as text: GeoJSON per zone set, zones.csv, summary.json and the printed
  * summary. Pure: they return strings; the CLI writes them.
  */
+import { csvCell } from '../io/csv-escape.js';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import type { Placement } from '../agronomy/tables.js';
 import { NUTRIENTS } from '../agronomy/tables.js';
@@ -72,11 +73,6 @@ export function prescriptionGeojson(rx: Prescription, set: ZoneSetResult): strin
     }),
   };
   return JSON.stringify(fc) + '\n';
-}
-
-function csvCell(v: unknown): string {
-  const s = v === null || v === undefined ? '' : String(v);
-  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
 /** Every zone of every set as CSV, one row per zone (same attributes as the GeoJSON). */

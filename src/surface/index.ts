@@ -3,12 +3,13 @@
  * Esri ASCII grid writer. The build stage calls {@link nutrientSurface} once per nutrient on one grid.
  */
 export { fieldGrid, gridWarnings, centreMask, coverage, MAX_CELLS, type FieldGridOptions } from './grid.js';
-export { idwSurface, COINCIDENT_D2, type IdwOptions, type GridShape } from './idw.js';
+export { idwSurface, idwSurfaces, COINCIDENT_D2, type IdwOptions, type IdwSpec, type GridShape } from './idw.js';
+export { forEachNeighbourBand, cellNeighbours, sampleNeighbours, type NeighbourBand, type NeighbourOptions, type CellNeighbours, type SampleNeighbours } from './neighbours.js';
 export { buildBuckets, KnnGroup, type Buckets } from './knn.js';
-export { crossValidate, pickBest, DEFAULT_POWERS, DEFAULT_NEIGHBOURS, type CvRow, type CvResult, type CvOptions } from './crossValidate.js';
+export { crossValidate, crossValidateMany, pickBest, DEFAULT_POWERS, DEFAULT_NEIGHBOURS, type CvRow, type CvResult, type CvOptions } from './crossValidate.js';
 export { nutrientPoints, SAME_PLACE_M, type NutrientPoints } from './prepare.js';
 export { zoneSurface } from './zoneSurface.js';
-export { nutrientSurface, analyteFromName, kName, ANALYTE_LABEL, SURFACE_METHODS, type NutrientSurface, type NutrientSurfaceOptions, type SurfaceMethod } from './nutrientSurface.js';
+export { nutrientSurface, nutrientSurfaces, analyteFromName, kName, ANALYTE_LABEL, SURFACE_METHODS, type NutrientSurface, type NutrientSurfaceOptions, type SurfaceMethod } from './nutrientSurface.js';
 export { visitCellNeighbours, type CellVisitor } from './cellNeighbours.js';
 export { krigingSurface, covariance, OkSolver, type KrigingModel, type KrigingOptions, type KrigingResult } from './kriging.js';
 export { krigingAtPoints, krigingCv, type KrigingCv, type PointKriging, type PointKrigingOptions } from './krigingCv.js';

@@ -4,8 +4,8 @@
  */
 import { UserError, type Warning } from '../errors.js';
 import type { Analyte, Grid, SampleZones, Samples } from '../types.js';
-import { crossValidate, DEFAULT_NEIGHBOURS, DEFAULT_POWERS, type CvResult, type CvRow } from './crossValidate.js';
-import { idwSurface } from './idw.js';
+import { crossValidateMany, DEFAULT_NEIGHBOURS, DEFAULT_POWERS, type CvResult, type CvRow } from './crossValidate.js';
+import { idwSurfaces } from './idw.js';
 import { nutrientPoints, type NutrientPoints } from './prepare.js';
 import { zoneSurface } from './zoneSurface.js';
 import { krigeGrid, krigingCandidate, type KrigingChoiceOptions, type KrigingInfo } from './krigingChoice.js';
@@ -40,8 +40,12 @@ export function analyteFromName(name: string): Analyte {
   return a;
 }
 
-/** Above this many samples "all" is left out of the automatic neighbour choice (n^2 cost); a warning says so. */
-export const ALL_CV_LIMIT = 20_000;
+/**
+ * Above this many samples "all" is left out of the automatic neighbour choice; a warning says so. Its
+ * leave-one-out costs samples^2 / 2 pairs x powers x nutrients, and its map cells x samples; with this many
+ * samples a few nearest predict the left-out ones better anyway (docs/surface.md, "Cross-validation cost").
+ */
+export const ALL_CV_LIMIT = 2000;
 
 /** Options for {@link nutrientSurface}. */
 export interface NutrientSurfaceOptions {
@@ -100,7 +104,7 @@ export interface NutrientSurface {
 /**
  * Builds one nutrient's surface on a field grid. Zone-composite samples (zones given and samples keyed)
  * paint each zone with its value; otherwise IDW with power and neighbours chosen by leave-one-out
- * cross-validation ('auto') or as given.
+ * cross-validation ('auto') or as given. For several nutrients use {@link nutrientSurfaces} (one search).
  *
  * @param samples validated, projected samples (canonical units)
  * @param analyte which nutrient
@@ -110,7 +114,58 @@ export interface NutrientSurface {
  * @throws UserError when no sample has a value for the nutrient
  * @example const s = nutrientSurface(inputs.samples, 'p', fieldGrid(inputs.field, 5), inputs.zones); s.cv?.table
  */
-export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' | 'zone'>, analyte: Analyte, grid: Grid, zones: SampleZones | null = null, opts: NutrientSurfaceOptions = {}): NutrientSurface {
+export function nutrientSurface(samples: SurfaceSamples, analyte: Analyte, grid: Grid, zones: SampleZones | null = null, opts: NutrientSurfaceOptions = {}): NutrientSurface {
+  return nutrientSurfaces(samples, [analyte], grid, zones, opts)[0];
+}
+
+type SurfaceSamples = Pick<Samples, 'xy' | 'values' | 'ids' | 'zone'>;
+
+/**
+ * Every listed nutrient's surface, each identical to its own {@link nutrientSurface}, but nutrients
+ * measured at the same sample sites share one leave-one-out neighbour search (and one pass over sample
+ * pairs for "all") in IDW cross-validation and one k-nearest search per cell (the largest k chosen) for
+ * the IDW maps (docs/surface.md, "One neighbour search").
+ *
+ * @param analytes nutrients, in the order of the result
+ * @param opts as {@link nutrientSurface}, applied to every nutrient
+ * @param onProgress share of the work done, 0..1 (optional)
+ * @throws UserError when no sample has a value for one of the nutrients
+ * @example const [p, k] = nutrientSurfaces(inputs.samples, ['p', 'k'], grid, null)
+ */
+export function nutrientSurfaces(samples: SurfaceSamples, analytes: readonly Analyte[], grid: Grid, zones: SampleZones | null = null, opts: NutrientSurfaceOptions = {}, onProgress: (done: number) => void = () => {}): NutrientSurface[] {
+  const out: NutrientSurface[] = new Array(analytes.length);
+  const groups: Pending[][] = [];
+  analytes.forEach((a, slot) => {
+    const r = prepare(samples, a, grid, zones, slot);
+    if ('values' in r) { out[slot] = r; return; }
+    const g = groups.find((q) => sameSites(q[0].pts.xy, r.pts.xy));
+    if (g) g.push(r); else groups.push([r]);
+  });
+  let done = analytes.length - groups.reduce((s, g) => s + g.length, 0);
+  for (const g of groups) {
+    interpolate(g, grid, opts, out, () => onProgress((done + g.length / 2) / analytes.length));
+    done += g.length;
+    onProgress(done / analytes.length);
+  }
+  return out;
+}
+
+/** A nutrient waiting for interpolation: its points and the result fields known so far. */
+interface Pending {
+  slot: number;
+  label: string;
+  pts: NutrientPoints;
+  base: Omit<NutrientSurface, 'values' | 'method' | 'power' | 'neighbours' | 'choice'>;
+}
+
+function sameSites(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+/** The nutrient's points; zone-composite and one-sample surfaces finished here, the others left pending. */
+function prepare(samples: SurfaceSamples, analyte: Analyte, grid: Grid, zones: SampleZones | null, slot: number): NutrientSurface | Pending {
   const label = ANALYTE_LABEL[analyte];
   const pts = nutrientPoints(samples.xy, samples.values[analyte], samples.ids, label, samples.zone);
   const warnings = [...pts.warnings];
@@ -124,26 +179,62 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
     warnings.push({ code: 'surface.flat', message: `${label}: all ${n} samples have the value ${min}; the map is flat.`, field: label });
   }
   const base = { analyte, grid, cv: null as CvResult | null, samplesUsed: n, min, max, warnings, kriging: null, krigedMean: null, variance: null };
-
-  const keyed = zones !== null && pts.zone.some((z) => z !== null);
-  if (keyed) {
+  if (zones !== null && pts.zone.some((z) => z !== null)) {
     const r = zoneValues(pts, zones, grid, label);
     warnings.push(...r.warnings);
     return { ...base, values: r.values, method: 'zones', power: NaN, neighbours: NaN, choice: 'zone-composite samples: each zone takes its sample value' };
   }
-
   if (n === 1) {
     const values = new Float64Array(grid.cols * grid.rows).fill(NaN);
     for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0) values[i] = pts.z[0];
     warnings.push({ code: 'surface.one-sample', message: `${label}: only one sample (${pts.ids[0]}) has a value; the whole field takes it.`, field: label });
     return { ...base, values, method: 'single-sample', power: NaN, neighbours: NaN, choice: 'one sample: uniform value' };
   }
+  return { slot, label, pts, base };
+}
 
+type IdwChoice = { cv: CvResult | null; power: number; neighbours: number; choice: string };
+
+/**
+ * Nutrients at the same sites: IDW cross-validation shared, kriging considered per nutrient, then the IDW
+ * maps from one shared search per cell.
+ */
+function interpolate(group: Pending[], grid: Grid, opts: NutrientSurfaceOptions, out: NutrientSurface[], halfway: () => void): void {
+  const { xy } = group[0].pts;
   const method = opts.method ?? 'idw';
-  const idw = method === 'kriging' ? null : chooseIdw(pts, opts, label, warnings);
+  const idws = method === 'kriging' ? group.map(() => null) : chooseIdw(group, opts);
+  const idwLeft: { p: Pending; idw: IdwChoice; kriging: KrigingInfo | null }[] = [];
+  group.forEach((p, i) => {
+    const r = krigeOrNot(p, idws[i], method, grid, opts);
+    if ('values' in r) out[p.slot] = r; else idwLeft.push({ p, idw: r.idw, kriging: r.kriging });
+  });
+  halfway();
+  if (!idwLeft.length) return;
+  const values = idwSurfaces(xy, idwLeft.map(({ p, idw }) => ({ z: p.pts.z, power: idw.power, neighbours: idw.neighbours })), grid, { radius: opts.radius, minNeighbours: opts.minNeighbours });
+  idwLeft.forEach(({ p, idw, kriging }, i) => {
+    const v = values[i], label = p.label;
+    let empty = 0;
+    for (let c = 0; c < v.length; c++) if (grid.fraction[c] > 0 && Number.isNaN(v[c])) empty++;
+    if (empty) {
+      p.base.warnings.push({
+        code: 'surface.cells-empty',
+        message: `${label}: ${empty} field cell${empty > 1 ? 's have' : ' has'} fewer than ${opts.minNeighbours ?? 1} sample${(opts.minNeighbours ?? 1) > 1 ? 's' : ''} within the ${opts.radius} m search radius and no value. Fix: use a larger radius (--radius) or fewer minimum neighbours.`,
+        field: label,
+      });
+    }
+    out[p.slot] = { ...p.base, cv: idw.cv, kriging, values: v, method: 'idw', power: idw.power, neighbours: idw.neighbours, choice: idw.choice };
+  });
+}
+
+/**
+ * Kriging as asked or as a candidate against the nutrient's best IDW: the kriged surface when it wins,
+ * else the IDW choice (its table and sentence extended by kriging's row or refusal) left to interpolate.
+ */
+function krigeOrNot(p: Pending, idw: IdwChoice | null, method: SurfaceMethod, grid: Grid, opts: NutrientSurfaceOptions): NutrientSurface | { idw: IdwChoice; kriging: KrigingInfo | null } {
+  const { label, pts, base } = p, warnings = base.warnings;
   const kriging = method === 'idw' ? null : krigingCandidate(pts.xy, pts.z, opts.kriging);
   if (kriging?.refused && method === 'kriging') {
-    throw new UserError(`${label}: ordinary kriging is refused: ${kriging.refused}. Fix: use --method idw (or auto, which falls back to IDW), or add samples.`, { field: analyte });
+    throw new UserError(`${label}: ordinary kriging is refused: ${kriging.refused}. Fix: use --method idw (or auto, which falls back to IDW), or add samples.`, { field: base.analyte });
   }
   const useKriging = kriging !== null && kriging.cv !== null && (idw === null || !idw.cv || kriging.cv.rmse < idw.cv.best.rmse);
   if (useKriging) {
@@ -155,9 +246,7 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
       : `ordinary kriging as asked (leave-one-out RMSE ${fmt(kriging.cv!.rmse)}, MSSE ${fmt(kriging.cv!.msse ?? NaN)}); ${kriging.modelText}, ${kriging.neighbours} neighbours`;
     return { ...base, values: g.values, krigedMean: g.mean, variance: g.variance, kriging, cv: { table, best: kriging.cv! }, method: 'kriging', power: NaN, neighbours: kriging.neighbours, choice };
   }
-  const { power, neighbours } = idw!;
-  let choice = idw!.choice;
-  let cv = idw!.cv;
+  let { cv, choice } = idw!;
   if (kriging) {
     if (kriging.cv && cv) {
       cv = { table: [...cv.table, kriging.cv], best: cv.best };
@@ -167,59 +256,52 @@ export function nutrientSurface(samples: Pick<Samples, 'xy' | 'values' | 'ids' |
       warnings.push({ code: 'surface.kriging-refused', message: `${label}: ordinary kriging was not used: ${kriging.refused}.`, field: label });
     }
   }
-  const values = idwSurface(pts.xy, pts.z, grid, { power, neighbours, radius: opts.radius, minNeighbours: opts.minNeighbours });
-  let empty = 0;
-  for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0 && Number.isNaN(values[i])) empty++;
-  if (empty) {
-    warnings.push({
-      code: 'surface.cells-empty',
-      message: `${label}: ${empty} field cell${empty > 1 ? 's have' : ' has'} fewer than ${opts.minNeighbours ?? 1} sample${(opts.minNeighbours ?? 1) > 1 ? 's' : ''} within the ${opts.radius} m search radius and no value. Fix: use a larger radius (--radius) or fewer minimum neighbours.`,
-      field: label,
-    });
-  }
-  return { ...base, cv, kriging, values, method: 'idw', power, neighbours, choice };
+  return { idw: { ...idw!, cv, choice }, kriging };
 }
 
-/** IDW power and neighbours: by cross-validation ('auto') or as given; the table and the sentence for people. */
-function chooseIdw(pts: NutrientPoints, opts: NutrientSurfaceOptions, label: string, warnings: Warning[]): { cv: CvResult | null; power: number; neighbours: number; choice: string } {
-  const n = pts.z.length;
+/**
+ * IDW power and neighbours for nutrients at the same sites: by one shared cross-validation ('auto') or as
+ * given; per nutrient the table and the sentence for people.
+ */
+function chooseIdw(group: Pending[], opts: NutrientSurfaceOptions): IdwChoice[] {
+  const n = group[0].pts.z.length;
   const fixedP = typeof opts.power === 'number' ? opts.power : null;
   const fixedK = typeof opts.neighbours === 'number' ? opts.neighbours : null;
-  let cv: CvResult | null = null;
   let choices = opts.neighbourChoices ?? DEFAULT_NEIGHBOURS;
   if (fixedK === null && n > ALL_CV_LIMIT && choices.some((k) => !Number.isFinite(k))) {
-    // leave-one-out with every sample costs n^2 distance pairs: too slow for very dense data
+    // leave-one-out with every sample costs n^2 distance pairs, and its map cells x samples: too slow for dense data
     choices = choices.filter((k) => Number.isFinite(k));
-    warnings.push({ code: 'surface.cv-all-skipped', message: `${label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (give --neighbours all to use it).`, field: label });
+    for (const p of group) p.base.warnings.push({ code: 'surface.cv-all-skipped', message: `${p.label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (its cost grows with the square of the sample count; give --neighbours all to use it).`, field: p.label });
   }
-  if (!(opts.skipCv && fixedP !== null && fixedK !== null)) {
-    // a fixed value is the only candidate on its axis: with both given, the table is the one row that says
-    // how well the given pair predicts left-out samples (cheap), not a search
-    cv = crossValidate(pts.xy, pts.z, {
-      powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
-      neighbours: fixedK !== null ? [fixedK] : choices,
-      radius: opts.radius,
-      minNeighbours: opts.minNeighbours,
-    });
-  }
+  // a fixed value is the only candidate on its axis: with both given, the table is the one row that says
+  // how well the given pair predicts left-out samples (cheap), not a search
+  const cvs = opts.skipCv && fixedP !== null && fixedK !== null ? group.map(() => null) : crossValidateMany(group[0].pts.xy, group.map((p) => p.pts.z), {
+    powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
+    neighbours: fixedK !== null ? [fixedK] : choices,
+    radius: opts.radius,
+    minNeighbours: opts.minNeighbours,
+  });
+  return group.map((p, i) => idwFromCv(cvs[i], fixedP, fixedK, n, p));
+}
+
+/** Power and neighbours from one nutrient's table (restricted to the given values), and why. */
+function idwFromCv(cv: CvResult | null, fixedP: number | null, fixedK: number | null, n: number, p: Pending): IdwChoice {
   let power = fixedP ?? 2, neighbours = fixedK ?? 12;
-  let choice: string;
-  if (cv) {
-    const rows = cv.table.filter((r) => (fixedP === null || r.power === fixedP) && (fixedK === null || r.neighbours === fixedK));
-    let best: CvRow = rows[0];
-    for (const r of rows) if (r.rmse < best.rmse || Number.isNaN(best.rmse)) best = r;
-    power = best.power;
-    neighbours = best.neighbours;
-    cv = { table: cv.table, best };
-    const what = fixedP === null && fixedK === null ? 'power and neighbours' : fixedP === null ? 'power' : fixedK === null ? 'neighbours' : '';
-    choice = what
-      ? `${what} chosen by leave-one-out cross-validation: lowest RMSE ${fmt(best.rmse)} at power ${power}, ${kName(neighbours)} neighbours`
-      : `power ${power} and ${kName(neighbours)} neighbours as given (leave-one-out RMSE ${fmt(best.rmse)}; use --power auto --neighbours auto to compare others)`;
-  } else {
-    choice = n < 3 ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)` : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
-    if (n < 3) warnings.push({ code: 'surface.few-samples', message: `${label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`, field: label });
+  if (!cv) {
+    if (n < 3) p.base.warnings.push({ code: 'surface.few-samples', message: `${p.label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`, field: p.label });
+    const choice = n < 3 ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)` : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
+    return { cv, power, neighbours, choice };
   }
-  return { cv, power, neighbours, choice };
+  const rows = cv.table.filter((r) => (fixedP === null || r.power === fixedP) && (fixedK === null || r.neighbours === fixedK));
+  let best: CvRow = rows[0];
+  for (const r of rows) if (r.rmse < best.rmse || Number.isNaN(best.rmse)) best = r;
+  power = best.power;
+  neighbours = best.neighbours;
+  const what = fixedP === null && fixedK === null ? 'power and neighbours' : fixedP === null ? 'power' : fixedK === null ? 'neighbours' : '';
+  const choice = what
+    ? `${what} chosen by leave-one-out cross-validation: lowest RMSE ${fmt(best.rmse)} at power ${power}, ${kName(neighbours)} neighbours`
+    : `power ${power} and ${kName(neighbours)} neighbours as given (leave-one-out RMSE ${fmt(best.rmse)}; use --power auto --neighbours auto to compare others)`;
+  return { cv: { table: cv.table, best }, power, neighbours, choice };
 }
 
 /** Zone-composite samples: each zone painted with its (averaged) sample value. */

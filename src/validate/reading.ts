@@ -20,7 +20,7 @@ export function columnReading(table: RawTable, plan: ColumnInfo[], refused: Map<
     const soil = ['no3_n', 'p', 'k', 'so4_s', 'om', 'ph', 'ec', 'carbonate'].includes(c.role);
     let depth: string | null = null;
     if (soil) {
-      depth = depthCol ? `from "${depthCol.name}"${c.depth ? ` (header's ${fmtDepth(c.depth)} used only where a row has none)` : ''}` : c.depth ? fmtDepth(c.depth) : c.role === 'no3_n' || c.role === 'so4_s' ? null : '0-6 in (usual)';
+      depth = depthCol ? `from "${depthCol.name}"${c.depth ? ` (header depth ${fmtDepth(c.depth)} only where a row has none)` : ''}` : c.depth ? fmtDepth(c.depth) : c.role === 'no3_n' || c.role === 'so4_s' ? null : '0-6 in (usual)';
     }
     if (c.role === 'depth') depth = c.depthUnit ? `values in ${c.depthUnit}` : 'values: unit from the layers';
     const unit = c.unit ? UNIT_LABEL[c.unit] : soil && ['p', 'k'].includes(c.role) ? 'ppm (assumed)' : c.role === 'ec' ? 'dS/m (assumed)' : c.role === 'om' ? '%' : null;

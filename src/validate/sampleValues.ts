@@ -52,6 +52,7 @@ export function readSampleValues(inp: ValueInput): ValueArrays {
   };
   for (const a of ANALYTES) { out.values[a] = new Float64Array(n).fill(NaN); out.censored[a] = new Int8Array(n); }
   for (const e of EXTRA_VALUES) out.extra[e] = new Float64Array(n).fill(NaN);
+  checkUnitsStated(table, soilCols);
   const bad: { where: string; column: string; value: unknown; id: string }[] = [];
   const assumed = new Set<string>();
   const cellUnits = new Map<string, { unit: ValueUnit; where: string }>();
@@ -101,6 +102,23 @@ export function readSampleValues(inp: ValueInput): ValueArrays {
   });
   noteWarnings(table.file, factorUsed, assumed, soilCols, opts.depthFactor, warnings);
   return out;
+}
+
+/** Nitrate and sulphate need a stated unit (ppm and lb/ac differ by 2-6 times): refused with every column to map. */
+function checkUnitsStated(table: RawTable, soilCols: (ColumnInfo & { role: SoilValue })[]): void {
+  const file = table.file;
+  const inCells = (c: ColumnInfo) => table.records.some((r) => { const v = parseLabValue(r.props[c.name] ?? null); return v !== null && v !== 'bad' && v.unit; });
+  for (const role of ['no3_n', 'so4_s'] as const) {
+    const cs = soilCols.filter((c) => c.role === role);
+    const missing = cs.filter((c) => !c.unit && !inCells(c));
+    if (!missing.length) continue;
+    const fix = cs.map((c) => `${role}=${c.name}:${c.unit ? UNIT_LABEL[c.unit] : 'ppm'}${c.depth && c.how?.includes('read as') ? `@${c.depth.join('-')}` : ''}`).join(',');
+    throw new UserError(
+      `${file}: column${missing.length > 1 ? 's' : ''} ${missing.map((c) => `"${c.name}"`).join(', ')} hold${missing.length > 1 ? '' : 's'} ${SOIL_NAMES[role]} but do${missing.length > 1 ? '' : 'es'} not say ${missing.length > 1 ? 'their' : 'its'} unit (ppm and lb/ac differ 2-6 times). ` +
+        `Fix: state it with --columns "${fix}" (or :lb/ac, :kg/ha; map every ${role} column, the map replaces the header reading for ${role}).`,
+      { file, field: missing[0].name },
+    );
+  }
 }
 
 function refuse(out: ValueArrays, column: string, where: string, value: string): void {

@@ -146,7 +146,7 @@ describe('samples from the demo farm', () => {
   });
 
   it('nitrate without a unit is refused, negative values are refused', () => {
-    userError(() => buildSamples(readCsvRecords('Sample,Lat,Long,NO3-N 0-24\nA,52.3,-106.4,10\n', 't.csv', [])), /does not say its unit.*--columns "no3_n=NO3-N 0-24:lb\/ac"/);
+    userError(() => buildSamples(readCsvRecords('Sample,Lat,Long,NO3-N 0-24\nA,52.3,-106.4,10\n', 't.csv', [])), /does not say its unit.*--columns "no3_n=NO3-N 0-24:ppm@0-24"/);
     userError(() => buildSamples(readCsvRecords('Sample,Lat,Long,K (ppm)\nA,52.3,-106.4,-5\n', 't.csv', [])), /negative/);
   });
 

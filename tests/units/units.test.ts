@@ -60,7 +60,7 @@ describe('library entry', () => {
     expect(u.kghaToMgm2(1)).toBe(100);
     expect(u.lhaToMm3m2(1)).toBe(100);
     expect(u.mgm2ToKgha(u.kghaToMgm2(37.5))).toBeCloseTo(37.5, 12);
-    // ../shared/reference/formats.md: 1 lb/ac = 112.085 mg/m2
+    // 1 lb/ac = 1.12085 kg/ha (1959 agreement) = 112.085 mg/m2
     expect(u.kghaToMgm2(u.lbacToKgha(1))).toBeCloseTo(112.085, 3);
     // source: NIST Handbook 44 Appendix C: 1 US gal = 3.785411784 L exactly; 10 US gal/ac = 93.54 L/ha
     expect(u.lhaToGalac(93.5396)).toBeCloseTo(10, 4);

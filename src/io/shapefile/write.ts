@@ -2,6 +2,7 @@
  * writeShapefile: polygon features (GeoJSON lon/lat) to the bytes of a shapefile set.
  * Why our own writer and not a library: docs/formats.md.
  */
+import { csvCell } from '../csv-escape.js';
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import type { UtmZone } from '../../types.js';
 import { projector, utmZoneFor } from '../../geo/utm.js';
@@ -59,11 +60,6 @@ export function resolveColumns(specs: readonly ColumnSpec[]): ResolvedColumn[] {
 /** The base file name the writer uses for `name` (8.3 upper case when asked). */
 export function baseFileName(name: string, shortFileName = false): string {
   return shortFileName ? shortFileNames([name])[0] : name.replace(/[^A-Za-z0-9_.-]+/g, '_');
-}
-
-function csvCell(s: string | number): string {
-  const t = String(s);
-  return /[",\n\r]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t;
 }
 
 /** Polygon list of a feature's geometry (a Polygon is a one-part MultiPolygon). */

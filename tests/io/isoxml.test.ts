@@ -3,32 +3,14 @@
  * ever expanded or resolved. The attacks are the classic ones (OWASP XML External Entity Prevention
  * Cheat Sheet: "billion laughs" expansion, SYSTEM entities pointing at local files).
  */
-import { mkdtempSync, writeFileSync, mkdirSync, readFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { readTaskData, taskDataFiles, encodeInt32LE, type TaskData } from '../../src/io/isoxml/index.js';
+import { readTaskData, taskDataFiles, type TaskData } from '../../src/io/isoxml/index.js';
+import { sample, sq } from '../helpers/taskdata.js';
 import { parseXml, writeXml, el } from '../../src/io/isoxml/xml.js';
 import { layersFromTaskData, layersFromTaskDataFiles } from '../../src/check/taskdata.js';
 import { zipFiles } from '../../src/io/zip.js';
 import { isUserError } from '../../src/errors.js';
-import { tilth } from '../helpers/cli.js';
 
-const sq = (x: number, y: number, d: number) => Float64Array.of(x, y, x + d, y, x + d, y + d, x, y + d, x, y);
-/** A small hand-made task data set: two zones of one granular product, or a 2 x 2 type-2 grid. */
-function sample(grid = false): TaskData {
-  const z = (code: number, value: number, x: number) => ({ code, name: `zone ${code}`, polygons: grid || code === 0 ? [] : [{ type: 2, exterior: sq(x, 52, 0.001), holes: [] }], values: [{ ddi: 6, value, productId: 'PDT1', valuePresentationId: null }] });
-  return {
-    versionMajor: 4, versionMinor: 3, software: { manufacturer: 'test', version: '1' },
-    customers: [{ id: 'CTR1', name: 'c' }], farms: [{ id: 'FRM1', name: 'f', customerId: 'CTR1' }], partfields: [],
-    products: [{ id: 'PDT1', name: 'urea', type: 1 }], valuePresentations: [],
-    tasks: [{
-      id: 'TSK1', name: 't', status: 1, defaultZone: 0, positionLostZone: 0, outOfFieldZone: 0,
-      zones: grid ? [z(0, 0, 0), z(1, 0, 0)] : [z(0, 0, 0), z(1, 11209, -106), z(2, 5604, -105.999)],
-      grid: grid ? { type: 2, south: 52, west: -106, cellNorth: 0.001, cellEast: 0.001, cols: 2, rows: 2, fileName: 'GRD00001', zoneCode: 1, data: encodeInt32LE(Int32Array.of(100, 200, 300, 0)) } : null,
-    }],
-  };
-}
 const xmlOf = (td: TaskData) => new TextDecoder().decode(taskDataFiles(td)['TASKDATA.XML']);
 const enc = (s: string) => new TextEncoder().encode(s);
 function userError(f: () => unknown): string {
@@ -111,35 +93,17 @@ describe('readTaskData', () => {
     expect(parseXml(writeXml(el('R', { B: 'tab\there' })), 'x').attrs.B).toBe('tab here');
   });
 
+  it('external files (XFR) are merged in; a missing one is named', () => {
+    const xml = xmlOf(sample()).replace(/ <PDT [^>]*\/>\n/, ' <XFR A="PDT00001" B="1"/>\n');
+    const ext = '<?xml version="1.0" encoding="UTF-8"?>\n<XFC>\n <PDT A="PDT1" B="urea from an external file"/>\n</XFC>\n';
+    const td = readTaskData({ 'TASKDATA.XML': enc(xml), 'PDT00001.XML': enc(ext) });
+    expect(td.products.map((p) => p.name)).toEqual(['urea from an external file']);
+    expect(userError(() => readTaskData({ 'TASKDATA.XML': enc(xml) }))).toMatch(/XFR PDT00001: the external file PDT00001\.XML is missing/);
+  });
+
   it('a zip holding TASKDATA/ is read in memory', () => {
     const files = taskDataFiles(sample(true));
     const zip = zipFiles(Object.fromEntries(Object.entries(files).map(([k, v]) => [`TASKDATA/${k}`, v])));
     expect(layersFromTaskDataFiles({ 'td.zip': zip }, 'td.zip')[0].label).toMatch(/td\.zip:TASKDATA\/TASKDATA\.XML task TSK1/);
-  });
-});
-
-describe('tilth check on task data (CLI)', () => {
-  const d = mkdtempSync(join(tmpdir(), 'tilth-td-'));
-  const td = join(d, 'TASKDATA');
-  mkdirSync(td);
-  for (const [k, v] of Object.entries(taskDataFiles(sample(true)))) writeFileSync(join(td, k), v);
-
-  it('reads a TASKDATA folder and a TASKDATA.XML, one report per task and product', () => {
-    for (const p of [td, join(td, 'TASKDATA.XML')]) {
-      const r = tilth(['check', p, '--json']);
-      expect(r.code).toBe(0);
-      const j = JSON.parse(r.stdout);
-      expect(j.reports.length).toBe(1);
-      expect(j.reports[0].totals[0].unit).toBe('kg/ha');
-    }
-  });
-
-  it('exit 2 with the element named when the grid file is missing', () => {
-    const d2 = mkdtempSync(join(tmpdir(), 'tilth-td-'));
-    writeFileSync(join(d2, 'TASKDATA.XML'), readFileSync(join(td, 'TASKDATA.XML')));
-    const r = tilth(['check', join(d2, 'TASKDATA.XML')]);
-    expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/GRD.*GRD00001\.BIN is missing/);
-    expect(r.stderr).not.toMatch(/at .*\.ts:/); // no stack
   });
 });

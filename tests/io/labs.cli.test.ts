@@ -1,0 +1,28 @@
+/** The lab corpus (tests/fixtures/labs) through the command line: .xlsx sheets, the column reading, --columns, --verbose. */
+import { describe, expect, it } from 'vitest';
+import { tilth } from '../helpers/cli.js';
+
+describe('lab corpus from the command line', () => {
+  const B = 'sample-fields/quarter/boundary.geojson';
+  it('inspect --json on a second sheet of an .xlsx: the column reading, EC kept', () => {
+    const r = tilth(['inspect', '--samples', 'tests/fixtures/labs/30-xlsx-second-sheet.xlsx', '--sheet', 'Results', '--boundary', B, '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.columns.find((c: { column: string }) => c.column === 'pH (1:2)')).toMatchObject({ role: 'ph', method: '1:2 water', how: 'header' });
+    expect(j.samples.count).toBe(6);
+  });
+
+  it('an unknown sheet names the sheets there are', () => {
+    const r = tilth(['inspect', '--samples', 'tests/fixtures/labs/30-xlsx-second-sheet.xlsx', '--sheet', 'Data', '--boundary', B]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/no sheet "Data"\. Fix: give one of --sheet "Cover", --sheet "Results"/);
+  });
+
+  it('--columns wins and can give a depth: ph=pH (1:2)@0-6; --verbose prints the reading on stderr', () => {
+    const r = tilth(['inspect', '--samples', 'tests/fixtures/labs/01-long-ppm-depth-column.csv', '--boundary', B, '--columns', 'ph=pH (1:2)@0-6', '--verbose', '--json']);
+    expect(r.code).toBe(0);
+    const ph = JSON.parse(r.stdout).columns.find((c: { column: string }) => c.column === 'pH (1:2)');
+    expect(ph).toMatchObject({ role: 'ph', how: 'column map, depth from map' });
+    expect(r.stderr).toMatch(/columns of .*01-long-ppm-depth-column\.csv:[\s\S]*pH \(1:2\)\s+ph/);
+  });
+});
