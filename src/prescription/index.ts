@@ -6,6 +6,7 @@
  * values through the rate engine -> product rates per zone and totals. Pure: no files, no console.
  * See docs/method.md for the method and its defaults.
  */
+import { soilFlagsById } from '../agronomy/soilFlags.js';
 import { UserError, type Warning } from '../errors.js';
 import { decide, type Decision } from '../agronomy/decide.js';
 import type { SoilValues } from '../agronomy/interpret.js';
@@ -96,6 +97,8 @@ export interface Prescription {
   infeasible: { zoneSet: string; zone: number; nutrient: string | null; reason: string }[];
   warnings: Warning[];
   sampled: boolean;
+  /** sample id -> soil flags ("saline; high pH"), flagged samples only (src/agronomy/soilFlags.ts); no rate depends on them */
+  soilFlags?: Record<string, string>;
 }
 
 /** A cell size giving about 200 cells across the field's longer side, rounded to 1, 2, 5, 10 or 20 m. */
@@ -291,6 +294,7 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
     infeasible,
     warnings: dedupe(warnings),
     sampled,
+    soilFlags: soilFlagsById(inputs.samples),
   };
 }
 

@@ -53,6 +53,10 @@ export function zoneAttributes(rx: Prescription, set: ZoneSetResult, zi: number)
   a.cost_per_ac = round(d.costPerAc, 2);
   a.binding_limit = d.binding.join('; ');
   a.status = d.status;
+  // saline / high-pH / free-lime samples in the zone (src/agronomy/soilFlags.ts); a column only when the field has any
+  if (rx.soilFlags && Object.keys(rx.soilFlags).length) {
+    a.soil_flags = [...new Set(z.samples.flatMap((id) => rx.soilFlags![id]?.split('; ') ?? []))].join('; ');
+  }
   return a;
 }
 

@@ -12,6 +12,7 @@ import type { RawInputs } from '../io/inputs.js';
 import type { RawPolygons } from '../io/records.js';
 import { abbrev, buildSamples } from './samples.js';
 import { checkPartsMetres, checkPolygonsLonLat } from './boundary.js';
+import { soilFlagWarnings } from '../agronomy/soilFlags.js';
 
 export interface PrepareOptions {
   /** CSV column map "id=Sample ID,lat=Latitude,..." */
@@ -186,6 +187,7 @@ export function prepareInputs(raw: RawInputs, opts: PrepareOptions = {}): FieldI
     if (s.ids.length < 10) warnings.push({ code: 'few-samples', message: `only ${s.ids.length} samples for ${acres.toFixed(0)} ac: a map from so few is rough; check it against what you know of the field.` });
   }
 
+  warnings.push(...soilFlagWarnings(s, table.file));
   const samples: Samples = { ...s, xy };
   return { samples, field, zones, warnings, reading: built.reading };
 }
