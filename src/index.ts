@@ -22,6 +22,9 @@ export { buildPrescription, defaultCell, type Prescription, type PrescriptionZon
 export { prescriptionGeojson, zonesCsv, summaryObject, summaryText, shapefileFeatures, type Provenance } from './prescription/outputs.js';
 export { reportInput } from './prescription/reportInput.js';
 export { writeShapefile, prescriptionFiles, readShapefile } from './io/shapefile/index.js';
+export { prescriptionTaskData, prescriptionTaskDataFiles, type TaskDataOptions } from './prescription/taskdata.js';
+export { readTaskData, taskDataFiles, taskDataXml, type TaskData } from './io/isoxml/index.js';
 export { zipFiles, readZip } from './io/zip.js';
 export { checkPrescription } from './check/index.js';
+export { layersFromTaskData, layersFromTaskDataFiles } from './check/taskdata.js';
 export { renderReport, serializeReportInput, parseReportInput } from './report/index.js';

@@ -1,6 +1,7 @@
 /**
  * From a prescription to the report's input (src/report/types.ts): plain data, already computed.
  */
+import { designLines } from './zoneDesign.js';
 import type { Warning } from '../errors.js';
 import { kClass, pClass, pClassTable } from '../agronomy/interpret.js';
 import type { Tables } from '../agronomy/tables.js';
@@ -127,6 +128,13 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
       bindingLimit: z.decision.status === 'ok' ? (z.decision.binding[0]?.startsWith('none') ? null : z.decision.binding.join('; ')) : null,
       notes: z.decision.status === 'ok' ? undefined : z.decision.infeasible.map((f) => f.reason),
     })),
+    ...(set.design ? {
+      minDifference: Object.entries(set.design.minDifference).map(([k, value]) => {
+        const [product, placement] = k.split('|');
+        return { product, placement: PLACEMENT_NAME[placement as keyof typeof PLACEMENT_NAME] ?? placement, value };
+      }),
+      design: designLines(set.design, plan.units).map((l) => l.trim()),
+    } : {}),
   }));
 
   const totals = rx.totals.map((t) => ({

@@ -3,7 +3,7 @@
  * sample locations, one surface per nutrient with its samples' values, response-probability classes,
  * one rate map per zone set and product placement, and where the seed-row and other limits bind.
  */
-import { classColours, NEUTRAL, QUALITATIVE } from './colour.js';
+import { classColours, NEUTRAL, QUALITATIVE, rateColours } from './colour.js';
 import { esc, fmt } from './escape.js';
 import {
   type Frame, type LegendItem, geoGroup, legend, makeFrame, mapSvg, partsBbox, partsPath, px, py,
@@ -293,7 +293,8 @@ export function buildMaps(input: ReportInput): ReportMap[] {
     for (const { product, placement, unit } of productPlacements(set)) {
       const rateOf = (z: ReportZone): number | undefined => z.rates.find((r) => r.product === product && r.placement === placement)?.rate;
       const distinct = [...new Set(set.zones.map(rateOf).filter((v): v is number => v !== undefined && Number.isFinite(v)))].sort((a, b) => a - b);
-      const colours = classColours('cividis', distinct.length);
+      const close = set.minDifference?.find((m) => m.product === product && m.placement === placement)?.value ?? 0;
+      const colours = rateColours('cividis', distinct, close);
       const colourOf = (z: ReportZone): string => {
         const v = rateOf(z);
         const i = v === undefined ? -1 : distinct.indexOf(v);

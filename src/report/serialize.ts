@@ -95,6 +95,8 @@ const schema = z.object({
       bindingLimit: str.nullable(),
       notes: z.array(str).optional(),
     })),
+    minDifference: z.array(z.object({ product: str, placement: str, value: num })).optional(),
+    design: z.array(str).optional(),
   })),
   totals: z.array(z.object({
     product: str, placement: str, total: num, totalUnit: str, packaging: str.optional(),

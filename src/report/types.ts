@@ -144,6 +144,13 @@ export interface ReportZoneSet {
   /** unit of zone targets, e.g. "lb/ac" */
   targetUnit: string;
   zones: ReportZone[];
+  /**
+   * Rate differences smaller than these (per product and placement, in the rate's unit) do not count as a
+   * different rate: rate maps keep such rates in close colours. Absent = every rate apart.
+   */
+  minDifference?: { product: string; placement: string; value: number }[];
+  /** how the zones came about (their number and why, what keeps neighbours apart), one line each */
+  design?: string[];
 }
 
 /** Totals of one product and placement for ordering and loading. */
