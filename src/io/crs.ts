@@ -13,7 +13,7 @@ export interface TableCrs {
   proj4: string | null;
 }
 
-/** NAD83(CSRS) UTM zones by EPSG code (from memory: EPSG registry, NAD83(CSRS) / UTM zone 7N-22N). */
+/** NAD83(CSRS) UTM zones by EPSG code (EPSG registry; checked against GDAL in tests/io/crs.tool.test.ts). */
 const CSRS: Record<number, number> = {
   3154: 7, 3155: 8, 3156: 9, 3157: 10, 2955: 11, 2956: 12, 2957: 13, 3158: 14, 3159: 15, 3160: 16,
   2958: 17, 2959: 18, 2960: 19, 2961: 20, 2962: 21, 3761: 22,
