@@ -1,8 +1,9 @@
 /** `tilth surface`: one nutrient's interpolated map as an Esri ASCII grid (.asc + .prj), and the cross-validation table. */
 import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
+import { prjText } from '../geo/crs.js';
 import { UserError } from '../errors.js';
-import { analyteFromName, ANALYTE_LABEL, chanceBelow, classProbabilities, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, SURFACE_METHODS, utmPrj, type NutrientSurface, type SurfaceMethod } from '../surface/index.js';
+import { analyteFromName, ANALYTE_LABEL, chanceBelow, classProbabilities, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, SURFACE_METHODS, type NutrientSurface, type SurfaceMethod } from '../surface/index.js';
 import { chanceSpec } from '../variability/chance.js';
 import type { PMethod } from '../types.js';
 import { tablesFromOption } from './plan.js';
@@ -44,7 +45,7 @@ export function register(program: Command): void {
         'Values are in canonical units: nitrate-N and sulphate-S lb/ac 0-24 in, P and K ppm, OM %, pH.\n' +
         'Cells whose area is partly inside the field get values (so zones cover the field); others are NODATA (-9999).',
     )
-    .action((o) => {
+    .action(async (o) => {
       const analyte = analyteFromName(o.nutrient);
       const cell = numberOption('--cell', o.cell, { min: 0.01 })!;
       const power = o.power === 'auto' ? 'auto' : numberOption('--power', o.power, { min: 0.1, max: 10 })!;
@@ -64,12 +65,12 @@ export function register(program: Command): void {
       const fileOpts = { inputs: inputFiles, force: Boolean(o.force) };
       checkOutputFile(o.out, { ...fileOpts, ours: ASC_OURS });
       checkOutputFile(prjPath, { ...fileOpts, ours: prjOurs });
-      const inputs = loadInputs(inputOptionsFrom(o));
+      const inputs = await loadInputs(inputOptionsFrom(o));
       const grid = fieldGrid(inputs.field, cell);
       const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours, method: method as SurfaceMethod, kriging: { neighbours: kNeighbours, log: Boolean(o.log) } });
       const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
       writeOutputFile(o.out, formatAsc(grid, s.values, { decimals }), { ...fileOpts, ours: ASC_OURS });
-      writeOutputFile(prjPath, utmPrj(inputs.field.utm), { ...fileOpts, ours: prjOurs });
+      writeOutputFile(prjPath, prjText(inputs.field.utm), { ...fileOpts, ours: prjOurs });
       const extra = o.chanceMaps ? chanceGrids(s, o, inputs.samples.pMethod, warnings) : new Map<string, ArrayLike<number>>();
       for (const [suffix, values] of extra) {
         const file = o.out.replace(/\.asc$/i, `-${suffix}.asc`);
