@@ -1,21 +1,14 @@
 /** `tilth build`: the whole prescription from samples, boundary and plan, written into one folder. */
-import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
 import { buildPrescription, type Prescription } from '../prescription/index.js';
-import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, summaryText, zonesCsv, type Provenance } from '../prescription/outputs.js';
-import { reportInput } from '../prescription/reportInput.js';
-import { prescriptionFiles } from '../io/shapefile/index.js';
-import { zipFiles } from '../io/zip.js';
-import { prescriptionTaskDataFiles } from '../prescription/taskdata.js';
-import { renderReport, serializeReportInput } from '../report/index.js';
-import { inputsHash } from './report.js';
-import { VERSION } from '../version.js';
+import { prescriptionFolder, type PrescriptionFolder } from '../prescription/folder.js';
+import { provenance } from '../prescription/provenance.js';
+import { summaryText } from '../prescription/outputs.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { tablesFromOption } from './plan.js';
 import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
-import { createTerminal, type Task } from './progress.js';
-import { buildSulphurCharts } from '../variability/index.js';
+import { createTerminal, type Task, type Terminal } from './progress.js';
 
 export interface BuildFlags {
   samples: string; boundary: string; zones?: string; plan: string; tables?: string; out: string;
@@ -37,20 +30,11 @@ export function register(program: Command): void {
     .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json, report.html;\nshapefiles/ and ISO 11783-10 task data (TASKDATA/ and taskdata.zip) as the plan's output.formats asks.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
     .action(async (o: BuildFlags) => {
       const term = createTerminal({ quiet: o.quiet });
-      let last = '';
-      let task: Task | null = null;
-      const r = await runBuild(o, {
-        say: (line) => term.line(line),
-        onProgress: (step, done) => {
-          if (step !== last) { task?.done(); last = step; task = term.task(step, 100); }
-          task!.update(Math.round(done * 100), 100);
-        },
-        stepDone: () => (task as Task | null)?.done(),
-      });
-      if (o.json) out(JSON.stringify(r.summary, null, 2));
-      else out(r.text);
+      const bars = progressBars(term);
+      const r = await runBuild(o, { say: (s) => term.line(s), onProgress: bars.update, stepDone: bars.finish });
+      out(o.json ? JSON.stringify(r.summary, null, 2) : r.text);
       printWarnings(r.warnings);
-      info(`wrote ${r.files.length} files to ${o.out}: ${r.top.join(', ')}`);
+      info(`wrote ${r.files.length} files to ${o.out}: ${[...new Set(r.files.map((f) => f.replace(/\/.*/, '/')))].join(', ')}`);
       info(CAUTION);
       if (r.infeasible.length > 0) {
         info(`\n${r.infeasible.length} zone(s) cannot meet their targets within the plan's limits:`);
@@ -62,7 +46,7 @@ export function register(program: Command): void {
 
 /** What one build did, for the build and batch commands to print. */
 export interface BuildOutcome {
-  summary: ReturnType<typeof summaryObject>;
+  summary: PrescriptionFolder['summary'];
   /** the printed summary (summaryText) */
   text: string;
   warnings: Prescription['warnings'];
@@ -71,9 +55,8 @@ export interface BuildOutcome {
   field: { name: string; areaAc: number };
   /** zones over all zone sets */
   zones: number;
-  /** files written, relative to the output folder, and their top-level names */
+  /** files written, relative to the output folder */
   files: string[];
-  top: string[];
 }
 
 /** Progress hooks of {@link runBuild}: step lines, progress of long steps, the end of the last one. */
@@ -84,66 +67,37 @@ export interface BuildHooks {
 }
 
 /**
- * One `tilth build`: reads the inputs, builds the prescription and writes every file into `o.out` (temporary
- * folder renamed into place). Prints nothing itself; throws UserError for bad input.
- * @example const r = await runBuild({ samples, boundary, plan, out: 'rx' }, { say: console.error, onProgress() {}, stepDone() {} })
+ * One `tilth build` (also each field of `tilth batch`): reads the inputs, builds the prescription and writes
+ * every file into `o.out` (temporary folder renamed into place). Prints nothing itself; throws UserError for
+ * bad input.
+ * @example const r = await runBuild({ samples, boundary, plan, out: 'rx' }, { say() {}, onProgress() {}, stepDone() {} })
  */
 export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildOutcome> {
   const inputFiles = [o.samples, o.boundary, o.plan, o.zones, o.tables].filter((f): f is string => !!f);
   checkOutputDir(o.out, { force: o.force, inputs: inputFiles }); // before any work: a long build should not end in a refusal
-  const say = hooks.say;
   const tables = tablesFromOption(o.tables);
-  const planText = readInput(o.plan, 'plan').toString('utf8');
-  const plan = parsePlan(planText, o.plan, tables);
-  say('reading and checking the inputs ...');
+  const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
+  hooks.say('reading and checking the inputs ...');
   const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
   if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
   const rx = buildPrescription(inputs, plan, tables, { cell: numberOption('--cell', o.cell, { min: 0.1 }), onProgress: hooks.onProgress });
   hooks.stepDone();
-  const hash = (s: string | Buffer) => createHash('sha256').update(s).digest('hex');
-  const named: { name: string; bytes: Uint8Array }[] = [
-    { name: 'samples', bytes: readInput(o.samples, 'samples') },
-    { name: 'boundary', bytes: readInput(o.boundary, 'boundary') },
-    { name: 'plan', bytes: Buffer.from(planText, 'utf8') },
-  ];
-  if (o.zones) named.push({ name: 'zones', bytes: readInput(o.zones, 'zones') });
-  if (o.tables) named.push({ name: 'tables', bytes: readInput(o.tables, 'tables') });
-  const prov: Provenance = { tilth: VERSION, created: new Date().toISOString(), inputs: Object.fromEntries(named.map((f) => [f.name, hash(Buffer.from(f.bytes))])), id: inputsHash(named) };
-  const files = new Map<string, string | Uint8Array>();
-  for (const set of rx.zoneSets) files.set(geojsonName(rx, set), prescriptionGeojson(rx, set));
-  files.set('zones.csv', zonesCsv(rx));
-  const summary = summaryObject(rx, prov);
-  files.set('summary.json', JSON.stringify(summary, null, 2) + '\n');
-  if (plan.output.formats.includes('shapefile')) say('writing shapefiles ...');
-  for (const set of plan.output.formats.includes('shapefile') ? rx.zoneSets : []) {
-    const fc = shapefileFeatures(rx, set);
-    if (fc.features.length === 0) continue;
-    const shp = prescriptionFiles(fc, {
-      layout: plan.output.shapefile_layout,
-      crs: plan.output.crs === 'utm' ? 'utm' : 'lonlat',
-      utm: rx.field.utm,
-      shortFileNames: plan.output.short_names,
-      prefix: rx.zoneSets.length > 1 ? `rx_${set.name}` : 'rx',
-      title: `${plan.farm ? plan.farm + ', ' : ''}${plan.field || rx.field.name}: ${plan.crop}, zone set ${set.name} (tilth ${VERSION}, inputs ${prov.id})`,
-    });
-    for (const [name, bytes] of Object.entries(shp.files)) files.set(`shapefiles/${name}`, bytes);
-  }
-  if (plan.output.formats.includes('isoxml')) {
-    say('writing ISO 11783-10 task data ...');
-    const td = prescriptionTaskDataFiles(rx, tables, { layout: plan.output.shapefile_layout, grid: plan.output.isoxml_grid, gridCellM: plan.output.isoxml_grid_cell_m ?? undefined });
-    const inFolder = Object.fromEntries(Object.entries(td).map(([n, b]) => [`TASKDATA/${n}`, b]));
-    for (const [n, b] of Object.entries(inFolder)) files.set(n, b);
-    files.set('taskdata.zip', zipFiles(inFolder));
-  }
-  say('drawing the report ...');
-  // the sulphate-S variability charts (issue 8), from the build's own S surface
-  const sSurf = rx.surfaces.find((s) => s.analyte === 'so4_s');
-  const charts = buildSulphurCharts(inputs.samples, inputs.field, tables.crops[plan.crop], plan.strategy.s.method,
-    sSurf ? { grid: sSurf.grid, values: sSurf.values, note: sSurf.choice, zones: sSurf.method === 'zones' } : undefined);
-  const ri = reportInput(rx, inputs, tables, prov, { tablesEdited: !!o.tables, charts });
-  files.set('report-data.json', serializeReportInput(ri));
-  files.set('report.html', renderReport(ri));
+  const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const).filter((k) => o[k]).map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
+  const { files, summary } = prescriptionFolder(rx, inputs, tables, { provenance: provenance(named), tablesEdited: !!o.tables, onStep: hooks.say });
   writeOutputDir(o.out, files, { force: o.force, inputs: inputFiles });
-  const top = [...new Set([...files.keys()].map((f) => f.replace(/\/.*/, '/')))];
-  return { summary, text: summaryText(rx), warnings: rx.warnings, infeasible: rx.infeasible, totals: rx.totals, field: { name: rx.field.name, areaAc: rx.field.areaAc }, zones: rx.zoneSets.reduce((n, z) => n + z.zones.length, 0), files: [...files.keys()], top };
+  const zones = rx.zoneSets.reduce((n, z) => n + z.zones.length, 0);
+  return { summary, text: summaryText(rx), warnings: rx.warnings, infeasible: rx.infeasible, totals: rx.totals, field: { name: rx.field.name, areaAc: rx.field.areaAc }, zones, files: [...files.keys()] };
+}
+
+/** One progress bar per build step on stderr. */
+function progressBars(term: Terminal): { update: (step: string, done: number) => void; finish: () => void } {
+  let last = '';
+  let task: Task | null = null;
+  return {
+    update: (step, done) => {
+      if (step !== last) { task?.done(); last = step; task = term.task(step, 100); }
+      task!.update(Math.round(done * 100), 100);
+    },
+    finish: () => task?.done(),
+  };
 }
