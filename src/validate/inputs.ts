@@ -153,17 +153,23 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
   // duplicate locations (different ids within 0.5 m): a warning; where they share a point, the surface
   // stage averages their values (src/surface/prepare.ts), as a lab would for a re-tested site
   const order = s.ids.map((_, i) => i).sort((a, c) => xy[2 * a] - xy[2 * c]);
+  // memory stays linear however many samples share a point: five pairs are named, the rest counted, and the
+  // comparisons stop at a budget (a file of thousands of samples at one point is reported, not exhausted)
   const pairs: string[] = [];
-  for (let a = 0; a < order.length; a++) {
-    for (let c = a + 1; c < order.length && xy[2 * order[c]] - xy[2 * order[a]] < 0.5; c++) {
+  let nPairs = 0, compared = 0;
+  const COMPARE_BUDGET = 20_000_000;
+  for (let a = 0; a < order.length && compared < COMPARE_BUDGET; a++) {
+    for (let c = a + 1; c < order.length && xy[2 * order[c]] - xy[2 * order[a]] < 0.5 && compared < COMPARE_BUDGET; c++, compared++) {
       const i = order[a], j = order[c];
-      if (Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]) < 0.5) pairs.push(`"${s.ids[i]}" and "${s.ids[j]}" (${s.lonlat[2 * i + 1]}, ${s.lonlat[2 * i]})`);
+      if (Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]) >= 0.5) continue;
+      if (++nPairs <= 5) pairs.push(`"${s.ids[i]}" and "${s.ids[j]}" (${s.lonlat[2 * i + 1]}, ${s.lonlat[2 * i]})`);
     }
   }
-  if (pairs.length) {
+  if (nPairs) {
+    const more = compared >= COMPARE_BUDGET ? ' and many more' : nPairs > 5 ? ` and ${nPairs - 5} more pairs` : '';
     warnings.push({
       code: 'same-place', file: table.file, where: pairs.join('; '),
-      message: `${table.file}: samples ${abbrev(pairs, 5)} are within 0.5 m of each other; at one point their values are averaged in the maps. Fix: if they are different sites, correct the coordinates of one of them.`,
+      message: `${table.file}: samples ${pairs.join(', ')}${more} are within 0.5 m of each other; at one point their values are averaged in the maps. Fix: if they are different sites, correct the coordinates of one of them.`,
     });
   }
 
