@@ -2,7 +2,12 @@
 import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
-import { buildPrescription } from '../prescription/index.js';
+import { buildPrescription, defaultCell } from '../prescription/index.js';
+import { checkBuildCells, checkBoundaryVertices } from './safety/budgets.js';
+import { readinessProblems } from './safety/readiness.js';
+import { UserError } from '../errors.js';
+import type { FieldInputs } from '../types.js';
+import type { Plan } from '../agronomy/index.js';
 import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, summaryText, zonesCsv, type Provenance } from '../prescription/outputs.js';
 import { reportInput } from '../prescription/reportInput.js';
 import { prescriptionFiles } from '../io/shapefile/index.js';
@@ -44,12 +49,15 @@ export function register(program: Command): void {
       const planText = readInput(o.plan, 'plan').toString('utf8');
       const plan = parsePlan(planText, o.plan, tables);
       say('reading and checking the inputs ...');
+      const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
       const inputs = loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
       if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
+      refuseUnfit(inputs, plan, o.samples, o.boundary);
+      checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
       let last = '';
       let task: Task | null = null;
       const rx = buildPrescription(inputs, plan, tables, {
-        cell: numberOption('--cell', o.cell, { min: 0.1 }),
+        cell,
         onProgress: (step, done) => {
           if (step !== last) { task?.done(); last = step; task = term.task(step, 100); }
           task!.update(Math.round(done * 100), 100);
@@ -112,4 +120,11 @@ export function register(program: Command): void {
         process.exitCode = 1;
       }
     });
+}
+
+/** Refuses, before the work, inputs that cannot make a prescription (src/cli/safety/readiness.ts) or a boundary over the vertex budget. */
+function refuseUnfit(inputs: FieldInputs, plan: Plan, samplesFile: string, boundaryFile: string): void {
+  checkBoundaryVertices(inputs.field, boundaryFile);
+  const problems = readinessProblems(inputs, plan, samplesFile);
+  if (problems.length) throw new UserError(`cannot make a prescription from these inputs:\n  ${problems.join('\n  ')}`);
 }

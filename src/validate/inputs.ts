@@ -95,6 +95,10 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
   let s = built.samples;
   for (let i = 0; i < s.ids.length; i++) {
     const lon = s.lonlat[2 * i], lat = s.lonlat[2 * i + 1];
+    // every reader's positions pass here: a non-number (NaN, infinity, a damaged .shp) is refused before projection
+    if (!Number.isFinite(lon) || !Number.isFinite(lat)) {
+      throw new UserError(`${table.file} sample "${s.ids[i]}" (${s.origin[i].replace(table.file + ' ', '')}): position [${lon}, ${lat}] is not a pair of finite numbers. Fix: give the sample's position in decimal degrees, or export the file again.`, { file: table.file, where: s.ids[i], value: [lon, lat] });
+    }
     if (Math.abs(lat) > 90 && Math.abs(lat) <= 180 && Math.abs(lon) <= 90) {
       throw new UserError(
         `${table.file} sample "${s.ids[i]}" (${s.origin[i].replace(table.file + ' ', '')}): latitude ${lat} and longitude ${lon} look swapped. ` +
