@@ -19,6 +19,7 @@ const pick = <V>(a: readonly V[]): V => a[Math.floor(rnd() * a.length)]!;
 
 const counts = new Map<string, number>();
 const add = (k: string, v = 1) => counts.set(k, (counts.get(k) ?? 0) + v);
+for (const k of ['decisions with a product rate <= 2 lb/ac', 'decisions with a rate strictly between 0 and the product min_rate', 'products split across placements with a part below max(min_rate, 2 lb)', 'ammonium sulphate applied while the S target is 0', 'potash in the seed row while seed-row phosphate is below min(limit, target)', 'stopped to ask (all crops)', 'infeasible (all)']) counts.set(k, 0);
 const examples = new Map<string, string>();
 const example = (k: string, v: string) => examples.has(k) || examples.set(k, v);
 
@@ -76,16 +77,22 @@ for (let i = 0; i < N; i++) {
   if (belowMin) add('decisions with a rate strictly between 0 and the product min_rate');
   for (const [prod, parts] of byProduct) if (parts.length > 1 && parts.some((v) => v < Math.max(minOf(prod), 2.0001))) add('products split across placements with a part below max(min_rate, 2 lb)');
   const as = d.placements.flatMap((p) => p.products).filter((q) => q.product === 'ammonium_sulphate');
-  if (as.length && !(d.nutrients.s.target.lbac > 0)) add('ammonium sulphate applied while the S target is 0');
+  if (as.length && !(d.nutrients.s.target.lbac > 0)) { add('ammonium sulphate applied while the S target is 0'); example('as', `${crop} ${JSON.stringify(plan.implement)} N ${d.nutrients.n.target.lbac.toFixed(1)} ${JSON.stringify(d.placements.map((p) => [p.placement, p.products.map((q) => `${q.product} ${q.rate.value}`)]))}`); }
   const pNeed = d.nutrients.p2o5.target.lbac > 0;
   const hasSeed = plan.implement.placements.includes('seed_row');
   if ((crop === 'canola' || crop === 'peas') && pNeed && hasSeed) {
     add(`${crop}: P need and a seed row`);
     if (seedP(d) > 0.01) add(`${crop}: ... gets seed P`);
+    else {
+      const map = plan.products.find((q) => q.product === 'map')!;
+      const why = Math.min(d.seedRow.p2o5, d.seedRow.p2o5K2o) < (map.min_rate * T.products.map!.p2o5) / 100 ? 'the seed-row P2O5 limit is below what MAP at its min_rate carries' : 'other';
+      add(`${crop}: ... no seed P: ${why}`);
+      if (why === 'other') example(`noseedp-${crop}`, `${JSON.stringify(plan.implement)} P ${d.nutrients.p2o5.target.lbac.toFixed(1)} lim ${d.seedRow.p2o5.toFixed(1)} ${JSON.stringify(d.placements.map((p) => [p.placement, p.products.map((q) => `${q.product} ${q.rate.value}`)]))}`);
+    }
     const lim = Math.min(d.seedRow.p2o5, d.seedRow.p2o5K2o, d.nutrients.p2o5.target.lbac);
     if (seedP(d) >= lim - 5.5) add(`${crop}: ... seed P within one 5 lb MAP step (2.6 lb P2O5) of min(limit, target)`);
   }
-  if (d.seedRow.applied.k2o > 0.01 && d.seedRow.applied.p2o5 < Math.min(d.seedRow.p2o5, d.nutrients.p2o5.target.lbac) - 3) add('potash in the seed row while seed-row phosphate is below min(limit, target)');
+  if (d.seedRow.applied.k2o > 0.01 && d.seedRow.applied.p2o5 < Math.min(d.seedRow.p2o5, d.nutrients.p2o5.target.lbac) - 3) { add('potash in the seed row while seed-row phosphate is below min(limit, target)'); example('pk', `${crop} ${JSON.stringify(plan.implement)} P ${d.nutrients.p2o5.target.lbac.toFixed(1)} K ${d.nutrients.k2o.target.lbac.toFixed(1)} lim ${d.seedRow.p2o5.toFixed(1)} nk ${d.seedRow.nK2o} ${JSON.stringify(d.placements.map((p) => [p.placement, p.products.map((q) => `${q.product} ${q.rate.value}`)]))}`); }
   if (d.seedRow.applied.k2o > 0.01 && (crop === 'canola' || crop === 'peas')) add(`${crop}: potash with the seed`);
 }
 

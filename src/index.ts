@@ -3,8 +3,9 @@
  * `src/cli/` does that. See docs/architecture.md.
  *
  * @example
- * import { prepareInputs, parsePlan, defaultTables, buildPrescription } from 'tilth';
- * const inputs = prepareInputs({ name: 'samples.csv', bytes }, { name: 'boundary.geojson', bytes: b });
+ * import { readInputs, prepareInputs, parsePlan, defaultTables, buildPrescription } from 'tilth';
+ * const raw = await readInputs({ samples: { name: 'samples.csv', bytes }, boundary: { name: 'boundary.geojson', bytes: b } });
+ * const inputs = prepareInputs(raw);
  * const tables = defaultTables();
  * const rx = buildPrescription(inputs, parsePlan(planYaml, 'plan.yaml', tables), tables);
  */
@@ -13,6 +14,7 @@ export { UserError, isUserError, type Warning } from './errors.js';
 export * as units from './units/index.js';
 export { VERSION } from './version.js';
 export { prepareInputs } from './validate/inputs.js';
+export { readInputs, type InputFiles, type RawInputs } from './io/inputs.js';
 export { projectField } from './geo/field.js';
 export { utmZoneFor, projector, type Projector } from './geo/utm.js';
 export * from './surface/index.js';
@@ -22,6 +24,9 @@ export { buildPrescription, defaultCell, type Prescription, type PrescriptionZon
 export { prescriptionGeojson, zonesCsv, summaryObject, summaryText, shapefileFeatures, type Provenance } from './prescription/outputs.js';
 export { reportInput } from './prescription/reportInput.js';
 export { writeShapefile, prescriptionFiles, readShapefile } from './io/shapefile/index.js';
+export { prescriptionTaskData, prescriptionTaskDataFiles, type TaskDataOptions } from './prescription/taskdata.js';
+export { readTaskData, taskDataFiles, taskDataXml, type TaskData } from './io/isoxml/index.js';
 export { zipFiles, readZip } from './io/zip.js';
 export { checkPrescription } from './check/index.js';
+export { layersFromTaskData, layersFromTaskDataFiles } from './check/taskdata.js';
 export { renderReport, serializeReportInput, parseReportInput } from './report/index.js';

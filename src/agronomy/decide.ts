@@ -253,6 +253,18 @@ function shortWarnings(tg: Targets, effective: Record<Nutrient, number>, tol: nu
   }
 }
 
+/** Say why a P need got no phosphate with the seed although the plan allows it there. */
+function noSeedPWarning(opts: readonly ProductOption[], lim: SeedRowLimits, need: Record<Nutrient, number>, placements: readonly PlacementResult[], warnings: Warning[]): void {
+  const seedP = opts.filter((o) => o.placement === 'seed_row' && o.frac.p2o5 > 0);
+  if (!(need.p2o5 > 0) || seedP.length === 0 || placements.some((p) => p.placement === 'seed_row' && p.nutrients.p2o5 > EPS)) return;
+  const room = Math.min(lim.p2o5, lim.p2o5K2o);
+  const least = Math.min(...seedP.map((o) => Math.max(o.minLb, o.stepLb) * o.frac.p2o5));
+  const why = room < least - EPS
+    ? `the seed-row P2O5 limit ${r1(room)} lb/ac (${lim.pSource.split(';').slice(-1)[0]!.trim()}) is below the ${r1(least)} lb P2O5 that ${seedP[0]!.label} carries at its minimum rate; lower that product's min_rate for the seed row (a separate product entry) if your meter can, or check the drill settings`
+    : 'the potash need could not be met outside the seed row within the machine limits';
+  warnings.push({ code: 'no-seed-p', message: `no phosphate with the seed: ${why}`, field: 'seed_row' });
+}
+
 /**
  * Decides rates for one location.
  * @param soil soil values in canonical units (NaN = not tested)
@@ -289,6 +301,7 @@ export function decide(soil: SoilValues, plan: Plan, tables: Tables): Decision {
   if (feasible && binding.length === 0) binding.push('none: every target met at least cost without reaching a limit');
   const economics = feasible ? economicsFor({ opts, need, tol, lim, res, it, plan, tables }) : [];
   if (feasible) shortWarnings(tg, effective, tol, warnings);
+  if (feasible) noSeedPWarning(opts, lim, need, placements, warnings);
   if (crop.seed_row_group === 'canola' && placements.some((p) => p.placement === 'seed_row' && p.products.some((q) => q.product === 'ammonium_sulphate'))) {
     warnings.push({ code: 'as-with-canola-seed', message: 'ammonium sulphate with canola seed further thins stands ([published] Canola Watch 2020); consider moving it out of the seed row', field: 'products' });
   }

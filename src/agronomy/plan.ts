@@ -101,11 +101,19 @@ export const planSchema = z.object({
     zone_sets: z.enum(['per_product', 'shared']).default('per_product'),
     /** per_product sets: neighbouring classes whose mean targets differ by less than this % of the field's mean target are merged (tilth default, no published source) */
     min_class_difference_pct: z.number().min(0).max(100).default(5),
+    /** neighbouring zones stay apart only if some product rate differs by at least this (plan units): auto = the larger of the product's step and min_rate_difference_pct % of its field mean; a number for every product, or per product */
+    min_rate_difference: z.union([z.literal('auto'), z.number().min(0), z.record(z.string(), z.number().min(0))]).default('auto'),
+    /** share of a product's field mean rate that auto uses, % (tilth default 10, common practice) */
+    min_rate_difference_pct: z.number().min(0).max(100).default(10),
+    /** zone edges are simplified to within this many grid cells (shared edges once; the field boundary is kept exact); 0 = cell staircase */
+    simplify_cells: z.number().min(0).max(10).default(1),
   }).strict().prefault({}),
   output: z.object({
     shapefile_layout: z.enum(['per_placement', 'per_product']).default('per_placement'),
     short_names: z.boolean().default(false),
     crs: z.enum(['wgs84', 'utm']).default('wgs84'),
+    /** a zone set whose polygons would need more vertices than this fails with an error; null = no limit */
+    max_vertices: z.number().int().positive().nullable().default(null),
     /** machine files besides prescription.geojson, zones.csv, summary and report (always written) */
     formats: z.array(z.enum(['shapefile', 'isoxml'])).default(['shapefile', 'isoxml']),
     /** ISO 11783-10 task data: a type-2 grid of rates instead of zone polygons */

@@ -124,14 +124,18 @@ zoning:
   method: jenks               # jenks | quantile | equal | kmeans
   classes: 5
   smoothing_passes: 2
-  min_zone_ac: auto           # auto | acres
+  min_zone_ac: auto           # auto = the larger of swath x distance travelled during a rate change and the field area per grid sample; or acres (lower it knowingly)
   zone_sets: per_product      # per_product | shared
   min_class_difference_pct: 5 # per_product: merge classes whose targets differ by less than this % of the mean (tilth default)
+  min_rate_difference: auto   # auto | a rate | { product: rate }: neighbouring zones stay apart only if a product rate differs by at least this and by more than the soil maps' error moves it
+  min_rate_difference_pct: 10 # auto: the larger of the product's step and this % of its field mean rate (tilth default)
+  simplify_cells: 1           # zone edges smoothed to within this many grid cells (0 = cell staircase); the field boundary stays exact
 
 output:
   shapefile_layout: per_placement   # per_placement | per_product
   short_names: false
   crs: wgs84                  # wgs84 | utm
+  max_vertices: null          # null | a number: stop with an error when a zone set would need more polygon vertices
   formats: [shapefile, isoxml]  # shapefile | isoxml (ISO 11783-10 TASKDATA); GeoJSON, zones.csv, summary, report always
   isoxml_grid: false          # true: task data as a grid of rates (GRD type 2) instead of zone polygons
   isoxml_grid_cell_m: null    # grid cell, m; null = half the build's grid cell

@@ -59,7 +59,7 @@ a lag with fewer than 30 pairs is flagged (common practice); sampling is judged 
 (common practice). Dependence classes: Cambardella et al. 1994.
 
 ${CAUTION}`)
-    .action((o) => {
+    .action(async (o) => {
       const nutrient = parseNutrient(o.nutrient);
       const tables = tablesFromOption(o.tables);
       const plan = o.plan ? parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables) : null;
@@ -84,7 +84,7 @@ ${CAUTION}`)
       const inputFiles = [o.samples, o.boundary, o.zones, o.plan, o.tables].filter((f): f is string => !!f);
       if (o.out) checkOutputDir(o.out, { force: Boolean(o.force), inputs: inputFiles });
       const cell = numberOption('--cell', o.cell, { min: 0.5, max: 1000 })!;
-      const inputs = loadInputs(inputOptionsFrom(o));
+      const inputs = await loadInputs(inputOptionsFrom(o));
       checkBoundaryVertices(inputs.field, o.boundary);
       const problems = readinessProblems(inputs, nutrient, o.samples);
       if (problems.length) throw new UserError(`cannot judge the variability of these inputs:\n  ${problems.join('\n  ')}`);

@@ -6,6 +6,7 @@
  * values through the rate engine -> product rates per zone and totals. Pure: no files, no console.
  * See docs/method.md for the method and its defaults.
  */
+import { soilFlagsById } from '../agronomy/soilFlags.js';
 import { UserError, type Warning } from '../errors.js';
 import { decide, type Decision } from '../agronomy/decide.js';
 import type { SoilValues } from '../agronomy/interpret.js';
@@ -13,11 +14,14 @@ import type { Plan } from '../agronomy/plan.js';
 import { NUTRIENTS, type Nutrient, type Placement, type Tables } from '../agronomy/tables.js';
 import { fieldGrid } from '../surface/grid.js';
 import { nutrientSurfaces, type NutrientSurface } from '../surface/nutrientSurface.js';
-import { classify, classifyVectors, type Classes } from '../zones/classify.js';
-import { makeZones, minZoneAreaM2, zonesFromSampleZones } from '../zones/index.js';
+import { zonesFromSampleZones } from '../zones/index.js';
+import { vertexCount } from '../zones/arcs.js';
 import type { Analyte, FieldInputs, Grid, RingsPart, Texture } from '../types.js';
-import { m2ToAc, m2ToHa, M2_PER_AC } from '../units/index.js';
+import { m2ToAc, m2ToHa } from '../units/index.js';
 import { cellTargets } from './cellTargets.js';
+import { designZoneSets, minZoneArea, numberRateClasses, type ZoneDesign } from './zoneDesign.js';
+
+export { mergeCloseClasses } from './zoneDesign.js';
 
 /** Soil analytes the rate engine reads. */
 export const BUILD_ANALYTES: readonly Analyte[] = ['no3_n', 'p', 'k', 'so4_s', 'om'];
@@ -63,6 +67,8 @@ export interface ZoneSetResult {
   minZoneAreaM2: number;
   /** per cell zone index (0-based into zones), -1 outside; null for sampled sets */
   zoneOfCell: Int32Array | null;
+  /** how the zones came about (counts, minimum area and rate differences, pairs, vertices); null for sampled sets */
+  design: ZoneDesign | null;
 }
 
 /** Product totals for ordering and loading. */
@@ -96,6 +102,8 @@ export interface Prescription {
   infeasible: { zoneSet: string; zone: number; nutrient: string | null; reason: string }[];
   warnings: Warning[];
   sampled: boolean;
+  /** sample id -> soil flags ("saline; high pH"), flagged samples only (src/agronomy/soilFlags.ts); no rate depends on them */
+  soilFlags?: Record<string, string>;
 }
 
 /** A cell size giving about 200 cells across the field's longer side, rounded to 1, 2, 5, 10 or 20 m. */
@@ -171,25 +179,11 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
   // 2. per-cell targets
   const tg = cellTargets(byAnalyte, grid.fraction, plan, tables);
 
-  const minArea = plan.zoning.min_zone_ac === 'auto'
-    ? minZoneAreaM2({ swathM: plan.machine.swath_width_ft * 0.3048, speedKmh: plan.machine.speed_mph * 1.609344, changeSeconds: plan.machine.rate_change_s })
-    : plan.zoning.min_zone_ac * M2_PER_AC;
+  const minArea = minZoneArea(plan, field.areaM2, inside);
 
   const zoneSets: ZoneSetResult[] = [];
   const sampled = !!inputs.zones && samples.zone.some((z) => z !== null);
   const allProducts = plan.products.map((p) => p.product);
-
-  const meanSoil = (weightOf: (cell: number) => number, cells: Iterable<number>): SoilValues => {
-    const soil: SoilValues = { no3_n: NaN, p: NaN, k: NaN, so4_s: NaN, om: NaN };
-    for (const a of BUILD_ANALYTES) {
-      const v = byAnalyte[a];
-      if (!v) continue;
-      let s = 0, w = 0;
-      for (const c of cells) { const x = v[c], wc = weightOf(c); if (x === x && wc > 0) { s += x * wc; w += wc; } }
-      (soil as unknown as Record<string, number>)[a] = w > 0 ? s / w : NaN;
-    }
-    return soil;
-  };
 
   if (sampled) {
     progress('zones (sampled polygons)', 0);
@@ -207,61 +201,25 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
       if (idx.length === 0) warnings.push({ code: 'build.zone-unsampled', where: z.key, message: `sampled zone "${z.key}" has no sample; its soil values are unknown and its rates follow the "not tested" rules. Fix: add its composite sample.` });
       return zoneRecord(i + 1, i + 1, z.key, z.parts, z.lonlat, z.areaM2, soil, idx.map((j) => samples.ids[j]), plan, tables);
     });
-    zoneSets.push({ name: 'sampled', drivenBy: 'the sampled zone polygons (zone-composite samples)', products: allProducts, zones: zonesOut, breaks: null, minZoneAreaM2: 0, zoneOfCell: null });
+    zoneSets.push({ name: 'sampled', drivenBy: 'the sampled zone polygons (zone-composite samples)', products: allProducts, zones: zonesOut, breaks: null, minZoneAreaM2: 0, zoneOfCell: null, design: null });
   } else {
-    // 3. classes and zones
-    const specs: { name: string; drivenBy: string; products: string[]; input: Float64Array | { classOf: Int16Array } }[] = [];
-    if (plan.zoning.zone_sets === 'shared') {
-      const dims = NUTRIENTS.filter((n) => varies(tg[n], grid.fraction)).map((n) => tg[n]);
-      const vc = dims.length > 0
-        ? classifyVectors(dims, { classes: plan.zoning.classes, weights: grid.fraction })
-        : { classOf: new Int16Array(grid.cols * grid.rows).map((_, i) => (grid.fraction[i] > 0 ? 0 : -1)) };
-      specs.push({ name: 'shared', drivenBy: `k-means on the standardized ${NUTRIENTS.filter((n) => varies(tg[n], grid.fraction)).map(nutrientName).join(', ') || 'targets (all uniform)'} targets`, products: allProducts, input: { classOf: vc.classOf } });
-    } else {
-      const byNutrient = new Map<Nutrient, string[]>();
-      for (const p of allProducts) {
-        const n = mainNutrient(p, tables);
-        byNutrient.set(n, [...(byNutrient.get(n) ?? []), p]);
-      }
-      for (const [n, prods] of byNutrient) specs.push({ name: n, drivenBy: `${nutrientName(n)} target (${plan.zoning.method}, up to ${plan.zoning.classes} classes)`, products: prods, input: tg[n] });
+    // 3. classes and zones, merged until neighbouring zones differ by rates that matter (zoneDesign.ts)
+    progress('zones (classes, merging, edges, rates per zone)', 0);
+    const analytes = BUILD_ANALYTES.filter((a) => byAnalyte[a]);
+    const designed = designZoneSets({ inputs, plan, tables, grid, targets: tg, surfaces, analytes, layers: analytes.map((a) => byAnalyte[a]!), minArea, mainNutrient: (p) => mainNutrient(p, tables) });
+    warnings.push(...designed.warnings);
+    for (const set of designed.sets) {
+      const profiles = set.zones.profiles!;
+      const zonesOut = set.zones.zones.map((z, zi): PrescriptionZone => ({
+        id: zi + 1, rateClass: 0, key: null, parts: z.parts, lonlat: z.lonlat, areaM2: z.areaM2, areaAc: m2ToAc(z.areaM2), areaHa: m2ToHa(z.areaM2),
+        soil: profiles[zi].soil, samples: set.samples[zi].map((j) => samples.ids[j]), decision: profiles[zi].decision,
+      }));
+      numberRateClasses(zonesOut, set.products);
+      zoneSets.push({ name: set.name, drivenBy: set.drivenBy, products: set.products, zones: zonesOut, breaks: set.breaks, minZoneAreaM2: minArea.usedM2, zoneOfCell: set.zones.zoneOfCell, design: set.design });
     }
-    specs.forEach((spec, si) => {
-      progress('zones (classes, cleaning, tracing, rates per zone)', si / specs.length);
-      let input = spec.input;
-      let breaks: number[] | null = null;
-      if (input instanceof Float64Array) {
-        const c = classify(input, { method: plan.zoning.method, classes: plan.zoning.classes, weights: grid.fraction, step: 0 });
-        const merged = mergeCloseClasses(c, plan.zoning.min_class_difference_pct);
-        input = { classOf: merged.classOf };
-        breaks = merged.breaks;
-      }
-      const zs = makeZones(grid, input, field, {
-        method: plan.zoning.method,
-        classes: plan.zoning.classes,
-        majorityIterations: plan.zoning.smoothing_passes,
-        minAreaM2: minArea,
-        step: 0,
-      });
-      warnings.push(...zs.warnings);
-      // cells and samples per zone
-      const cells: number[][] = zs.zones.map(() => []);
-      for (let i = 0; i < zs.zoneOfCell.length; i++) { const z = zs.zoneOfCell[i]; if (z >= 0) cells[z].push(i); }
-      const sampleIdx: number[][] = zs.zones.map(() => []);
-      for (let j = 0; j < samples.ids.length; j++) {
-        const c = cellOf(samples.xy[2 * j], samples.xy[2 * j + 1]);
-        const z = c >= 0 ? zs.zoneOfCell[c] : -1;
-        if (z >= 0) sampleIdx[z].push(j);
-      }
-      const zonesOut = zs.zones.map((z, zi) => {
-        const soil = meanSoil((c) => grid.fraction[c], cells[zi]);
-        soil.texture = majorityTexture(sampleIdx[zi].map((j) => samples.texture[j])) ?? nearestTexture(inputs, cells[zi], grid);
-        soil.pMethod = samples.pMethod;
-        return zoneRecord(zi + 1, z.cls + 1, null, z.parts, z.lonlat, z.areaM2, soil, sampleIdx[zi].map((j) => samples.ids[j]), plan, tables);
-      });
-      zoneSets.push({ name: spec.name, drivenBy: spec.drivenBy, products: spec.products, zones: zonesOut, breaks, minZoneAreaM2: zs.minAreaM2, zoneOfCell: zs.zoneOfCell });
-    });
   }
-  progress('zones (classes, cleaning, tracing, rates per zone)', 1);
+  progress('zones (classes, merging, edges, rates per zone)', 1);
+  checkVertexLimit(zoneSets, plan.output.max_vertices);
 
   const infeasible: Prescription['infeasible'] = [];
   // the rate engine's warnings, grouped: one line per kind of warning, naming the zones it concerns
@@ -291,36 +249,12 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
     infeasible,
     warnings: dedupe(warnings),
     sampled,
+    soilFlags: soilFlagsById(inputs.samples),
   };
 }
 
 function zoneRecord(id: number, rateClass: number, key: string | null, parts: RingsPart[], lonlat: number[][][][], areaM2: number, soil: SoilValues, ids: string[], plan: Plan, tables: Tables): PrescriptionZone {
   return { id, rateClass, key, parts, lonlat, areaM2, areaAc: m2ToAc(areaM2), areaHa: m2ToHa(areaM2), soil, samples: ids, decision: decide(soil, plan, tables) };
-}
-
-/**
- * Merges neighbouring 1-D classes whose area-weighted mean values differ by less than `pct` % of the overall
- * mean: a rate step that small is not worth a zone boundary (tilth default 5 %, no published source; set
- * plan key zoning.min_class_difference_pct, 0 = keep every class). Returns the remapped classes (0 = lowest)
- * and the legend breaks [min, upper of each class..., max].
- * @example mergeCloseClasses(classify(v, { classes: 5 }), 5).classOf
- */
-export function mergeCloseClasses(c: Classes, pct: number): { classOf: Int16Array; breaks: number[]; count: number } {
-  if (c.count <= 1 || !(pct > 0)) return { classOf: c.classOf, breaks: c.breaks, count: c.count };
-  let tw = 0, tm = 0;
-  for (let k = 0; k < c.count; k++) { tw += c.weight[k]; tm += c.weight[k] * c.mean[k]; }
-  const thr = (Math.abs(tm / tw) * pct) / 100;
-  const group = new Int16Array(c.count);
-  const breaks = [c.breaks[0]];
-  let g = 0, gw = c.weight[0], gm = c.weight[0] * c.mean[0];
-  for (let k = 1; k < c.count; k++) {
-    if (c.mean[k] - gm / gw < thr) { gw += c.weight[k]; gm += c.weight[k] * c.mean[k]; }
-    else { breaks.push(c.breaks[k]); g++; gw = c.weight[k]; gm = c.weight[k] * c.mean[k]; }
-    group[k] = g;
-  }
-  breaks.push(c.breaks[c.count]);
-  const classOf = c.classOf.map((v) => (v >= 0 ? group[v] : v));
-  return { classOf, breaks, count: g + 1 };
 }
 
 /** Rate of one product in one placement of a decision, in the plan's unit (0 when not applied). */
@@ -361,10 +295,15 @@ function productTotals(sets: ZoneSetResult[], plan: Plan): ProductTotal[] {
   return out;
 }
 
-function varies(v: Float64Array, w: ArrayLike<number>): boolean {
-  let lo = Infinity, hi = -Infinity;
-  for (let i = 0; i < v.length; i++) if (w[i] > 0 && v[i] === v[i]) { if (v[i] < lo) lo = v[i]; if (v[i] > hi) hi = v[i]; }
-  return hi - lo > 1e-9;
+/** Fails with a UserError when a zone set's polygons need more vertices than plan output.max_vertices. */
+function checkVertexLimit(sets: ZoneSetResult[], max: number | null): void {
+  if (max === null) return;
+  for (const set of sets) {
+    const n = set.zones.reduce((s, z) => s + vertexCount(z.parts), 0);
+    if (n > max) {
+      throw new UserError(`zone set "${set.name}" needs ${n} polygon vertices, more than plan key output.max_vertices (${max}). Fix: raise zoning.simplify_cells (smoother edges) or zoning.min_zone_ac (fewer zones), or raise output.max_vertices if your controller takes larger files.`, { field: 'output.max_vertices', value: max });
+    }
+  }
 }
 
 function majorityTexture(ts: (Texture | null)[]): Texture | null {
@@ -373,21 +312,6 @@ function majorityTexture(ts: (Texture | null)[]): Texture | null {
   let best: Texture | null = null, bc = 0;
   for (const [t, c] of count) if (c > bc) { best = t; bc = c; }
   return best;
-}
-
-/** Texture of the sample nearest the zone's first cell, when no sample lies inside the zone. */
-function nearestTexture(inputs: FieldInputs, cells: number[], grid: Grid): Texture | null {
-  if (cells.length === 0) return null;
-  const c = cells[Math.floor(cells.length / 2)];
-  const x = grid.xmin + ((c % grid.cols) + 0.5) * grid.cell, y = grid.ymax - (Math.floor(c / grid.cols) + 0.5) * grid.cell;
-  let best = -1, bd = Infinity;
-  const s = inputs.samples;
-  for (let j = 0; j < s.ids.length; j++) {
-    if (!s.texture[j]) continue;
-    const d = (s.xy[2 * j] - x) ** 2 + (s.xy[2 * j + 1] - y) ** 2;
-    if (d < bd) { bd = d; best = j; }
-  }
-  return best >= 0 ? s.texture[best] : null;
 }
 
 export function nutrientName(n: Nutrient): string {

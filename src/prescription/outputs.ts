@@ -8,6 +8,7 @@ import type { Placement } from '../agronomy/tables.js';
 import { NUTRIENTS } from '../agronomy/tables.js';
 import { VERSION } from '../version.js';
 import { productRate, usedPairs, nutrientName, type Prescription, type ZoneSetResult } from './index.js';
+import { apartText, designLines, type ZoneDesign } from './zoneDesign.js';
 
 const unitTag = (u: string) => (u === 'kg/ha' ? 'kgha' : 'lbac');
 const round = (v: number, d: number) => (Number.isFinite(v) ? Number(v.toFixed(d)) : null);
@@ -53,6 +54,10 @@ export function zoneAttributes(rx: Prescription, set: ZoneSetResult, zi: number)
   a.cost_per_ac = round(d.costPerAc, 2);
   a.binding_limit = d.binding.join('; ');
   a.status = d.status;
+  // saline / high-pH / free-lime samples in the zone (src/agronomy/soilFlags.ts); a column only when the field has any
+  if (rx.soilFlags && Object.keys(rx.soilFlags).length) {
+    a.soil_flags = [...new Set(z.samples.flatMap((id) => rx.soilFlags![id]?.split('; ') ?? []))].join('; ');
+  }
   return a;
 }
 
@@ -77,7 +82,14 @@ export function prescriptionGeojson(rx: Prescription, set: ZoneSetResult): strin
 
 /** Every zone of every set as CSV, one row per zone (same attributes as the GeoJSON). */
 export function zonesCsv(rx: Prescription): string {
-  const rows = rx.zoneSets.flatMap((set) => set.zones.map((_, zi) => zoneAttributes(rx, set, zi)));
+  const rows = rx.zoneSets.flatMap((set) => set.zones.map((z, zi) => {
+    const a = zoneAttributes(rx, set, zi);
+    if (set.design) {
+      a.kept_apart_from = set.design.pairs.filter((p) => p.a === z.id || p.b === z.id)
+        .map((p) => `zone ${p.a === z.id ? p.b : p.a}: ${apartText(p.why && p.a !== z.id ? { ...p.why, a: p.why.b, b: p.why.a } : p.why, rx.plan.units)}`).join('; ');
+    }
+    return a;
+  }));
   const cols: string[] = [];
   for (const r of rows) for (const k of Object.keys(r)) if (!cols.includes(k)) cols.push(k);
   return [cols.join(','), ...rows.map((r) => cols.map((c) => csvCell(r[c] ?? '')).join(','))].join('\n') + '\n';
@@ -102,7 +114,7 @@ export function summaryObject(rx: Prescription, prov: Provenance): unknown {
     units: rx.plan.units,
     grid: { cell_m: rx.grid.cell, cols: rx.grid.cols, rows: rx.grid.rows },
     surfaces: rx.surfaces.map((s) => ({ analyte: s.analyte, method: s.method, power: Number.isFinite(s.power) ? s.power : null, neighbours: Number.isFinite(s.neighbours) ? s.neighbours : s.method === 'idw' ? 'all' : null, choice: s.choice, cv: s.cv?.table.map((r) => ({ method: r.method ?? 'idw', power: Number.isFinite(r.power) ? r.power : null, ...(r.method === 'kriging' ? { msse: round(r.msse ?? NaN, 4), model: s.kriging?.modelText } : {}), chosen: r === s.cv!.best, neighbours: Number.isFinite(r.neighbours) ? r.neighbours : 'all', rmse: round(r.rmse, 4), mae: round(r.mae, 4), bias: round(r.bias, 4), n: r.n })) ?? null })),
-    zone_sets: rx.zoneSets.map((s) => ({ name: s.name, driven_by: s.drivenBy, products: s.products, zones: s.zones.length, min_zone_ac: round(s.minZoneAreaM2 / 4046.8564224, 3), file: geojsonName(rx, s), breaks_lbac: s.breaks?.map((b) => round(b, 2)) ?? null })),
+    zone_sets: rx.zoneSets.map((s) => ({ name: s.name, driven_by: s.drivenBy, products: s.products, zones: s.zones.length, min_zone_ac: round(s.minZoneAreaM2 / 4046.8564224, 3), file: geojsonName(rx, s), breaks_lbac: s.breaks?.map((b) => round(b, 2)) ?? null, design: s.design ? designObject(s.design) : null })),
     totals: rx.totals.map((t) => ({ zone_set: t.zoneSet, product: t.product, label: t.label, placement: t.placement, total_lb: round(t.totalLb, 0), total_kg: round(t.totalKg, 0), total_tonnes: round(t.totalKg / 1000, 3), mean_rate: round(t.meanRate, 1), min_rate: round(t.minRate, 1), max_rate: round(t.maxRate, 1), unit: t.unit, applied_ac: round(t.appliedAc, 2) })),
     infeasible: rx.infeasible,
     warnings: rx.warnings.map((w) => ({ code: w.code, message: w.message })),
@@ -135,6 +147,7 @@ export function summaryText(rx: Prescription): string {
       const rates = usedPairs(set).map((p) => `${p.product}@${PLACEMENT_TAG[p.placement]} ${productRate(z.decision, p.product, p.placement).value.toFixed(0)}`).join(', ');
       lines.push(`  ${lpad(String(z.id), 4)} ${lpad(String(z.rateClass), 5)} ${lpad(z.areaAc.toFixed(2), 7)}  ${NUTRIENTS.map((n) => lpad(z.decision.nutrients[n].target.value.toFixed(0), 6)).join(' ')}  ${rates || '-'}  ${z.decision.status === 'ok' ? z.decision.binding.join('; ') : 'INFEASIBLE: ' + z.decision.infeasible.map((f) => f.reason).join('; ')}`);
     }
+    if (set.design) lines.push(...designLines(set.design, u));
   }
   return lines.join('\n') + '\n';
 }
@@ -156,5 +169,19 @@ export function shapefileFeatures(rx: Prescription, set: ZoneSetResult): Feature
       },
       geometry: z.lonlat.length === 1 ? { type: 'Polygon', coordinates: z.lonlat[0] } : { type: 'MultiPolygon', coordinates: z.lonlat },
     })),
+  };
+}
+
+/** The zone design as plain JSON (areas in acres and m2, pairs with their reason). */
+function designObject(d: ZoneDesign): unknown {
+  const m = d.minArea;
+  return {
+    why: d.why,
+    counts: { classes_drawn: d.counts.classes, classes_kept: d.counts.classesMerged, zones_after_cleaning: d.counts.zonesCleaned, zones: d.counts.zones },
+    min_zone_area: { used_ac: round(m.usedM2 / 4046.8564224, 3), machine_ac: round(m.machineM2 / 4046.8564224, 3), per_sample_ac: round(m.perSampleM2 / 4046.8564224, 3), grid_samples: m.gridSamples, from_plan: m.fromPlan },
+    min_rate_difference: Object.fromEntries(Object.entries(d.minDifference).map(([k, v]) => [k, round(v, 2)])),
+    rmse_carried: Object.fromEntries(Object.entries(d.rmse).map(([k, v]) => [k, round(v!, 4)])),
+    vertices: d.vertices,
+    pairs: d.pairs.map((p) => ({ zones: [p.a, p.b], product: p.why?.product ?? null, placement: p.why?.placement ?? null, rates: p.why ? [p.why.a, p.why.b] : null, difference: p.why ? round(p.why.diff, 1) : null, min_difference: p.why ? round(p.why.min, 1) : null, error_range: p.why?.range ?? null })),
   };
 }

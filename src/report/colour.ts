@@ -71,6 +71,21 @@ export function classColours(name: RampName, n: number): string[] {
 }
 
 /**
+ * Colours for distinct rates (ascending), placed on the ramp by value rather than by rank, so that equal
+ * rates share a colour and close rates get close colours: the ramp spans the larger of the rates' range and
+ * four times `close` (the smallest difference that counts), so two rates less than `close` apart sit at most
+ * a quarter of the ramp apart; a single rate takes the ramp's middle.
+ * @example rateColours('cividis', [206, 212, 215], 21) // three dark blues, not dark blue, grey and yellow
+ */
+export function rateColours(name: RampName, rates: readonly number[], close = 0): string[] {
+  if (rates.length === 0) return [];
+  const [lo, hi] = RANGE[name];
+  const min = Math.min(...rates), span = Math.max(Math.max(...rates) - min, 4 * close);
+  if (!(span > 0)) return rates.map(() => rgbHex(rampRgb(name, (lo + hi) / 2)));
+  return rates.map((v) => rgbHex(rampRgb(name, lo + ((hi - lo) * (v - min)) / span)));
+}
+
+/**
  * Text colour that reads on a fill: black on light fills, white on dark (by WCAG relative luminance).
  * @example textOn('#fde725') // '#000'
  */

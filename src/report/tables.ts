@@ -57,7 +57,8 @@ export function zonesTables(input: ReportInput, set: ReportZoneSet): string {
   }
   rates += foot(1 + rateCols.length);
   return `<h3>Soil and targets${input.zoneSets.length > 1 ? `: ${esc(set.name)}` : ''}</h3><div class="table-wrap">${soil}</div>` +
-    `<h3>Product rates${input.zoneSets.length > 1 ? `: ${esc(set.name)}` : ''}</h3><div class="table-wrap">${rates}</div>`;
+    `<h3>Product rates${input.zoneSets.length > 1 ? `: ${esc(set.name)}` : ''}</h3><div class="table-wrap">${rates}</div>` +
+    (set.design?.length ? `<h3>How the zones were drawn${input.zoneSets.length > 1 ? `: ${esc(set.name)}` : ''}</h3><ul class="zone-design">${set.design.map((l) => `<li>${esc(l)}</li>`).join('')}</ul>` : '');
 }
 
 /** Product totals for ordering and loading. */

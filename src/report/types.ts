@@ -31,6 +31,8 @@ export interface ReportGrid {
 export interface ReportRaster {
   grid: ReportGrid;
   values: ArrayLike<number>;
+  /** legend notes, e.g. how a fine grid was shown coarser for display */
+  notes?: string[];
 }
 
 /** A nutrient or soil property shown in the report. */
@@ -144,6 +146,13 @@ export interface ReportZoneSet {
   /** unit of zone targets, e.g. "lb/ac" */
   targetUnit: string;
   zones: ReportZone[];
+  /**
+   * Rate differences smaller than these (per product and placement, in the rate's unit) do not count as a
+   * different rate: rate maps keep such rates in close colours. Absent = every rate apart.
+   */
+  minDifference?: { product: string; placement: string; value: number }[];
+  /** how the zones came about (their number and why, what keeps neighbours apart), one line each */
+  design?: string[];
 }
 
 /** Totals of one product and placement for ordering and loading. */

@@ -6,6 +6,7 @@ import type { Warning } from '../errors.js';
 import { ANALYTES, type Analyte, type FieldInputs } from '../types.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import { describe, type Description } from './describe.js';
+import { HIGH_PH, SALINE_EC_DSM, SLIGHTLY_SALINE_EC_DSM, soilFlagsById } from '../agronomy/soilFlags.js';
 
 export const ANALYTE_LABELS: Record<Analyte, { name: string; unit: string }> = {
   no3_n: { name: 'nitrate-N 0-24 in', unit: 'lb/ac' },
@@ -20,6 +21,10 @@ export interface Inspection {
   field: { name: string; areaAc: number; areaHa: number; parts: number; holes: number; utmZone: string; epsg: number };
   samples: { count: number; kind: 'grid' | 'zone composites'; acresPerSample: number; pMethod: string; zones: string[] | null };
   analytes: Record<Analyte, Description & { unit: string; label: string; censoredBelow: number; censoredAbove: number }>;
+  /** soil values read but not used for rates, when the file has them: EC (dS/m) and carbonate (%) */
+  extra: Partial<Record<'ec' | 'carbonate', Description & { unit: string; label: string }>>;
+  /** flagged samples (saline, slightly saline, high pH, free lime) and the thresholds used */
+  soilFlags: { bySample: Record<string, string>; salineEcDsm: number; slightlySalineEcDsm: number; highPh: number };
   warnings: Warning[];
 }
 
@@ -52,6 +57,11 @@ export function inspectInputs(inp: FieldInputs): Inspection {
     },
     samples: { count: n, kind: inp.zones ? 'zone composites' : 'grid', acresPerSample: areaAc / n, pMethod: inp.samples.pMethod, zones: inp.zones?.keys ?? null },
     analytes,
+    extra: Object.fromEntries(Object.entries(inp.samples.extra ?? {}).map(([k, v]) => [k, {
+      ...describe(v), unit: k === 'ec' ? 'dS/m' : '%',
+      label: k === 'ec' ? `EC salts${inp.samples.ecMethod ? ` ${inp.samples.ecMethod}` : ''}` : 'carbonate (CaCO3 eq.)',
+    }])),
+    soilFlags: { bySample: soilFlagsById(inp.samples), salineEcDsm: SALINE_EC_DSM, slightlySalineEcDsm: SLIGHTLY_SALINE_EC_DSM, highPh: HIGH_PH },
     warnings: inp.warnings,
   };
 }
@@ -77,6 +87,15 @@ export function formatInspection(r: Inspection): string {
     const cens = [d.censoredBelow ? `${d.censoredBelow} below` : '', d.censoredAbove ? `${d.censoredAbove} above` : ''].filter(Boolean).join(', ');
     lines.push([d.label.padEnd(26), d.unit.padEnd(6), String(d.n).padStart(3), fmt(d.min, dec).padStart(7), fmt(d.median, dec).padStart(7),
       fmt(d.max, dec).padStart(7), fmt(d.mean, dec + 1).padStart(7), fmt(d.cv * 100, 0).padStart(6), `  ${cens || '-'}`].join(' '));
+  }
+  for (const d of Object.values(r.extra)) {
+    lines.push([d.label.slice(0, 26).padEnd(26), d.unit.padEnd(6), String(d.n).padStart(3), fmt(d.min, 1).padStart(7), fmt(d.median, 1).padStart(7),
+      fmt(d.max, 1).padStart(7), fmt(d.mean, 2).padStart(7), fmt(d.cv * 100, 0).padStart(6), '  -'].join(' '));
+  }
+  const flagged = Object.entries(r.soilFlags.bySample);
+  if (flagged.length) {
+    lines.push('', `soil flags (no rate change): saline EC >= ${r.soilFlags.salineEcDsm} dS/m, slightly saline ${r.soilFlags.slightlySalineEcDsm}-${r.soilFlags.salineEcDsm}, high pH >= ${r.soilFlags.highPh}`);
+    for (const [id, f] of flagged) lines.push(`  ${id.padEnd(14)} ${f}`);
   }
   if (ANALYTES.some((a) => r.analytes[a].censoredBelow + r.analytes[a].censoredAbove > 0)) {
     lines.push('', 'censored values: below detection counted as half the limit, above range as the limit (docs/method.md)');

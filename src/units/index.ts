@@ -78,6 +78,11 @@ export const rateIn = (lbac: number, unit: RateUnit): number => (unit === 'kg/ha
 export const M_PER_FT = 0.3048;
 export const mToFt = (m: number): number => m / M_PER_FT;
 
+/** Metres per international mile (5280 ft), exact by definition [published] international yard and pound agreement (1959). */
+export const M_PER_MI = 1609.344;
+/** Miles per hour to metres per second. */
+export const mphToMs = (mph: number): number => (mph * M_PER_MI) / 3600;
+
 /**
  * ISO 11783-10 process data units. DDI 6 (setpoint mass per area) counts mg/m2 and DDI 1 (setpoint
  * volume per area) mm3/m2, both with resolution 1 [published] ISO 11783-11 data dictionary.

@@ -7,10 +7,13 @@ import type { Field, Grid, RingsPart, SampleZones, Warning } from '../types.js';
 import { orient, partsArea } from '../geo/area.js';
 import { projector as makeProjector, type Projector } from '../geo/utm.js';
 import { M2_PER_AC } from '../units/index.js';
+import { vertexCount } from './arcs.js';
 import { classify, type Classes, type ClassifyOptions } from './classify.js';
-import { fillUnclassed, majorityFilter, mergeSmallZones } from './clean.js';
+import { fillUnclassed, labelComponents, majorityFilter, mergeSmallZones } from './clean.js';
 import { boundaryCells, clipParts, robust } from './clip.js';
-import { traceZones } from './trace.js';
+import { arcsToParts, ringsVertexCount, zoneArcs } from './arcs.js';
+import { simplifyArcs } from './simplify.js';
+import { mergeRegions, type RegionJudge } from './regions.js';
 
 export { classify, classifyVectors, jenksUppers, kmeans1d } from './classify.js';
 export type { Classes, ClassMethod, ClassifyOptions, VectorClasses } from './classify.js';
@@ -19,6 +22,11 @@ export type { Merged } from './clean.js';
 export { boundaryCells, clipParts, clipPartsPolyclip, robust } from './clip.js';
 export { traceZones, pointInRing } from './trace.js';
 export { zoneMeans } from './means.js';
+export { zoneArcs, arcsToParts, ringsVertexCount, vertexCount } from './arcs.js';
+export type { ZoneArcs } from './arcs.js';
+export { simplifyArcs } from './simplify.js';
+export { mergeRegions } from './regions.js';
+export type { MergedRegions, RegionJudge } from './regions.js';
 export type { RasterFrame } from './trace.js';
 
 /** One management zone. */
@@ -36,8 +44,16 @@ export interface Zone {
 }
 
 /** Zones of a field, with the rasters they came from. */
-export interface ZoneSet {
+export interface ZoneSet<P = unknown, Why = string> {
   zones: Zone[];
+  /** per zone (same order): the judge's profile, when a judge was given */
+  profiles: P[] | null;
+  /** every pair of neighbouring zones (ids), with the judge's reason for keeping them apart */
+  pairs: { a: number; b: number; why: Why | null }[];
+  /** how the count came about: classes found, classes after merging, zones after cleaning, zones after merging */
+  counts: { classes: number; classesMerged: number; zonesCleaned: number; zonesMerged: number; rateClasses: number; zones: number };
+  /** vertices of the zone rings before and after edge simplification (before clipping), and as returned */
+  vertices: { traced: number; simplified: number; clipped: number };
   /** per cell: class after cleaning (-1 where the cell has no share of the field) */
   classOfCell: Int16Array;
   /** per cell: zone id (-1 where the cell has no share of the field) */
@@ -51,7 +67,11 @@ export interface ZoneSet {
   warnings: Warning[];
 }
 
-export interface MakeZonesOptions extends ClassifyOptions {
+export interface MakeZonesOptions<P = unknown, Why = string> extends ClassifyOptions {
+  /** neighbouring classes, then zones, are merged until this judge keeps every neighbouring pair apart; default none */
+  judge?: RegionJudge<P, Why>;
+  /** edge simplification tolerance in cells (shared borders simplified once, field boundary exact); default 1; 0 = staircase */
+  simplifyCells?: number;
   /** majority filter passes (3 x 3); default 1; 0 = none */
   majorityIterations?: number;
   /** zones smaller than this are merged into a neighbour, m2; default 0.5 ac (2023.4 m2); see minZoneAreaM2 */
@@ -78,7 +98,7 @@ export interface MakeZonesOptions extends ClassifyOptions {
  * const zs = makeZones(grid, nRate, field, { method: 'jenks', classes: 4, step: 5, minAreaM2: minZoneAreaM2({ swathM: 18.3, speedKmh: 9 }) });
  * zs.zones.map((z) => [z.cls, z.areaM2 / 4046.86]);
  */
-export function makeZones(grid: Grid, input: ArrayLike<number> | { classOf: Int16Array }, field: Field, opts: MakeZonesOptions = {}): ZoneSet {
+export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLike<number> | { classOf: Int16Array }, field: Field, opts: MakeZonesOptions<P, Why> = {}): ZoneSet<P, Why> {
   const { cols, rows, cell } = grid;
   const n = cols * rows;
   const warnings: Warning[] = [];
@@ -93,43 +113,131 @@ export function makeZones(grid: Grid, input: ArrayLike<number> | { classOf: Int1
     classes = classify(input, { ...opts, weights: grid.fraction });
     raw = classes.classOf;
   }
-  for (let i = 0; i < n; i++) {
-    if (grid.fraction[i] > 0 && raw[i] < 0) {
-      warnings.push({ code: 'zones-cell-without-value', message: `${countMissing(raw, grid.fraction)} cells inside the field have no driving value; they take the nearest zone's class.` });
-      break;
-    }
+  const missing = countMissing(raw, grid.fraction);
+  if (missing > 0) warnings.push({ code: 'zones-cell-without-value', message: `${missing} cells inside the field have no driving value; they take the nearest zone's class.` });
+  let nClasses = 0;
+  for (let i = 0; i < n; i++) if (raw[i] + 1 > nClasses) nClasses = raw[i] + 1;
+  const judge = opts.judge;
+  // 1. neighbouring classes whose rates do not differ enough become one class
+  let classesMerged = nClasses;
+  if (judge && nClasses > 1) {
+    const m = mergeRegions(raw, nClasses, cols, rows, grid.fraction, cell * cell, judge, 'label', true);
+    raw = Int16Array.from(raw, (k) => (k >= 0 ? m.of[k] : -1));
+    classesMerged = m.count;
   }
+  // 2. speckle, edge cells, small zones
   const smooth = (opts.majorityIterations ?? 1) > 0 ? majorityFilter(raw, cols, rows, opts.majorityIterations ?? 1) : raw;
   const filled = fillUnclassed(smooth, cols, rows);
   const minAreaM2 = opts.minAreaM2 ?? 0.5 * M2_PER_AC;
-  const merged = mergeSmallZones(filled, cols, rows, grid.fraction, cell, minAreaM2);
-  const traced = traceZones(merged.zone, merged.count, grid);
-  // which zones reach the boundary or outside
-  const band = boundaryCells(field.parts, grid);
-  const needsClip = new Uint8Array(merged.count);
-  for (let i = 0; i < n; i++) if (band[i] || !grid.mask[i]) { const z = merged.zone[i]; if (z >= 0) needsClip[z] = 1; }
-  const planarField = partsArea(field.parts);
-  const scale = planarField > 0 ? field.areaM2 / planarField : 1;
+  const cleaned = mergeSmallZones(filled, cols, rows, grid.fraction, cell, minAreaM2);
+  // 3. neighbouring zones whose rates do not differ enough become one zone; then zones anywhere in the field
+  // whose rates do not differ enough form one rate class (one decision), and touching zones of a class join
+  let zoneLabel = cleaned.zone, count = cleaned.count, classOfZone = cleaned.classOfZone;
+  let profiles: P[] | null = null;
+  let pairs: ZoneSet<P, Why>['pairs'] = [];
+  let zonesMerged = count, rateClasses = classesMerged;
+  if (judge) {
+    const m = mergeRegions(cleaned.zone, cleaned.count, cols, rows, grid.fraction, cell * cell, judge, 'scan');
+    const g = mergeRegions(m.label, m.count, cols, rows, grid.fraction, cell * cell, judge, 'label', true);
+    const comps = labelComponents(Int16Array.from(g.label, (k) => k), cols, rows);
+    zonesMerged = m.count; rateClasses = g.count;
+    zoneLabel = comps.label; count = comps.count; classOfZone = comps.classOfLabel;
+    profiles = Array.from(comps.classOfLabel, (k) => g.profiles[k]);
+    pairs = neighbourPairs(zoneLabel, cols, rows).map(({ a, b }) => ({ a, b, why: judge.compare(profiles![a], profiles![b]).why }));
+  } else pairs = neighbourPairs(zoneLabel, cols, rows);
+  // 4. polygons: shared borders simplified once, then clipped to the exact boundary
+  const poly = zonePolygons(grid, field, zoneLabel, count, opts.simplifyCells ?? 1, minAreaM2);
   const proj = opts.lonlat === false ? null : (opts.projector ?? makeProjector(field.utm));
   const zones: Zone[] = [];
-  const newId = new Int32Array(merged.count).fill(-1);
-  for (let z = 0; z < merged.count; z++) {
-    const parts = needsClip[z] ? clipParts(traced[z], field.parts, grid.xmin, grid.ymax) : traced[z];
+  const newId = new Int32Array(count).fill(-1);
+  for (let z = 0; z < count; z++) {
+    const parts = poly.parts[z];
     if (parts.length === 0) continue;
     newId[z] = zones.length;
-    zones.push({ id: zones.length, cls: merged.classOfZone[z], parts, lonlat: proj ? toLonLat(parts, proj) : [], areaM2: partsArea(parts) * scale });
+    zones.push({ id: zones.length, cls: classOfZone[z], parts, lonlat: proj ? toLonLat(parts, proj) : [], areaM2: partsArea(parts) * poly.scale });
   }
+  const vertices = poly.vertices;
   const zoneOfCell = new Int32Array(n).fill(-1);
   const classOfCell = new Int16Array(n).fill(-1);
   let classCount = 0;
   for (let i = 0; i < n; i++) {
-    const z = merged.zone[i];
-    if (z < 0 || !(grid.fraction[i] > 0)) continue;
+    const z = zoneLabel[i];
+    if (z < 0 || !(grid.fraction[i] > 0) || newId[z] < 0) continue;
     zoneOfCell[i] = newId[z];
-    classOfCell[i] = merged.classOfZone[z];
+    classOfCell[i] = classOfZone[z];
     if (classOfCell[i] + 1 > classCount) classCount = classOfCell[i] + 1;
   }
-  return { zones, classOfCell, zoneOfCell, classCount, classes, minAreaM2, warnings };
+  return {
+    zones, classOfCell, zoneOfCell, classCount, classes, minAreaM2, warnings,
+    profiles: profiles ? profiles.filter((_, z) => newId[z] >= 0) : null,
+    pairs: pairs.filter((p) => newId[p.a] >= 0 && newId[p.b] >= 0).map((p) => ({ ...p, a: newId[p.a], b: newId[p.b] })),
+    counts: { classes: nClasses, classesMerged, zonesCleaned: cleaned.count, zonesMerged, rateClasses, zones: zones.length },
+    vertices,
+  };
+}
+
+/**
+ * Zone polygons from a zone raster: arcs simplified to `tol` cells (0 = staircase), rings rebuilt, zones near
+ * the boundary clipped to it. A zone that simplification would take under `minAreaM2` although its cells
+ * reach it keeps its staircase borders (simplification is redone with them fixed).
+ */
+function zonePolygons(grid: Grid, field: Field, label: Int32Array, count: number, tol: number, minAreaM2: number): { parts: RingsPart[][]; vertices: ZoneSet['vertices']; scale: number } {
+  const arcs = zoneArcs(label, count, grid);
+  const staircase = simplifyArcs(arcs, 0);
+  const cellArea = new Float64Array(count);
+  for (let i = 0; i < label.length; i++) if (label[i] >= 0) cellArea[label[i]] += grid.fraction[i] * grid.cell * grid.cell;
+  const needsClip = zonesNearBoundary(field, grid, label, count, Math.ceil(tol) + 1);
+  const planarField = partsArea(field.parts);
+  const scale = planarField > 0 ? field.areaM2 / planarField : 1;
+  const keep = new Uint8Array(count);
+  for (let attempt = 0; ; attempt++) {
+    const smooth = tol > 0 ? simplifyArcs(arcs, tol) : staircase;
+    const traced = arcsToParts(arcs, smooth, grid);
+    const parts = traced.map((p, z) => (needsClip[z] ? clipParts(p, field.parts, grid.xmin, grid.ymax) : p));
+    let redo = false;
+    for (let z = 0; z < count; z++) {
+      if (keep[z] || tol <= 0 || cellArea[z] < minAreaM2 || partsArea(parts[z]) >= minAreaM2 * (1 - 1e-9)) continue;
+      keep[z] = 1;
+      redo = true;
+      arcs.arcs.forEach((_, k) => { if (arcs.left[k] === z || arcs.right[k] === z) arcs.fixed[k] = true; });
+    }
+    if (!redo || attempt >= 3) {
+      const vertices = { traced: ringsVertexCount(arcs, staircase), simplified: ringsVertexCount(arcs, smooth), clipped: parts.reduce((s, p) => s + vertexCount(p), 0) };
+      return { parts, vertices, scale };
+    }
+  }
+}
+
+/** Zones with a cell within `reach` cells of one the boundary crosses, or of a cell outside: these are clipped. */
+function zonesNearBoundary(field: Field, grid: Grid, label: Int32Array, count: number, reach: number): Uint8Array {
+  const { cols, rows } = grid;
+  const band = boundaryCells(field.parts, grid);
+  const out = new Uint8Array(count);
+  for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
+    const i = r * cols + c;
+    if (!band[i] && grid.mask[i]) continue;
+    for (let rr = Math.max(0, r - reach); rr <= Math.min(rows - 1, r + reach); rr++) {
+      for (let cc = Math.max(0, c - reach); cc <= Math.min(cols - 1, c + reach); cc++) { const z = label[rr * cols + cc]; if (z >= 0) out[z] = 1; }
+    }
+  }
+  return out;
+}
+
+/** Pairs of zone ids that share a cell edge. */
+function neighbourPairs(label: Int32Array, cols: number, rows: number): { a: number; b: number; why: null }[] {
+  const seen = new Set<string>();
+  const out: { a: number; b: number; why: null }[] = [];
+  const add = (p: number, q: number) => {
+    const a = Math.min(p, q), b = Math.max(p, q), k = `${a},${b}`;
+    if (!seen.has(k)) { seen.add(k); out.push({ a, b, why: null }); }
+  };
+  for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
+    const i = r * cols + c, a = label[i];
+    if (a < 0) continue;
+    if (c + 1 < cols && label[i + 1] >= 0 && label[i + 1] !== a) add(a, label[i + 1]);
+    if (r + 1 < rows && label[i + cols] >= 0 && label[i + cols] !== a) add(a, label[i + cols]);
+  }
+  return out.sort((p, q) => p.a - q.a || p.b - q.b);
 }
 
 function countMissing(raw: Int16Array, fraction: ArrayLike<number>): number {

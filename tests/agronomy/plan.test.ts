@@ -22,9 +22,9 @@ describe('plan', () => {
         const p = parsePlan(planTemplate(crop, tables, units), 'plan.yaml', tables);
         expect(p.crop).toBe(crop);
         expect(p.units).toBe(units);
-        expect(p.zoning).toEqual({ method: 'jenks', classes: 5, smoothing_passes: 2, min_zone_ac: 'auto', zone_sets: 'per_product', min_class_difference_pct: 5 });
+        expect(p.zoning).toEqual({ method: 'jenks', classes: 5, smoothing_passes: 2, min_zone_ac: 'auto', zone_sets: 'per_product', min_class_difference_pct: 5, min_rate_difference: 'auto', min_rate_difference_pct: 10, simplify_cells: 1 });
         expect(p.machine.rate_change_s).toBe(4);
-        expect(p.output).toEqual({ shapefile_layout: 'per_placement', short_names: false, crs: 'wgs84', formats: ['shapefile', 'isoxml'], isoxml_grid: false, isoxml_grid_cell_m: null });
+        expect(p.output).toEqual({ shapefile_layout: 'per_placement', short_names: false, crs: 'wgs84', formats: ['shapefile', 'isoxml'], isoxml_grid: false, isoxml_grid_cell_m: null, max_vertices: null });
       }
     }
   });

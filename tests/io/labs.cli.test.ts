@@ -1,4 +1,7 @@
 /** The lab corpus (tests/fixtures/labs) through the command line: .xlsx sheets, the column reading, --columns, --verbose. */
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { tilth } from '../helpers/cli.js';
 
@@ -24,5 +27,16 @@ describe('lab corpus from the command line', () => {
     const ph = JSON.parse(r.stdout).columns.find((c: { column: string }) => c.column === 'pH (1:2)');
     expect(ph).toMatchObject({ role: 'ph', how: 'column map, depth from map' });
     expect(r.stderr).toMatch(/columns of .*01-long-ppm-depth-column\.csv:[\s\S]*pH \(1:2\)\s+ph/);
+  });
+
+  it('build: zones.csv names saline / high-pH zones in soil_flags; rates do not use them', () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'tilth-labs-')), 'rx');
+    const r = tilth(['build', '--samples', 'tests/fixtures/labs/16-ec-carbonate.csv', '--boundary', B, '--plan', 'sample-fields/quarter/plan.yaml', '--out', out, '--quiet']);
+    expect(r.code).toBe(0);
+    const rows = readFileSync(join(out, 'zones.csv'), 'utf8').trim().split('\n').map((l) => l.split(','));
+    const col = rows[0].indexOf('soil_flags');
+    expect(col).toBeGreaterThan(0);
+    expect(rows.slice(1).some((row) => /saline/.test(row[col]))).toBe(true);
+    expect(readFileSync(join(out, 'report.html'), 'utf8')).toMatch(/are saline, EC \(1:2 water\) 4 dS\/m or more: PV-03/);
   });
 });

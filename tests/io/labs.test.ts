@@ -14,6 +14,7 @@ import { parseColumnMap } from '../../src/io/columns.js';
 import { buildSamples } from '../../src/validate/samples.js';
 import type { RawTable } from '../../src/io/records.js';
 import { ROOT } from '../helpers/cli.js';
+import { soilFlagWarnings, soilFlagsById } from '../../src/agronomy/soilFlags.js';
 
 const DIR = join(ROOT, 'tests/fixtures/labs');
 const truth: Record<string, number | string>[] = JSON.parse(readFileSync(join(DIR, 'truth.json'), 'utf8'));
@@ -131,5 +132,36 @@ describe('lab corpus: refused with the column, the ambiguity and the exact fix',
 
   it('10-utm-easting-northing.csv without --crs: says the columns hold metres and how to name the system', async () => {
     expect(() => readCsvRecords(readFileSync(join(DIR, '10-utm-easting-northing.csv'), 'utf8'), '10.csv', [])).toThrow(/"Easting" and "Northing" hold metres.*Fix: say which with --crs, e\.g\. --crs EPSG:26913/);
+  });
+});
+
+describe('lab corpus: soluble salts and free lime', () => {
+  it('EC in dS/m or mmhos/cm (the same unit), carbonate in % or as rating words', async () => {
+    const a = buildSamples(await read('16-ec-carbonate.csv')).samples;
+    const b = buildSamples(await read('17-ec-paste-lime-rating.csv')).samples;
+    truth.forEach((t, i) => {
+      // 1 dS/m = 1 mmho/cm = 1 mS/cm (SI: siemens = 1/ohm)
+      expect(a.extra!.ec![i]).toBeCloseTo(t.ec as number, 9);
+      expect(b.extra!.ec![i]).toBeCloseTo(t.ec as number, 9);
+      expect(a.extra!.carbonate![i]).toBeCloseTo(t.carbonate as number, 9);
+    });
+    expect(a.ecMethod).toBe('1:2 water');
+    expect(b.ecMethod).toBe('saturated paste');
+    expect(b.limeRating).toEqual(truth.map((t) => ((t.carbonate as number) < 1 ? 'none' : (t.carbonate as number) < 3 ? 'low' : (t.carbonate as number) < 6 ? 'medium' : 'high')));
+  });
+
+  it('saline from EC 4 dS/m, slightly saline from 2, high pH from 7.8; named in warnings, no rate input', async () => {
+    const s = buildSamples(await read('16-ec-carbonate.csv')).samples;
+    const flags = soilFlagsById(s);
+    // [published] USDA Agriculture Handbook 60 (Richards 1954): saline soils have ECe > 4 dS/m; 2 dS/m and pH 7.8: common practice
+    truth.forEach((t, i) => {
+      const want = [(t.ec as number) >= 4 ? 'saline' : (t.ec as number) >= 2 ? 'slightly saline' : '', s.values.ph[i] >= 7.8 ? 'high pH' : '', (t.carbonate as number) >= 5 ? 'free lime' : ''].filter(Boolean).join('; ');
+      expect(flags[t.id as string] ?? '').toBe(want);
+    });
+    expect(flags['PV-03']).toMatch(/^saline/);
+    expect(flags['PV-05']).toBe('slightly saline');
+    const codes = soilFlagWarnings(s, 'f.csv').map((w) => w.code);
+    expect(codes).toContain('soil.saline');
+    expect(codes).toContain('soil.slightly-saline');
   });
 });

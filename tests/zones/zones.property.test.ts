@@ -39,6 +39,15 @@ const fieldArb = fc.record({
   method: fc.constantFrom('equal', 'quantile', 'jenks', 'kmeans' as const),
   minArea: fc.constantFrom(0, 300, 2000),
   iters: fc.integer({ min: 0, max: 2 }),
+  simplify: fc.constantFrom(0, 1, 1.5, 3),
+  minDiff: fc.option(fc.constantFrom(5, 10, 25), { nil: undefined }),
+});
+
+/** A judge like the rate judge: a zone's "rate" is its mean rounded to a step of 5; apart when rates differ by minDiff. */
+const stepJudge = (minDiff: number) => ({
+  layers: [] as Float64Array[],
+  profile: (m: Float64Array) => Math.round(m[0] / 5) * 5,
+  compare: (a: number, b: number) => ({ apart: Math.abs(a - b) >= minDiff, score: Math.abs(a - b), why: Math.abs(a - b) >= minDiff ? `differs by ${Math.abs(a - b)}` : null }),
 });
 
 function makeField(a: { outer: number[]; hole?: number[]; second: boolean }) {
@@ -67,9 +76,31 @@ describe('makeZones invariants (fast-check)', () => {
       const field = makeField(a);
       const grid = gridFor(field, a.cell);
       const v = noise(a.seed, grid.cols, grid.rows, grid.fraction);
-      const zs = makeZones(grid, v, field, { method: a.method, classes: a.classes, minAreaM2: a.minArea, majorityIterations: a.iters, lonlat: false });
+      const judge = a.minDiff === undefined ? undefined : { ...stepJudge(a.minDiff), layers: [v] };
+      const zs = makeZones(grid, v, field, { method: a.method, classes: a.classes, minAreaM2: a.minArea, majorityIterations: a.iters, lonlat: false, simplifyCells: a.simplify, judge });
       expect(zs.zones.length).toBeGreaterThan(0);
-      expect(zs.classCount).toBeLessThanOrEqual(a.classes);
+      if (judge) {
+        // no two neighbouring zones (sharing a cell edge) whose rates differ by less than the minimum difference
+        for (let r = 0; r < grid.rows; r++) for (let c = 0; c < grid.cols; c++) {
+          const i = r * grid.cols + c, p = zs.zoneOfCell[i];
+          for (const j of [c + 1 < grid.cols ? i + 1 : -1, r + 1 < grid.rows ? i + grid.cols : -1]) {
+            const q = j >= 0 ? zs.zoneOfCell[j] : -1;
+            if (p >= 0 && q >= 0 && p !== q && zs.classOfCell[i] !== zs.classOfCell[j]) expect(Math.abs(zs.profiles![p] as number - (zs.profiles![q] as number))).toBeGreaterThanOrEqual(a.minDiff!);
+          }
+        }
+        // a zone's rate is its rate class's: the area-weighted mean over every cell of the class's zones, rounded
+        const sum = new Map<number, [number, number]>();
+        for (let i = 0; i < v.length; i++) {
+          const z = zs.zoneOfCell[i];
+          if (z < 0 || v[i] !== v[i]) continue;
+          const k = zs.zones[z].cls, acc = sum.get(k) ?? [0, 0];
+          acc[0] += v[i] * grid.fraction[i]; acc[1] += grid.fraction[i]; sum.set(k, acc);
+        }
+        zs.zones.forEach((z, k) => { const [sv, sw] = sum.get(z.cls)!; expect(zs.profiles![k]).toBe(Math.round(sv / sw / 5) * 5); });
+      }
+      // without a judge the classes are the classifier's; with one, rate classes (each zone its pooled mean's rate)
+      if (!judge) expect(zs.classCount).toBeLessThanOrEqual(a.classes);
+      else expect(zs.classCount).toBe(new Set(zs.zones.map((z) => z.cls)).size);
       // validity (turf booleanValid, local coordinates)
       // turf booleanValid per polygon; the parts of one zone may touch at a point (valid in OGC simple features,
       // but turf's MultiPolygon check reports a point touch as a crossing), so parts are checked for overlap by area.

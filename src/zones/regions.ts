@@ -1,0 +1,182 @@
+/**
+ * Merging neighbouring regions of a label raster (classes or zones) until every pair of neighbours is
+ * judged different enough to keep apart. The judge is supplied by the caller (the zones stage knows
+ * nothing of agronomy): it turns a region's area-weighted mean layer values into a profile (e.g. the
+ * product rates the rate engine gives that soil) and compares two profiles.
+ */
+
+/** How regions are described and compared. */
+export interface RegionJudge<P, Why = string> {
+  /** per-cell values (NaN = none) whose area-weighted means describe a region, e.g. soil values */
+  layers: ArrayLike<number>[];
+  /** a region's profile from its mean layer values (NaN where no cell has a value) and its area, m2 */
+  profile(means: Float64Array, areaM2: number): P;
+  /** whether two neighbouring regions stay apart, and if not, how alike they are (lowest score merges first) */
+  compare(a: P, b: P): { apart: boolean; score: number; why: Why | null };
+  /** called once with the first profiles and areas, before any merge (e.g. to fix thresholds from field means) */
+  prepare?(profiles: P[], areasM2: Float64Array): void;
+}
+
+/** Regions after merging. */
+export interface MergedRegions<P, Why = string> {
+  /** per cell: new region id, -1 where the input had none */
+  label: Int32Array;
+  count: number;
+  /** per input region: its new id */
+  of: Int32Array;
+  profiles: P[];
+  areaM2: Float64Array;
+  /** every pair of neighbouring regions left, with the judge's reason for keeping them apart */
+  pairs: { a: number; b: number; border: number; why: Why | null }[];
+  merges: number;
+}
+
+/**
+ * Merges neighbouring regions (sharing a cell edge; any two regions with `allPairs`, e.g. classes, or zones
+ * grouped into rate classes) whose profiles the judge does not keep apart, the most
+ * alike pair first, recomputing the merged region's profile from its pooled cells each time, until every
+ * neighbouring pair is apart. Regions with no area in the field (fraction 0) join the neighbour they share
+ * the longest border with first. New ids follow the order of each region's first cell (`order: 'scan'`,
+ * default) or of its smallest input label (`order: 'label'`, for classes numbered by need).
+ *
+ * @param label per cell: region 0..count-1 or -1
+ * @param fraction per cell share of the field; areas are fraction x cellAreaM2
+ * @example const m = mergeRegions(zone, n, grid.cols, grid.rows, grid.fraction, grid.cell ** 2, judge); m.count
+ */
+export function mergeRegions<P, Why>(label: ArrayLike<number>, count: number, cols: number, rows: number, fraction: ArrayLike<number>, cellAreaM2: number, judge: RegionJudge<P, Why>, order: 'scan' | 'label' = 'scan', allPairs = false): MergedRegions<P, Why> {
+  const L = judge.layers.length;
+  const sw = new Float64Array(count * L), sv = new Float64Array(count * L), area = new Float64Array(count);
+  for (let i = 0; i < label.length; i++) {
+    const z = label[i], w = fraction[i];
+    if (z < 0 || !(w > 0)) continue;
+    area[z] += w * cellAreaM2;
+    for (let l = 0; l < L; l++) { const v = judge.layers[l][i]; if (v === v) { sw[z * L + l] += w; sv[z * L + l] += w * v; } }
+  }
+  const adj = adjacency(label, count, cols, rows);
+  if (allPairs) for (let a = 0; a < count; a++) for (let b = 0; b < count; b++) if (a !== b && !adj[a].has(b)) adj[a].set(b, 0);
+  const parent = Int32Array.from({ length: count }, (_, k) => k);
+  const find = (x: number) => { while (parent[x] !== x) { parent[x] = parent[parent[x]]; x = parent[x]; } return x; };
+  const join = (into: number, from: number) => {
+    parent[from] = into;
+    area[into] += area[from];
+    for (let l = 0; l < L; l++) { sw[into * L + l] += sw[from * L + l]; sv[into * L + l] += sv[from * L + l]; }
+    for (const [nb, len] of adj[from]) {
+      adj[nb].delete(from);
+      if (nb === into) continue;
+      adj[into].set(nb, (adj[into].get(nb) ?? 0) + len);
+      adj[nb].set(into, (adj[nb].get(into) ?? 0) + len);
+    }
+    adj[from].clear();
+    adj[into].delete(from);
+  };
+  // regions outside the field join their longest-border neighbour
+  for (let z = 0; z < count; z++) {
+    if (area[z] > 0 || parent[z] !== z) continue;
+    let best = -1, bl = -1;
+    for (const [nb, len] of adj[z]) if (len > bl) { bl = len; best = nb; }
+    if (best >= 0) join(find(best), z);
+  }
+  const means = (z: number) => Float64Array.from({ length: L }, (_, l) => (sw[z * L + l] > 0 ? sv[z * L + l] / sw[z * L + l] : NaN));
+  const prof: (P | undefined)[] = new Array(count);
+  for (let z = 0; z < count; z++) if (parent[z] === z) prof[z] = judge.profile(means(z), area[z]);
+  judge.prepare?.(prof.filter((p, z) => parent[z] === z) as P[], Float64Array.from(area.filter((_, z) => parent[z] === z)));
+  const pk = (a: number, b: number) => (a < b ? a * count + b : b * count + a);
+  const cmp = new Map<number, { apart: boolean; score: number; why: Why | null }>();
+  // candidate merges in a heap (score, pair), checked against each region's version when taken
+  const version = new Int32Array(count);
+  const heap = new MinHeap();
+  const judgePairs = (z: number) => {
+    for (const nb of adj[z].keys()) {
+      const c = judge.compare(prof[z]!, prof[nb]!);
+      cmp.set(pk(z, nb), c);
+      if (!c.apart) heap.push(c.score, z, nb, version[z], version[nb]);
+    }
+  };
+  for (let z = 0; z < count; z++) if (parent[z] === z) judgePairs(z);
+  let merges = 0;
+  for (let top = heap.pop(); top; top = heap.pop()) {
+    const { a, b, va, vb } = top;
+    if (parent[a] !== a || parent[b] !== b || version[a] !== va || version[b] !== vb) continue;
+    const [into, from] = area[a] >= area[b] ? [a, b] : [b, a];
+    for (const nb of adj[from].keys()) cmp.delete(pk(from, nb));
+    join(into, from);
+    version[into]++;
+    prof[into] = judge.profile(means(into), area[into]);
+    judgePairs(into);
+    merges++;
+  }
+  return finish(label, count, find, parent, prof as P[], area, adj, cmp, pk, merges, order);
+}
+
+function adjacency(label: ArrayLike<number>, count: number, cols: number, rows: number): Map<number, number>[] {
+  const adj: Map<number, number>[] = Array.from({ length: count }, () => new Map());
+  const add = (a: number, b: number) => { adj[a].set(b, (adj[a].get(b) ?? 0) + 1); adj[b].set(a, (adj[b].get(a) ?? 0) + 1); };
+  for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
+    const i = r * cols + c, a = label[i];
+    if (a < 0) continue;
+    if (c + 1 < cols) { const b = label[i + 1]; if (b >= 0 && b !== a) add(a, b); }
+    if (r + 1 < rows) { const b = label[i + cols]; if (b >= 0 && b !== a) add(a, b); }
+  }
+  return adj;
+}
+
+function finish<P, Why>(label: ArrayLike<number>, count: number, find: (x: number) => number, parent: Int32Array, prof: P[], area: Float64Array,
+  adj: Map<number, number>[], cmp: Map<number, { apart: boolean; score: number; why: Why | null }>, pk: (a: number, b: number) => number, merges: number, order: 'scan' | 'label'): MergedRegions<P, Why> {
+  const newId = new Int32Array(count).fill(-1);
+  let n = 0;
+  if (order === 'label') { for (let z = 0; z < count; z++) { const r = find(z); if (newId[r] < 0) newId[r] = n++; } }
+  else for (let i = 0; i < label.length; i++) { const z = label[i]; if (z >= 0) { const r = find(z); if (newId[r] < 0) newId[r] = n++; } }
+  const of = Int32Array.from({ length: count }, (_, z) => newId[find(z)]);
+  const out = new Int32Array(label.length);
+  for (let i = 0; i < label.length; i++) out[i] = label[i] >= 0 ? of[label[i]] : -1;
+  const profiles: P[] = new Array(n), areaM2 = new Float64Array(n);
+  const pairs: MergedRegions<P, Why>['pairs'] = [];
+  for (let z = 0; z < count; z++) {
+    if (parent[z] !== z || newId[z] < 0) continue;
+    profiles[newId[z]] = prof[z];
+    areaM2[newId[z]] = area[z];
+    for (const [nb, len] of adj[z]) if (z < nb && len > 0) pairs.push({ a: Math.min(newId[z], newId[nb]), b: Math.max(newId[z], newId[nb]), border: len, why: cmp.get(pk(z, nb))?.why ?? null });
+  }
+  pairs.sort((p, q) => p.a - q.a || p.b - q.b);
+  return { label: out, count: n, of, profiles, areaM2, pairs, merges };
+}
+
+/** A binary min-heap of candidate merges (score, regions a and b, and their versions when judged). */
+class MinHeap {
+  private items: { s: number; a: number; b: number; va: number; vb: number }[] = [];
+  push(s: number, a: number, b: number, va: number, vb: number): void {
+    const h = this.items;
+    h.push({ s, a, b, va, vb });
+    for (let i = h.length - 1; i > 0; ) {
+      const p = (i - 1) >> 1;
+      if (!less(h[i], h[p])) break;
+      [h[i], h[p]] = [h[p], h[i]];
+      i = p;
+    }
+  }
+  pop(): { a: number; b: number; va: number; vb: number } | undefined {
+    const h = this.items;
+    if (h.length === 0) return undefined;
+    const top = h[0], last = h.pop()!;
+    if (h.length > 0) {
+      h[0] = last;
+      for (let i = 0; ; ) {
+        const l = 2 * i + 1, r = l + 1;
+        let m = i;
+        if (l < h.length && less(h[l], h[m])) m = l;
+        if (r < h.length && less(h[r], h[m])) m = r;
+        if (m === i) break;
+        [h[i], h[m]] = [h[m], h[i]];
+        i = m;
+      }
+    }
+    return top;
+  }
+}
+
+/** Lower score first; ties by the smaller pair, so merges do not depend on the heap's layout. */
+function less(x: { s: number; a: number; b: number }, y: { s: number; a: number; b: number }): boolean {
+  if (x.s !== y.s) return x.s < y.s;
+  const xa = Math.min(x.a, x.b), ya = Math.min(y.a, y.b);
+  return xa !== ya ? xa < ya : Math.max(x.a, x.b) < Math.max(y.a, y.b);
+}
