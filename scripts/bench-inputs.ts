@@ -1,12 +1,13 @@
 /**
  * Seeded benchmark of the input stage: ring-crossing check vs @turf/kinks on large boundaries, and
- * loading the demo quarter (CSV) through prepareInputs. Run: npx tsx scripts/bench-inputs.ts
+ * loading the demo quarter (CSV) through readInputs and prepareInputs. Run: npx tsx scripts/bench-inputs.ts
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { kinks, polygon } from '@turf/turf';
 import { findCrossing } from '../src/validate/crossings.js';
 import { prepareInputs } from '../src/validate/inputs.js';
+import { readInputs } from '../src/io/inputs.js';
 
 function ring(n: number, seed: number): number[][] {
   let a = seed;
@@ -35,5 +36,8 @@ for (const n of [1000, 10000]) {
 const root = join(import.meta.dirname, '..');
 const f = (p: string) => ({ name: p, bytes: readFileSync(join(root, p)) });
 const s = f('sample-fields/quarter/samples.csv'), b = f('sample-fields/quarter/boundary.geojson');
-prepareInputs(s, b);
-console.log(`prepareInputs, demo quarter (62 samples, CSV): ${time(() => prepareInputs(s, b), 50).toFixed(2)} ms`);
+const load = async () => prepareInputs(await readInputs({ samples: s, boundary: b }));
+await load();
+const t0 = performance.now();
+for (let i = 0; i < 50; i++) await load();
+console.log(`readInputs + prepareInputs, demo quarter (62 samples, CSV): ${((performance.now() - t0) / 50).toFixed(2)} ms`);

@@ -1,11 +1,11 @@
 // Surface benchmark (issue 3): the whole `tilth surface` process (start, read, project, index, interpolate,
 // write) on seeded data, against gdal_grid on the same points and grid when it is installed.
 // Medians of several runs; peak memory from /usr/bin/time -v (max resident set size).
-// Usage: node scripts/bench-surface.mjs [--runs 5] [--nn]   (--nn also times gdal_grid invdistnn on the
+// Usage: node scripts/bench-surface.mjs [--runs 5] [--nn] [--only-kriging]   (--nn also times gdal_grid invdistnn on the
 // largest cases, which takes minutes)
 import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { cpus, tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import proj4 from 'proj4';
@@ -14,6 +14,7 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const args = process.argv.slice(2);
 const RUNS = Number(args[args.indexOf('--runs') + 1]) || 5;
 const NN_ALL = args.includes('--nn');
+const ONLY_KRIGING = args.includes('--only-kriging'); // skip the IDW / gdal_grid table
 const TIME = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
 const HAS_GDAL = spawnSync('gdal_grid', ['--version'], { stdio: 'ignore' }).status === 0;
 
@@ -30,7 +31,7 @@ function rng(seed) {
 }
 
 /** Writes boundary, samples (GeoJSON, lon/lat) and the same points in UTM for gdal_grid. */
-function makeCase(dir, n, side, seed) {
+function makeCase(dir, n, side, seed, structured = false) {
   const rnd = rng(seed);
   const e = 0.01; // keep the corners just inside whole cells
   const ring = [[X0 + e, Y0 + e], [X0 + side - e, Y0 + e], [X0 + side - e, Y0 + side - e], [X0 + e, Y0 + side - e], [X0 + e, Y0 + e]]
@@ -46,7 +47,11 @@ function makeCase(dir, n, side, seed) {
     const sx = strata[i] % m, sy = Math.floor(strata[i] / m);
     const x = X0 + 1 + (sx + 0.1 + 0.8 * rnd()) * w, y = Y0 + 1 + (sy + 0.1 + 0.8 * rnd()) * w;
     const [lon, lat] = toLonLat.forward([x, y]).map((v) => Math.round(v * 1e8) / 1e8);
-    const p = Math.round((8 + 30 * rnd() + (10 * (x - X0)) / side) * 10) / 10;
+    // structured: a smooth pattern a few hundred metres across plus noise (a semivariogram with a sill, so kriging
+    // is not refused); otherwise mostly noise with a trend
+    const p = structured
+      ? Math.round((20 + 8 * Math.sin((x - X0) / 300) * Math.cos((y - Y0) / 250) + 3 * rnd()) * 10) / 10
+      : Math.round((8 + 30 * rnd() + (10 * (x - X0)) / side) * 10) / 10;
     feats.push({ type: 'Feature', properties: { sample_id: `B${i + 1}`, p_olsen_ppm: p }, geometry: { type: 'Point', coordinates: [lon, lat] } });
     const [px, py] = toLonLat.inverse([lon, lat]);
     csv.push(`${px},${py},${p}`);
@@ -92,7 +97,7 @@ console.log('');
 console.log('wall = median elapsed seconds; cpu = median user + system seconds (all threads); MB = peak resident memory');
 console.log('| samples | grid | tilth wall | tilth cpu | tilth MB | invdist wall | invdist cpu | invdist / tilth (wall) | invdistnn wall | invdistnn / tilth (wall) |');
 console.log('|---:|---|---:|---:|---:|---:|---:|---:|---:|---:|');
-for (const c of CASES) {
+for (const c of ONLY_KRIGING ? [] : CASES) {
   const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-'));
   try {
     const side = c.cells * c.cell;
@@ -119,6 +124,37 @@ for (const c of CASES) {
       }
     }
     console.log(`| ${c.n} | ${c.label ?? `${c.cells} x ${c.cells}`} (${h.ncols} x ${h.nrows}) | ${t.wall.toFixed(3)} | ${t.cpu.toFixed(3)} | ${Number.isNaN(t.rss) ? 'n/a' : t.rss.toFixed(0)} | ${gi} | ${gc} | ${gr} | ${nn} | ${nr} |`);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+// Ordinary kriging against IDW on the same structured points and grid, 16 neighbours each (issue: kriging within
+// 3 x the IDW time on 640 000 cells, peak memory under 300 MB). Both are the whole process; kriging includes its
+// semivariogram fit and leave-one-out, IDW its one-row leave-one-out. Runs alternate so machine load hits both.
+console.log('');
+console.log('ordinary kriging vs IDW, 16 neighbours each, same points and grid (whole `tilth surface` process; structured data)');
+console.log('| samples | grid | IDW wall | IDW MB | kriging wall | kriging MB | kriging / IDW (wall) | load average (1 min) before, after |');
+console.log('|---:|---|---:|---:|---:|---:|---:|---|');
+for (const c of [{ n: 640, cells: 800, cell: 5 }, { n: 5000, cells: 800, cell: 5 }]) {
+  const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-'));
+  try {
+    const side = c.cells * c.cell;
+    makeCase(dir, c.n, side, 2000 + c.n, true);
+    const common = [join(root, 'bin', 'tilth.js'), 'surface', '--samples', join(dir, 'samples.geojson'), '--boundary', join(dir, 'boundary.geojson'), '--nutrient', 'p', '--cell', String(c.cell)];
+    const idwArgs = [...common, '--method', 'idw', '--power', '2', '--neighbours', '16', '--out', join(dir, 'i.asc')];
+    const kArgs = [...common, '--method', 'kriging', '--kriging-neighbours', '16', '--out', join(dir, 'k.asc')];
+    const load0 = loadavg()[0];
+    const iw = [], kw = [];
+    let irss = 0, krss = 0;
+    for (let r = 0; r < RUNS; r++) {
+      const a = measure(process.execPath, idwArgs, 1, root), b = measure(process.execPath, kArgs, 1, root);
+      iw.push(a.wall); kw.push(b.wall);
+      irss = Math.max(irss, a.rss || 0); krss = Math.max(krss, b.rss || 0);
+    }
+    const med = (a) => [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)];
+    const ratios = iw.map((w, i) => kw[i] / w);
+    console.log(`| ${c.n} | ${c.cells} x ${c.cells} | ${med(iw).toFixed(3)} | ${irss.toFixed(0)} | ${med(kw).toFixed(3)} | ${krss.toFixed(0)} | ${med(ratios).toFixed(2)} (median of ${RUNS} paired runs) | ${load0.toFixed(2)}, ${loadavg()[0].toFixed(2)} |`);
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

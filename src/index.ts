@@ -3,8 +3,9 @@
  * `src/cli/` does that. See docs/architecture.md.
  *
  * @example
- * import { prepareInputs, parsePlan, defaultTables, buildPrescription } from 'tilth';
- * const inputs = prepareInputs({ name: 'samples.csv', bytes }, { name: 'boundary.geojson', bytes: b });
+ * import { readInputs, prepareInputs, parsePlan, defaultTables, buildPrescription } from 'tilth';
+ * const raw = await readInputs({ samples: { name: 'samples.csv', bytes }, boundary: { name: 'boundary.geojson', bytes: b } });
+ * const inputs = prepareInputs(raw);
  * const tables = defaultTables();
  * const rx = buildPrescription(inputs, parsePlan(planYaml, 'plan.yaml', tables), tables);
  */
@@ -13,6 +14,7 @@ export { UserError, isUserError, type Warning } from './errors.js';
 export * as units from './units/index.js';
 export { VERSION } from './version.js';
 export { prepareInputs } from './validate/inputs.js';
+export { readInputs, type InputFiles, type RawInputs } from './io/inputs.js';
 export { projectField } from './geo/field.js';
 export { utmZoneFor, projector, type Projector } from './geo/utm.js';
 export * from './surface/index.js';

@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import { zipSync } from 'fflate';
 import { defaultTables, decide, parsePlan, parseSoilSpec } from '../../src/agronomy/index.js';
 import { checkPrescription, readLayer } from '../../src/check/index.js';
-import { loadInputs, preloadInputs } from '../../src/cli/inputs.js';
+import { loadInputs } from '../../src/cli/inputs.js';
 import { inspectInputs } from '../../src/stats/inspect.js';
 import { fieldGrid, nutrientSurface } from '../../src/surface/index.js';
 import { many, mutateBytes, mutateJson, mutateText } from './mutate.js';
@@ -29,8 +29,7 @@ export interface Target { name: string; weight: number; run(r: Rng, dir: string)
 
 /** After inputs load: inspect always, a coarse surface sometimes (the stages that allocate per cell). */
 async function afterLoad(r: Rng, samples: string, boundary: string): Promise<RunResult> {
-  await preloadInputs({ samples, boundary });
-  const inp = loadInputs({ samples, boundary });
+  const inp = await loadInputs({ samples, boundary });
   inspectInputs(inp);
   if (r.chance(0.2)) {
     const grid = fieldGrid(inp.field, r.pick([10, 20, 40]));

@@ -6,7 +6,9 @@ import type { Feature } from 'geojson';
 import { UserError } from '../errors.js';
 import { readZip } from '../io/zip.js';
 import { readShapefile } from '../io/shapefile/read.js';
-import { parseCrs, type CrsInfo } from '../io/shapefile/prj.js';
+import { shapefileSet } from '../io/inputs.js';
+import { parseGeoJson } from '../io/geojson.js';
+import { readPrj, type CrsInfo } from '../geo/crs.js';
 
 /** One column of the layer's attributes. */
 export interface LayerField {
@@ -33,25 +35,12 @@ export interface CheckLayer {
 
 const ext = (n: string) => (/\.([^./\\]+)$/.exec(n)?.[1] ?? '').toLowerCase();
 
-/** Entry of `files` whose name is `base.e` in any letter case. */
-function sibling(files: Record<string, Uint8Array>, base: string, e: string): Uint8Array | undefined {
-  const want = `${base}.${e}`.toLowerCase();
-  for (const [k, v] of Object.entries(files)) if (k.toLowerCase() === want) return v;
-  return undefined;
-}
-
 /**
  * Parses GeoJSON text into a layer. RFC 7946 GeoJSON is WGS 84 lon/lat; an old-style `crs` member
  * naming another system is honoured when tilth knows it (UTM, NAD83) and refused otherwise.
  */
 export function layerFromGeoJSON(text: string, label: string): CheckLayer {
-  let obj: unknown;
-  try {
-    obj = JSON.parse(text);
-  } catch (e) {
-    throw new UserError(`${label}: not valid JSON (${(e as Error).message}). Fix: export the prescription as GeoJSON again.`, { file: label });
-  }
-  const o = obj as { type?: string; features?: unknown; crs?: { properties?: { name?: string } } };
+  const o = parseGeoJson(text, label) as { type?: string; features?: unknown; crs?: { properties?: { name?: string } } };
   let features: Feature[];
   if (o?.type === 'FeatureCollection' && Array.isArray(o.features)) features = o.features as Feature[];
   else if (o?.type === 'Feature') features = [o as unknown as Feature];
@@ -59,7 +48,7 @@ export function layerFromGeoJSON(text: string, label: string): CheckLayer {
   let crs: CrsInfo = { kind: 'lonlat', datum: 'WGS84', epsg: 4326, label: 'WGS 84 longitude/latitude (GeoJSON, RFC 7946)' };
   const named = o.crs?.properties?.name;
   if (typeof named === 'string') {
-    crs = parseCrs(named);
+    crs = readPrj(named);
   }
   const names = new Map<string, boolean>();
   for (const f of features) {
@@ -84,16 +73,18 @@ export async function readLayer(files: Record<string, Uint8Array>, main: string)
   if (!bytes) throw new UserError(`${main}: not found. Fix: check the path.`, { file: main });
   if (e === 'geojson' || e === 'json') return layerFromGeoJSON(new TextDecoder().decode(bytes), main);
   if (e === 'shp') {
-    const base = main.slice(0, -4);
-    const set = await readShapefile(
-      { shp: bytes, shx: sibling(files, base, 'shx'), dbf: sibling(files, base, 'dbf'), prj: sibling(files, base, 'prj'), cpg: sibling(files, base, 'cpg') },
-      main,
-    );
+    const set = await readShapefile(shapefileSet(files, main), main);
+    if (set.shapeType !== 5) {
+      throw new UserError(`${main}: holds shape type ${set.shapeType}, not polygons (type 5). Fix: give the zone polygons of the prescription, not points or lines.`, { file: main, value: set.shapeType });
+    }
+    if (!shapefileSet(files, main).dbf) {
+      throw new UserError(`${main}: the attribute table ${main.slice(0, -4)}.dbf is missing, so there are no rates. Fix: copy the .dbf beside the .shp (same name).`, { file: main });
+    }
     return {
       label: main,
       features: set.features,
       fields: set.fields.map((f) => ({ name: f.name, numeric: f.type === 'N' || (f.type as string) === 'F' })),
-      crs: set.prj === null ? null : parseCrs(set.prj),
+      crs: set.prj === null ? null : readPrj(set.prj),
       crsSource: set.prj === null ? 'none' : 'prj',
       rawText: set.rawText,
     };

@@ -1,24 +1,20 @@
 /** Planar measures of polygons in metres used by the checks: area, convex hull, its diameter and width. */
+import { ringArea, ringPerimeter } from '../geo/area.js';
 
 /** polyclip-ts style polygon: rings of [x, y] points. */
 export type Poly = [number, number][][];
 
-/** Signed shoelace area of a ring of [x, y] points (positive counter-clockwise). */
-export function ringAreaPts(r: readonly [number, number][]): number {
-  if (r.length < 3) return 0;
-  const [ox, oy] = r[0];
-  let s = 0;
-  for (let i = 0; i < r.length; i++) {
-    const [x0, y0] = r[i], [x1, y1] = r[(i + 1) % r.length];
-    s += (x0 - ox) * (y1 - oy) - (x1 - ox) * (y0 - oy);
-  }
-  return s / 2;
-}
+/** A ring of [x, y] points as the flat array the geometry kernel (src/geo/area.ts) takes. */
+const flat = (r: readonly [number, number][]): Float64Array => {
+  const out = new Float64Array(2 * r.length);
+  r.forEach((p, i) => { out[2 * i] = p[0]; out[2 * i + 1] = p[1]; });
+  return out;
+};
 
 /** Area of polygons: |exterior| minus |holes|, summed. */
 export function polysArea(polys: readonly Poly[]): number {
   let a = 0;
-  for (const p of polys) p.forEach((r, k) => (a += k === 0 ? Math.abs(ringAreaPts(r)) : -Math.abs(ringAreaPts(r))));
+  for (const p of polys) p.forEach((r, k) => (a += k === 0 ? Math.abs(ringArea(flat(r))) : -Math.abs(ringArea(flat(r)))));
   return a;
 }
 
@@ -79,14 +75,6 @@ export function hullExtent(pts: readonly [number, number][]): { diameter: number
   return { diameter, width };
 }
 
-/** Length of a polygon's exterior ring. */
-export function polyPerimeter(p: Poly): number {
-  const r = p[0];
-  let l = 0;
-  for (let i = 1; i < r.length; i++) l += Math.hypot(r[i][0] - r[i - 1][0], r[i][1] - r[i - 1][1]);
-  return l;
-}
-
 /**
  * Area of the pieces that matter: each piece of `polys` with at least `minArea` and a mean width
  * (2 x area / perimeter) of at least `minWidth`. Long hair-thin slivers along a boundary, left by rounding
@@ -96,7 +84,7 @@ export function significantArea(polys: readonly Poly[], minArea: number, minWidt
   let a = 0;
   for (const p of polys) {
     const pa = polysArea([p]) / scale;
-    if (pa >= minArea && (2 * pa) / Math.max(polyPerimeter(p), 1e-12) >= minWidth) a += pa;
+    if (pa >= minArea && (2 * pa) / Math.max(ringPerimeter(flat(p[0])), 1e-12) >= minWidth) a += pa;
   }
   return a;
 }

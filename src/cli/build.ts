@@ -35,7 +35,7 @@ export function register(program: Command): void {
     .option('--json', 'print summary.json on stdout for scripts')
     .option('--quiet', 'no progress messages')
     .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json, report.html;\nshapefiles/ and ISO 11783-10 task data (TASKDATA/ and taskdata.zip) as the plan's output.formats asks.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
-    .action((o: BuildFlags) => {
+    .action(async (o: BuildFlags) => {
       const inputFiles = [o.samples, o.boundary, o.plan, o.zones, o.tables].filter((f): f is string => !!f);
       checkOutputDir(o.out, { force: o.force, inputs: inputFiles }); // before any work: a long build should not end in a refusal
       const term = createTerminal({ quiet: o.quiet });
@@ -44,7 +44,7 @@ export function register(program: Command): void {
       const planText = readInput(o.plan, 'plan').toString('utf8');
       const plan = parsePlan(planText, o.plan, tables);
       say('reading and checking the inputs ...');
-      const inputs = loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
+      const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
       if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
       let last = '';
       let task: Task | null = null;

@@ -5,16 +5,14 @@
  * CONTRACT (used by surface, variability, build ...): keep this signature stable.
  */
 import type { FieldInputs, PMethod } from '../types.js';
-import { prepareInputs, type PolygonSource, type SampleSource } from '../validate/inputs.js';
-import { readShapefile, shapefileFromZip, shapefilePoints, shapefilePolygons, type ShapefileParts } from '../io/shapefile.js';
+import { prepareInputs } from '../validate/inputs.js';
+import { readInputs } from '../io/inputs.js';
+import type { InputFile } from '../io/records.js';
 import { existsSync, readdirSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import type { Command } from 'commander';
 import { UserError } from '../errors.js';
 import { numberOption, readInput } from './util.js';
-import { readXlsxRecords } from '../io/xlsx.js';
-import { parseColumnMap } from '../io/columns.js';
-import type { RawTable } from '../io/records.js';
 import { formatReading } from '../validate/reading.js';
 
 export interface InputOptions {
@@ -42,76 +40,38 @@ export interface InputOptions {
   verbose?: boolean;
 }
 
-type ShapefileRead = Awaited<ReturnType<typeof readShapefile>>;
-
-/** Shapefiles (.shp/.zip) read ahead by preloadInputs, by path (the shapefile package is asynchronous). */
-const preloaded = new Map<string, ShapefileRead>();
-
-const isShapefile = (path: string) => /\.(shp|zip)$/i.test(path);
-/** .xlsx samples read ahead by preloadInputs (the reader is asynchronous), by path. */
-const preloadedTables = new Map<string, RawTable>();
-
-/** The files of a shapefile on disk: the .shp and its .dbf/.prj/.cpg siblings (any letter case). */
-function shapefileParts(path: string, what: string): ShapefileParts {
-  if (/\.zip$/i.test(path)) return shapefileFromZip(readInput(path, what), path);
-  const dir = dirname(path);
-  const base = basename(path).slice(0, -4);
-  const names = existsSync(dir) ? readdirSync(dir) : [];
-  const sib = (ext: string) => {
-    const n = names.find((f) => f.toLowerCase() === (base + ext).toLowerCase());
-    return n ? join(dir, n) : undefined;
-  };
-  const shp = readInput(path, what);
-  const dbf = sib('.dbf'), prj = sib('.prj'), cpg = sib('.cpg');
-  return {
-    name: path, shp,
-    dbf: dbf ? readInput(dbf, what) : undefined,
-    prj: prj ? readInput(prj, what).toString('utf8') : undefined,
-    cpg: cpg ? readInput(cpg, what).toString('utf8') : undefined,
-  };
-}
-
 /**
- * Reads any shapefile inputs (.shp or .zip) ahead of loadInputs; the CLI calls it from a preAction hook
- * (src/cli/main.ts) for every command with --samples / --boundary / --zones, so commands stay synchronous.
- * @example await preloadInputs({ samples: 'samples.zip', boundary: 'field.shp' }); loadInputs({ samples: 'samples.zip', boundary: 'field.shp' })
+ * One input file with, for a .shp, the files beside it (same base name, any letter case: .shx, .dbf, .prj, .cpg).
+ * @example readInputFile('field.shp', 'boundary').beside
  */
-export async function preloadInputs(opts: Partial<InputOptions>): Promise<void> {
-  if (opts.samples && /\.xlsx$/i.test(opts.samples) && !preloadedTables.has(opts.samples)) {
-    const map = parseColumnMap(opts.columns);
-    preloadedTables.set(opts.samples, await readXlsxRecords(readInput(opts.samples, 'samples'), opts.samples, map, { sheet: opts.sheet, crs: opts.crs }));
+export function readInputFile(path: string, what: string): InputFile {
+  const bytes = readInput(path, what);
+  if (!/\.shp$/i.test(path)) return { name: path, bytes };
+  const dir = dirname(path);
+  const prefix = path.slice(0, path.length - basename(path).length);
+  const base = basename(path).slice(0, -4).toLowerCase();
+  const beside: Record<string, Uint8Array> = {};
+  for (const n of existsSync(dir) ? readdirSync(dir) : []) {
+    const l = n.toLowerCase();
+    if (l.startsWith(base + '.') && l.length === base.length + 4 && /\.(shx|dbf|prj|cpg)$/.test(l)) beside[prefix + n] = readInput(join(dir, n), what);
   }
-  for (const [path, what] of [[opts.samples, 'samples'], [opts.boundary, 'boundary'], [opts.zones, 'zones']] as const) {
-    if (!path || !isShapefile(path) || preloaded.has(path)) continue;
-    preloaded.set(path, await readShapefile(shapefileParts(path, what), { assumeWgs84: opts.assumeWgs84 }));
-  }
-}
-
-function samplesSource(path: string): SampleSource {
-  const table = preloadedTables.get(path);
-  if (table) return table;
-  if (/\.xlsx$/i.test(path)) throw new Error(`spreadsheet ${path} was not preloaded (call preloadInputs first)`);
-  const pre = preloaded.get(path);
-  if (pre) return shapefilePoints(pre);
-  if (isShapefile(path)) throw new Error(`shapefile ${path} was not preloaded (call preloadInputs first)`);
-  return { name: path, bytes: readInput(path, 'samples') };
-}
-
-function polygonSource(path: string, what: string): PolygonSource {
-  const pre = preloaded.get(path);
-  if (pre) return shapefilePolygons(pre, what);
-  if (isShapefile(path)) throw new Error(`shapefile ${path} was not preloaded (call preloadInputs first)`);
-  return { name: path, bytes: readInput(path, what) };
+  return { name: path, bytes, beside };
 }
 
 /**
  * Reads, validates and projects the inputs. Throws UserError for anything the user must fix.
  * Defaults: no depth factor (0-6 in only is an error), samples outside the boundary kept with a warning,
  * shapefiles without .prj refused, P method from the file (else an error).
- * @example const inp = loadInputs({ samples: 'sample-fields/quarter/samples.csv', boundary: 'sample-fields/quarter/boundary.geojson' });
+ * @example const inp = await loadInputs({ samples: 'sample-fields/quarter/samples.csv', boundary: 'sample-fields/quarter/boundary.geojson' });
  */
-export function loadInputs(opts: InputOptions): FieldInputs {
-  const inputs = prepareInputs(samplesSource(opts.samples), polygonSource(opts.boundary, 'boundary'), opts.zones ? polygonSource(opts.zones, 'zones') : undefined, {
+export async function loadInputs(opts: InputOptions): Promise<FieldInputs> {
+  const files = {
+    samples: readInputFile(opts.samples, 'samples'),
+    boundary: readInputFile(opts.boundary, 'boundary'),
+    zones: opts.zones ? readInputFile(opts.zones, 'zones') : undefined,
+  };
+  const raw = await readInputs(files, { columns: opts.columns, assumeWgs84: opts.assumeWgs84, crs: opts.crs, sheet: opts.sheet });
+  const inputs = prepareInputs(raw, {
     columns: opts.columns,
     depthFactor: opts.depthFactor,
     dropOutside: opts.dropOutside,
@@ -125,7 +85,7 @@ export function loadInputs(opts: InputOptions): FieldInputs {
 /**
  * Adds the input options every command that loads a field shares: --samples and --boundary (required),
  * --zones, --columns, --p-method, --depth-factor, --drop-outside, --assume-wgs84. Pair with inputOptionsFrom.
- * @example addInputOptions(program.command('surface')).action((o) => { const inp = loadInputs(inputOptionsFrom(o)); ... })
+ * @example addInputOptions(program.command('surface')).action((o) => { const inp = await loadInputs(inputOptionsFrom(o)); ... })
  */
 export function addInputOptions(cmd: Command): Command {
   return cmd
@@ -144,7 +104,7 @@ export function addInputOptions(cmd: Command): Command {
 
 /**
  * Turns the parsed options of addInputOptions into InputOptions, checking their values (UserError).
- * @example loadInputs(inputOptionsFrom(cmd.opts()))
+ * @example await loadInputs(inputOptionsFrom(cmd.opts()))
  */
 export function inputOptionsFrom(o: Record<string, unknown>): InputOptions {
   let pMethod: PMethod | undefined;

@@ -14,8 +14,8 @@ export function register(program: Command): void {
     .option('--json', 'print JSON for scripts')
     .addHelpText('after', '\nExamples:\n  tilth inspect --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson\n' +
       '  tilth inspect --samples sample-fields/zoned/samples.geojson --boundary sample-fields/zoned/boundary.geojson --zones sample-fields/zoned/zones.geojson --json')
-    .action((o) => {
-      const inputs = loadInputs(inputOptionsFrom(o));
+    .action(async (o) => {
+      const inputs = await loadInputs(inputOptionsFrom(o));
       const r = inspectInputs(inputs);
       if (o.json) out(JSON.stringify({ ...r, columns: inputs.reading ?? [] }, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
       else {

@@ -9,7 +9,6 @@ import { installStdioGuards, terminalSafe } from './safety/stdio.js';
 import { VERSION } from '../version.js';
 import * as inspect from './inspect.js';
 import * as variability from './variability.js';
-import { preloadInputs } from './inputs.js';
 import * as surface from './surface.js';
 import * as plan from './plan.js';
 import * as rates from './rates.js';
@@ -30,12 +29,6 @@ program
   .exitOverride();
 
 for (const cmd of [inspect, surface, check, report, plan, rates, tables, build, variability]) cmd.register(program);
-
-// shapefile inputs are read asynchronously before any command's action, so loadInputs stays synchronous
-program.hook('preAction', async (_program, action) => {
-  const o = action.opts();
-  if (o.samples || o.boundary || o.zones) await preloadInputs(o);
-});
 
 try {
   await program.parseAsync(process.argv);

@@ -1,8 +1,12 @@
 /** `tilth surface`: one nutrient's interpolated map as an Esri ASCII grid (.asc + .prj), and the cross-validation table. */
 import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
+import { prjText } from '../geo/crs.js';
 import { UserError } from '../errors.js';
-import { analyteFromName, ANALYTE_LABEL, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, SURFACE_METHODS, utmPrj, type NutrientSurface, type SurfaceMethod } from '../surface/index.js';
+import { analyteFromName, ANALYTE_LABEL, chanceBelow, classProbabilities, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, SURFACE_METHODS, type NutrientSurface, type SurfaceMethod } from '../surface/index.js';
+import { chanceSpec } from '../variability/chance.js';
+import type { PMethod } from '../types.js';
+import { tablesFromOption } from './plan.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { checkOutputFile, info, numberOption, out, printWarnings, writeOutputFile } from './util.js';
 
@@ -20,6 +24,9 @@ export function register(program: Command): void {
     .option('--method <idw|kriging|auto>', 'idw (inverse distance), kriging (ordinary kriging with the semivariogram model fitted as `tilth variability` fits it; refused with the reason when the fit is unusable), or auto (the lowest leave-one-out RMSE of the IDW candidates and kriging)', 'idw')
     .option('--kriging-neighbours <k>', 'nearest samples per cell for kriging', '16')
     .option('--log', 'krige the natural logarithm of the values (skewed data) and back-transform to the lognormal mean (docs/surface.md)')
+    .option('--chance-maps', 'with kriging, also write beside --out: <name>-variance.asc (kriging variance), and for P and K <name>-response-chance.asc (expected chance of a yield response) and <name>-class-<class>.asc (chance of each response class), for sulphate-S <name>-chance-below-<t>.asc (chance below the crop\'s low level); Gaussian assumption, docs/surface.md')
+    .option('--crop <name>', 'crop whose classes and S low level the chance maps use', 'canola')
+    .option('--tables <file>', 'your edited tables (see `tilth tables`) for the chance maps')
     .option('--power <p|auto>', 'IDW distance power, or auto (lowest cross-validation RMSE of 1, 1.5, 2, 3)', 'auto')
     .option('--neighbours <k|all|auto>', 'nearest samples per cell, all, or auto (lowest RMSE of 8, 12, 16, all)', 'auto')
     .option('--radius <metres>', 'use only samples within this distance (default: no limit)')
@@ -38,7 +45,7 @@ export function register(program: Command): void {
         'Values are in canonical units: nitrate-N and sulphate-S lb/ac 0-24 in, P and K ppm, OM %, pH.\n' +
         'Cells whose area is partly inside the field get values (so zones cover the field); others are NODATA (-9999).',
     )
-    .action((o) => {
+    .action(async (o) => {
       const analyte = analyteFromName(o.nutrient);
       const cell = numberOption('--cell', o.cell, { min: 0.01 })!;
       const power = o.power === 'auto' ? 'auto' : numberOption('--power', o.power, { min: 0.1, max: 10 })!;
@@ -58,12 +65,18 @@ export function register(program: Command): void {
       const fileOpts = { inputs: inputFiles, force: Boolean(o.force) };
       checkOutputFile(o.out, { ...fileOpts, ours: ASC_OURS });
       checkOutputFile(prjPath, { ...fileOpts, ours: prjOurs });
-      const inputs = loadInputs(inputOptionsFrom(o));
+      const inputs = await loadInputs(inputOptionsFrom(o));
       const grid = fieldGrid(inputs.field, cell);
       const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours, method: method as SurfaceMethod, kriging: { neighbours: kNeighbours, log: Boolean(o.log) } });
       const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
       writeOutputFile(o.out, formatAsc(grid, s.values, { decimals }), { ...fileOpts, ours: ASC_OURS });
-      writeOutputFile(prjPath, utmPrj(inputs.field.utm), { ...fileOpts, ours: prjOurs });
+      writeOutputFile(prjPath, prjText(inputs.field.utm), { ...fileOpts, ours: prjOurs });
+      const extra = o.chanceMaps ? chanceGrids(s, o, inputs.samples.pMethod, warnings) : new Map<string, ArrayLike<number>>();
+      for (const [suffix, values] of extra) {
+        const file = o.out.replace(/\.asc$/i, `-${suffix}.asc`);
+        writeOutputFile(file, formatAsc(grid, values as Float64Array, { decimals: suffix === 'variance' ? decimals : Math.max(decimals ?? 3, 4) }), { ...fileOpts, ours: ASC_OURS });
+        if (!o.json) info(`wrote ${file}`);
+      }
       if (o.json) {
         out(JSON.stringify(summary(s, o.out, inputs.field.utm.epsg, warnings), (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? (Number.isNaN(v) ? null : 'all') : v), 2));
       } else {
@@ -73,6 +86,28 @@ export function register(program: Command): void {
         info(`wrote ${o.out} (${grid.cols} x ${grid.rows} cells of ${cell} m, EPSG:${inputs.field.utm.epsg}) and its .prj; values ${round(s.min)} to ${round(s.max)} from ${s.samplesUsed} samples.`);
       }
     });
+}
+
+/** The chance grids (and the kriging variance) of a kriged surface, by file suffix; a warning when there is no kriging. */
+function chanceGrids(s: NutrientSurface, o: { crop: string; tables?: string }, pMethod: PMethod, warnings: { code: string; message: string }[]): Map<string, ArrayLike<number>> {
+  const grids = new Map<string, ArrayLike<number>>();
+  if (!s.krigedMean || !s.variance || !s.kriging) {
+    warnings.push({ code: 'surface.no-chance-maps', message: `${ANALYTE_LABEL[s.analyte]}: no chance maps: they need the kriging variance, and this surface is ${s.method}. Use --method kriging (or auto when kriging wins).` });
+    return grids;
+  }
+  const tables = tablesFromOption(o.tables);
+  const crop = tables.crops[o.crop];
+  if (!crop) throw new UserError(`option --crop: "${o.crop}" is not in the tables. Fix: give one of ${Object.keys(tables.crops).join(', ')}.`, { value: o.crop });
+  const cells = { mean: s.krigedMean, variance: s.variance, transform: s.kriging.transform };
+  grids.set('variance', s.variance);
+  const spec = chanceSpec(s.analyte, crop, tables, pMethod);
+  if (spec.kind === 'below') grids.set(`chance-below-${spec.threshold}`, chanceBelow(cells, spec.threshold));
+  if (spec.kind === 'classes') {
+    const r = classProbabilities(cells, spec.classes);
+    grids.set('response-chance', r.expected);
+    spec.classes.names.forEach((name, c) => grids.set(`class-${name.replace(/[^A-Za-z0-9]+/g, '-')}`, r.probability[c]));
+  }
+  return grids;
 }
 
 function summary(s: NutrientSurface, file: string, epsg: number, warnings: unknown[]) {

@@ -57,7 +57,7 @@ a lag with fewer than 30 pairs is flagged (common practice); sampling is judged 
 (common practice). Dependence classes: Cambardella et al. 1994.
 
 ${CAUTION}`)
-    .action((o) => {
+    .action(async (o) => {
       const nutrient = parseNutrient(o.nutrient);
       const tables = tablesFromOption(o.tables);
       const plan = o.plan ? parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables) : null;
@@ -81,7 +81,7 @@ ${CAUTION}`)
       if (cutoff === 0 || width === 0) throw new UserError('options --cutoff and --width must be above 0. Fix: give a distance in metres, e.g. --cutoff 400.');
       const inputFiles = [o.samples, o.boundary, o.zones, o.plan, o.tables].filter((f): f is string => !!f);
       if (o.out) checkOutputDir(o.out, { force: Boolean(o.force), inputs: inputFiles });
-      const inputs = loadInputs(inputOptionsFrom(o));
+      const inputs = await loadInputs(inputOptionsFrom(o));
       const cell = numberOption('--cell', o.cell, { min: 0.5 })!;
       let surf: { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string; label: string } | undefined;
       const surfaceWarnings = [];

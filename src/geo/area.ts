@@ -19,6 +19,18 @@ export function ringArea(ring: ArrayLike<number>): number {
   return s / 2;
 }
 
+/**
+ * Length of a ring (x0 y0 x1 y1 ...), closed or not: the closing edge is counted once either way.
+ * @example ringPerimeter(new Float64Array([0,0, 1,0, 1,1, 0,1, 0,0])) // 4
+ */
+export function ringPerimeter(ring: ArrayLike<number>): number {
+  const n = ring.length >> 1;
+  let l = 0;
+  for (let i = 1; i < n; i++) l += Math.hypot(ring[2 * i] - ring[2 * i - 2], ring[2 * i + 1] - ring[2 * i - 1]);
+  if (n > 2 && (ring[0] !== ring[2 * n - 2] || ring[1] !== ring[2 * n - 1])) l += Math.hypot(ring[0] - ring[2 * n - 2], ring[1] - ring[2 * n - 1]);
+  return l;
+}
+
 /** Area of a part: |exterior| minus |holes|. */
 export function partArea(part: RingsPart): number {
   let a = Math.abs(ringArea(part.exterior));

@@ -4,6 +4,7 @@
  */
 import proj4 from 'proj4';
 import type { UtmZone } from '../types.js';
+import { utmZone } from './crs.js';
 
 /**
  * The UTM zone that holds a point: zone = floor((lon + 180) / 6) + 1, south when lat < 0.
@@ -14,14 +15,7 @@ export function utmZoneFor(lon: number, lat: number): UtmZone {
   if (!Number.isFinite(lon) || !Number.isFinite(lat) || lon < -180 || lon > 180 || lat < -90 || lat > 90) {
     throw new RangeError(`not a longitude/latitude: ${lon}, ${lat}`);
   }
-  const zone = Math.min(60, Math.floor((lon + 180) / 6) + 1);
-  const south = lat < 0;
-  return {
-    zone,
-    south,
-    epsg: (south ? 32700 : 32600) + zone,
-    proj4: `+proj=utm +zone=${zone}${south ? ' +south' : ''} +datum=WGS84 +units=m +no_defs`,
-  };
+  return utmZone(Math.min(60, Math.floor((lon + 180) / 6) + 1), lat < 0);
 }
 
 /** Forward and inverse projection for one UTM zone on flat arrays (x0 y0 x1 y1 ...). */

@@ -3,6 +3,7 @@
  * or UTM on WGS 84, NAD83 or NAD83(CSRS). NAD83 is treated as WGS 84 (1-2 m apart), as for shapefile .prj files.
  */
 import { UserError } from '../errors.js';
+import { utmProj4 } from '../geo/crs.js';
 
 export interface TableCrs {
   /** "EPSG:26913" */
@@ -13,13 +14,13 @@ export interface TableCrs {
   proj4: string | null;
 }
 
-/** NAD83(CSRS) UTM zones by EPSG code (from memory: EPSG registry, NAD83(CSRS) / UTM zone 7N-22N). */
+/** NAD83(CSRS) UTM zones by EPSG code (EPSG registry; checked against GDAL in tests/io/crs.tool.test.ts). */
 const CSRS: Record<number, number> = {
   3154: 7, 3155: 8, 3156: 9, 3157: 10, 2955: 11, 2956: 12, 2957: 13, 3158: 14, 3159: 15, 3160: 16,
   2958: 17, 2959: 18, 2960: 19, 2961: 20, 2962: 21, 3761: 22,
 };
 
-const utm = (zone: number, south: boolean) => `+proj=utm +zone=${zone}${south ? ' +south' : ''} +datum=WGS84 +units=m +no_defs`;
+const utm = utmProj4;
 
 /**
  * Parses `--crs`. Accepted: EPSG:4326, 4269, 4617 (degrees), 32601-32660 / 32701-32760 (WGS 84 / UTM),

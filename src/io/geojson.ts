@@ -9,7 +9,8 @@ import type { RawPolygons, RawRecord, RawTable, RawValue } from './records.js';
 type Json = Record<string, unknown>;
 
 /**
- * Parses GeoJSON text; a syntax error (e.g. a truncated file) is a UserError naming the line.
+ * Parses GeoJSON text; a syntax error (e.g. a truncated file) is a UserError naming the line. An old-style
+ * `crs` member is left to the caller (inputs refuse any but WGS 84; `tilth check` honours UTM).
  * @example parseGeoJson('{"type":"Point","coordinates":[-106,52]}', 'a.geojson')
  */
 export function parseGeoJson(text: string, file: string): Json {
@@ -32,17 +33,20 @@ export function parseGeoJson(text: string, file: string): Json {
   if (typeof v !== 'object' || v === null || Array.isArray(v) || typeof (v as Json).type !== 'string') {
     throw new UserError(`${file} is JSON but not GeoJSON (no "type" member at the top). Fix: give a GeoJSON FeatureCollection, Feature or geometry.`, { file });
   }
-  if ((v as Json).crs !== undefined) {
-    const name = JSON.stringify(((v as Json).crs as Json)?.properties ?? (v as Json).crs);
-    if (!/4326|4269|4617|CRS84|CRS83|WGS ?84/i.test(name)) {
-      throw new UserError(
-        `${file} declares the coordinate system ${name}; GeoJSON must be WGS 84 longitude/latitude (RFC 7946). ` +
-          'Fix: export it again with longitude/latitude (EPSG:4326), e.g. `ogr2ogr -t_srs EPSG:4326 out.geojson in.geojson`.',
-        { file },
-      );
-    }
-  }
   return v as Json;
+}
+
+/** Inputs must be WGS 84 longitude/latitude (RFC 7946): an old-style `crs` member naming another system is a UserError. */
+function requireWgs84(obj: Json, file: string): void {
+  if (obj.crs === undefined) return;
+  const name = JSON.stringify((obj.crs as Json)?.properties ?? obj.crs);
+  if (!/4326|4269|4617|CRS84|CRS83|WGS ?84/i.test(name)) {
+    throw new UserError(
+      `${file} declares the coordinate system ${name}; GeoJSON must be WGS 84 longitude/latitude (RFC 7946). ` +
+        'Fix: export it again with longitude/latitude (EPSG:4326), e.g. `ogr2ogr -t_srs EPSG:4326 out.geojson in.geojson`.',
+      { file },
+    );
+  }
 }
 
 /** The features of a GeoJSON object, each with its 1-based index for messages. */
@@ -82,6 +86,7 @@ function isPos(p: unknown): p is number[] {
  */
 export function readGeoJsonPoints(text: string, file: string): RawTable {
   const obj = parseGeoJson(text, file);
+  requireWgs84(obj, file);
   const fs = features(obj, file);
   const columns: string[] = [];
   const seen = new Set<string>();
@@ -129,6 +134,7 @@ export function readGeoJsonPoints(text: string, file: string): RawTable {
  */
 export function readGeoJsonPolygons(text: string, file: string, what = 'boundary'): RawPolygons {
   const obj = parseGeoJson(text, file);
+  requireWgs84(obj, file);
   const out: RawPolygons = { file, features: [] };
   for (const f of features(obj, file)) {
     const coords = polygonsOf(f.geometry, file, f.where, what);

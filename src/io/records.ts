@@ -57,4 +57,6 @@ export interface RawPolygons {
 export interface InputFile {
   name: string;
   bytes: Uint8Array;
+  /** for a .shp: the files beside it by name (.shx, .dbf, .prj, .cpg; any letter case) */
+  beside?: Readonly<Record<string, Uint8Array>>;
 }

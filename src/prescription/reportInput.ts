@@ -20,13 +20,21 @@ const NUTRIENT_INFO: Record<string, Omit<ReportNutrient, 'key'>> = {
 };
 const PLACEMENT_NAME: Record<string, string> = { seed_row: 'seed row', side_band: 'side band', mid_row_band: 'mid-row band', broadcast: 'broadcast' };
 
-/** Rasters in the report hold at most about this many cells; finer grids are shown coarser (see `coarsen`). */
-export const REPORT_MAX_CELLS = 400_000;
+/**
+ * Report rasters are drawn at display resolution: at most this many cells per side (a map is 700 px wide);
+ * finer grids are shown coarser by a whole factor (see `coarsen`), and the map's legend says so.
+ */
+export const REPORT_MAX_SIDE = 500;
+
+/** The whole factor that brings a grid to at most {@link REPORT_MAX_SIDE} cells per side (1 when it fits). */
+export function displayFactor(g: { cols: number; rows: number }): number {
+  return Math.max(1, Math.ceil(Math.max(g.cols, g.rows) / REPORT_MAX_SIDE));
+}
 
 /**
  * A grid coarsened by a whole factor for display: each new cell takes the value of the original cell at its
  * centre (nearest, so class rasters keep their classes). A 1 m grid on a section (2.6 million cells) is shown
- * at 3 m; the prescription itself is unchanged.
+ * at 4 m; the prescription itself is unchanged.
  */
 export function coarsen(g: { xmin: number; ymax: number; cell: number; cols: number; rows: number }, factor: number) {
   if (factor <= 1) return { grid: g, pick: (v: ArrayLike<number>) => v };
@@ -37,7 +45,12 @@ export function coarsen(g: { xmin: number; ymax: number; cell: number; cols: num
     const rr = Math.min(g.rows - 1, r * factor + (factor >> 1));
     for (let c = 0; c < cols; c++) idx[r * cols + c] = rr * g.cols + Math.min(g.cols - 1, c * factor + (factor >> 1));
   }
-  return { grid, pick: (v: ArrayLike<number>) => Float64Array.from(idx, (i) => v[i]) };
+  const pick = (v: ArrayLike<number>): Float64Array => {
+    const out = new Float64Array(idx.length);
+    for (let i = 0; i < idx.length; i++) out[i] = v[idx[i]];
+    return out;
+  };
+  return { grid, pick };
 }
 
 /** The cautions printed in every report. */
@@ -63,8 +76,10 @@ function mark(source: string): string {
 export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Tables, prov: Provenance, opts: { tablesEdited?: boolean; charts?: ReportChart[] } = {}): ReportInput {
   const plan = rx.plan;
   const grid = rx.grid;
-  const view = coarsen({ xmin: grid.xmin, ymax: grid.ymax, cell: grid.cell, cols: grid.cols, rows: grid.rows }, Math.ceil(Math.sqrt((grid.cols * grid.rows) / REPORT_MAX_CELLS)));
+  const factor = displayFactor(grid);
+  const view = coarsen({ xmin: grid.xmin, ymax: grid.ymax, cell: grid.cell, cols: grid.cols, rows: grid.rows }, factor);
   const g = view.grid;
+  const note = factor > 1 ? [`Shown at ${g.cell} m cells for display: each takes the value of the ${grid.cell} m cell at its centre (nearest); the prescription uses ${grid.cell} m cells.`] : undefined;
   const crop = tables.crops[plan.crop];
   const pMethod = inputs.samples.pMethod;
 
@@ -72,43 +87,48 @@ export function reportInput(rx: Prescription, inputs: FieldInputs, tables: Table
   const kFactor = plan.soil_test.kelowna_factor;
   const pClasses = pClassTable(pMethod, tables, kFactor);
 
+  const shownFraction = view.pick(grid.fraction);
   const surfaces = rx.surfaces.map((s) => {
     let breaks: number[];
     if (s.analyte === 'p') breaks = pClasses.map((c) => c.below_ppm).filter((b): b is number => b !== null);
     else {
-      const c = classify(s.values, { method: 'quantile', classes: 5, weights: grid.fraction, step: 0 });
+      // quantiles of the cells shown (all cells when the grid is shown at full resolution)
+      const c = classify(view.pick(s.values), { method: 'quantile', classes: 5, weights: shownFraction, step: 0 });
       breaks = c.breaks.slice(1, -1);
     }
-    return { nutrient: s.analyte, raster: { grid: g, values: view.pick(s.values) }, breaks, method: s.method === 'idw' ? `IDW power ${s.power}, ${Number.isFinite(s.neighbours) ? s.neighbours : 'all'} neighbours` : s.method === 'zones' ? 'zone composites' : 'one sample' };
+    return { nutrient: s.analyte, raster: { grid: g, values: view.pick(s.values), notes: note }, breaks, method: s.method === 'idw' ? `IDW power ${s.power}, ${Number.isFinite(s.neighbours) ? s.neighbours : 'all'} neighbours` : s.method === 'zones' ? 'zone composites' : 'one sample' };
   });
 
   const response: ReportInput['response'] = [];
   const pS = rx.surfaces.find((s) => s.analyte === 'p');
   if (pS) {
-    const vals = new Float64Array(pS.values.length).fill(NaN);
+    // classes only for the cells the map shows (the same cells `coarsen` picks)
+    const shown = view.pick(pS.values);
+    const vals = new Float64Array(shown.length).fill(NaN);
     // classes in order of increasing chance: reverse the table (lowest test = highest chance)
     const order = pClasses.map((_, i) => i).sort((a, b) => pClasses[a].response_probability - pClasses[b].response_probability);
     const rank = new Map(order.map((ci, r) => [pClasses[ci].name, r]));
     for (let i = 0; i < vals.length; i++) {
-      const c = pClass(pS.values[i], pMethod, tables, kFactor);
+      const c = pClass(shown[i], pMethod, tables, kFactor);
       if (c) vals[i] = rank.get(c.name)!;
     }
-    response.push({ nutrient: 'p', classes: order.map((ci) => ({ label: `${pClasses[ci].name}: about ${Math.round(pClasses[ci].response_probability * 100)} % chance${pMethod === 'kelowna' ? ` (Kelowna factor ${kFactor})` : ''}` })), raster: { grid: g, values: view.pick(vals) }, source: pClasses[0].source });
+    response.push({ nutrient: 'p', classes: order.map((ci) => ({ label: `${pClasses[ci].name}: about ${Math.round(pClasses[ci].response_probability * 100)} % chance${pMethod === 'kelowna' ? ` (Kelowna factor ${kFactor})` : ''}` })), raster: { grid: g, values: vals, notes: note }, source: pClasses[0].source });
   }
   const kS = rx.surfaces.find((s) => s.analyte === 'k');
   if (kS && crop) {
     const kClasses = tables.k_classes[crop.k_class_group] ?? [];
     const order = kClasses.map((_, i) => i).sort((a, b) => kClasses[a]!.response_probability - kClasses[b]!.response_probability);
     const rank = new Map(order.map((ci, r) => [kClasses[ci]!.name, r]));
-    const vals = new Float64Array(kS.values.length).fill(NaN);
+    const shown = view.pick(kS.values);
+    const vals = new Float64Array(shown.length).fill(NaN);
     for (let i = 0; i < vals.length; i++) {
-      const c = kClass(kS.values[i], crop, tables);
+      const c = kClass(shown[i], crop, tables);
       if (c) vals[i] = rank.get(c.name)!;
     }
     response.push({
       nutrient: 'k',
       classes: order.map((ci) => ({ label: `${kClasses[ci]!.name}: about ${Math.round(kClasses[ci]!.response_probability * 100)} % chance, ${kClasses[ci]!.k2o_lb} lb K2O` })),
-      raster: { grid: g, values: view.pick(vals) },
+      raster: { grid: g, values: vals, notes: note },
       source: kClasses[0]?.source ?? crop.k_critical_ppm.source,
     });
   }

@@ -101,7 +101,7 @@ function samplePoints(f: Frame, input: ReportInput, label: (i: number) => string
   const r = 4.5 / f.k;
   let dots = '';
   let texts = '';
-  const placed: [number, number, number, number][] = [];
+  const placed = new BoxIndex();
   const CH = 6.3, H = 11; // approximate glyph width and height at 11 px
   for (let i = 0; i < ids.length; i++) {
     const x = xy[2 * i]!;
@@ -114,16 +114,39 @@ function samplePoints(f: Frame, input: ReportInput, label: (i: number) => string
     let pick = options[0]!;
     for (const o of options) {
       const box: [number, number, number, number] = o[2] === 'start' ? [o[0], o[1] - H, o[0] + w, o[1]] : [o[0] - w, o[1] - H, o[0], o[1]];
-      if (!placed.some((b) => box[0] < b[2] && b[0] < box[2] && box[1] < b[3] && b[1] < box[3])) {
+      if (!placed.overlaps(box)) {
         pick = o;
         break;
       }
     }
-    placed.push(pick[2] === 'start' ? [pick[0], pick[1] - H, pick[0] + w, pick[1]] : [pick[0] - w, pick[1] - H, pick[0], pick[1]]);
+    placed.add(pick[2] === 'start' ? [pick[0], pick[1] - H, pick[0] + w, pick[1]] : [pick[0] - w, pick[1] - H, pick[0], pick[1]]);
     texts += `<text x="${pick[0].toFixed(1)}" y="${pick[1].toFixed(1)}"${pick[2] === 'end' ? ' text-anchor="end"' : ''}>${esc(t)}</text>`;
   }
   return `${geoGroup(f, ' class="samples"')}<g fill="#fff" stroke="#000" stroke-width="1.5" class="sample-dots">${dots}</g></g>` +
     `<g class="sample-labels">${texts}</g>`;
+}
+
+/**
+ * Placed label boxes [x0, y0, x1, y1] (px) in a uniform hash of 64 px cells, so that asking whether a new box
+ * overlaps any placed one looks only at boxes nearby (thousands of samples: linear instead of quadratic).
+ * The answer is the same as testing every placed box.
+ */
+export class BoxIndex {
+  private cells = new Map<number, [number, number, number, number][]>();
+  private static readonly S = 64;
+  private keys(b: readonly number[], fn: (key: number) => boolean | void): boolean {
+    const S = BoxIndex.S;
+    for (let gy = Math.floor(b[1]! / S); gy <= Math.floor(b[3]! / S); gy++) {
+      for (let gx = Math.floor(b[0]! / S); gx <= Math.floor(b[2]! / S); gx++) if (fn((gy + 4096) * 8192 + gx + 4096)) return true;
+    }
+    return false;
+  }
+  add(b: [number, number, number, number]): void {
+    this.keys(b, (k) => { const l = this.cells.get(k); if (l) l.push(b); else this.cells.set(k, [b]); });
+  }
+  overlaps(box: readonly [number, number, number, number]): boolean {
+    return this.keys(box, (k) => (this.cells.get(k) ?? []).some((b) => box[0] < b[2] && b[0] < box[2] && box[1] < b[3] && b[1] < box[3]));
+  }
 }
 
 /**
@@ -262,7 +285,7 @@ export function buildMaps(input: ReportInput): ReportMap[] {
     add('surface', `${n.label}: interpolated surface`,
       `${n.label}${unit}${s.method ? `, ${s.method}` : ''}, ${fmt(s.raster.grid.cell, s.raster.grid.cell < 10 ? 1 : 0)} m cells; samples labelled with their lab values ("<" below detection, ">" above range). Classes are the zones' classes. ${utmNote}`,
       [...labels.map((l, i) => ({ fill: colours[i]!, label: l })), { fill: 'point', label: 'Soil sample and its value' }, { fill: 'line', label: 'Field boundary' }],
-      `${n.label}${unit}`);
+      `${n.label}${unit}`, s.raster.notes);
   }
 
   // 3. response-probability classes
@@ -285,7 +308,7 @@ export function buildMaps(input: ReportInput): ReportMap[] {
     } else bodyFor = () => boundary(f, fieldParts);
     add('response', `${n.label}: chance of a yield response`,
       `Chance that the crop responds to applied ${n.label}, by soil-test class${r.source ? ` (${r.source})` : ''}. ${utmNote}`,
-      [...items, { fill: 'line', label: 'Field boundary' }], `Chance of response to ${n.label}`);
+      [...items, { fill: 'line', label: 'Field boundary' }], `Chance of response to ${n.label}`, r.raster?.notes);
   }
 
   // 4. rates per zone set and product placement; 5. binding limits per zone set

@@ -4,6 +4,7 @@
  * further north, and take the bearing of that step on the grid.
  */
 import { projector } from '../geo/utm.js';
+import { utmZone } from '../geo/crs.js';
 
 /**
  * Clockwise angle in degrees from grid north (the UTM y axis) to true north at a point, as drawn on a north-up
@@ -12,8 +13,7 @@ import { projector } from '../geo/utm.js';
  * @example trueNorthOnGrid({ zone: 13, south: false, epsg: 32613 }, 431600, 5742000) // about 0.78
  */
 export function trueNorthOnGrid(utm: { zone: number; south: boolean; epsg: number }, x: number, y: number): number {
-  const proj4 = `+proj=utm +zone=${utm.zone}${utm.south ? ' +south' : ''} +datum=WGS84 +units=m +no_defs`;
-  const p = projector({ ...utm, proj4 });
+  const p = projector(utmZone(utm.zone, utm.south));
   const [lon, lat] = p.toLonLat(x, y);
   const step = lat > 89.9 ? -0.01 : 0.01;
   const [x2, y2] = p.toMetres(lon, lat + step);

@@ -56,7 +56,7 @@ const nums = z.union([
 const num = z.number().nullable().transform((x) => (x === null ? NaN : x));
 const part = z.object({ exterior: nums, holes: z.array(nums) });
 const grid = z.object({ xmin: z.number(), ymax: z.number(), cell: z.number().positive(), cols: z.number().int().positive(), rows: z.number().int().positive() });
-const raster = z.object({ grid, values: nums }).refine((r) => r.values.length === r.grid.cols * r.grid.rows, {
+const raster = z.object({ grid, values: nums, notes: z.array(z.string()).optional() }).refine((r) => r.values.length === r.grid.cols * r.grid.rows, {
   message: 'values must hold cols x rows numbers',
 });
 const str = z.string();

@@ -31,6 +31,8 @@ export interface ReportGrid {
 export interface ReportRaster {
   grid: ReportGrid;
   values: ArrayLike<number>;
+  /** legend notes, e.g. how a fine grid was shown coarser for display */
+  notes?: string[];
 }
 
 /** A nutrient or soil property shown in the report. */

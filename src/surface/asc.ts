@@ -3,7 +3,6 @@
  * Header: ncols, nrows, xllcorner, yllcorner (lower-left corner of the lower-left cell), cellsize,
  * NODATA_value; then rows north to south, values separated by spaces.
  */
-import type { UtmZone } from '../types.js';
 import type { GridShape } from './idw.js';
 
 /** NODATA value written for cells without a value. */
@@ -75,20 +74,6 @@ export function formatAsc(grid: GridShape, values: ArrayLike<number>, opts: AscO
 
 function num(x: number): string {
   return Number.isInteger(x) ? x.toFixed(1) : String(x);
-}
-
-/**
- * The .prj text GDAL writes beside an Esri ASCII grid in a WGS 84 UTM zone (ESRI WKT1, one line, no newline).
- * @example utmPrj({ zone: 13, south: false, epsg: 32613, proj4: '' }) // 'PROJCS["WGS_1984_UTM_Zone_13N",...'
- */
-export function utmPrj(utm: Pick<UtmZone, 'zone' | 'south'>): string {
-  const cm = 6 * utm.zone - 183;
-  return (
-    `PROJCS["WGS_1984_UTM_Zone_${utm.zone}${utm.south ? 'S' : 'N'}",GEOGCS["GCS_WGS_1984",DATUM["D_WGS_1984",SPHEROID["WGS_1984",6378137.0,298.257223563]],` +
-    `PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Transverse_Mercator"],PARAMETER["False_Easting",500000.0],` +
-    `PARAMETER["False_Northing",${utm.south ? '10000000.0' : '0.0'}],PARAMETER["Central_Meridian",${cm.toFixed(1)}],PARAMETER["Scale_Factor",0.9996],` +
-    `PARAMETER["Latitude_Of_Origin",0.0],UNIT["Meter",1.0]]`
-  );
 }
 
 /**

@@ -15,4 +15,5 @@ export { krigingSurface, covariance, OkSolver, type KrigingModel, type KrigingOp
 export { krigingAtPoints, krigingCv, type KrigingCv, type PointKriging, type PointKrigingOptions } from './krigingCv.js';
 export { krigingCandidate, krigeGrid, lognormalMean, KRIGING_NEIGHBOURS, type KrigingInfo, type KrigingChoiceOptions, type KrigedGrid } from './krigingChoice.js';
 export { chooseVariogram, modelText, KRIGING_MIN_SAMPLES, KRIGING_MIN_PAIRS, KRIGING_MIN_LAGS, type VariogramChoice, type VariogramChoiceOptions } from './variogram.js';
-export { formatAsc, utmPrj, readAsc, ASC_NODATA, type AscOptions } from './asc.js';
+export { formatAsc, readAsc, ASC_NODATA, type AscOptions } from './asc.js';
+export { chanceBelow, chanceBelowAt, classProbabilities, type KrigedCells, type ResponseClasses } from './probability.js';

@@ -9,7 +9,8 @@
  * With the Cholesky factor C = L L' and v = L^-1 1, g = L^-1 z (both kept per neighbour set) and u = L^-1 c0
  * (one forward substitution per cell):  mu = (v'u - 1) / v'v,  prediction u'g - mu v'g,
  * variance C(0) - u'u + (v'u - 1)^2 / v'v. Neighbouring cells mostly share their neighbour set, so the
- * factorisation is reused until the set changes; all buffers are allocated once (no allocation per cell).
+ * factorisations of the last 1024 sets are kept and reused; all buffers are allocated once (no allocation
+ * per cell).
  */
 import type { ModelKind } from '../variability/models.js';
 import { visitCellNeighbours, type GridShape } from './cellNeighbours.js';
@@ -43,6 +44,8 @@ export interface KrigingResult {
   lagrange: Float64Array | null;
   /** cells left NaN because their neighbours' covariance matrix was not positive definite */
   singular: number;
+  /** neighbour sets factorised (a measure of work: cells that reuse the previous set cost one forward solve) */
+  factorisations: number;
 }
 
 /**
@@ -56,110 +59,188 @@ export function covariance(m: KrigingModel, d2: number): number {
       return m.psill * Math.exp(-d2 / (m.range * m.range));
     case 'exponential':
       return m.psill * Math.exp(-Math.sqrt(d2) / m.range);
-    default: {
-      const t = Math.sqrt(d2) / m.range;
-      return t >= 1 ? 0 : m.psill * (1 - t * (1.5 - 0.5 * t * t));
-    }
+    default:
+      return sph(m.psill, Math.sqrt(d2) / m.range);
   }
 }
 
+/** Spherical covariance at t = h / a. */
+function sph(psill: number, t: number): number {
+  return t >= 1 ? 0 : psill * (1 - t * (1.5 - 0.5 * t * t));
+}
+
+/** Neighbour sets whose factorisations are kept (about 2.7 KB each for 16 neighbours). */
+export const KRIGING_CACHE_SETS = 1024;
+
 /**
- * One neighbourhood's ordinary-kriging system with preallocated buffers: {@link setNeighbours} factorises
- * C = L L' (Cholesky on a flat Float64Array) once per neighbour set, {@link predict} answers a location.
- * @example const s = new OkSolver(model, 16); s.setNeighbours(xs, ys, zs, 16); s.predict(x, y)
+ * Ordinary-kriging systems of neighbour sets with preallocated buffers: {@link load} makes a set current,
+ * factorising C = L L' (Cholesky on a flat Float64Array) only when the set is not among the last
+ * `cacheSets` factorised (cells of one region share their k nearest samples, and the serpentine walk over a
+ * block of cells comes back to the sets of the row before); {@link predict} answers a location.
+ * @example const s = new OkSolver(model, 16, n); if (s.load(xy, 0, 0, z, idx, 16)) { s.predict(x, y); s.mean }
  */
 export class OkSolver {
   readonly sill: number;
-  private readonly L: Float64Array;
-  private readonly v: Float64Array;
-  private readonly gz: Float64Array;
+  private readonly stride: number;
+  private readonly pool: Float64Array;
+  private readonly members: Int32Array;
+  /** per slot: neighbour count, or 0 when empty; ok: 1 factorised, 0 not positive definite */
+  private readonly sizes: Int32Array;
+  private readonly ok: Uint8Array;
+  private readonly keys: Float64Array;
+  private readonly scal: Float64Array;
+  private readonly map = new Map<number, number>();
+  private readonly mark: Int32Array;
   private readonly u: Float64Array;
-  readonly xs: Float64Array;
-  readonly ys: Float64Array;
-  private m = 0;
-  private vv = 0;
-  private vg = 0;
+  private stamp = 0;
+  private next = 0;
+  private cur = -1;
+  /** how many sets were factorised */
+  factorisations = 0;
   /** results of the last {@link predict} */
   mean = NaN;
   variance = NaN;
   mu = NaN;
 
-  constructor(readonly model: KrigingModel, readonly kmax: number) {
+  /**
+   * @param model semivariogram model
+   * @param kmax largest neighbour count
+   * @param nSamples number of samples (indices are below it)
+   * @param cacheSets factorisations kept (default 1024)
+   */
+  constructor(readonly model: KrigingModel, readonly kmax: number, nSamples: number, cacheSets = KRIGING_CACHE_SETS) {
     this.sill = model.nugget + model.psill;
-    this.L = new Float64Array(kmax * kmax);
-    this.v = new Float64Array(kmax);
-    this.gz = new Float64Array(kmax);
+    this.stride = kmax * kmax + 4 * kmax;
+    this.pool = new Float64Array(cacheSets * this.stride);
+    this.members = new Int32Array(cacheSets * kmax);
+    this.sizes = new Int32Array(cacheSets);
+    this.ok = new Uint8Array(cacheSets);
+    this.keys = new Float64Array(cacheSets).fill(NaN);
+    this.scal = new Float64Array(cacheSets * 2);
+    this.mark = new Int32Array(nSamples);
     this.u = new Float64Array(kmax);
-    this.xs = new Float64Array(kmax);
-    this.ys = new Float64Array(kmax);
   }
 
   /**
-   * Loads m neighbours (positions already in `xs`, `ys`; values `z[idx[t]]`) and factorises their covariance
-   * matrix. Returns false when it is not positive definite (coincident samples without nugget, or a
-   * Gaussian model on samples much closer than its range).
+   * Makes the m samples idx[0..m) the current neighbourhood (positions xy relative to (ox, oy), values z).
+   * Returns false when their covariance matrix is not positive definite (coincident samples without
+   * nugget, or a Gaussian model on samples much closer than its range).
    */
-  setNeighbours(z: ArrayLike<number>, idx: Int32Array, m: number): boolean {
-    const { L, v, gz, xs, ys, model, sill } = this;
-    this.m = m;
-    for (let i = 0; i < m; i++) {
-      const o = i * m;
-      for (let j = 0; j < i; j++) {
-        const dx = xs[i] - xs[j], dy = ys[i] - ys[j];
-        L[o + j] = covariance(model, dx * dx + dy * dy);
-      }
-      L[o + i] = sill;
+  load(xy: Float64Array, ox: number, oy: number, z: ArrayLike<number>, idx: Int32Array, m: number): boolean {
+    const { mark, members, sizes, kmax } = this;
+    const stamp = ++this.stamp;
+    let h1 = 0, h2 = 0;
+    for (let t = 0; t < m; t++) {
+      const j = idx[t];
+      mark[j] = stamp;
+      h1 = (h1 + Math.imul(j + 1, 0x9e3779b1)) | 0;
+      h2 = (h2 + Math.imul((j + 1) ^ 0x5bd1e995, 0x85ebca6b)) | 0;
     }
-    // in-place Cholesky, lower triangle, row by row
-    for (let i = 0; i < m; i++) {
-      const oi = i * m;
-      for (let j = 0; j <= i; j++) {
-        const oj = j * m;
-        let s = L[oi + j];
-        for (let t = 0; t < j; t++) s -= L[oi + t] * L[oj + t];
-        if (i === j) {
-          if (!(s > sill * 1e-12)) { this.m = 0; return false; }
-          L[oi + i] = Math.sqrt(s);
-        } else L[oi + j] = s / L[oj + j];
-      }
-    }
-    forward(L, m, null, v, 1);
-    forward(L, m, null, gz, 0, z, idx);
-    let vv = 0, vg = 0;
-    for (let i = 0; i < m; i++) { vv += v[i] * v[i]; vg += v[i] * gz[i]; }
-    this.vv = vv;
-    this.vg = vg;
+    if (this.cur >= 0 && this.same(this.cur, m, stamp)) return this.ok[this.cur] === 1;
+    const key = (h1 >>> 0) * 2097152 + ((h2 >>> 0) & 0x1fffff);
+    const hit = this.map.get(key);
+    if (hit !== undefined && this.same(hit, m, stamp)) { this.cur = hit; return this.ok[hit] === 1; }
+    const slot = this.next;
+    this.next = (slot + 1) % sizes.length;
+    if (!Number.isNaN(this.keys[slot]) && this.map.get(this.keys[slot]) === slot) this.map.delete(this.keys[slot]);
+    this.keys[slot] = key;
+    this.map.set(key, slot);
+    sizes[slot] = m;
+    for (let t = 0; t < m; t++) members[slot * kmax + t] = idx[t];
+    this.cur = slot;
+    this.ok[slot] = this.factorise(slot, xy, ox, oy, z, idx, m) ? 1 : 0;
+    return this.ok[slot] === 1;
+  }
+
+  /** Whether the slot holds exactly the m samples marked with `stamp`. */
+  private same(slot: number, m: number, stamp: number): boolean {
+    if (this.sizes[slot] !== m) return false;
+    const o = slot * this.kmax;
+    for (let t = 0; t < m; t++) if (this.mark[this.members[o + t]] !== stamp) return false;
     return true;
   }
 
-  /** Kriging mean, variance (>= 0) and Lagrange multiplier at (x, y), from the loaded neighbours. */
-  predict(x: number, y: number): void {
-    const { L, v, gz, u, xs, ys, model, m } = this;
+  /** Builds and factorises the slot's covariance matrix; v = L^-1 1, g = L^-1 z and their products. */
+  private factorise(slot: number, xy: Float64Array, ox: number, oy: number, z: ArrayLike<number>, idx: Int32Array, m: number): boolean {
+    this.factorisations++;
+    const { pool, model, sill, kmax } = this;
+    const o = slot * this.stride, xo = o + kmax * kmax, yo = xo + kmax, vo = yo + kmax, go = vo + kmax;
+    for (let t = 0; t < m; t++) { pool[xo + t] = xy[2 * idx[t]] - ox; pool[yo + t] = xy[2 * idx[t] + 1] - oy; }
     for (let i = 0; i < m; i++) {
-      const dx = xs[i] - x, dy = ys[i] - y;
-      u[i] = covariance(model, dx * dx + dy * dy);
+      const r = o + i * m;
+      for (let j = 0; j < i; j++) {
+        const dx = pool[xo + i] - pool[xo + j], dy = pool[yo + i] - pool[yo + j];
+        pool[r + j] = covariance(model, dx * dx + dy * dy);
+      }
+      pool[r + i] = sill;
     }
-    forward(L, m, u, u, 0);
-    let uu = 0, vu = 0, ug = 0;
-    for (let i = 0; i < m; i++) { uu += u[i] * u[i]; vu += v[i] * u[i]; ug += u[i] * gz[i]; }
-    const mu = (vu - 1) / this.vv;
-    this.mu = mu;
-    this.mean = ug - mu * this.vg;
-    const s2 = this.sill - uu + (vu - 1) * (vu - 1) / this.vv;
-    this.variance = s2 > 0 ? s2 : 0;
+    // in-place Cholesky, lower triangle, row by row
+    for (let i = 0; i < m; i++) {
+      const ri = o + i * m;
+      for (let j = 0; j <= i; j++) {
+        const rj = o + j * m;
+        let s = pool[ri + j];
+        for (let t = 0; t < j; t++) s -= pool[ri + t] * pool[rj + t];
+        if (i === j) {
+          if (!(s > sill * 1e-12)) return false;
+          pool[ri + i] = Math.sqrt(s);
+        } else pool[ri + j] = s / pool[rj + j];
+      }
+    }
+    let vv = 0, vg = 0;
+    for (let i = 0; i < m; i++) {
+      const ri = o + i * m;
+      let sv = 1, sg = z[idx[i]];
+      for (let t = 0; t < i; t++) { sv -= pool[ri + t] * pool[vo + t]; sg -= pool[ri + t] * pool[go + t]; }
+      const d = pool[ri + i];
+      pool[vo + i] = sv / d;
+      pool[go + i] = sg / d;
+      vv += pool[vo + i] * pool[vo + i];
+      vg += pool[vo + i] * pool[go + i];
+    }
+    this.scal[2 * slot] = vv;
+    this.scal[2 * slot + 1] = vg;
+    return true;
   }
-}
 
-/**
- * Forward substitution L y = b in place into `out`: b is `rhs` when given, else the constant `c`, or
- * z[idx[i]] when z is given.
- */
-function forward(L: Float64Array, m: number, rhs: Float64Array | null, out: Float64Array, c: number, z?: ArrayLike<number>, idx?: Int32Array): void {
-  for (let i = 0; i < m; i++) {
-    const o = i * m;
-    let s = rhs ? rhs[i] : z ? z[idx![i]] : c;
-    for (let t = 0; t < i; t++) s -= L[o + t] * out[t];
-    out[i] = s / L[o + i];
+  /** Kriging mean, variance (>= 0) and Lagrange multiplier at (x, y) (relative to the origin given to load). */
+  predict(x: number, y: number): void {
+    const { pool, u, model, kmax } = this;
+    const slot = this.cur, m = this.sizes[slot];
+    const o = slot * this.stride, xo = o + kmax * kmax, yo = xo + kmax, vo = yo + kmax, go = vo + kmax;
+    // covariances with the location first, one model branch for all of them
+    const ps = model.psill, ia = 1 / model.range, ia2 = ia * ia;
+    if (model.kind === 'exponential') {
+      for (let i = 0; i < m; i++) {
+        const dx = pool[xo + i] - x, dy = pool[yo + i] - y, d2 = dx * dx + dy * dy;
+        u[i] = d2 > 0 ? ps * Math.exp(-Math.sqrt(d2) * ia) : this.sill;
+      }
+    } else if (model.kind === 'gaussian') {
+      for (let i = 0; i < m; i++) {
+        const dx = pool[xo + i] - x, dy = pool[yo + i] - y, d2 = dx * dx + dy * dy;
+        u[i] = d2 > 0 ? ps * Math.exp(-d2 * ia2) : this.sill;
+      }
+    } else {
+      for (let i = 0; i < m; i++) {
+        const dx = pool[xo + i] - x, dy = pool[yo + i] - y, d2 = dx * dx + dy * dy;
+        u[i] = d2 > 0 ? sph(ps, Math.sqrt(d2) * ia) : this.sill;
+      }
+    }
+    let uu = 0, vu = 0, ug = 0;
+    for (let i = 0; i < m; i++) {
+      let s = u[i];
+      const ri = o + i * m;
+      for (let t = 0; t < i; t++) s -= pool[ri + t] * u[t];
+      const ui = s / pool[ri + i];
+      u[i] = ui;
+      uu += ui * ui; vu += pool[vo + i] * ui; ug += ui * pool[go + i];
+    }
+    const vv = this.scal[2 * slot];
+    const mu = (vu - 1) / vv;
+    this.mu = mu;
+    this.mean = ug - mu * this.scal[2 * slot + 1];
+    const s2 = this.sill - uu + (vu - 1) * (vu - 1) / vv;
+    this.variance = s2 > 0 ? s2 : 0;
   }
 }
 
@@ -181,39 +262,20 @@ export function krigingSurface(xy: Float64Array, z: ArrayLike<number>, grid: Gri
   const values = new Float64Array(N).fill(NaN);
   const variance = new Float64Array(N).fill(NaN);
   const lagrange = opts.lagrange ? new Float64Array(N).fill(NaN) : null;
-  const res: KrigingResult = { values, variance, lagrange, singular: 0 };
+  const res: KrigingResult = { values, variance, lagrange, singular: 0, factorisations: 0 };
   if (n === 0 || k < 1) return res;
-  const solver = new OkSolver(model, k);
-  const set = new Int32Array(k).fill(-1), cur = new Int32Array(k), curD2 = new Float64Array(k);
-  let setSize = 0, setOk = false;
+  const solver = new OkSolver(model, k, n);
   const { xmin, ymax, cell, cols } = grid;
   visitCellNeighbours(xy, grid, k, Infinity, opts.where ?? grid.fraction, (i, found, d2, idx) => {
-    // neighbours sorted by sample index: the set's identity and the matrix order
-    for (let t = 0; t < found; t++) {
-      const id = idx[t], dd = d2[t];
-      let p = t;
-      while (p > 0 && cur[p - 1] > id) { cur[p] = cur[p - 1]; curD2[p] = curD2[p - 1]; p--; }
-      cur[p] = id; curD2[p] = dd;
-    }
-    for (let t = 0; t < found; t++) {
-      if (curD2[t] < COINCIDENT_D2) { values[i] = z[cur[t]]; variance[i] = 0; if (lagrange) lagrange[i] = 0; return; }
-    }
-    let same = found === setSize;
-    for (let t = 0; same && t < found; t++) if (cur[t] !== set[t]) same = false;
-    if (!same) {
-      for (let t = 0; t < found; t++) {
-        set[t] = cur[t];
-        solver.xs[t] = xy[2 * cur[t]] - xmin;
-        solver.ys[t] = xy[2 * cur[t] + 1] - ymax;
-      }
-      setSize = found;
-      setOk = solver.setNeighbours(z, set, found);
-    }
-    if (!setOk) { res.singular++; return; }
+    let hit = -1;
+    for (let t = 0; t < found; t++) if (d2[t] < COINCIDENT_D2 && (hit < 0 || idx[t] < idx[hit])) hit = t;
+    if (hit >= 0) { values[i] = z[idx[hit]]; variance[i] = 0; if (lagrange) lagrange[i] = 0; return; }
+    if (!solver.load(xy, xmin, ymax, z, idx, found)) { res.singular++; return; }
     solver.predict((i % cols + 0.5) * cell, -(Math.floor(i / cols) + 0.5) * cell);
     values[i] = solver.mean;
     variance[i] = solver.variance;
     if (lagrange) lagrange[i] = solver.mu;
   });
+  res.factorisations = solver.factorisations;
   return res;
 }

@@ -53,8 +53,7 @@ export function krigingAtPoints(xy: Float64Array, z: ArrayLike<number>, qxy: Flo
   const b = buildBuckets(xy, size, x0, y0, nx, ny);
   const g = new KnnGroup(b, k);
   const ring = Math.max(1, Math.ceil(Math.sqrt(k / 4) / 2 + 0.5));
-  const solver = new OkSolver(model, k);
-  const idx = new Int32Array(k);
+  const solver = new OkSolver(model, k, n, loo ? 1 : undefined);
   for (let p = 0; p < nq; p++) {
     const qx = q[2 * p] - x0, qy = q[2 * p + 1] - y0;
     const bx = Math.min(nx - 1, Math.max(0, Math.floor(qx / size))), by = Math.min(ny - 1, Math.max(0, Math.floor(qy / size)));
@@ -62,12 +61,7 @@ export function krigingAtPoints(xy: Float64Array, z: ArrayLike<number>, qxy: Flo
     g.reset();
     const found = g.nearest(qx, qy, loo ? p : -1, true);
     if (g.d2[0] < COINCIDENT_D2) { out.mean[p] = z[g.idx[0]]; out.variance[p] = 0; out.lagrange[p] = 0; continue; }
-    for (let t = 0; t < found; t++) {
-      idx[t] = g.idx[t];
-      solver.xs[t] = xy[2 * idx[t]] - x0;
-      solver.ys[t] = xy[2 * idx[t] + 1] - y0;
-    }
-    if (!solver.setNeighbours(z, idx, found)) continue;
+    if (!solver.load(xy, x0, y0, z, g.idx, found)) continue;
     solver.predict(qx, qy);
     out.mean[p] = solver.mean;
     out.variance[p] = solver.variance;

@@ -1,6 +1,6 @@
 /**
- * The library's input entry: raw tables and polygons (from src/io) -> validated, projected FieldInputs.
- * Pure: no file system; src/cli/inputs.ts reads the files and calls this.
+ * The library's judgement of the inputs: raw tables and polygons (src/io/inputs.ts readInputs) -> validated,
+ * projected FieldInputs. Reads nothing: no file system, no parsing of file formats.
  */
 import { UserError, type Warning } from '../errors.js';
 import { ANALYTES, type FieldInputs, type PMethod, type Samples, type SampleZones } from '../types.js';
@@ -8,9 +8,8 @@ import { projectField } from '../geo/field.js';
 import { pointInParts } from '../geo/area.js';
 import { orient } from '../geo/field.js';
 import { parseColumnMap } from '../io/columns.js';
-import { readCsvRecords } from '../io/csv.js';
-import { readGeoJsonPoints, readGeoJsonPolygons } from '../io/geojson.js';
-import type { InputFile, RawPolygons, RawTable } from '../io/records.js';
+import type { RawInputs } from '../io/inputs.js';
+import type { RawPolygons } from '../io/records.js';
 import { abbrev, buildSamples } from './samples.js';
 import { checkPartsMetres, checkPolygonsLonLat } from './boundary.js';
 import { soilFlagWarnings } from '../agronomy/soilFlags.js';
@@ -30,58 +29,19 @@ export interface PrepareOptions {
   crs?: string;
 }
 
-/** What a source may be: a file's bytes (GeoJSON or CSV by its name) or an already-read table (shapefile). */
-export type SampleSource = InputFile | RawTable;
-export type PolygonSource = InputFile | RawPolygons;
-
-const text = (f: InputFile) => {
-  const ext = f.name.toLowerCase().split('.').pop();
-  if (ext === 'dbf' || ext === 'shx' || ext === 'prj' || ext === 'cpg' || ext === 'qmd' || ext === 'sbn') {
-    throw new UserError(`${f.name} is one of the files beside a shapefile. Fix: give the .shp file (the others are found beside it), or a .zip of them all.`, { file: f.name });
-  }
-  return new TextDecoder('utf-8').decode(f.bytes);
-};
-const isFile = (x: object): x is InputFile => 'bytes' in x;
-
 /**
- * Reads sample records from a GeoJSON or CSV file (by extension; content sniffed when unclear).
- * @param columns the --columns map text, for CSV header detection
- * @example readSampleRecords({ name: 'samples.csv', bytes }).records.length
- */
-export function readSampleRecords(src: SampleSource, columns?: string, crs?: string): RawTable {
-  if (!isFile(src)) return src;
-  const t = text(src);
-  const ext = src.name.toLowerCase().split('.').pop();
-  if (ext === 'geojson' || ext === 'json' || (ext !== 'csv' && ext !== 'txt' && /^\s*\{/.test(t))) return readGeoJsonPoints(t, src.name);
-  if (ext === 'xls') throw new UserError(`${src.name} is an old-style .xls workbook. Fix: save it from the spreadsheet as .xlsx (Excel Workbook) or as CSV.`, { file: src.name });
-  if (ext === 'xlsx') throw new Error(`${src.name}: read .xlsx with readXlsxRecords (asynchronous) and pass the table`);
-  if (ext === 'csv' || ext === 'txt' || ext === 'tsv') return readCsvRecords(t, src.name, parseColumnMap(columns), { crs });
-  throw new UserError(`${src.name}: tilth reads samples from .geojson, .json, .csv, .xlsx, .shp or .zip (shapefile) files. Fix: export the samples in one of these formats.`, { file: src.name });
-}
-
-/**
- * Reads polygons (boundary or zones) from a GeoJSON file; already-read polygons pass through.
- * @example readPolygonSource({ name: 'boundary.geojson', bytes }, 'boundary').features.length
- */
-export function readPolygonSource(src: PolygonSource, what: string): RawPolygons {
-  if (!isFile(src)) return src;
-  const ext = src.name.toLowerCase().split('.').pop();
-  if (ext === 'csv' || ext === 'txt') throw new UserError(`${src.name}: a ${what} must be polygons (.geojson, .json, .shp or .zip), not a table. Fix: export the ${what} as GeoJSON or a shapefile.`, { file: src.name });
-  return readGeoJsonPolygons(text(src), src.name, what);
-}
-
-/**
- * Reads, validates and projects samples, boundary and (optional) sample zones.
+ * Validates and projects samples, boundary and (optional) sample zones, as read by readInputs.
  * @throws UserError naming file, feature/row, field, value and fix for anything the user must correct
  * @example
- * const inputs = prepareInputs(
- *   { name: 'samples.geojson', bytes }, { name: 'boundary.geojson', bytes: b }, undefined, {});
+ * const raw = await readInputs({ samples: { name: 'samples.geojson', bytes }, boundary: { name: 'boundary.geojson', bytes: b } });
+ * const inputs = prepareInputs(raw);
  * inputs.field.areaM2; inputs.samples.values.p;
  */
-export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSource, zonesSrc?: PolygonSource, opts: PrepareOptions = {}): FieldInputs {
+export function prepareInputs(raw: RawInputs, opts: PrepareOptions = {}): FieldInputs {
   const warnings: Warning[] = [];
+  const zonesSrc = raw.zones;
   // boundary
-  const rawB = readPolygonSource(boundarySrc, 'boundary');
+  const rawB = raw.boundary;
   const b = checkPolygonsLonLat(rawB, 'boundary');
   warnings.push(...b.warnings);
   const name = String(rawB.features[0].props.name ?? rawB.file.split(/[\\/]/).pop()!.replace(/\.[^.]+$/, ''));
@@ -90,7 +50,7 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
   checkPartsMetres(field.parts, b.where, rawB.file, 'boundary');
 
   // samples
-  const table = readSampleRecords(samplesSrc, opts.columns, opts.crs);
+  const table = raw.samples;
   const built = buildSamples(table, { map: parseColumnMap(opts.columns), depthFactor: opts.depthFactor, pMethod: opts.pMethod });
   warnings.push(...built.warnings);
   let s = built.samples;
@@ -181,10 +141,10 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
       throw new UserError(`${table.file}: two sample polygons have the same zone key. Fix: give each zone polygon its own zone key.`, { file: table.file });
     }
     const zoneFeatures: RawPolygons = { file: table.file, features: keys.map((k, i) => ({ where: `sample "${s.ids[i]}"`, props: { zone: k }, coordinates: polys[i] })) };
-    zones = readZones(zoneFeatures, proj.forward);
+    zones = zonesOf(zoneFeatures, proj.forward);
     keys.forEach((k, i) => { s.zone[i] = k; });
   } else if (zonesSrc) {
-    zones = readZones(zonesSrc, proj.forward);
+    zones = zonesOf(zonesSrc, proj.forward);
     const zset = new Set(zones.keys);
     for (let i = 0; i < s.ids.length; i++) {
       const z = s.zone[i];
@@ -232,8 +192,7 @@ export function prepareInputs(samplesSrc: SampleSource, boundarySrc: PolygonSour
   return { samples, field, zones, warnings, reading: built.reading };
 }
 
-function readZones(src: PolygonSource, forward: (a: ArrayLike<number>) => Float64Array): SampleZones {
-  const raw = readPolygonSource(src, 'zones');
+function zonesOf(raw: RawPolygons, forward: (a: ArrayLike<number>) => Float64Array): SampleZones {
   const keyProp = ['zone', 'zone_id', 'zoneid', 'key', 'id', 'name'];
   const keys: string[] = [];
   const lonlat: number[][][][][] = [];

@@ -260,24 +260,31 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
   let nLow = 0;
   for (let i = 0; i < input.values.length; i++) if (isLow(i)) nLow++;
   o.push(`<text x="${m.l}" y="46" font-size="13" fill="#444">${input.threshold === null ? 'samples coloured by value' : `${nLow} sample(s) ${input.thresholdInclusive ? 'at or below' : 'below'} ${input.threshold} ${esc(input.unit)} ringed in red`}</text>`);
+  let drawnNote = '';
   if (input.surface) {
-    // colours quantised to 48 steps and equal neighbours in a row merged into one rectangle (small files)
-    const g = input.surface.grid;
+    // drawn at display resolution: cells under 1.5 px are shown coarser by a whole factor, each coarse cell the
+    // value of the fine cell at its centre (nearest); colours quantised to 48 steps and equal neighbours in a
+    // row merged into one rectangle (small files)
+    const g = input.surface.grid, vals = input.surface.values;
+    const f = Math.max(1, Math.ceil(1.5 / (g.cell * scale)));
+    if (f > 1) drawnNote = `, drawn at ${f * g.cell} m cells`;
+    const cols = Math.ceil(g.cols / f), rows = Math.ceil(g.rows / f);
+    const at = (r: number, c: number) => Math.min(g.rows - 1, r * f + (f >> 1)) * g.cols + Math.min(g.cols - 1, c * f + (f >> 1));
     const q = (v: number) => Math.round(((v - vmin) / (vmax - vmin)) * 47);
+    const shown = (k: number) => g.mask[k] && Number.isFinite(vals[k]);
     // opacity on the group, so the slight overlaps that hide seams do not darken
     o.push('<g opacity="0.75" shape-rendering="crispEdges">');
-    for (let r = 0; r < g.rows; r++) {
+    for (let r = 0; r < rows; r++) {
       let c = 0;
-      while (c < g.cols) {
-        const k = r * g.cols + c;
-        const v = input.surface.values[k];
-        if (!g.mask[k] || !Number.isFinite(v)) { c++; continue; }
-        const b = q(v);
+      while (c < cols) {
+        const k = at(r, c);
+        if (!shown(k)) { c++; continue; }
+        const b = q(vals[k]);
         let e = c + 1;
-        while (e < g.cols && g.mask[r * g.cols + e] && Number.isFinite(input.surface.values[r * g.cols + e]) && q(input.surface.values[r * g.cols + e]) === b) e++;
-        const x0 = g.xmin + c * g.cell;
-        const y0 = g.ymax - r * g.cell;
-        o.push(`<rect x="${sx(x0).toFixed(1)}" y="${sy(y0).toFixed(1)}" width="${((e - c) * g.cell * scale + 0.6).toFixed(1)}" height="${(g.cell * scale + 0.6).toFixed(1)}" fill="${viridis(b / 47)}"/>`);
+        while (e < cols && shown(at(r, e)) && q(vals[at(r, e)]) === b) e++;
+        const x0 = g.xmin + c * f * g.cell;
+        const y0 = g.ymax - r * f * g.cell;
+        o.push(`<rect x="${sx(x0).toFixed(1)}" y="${sy(y0).toFixed(1)}" width="${((e - c) * f * g.cell * scale + 0.6).toFixed(1)}" height="${(f * g.cell * scale + 0.6).toFixed(1)}" fill="${viridis(b / 47)}"/>`);
         c = e;
       }
     }
@@ -359,7 +366,7 @@ export function sampleMapSvg(input: SampleMapInput, size: { width?: number; heig
   o.push(`<line x1="${lx}" y1="${ky}" x2="${lx + 22}" y2="${ky}" stroke="#222" stroke-width="2"/><text x="${lx + 28}" y="${ky + 4}" font-size="12">field boundary</text>`);
   if (input.surface) {
     ky += 26;
-    o.push(`<rect x="${lx}" y="${ky - 8}" width="22" height="16" fill="${viridis(0.4)}" opacity="0.75"/><text x="${lx + 28}" y="${ky + 4}" font-size="12">${esc(input.surface.label ?? 'interpolated (IDW)')}</text>`);
+    o.push(`<rect x="${lx}" y="${ky - 8}" width="22" height="16" fill="${viridis(0.4)}" opacity="0.75"/><text x="${lx + 28}" y="${ky + 4}" font-size="12">${esc((input.surface.label ?? 'interpolated (IDW)') + drawnNote)}</text>`);
   }
   // scale bar: a nice length about a quarter of the map width
   const target = (xmax - xmin) / 4;

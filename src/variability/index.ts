@@ -21,6 +21,7 @@ export * from './thresholds.js';
 export * from './charts.js';
 export * from './text.js';
 export * from './report-charts.js';
+export * from './chance.js';
 
 /** Lags with fewer pairs than this are flagged (common practice). */
 export const MIN_PAIRS = 30;

@@ -8,6 +8,7 @@
  */
 import { m2ToAc } from '../units/index.js';
 import type { DependenceClass } from './dependence.js';
+import { sampleNeighbours } from '../surface/neighbours.js';
 
 export interface SamplingInput {
   /** field area, m2 */
@@ -41,20 +42,21 @@ export interface SamplingAdvice {
 }
 
 /**
- * Median nearest-neighbour distance of points x0 y0 x1 y1 ... (brute force; fields have tens to hundreds of samples).
+ * Median nearest-neighbour distance of points x0 y0 x1 y1 ...: the few nearest of each point come from the
+ * shared bucketed search (src/surface/neighbours.ts, linear in the number of points), and the distance is
+ * Math.hypot of the original coordinates, the smallest of those few (as a brute-force scan would find it).
  * @example medianNearest([0, 0, 3, 4, 10, 0]) // 5
  */
 export function medianNearest(xy: ArrayLike<number>): number {
   const n = xy.length / 2;
   if (n < 2) return NaN;
+  const nb = sampleNeighbours(xy instanceof Float64Array ? xy : Float64Array.from(xy), 4);
   const d: number[] = [];
   for (let i = 0; i < n; i++) {
     let best = Infinity;
-    for (let j = 0; j < n; j++) {
-      if (i === j) continue;
-      const dx = xy[2 * i] - xy[2 * j];
-      const dy = xy[2 * i + 1] - xy[2 * j + 1];
-      const e = Math.hypot(dx, dy);
+    for (let t = 0; t < nb.found[i]; t++) {
+      const j = nb.idx[i * nb.k + t];
+      const e = Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]);
       if (e < best) best = e;
     }
     d.push(best);

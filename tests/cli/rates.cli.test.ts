@@ -37,6 +37,18 @@ describe('tilth plan / rates / tables', () => {
     expect(d.placements.find((p: { placement: string }) => p.placement === 'seed_row').products.map((q: { product: string }) => q.product)).toEqual(['map']);
   });
 
+  it('every crop starter plan runs on a typical soil with exit 0, peas included', () => {
+    // common practice (agronomy.md): inoculated peas need no N; no urea-type N with pea seed, MAP within its P limit
+    for (const crop of ['canola', 'wheat', 'barley', 'malt_barley', 'peas']) {
+      const file = join(dir, `${crop}.yaml`);
+      writeFileSync(file, tilth(['plan', 'init', '--crop', crop]).stdout);
+      const r = tilth(['rates', '--plan', file, '--soil', 'no3=25,p=8,k=140,s=12,om=4,texture=heavy', '--json']);
+      expect(r.code, `${crop}: ${r.stderr}`).toBe(0);
+      const d = JSON.parse(r.stdout);
+      expect(d.seedRow.applied.p2o5, crop).toBeGreaterThan(0);
+    }
+  });
+
   it('tables prints editable YAML that --tables reads back', () => {
     const t = tilth(['tables']);
     expect(t.code).toBe(0);

@@ -13,7 +13,8 @@ import { read as readShp } from 'shapefile';
 import { unzipSync } from 'fflate';
 import geodesic from 'geographiclib-geodesic';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
-import { writeShapefile, encodeDbf, shortFieldNames, shortFileNames, prjText, parseCrs, prescriptionFiles, type ColumnSpec } from '../../src/io/shapefile/index.js';
+import { writeShapefile, encodeDbf, shortFieldNames, shortFileNames, prescriptionFiles, type ColumnSpec } from '../../src/io/shapefile/index.js';
+import { prjText, readPrj } from '../../src/geo/crs.js';
 import { zipFiles, readZip, isSafeEntryName } from '../../src/io/zip.js';
 import { utmZoneFor } from '../../src/geo/utm.js';
 import { requireTool } from '../helpers/tools.js';
@@ -141,7 +142,7 @@ describe('prj', () => {
       const out = join(dir, `prj${epsg}.shp`);
       sh('ogr2ogr', ['-t_srs', `EPSG:${epsg}`, out, gj]);
       expect(prjText(zone)).toBe(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'));
-      expect(parseCrs(prjText(zone)).epsg).toBe(epsg);
+      expect(readPrj(prjText(zone)).epsg).toBe(epsg);
     }
   });
   it.skipIf(!requireTool('ogr2ogr', 'gdal-bin'))('recognises the .prj GDAL 3.6.2 writes for NAD83 (EPSG:4269, 26913) and NAD83(CSRS) UTM 13N (EPSG:2957)', () => {
@@ -155,9 +156,9 @@ describe('prj', () => {
     for (const epsg of [4269, 26913, 2957]) {
       const out = join(dir, `nad${epsg}.shp`);
       sh('ogr2ogr', ['-t_srs', `EPSG:${epsg}`, out, gj]);
-      expect(parseCrs(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'))).toMatchObject(want[epsg]);
+      expect(readPrj(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'))).toMatchObject(want[epsg]);
     }
-    expect(parseCrs('PROJCS["Some_Local_Grid",GEOGCS["GCS_Other",DATUM["D_Other",SPHEROID["x",6378000,300]]],PROJECTION["Lambert"]]').kind).toBeNull();
+    expect(readPrj('PROJCS["Some_Local_Grid",GEOGCS["GCS_Other",DATUM["D_Other",SPHEROID["x",6378000,300]]],PROJECTION["Lambert"]]').kind).toBeNull();
   });
 });
 

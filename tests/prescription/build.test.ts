@@ -6,7 +6,7 @@ import { parse as parseYaml, stringify } from 'yaml';
 import { buildPrescription } from '../../src/prescription/index.js';
 import { prescriptionGeojson, zonesCsv } from '../../src/prescription/outputs.js';
 import { parsePlan, defaultTables } from '../../src/agronomy/index.js';
-import { prepareInputs } from '../../src/validate/inputs.js';
+import { fieldInputs } from '../helpers/inputs.js';
 import { M2_PER_AC } from '../../src/units/index.js';
 import { ROOT } from '../helpers/cli.js';
 
@@ -14,11 +14,12 @@ const src = (dir: string, f: string) => ({ name: f, bytes: readFileSync(join(ROO
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
 const withPlan = (edit: (p: Record<string, any>) => void) => { const p = parseYaml(PLAN); edit(p); return stringify(p); };
 
+const inputs = await fieldInputs(src('quarter', 'samples.csv'), src('quarter', 'boundary.geojson'));
+
 describe('buildPrescription on the demo quarter', () => {
   const tables = defaultTables();
-  const inputs = prepareInputs(src('quarter', 'samples.csv'), src('quarter', 'boundary.geojson'));
   for (const sets of ['shared', 'per_product'] as const) {
-    it(`${sets} zone sets: zones cover the field once, every sample in exactly one zone`, () => {
+    it(`${sets} zone sets: zones cover the field once, every sample in exactly one zone`, async () => {
       const plan = parsePlan(withPlan((p) => { p.zoning.zone_sets = sets; }), 'plan.yaml', tables);
       const rx = buildPrescription(inputs, plan, tables, { cell: 5 });
       expect(rx.zoneSets.length).toBe(sets === 'shared' ? 1 : new Set(plan.products.map((p) => p.product)).size);
@@ -59,8 +60,8 @@ describe('buildPrescription on the demo quarter', () => {
     });
   }
 
-  it('zone-composite field: the zones are the sampled polygons', () => {
-    const zin = prepareInputs(src('zoned', 'samples.geojson'), src('zoned', 'boundary.geojson'), src('zoned', 'zones.geojson'));
+  it('zone-composite field: the zones are the sampled polygons', async () => {
+    const zin = await fieldInputs(src('zoned', 'samples.geojson'), src('zoned', 'boundary.geojson'), src('zoned', 'zones.geojson'));
     const plan = parsePlan(PLAN, 'plan.yaml', tables);
     const rx = buildPrescription(zin, plan, tables);
     expect(rx.sampled).toBe(true);

@@ -14,7 +14,7 @@ import { buildPrescription, productRate, usedPairs, type Prescription } from '..
 import { prescriptionGeojson, rateColumn } from '../../src/prescription/outputs.js';
 import { prescriptionTaskDataFiles } from '../../src/prescription/taskdata.js';
 import { parsePlan, defaultTables } from '../../src/agronomy/index.js';
-import { prepareInputs } from '../../src/validate/inputs.js';
+import { fieldInputs } from '../helpers/inputs.js';
 import { projector } from '../../src/geo/utm.js';
 import { labelPoint } from '../../src/report/maps.js';
 import { zipFiles } from '../../src/io/zip.js';
@@ -29,7 +29,7 @@ const tables = defaultTables();
 const src = (f: string) => ({ name: f, bytes: readFileSync(join(ROOT, 'sample-fields/quarter', f)) });
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
 const plan = (edit: (p: Record<string, any>) => void = () => {}) => { const p = parseYaml(PLAN); edit(p); return parsePlan(stringify(p), 'plan.yaml', tables); };
-const inputs = prepareInputs(src('samples.csv'), src('boundary.geojson'));
+const inputs = await fieldInputs(src('samples.csv'), src('boundary.geojson'));
 
 /** Parses a TASKDATA folder (as a zip, the way isoxml reads grid files) with the isoxml library. */
 async function outside(files: Record<string, Uint8Array>): Promise<ISOXMLManager> {

@@ -8,7 +8,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { formatAsc, readAsc, utmPrj } from '../../src/surface/asc.js';
+import { formatAsc, readAsc } from '../../src/surface/asc.js';
+import { prjText } from '../../src/geo/crs.js';
 import { requireTool } from '../helpers/tools.js';
 
 const dec = new TextDecoder();
@@ -46,7 +47,7 @@ describe.skipIf(!requireTool('gdalinfo', 'gdal-bin'))('GDAL reads the .asc and .
       const g = { xmin: 412340, ymax: 5761230, cell: 5, cols: 4, rows: 3 };
       const vals = [1.5, 2.25, NaN, 4, 5, 6.125, 7, 8, 9, 10.5, 11, 12];
       writeFileSync(join(tmp, 'p.asc'), formatAsc(g, vals));
-      writeFileSync(join(tmp, 'p.prj'), utmPrj({ zone: 13, south: false }));
+      writeFileSync(join(tmp, 'p.prj'), prjText({ zone: 13, south: false }));
       const r = spawnSync('gdalinfo', ['-json', join(tmp, 'p.asc')], { encoding: 'utf8' });
       expect(r.status, r.stderr).toBe(0);
       const info = JSON.parse(r.stdout);
@@ -61,7 +62,7 @@ describe.skipIf(!requireTool('gdalinfo', 'gdal-bin'))('GDAL reads the .asc and .
       expect(xyz[0]).toEqual([412342.5, 5761227.5, 1.5]);
       expect(xyz.map((p) => p[2])).toEqual(vals.map((v) => (Number.isNaN(v) ? -9999 : v)));
       // south zone: false northing 10 000 000
-      writeFileSync(join(tmp, 'p.prj'), utmPrj({ zone: 55, south: true }));
+      writeFileSync(join(tmp, 'p.prj'), prjText({ zone: 55, south: true }));
       const s = JSON.parse(spawnSync('gdalinfo', ['-json', join(tmp, 'p.asc')], { encoding: 'utf8' }).stdout);
       expect(s.coordinateSystem.wkt).toMatch(/^PROJCRS\["WGS 84 \/ UTM zone 55S"/);
     } finally {

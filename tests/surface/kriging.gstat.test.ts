@@ -11,6 +11,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { krigingSurface, type KrigingModel } from '../../src/surface/kriging.js';
 import { krigingAtPoints, krigingCv } from '../../src/surface/krigingCv.js';
+import { chanceBelowAt } from '../../src/surface/probability.js';
 import { requireTool } from '../helpers/tools.js';
 import { ROOT } from '../helpers/cli.js';
 
@@ -130,4 +131,25 @@ describe('ordinary kriging matches R gstat krige / krige.cv to 1e-6 relative', (
       rmSync(dir, { recursive: true, force: true });
     }
   }, 300_000); // R starts slowly on a busy machine
+});
+
+describe('chance below a threshold agrees with gstat conditional simulation', () => {
+  it('invented S field, exponential model, all 64 samples as neighbours: P(S < 20) vs the share of 2000 gstat simulations below 20', () => {
+    const m = meta().models['sim-exp12'];
+    const sim = simData();
+    const ref = readCsv(join(FIX, 'condsim-sim-exp-below20.csv'));
+    const k = krigingAtPoints(sim.xy, sim.z, xyOf(ref), m, { neighbours: 64 });
+    let chi = 0;
+    for (let i = 0; i < ref.x.length; i++) {
+      const p = chanceBelowAt(k.mean[i], k.variance[i], 20);
+      const nsim = ref.nsim[i];
+      // binomial sampling error of the simulated share; 4 standard errors (+ one simulation) per location
+      const se = Math.sqrt(Math.max(p * (1 - p), 1 / nsim) / nsim);
+      expect(Math.abs(p - ref.below20[i]), `location ${i}: tilth ${p} vs gstat share ${ref.below20[i]}`).toBeLessThanOrEqual(4 * se + 1 / nsim);
+      chi += (p - ref.below20[i]) ** 2 / (se * se);
+    }
+    // overall: the squared standardized differences add up like a chi-square with 40 degrees of freedom
+    // (99.9th percentile 73.4); a systematic error (e.g. a wrong variance) would push it far above
+    expect(chi).toBeLessThan(73.4);
+  });
 });

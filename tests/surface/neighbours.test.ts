@@ -11,6 +11,7 @@ import { idwSurface, idwSurfaces } from '../../src/surface/idw.js';
 import { crossValidate, crossValidateMany } from '../../src/surface/crossValidate.js';
 import { nutrientSurface, nutrientSurfaces } from '../../src/surface/nutrientSurface.js';
 import { fieldGrid } from '../../src/surface/grid.js';
+import { medianNearest } from '../../src/variability/sampling.js';
 import { orient } from '../../src/geo/field.js';
 import { ANALYTES, type Analyte } from '../../src/types.js';
 
@@ -113,5 +114,23 @@ describe('shared search = one search per surface, bit for bit', () => {
     const list: Analyte[] = ['no3_n', 'p', 'k', 'so4_s', 'om'];
     const shared = nutrientSurfaces(samples, list, grid);
     list.forEach((a, i) => expect(shared[i]).toEqual(nutrientSurface(samples, a, grid)));
+  });
+});
+
+describe('medianNearest (variability) on the shared search', () => {
+  it('equals a brute-force scan of every pair (Math.hypot), duplicates and lattice ties included', () => {
+    fc.assert(fc.property(fc.integer({ min: 2, max: 150 }), fc.integer({ min: 1, max: 2 ** 30 }), (n, seed) => {
+      const { xy } = setup(n, seed, 15, 15, 4);
+      if (n > 3) { xy[2] = xy[0]; xy[3] = xy[1]; } // two samples at one place
+      const d: number[] = [];
+      for (let i = 0; i < n; i++) {
+        let best = Infinity;
+        for (let j = 0; j < n; j++) if (j !== i) best = Math.min(best, Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]));
+        d.push(best);
+      }
+      d.sort((a, b) => a - b);
+      const want = n % 2 ? d[(n - 1) / 2] : (d[n / 2 - 1] + d[n / 2]) / 2;
+      expect(medianNearest(xy)).toBe(want);
+    }), { numRuns: 80, seed: 25 });
   });
 });

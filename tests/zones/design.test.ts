@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { parse as parseYaml, stringify } from 'yaml';
 import { buildPrescription, productRate, usedPairs, type ZoneSetResult } from '../../src/prescription/index.js';
 import { defaultTables, parsePlan } from '../../src/agronomy/index.js';
-import { prepareInputs } from '../../src/validate/inputs.js';
+import { fieldInputs } from '../helpers/inputs.js';
 import { M2_PER_AC } from '../../src/units/index.js';
 import { mulberry32 } from '../../src/stats/random.js';
 import { ROOT } from '../helpers/cli.js';
@@ -41,8 +41,8 @@ function expectMeaningfulPairs(set: ZoneSetResult, cols: number): void {
 }
 
 describe('zones worth a boundary', () => {
-  it('demo quarter, the demo plan: 3-6 zones, each at least one grid sample\'s area, every neighbouring pair meaningfully different', () => {
-    const inputs = prepareInputs(src('samples.csv'), src('boundary.geojson'));
+  it('demo quarter, the demo plan: 3-6 zones, each at least one grid sample\'s area, every neighbouring pair meaningfully different', async () => {
+    const inputs = await fieldInputs(src('samples.csv'), src('boundary.geojson'));
     const rx = buildPrescription(inputs, parsePlan(PLAN, 'plan.yaml', tables), tables, { cell: 5 });
     const set = rx.zoneSets[0];
     expect(set.zones.length).toBeGreaterThanOrEqual(3);
@@ -62,7 +62,7 @@ describe('zones worth a boundary', () => {
   // 100 m apart. Olsen P runs from 5 ppm (west) to 32 ppm (east): it crosses the 10 and 20 ppm classes, a real
   // difference in MAP. Nitrate moves 3 lb/ac north to south (below the nitrate map's error), every value with
   // seeded lab noise.
-  function heldOut(pTrend: boolean) {
+  async function heldOut(pTrend: boolean) {
     const rnd = mulberry32(20261202);
     const lat0 = 52.1, lon0 = -106.5, dLat = 1 / 111_320, dLon = 1 / (111_320 * Math.cos((lat0 * Math.PI) / 180));
     const ll = (x: number, y: number) => [lon0 + x * dLon, lat0 + y * dLat];
@@ -78,12 +78,12 @@ describe('zones worth a boundary', () => {
       const no3 = 30 + (3 * y) / 800 + (rnd() - 0.5) * 4;
       rows.push(`T-${++k},${lat.toFixed(7)},${lon.toFixed(7)},0-24,${no3.toFixed(0)},${(p + (rnd() - 0.5) * 2).toFixed(1)},${(380 + (rnd() - 0.5) * 40).toFixed(0)},${(30 + (rnd() - 0.5) * 6).toFixed(0)},3.5,medium`);
     }
-    const inputs = prepareInputs({ name: 'samples.csv', bytes: Buffer.from(rows.join('\n')) }, { name: 'boundary.geojson', bytes: Buffer.from(JSON.stringify(boundary)) });
+    const inputs = await fieldInputs({ name: 'samples.csv', bytes: Buffer.from(rows.join('\n')) }, { name: 'boundary.geojson', bytes: Buffer.from(JSON.stringify(boundary)) });
     return { ...buildPrescription(inputs, planWith(() => {}), tables, { cell: 5 }), nSamples: k };
   }
 
-  it('held-out field: the strong P trend gives zones split by MAP rate, the weak nitrate trend and the noise give none', () => {
-    const rx = heldOut(true);
+  it('held-out field: the strong P trend gives zones split by MAP rate, the weak nitrate trend and the noise give none', async () => {
+    const rx = await heldOut(true);
     const set = rx.zoneSets[0];
     expect(set.zones.length).toBeGreaterThanOrEqual(2);
     expect(set.zones.length).toBeLessThanOrEqual(4);
@@ -102,8 +102,8 @@ describe('zones worth a boundary', () => {
     expect(set.design!.minArea.perSampleM2 / M2_PER_AC).toBeCloseTo(rx.field.areaAc / rx.nSamples, 3);
   }, 120_000);
 
-  it('held-out field without the P trend: one zone (weak trend and lab noise dropped)', () => {
-    const rx = heldOut(false);
+  it('held-out field without the P trend: one zone (weak trend and lab noise dropped)', async () => {
+    const rx = await heldOut(false);
     expect(rx.zoneSets[0].zones.length).toBe(1);
   }, 120_000);
 });

@@ -1,8 +1,8 @@
 /** ESRI shapefile writing and reading for zone polygons (see docs/formats.md). */
 export { writeShapefile, resolveColumns, baseFileName, type ColumnSpec, type ResolvedColumn, type ShapefileOptions } from './write.js';
-export { encodePolygons, inspectShp, ringsBbox, type ShpPolygon, type ShpLayout } from './shp.js';
+export { encodePolygons, inspectShp, type ShpPolygon, type ShpLayout } from './shp.js';
 export { encodeDbf, inspectDbf, formatNumber, type DbfField, type DbfHeader } from './dbf.js';
-export { prjText, parseCrs, type CrsInfo } from './prj.js';
 export { shortFieldNames, shortFileNames } from './names.js';
-export { readShapefile, type ShapefileBytes, type ShapefileRead } from './read.js';
+export { readShapefile, encodingFromCpg, type ShapefileBytes, type ShapefileRead } from './read.js';
+export { shapefileLonLat, shapefilePoints, shapefilePolygons } from './lonlat.js';
 export { prescriptionFiles, type RxRate, type RxZoneProperties, type LayoutOptions, type RateColumn, RX_UNITS, type RxUnit } from './layout.js';

@@ -1,14 +1,15 @@
 /**
- * Reading a shapefile set that any program may have written, for `tilth check`: header and
- * record counts are checked here first, then the `shapefile` package decodes geometry and attributes.
+ * The one ESRI shapefile reader, for inputs and for `tilth check`: the header and record counts of the .shp,
+ * .shx and .dbf are checked first (a truncated copy is named, never read short), then the `shapefile` package
+ * decodes geometry and attributes. Coordinates stay as the file has them; `shapefileLonLat` (./lonlat.ts) turns
+ * them into WGS 84 longitude/latitude. Takes bytes, never paths.
  */
 import type { Feature } from 'geojson';
-import { read as readShp } from 'shapefile';
 import { UserError } from '../../errors.js';
 import { inspectDbf, type DbfField, type DbfHeader } from './dbf.js';
 import { inspectShp } from './shp.js';
 
-/** The files of one set, by extension (lower case, no dot). */
+/** The files of one shapefile set: .shp required; .shx, .dbf, .prj, .cpg as found beside it. */
 export interface ShapefileBytes {
   shp: Uint8Array;
   shx?: Uint8Array;
@@ -19,14 +20,39 @@ export interface ShapefileBytes {
 
 /** A shapefile set as read: features in the file's own coordinates, columns and raw column text. */
 export interface ShapefileRead {
+  /** the .shp name, for messages */
+  file: string;
+  /** shape type from the .shp header (1 Point, 3 PolyLine, 5 Polygon, 8 MultiPoint ...) */
+  shapeType: number;
   features: Feature[];
+  /** the .dbf columns (none without a .dbf) */
   fields: DbfField[];
-  /** .prj text, or null when there is none */
+  /** .prj text, or null when there is none (or it is blank) */
   prj: string | null;
-  /** per column name: the raw text of each record (trimmed), for checking values the reader turned into null */
+  /** per column name: the raw text of each record (trimmed), to tell "blank" from "text the reader dropped" */
   rawText: Record<string, string[]>;
-  /** ring coordinates per record straight from the .shp bytes (file winding, before any reader repairs it) */
-  rings: Float64Array[][];
+}
+
+/**
+ * Text encoding for the .dbf from a .cpg ("UTF-8", "1252", "ISO-8859-1" ...); windows-1252 without one.
+ * @example encodingFromCpg('1252') // 'windows-1252'
+ */
+export function encodingFromCpg(cpg: string | undefined): string {
+  if (!cpg || !cpg.trim()) return 'windows-1252';
+  const c = cpg.trim().toLowerCase();
+  if (/^utf-?8$/.test(c)) return 'utf-8';
+  if (/^\d+$/.test(c)) return c === '65001' ? 'utf-8' : `windows-${c}`;
+  if (/^(iso[-_ ]?)?8859[-_ ]?(\d+)$/.test(c)) return `iso-8859-${/(\d+)$/.exec(c)![1]}`;
+  return c;
+}
+
+/** A decoder for the .cpg's encoding; one the platform does not know reads as windows-1252. */
+function decoder(encoding: string): { decode(b: Uint8Array): string } {
+  try {
+    return new TextDecoder(encoding);
+  } catch {
+    return new TextDecoder('windows-1252');
+  }
 }
 
 function toArrayBuffer(u: Uint8Array): ArrayBuffer {
@@ -52,47 +78,66 @@ function rawColumns(bytes: Uint8Array, h: DbfHeader, decoder: { decode(b: Uint8A
   return out;
 }
 
-/**
- * Reads a polygon shapefile set from bytes. Throws UserError (naming `label`) for: a truncated or
- * inconsistent .shp, a .shx or .dbf whose record count differs from the .shp, a missing .dbf,
- * or a shape type other than Polygon. Text is decoded as UTF-8 when the .cpg says so, else as windows-1252.
- *
- * @param files the set's files
- * @param label the .shp file name for messages
- * @example const set = await readShapefile({ shp, dbf, prj }, 'rx.shp')
- */
-export async function readShapefile(files: ShapefileBytes, label: string): Promise<ShapefileRead> {
+/** Checks the .shp, .shx and .dbf headers against each other; returns the .dbf header (null without a .dbf). */
+function checkSet(files: ShapefileBytes, label: string): { records: number; shapeType: number; dbf: DbfHeader | null } {
   const base = label.replace(/\.shp$/i, '');
-  const layout = inspectShp(files.shp);
-  if (typeof layout === 'string') throw new UserError(`${label}: not a readable shapefile: ${layout}. Fix: export the prescription again (the copy may be incomplete).`, { file: label });
-  if (layout.shapeType !== 5) {
-    throw new UserError(`${label}: holds shape type ${layout.shapeType}, not polygons (type 5). Fix: give the zone polygons of the prescription, not points or lines.`, { file: label, value: layout.shapeType });
+  if (files.shp.length === 0) throw new UserError(`${label}: the .shp file is empty (0 bytes). Fix: export the layer again.`, { file: label });
+  if (files.dbf && files.dbf.length === 0) {
+    throw new UserError(
+      `${label}: the .dbf file beside it is empty (0 bytes), so the attributes are lost. Fix: export the layer again, or copy the whole set of files (.shp, .shx, .dbf, .prj, .cpg).`,
+      { file: label },
+    );
   }
+  const layout = inspectShp(files.shp);
+  if (typeof layout === 'string') throw new UserError(`${label}: not a readable shapefile: ${layout}. Fix: export the layer again (the copy may be incomplete).`, { file: label });
   if (files.shx) {
     const shxRecords = (files.shx.length - 100) / 8;
     if (shxRecords !== layout.records) {
-      throw new UserError(`${base}.shx: lists ${shxRecords} records but ${label} holds ${layout.records}. Fix: export the prescription again; the files of the set do not belong together.`, { file: `${base}.shx` });
+      throw new UserError(`${base}.shx: lists ${shxRecords} records but ${label} holds ${layout.records}. Fix: export the layer again; the files of the set do not belong together.`, { file: `${base}.shx` });
     }
   }
-  if (!files.dbf) throw new UserError(`${label}: the attribute table ${base}.dbf is missing, so there are no rates. Fix: copy the .dbf beside the .shp (same name).`, { file: label });
+  if (!files.dbf) return { records: layout.records, shapeType: layout.shapeType, dbf: null };
   const h = inspectDbf(files.dbf);
-  if (typeof h === 'string') throw new UserError(`${base}.dbf: not a readable dBASE table: ${h}. Fix: export the prescription again.`, { file: `${base}.dbf` });
+  if (typeof h === 'string') throw new UserError(`${base}.dbf: not a readable dBASE table: ${h}. Fix: export the layer again.`, { file: `${base}.dbf` });
   if (h.records !== layout.records) {
-    throw new UserError(`${base}.dbf: holds ${h.records} records but ${label} holds ${layout.records} shapes; every zone needs exactly one row. Fix: export the prescription again; the files of the set do not belong together.`, { file: `${base}.dbf`, value: h.records });
+    throw new UserError(
+      `${base}.dbf: holds ${h.records} records but ${label} holds ${layout.records} shapes; every shape needs exactly one row. Fix: export the layer again; the files of the set do not belong together.`,
+      { file: `${base}.dbf`, value: h.records },
+    );
   }
-  const cpg = files.cpg ? new TextDecoder().decode(files.cpg).trim() : '';
-  const encoding = /^(UTF-?8|65001)$/i.test(cpg) ? 'utf-8' : 'windows-1252';
+  return { records: layout.records, shapeType: layout.shapeType, dbf: h };
+}
+
+/**
+ * Reads a shapefile set from bytes. Throws UserError (naming `label`) for an empty, truncated or inconsistent
+ * .shp, a .shx or .dbf whose record count differs from the .shp, or a set the `shapefile` package cannot decode.
+ * Text is decoded by the .cpg (windows-1252 without one). The shape type and the .dbf's presence are the
+ * caller's to judge.
+ *
+ * @param files the set's files
+ * @param label the .shp file name for messages
+ * @example const set = await readShapefile({ shp, dbf, prj }, 'rx.shp'); set.features.length
+ */
+export async function readShapefile(files: ShapefileBytes, label: string): Promise<ShapefileRead> {
+  const { shapeType, dbf } = checkSet(files, label);
+  const cpg = files.cpg ? new TextDecoder().decode(files.cpg) : undefined;
+  const encoding = encodingFromCpg(cpg);
+  // loaded only when a shapefile is read: the package and its text-encoding polyfill cost about 0.1 s of
+  // start-up for every command otherwise (docs/performance.md)
+  const shapefile = await import('shapefile');
   let fc;
   try {
-    fc = await readShp(toArrayBuffer(files.shp), toArrayBuffer(files.dbf), { encoding });
+    fc = await shapefile.read(toArrayBuffer(files.shp), files.dbf ? toArrayBuffer(files.dbf) : undefined, { encoding });
   } catch (e) {
-    throw new UserError(`${label}: cannot be decoded (${(e as Error).message}). Fix: export the prescription again.`, { file: label });
+    throw new UserError(`${label}: cannot be read as a shapefile (${(e as Error).message}). Fix: export the layer again.`, { file: label });
   }
+  const prj = files.prj ? new TextDecoder().decode(files.prj) : '';
   return {
+    file: label,
+    shapeType,
     features: fc.features,
-    fields: h.fields,
-    prj: files.prj ? new TextDecoder().decode(files.prj) : null,
-    rawText: rawColumns(files.dbf, h, new TextDecoder(encoding)),
-    rings: layout.rings,
+    fields: dbf?.fields ?? [],
+    prj: prj.trim() ? prj : null,
+    rawText: files.dbf && dbf ? rawColumns(files.dbf, dbf, decoder(encoding)) : {},
   };
 }

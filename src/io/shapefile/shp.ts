@@ -20,9 +20,6 @@ function contentBytes(rings: ShpPolygon): number {
   return 44 + 4 * rings.length + 16 * pts;
 }
 
-/** [xmin, ymin, xmax, ymax] of rings (src/geo/area.ts); NaN-free input assumed. */
-export { ringsBbox };
-
 function writeHeader(v: DataView, lengthWords: number, bbox: [number, number, number, number]): void {
   v.setInt32(0, FILE_CODE, false);
   v.setInt32(24, lengthWords, false);

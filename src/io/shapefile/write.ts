@@ -9,7 +9,7 @@ import { projector, utmZoneFor } from '../../geo/utm.js';
 import { ringArea } from '../../geo/area.js';
 import { encodePolygons, type ShpPolygon } from './shp.js';
 import { encodeDbf, type DbfField } from './dbf.js';
-import { prjText } from './prj.js';
+import { prjText } from '../../geo/crs.js';
 import { shortFieldNames, shortFileNames } from './names.js';
 
 /** One attribute column to write, taken from each feature's `properties[key]`. */
