@@ -1,7 +1,12 @@
 /** `tilth build`: the whole prescription from samples, boundary and plan, written into one folder. */
 import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
-import { buildPrescription } from '../prescription/index.js';
+import { buildPrescription, defaultCell } from '../prescription/index.js';
+import { checkBuildCells, checkBoundaryVertices } from './safety/budgets.js';
+import { readinessProblems } from './safety/readiness.js';
+import { UserError } from '../errors.js';
+import type { FieldInputs } from '../types.js';
+import type { Plan } from '../agronomy/index.js';
 import { prescriptionFolder } from '../prescription/folder.js';
 import { provenance } from '../prescription/provenance.js';
 import { summaryText } from '../prescription/outputs.js';
@@ -34,11 +39,14 @@ export function register(program: Command): void {
       const term = createTerminal({ quiet: o.quiet });
       const tables = tablesFromOption(o.tables);
       const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
+      const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
       term.line('reading and checking the inputs ...');
       const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
       if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
+      refuseUnfit(inputs, plan, o.samples, o.boundary);
+      checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
       const bars = progressBars(term);
-      const rx = buildPrescription(inputs, plan, tables, { cell: numberOption('--cell', o.cell, { min: 0.1 }), onProgress: bars.update });
+      const rx = buildPrescription(inputs, plan, tables, { cell, onProgress: bars.update });
       bars.finish();
       const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const).filter((k) => o[k]).map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
       const { files, summary } = prescriptionFolder(rx, inputs, tables, { provenance: provenance(named), tablesEdited: !!o.tables, onStep: (s) => term.line(s) });
@@ -66,4 +74,11 @@ function progressBars(term: Terminal): { update: (step: string, done: number) =>
     },
     finish: () => task?.done(),
   };
+}
+
+/** Refuses, before the work, inputs that cannot make a prescription (src/cli/safety/readiness.ts) or a boundary over the vertex budget. */
+function refuseUnfit(inputs: FieldInputs, plan: Plan, samplesFile: string, boundaryFile: string): void {
+  checkBoundaryVertices(inputs.field, boundaryFile);
+  const problems = readinessProblems(inputs, plan, samplesFile);
+  if (problems.length) throw new UserError(`cannot make a prescription from these inputs:\n  ${problems.join('\n  ')}`);
 }
