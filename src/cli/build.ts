@@ -1,21 +1,19 @@
 /** `tilth build`: the whole prescription from samples, boundary and plan, written into one folder. */
-import { createHash } from 'node:crypto';
 import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
-import { buildPrescription } from '../prescription/index.js';
-import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, summaryText, zonesCsv, type Provenance } from '../prescription/outputs.js';
-import { reportInput } from '../prescription/reportInput.js';
-import { prescriptionFiles } from '../io/shapefile/index.js';
-import { zipFiles } from '../io/zip.js';
-import { prescriptionTaskDataFiles } from '../prescription/taskdata.js';
-import { renderReport, serializeReportInput } from '../report/index.js';
-import { inputsHash } from './report.js';
-import { VERSION } from '../version.js';
+import { buildPrescription, defaultCell } from '../prescription/index.js';
+import { checkBuildCells, checkBoundaryVertices } from './safety/budgets.js';
+import { readinessProblems } from './safety/readiness.js';
+import { UserError } from '../errors.js';
+import type { FieldInputs } from '../types.js';
+import type { Plan } from '../agronomy/index.js';
+import { prescriptionFolder } from '../prescription/folder.js';
+import { provenance } from '../prescription/provenance.js';
+import { summaryText } from '../prescription/outputs.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { tablesFromOption } from './plan.js';
 import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
-import { createTerminal, type Task } from './progress.js';
-import { buildSulphurCharts } from '../variability/index.js';
+import { createTerminal, type Task, type Terminal } from './progress.js';
 
 interface BuildFlags {
   samples: string; boundary: string; zones?: string; plan: string; tables?: string; out: string;
@@ -39,72 +37,23 @@ export function register(program: Command): void {
       const inputFiles = [o.samples, o.boundary, o.plan, o.zones, o.tables].filter((f): f is string => !!f);
       checkOutputDir(o.out, { force: o.force, inputs: inputFiles }); // before any work: a long build should not end in a refusal
       const term = createTerminal({ quiet: o.quiet });
-      const say = (s: string) => term.line(s);
       const tables = tablesFromOption(o.tables);
-      const planText = readInput(o.plan, 'plan').toString('utf8');
-      const plan = parsePlan(planText, o.plan, tables);
-      say('reading and checking the inputs ...');
+      const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
+      const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
+      term.line('reading and checking the inputs ...');
       const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
       if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
-      let last = '';
-      let task: Task | null = null;
-      const rx = buildPrescription(inputs, plan, tables, {
-        cell: numberOption('--cell', o.cell, { min: 0.1 }),
-        onProgress: (step, done) => {
-          if (step !== last) { task?.done(); last = step; task = term.task(step, 100); }
-          task!.update(Math.round(done * 100), 100);
-        },
-      });
-      (task as Task | null)?.done();
-      const hash = (s: string | Buffer) => createHash('sha256').update(s).digest('hex');
-      const named: { name: string; bytes: Uint8Array }[] = [
-        { name: 'samples', bytes: readInput(o.samples, 'samples') },
-        { name: 'boundary', bytes: readInput(o.boundary, 'boundary') },
-        { name: 'plan', bytes: Buffer.from(planText, 'utf8') },
-      ];
-      if (o.zones) named.push({ name: 'zones', bytes: readInput(o.zones, 'zones') });
-      if (o.tables) named.push({ name: 'tables', bytes: readInput(o.tables, 'tables') });
-      const prov: Provenance = { tilth: VERSION, created: new Date().toISOString(), inputs: Object.fromEntries(named.map((f) => [f.name, hash(Buffer.from(f.bytes))])), id: inputsHash(named) };
-      const files = new Map<string, string | Uint8Array>();
-      for (const set of rx.zoneSets) files.set(geojsonName(rx, set), prescriptionGeojson(rx, set));
-      files.set('zones.csv', zonesCsv(rx));
-      const summary = summaryObject(rx, prov);
-      files.set('summary.json', JSON.stringify(summary, null, 2) + '\n');
-      if (plan.output.formats.includes('shapefile')) say('writing shapefiles ...');
-      for (const set of plan.output.formats.includes('shapefile') ? rx.zoneSets : []) {
-        const fc = shapefileFeatures(rx, set);
-        if (fc.features.length === 0) continue;
-        const shp = prescriptionFiles(fc, {
-          layout: plan.output.shapefile_layout,
-          crs: plan.output.crs === 'utm' ? 'utm' : 'lonlat',
-          utm: rx.field.utm,
-          shortFileNames: plan.output.short_names,
-          prefix: rx.zoneSets.length > 1 ? `rx_${set.name}` : 'rx',
-          title: `${plan.farm ? plan.farm + ', ' : ''}${plan.field || rx.field.name}: ${plan.crop}, zone set ${set.name} (tilth ${VERSION}, inputs ${prov.id})`,
-        });
-        for (const [name, bytes] of Object.entries(shp.files)) files.set(`shapefiles/${name}`, bytes);
-      }
-      if (plan.output.formats.includes('isoxml')) {
-        say('writing ISO 11783-10 task data ...');
-        const td = prescriptionTaskDataFiles(rx, tables, { layout: plan.output.shapefile_layout, grid: plan.output.isoxml_grid, gridCellM: plan.output.isoxml_grid_cell_m ?? undefined });
-        const inFolder = Object.fromEntries(Object.entries(td).map(([n, b]) => [`TASKDATA/${n}`, b]));
-        for (const [n, b] of Object.entries(inFolder)) files.set(n, b);
-        files.set('taskdata.zip', zipFiles(inFolder));
-      }
-      say('drawing the report ...');
-      // the sulphate-S variability charts (issue 8), from the build's own S surface
-      const sSurf = rx.surfaces.find((s) => s.analyte === 'so4_s');
-      const charts = buildSulphurCharts(inputs.samples, inputs.field, tables.crops[plan.crop], plan.strategy.s.method,
-        sSurf ? { grid: sSurf.grid, values: sSurf.values, note: sSurf.choice, zones: sSurf.method === 'zones' } : undefined);
-      const ri = reportInput(rx, inputs, tables, prov, { tablesEdited: !!o.tables, charts });
-      files.set('report-data.json', serializeReportInput(ri));
-      files.set('report.html', renderReport(ri));
+      refuseUnfit(inputs, plan, o.samples, o.boundary);
+      checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
+      const bars = progressBars(term);
+      const rx = buildPrescription(inputs, plan, tables, { cell, onProgress: bars.update });
+      bars.finish();
+      const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const).filter((k) => o[k]).map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
+      const { files, summary } = prescriptionFolder(rx, inputs, tables, { provenance: provenance(named), tablesEdited: !!o.tables, onStep: (s) => term.line(s) });
       writeOutputDir(o.out, files, { force: o.force, inputs: inputFiles });
-      if (o.json) out(JSON.stringify(summary, null, 2));
-      else out(summaryText(rx));
+      out(o.json ? JSON.stringify(summary, null, 2) : summaryText(rx));
       printWarnings(rx.warnings);
-      const top = [...new Set([...files.keys()].map((f) => f.replace(/\/.*/, '/')))];
-      info(`wrote ${files.size} files to ${o.out}: ${top.join(', ')}`);
+      info(`wrote ${files.size} files to ${o.out}: ${[...new Set([...files.keys()].map((f) => f.replace(/\/.*/, '/')))].join(', ')}`);
       info(CAUTION);
       if (rx.infeasible.length > 0) {
         info(`\n${rx.infeasible.length} zone(s) cannot meet their targets within the plan's limits:`);
@@ -112,4 +61,24 @@ export function register(program: Command): void {
         process.exitCode = 1;
       }
     });
+}
+
+/** One progress bar per build step on stderr. */
+function progressBars(term: Terminal): { update: (step: string, done: number) => void; finish: () => void } {
+  let last = '';
+  let task: Task | null = null;
+  return {
+    update: (step, done) => {
+      if (step !== last) { task?.done(); last = step; task = term.task(step, 100); }
+      task!.update(Math.round(done * 100), 100);
+    },
+    finish: () => task?.done(),
+  };
+}
+
+/** Refuses, before the work, inputs that cannot make a prescription (src/cli/safety/readiness.ts) or a boundary over the vertex budget. */
+function refuseUnfit(inputs: FieldInputs, plan: Plan, samplesFile: string, boundaryFile: string): void {
+  checkBoundaryVertices(inputs.field, boundaryFile);
+  const problems = readinessProblems(inputs, plan, samplesFile);
+  if (problems.length) throw new UserError(`cannot make a prescription from these inputs:\n  ${problems.join('\n  ')}`);
 }

@@ -1,6 +1,5 @@
 /** `tilth report DIR`: re-renders DIR/report.html from the build's DIR/report-data.json. */
 import type { Command } from 'commander';
-import { createHash } from 'node:crypto';
 import { statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { UserError } from '../errors.js';
@@ -14,24 +13,6 @@ const REPORT_OURS = (h: string) => h.includes('<meta name="generator" content="t
 /** File the build writes beside its outputs, and the report it re-renders. */
 export const REPORT_DATA = 'report-data.json';
 export const REPORT_HTML = 'report.html';
-
-/**
- * The short hash printed on the report's title block, so a printed copy can be matched to its files:
- * the first 12 hex digits of SHA-256 over each input's name and bytes (samples, boundary, plan, tables ...),
- * in the order given, each length-prefixed so that moving bytes between files changes the hash.
- * @example inputsHash([{ name: 'plan.yaml', bytes: readFileSync('plan.yaml') }]) // e.g. '3f9a2c1e07b4'
- */
-export function inputsHash(files: readonly { name: string; bytes: Uint8Array }[]): string {
-  const h = createHash('sha256');
-  for (const f of files) {
-    const name = Buffer.from(f.name, 'utf8');
-    const len = Buffer.alloc(16);
-    len.writeBigUInt64BE(BigInt(name.length), 0);
-    len.writeBigUInt64BE(BigInt(f.bytes.length), 8);
-    h.update(len).update(name).update(f.bytes);
-  }
-  return h.digest('hex').slice(0, 12);
-}
 
 export function register(program: Command): void {
   program

@@ -153,7 +153,7 @@ export function summaryText(rx: Prescription): string {
 }
 
 /**
- * A zone set as the shapefile layout's input (src/io/shapefile/layout.ts): per zone `zone_id` and
+ * A zone set as the shapefile layout's input (src/prescription/shapefiles.ts): per zone `zone_id` and
  * `rates` [{ product, placement, rate, unit }], geometry in lon/lat. Zones with no product still appear
  * (all rates 0), so the files cover the whole field.
  */

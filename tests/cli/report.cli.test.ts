@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { tilth } from '../helpers/cli.js';
 import { DEMO_INPUT_PATH } from '../helpers/report-fixture.js';
-import { inputsHash } from '../../src/cli/report.js';
+import { inputsHash } from '../../src/prescription/provenance.js';
 
 function buildDir(): string {
   const d = mkdtempSync(join(tmpdir(), 'tilth-report-'));

@@ -5,4 +5,3 @@ export { encodeDbf, inspectDbf, formatNumber, type DbfField, type DbfHeader } fr
 export { shortFieldNames, shortFileNames } from './names.js';
 export { readShapefile, encodingFromCpg, type ShapefileBytes, type ShapefileRead } from './read.js';
 export { shapefileLonLat, shapefilePoints, shapefilePolygons } from './lonlat.js';
-export { prescriptionFiles, type RxRate, type RxZoneProperties, type LayoutOptions, type RateColumn, RX_UNITS, type RxUnit } from './layout.js';

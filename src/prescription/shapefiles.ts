@@ -1,14 +1,15 @@
 /**
- * Machine layouts of a prescription: which shapefile sets, which rate columns, and a note for people.
+ * The prescription's shapefile sets for the controller: which sets (per placement or per product), which rate
+ * columns, and a note for people. The format itself is written by src/io/shapefile/.
  */
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
-import type { UtmZone } from '../../types.js';
-import { writeShapefile, resolveColumns, baseFileName, type ColumnSpec } from './write.js';
-import { shortFileNames } from './names.js';
-import { zipFiles } from '../zip.js';
-import { groundAreaM2 } from '../../geo/ground-area.js';
-import { m2ToAc, m2ToHa } from '../../units/index.js';
-import { VERSION } from '../../version.js';
+import type { UtmZone } from '../types.js';
+import { writeShapefile, resolveColumns, baseFileName, type ColumnSpec } from '../io/shapefile/write.js';
+import { shortFileNames } from '../io/shapefile/names.js';
+import { zipFiles } from '../io/zip.js';
+import { groundAreaM2 } from '../geo/ground-area.js';
+import { m2ToAc, m2ToHa } from '../units/index.js';
+import { VERSION } from '../version.js';
 
 /** Rate units a prescription may carry, and the short form used in column names. */
 export const RX_UNITS = { 'lb/ac': 'lbac', 'kg/ha': 'kgha', 'US gal/ac': 'galac', 'L/ha': 'lha' } as const;
