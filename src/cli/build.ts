@@ -7,27 +7,58 @@ import { provenance } from '../prescription/provenance.js';
 import { summaryText } from '../prescription/outputs.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { tablesFromOption } from './plan.js';
-import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
+import {
+  CAUTION,
+  checkOutputDir,
+  info,
+  numberOption,
+  out,
+  printWarnings,
+  readInput,
+  writeOutputDir,
+} from './util.js';
 import { createTerminal, type Task, type Terminal } from './progress.js';
 
 interface BuildFlags {
-  samples: string; boundary: string; zones?: string; plan: string; tables?: string; out: string;
-  force?: boolean; json?: boolean; cell?: string; columns?: string; depthFactor?: string; dropOutside?: boolean;
-  pMethod?: 'olsen' | 'kelowna'; assumeWgs84?: boolean; quiet?: boolean;
+  samples: string;
+  boundary: string;
+  zones?: string;
+  plan: string;
+  tables?: string;
+  out: string;
+  force?: boolean;
+  json?: boolean;
+  cell?: string;
+  columns?: string;
+  depthFactor?: string;
+  dropOutside?: boolean;
+  pMethod?: 'olsen' | 'kelowna';
+  assumeWgs84?: boolean;
+  quiet?: boolean;
 }
 
 export function register(program: Command): void {
-  addInputOptions(program
-    .command('build'))
-    .description('Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.')
+  addInputOptions(program.command('build'))
+    .description(
+      'Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.',
+    )
     .requiredOption('--plan <file>', 'plan file (see `tilth plan init`)')
-    .requiredOption('--out <dir>', 'output folder (created; an existing one is replaced only with --force and only when empty or written by tilth)')
+    .requiredOption(
+      '--out <dir>',
+      'output folder (created; an existing one is replaced only with --force and only when empty or written by tilth)',
+    )
     .option('--tables <file>', 'your edited agronomy tables (see `tilth tables`)')
     .option('--cell <m>', 'grid cell size in metres (default: about 200 cells across the field, 1-20 m)')
-    .option('--force', 'replace an earlier tilth output folder (never one holding other files, an input, the current or home folder)')
+    .option(
+      '--force',
+      'replace an earlier tilth output folder (never one holding other files, an input, the current or home folder)',
+    )
     .option('--json', 'print summary.json on stdout for scripts')
     .option('--quiet', 'no progress messages')
-    .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json, report.html;\nshapefiles/ and ISO 11783-10 task data (TASKDATA/ and taskdata.zip) as the plan's output.formats asks.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
+    .addHelpText(
+      'after',
+      `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json, report.html;\nshapefiles/ and ISO 11783-10 task data (TASKDATA/ and taskdata.zip) as the plan's output.formats asks.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`,
+    )
     .action(async (o: BuildFlags) => {
       const inputFiles = [o.samples, o.boundary, o.plan, o.zones, o.tables].filter((f): f is string => !!f);
       checkOutputDir(o.out, { force: o.force, inputs: inputFiles }); // before any work: a long build should not end in a refusal
@@ -38,14 +69,25 @@ export function register(program: Command): void {
       const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
       if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
       const bars = progressBars(term);
-      const rx = buildPrescription(inputs, plan, tables, { cell: numberOption('--cell', o.cell, { min: 0.1 }), onProgress: bars.update });
+      const rx = buildPrescription(inputs, plan, tables, {
+        cell: numberOption('--cell', o.cell, { min: 0.1 }),
+        onProgress: bars.update,
+      });
       bars.finish();
-      const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const).filter((k) => o[k]).map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
-      const { files, summary } = prescriptionFolder(rx, inputs, tables, { provenance: provenance(named), tablesEdited: !!o.tables, onStep: (s) => term.line(s) });
+      const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const)
+        .filter((k) => o[k])
+        .map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
+      const { files, summary } = prescriptionFolder(rx, inputs, tables, {
+        provenance: provenance(named),
+        tablesEdited: !!o.tables,
+        onStep: (s) => term.line(s),
+      });
       writeOutputDir(o.out, files, { force: o.force, inputs: inputFiles });
       out(o.json ? JSON.stringify(summary, null, 2) : summaryText(rx));
       printWarnings(rx.warnings);
-      info(`wrote ${files.size} files to ${o.out}: ${[...new Set([...files.keys()].map((f) => f.replace(/\/.*/, '/')))].join(', ')}`);
+      info(
+        `wrote ${files.size} files to ${o.out}: ${[...new Set([...files.keys()].map((f) => f.replace(/\/.*/, '/')))].join(', ')}`,
+      );
       info(CAUTION);
       if (rx.infeasible.length > 0) {
         info(`\n${rx.infeasible.length} zone(s) cannot meet their targets within the plan's limits:`);
@@ -61,7 +103,11 @@ function progressBars(term: Terminal): { update: (step: string, done: number) =>
   let task: Task | null = null;
   return {
     update: (step, done) => {
-      if (step !== last) { task?.done(); last = step; task = term.task(step, 100); }
+      if (step !== last) {
+        task?.done();
+        last = step;
+        task = term.task(step, 100);
+      }
       task!.update(Math.round(done * 100), 100);
     },
     finish: () => task?.done(),
