@@ -1,6 +1,6 @@
 /**
  * Seeded mutation fuzzing of tilth's readers and commands: `npm run fuzz -- --runs N [--seed S] [--hang-ms T]
- * [--only a,b] [--json out.json]`. Each run is a seed; the same seed reruns the same case (`--seed S --runs 1`).
+ * [--only a,b] [--workers N] [--json out.json]`. The JSON summary is rewritten every 100 runs, so a stopped run leaves its record. Each run is a seed; the same seed reruns the same case (`--seed S --runs 1`).
  * Fails (exit 1) on any crash (an error that is not a UserError), hang (a run past --hang-ms, default 30 s),
  * or an input that must be refused but was accepted. Runs in a worker process that is restarted after a hang and
  * every 250 runs (memory).
@@ -15,7 +15,7 @@ interface Reply { seed: number; target: string; outcome: string; message?: strin
 function args() {
   const a = process.argv.slice(2);
   const get = (k: string, d?: string) => { const i = a.indexOf(k); return i >= 0 ? a[i + 1] : d; };
-  return { runs: Number(get('--runs', '200')), seed: Number(get('--seed', '1')), hangMs: Number(get('--hang-ms', '30000')), only: get('--only')?.split(','), json: get('--json'), quiet: a.includes('--quiet') };
+  return { workers: Math.max(1, Number(get('--workers', '1'))), runs: Number(get('--runs', '200')), seed: Number(get('--seed', '1')), hangMs: Number(get('--hang-ms', '30000')), only: get('--only')?.split(','), json: get('--json'), quiet: a.includes('--quiet') };
 }
 
 function startWorker(): Promise<ChildProcess> {
@@ -37,31 +37,49 @@ function runOne(w: ChildProcess, seed: number, hangMs: number, only?: string[]):
   });
 }
 
+type Counts = Record<string, Record<string, number>>;
+
+function summarise(o: ReturnType<typeof args>, done: number, counts: Counts, bad: Reply[], t0: number, slowest: number, peakRss: number) {
+  return { runs: done, requested: o.runs, firstSeed: o.seed, seconds: Math.round((Date.now() - t0) / 1000), slowestMs: slowest, peakRssMb: peakRss, byTarget: counts, bad: bad.map((b) => ({ seed: b.seed, target: b.target, outcome: b.outcome, message: b.message?.split('\n')[0] })) };
+}
+
+/** One worker's share: seeds seed+i for i = start, start+step, ... */
+async function lane(o: ReturnType<typeof args>, start: number, step: number, record: (r: Reply) => void): Promise<void> {
+  let w = await startWorker();
+  let sinceStart = 0;
+  for (let i = start; i < o.runs; i += step) {
+    if (sinceStart >= 250) { w.disconnect(); w = await startWorker(); sinceStart = 0; }
+    const r = await runOne(w, o.seed + i, o.hangMs, o.only);
+    sinceStart++;
+    record(r);
+    if (r.outcome === 'hang' || r.outcome === 'signal') { w = await startWorker(); sinceStart = 0; }
+  }
+  w.disconnect();
+}
+
 async function main() {
   const o = args();
-  const counts: Record<string, Record<string, number>> = {};
+  const counts: Counts = {};
   const bad: Reply[] = [];
   if (!o.only || o.only.includes('zip-bomb')) ensureBomb();
-  let w = await startWorker();
-  let sinceStart = 0, slowest = 0, peakRss = 0;
+  let done = 0, slowest = 0, peakRss = 0;
   const t0 = Date.now();
-  for (let i = 0; i < o.runs; i++) {
-    const seed = o.seed + i;
-    if (sinceStart >= 250) { w.disconnect(); w = await startWorker(); sinceStart = 0; }
-    const r = await runOne(w, seed, o.hangMs, o.only);
-    sinceStart++;
+  const record = (r: Reply) => {
+    done++;
     slowest = Math.max(slowest, r.ms); peakRss = Math.max(peakRss, r.rssMb);
     const cls = r.outcome === 'accepted' && r.mustRefuse ? 'wrongly-accepted' : r.outcome;
     (counts[r.target] ??= {})[cls] = (counts[r.target]![cls] ?? 0) + 1;
     if (cls === 'crash' || cls === 'hang' || cls === 'signal' || cls === 'wrongly-accepted') {
       bad.push(r);
-      process.stderr.write(`\nseed ${seed} ${r.target}: ${cls}${r.mustRefuse ? ` (${r.mustRefuse})` : ''}\n${r.message ?? ''}\n`);
-      if (cls === 'hang' || cls === 'signal') { w = await startWorker(); sinceStart = 0; }
+      process.stderr.write(`\nseed ${r.seed} ${r.target}: ${cls}${r.mustRefuse ? ` (${r.mustRefuse})` : ''}\n${r.message ?? ''}\n`);
     }
-    if (!o.quiet && (i + 1) % 100 === 0) process.stderr.write(`\r${i + 1}/${o.runs} runs, ${bad.length} bad`);
-  }
-  w.disconnect();
-  const summary = { runs: o.runs, firstSeed: o.seed, seconds: Math.round((Date.now() - t0) / 1000), slowestMs: slowest, peakRssMb: peakRss, byTarget: counts, bad: bad.map((b) => ({ seed: b.seed, target: b.target, outcome: b.outcome, message: b.message?.split('\n')[0] })) };
+    if (done % 100 === 0) {
+      if (!o.quiet) process.stderr.write(`\r${done}/${o.runs} runs, ${bad.length} bad`);
+      if (o.json) writeFileSync(o.json, JSON.stringify(summarise(o, done, counts, bad, t0, slowest, peakRss), null, 2) + '\n');
+    }
+  };
+  await Promise.all(Array.from({ length: o.workers }, (_, k) => lane(o, k, o.workers, record)));
+  const summary = summarise(o, done, counts, bad, t0, slowest, peakRss);
   if (o.json) writeFileSync(o.json, JSON.stringify(summary, null, 2) + '\n');
   process.stdout.write(`\n${JSON.stringify(summary, null, 2)}\n`);
   process.exitCode = bad.length ? 1 : 0;

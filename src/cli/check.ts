@@ -6,6 +6,7 @@ import { checkPrescription, readLayer, DEFAULT_TRANSITION_S, type CheckLayer, ty
 import { isTaskDataXml, layersFromTaskDataFiles } from '../check/taskdata.js';
 import { readZip } from '../io/zip.js';
 import { numberOption, out, readInput } from './util.js';
+import { checkOrder } from './safety/budgets.js';
 
 /** Reads FILE and, for a .shp, the files of its set beside it (same base name, any letter case). */
 export async function loadLayer(path: string, what: string): Promise<CheckLayer> {
@@ -83,6 +84,7 @@ export function register(program: Command): void {
     .action(async (file: string, o) => {
       const min = numberOption('--min', o.min, { min: 0 });
       const max = numberOption('--max', o.max, { min: 0 });
+      checkOrder('--min', min, '--max', max);
       const speedKmh = numberOption('--speed', o.speed, { min: 0.1, max: 100 });
       const swathM = numberOption('--swath', o.swath, { min: 0.1, max: 200 });
       const transitionS = numberOption('--transition', o.transition, { min: 0, max: 60 });

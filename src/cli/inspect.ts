@@ -1,7 +1,8 @@
 /** `tilth inspect`: what was loaded: area, UTM zone, sample density, nutrient statistics, warnings. */
 import type { Command } from 'commander';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
-import { out, printWarnings } from './util.js';
+import { info, out, printWarnings } from './util.js';
+import { readinessProblems } from './safety/readiness.js';
 import { inspectInputs, formatInspection } from '../stats/inspect.js';
 import { formatReading } from '../validate/reading.js';
 
@@ -17,11 +18,14 @@ export function register(program: Command): void {
     .action(async (o) => {
       const inputs = await loadInputs(inputOptionsFrom(o));
       const r = inspectInputs(inputs);
-      if (o.json) out(JSON.stringify({ ...r, columns: inputs.reading ?? [] }, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
+      const problems = readinessProblems(inputs, null, o.samples);
+      if (o.json) out(JSON.stringify({ ...r, columns: inputs.reading ?? [], cannotPrescribe: problems }, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
       else {
         out(formatInspection(r));
         if (inputs.reading) out(`\n${formatReading(inputs.reading, `columns of ${o.samples}`)}`);
         printWarnings(inputs.warnings);
       }
+      // inspect only looks: what would stop a build is a warning block, and the exit stays 0
+      if (problems.length) info(`\nwarning: these inputs cannot make a prescription:\n  ${problems.join('\n  ')}`);
     });
 }

@@ -1,5 +1,7 @@
 /** `tilth surface`: one nutrient's interpolated map as an Esri ASCII grid (.asc + .prj), and the cross-validation table. */
 import { existsSync } from 'node:fs';
+import { checkBoundaryVertices, checkOrder } from './safety/budgets.js';
+import { readinessProblems } from './safety/readiness.js';
 import type { Command } from 'commander';
 import { prjText } from '../geo/crs.js';
 import { UserError } from '../errors.js';
@@ -47,12 +49,13 @@ export function register(program: Command): void {
     )
     .action(async (o) => {
       const analyte = analyteFromName(o.nutrient);
-      const cell = numberOption('--cell', o.cell, { min: 0.01 })!;
+      const cell = numberOption('--cell', o.cell, { min: 0.1, max: 1000 })!;
       const power = o.power === 'auto' ? 'auto' : numberOption('--power', o.power, { min: 0.1, max: 10 })!;
       const nb = String(o.neighbours).toLowerCase();
-      const neighbours = nb === 'auto' ? 'auto' : nb === 'all' ? Infinity : numberOption('--neighbours', o.neighbours, { min: 1, integer: true })!;
-      const radius = numberOption('--radius', o.radius, { min: 0.01 });
-      const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, { min: 1, integer: true });
+      const neighbours = nb === 'auto' ? 'auto' : nb === 'all' ? Infinity : numberOption('--neighbours', o.neighbours, { min: 1, max: 100_000, integer: true })!;
+      const radius = numberOption('--radius', o.radius, { min: 0.01, max: 1e6 });
+      const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, { min: 1, max: 100_000, integer: true });
+      if (typeof neighbours === 'number') checkOrder('--min-neighbours', minNeighbours, '--neighbours', neighbours);
       const method = String(o.method).toLowerCase();
       if (!SURFACE_METHODS.includes(method as SurfaceMethod)) throw new UserError(`option --method: "${o.method}" is not a method. Fix: give idw, kriging or auto.`, { value: o.method });
       const kNeighbours = numberOption('--kriging-neighbours', o.krigingNeighbours, { min: 1, integer: true })!;
@@ -66,6 +69,12 @@ export function register(program: Command): void {
       checkOutputFile(o.out, { ...fileOpts, ours: ASC_OURS });
       checkOutputFile(prjPath, { ...fileOpts, ours: prjOurs });
       const inputs = await loadInputs(inputOptionsFrom(o));
+      checkBoundaryVertices(inputs.field, o.boundary);
+      const problems = readinessProblems(inputs, analyte, o.samples);
+      if (problems.length) throw new UserError(`cannot map these inputs:\n  ${problems.join('\n  ')}`);
+      if (minNeighbours !== undefined && minNeighbours > inputs.samples.ids.length) {
+        throw new UserError(`option --min-neighbours ${minNeighbours}: the samples file has ${inputs.samples.ids.length} samples, so every cell would be empty. Fix: give --min-neighbours ${Math.min(3, inputs.samples.ids.length)} or leave it out.`);
+      }
       const grid = fieldGrid(inputs.field, cell);
       const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours, method: method as SurfaceMethod, kriging: { neighbours: kNeighbours, log: Boolean(o.log) } });
       const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];

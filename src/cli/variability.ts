@@ -5,6 +5,8 @@ import type { Analyte } from '../types.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
 import { tablesFromOption } from './plan.js';
+import { checkBoundaryVertices, checkLags } from './safety/budgets.js';
+import { readinessProblems } from './safety/readiness.js';
 import { parsePlan } from '../agronomy/index.js';
 import { fieldGrid, gridWarnings, nutrientSurface } from '../surface/index.js';
 import { analyzeVariability, sampleMapSvg, semivariogramSvg, variabilityText, type FitMethod, type Threshold } from '../variability/index.js';
@@ -76,13 +78,17 @@ ${CAUTION}`)
       }
       const method = numberOption('--fit-method', o.fitMethod, { integer: true });
       if (method !== 7 && method !== 2) throw new UserError(`option --fit-method: "${o.fitMethod}" is not supported. Fix: give 7 (N_j/h_j^2) or 2 (Cressie).`);
-      const cutoff = numberOption('--cutoff', o.cutoff, { min: 0 });
-      const width = numberOption('--width', o.width, { min: 0 });
+      const cutoff = numberOption('--cutoff', o.cutoff, { min: 0, max: 1e6 });
+      const width = numberOption('--width', o.width, { min: 0, max: 1e6 });
       if (cutoff === 0 || width === 0) throw new UserError('options --cutoff and --width must be above 0. Fix: give a distance in metres, e.g. --cutoff 400.');
       const inputFiles = [o.samples, o.boundary, o.zones, o.plan, o.tables].filter((f): f is string => !!f);
       if (o.out) checkOutputDir(o.out, { force: Boolean(o.force), inputs: inputFiles });
+      const cell = numberOption('--cell', o.cell, { min: 0.5, max: 1000 })!;
       const inputs = await loadInputs(inputOptionsFrom(o));
-      const cell = numberOption('--cell', o.cell, { min: 0.5 })!;
+      checkBoundaryVertices(inputs.field, o.boundary);
+      const problems = readinessProblems(inputs, nutrient, o.samples);
+      if (problems.length) throw new UserError(`cannot judge the variability of these inputs:\n  ${problems.join('\n  ')}`);
+      checkLags(inputs.samples.xy, cutoff, width);
       let surf: { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string; label: string } | undefined;
       const surfaceWarnings = [];
       if (o.surface !== false) {

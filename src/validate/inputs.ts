@@ -56,6 +56,10 @@ export function prepareInputs(raw: RawInputs, opts: PrepareOptions = {}): FieldI
   let s = built.samples;
   for (let i = 0; i < s.ids.length; i++) {
     const lon = s.lonlat[2 * i], lat = s.lonlat[2 * i + 1];
+    // every reader's positions pass here: a non-number (NaN, infinity, a damaged .shp) is refused before projection
+    if (!Number.isFinite(lon) || !Number.isFinite(lat)) {
+      throw new UserError(`${table.file} sample "${s.ids[i]}" (${s.origin[i].replace(table.file + ' ', '')}): position [${lon}, ${lat}] is not a pair of finite numbers. Fix: give the sample's position in decimal degrees, or export the file again.`, { file: table.file, where: s.ids[i], value: [lon, lat] });
+    }
     if (Math.abs(lat) > 90 && Math.abs(lat) <= 180 && Math.abs(lon) <= 90) {
       throw new UserError(
         `${table.file} sample "${s.ids[i]}" (${s.origin[i].replace(table.file + ' ', '')}): latitude ${lat} and longitude ${lon} look swapped. ` +
@@ -114,17 +118,23 @@ export function prepareInputs(raw: RawInputs, opts: PrepareOptions = {}): FieldI
   // duplicate locations (different ids within 0.5 m): a warning; where they share a point, the surface
   // stage averages their values (src/surface/prepare.ts), as a lab would for a re-tested site
   const order = s.ids.map((_, i) => i).sort((a, c) => xy[2 * a] - xy[2 * c]);
+  // memory stays linear however many samples share a point: five pairs are named, the rest counted, and the
+  // comparisons stop at a budget (a file of thousands of samples at one point is reported, not exhausted)
   const pairs: string[] = [];
-  for (let a = 0; a < order.length; a++) {
-    for (let c = a + 1; c < order.length && xy[2 * order[c]] - xy[2 * order[a]] < 0.5; c++) {
+  let nPairs = 0, compared = 0;
+  const COMPARE_BUDGET = 20_000_000;
+  for (let a = 0; a < order.length && compared < COMPARE_BUDGET; a++) {
+    for (let c = a + 1; c < order.length && xy[2 * order[c]] - xy[2 * order[a]] < 0.5 && compared < COMPARE_BUDGET; c++, compared++) {
       const i = order[a], j = order[c];
-      if (Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]) < 0.5) pairs.push(`"${s.ids[i]}" and "${s.ids[j]}" (${s.lonlat[2 * i + 1]}, ${s.lonlat[2 * i]})`);
+      if (Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]) >= 0.5) continue;
+      if (++nPairs <= 5) pairs.push(`"${s.ids[i]}" and "${s.ids[j]}" (${s.lonlat[2 * i + 1]}, ${s.lonlat[2 * i]})`);
     }
   }
-  if (pairs.length) {
+  if (nPairs) {
+    const more = compared >= COMPARE_BUDGET ? ' and many more' : nPairs > 5 ? ` and ${nPairs - 5} more pairs` : '';
     warnings.push({
       code: 'same-place', file: table.file, where: pairs.join('; '),
-      message: `${table.file}: samples ${abbrev(pairs, 5)} are within 0.5 m of each other; at one point their values are averaged in the maps. Fix: if they are different sites, correct the coordinates of one of them.`,
+      message: `${table.file}: samples ${pairs.join(', ')}${more} are within 0.5 m of each other; at one point their values are averaged in the maps. Fix: if they are different sites, correct the coordinates of one of them.`,
     });
   }
 
