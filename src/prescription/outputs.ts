@@ -6,7 +6,6 @@ import { csvCell } from '../io/csv-escape.js';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import type { Placement } from '../agronomy/tables.js';
 import { NUTRIENTS } from '../agronomy/tables.js';
-import { VERSION } from '../version.js';
 import { productRate, usedPairs, nutrientName, type Prescription, type ZoneSetResult } from './index.js';
 import { apartText, designLines, type ZoneDesign } from './zoneDesign.js';
 
