@@ -75,9 +75,10 @@ export async function readLayer(files: Record<string, Uint8Array>, main: string)
   if (e === 'geojson' || e === 'json') return layerFromGeoJSON(new TextDecoder().decode(bytes), main);
   if (e === 'shp') {
     const parts = shapefileSet(files, main);
-    const mismatch = setFilesProblem(parts.shp, parts.shx, parts.dbf); // read as GDAL would, or refused (src/check/setfiles.ts)
-    if (mismatch) throw new UserError(`${main}: the shapefile's files do not agree: ${mismatch}; GDAL and field terminals would read it differently or not at all. Fix: export the prescription again.`, { file: main });
     const set = await readShapefile(parts, main);
+    // then what the reader lets through but GDAL reads differently, or not at all (src/check/setfiles.ts)
+    const mismatch = setFilesProblem(parts.shp, parts.shx, parts.dbf);
+    if (mismatch) throw new UserError(`${main}: the shapefile's files do not agree: ${mismatch}; GDAL and field terminals would read it differently or not at all. Fix: export the prescription again.`, { file: main });
     if (set.shapeType !== 5) {
       throw new UserError(`${main}: holds shape type ${set.shapeType}, not polygons (type 5). Fix: give the zone polygons of the prescription, not points or lines.`, { file: main, value: set.shapeType });
     }
