@@ -12,7 +12,9 @@ export default defineConfig(({ mode }) => {
   return {
     test: {
       include: ['tests/**/*.test.ts', 'src/**/*.test.ts'],
-      exclude: fast ? ['**/node_modules/**', '**/*.cli.test.ts', '**/*.tool.test.ts'] : ['**/node_modules/**'],
+      exclude: fast
+        ? ['**/node_modules/**', '**/*.cli.test.ts', '**/*.tool.test.ts']
+        : ['**/node_modules/**'],
       env: fast ? { TILTH_TIER: 'fast' } : {},
       // the CLI end to end on a shared 2-core machine can take minutes under load; speed is measured in benchmarks
       testTimeout: 180_000,

@@ -1,4 +1,4 @@
-// Build benchmark (issue 5, item 10): the whole `tilth build` CLI process (start, read, surfaces with
+// Build benchmark: the whole `tilth build` CLI process (start, read, surfaces with
 // cross-validation, targets, classes, cleaning, polygons, rates, every output written) on
 //   - the demo quarter (sample-fields/quarter) at 2 m cells, and
 //   - a synthetic, seeded 640 ac section (1609 m square near 52 N 106.5 W, invented) at 1 m cells with
@@ -15,7 +15,7 @@
 //   --keep: keep the temporary folder with the synthetic inputs and outputs, and print its path
 //   TILTH_BENCH_CLI=dist/x.mjs: time that entry point instead of bin/tilth.js (experiments)
 import { execFileSync, spawn, spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';

@@ -17,7 +17,7 @@ const soils = Array.from({ length: 2000 }, () => ({ no3_n: rnd() * 120, p: rnd()
 for (const s of soils.slice(0, 100)) decide(s, plan, T); // warm up
 let t0 = performance.now();
 for (const s of soils) decide(s, plan, T);
-let ms = performance.now() - t0;
+const ms = performance.now() - t0;
 console.log(`decide, canola starter plan: ${soils.length} soils in ${ms.toFixed(0)} ms = ${((ms / soils.length) * 1000).toFixed(0)} us each`);
 
 // dive vs exact

@@ -1,4 +1,4 @@
-// Surface benchmark (issue 3): the whole `tilth surface` process (start, read, project, index, interpolate,
+// Surface benchmark: the whole `tilth surface` process (start, read, project, index, interpolate,
 // write) on seeded data, against gdal_grid on the same points and grid when it is installed.
 // Medians of several runs; peak memory from /usr/bin/time -v (max resident set size).
 // Usage: node scripts/bench-surface.mjs [--runs 5] [--nn] [--only-kriging]   (--nn also times gdal_grid invdistnn on the
@@ -129,7 +129,7 @@ for (const c of ONLY_KRIGING ? [] : CASES) {
   }
 }
 
-// Ordinary kriging against IDW on the same structured points and grid, 16 neighbours each (issue: kriging within
+// Ordinary kriging against IDW on the same structured points and grid, 16 neighbours each (target: kriging within
 // 3 x the IDW time on 640 000 cells, peak memory under 300 MB). Both are the whole process; kriging includes its
 // semivariogram fit and leave-one-out, IDW its one-row leave-one-out. Runs alternate so machine load hits both.
 console.log('');

@@ -78,20 +78,36 @@ for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
 
 const minArea = Z.minZoneAreaM2({ swathM: 18.3, speedKmh: 9 });
 const median = (a) => { const s = [...a].sort((x, y) => x - y); return s[Math.floor(s.length / 2)]; };
-const t = { classify: [], majority: [], merge: [], trace: [], clip: [], makeZones: [] };
-const cpu = { classify: [], majority: [], merge: [], trace: [], clip: [], makeZones: [] };
+const names = ['classify', 'majority', 'merge', 'trace', 'arcs', 'simplify', 'clip', 'staircase', 'makeZones', 'design'];
+const t = Object.fromEntries(names.map((k) => [k, []]));
+const cpu = Object.fromEntries(names.map((k) => [k, []]));
 const cpuMs = () => { const u = process.cpuUsage(); return (u.user + u.system) / 1000; };
-let last;
+// the zone design's judge, like the rate judge on a single rate: a zone's rate is its mean rounded to the machine
+// step (5); neighbours stay apart when rates differ by at least the larger of the step and 10 % of the field mean
+const judge = () => {
+  let min = 5;
+  return {
+    layers: [value],
+    profile: (m) => Math.round(m[0] / 5) * 5,
+    prepare: (ps, areas) => { let s = 0, w = 0; ps.forEach((p, i) => { s += p * areas[i]; w += areas[i]; }); min = Math.max(5, 0.1 * s / w); },
+    compare: (a, b) => ({ apart: Math.abs(a - b) >= min, score: Math.abs(a - b) / min, why: null }),
+  };
+};
+let last, design;
 const step = (name, fn) => { const c0 = cpuMs(), t0 = performance.now(); const r = fn(); t[name].push(performance.now() - t0); cpu[name].push(cpuMs() - c0); return r; };
 for (let k = 0; k < runs; k++) {
   const cls = step('classify', () => Z.classify(value, { method: 'jenks', classes: 5, step: 5, weights: fraction }));
   const sm = step('majority', () => Z.majorityFilter(cls.classOf, cols, rows, 1));
   const m = step('merge', () => Z.mergeSmallZones(Z.fillUnclassed(sm, cols, rows), cols, rows, fraction, cell, minArea));
-  const tr = step('trace', () => Z.traceZones(m.zone, m.count, grid));
-  step('clip', () => tr.map((p) => Z.clipParts(p, parts, xmin, ymax)));
+  step('trace', () => Z.traceZones(m.zone, m.count, grid));
+  const arcs = step('arcs', () => Z.zoneArcs(m.zone, m.count, grid));
+  const smooth = step('simplify', () => Z.arcsToParts(arcs, Z.simplifyArcs(arcs, 1), grid));
+  step('clip', () => smooth.map((p) => Z.clipParts(p, parts, xmin, ymax)));
+  step('staircase', () => Z.makeZones(grid, value, field, { method: 'jenks', classes: 5, step: 5, minAreaM2: minArea, majorityIterations: 1, lonlat: false, simplifyCells: 0 }));
   last = step('makeZones', () => Z.makeZones(grid, value, field, { method: 'jenks', classes: 5, step: 5, minAreaM2: minArea, majorityIterations: 1, lonlat: false }));
+  design = step('design', () => Z.makeZones(grid, value, field, { method: 'jenks', classes: 5, step: 5, minAreaM2: minArea, majorityIterations: 1, lonlat: false, judge: judge() }));
 }
-const verts = last.zones.reduce((s, z) => s + z.parts.reduce((q, p) => q + p.exterior.length / 2 + p.holes.reduce((h, r) => h + r.length / 2, 0), 0), 0);
+const verts = last.vertices.clipped;
 const area = last.zones.reduce((s, z) => s + z.areaM2, 0);
 console.log(`zones bench: ${cols} x ${rows} cells of ${cell} m (${(n / 1e6).toFixed(2)} M), field ${(field.areaM2 / 4046.8564224).toFixed(1)} ac, ${runs} runs, node ${process.version}`);
 console.log(`result: ${last.zones.length} zones, ${last.classCount} classes, ${verts} vertices, area sum / field = ${(area / field.areaM2).toFixed(9)}, min zone ${minArea.toFixed(0)} m2`);
@@ -100,7 +116,12 @@ console.log('| step | median wall ms | median CPU ms |\n|---|---|---|');
 console.log(`| classify (jenks, 5, 4096-bin summary) | ${median(t.classify).toFixed(0)} | ${median(cpu.classify).toFixed(0)} |`);
 console.log(`| majority filter 3x3, 1 pass | ${median(t.majority).toFixed(0)} | ${median(cpu.majority).toFixed(0)} |`);
 console.log(`| fill + label + merge small zones | ${median(t.merge).toFixed(0)} | ${median(cpu.merge).toFixed(0)} |`);
-console.log(`| trace (all zones, unclipped) | ${median(t.trace).toFixed(0)} | ${median(cpu.trace).toFixed(0)} |`);
-console.log(`| clip every zone to the boundary (JTS overlay) | ${median(t.clip).toFixed(0)} | ${median(cpu.clip).toFixed(0)} |`);
-console.log(`| makeZones end to end (clips only zones that reach the edge) | ${median(t.makeZones).toFixed(0)} | ${median(cpu.makeZones).toFixed(0)} |`);
+console.log(`| trace (all zones, unclipped, corners only) | ${median(t.trace).toFixed(0)} | ${median(cpu.trace).toFixed(0)} |`);
+console.log(`| shared arcs (every node) | ${median(t.arcs).toFixed(0)} | ${median(cpu.arcs).toFixed(0)} |`);
+console.log(`| simplify arcs (1 cell) and rebuild rings | ${median(t.simplify).toFixed(0)} | ${median(cpu.simplify).toFixed(0)} |`);
+console.log(`| clip every smoothed zone to the boundary (JTS overlay) | ${median(t.clip).toFixed(0)} | ${median(cpu.clip).toFixed(0)} |`);
+console.log(`| makeZones, staircase edges (simplifyCells 0), no judge | ${median(t.staircase).toFixed(0)} | ${median(cpu.staircase).toFixed(0)} |`);
+console.log(`| makeZones, default (edges smoothed to 1 cell), no judge | ${median(t.makeZones).toFixed(0)} | ${median(cpu.makeZones).toFixed(0)} |`);
+console.log(`| zone design: makeZones with a rate judge (classes and zones merged, rate classes) and smoothed edges | ${median(t.design).toFixed(0)} | ${median(cpu.design).toFixed(0)} |`);
+console.log(`design result: ${design.zones.length} zones, ${design.counts.rateClasses} rate classes (${design.counts.classes} classes drawn, ${design.counts.classesMerged} kept; ${design.counts.zonesCleaned} zones after cleaning); vertices ${design.vertices.traced} staircase -> ${design.vertices.simplified} smoothed, ${design.vertices.clipped} clipped`);
 console.log(`peak RSS ${(process.memoryUsage().rss / 2 ** 20).toFixed(0)} MB`);

@@ -6,7 +6,7 @@
 import { UserError, type Warning } from '../errors.js';
 import type { Texture } from '../types.js';
 import { lbacToKgha, type RateUnit } from '../units/index.js';
-import { interpret, type Interpretation, type SoilValues } from './interpret.js';
+import { interpret, pClassTable, type Interpretation, type SoilValues } from './interpret.js';
 import type { Plan } from './plan.js';
 import { seedRowLimits, type SeedRowLimits } from './seedrow.js';
 import { productOptions, solveProducts, type ProductOption, type SolveResult } from './solve.js';
@@ -284,6 +284,10 @@ export function decide(soil: SoilValues, plan: Plan, tables: Tables): Decision {
   const it = interpret(soil, crop, plan, tables);
   const lim = seedRowLimits(crop, plan.crop, texture, plan, tables);
   for (const note of lim.notes) warnings.push({ code: 'seed-row-table-missing', message: note, field: 'seed_row' });
+  if (it.p.kelownaFactor !== null) {
+    const b = pClassTable('kelowna', tables, it.p.kelownaFactor).filter((c) => c.below_ppm !== null).map((c) => `${c.name} < ${c.below_ppm}`).join(', ');
+    warnings.push({ code: 'kelowna-factor', message: `P classes for modified Kelowna: Olsen bounds x ${it.p.kelownaFactor} (plan key soil_test.kelowna_factor), published Kelowna bounds kept: ${b} ppm`, field: 'p' });
+  }
   let opts = productOptions(plan, tables);
   const tg: Targets = computeTargets(it, crop, plan, tables, warnings, starterP2o5(opts, lim));
   const tol = plan.strategy.tolerance_pct / 100;

@@ -1,13 +1,13 @@
 /** `tilth build`: the whole prescription from samples, boundary and plan, written into one folder. */
 import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
-import { buildPrescription, defaultCell } from '../prescription/index.js';
+import { buildPrescription, defaultCell, type Prescription } from '../prescription/index.js';
 import { checkBuildCells, checkBoundaryVertices } from './safety/budgets.js';
 import { addOutlierWarnings, readinessProblems } from './safety/readiness.js';
 import { UserError } from '../errors.js';
 import type { FieldInputs } from '../types.js';
 import type { Plan } from '../agronomy/index.js';
-import { prescriptionFolder } from '../prescription/folder.js';
+import { prescriptionFolder, type PrescriptionFolder } from '../prescription/folder.js';
 import { provenance } from '../prescription/provenance.js';
 import { summaryText } from '../prescription/outputs.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
@@ -15,7 +15,7 @@ import { tablesFromOption } from './plan.js';
 import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
 import { createTerminal, type Task, type Terminal } from './progress.js';
 
-interface BuildFlags {
+export interface BuildFlags {
   samples: string; boundary: string; zones?: string; plan: string; tables?: string; out: string;
   force?: boolean; json?: boolean; cell?: string; columns?: string; depthFactor?: string; dropOutside?: boolean;
   pMethod?: 'olsen' | 'kelowna'; assumeWgs84?: boolean; quiet?: boolean;
@@ -34,33 +34,67 @@ export function register(program: Command): void {
     .option('--quiet', 'no progress messages')
     .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json, report.html;\nshapefiles/ and ISO 11783-10 task data (TASKDATA/ and taskdata.zip) as the plan's output.formats asks.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
     .action(async (o: BuildFlags) => {
-      const inputFiles = [o.samples, o.boundary, o.plan, o.zones, o.tables].filter((f): f is string => !!f);
-      checkOutputDir(o.out, { force: o.force, inputs: inputFiles }); // before any work: a long build should not end in a refusal
       const term = createTerminal({ quiet: o.quiet });
-      const tables = tablesFromOption(o.tables);
-      const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
-      const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
-      term.line('reading and checking the inputs ...');
-      const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
-      if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
-      refuseUnfit(inputs, plan, o.samples, o.boundary);
-      checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
       const bars = progressBars(term);
-      const rx = buildPrescription(inputs, plan, tables, { cell, onProgress: bars.update });
-      bars.finish();
-      const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const).filter((k) => o[k]).map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
-      const { files, summary } = prescriptionFolder(rx, inputs, tables, { provenance: provenance(named), tablesEdited: !!o.tables, onStep: (s) => term.line(s) });
-      writeOutputDir(o.out, files, { force: o.force, inputs: inputFiles });
-      out(o.json ? JSON.stringify(summary, null, 2) : summaryText(rx));
-      printWarnings(rx.warnings);
-      info(`wrote ${files.size} files to ${o.out}: ${[...new Set([...files.keys()].map((f) => f.replace(/\/.*/, '/')))].join(', ')}`);
+      const r = await runBuild(o, { say: (s) => term.line(s), onProgress: bars.update, stepDone: bars.finish });
+      out(o.json ? JSON.stringify(r.summary, null, 2) : r.text);
+      printWarnings(r.warnings);
+      info(`wrote ${r.files.length} files to ${o.out}: ${[...new Set(r.files.map((f) => f.replace(/\/.*/, '/')))].join(', ')}`);
       info(CAUTION);
-      if (rx.infeasible.length > 0) {
-        info(`\n${rx.infeasible.length} zone(s) cannot meet their targets within the plan's limits:`);
-        for (const f of rx.infeasible) info(`  zone set ${f.zoneSet}, zone ${f.zone}: ${f.reason}`);
+      if (r.infeasible.length > 0) {
+        info(`\n${r.infeasible.length} zone(s) cannot meet their targets within the plan's limits:`);
+        for (const f of r.infeasible) info(`  zone set ${f.zoneSet}, zone ${f.zone}: ${f.reason}`);
         process.exitCode = 1;
       }
     });
+}
+
+/** What one build did, for the build and batch commands to print. */
+export interface BuildOutcome {
+  summary: PrescriptionFolder['summary'];
+  /** the printed summary (summaryText) */
+  text: string;
+  warnings: Prescription['warnings'];
+  infeasible: Prescription['infeasible'];
+  totals: Prescription['totals'];
+  field: { name: string; areaAc: number };
+  /** zones over all zone sets */
+  zones: number;
+  /** files written, relative to the output folder */
+  files: string[];
+}
+
+/** Progress hooks of {@link runBuild}: step lines, progress of long steps, the end of the last one. */
+export interface BuildHooks {
+  say: (line: string) => void;
+  onProgress: (step: string, done: number) => void;
+  stepDone: () => void;
+}
+
+/**
+ * One `tilth build` (also each field of `tilth batch`): reads the inputs, builds the prescription and writes
+ * every file into `o.out` (temporary folder renamed into place). Prints nothing itself; throws UserError for
+ * bad input.
+ * @example const r = await runBuild({ samples, boundary, plan, out: 'rx' }, { say() {}, onProgress() {}, stepDone() {} })
+ */
+export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildOutcome> {
+  const inputFiles = [o.samples, o.boundary, o.plan, o.zones, o.tables].filter((f): f is string => !!f);
+  checkOutputDir(o.out, { force: o.force, inputs: inputFiles }); // before any work: a long build should not end in a refusal
+  const tables = tablesFromOption(o.tables);
+  const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
+  const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
+  hooks.say('reading and checking the inputs ...');
+  const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
+  if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
+  refuseUnfit(inputs, plan, o.samples, o.boundary);
+  checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
+  const rx = buildPrescription(inputs, plan, tables, { cell, onProgress: hooks.onProgress });
+  hooks.stepDone();
+  const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const).filter((k) => o[k]).map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
+  const { files, summary } = prescriptionFolder(rx, inputs, tables, { provenance: provenance(named), tablesEdited: !!o.tables, onStep: hooks.say });
+  writeOutputDir(o.out, files, { force: o.force, inputs: inputFiles });
+  const zones = rx.zoneSets.reduce((n, z) => n + z.zones.length, 0);
+  return { summary, text: summaryText(rx), warnings: rx.warnings, infeasible: rx.infeasible, totals: rx.totals, field: { name: rx.field.name, areaAc: rx.field.areaAc }, zones, files: [...files.keys()] };
 }
 
 /** One progress bar per build step on stderr. */

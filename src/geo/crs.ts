@@ -64,7 +64,8 @@ function datumOf(w: string): CrsInfo['datum'] {
   const name = /DATUM\s*\[\s*"([^"]+)"/i.exec(w)?.[1] ?? w;
   const d = name.toUpperCase().replace(/[^A-Z0-9]/g, '');
   if (/WGS84|WGS1984|WORLDGEODETICSYSTEM1984/.test(d)) return 'WGS84';
-  if (/NAD83|NORTHAMERICAN1983|NORTHAMERICANDATUM1983/.test(d)) return /CSRS/.test(d) ? 'NAD83(CSRS)' : 'NAD83';
+  if (/NAD83|NORTHAMERICAN1983|NORTHAMERICANDATUM1983/.test(d))
+    return /CSRS/.test(d) ? 'NAD83(CSRS)' : 'NAD83';
   return 'other';
 }
 
@@ -78,20 +79,61 @@ function utmOf(w: string, name: string): { zone: number; south: boolean } | null
   const zm = /UTM[_ ]?zone[_ ]?(\d{1,2})\s*([NS])?/i.exec(name);
   if (zm) return { zone: Number(zm[1]), south: zm[2] ? zm[2].toUpperCase() === 'S' : fn > 0 };
   if (!/Transverse_Mercator/i.test(w)) return null;
-  const cm = param('central_meridian'), k = param('scale_factor'), fe = param('false_easting'), lat0 = param('latitude_of_origin');
-  if (k === 0.9996 && fe === 500000 && (fn === 0 || fn === 10000000) && (lat0 === 0 || Number.isNaN(lat0)) && Number.isInteger((cm + 183) / 6)) {
+  const cm = param('central_meridian'),
+    k = param('scale_factor'),
+    fe = param('false_easting'),
+    lat0 = param('latitude_of_origin');
+  if (
+    k === 0.9996 &&
+    fe === 500000 &&
+    (fn === 0 || fn === 10000000) &&
+    (lat0 === 0 || Number.isNaN(lat0)) &&
+    Number.isInteger((cm + 183) / 6)
+  ) {
     return { zone: (cm + 183) / 6, south: fn === 10000000 };
   }
   return null;
 }
 
 function fromEpsg(code: number, text: string): CrsInfo {
-  if (code === 4326) return { kind: 'lonlat', datum: 'WGS84', epsg: 4326, label: 'WGS 84 longitude/latitude (EPSG:4326)' };
-  if (code === 4269) return { kind: 'lonlat', datum: 'NAD83', epsg: 4269, label: 'NAD83 longitude/latitude (EPSG:4269)' };
-  if (code === 4617) return { kind: 'lonlat', datum: 'NAD83(CSRS)', epsg: 4617, label: 'NAD83(CSRS) longitude/latitude (EPSG:4617)' };
-  if (code > 32600 && code <= 32660) return { kind: 'utm', zone: code - 32600, south: false, datum: 'WGS84', epsg: code, label: `WGS 84 / UTM zone ${code - 32600}N (EPSG:${code})` };
-  if (code > 32700 && code <= 32760) return { kind: 'utm', zone: code - 32700, south: true, datum: 'WGS84', epsg: code, label: `WGS 84 / UTM zone ${code - 32700}S (EPSG:${code})` };
-  if (code > 26900 && code <= 26923) return { kind: 'utm', zone: code - 26900, south: false, datum: 'NAD83', epsg: code, label: `NAD83 / UTM zone ${code - 26900}N (EPSG:${code})` };
+  if (code === 4326)
+    return { kind: 'lonlat', datum: 'WGS84', epsg: 4326, label: 'WGS 84 longitude/latitude (EPSG:4326)' };
+  if (code === 4269)
+    return { kind: 'lonlat', datum: 'NAD83', epsg: 4269, label: 'NAD83 longitude/latitude (EPSG:4269)' };
+  if (code === 4617)
+    return {
+      kind: 'lonlat',
+      datum: 'NAD83(CSRS)',
+      epsg: 4617,
+      label: 'NAD83(CSRS) longitude/latitude (EPSG:4617)',
+    };
+  if (code > 32600 && code <= 32660)
+    return {
+      kind: 'utm',
+      zone: code - 32600,
+      south: false,
+      datum: 'WGS84',
+      epsg: code,
+      label: `WGS 84 / UTM zone ${code - 32600}N (EPSG:${code})`,
+    };
+  if (code > 32700 && code <= 32760)
+    return {
+      kind: 'utm',
+      zone: code - 32700,
+      south: true,
+      datum: 'WGS84',
+      epsg: code,
+      label: `WGS 84 / UTM zone ${code - 32700}S (EPSG:${code})`,
+    };
+  if (code > 26900 && code <= 26923)
+    return {
+      kind: 'utm',
+      zone: code - 26900,
+      south: false,
+      datum: 'NAD83',
+      epsg: code,
+      label: `NAD83 / UTM zone ${code - 26900}N (EPSG:${code})`,
+    };
   return { kind: null, datum: 'other', epsg: code, label: text, problem: `EPSG:${code}` };
 }
 
@@ -112,17 +154,38 @@ export function readPrj(text: string): CrsInfo {
   if (/urn:ogc:def:crs:OGC:[\d.]*:CRS84/i.test(w)) return fromEpsg(4326, w);
   const datum = datumOf(w);
   const name = /^\s*\w+\s*\[\s*"([^"]*)"/.exec(w)?.[1] ?? '';
-  const unknown = (problem: string, label = name || w.slice(0, 60) || 'empty'): CrsInfo => ({ kind: null, datum, epsg: null, label, problem });
+  const unknown = (problem: string, label = name || w.slice(0, 60) || 'empty'): CrsInfo => ({
+    kind: null,
+    datum,
+    epsg: null,
+    label,
+    problem,
+  });
   if (!head) return unknown('not one tilth can read');
-  if (datum === 'other') return unknown(`on the datum "${/DATUM\s*\[\s*"([^"]+)"/i.exec(w)?.[1] ?? 'unknown'}"`);
+  if (datum === 'other')
+    return unknown(`on the datum "${/DATUM\s*\[\s*"([^"]+)"/i.exec(w)?.[1] ?? 'unknown'}"`);
   if (head.startsWith('GEOG') || head === 'GEODCRS') {
     const epsg = datum === 'WGS84' ? 4326 : datum === 'NAD83' ? 4269 : 4617;
     return { kind: 'lonlat', datum, epsg, label: `${datum} longitude/latitude (EPSG:${epsg})` };
   }
   const utm = utmOf(w, name);
-  if (!utm || utm.zone < 1 || utm.zone > 60) return unknown(`the projection "${name}"`, name || 'unnamed projected system');
-  if (!/UNIT\s*\[\s*"(metre|meter|m)"/i.test(w.slice(w.lastIndexOf('UNIT')))) return unknown(`"${name}" in units other than metres`);
+  if (!utm || utm.zone < 1 || utm.zone > 60)
+    return unknown(`the projection "${name}"`, name || 'unnamed projected system');
+  if (!/UNIT\s*\[\s*"(metre|meter|m)"/i.test(w.slice(w.lastIndexOf('UNIT'))))
+    return unknown(`"${name}" in units other than metres`);
   const { zone, south } = utm;
-  const epsg = datum === 'WGS84' ? (south ? 32700 : 32600) + zone : datum === 'NAD83' && !south && zone <= 23 ? 26900 + zone : null;
-  return { kind: 'utm', zone, south, datum, epsg, label: `${datum} / UTM zone ${zone}${south ? 'S' : 'N'}${epsg ? ` (EPSG:${epsg})` : ''}` };
+  const epsg =
+    datum === 'WGS84'
+      ? (south ? 32700 : 32600) + zone
+      : datum === 'NAD83' && !south && zone <= 23
+        ? 26900 + zone
+        : null;
+  return {
+    kind: 'utm',
+    zone,
+    south,
+    datum,
+    epsg,
+    label: `${datum} / UTM zone ${zone}${south ? 'S' : 'N'}${epsg ? ` (EPSG:${epsg})` : ''}`,
+  };
 }

@@ -11,6 +11,9 @@ import { readTable, type TableOptions } from './table.js';
 /** The delimiter that splits the first lines most evenly into more than one cell (comma, semicolon, tab). */
 function sniffDelimiter(t: string): string {
   const lines = t.slice(0, 8000).split(/\r?\n/).filter((l) => l.trim() !== '').slice(0, 30);
+  // semicolons with every comma between digits: decimal commas, whatever the counts say
+  const head = lines.join('\n');
+  if (head.includes(';') && !head.replace(/\d,\d/g, '').includes(',')) return ';';
   let best = ',', bestScore = -1;
   for (const d of [',', ';', '\t']) {
     const counts = lines.map((l) => l.split(d).length - 1);

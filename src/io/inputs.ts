@@ -10,7 +10,12 @@ import { readXlsxRecords } from './xlsx.js';
 import { readGeoJsonPoints, readGeoJsonPolygons } from './geojson.js';
 import type { InputFile, RawPolygons, RawTable } from './records.js';
 import { readShapefile, type ShapefileBytes } from './shapefile/read.js';
-import { shapefileLonLat, shapefilePoints, shapefilePolygons, type LonLatShapefile } from './shapefile/lonlat.js';
+import {
+  shapefileLonLat,
+  shapefilePoints,
+  shapefilePolygons,
+  type LonLatShapefile,
+} from './shapefile/lonlat.js';
 import { readZip } from './zip.js';
 
 /** The input files of a field: samples and boundary, and optionally the zones zone-composite samples refer to. */
@@ -43,13 +48,20 @@ const SIDECAR = new Set(['dbf', 'shx', 'prj', 'cpg', 'qmd', 'sbn', 'sbx']);
 
 function text(f: InputFile): string {
   if (SIDECAR.has(extOf(f.name))) {
-    throw new UserError(`${f.name} is one of the files beside a shapefile. Fix: give the .shp file (the others are found beside it), or a .zip of them all.`, { file: f.name });
+    throw new UserError(
+      `${f.name} is one of the files beside a shapefile. Fix: give the .shp file (the others are found beside it), or a .zip of them all.`,
+      { file: f.name },
+    );
   }
   return new TextDecoder('utf-8').decode(f.bytes);
 }
 
 /** The entry of `files` named `base.ext` in any letter case. */
-function sibling(files: Readonly<Record<string, Uint8Array>>, base: string, ext: string): Uint8Array | undefined {
+function sibling(
+  files: Readonly<Record<string, Uint8Array>>,
+  base: string,
+  ext: string,
+): Uint8Array | undefined {
   const want = `${base}.${ext}`.toLowerCase();
   for (const [k, v] of Object.entries(files)) if (k.toLowerCase() === want) return v;
   return undefined;
@@ -62,7 +74,13 @@ function sibling(files: Readonly<Record<string, Uint8Array>>, base: string, ext:
  */
 export function shapefileSet(files: Readonly<Record<string, Uint8Array>>, shp: string): ShapefileBytes {
   const base = shp.slice(0, -4);
-  return { shp: files[shp], shx: sibling(files, base, 'shx'), dbf: sibling(files, base, 'dbf'), prj: sibling(files, base, 'prj'), cpg: sibling(files, base, 'cpg') };
+  return {
+    shp: files[shp],
+    shx: sibling(files, base, 'shx'),
+    dbf: sibling(files, base, 'dbf'),
+    prj: sibling(files, base, 'prj'),
+    cpg: sibling(files, base, 'cpg'),
+  };
 }
 
 /**
@@ -71,9 +89,19 @@ export function shapefileSet(files: Readonly<Record<string, Uint8Array>>, shp: s
  */
 export function shapefileInZip(bytes: Uint8Array, name: string): { label: string; set: ShapefileBytes } {
   const files = readZip(bytes, name);
-  const shps = Object.keys(files).filter((f) => f.toLowerCase().endsWith('.shp') && !f.startsWith('__MACOSX'));
-  if (shps.length === 0) throw new UserError(`${name} holds no .shp file. Fix: zip the shapefile's files (.shp, .shx, .dbf, .prj) together.`, { file: name });
-  if (shps.length > 1) throw new UserError(`${name} holds several shapefiles (${shps.join(', ')}). Fix: zip one shapefile per file.`, { file: name });
+  const shps = Object.keys(files).filter(
+    (f) => f.toLowerCase().endsWith('.shp') && !f.startsWith('__MACOSX'),
+  );
+  if (shps.length === 0)
+    throw new UserError(
+      `${name} holds no .shp file. Fix: zip the shapefile's files (.shp, .shx, .dbf, .prj) together.`,
+      { file: name },
+    );
+  if (shps.length > 1)
+    throw new UserError(
+      `${name} holds several shapefiles (${shps.join(', ')}). Fix: zip one shapefile per file.`,
+      { file: name },
+    );
   return { label: `${name} (${shps[0]})`, set: shapefileSet(files, shps[0]) };
 }
 
@@ -81,7 +109,10 @@ export function shapefileInZip(bytes: Uint8Array, name: string): { label: string
 async function shapefileInput(f: InputFile, opts: ReadOptions): Promise<LonLatShapefile | null> {
   const ext = extOf(f.name);
   if (ext !== 'shp' && ext !== 'zip') return null;
-  const { label, set } = ext === 'zip' ? shapefileInZip(f.bytes, f.name) : { label: f.name, set: shapefileSet({ ...f.beside, [f.name]: f.bytes }, f.name) };
+  const { label, set } =
+    ext === 'zip'
+      ? shapefileInZip(f.bytes, f.name)
+      : { label: f.name, set: shapefileSet({ ...f.beside, [f.name]: f.bytes }, f.name) };
   return shapefileLonLat(await readShapefile(set, label), { assumeWgs84: opts.assumeWgs84 });
 }
 
@@ -89,16 +120,29 @@ async function shapefileInput(f: InputFile, opts: ReadOptions): Promise<LonLatSh
 function readSamplesText(f: InputFile, opts: ReadOptions): RawTable {
   const t = text(f);
   const ext = extOf(f.name);
-  if (ext === 'geojson' || ext === 'json' || (ext !== 'csv' && ext !== 'txt' && /^\s*\{/.test(t))) return readGeoJsonPoints(t, f.name);
-  if (ext === 'xls') throw new UserError(`${f.name} is an old-style .xls workbook. Fix: save it from the spreadsheet as .xlsx (Excel Workbook) or as CSV.`, { file: f.name });
-  if (ext === 'csv' || ext === 'txt' || ext === 'tsv') return readCsvRecords(t, f.name, parseColumnMap(opts.columns), { crs: opts.crs });
-  throw new UserError(`${f.name}: tilth reads samples from .geojson, .json, .csv, .xlsx, .shp or .zip (shapefile) files. Fix: export the samples in one of these formats.`, { file: f.name });
+  if (ext === 'geojson' || ext === 'json' || (ext !== 'csv' && ext !== 'txt' && /^\s*\{/.test(t)))
+    return readGeoJsonPoints(t, f.name);
+  if (ext === 'xls')
+    throw new UserError(
+      `${f.name} is an old-style .xls workbook. Fix: save it from the spreadsheet as .xlsx (Excel Workbook) or as CSV.`,
+      { file: f.name },
+    );
+  if (ext === 'csv' || ext === 'txt' || ext === 'tsv')
+    return readCsvRecords(t, f.name, parseColumnMap(opts.columns), { crs: opts.crs });
+  throw new UserError(
+    `${f.name}: tilth reads samples from .geojson, .json, .csv, .xlsx, .shp or .zip (shapefile) files. Fix: export the samples in one of these formats.`,
+    { file: f.name },
+  );
 }
 
 /** Polygons (boundary or zones) from a GeoJSON file. */
 function readPolygonsText(f: InputFile, what: string): RawPolygons {
   const ext = extOf(f.name);
-  if (ext === 'csv' || ext === 'txt') throw new UserError(`${f.name}: a ${what} must be polygons (.geojson, .json, .shp or .zip), not a table. Fix: export the ${what} as GeoJSON or a shapefile.`, { file: f.name });
+  if (ext === 'csv' || ext === 'txt')
+    throw new UserError(
+      `${f.name}: a ${what} must be polygons (.geojson, .json, .shp or .zip), not a table. Fix: export the ${what} as GeoJSON or a shapefile.`,
+      { file: f.name },
+    );
   return readGeoJsonPolygons(text(f), f.name, what);
 }
 
@@ -108,7 +152,11 @@ function readPolygonsText(f: InputFile, what: string): RawPolygons {
  * @example (await readSamples({ name: 'samples.zip', bytes })).records.length
  */
 export async function readSamples(f: InputFile, opts: ReadOptions = {}): Promise<RawTable> {
-  if (extOf(f.name) === 'xlsx') return readXlsxRecords(f.bytes, f.name, parseColumnMap(opts.columns), { sheet: opts.sheet, crs: opts.crs });
+  if (extOf(f.name) === 'xlsx')
+    return readXlsxRecords(f.bytes, f.name, parseColumnMap(opts.columns), {
+      sheet: opts.sheet,
+      crs: opts.crs,
+    });
   const shp = await shapefileInput(f, opts);
   return shp ? shapefilePoints(shp) : readSamplesText(f, opts);
 }

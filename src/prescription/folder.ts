@@ -9,7 +9,14 @@ import { zipFiles } from '../io/zip.js';
 import { renderReport, serializeReportInput } from '../report/index.js';
 import { buildSulphurCharts } from '../variability/index.js';
 import type { Prescription } from './index.js';
-import { geojsonName, prescriptionGeojson, shapefileFeatures, summaryObject, zonesCsv, type Provenance } from './outputs.js';
+import {
+  geojsonName,
+  prescriptionGeojson,
+  shapefileFeatures,
+  summaryObject,
+  zonesCsv,
+  type Provenance,
+} from './outputs.js';
 import { reportInput } from './reportInput.js';
 import { prescriptionFiles } from './shapefiles.js';
 import { prescriptionTaskDataFiles } from './taskdata.js';
@@ -50,7 +57,11 @@ function shapefileSets(rx: Prescription, prov: Provenance, files: Map<string, st
 /** TASKDATA/ and the same files zipped as taskdata.zip. */
 function taskData(rx: Prescription, tables: Tables, files: Map<string, string | Uint8Array>): void {
   const o = rx.plan.output;
-  const td = prescriptionTaskDataFiles(rx, tables, { layout: o.shapefile_layout, grid: o.isoxml_grid, gridCellM: o.isoxml_grid_cell_m ?? undefined });
+  const td = prescriptionTaskDataFiles(rx, tables, {
+    layout: o.shapefile_layout,
+    grid: o.isoxml_grid,
+    gridCellM: o.isoxml_grid_cell_m ?? undefined,
+  });
   const inFolder = Object.fromEntries(Object.entries(td).map(([n, b]) => [`TASKDATA/${n}`, b]));
   for (const [n, b] of Object.entries(inFolder)) files.set(n, b);
   files.set('taskdata.zip', zipFiles(inFolder));
@@ -64,7 +75,12 @@ function taskData(rx: Prescription, tables: Tables, files: Map<string, string | 
  * const { files } = prescriptionFolder(rx, inputs, tables, { provenance: provenance(named) });
  * files.get('prescription.geojson')
  */
-export function prescriptionFolder(rx: Prescription, inputs: FieldInputs, tables: Tables, opts: FolderOptions): PrescriptionFolder {
+export function prescriptionFolder(
+  rx: Prescription,
+  inputs: FieldInputs,
+  tables: Tables,
+  opts: FolderOptions,
+): PrescriptionFolder {
   const plan = rx.plan;
   const say = opts.onStep ?? (() => {});
   const files = new Map<string, string | Uint8Array>();
@@ -83,8 +99,15 @@ export function prescriptionFolder(rx: Prescription, inputs: FieldInputs, tables
   say('drawing the report ...');
   // the sulphate-S variability charts, from the build's own S surface
   const sSurf = rx.surfaces.find((s) => s.analyte === 'so4_s');
-  const charts = buildSulphurCharts(inputs.samples, inputs.field, tables.crops[plan.crop], plan.strategy.s.method,
-    sSurf ? { grid: sSurf.grid, values: sSurf.values, note: sSurf.choice, zones: sSurf.method === 'zones' } : undefined);
+  const charts = buildSulphurCharts(
+    inputs.samples,
+    inputs.field,
+    tables.crops[plan.crop],
+    plan.strategy.s.method,
+    sSurf
+      ? { grid: sSurf.grid, values: sSurf.values, note: sSurf.choice, zones: sSurf.method === 'zones' }
+      : undefined,
+  );
   const ri = reportInput(rx, inputs, tables, opts.provenance, { tablesEdited: opts.tablesEdited, charts });
   files.set('report-data.json', serializeReportInput(ri));
   files.set('report.html', renderReport(ri));

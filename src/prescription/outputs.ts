@@ -6,7 +6,6 @@ import { csvCell } from '../io/csv-escape.js';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import type { Placement } from '../agronomy/tables.js';
 import { NUTRIENTS } from '../agronomy/tables.js';
-import { VERSION } from '../version.js';
 import { productRate, usedPairs, nutrientName, type Prescription, type ZoneSetResult } from './index.js';
 import { apartText, designLines, type ZoneDesign } from './zoneDesign.js';
 
@@ -132,7 +131,7 @@ export function summaryText(rx: Prescription): string {
   lines.push(`crop       ${rx.plan.crop}, target ${rx.plan.target_yield_bu} bu/ac; rates in ${u}`);
   lines.push(`grid       ${rx.grid.cell} m cells (${rx.grid.cols} x ${rx.grid.rows})`);
   for (const s of rx.surfaces) lines.push(`surface    ${pad(s.analyte, 6)} ${s.choice}`);
-  for (const s of rx.zoneSets) lines.push(`zones      ${s.name}: ${s.zones.length} zones, driven by ${s.drivenBy}; products ${s.products.join(', ')}`);
+  for (const s of rx.zoneSets) lines.push(`zones      ${s.name}: ${s.zones.length} zone${s.zones.length === 1 ? "" : "s"}, driven by ${s.drivenBy}; products ${s.products.join(', ')}`);
   lines.push('');
   lines.push(`${pad('product', 22)} ${pad('placement', 13)} ${lpad('total lb', 9)} ${lpad('total t', 8)} ${lpad('mean', 7)} ${lpad('min', 6)} ${lpad('max', 6)}  ${u}`);
   for (const t of rx.totals) {

@@ -34,5 +34,10 @@ export function inputsHash(files: readonly NamedBytes[]): string {
  */
 export function provenance(inputs: readonly NamedBytes[], created: Date = new Date()): Provenance {
   const hash = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
-  return { tilth: VERSION, created: created.toISOString(), inputs: Object.fromEntries(inputs.map((f) => [f.name, hash(f.bytes)])), id: inputsHash(inputs) };
+  return {
+    tilth: VERSION,
+    created: created.toISOString(),
+    inputs: Object.fromEntries(inputs.map((f) => [f.name, hash(f.bytes)])),
+    id: inputsHash(inputs),
+  };
 }

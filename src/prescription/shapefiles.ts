@@ -93,7 +93,7 @@ function rateColumnNames(products: string[], units: RxUnit[]): string[] {
     const suf = '_' + RX_UNITS[units[i]];
     // the product's first word ("Urea 46-0-0" -> urea), or all of it when that is not a word
     const words = slug(p).split('_');
-    let stem = /^[a-z]/.test(words[0]) ? words[0] : 'p' + words.join('');
+    const stem = /^[a-z]/.test(words[0]) ? words[0] : 'p' + words.join('');
     let name = stem.slice(0, 10 - suf.length) + suf;
     for (let k = 2; used.has(name); k++) name = stem.slice(0, 10 - suf.length - String(k).length) + k + suf;
     used.add(name);

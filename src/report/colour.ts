@@ -81,7 +81,7 @@ export function rateColours(name: RampName, rates: readonly number[], close = 0)
   if (rates.length === 0) return [];
   const [lo, hi] = RANGE[name];
   const min = Math.min(...rates), span = Math.max(Math.max(...rates) - min, 4 * close);
-  if (!(span > 0)) return rates.map(() => rgbHex(rampRgb(name, (lo + hi) / 2)));
+  if (rates.length === 1 || !(span > 0)) return rates.map(() => rgbHex(rampRgb(name, (lo + hi) / 2)));
   return rates.map((v) => rgbHex(rampRgb(name, lo + ((hi - lo) * (v - min)) / span)));
 }
 

@@ -1,6 +1,6 @@
 /**
- * Unit conversions: the one source of truth. Every factor here has its source in
- * ../shared/reference/agronomy.md and in tests/units/units.test.ts.
+ * Unit conversions: the one source of truth. Every factor here has its source beside it and in
+ * tests/units/units.test.ts.
  */
 
 /** Atomic weights (IUPAC): P 30.974, K 39.098, O 15.999. */

@@ -3,7 +3,7 @@
  */
 import * as polyclip from 'polyclip-ts';
 import { createRequire } from 'node:module';
-import type { Field, RingsPart } from '../types.js';
+import type { RingsPart } from '../types.js';
 import { orient, partArea } from '../geo/area.js';
 import type { RasterFrame } from './trace.js';
 

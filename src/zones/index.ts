@@ -9,11 +9,11 @@ import { projector as makeProjector, type Projector } from '../geo/utm.js';
 import { M2_PER_AC } from '../units/index.js';
 import { vertexCount } from './arcs.js';
 import { classify, type Classes, type ClassifyOptions } from './classify.js';
-import { fillUnclassed, labelComponents, majorityFilter, mergeSmallZones } from './clean.js';
+import { fillUnclassed, majorityFilter, mergeSmallZones } from './clean.js';
 import { boundaryCells, clipParts, robust } from './clip.js';
 import { arcsToParts, ringsVertexCount, zoneArcs } from './arcs.js';
 import { simplifyArcs } from './simplify.js';
-import { mergeRegions, type RegionJudge } from './regions.js';
+import { mergeGraph, mergeRegions, type RegionJudge } from './regions.js';
 
 export { classify, classifyVectors, jenksUppers, kmeans1d } from './classify.js';
 export type { Classes, ClassMethod, ClassifyOptions, VectorClasses } from './classify.js';
@@ -25,8 +25,8 @@ export { zoneMeans } from './means.js';
 export { zoneArcs, arcsToParts, ringsVertexCount, vertexCount } from './arcs.js';
 export type { ZoneArcs } from './arcs.js';
 export { simplifyArcs } from './simplify.js';
-export { mergeRegions } from './regions.js';
-export type { MergedRegions, RegionJudge } from './regions.js';
+export { mergeGraph, mergeRegions, regionGraph } from './regions.js';
+export type { MergedRegions, RegionGraph, RegionJudge } from './regions.js';
 export type { RasterFrame } from './trace.js';
 
 /** One management zone. */
@@ -122,7 +122,9 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
   let classesMerged = nClasses;
   if (judge && nClasses > 1) {
     const m = mergeRegions(raw, nClasses, cols, rows, grid.fraction, cell * cell, judge, 'label', true);
-    raw = Int16Array.from(raw, (k) => (k >= 0 ? m.of[k] : -1));
+    const next = new Int16Array(n);
+    for (let i = 0; i < n; i++) next[i] = raw[i] >= 0 ? m.of[raw[i]] : -1;
+    raw = next;
     classesMerged = m.count;
   }
   // 2. speckle, edge cells, small zones
@@ -132,21 +134,17 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
   const cleaned = mergeSmallZones(filled, cols, rows, grid.fraction, cell, minAreaM2);
   // 3. neighbouring zones whose rates do not differ enough become one zone; then zones anywhere in the field
   // whose rates do not differ enough form one rate class (one decision), and touching zones of a class join
-  let zoneLabel = cleaned.zone, count = cleaned.count, classOfZone = cleaned.classOfZone;
+  let zoneLabel = cleaned.zone, count = cleaned.count, classOfZone = cleaned.classOfZone, zoneArea = cleaned.areaM2;
   let profiles: P[] | null = null;
   let pairs: ZoneSet<P, Why>['pairs'] = [];
   let zonesMerged = count, rateClasses = classesMerged;
   if (judge) {
-    const m = mergeRegions(cleaned.zone, cleaned.count, cols, rows, grid.fraction, cell * cell, judge, 'scan');
-    const g = mergeRegions(m.label, m.count, cols, rows, grid.fraction, cell * cell, judge, 'label', true);
-    const comps = labelComponents(Int16Array.from(g.label, (k) => k), cols, rows);
-    zonesMerged = m.count; rateClasses = g.count;
-    zoneLabel = comps.label; count = comps.count; classOfZone = comps.classOfLabel;
-    profiles = Array.from(comps.classOfLabel, (k) => g.profiles[k]);
-    pairs = neighbourPairs(zoneLabel, cols, rows).map(({ a, b }) => ({ a, b, why: judge.compare(profiles![a], profiles![b]).why }));
+    const r = rateClassZones(cleaned.zone, cleaned.count, grid, judge);
+    zonesMerged = r.zonesMerged; rateClasses = r.rateClasses;
+    zoneLabel = r.label; count = r.count; classOfZone = r.classOfZone; profiles = r.profiles; pairs = r.pairs; zoneArea = r.areaM2;
   } else pairs = neighbourPairs(zoneLabel, cols, rows);
   // 4. polygons: shared borders simplified once, then clipped to the exact boundary
-  const poly = zonePolygons(grid, field, zoneLabel, count, opts.simplifyCells ?? 1, minAreaM2);
+  const poly = zonePolygons(grid, field, zoneLabel, count, zoneArea, opts.simplifyCells ?? 1, minAreaM2);
   const proj = opts.lonlat === false ? null : (opts.projector ?? makeProjector(field.utm));
   const zones: Zone[] = [];
   const newId = new Int32Array(count).fill(-1);
@@ -177,15 +175,54 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
 }
 
 /**
- * Zone polygons from a zone raster: arcs simplified to `tol` cells (0 = staircase), rings rebuilt, zones near
+ * Neighbouring zones merged by the judge, then zones anywhere in the field grouped into rate classes (all
+ * pairs judged; a class's profile comes from all its zones' cells pooled), and touching zones of one class
+ * joined. Zone ids follow the raster order of each zone's first cell; classes are numbered by their first zone.
+ */
+function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, judge: RegionJudge<P, Why>) {
+  const m = mergeRegions(zone, count, grid.cols, grid.rows, grid.fraction, grid.cell * grid.cell, judge, 'scan');
+  const g = mergeGraph(m.graph, judge, true);
+  // touching merged zones of one rate class become one zone
+  const parent = Int32Array.from({ length: m.count }, (_, k) => k);
+  const find = (x: number) => { while (parent[x] !== x) { parent[x] = parent[parent[x]]; x = parent[x]; } return x; };
+  for (const p of m.pairs) if (g.root[p.a] === g.root[p.b]) { const a = find(p.a), b = find(p.b); if (a !== b) parent[Math.max(a, b)] = Math.min(a, b); }
+  const newId = new Int32Array(m.count).fill(-1), classId = new Int32Array(m.count).fill(-1);
+  let n = 0, k = 0;
+  const classOf: number[] = [], profiles: P[] = [];
+  for (let z = 0; z < m.count; z++) { // m's ids already follow the raster order of first cells
+    const c = find(z);
+    if (newId[c] >= 0) continue;
+    newId[c] = n++;
+    const gr = g.root[z];
+    if (classId[gr] < 0) classId[gr] = k++;
+    classOf.push(classId[gr]);
+    profiles.push(g.prof[gr]);
+  }
+  const final = Int32Array.from({ length: m.count }, (_, z) => newId[find(z)]);
+  const label = new Int32Array(zone.length);
+  for (let i = 0; i < zone.length; i++) label[i] = zone[i] >= 0 ? final[m.of[zone[i]]] : -1;
+  const seen = new Set<number>();
+  const pairs: { a: number; b: number; why: Why | null }[] = [];
+  for (const p of m.pairs) {
+    const a = Math.min(final[p.a], final[p.b]), b = Math.max(final[p.a], final[p.b]);
+    if (a === b || seen.has(a * n + b)) continue;
+    seen.add(a * n + b);
+    pairs.push({ a, b, why: judge.compare(profiles[a], profiles[b]).why });
+  }
+  pairs.sort((p, q) => p.a - q.a || p.b - q.b);
+  const areaM2 = new Float64Array(n);
+  for (let z = 0; z < m.count; z++) areaM2[final[z]] += m.graph.areaM2[z];
+  return { label, count: n, classOfZone: Int16Array.from(classOf), profiles, pairs, zonesMerged: m.count, rateClasses: k, areaM2 };
+}
+
+/**
+ * Zone polygons from a zone raster (`cellArea`: each zone's area from its cells, m2): arcs simplified to `tol` cells (0 = staircase), rings rebuilt, zones near
  * the boundary clipped to it. A zone that simplification would take under `minAreaM2` although its cells
  * reach it keeps its staircase borders (simplification is redone with them fixed).
  */
-function zonePolygons(grid: Grid, field: Field, label: Int32Array, count: number, tol: number, minAreaM2: number): { parts: RingsPart[][]; vertices: ZoneSet['vertices']; scale: number } {
+function zonePolygons(grid: Grid, field: Field, label: Int32Array, count: number, cellArea: Float64Array, tol: number, minAreaM2: number): { parts: RingsPart[][]; vertices: ZoneSet['vertices']; scale: number } {
   const arcs = zoneArcs(label, count, grid);
   const staircase = simplifyArcs(arcs, 0);
-  const cellArea = new Float64Array(count);
-  for (let i = 0; i < label.length; i++) if (label[i] >= 0) cellArea[label[i]] += grid.fraction[i] * grid.cell * grid.cell;
   const needsClip = zonesNearBoundary(field, grid, label, count, Math.ceil(tol) + 1);
   const planarField = partsArea(field.parts);
   const scale = planarField > 0 ? field.areaM2 / planarField : 1;
@@ -213,9 +250,10 @@ function zonesNearBoundary(field: Field, grid: Grid, label: Int32Array, count: n
   const { cols, rows } = grid;
   const band = boundaryCells(field.parts, grid);
   const out = new Uint8Array(count);
+  for (let i = 0; i < label.length; i++) if (label[i] >= 0 && (!grid.mask[i] || band[i])) out[label[i]] = 1;
+  // smoothed borders move up to about `reach` cells: zones that near the boundary are clipped too
   for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
-    const i = r * cols + c;
-    if (!band[i] && grid.mask[i]) continue;
+    if (!band[r * cols + c]) continue;
     for (let rr = Math.max(0, r - reach); rr <= Math.min(rows - 1, r + reach); rr++) {
       for (let cc = Math.max(0, c - reach); cc <= Math.min(cols - 1, c + reach); cc++) { const z = label[rr * cols + cc]; if (z >= 0) out[z] = 1; }
     }

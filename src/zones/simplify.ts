@@ -108,47 +108,59 @@ const within = (ax: number, ay: number, bx: number, by: number, cx: number, cy: 
 
 /**
  * Segments in square buckets (each segment is registered in the buckets of points along it, spaced half a
- * bucket apart; queries look two buckets around), removed lazily: an entry is live while its start
- * vertex still links to the same end vertex.
+ * bucket apart; queries look one bucket around), removed lazily: an entry is live while its start vertex
+ * still links to the same end vertex.
  */
 class SegmentIndex {
-  private buckets = new Map<number, number[]>();
-  private stamp = new Map<number, number>();
+  private buckets: (number[] | undefined)[];
+  private stamp: Int32Array;
   private query = 0;
-  constructor(private X: Int32Array, private Y: Int32Array, private next: Int32Array, private B: number) {}
+  private nx: number;
+  constructor(private X: Int32Array, private Y: Int32Array, private next: Int32Array, private B: number) {
+    let mx = 0, my = 0;
+    for (let v = 0; v < X.length; v++) { if (X[v] > mx) mx = X[v]; if (Y[v] > my) my = Y[v]; }
+    // one bucket of margin on every side, so neighbours of any bucket exist
+    this.nx = Math.floor(mx / B) + 3;
+    const n = this.nx * (Math.floor(my / B) + 3);
+    this.buckets = new Array(n);
+    this.stamp = new Int32Array(n);
+  }
 
-  private samples(v: number, w: number, each: (bx: number, by: number) => void): void {
-    const { X, Y, B } = this;
+  /** Calls each(bucket index) for the buckets of points spaced half a bucket along v-w (ends included). */
+  private samples(v: number, w: number, each: (k: number) => void): void {
+    const { X, Y, B, nx } = this;
     const n = Math.max(1, Math.ceil(Math.hypot(X[w] - X[v], Y[w] - Y[v]) / (B / 2)));
-    let last = NaN;
+    let last = -1;
     for (let s = 0; s <= n; s++) {
       const x = X[v] + ((X[w] - X[v]) * s) / n, y = Y[v] + ((Y[w] - Y[v]) * s) / n;
-      const bx = Math.floor(x / B), by = Math.floor(y / B), k = by * 1_000_003 + bx;
-      if (k !== last) each(bx, by);
+      const k = (Math.floor(y / B) + 1) * nx + Math.floor(x / B) + 1;
+      if (k !== last) each(k);
       last = k;
     }
   }
 
   insert(v: number): void {
     const w = this.next[v];
-    this.samples(v, w, (bx, by) => {
-      const k = by * 1_000_003 + bx;
-      let b = this.buckets.get(k);
-      if (!b) this.buckets.set(k, (b = []));
-      b.push(v, w);
+    this.samples(v, w, (k) => {
+      const b = this.buckets[k];
+      if (b) b.push(v, w); else this.buckets[k] = [v, w];
     });
   }
 
-  /** Live segments near the segment i-j, each once. */
+  /**
+   * Live segments near the segment i-j, each bucket once. Buckets are at least twice the tolerance wide and
+   * points along a segment at most a quarter bucket from a registered sample, so every segment within the
+   * tolerance of i-j is registered in a bucket next to one of i-j's samples.
+   */
   private near(i: number, j: number, each: (v: number, w: number) => boolean): boolean {
-    const q = ++this.query;
+    const q = ++this.query, nx = this.nx;
     let ok = true;
-    this.samples(i, j, (bx, by) => {
-      for (let dy = -2; dy <= 2 && ok; dy++) for (let dx = -2; dx <= 2 && ok; dx++) {
-        const k = (by + dy) * 1_000_003 + bx + dx;
-        if (this.stamp.get(k) === q) continue;
-        this.stamp.set(k, q);
-        const b = this.buckets.get(k);
+    this.samples(i, j, (k0) => {
+      for (let dy = -1; dy <= 1 && ok; dy++) for (let dx = -1; dx <= 1 && ok; dx++) {
+        const k = k0 + dy * nx + dx;
+        if (this.stamp[k] === q) continue;
+        this.stamp[k] = q;
+        const b = this.buckets[k];
         if (!b) continue;
         let live = 0;
         for (let t = 0; t < b.length && ok; t += 2) {
@@ -165,15 +177,13 @@ class SegmentIndex {
 
   /** The shortcut i-j of the run i..j may replace it: no touching, no vertex changes side. */
   shortcutOk(i: number, j: number): boolean {
-    const { X, Y, next } = this;
-    const seen = new Set<number>();
-    const inRun = (v: number) => v >= i && v < j && (v === i || seen.has(v));
-    for (let v = next[i]; v !== j; v = next[v]) seen.add(v);
+    const { X, Y } = this;
+    // an arc's vertex ids are consecutive, so the run's current vertices are exactly those with ids in [i, j]
     return this.near(i, j, (v, w) => {
-      if (inRun(v)) return true;
+      if (v >= i && v < j) return true;
       if (this.touches(i, j, v, w)) return false;
       for (const p of [v, w]) {
-        if ((X[p] === X[i] && Y[p] === Y[i]) || (X[p] === X[j] && Y[p] === Y[j]) || p === i || p === j || seen.has(p)) continue;
+        if ((p >= i && p <= j) || (X[p] === X[i] && Y[p] === Y[i]) || (X[p] === X[j] && Y[p] === Y[j])) continue;
         if (this.insideRun(i, j, X[p], Y[p])) return false;
       }
       return true;

@@ -79,6 +79,9 @@ describe('interpretation', () => {
     expect(decide({ ...SOIL, p: 23.9 }, p, T).interpretation.p.className).toBe('medium'); // 20 x 1.2 = 24
     expect(decide({ ...SOIL, p: 24 }, p, T).interpretation.p.className).toBe('high');
     expect(decide({ ...SOIL, p: 24 }, p, T).interpretation.p.kelownaFactor).toBe(1.2);
+    // the factor is said with every decision (and so in every output that shows a class)
+    expect(decide({ ...SOIL, p: 24 }, p, T).warnings.find((w) => w.code === 'kelowna-factor')!.message).toContain('x 1.2');
+    expect(decide({ ...SOIL, p: 24 }, plan(), T).warnings.some((w) => w.code === 'kelowna-factor')).toBe(false);
   });
 
   it('canola S: a high test still gets the 10 lb S floor and is flagged uncertain', () => {

@@ -4,7 +4,7 @@
  * (invented field, written by scripts/make-check-fixtures.ts); binary broken sets are made here.
  */
 import { describe, expect, it, beforeAll, afterAll } from 'vitest';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, unlinkSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import fc from 'fast-check';

@@ -8,6 +8,11 @@ import { prepareInputs, type PrepareOptions } from '../../src/validate/inputs.js
  * Reads and judges samples, boundary and optional zones given as files (name + bytes).
  * @example const inputs = await fieldInputs({ name: 'samples.csv', bytes }, { name: 'boundary.geojson', bytes: b });
  */
-export async function fieldInputs(samples: InputFile, boundary: InputFile, zones?: InputFile, opts: PrepareOptions & { assumeWgs84?: boolean } = {}): Promise<FieldInputs> {
+export async function fieldInputs(
+  samples: InputFile,
+  boundary: InputFile,
+  zones?: InputFile,
+  opts: PrepareOptions & { assumeWgs84?: boolean } = {},
+): Promise<FieldInputs> {
   return prepareInputs(await readInputs({ samples, boundary, zones }, opts), opts);
 }

@@ -29,6 +29,12 @@ describe('CSV', () => {
     expect(parseCsv('a\tb\n1\t2\n').rows).toEqual([['a', 'b'], ['1', '2']]);
   });
 
+  it('semicolons with decimal commas in every column are not taken for a comma file', () => {
+    // common practice: European-locale spreadsheets write ";" between cells and "," as the decimal mark
+    const t = readCsvRecords('Sample;Lat;Long;K (ppm);OM (%)\nA;52,3211;-106,4172;344,5;3,5\nB;52,3212;-106,4171;300,0;2,5\n', 't.csv', []);
+    expect(t.records.map((r) => [r.lat, r.lon, r.props['K (ppm)'], r.props['OM (%)']])).toEqual([[52.3211, -106.4172, '344.5', '3.5'], [52.3212, -106.4171, '300.0', '2.5']]);
+  });
+
   it('any table written with RFC 4180 quoting reads back the same (property)', () => {
     // source: RFC 4180 section 2: a field with comma, quote or line break is quoted, quotes doubled
     const cell = fc.string({ unit: fc.constantFrom('a', 'b', ',', '"', '\n', ' ', '1', 'é'), maxLength: 6 });

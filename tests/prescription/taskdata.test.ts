@@ -2,7 +2,7 @@
  * Task data written by tilth, read back by outside readers: the `isoxml` npm package (ISO 11783-10
  * entities, grids) and xmllint (libxml2, well-formedness). Areas by GeographicLib (Karney 2013).
  */
-import { readFileSync, readdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { readFileSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';

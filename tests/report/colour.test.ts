@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { classColours, QUALITATIVE, rampRgb, textOn, type RampName } from '../../src/report/colour.js';
+import { classColours, QUALITATIVE, rampRgb, rateColours, textOn, type RampName } from '../../src/report/colour.js';
 
 /** CIE 1976 L* of an sRGB colour (sRGB transfer function IEC 61966-2-1; L* from CIE 15:2004). */
 function lightness(hex: string): number {
@@ -51,5 +51,20 @@ describe('colour ramps', () => {
     };
     for (const r of ramps) for (const c of classColours(r, 7)) expect(contrast(c, textOn(c))).toBeGreaterThanOrEqual(4.5);
     for (const c of QUALITATIVE) expect(contrast(c, textOn(c))).toBeGreaterThanOrEqual(4.5);
+  });
+
+  it('rate legends: equal rates share a colour, rates closer than the minimum difference stay close, far rates span the ramp', () => {
+    // the ramp's end colours for the lowest and highest rate when the rates differ by far more than the minimum
+    expect(rateColours('cividis', [0, 117], 5)).toEqual(classColours('cividis', 2));
+    // the demo's old urea rates 206, 212, 215 with a minimum difference of 21: all within a quarter of the ramp,
+    // measured as CIE L* (cividis' lightness spans about 80 L* units end to end)
+    const [a, b, c] = rateColours('cividis', [206, 212, 215], 21).map(lightness);
+    const span = Math.abs(lightness(classColours('cividis', 2)[1]!) - lightness(classColours('cividis', 2)[0]!));
+    expect(Math.max(a!, b!, c!) - Math.min(a!, b!, c!)).toBeLessThan(span / 4);
+    // one rate: the ramp's middle, like a single class
+    expect(rateColours('cividis', [87], 5)).toEqual(classColours('cividis', 1));
+    // colours follow the rates' order (lightness rises with the rate)
+    const ls = rateColours('cividis', [20, 40, 60, 90], 5).map(lightness);
+    for (let i = 1; i < ls.length; i++) expect(ls[i]!).toBeGreaterThan(ls[i - 1]!);
   });
 });

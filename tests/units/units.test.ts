@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import * as u from '../../src/units/index.js';
 
-describe('units (values from ../shared/reference/agronomy.md)', () => {
+describe('units (published conversion values, source beside each)', () => {
   it('P to P2O5 and K to K2O from IUPAC atomic weights', () => {
     // source: IUPAC atomic weights; extension tables print 2.29 and 0.4364
     // the sheet prints 2.2914; from the atomic weights it is 2.29132 (agrees to 3 decimals)

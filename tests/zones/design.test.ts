@@ -56,7 +56,12 @@ describe('zones worth a boundary', () => {
     for (const t of rx.totals) expect(set.design!.minDifference[`${t.product}|${t.placement}`]).toBeGreaterThanOrEqual(Math.max(1, 0.1 * t.meanRate) * 0.5);
     // smoothing: fewer vertices than the staircase
     expect(set.design!.vertices.simplified).toBeLessThan(set.design!.vertices.traced / 2);
-  }, 120_000);
+    // output.max_vertices: a limit below what the zones need stops the build, naming the key and the count
+    const written = set.design!.vertices.clipped;
+    const tight = planWith((p) => { p.output.max_vertices = written - 1; });
+    expect(() => buildPrescription(inputs, tight, tables, { cell: 5 })).toThrow(new RegExp(`needs ${written} polygon vertices, more than plan key output.max_vertices \\(${written - 1}\\)`));
+    expect(buildPrescription(inputs, planWith((p) => { p.output.max_vertices = written; }), tables, { cell: 5 }).zoneSets[0].zones.length).toBe(set.zones.length);
+  }, 180_000);
 
   // An invented field (not the demo): 800 m x 800 m near 52.1 N 106.5 W with a 100 m slough, 8 x 8 grid samples
   // 100 m apart. Olsen P runs from 5 ppm (west) to 32 ppm (east): it crosses the 10 and 20 ppm classes, a real

@@ -1,6 +1,6 @@
 /**
  * Integration: zones written as GeoJSON (WGS 84) open in GDAL 3.6 ogrinfo and every zone is valid by
- * GEOS (ST_IsValid through OGR's SQLite dialect, the check named in /work/shared/reference/formats.md).
+ * GEOS (ST_IsValid through OGR's SQLite dialect, the validity check GDAL documents).
  */
 import { describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';

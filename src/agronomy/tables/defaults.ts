@@ -1,6 +1,6 @@
 /**
  * The default agronomy tables tilth ships, as data (the bundle carries them; nothing reads a file).
- * Every entry carries `source`, marked as in ../shared/reference/agronomy.md:
+ * Every entry carries `source`, marked as DEVELOPERS.md says:
  * `[published] <publication>`, `common practice`, or `from memory`. A value that no publication we found
  * gives is `missing: true`: the program then asks the user (a plan key) instead of inventing one.
  * Users print these with `tilth tables`, edit them, and pass `--tables my-tables.yaml`.

@@ -28,7 +28,12 @@ export interface LonLatShapefile {
   crs: string;
 }
 
-const DATUM_WORDS: Record<CrsInfo['datum'], string> = { WGS84: 'WGS 84', NAD83: 'NAD83', 'NAD83(CSRS)': 'NAD83(CSRS)', other: 'other' };
+const DATUM_WORDS: Record<CrsInfo['datum'], string> = {
+  WGS84: 'WGS 84',
+  NAD83: 'NAD83',
+  'NAD83(CSRS)': 'NAD83(CSRS)',
+  other: 'other',
+};
 
 /** The .prj as tilth reads inputs: WGS 84 / NAD83 degrees or UTM metres, else a UserError with the fix. */
 function inputCrs(read: ShapefileRead, opts: LonLatOptions): CrsInfo | null {
@@ -71,12 +76,28 @@ export function shapefileLonLat(read: ShapefileRead, opts: LonLatOptions = {}): 
   const features = read.features.map((f, i): LonLatFeature => {
     const props: Record<string, RawValue> = {};
     for (const [k, v] of Object.entries(f.properties ?? {})) {
-      props[k] = v === undefined || v === null ? null : typeof v === 'number' || typeof v === 'boolean' ? v : typeof v === 'string' ? v.trim() : String(v);
+      props[k] =
+        v === undefined || v === null
+          ? null
+          : typeof v === 'number' || typeof v === 'boolean'
+            ? v
+            : typeof v === 'string'
+              ? v.trim()
+              : String(v);
     }
     const g = f.geometry as unknown as { type: string; coordinates: unknown } | null;
-    return { where: `record ${i + 1}`, props, geometry: g ? { type: g.type, coordinates: mapCoords(g.coordinates) } : null };
+    return {
+      where: `record ${i + 1}`,
+      props,
+      geometry: g ? { type: g.type, coordinates: mapCoords(g.coordinates) } : null,
+    };
   });
-  const words = crs === null ? 'WGS 84 (assumed)' : crs.kind === 'utm' ? `UTM zone ${crs.zone}${crs.south ? 'S' : 'N'} (${DATUM_WORDS[crs.datum]}), reprojected to WGS 84` : DATUM_WORDS[crs.datum];
+  const words =
+    crs === null
+      ? 'WGS 84 (assumed)'
+      : crs.kind === 'utm'
+        ? `UTM zone ${crs.zone}${crs.south ? 'S' : 'N'} (${DATUM_WORDS[crs.datum]}), reprojected to WGS 84`
+        : DATUM_WORDS[crs.datum];
   return { file: read.file, features, crs: words };
 }
 
@@ -88,17 +109,26 @@ export function shapefilePoints(r: LonLatShapefile): RawTable {
   const columns: string[] = [];
   for (const f of r.features) for (const k of Object.keys(f.props)) if (!columns.includes(k)) columns.push(k);
   if (columns.length === 0) {
-    throw new UserError(`${r.file}: the samples have no attributes (no .dbf beside the .shp?). Fix: copy the .dbf with the .shp; the soil-test values are in it.`, { file: r.file });
+    throw new UserError(
+      `${r.file}: the samples have no attributes (no .dbf beside the .shp?). Fix: copy the .dbf with the .shp; the soil-test values are in it.`,
+      { file: r.file },
+    );
   }
   return {
-    file: r.file, columns, crs: r.crs,
+    file: r.file,
+    columns,
+    crs: r.crs,
     records: r.features.map((f) => {
       const g = f.geometry;
       let c: unknown = null;
       if (g?.type === 'Point') c = g.coordinates;
-      else if (g?.type === 'MultiPoint' && Array.isArray(g.coordinates) && g.coordinates.length === 1) c = g.coordinates[0];
+      else if (g?.type === 'MultiPoint' && Array.isArray(g.coordinates) && g.coordinates.length === 1)
+        c = g.coordinates[0];
       if (!Array.isArray(c)) {
-        throw new UserError(`${r.file} ${f.where}: a soil sample must be a point, not ${g ? g.type : 'an empty shape'}. Fix: give the samples as a point layer.`, { file: r.file, where: f.where });
+        throw new UserError(
+          `${r.file} ${f.where}: a soil sample must be a point, not ${g ? g.type : 'an empty shape'}. Fix: give the samples as a point layer.`,
+          { file: r.file, where: f.where },
+        );
       }
       return { where: f.where, lon: c[0] as number, lat: c[1] as number, props: f.props };
     }),
@@ -114,9 +144,14 @@ export function shapefilePolygons(r: LonLatShapefile, what: string): RawPolygons
     file: r.file,
     features: r.features.map((f) => {
       const g = f.geometry;
-      if (g?.type === 'Polygon') return { where: f.where, props: f.props, coordinates: [g.coordinates as number[][][]] };
-      if (g?.type === 'MultiPolygon') return { where: f.where, props: f.props, coordinates: g.coordinates as number[][][][] };
-      throw new UserError(`${r.file} ${f.where}: the ${what} must be a polygon, not ${g ? g.type : 'an empty shape'}. Fix: give the ${what} as a polygon layer.`, { file: r.file, where: f.where });
+      if (g?.type === 'Polygon')
+        return { where: f.where, props: f.props, coordinates: [g.coordinates as number[][][]] };
+      if (g?.type === 'MultiPolygon')
+        return { where: f.where, props: f.props, coordinates: g.coordinates as number[][][][] };
+      throw new UserError(
+        `${r.file} ${f.where}: the ${what} must be a polygon, not ${g ? g.type : 'an empty shape'}. Fix: give the ${what} as a polygon layer.`,
+        { file: r.file, where: f.where },
+      );
     }),
   };
 }

@@ -59,7 +59,11 @@ function toArrayBuffer(u: Uint8Array): ArrayBuffer {
   return u.buffer.slice(u.byteOffset, u.byteOffset + u.byteLength) as ArrayBuffer;
 }
 
-function rawColumns(bytes: Uint8Array, h: DbfHeader, decoder: { decode(b: Uint8Array): string }): Record<string, string[]> {
+function rawColumns(
+  bytes: Uint8Array,
+  h: DbfHeader,
+  decoder: { decode(b: Uint8Array): string },
+): Record<string, string[]> {
   const out: Record<string, string[]> = {};
   let off = 1;
   const offs = h.fields.map((f) => {
@@ -79,9 +83,15 @@ function rawColumns(bytes: Uint8Array, h: DbfHeader, decoder: { decode(b: Uint8A
 }
 
 /** Checks the .shp, .shx and .dbf headers against each other; returns the .dbf header (null without a .dbf). */
-function checkSet(files: ShapefileBytes, label: string): { records: number; shapeType: number; dbf: DbfHeader | null } {
+function checkSet(
+  files: ShapefileBytes,
+  label: string,
+): { records: number; shapeType: number; dbf: DbfHeader | null } {
   const base = label.replace(/\.shp$/i, '');
-  if (files.shp.length === 0) throw new UserError(`${label}: the .shp file is empty (0 bytes). Fix: export the layer again.`, { file: label });
+  if (files.shp.length === 0)
+    throw new UserError(`${label}: the .shp file is empty (0 bytes). Fix: export the layer again.`, {
+      file: label,
+    });
   if (files.dbf && files.dbf.length === 0) {
     throw new UserError(
       `${label}: the .dbf file beside it is empty (0 bytes), so the attributes are lost. Fix: export the layer again, or copy the whole set of files (.shp, .shx, .dbf, .prj, .cpg).`,
@@ -89,16 +99,26 @@ function checkSet(files: ShapefileBytes, label: string): { records: number; shap
     );
   }
   const layout = inspectShp(files.shp);
-  if (typeof layout === 'string') throw new UserError(`${label}: not a readable shapefile: ${layout}. Fix: export the layer again (the copy may be incomplete).`, { file: label });
+  if (typeof layout === 'string')
+    throw new UserError(
+      `${label}: not a readable shapefile: ${layout}. Fix: export the layer again (the copy may be incomplete).`,
+      { file: label },
+    );
   if (files.shx) {
     const shxRecords = (files.shx.length - 100) / 8;
     if (shxRecords !== layout.records) {
-      throw new UserError(`${base}.shx: lists ${shxRecords} records but ${label} holds ${layout.records}. Fix: export the layer again; the files of the set do not belong together.`, { file: `${base}.shx` });
+      throw new UserError(
+        `${base}.shx: lists ${shxRecords} records but ${label} holds ${layout.records}. Fix: export the layer again; the files of the set do not belong together.`,
+        { file: `${base}.shx` },
+      );
     }
   }
   if (!files.dbf) return { records: layout.records, shapeType: layout.shapeType, dbf: null };
   const h = inspectDbf(files.dbf);
-  if (typeof h === 'string') throw new UserError(`${base}.dbf: not a readable dBASE table: ${h}. Fix: export the layer again.`, { file: `${base}.dbf` });
+  if (typeof h === 'string')
+    throw new UserError(`${base}.dbf: not a readable dBASE table: ${h}. Fix: export the layer again.`, {
+      file: `${base}.dbf`,
+    });
   if (h.records !== layout.records) {
     throw new UserError(
       `${base}.dbf: holds ${h.records} records but ${label} holds ${layout.records} shapes; every shape needs exactly one row. Fix: export the layer again; the files of the set do not belong together.`,
@@ -127,9 +147,14 @@ export async function readShapefile(files: ShapefileBytes, label: string): Promi
   const shapefile = await import('shapefile');
   let fc;
   try {
-    fc = await shapefile.read(toArrayBuffer(files.shp), files.dbf ? toArrayBuffer(files.dbf) : undefined, { encoding });
+    fc = await shapefile.read(toArrayBuffer(files.shp), files.dbf ? toArrayBuffer(files.dbf) : undefined, {
+      encoding,
+    });
   } catch (e) {
-    throw new UserError(`${label}: cannot be read as a shapefile (${(e as Error).message}). Fix: export the layer again.`, { file: label });
+    throw new UserError(
+      `${label}: cannot be read as a shapefile (${(e as Error).message}). Fix: export the layer again.`,
+      { file: label },
+    );
   }
   const prj = files.prj ? new TextDecoder().decode(files.prj) : '';
   return {

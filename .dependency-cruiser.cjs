@@ -1,0 +1,41 @@
+/**
+ * Layer rules (docs/architecture.md, "Stages"): the rate engine knows no space, the readers and the geometry
+ * kernel know no later stage, and nothing in the library reaches into the command line.
+ * Run by `npm run lint` (depcruise src --config .dependency-cruiser.cjs).
+ */
+module.exports = {
+  forbidden: [
+    {
+      name: 'agronomy-not-spatial',
+      comment: 'src/agronomy decides per location; it imports no spatial or output stage.',
+      severity: 'error',
+      from: { path: '^src/agronomy/' },
+      to: { path: '^src/(geo|surface|zones|prescription|report|variability|check|io|validate|cli)/' },
+    },
+    {
+      name: 'io-geo-first',
+      comment: 'src/io (readers) and src/geo (geometry and CRS kernel) come first; they import no later stage.',
+      severity: 'error',
+      from: { path: '^src/(io|geo)/' },
+      to: { path: '^src/(validate|stats|surface|agronomy|zones|prescription|report|variability|check|cli)/' },
+    },
+    {
+      name: 'nothing-imports-cli',
+      comment: 'the library never depends on the command line (which touches process, console and files).',
+      severity: 'error',
+      from: { path: '^src/', pathNot: '^src/cli/' },
+      to: { path: '^src/cli/' },
+    },
+    {
+      name: 'no-circular',
+      severity: 'warn',
+      from: {},
+      to: { circular: true },
+    },
+  ],
+  options: {
+    doNotFollow: { path: 'node_modules' },
+    tsPreCompilationDeps: true,
+    tsConfig: { fileName: 'tsconfig.json' },
+  },
+};
