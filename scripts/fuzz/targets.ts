@@ -5,7 +5,7 @@
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { zipSync } from 'fflate';
+import { unzipSync, zipSync } from 'fflate';
 import { defaultTables, decide, parsePlan, parseSoilSpec } from '../../src/agronomy/index.js';
 import { checkPrescription, readLayer } from '../../src/check/index.js';
 import { loadInputs } from '../../src/cli/inputs.js';
@@ -18,6 +18,7 @@ const ROOT = join(import.meta.dirname, '..', '..');
 const Q = join(ROOT, 'sample-fields', 'quarter');
 const SHP = join(ROOT, 'tests', 'fixtures', 'shp');
 const CHK = join(ROOT, 'tests', 'fixtures', 'check');
+const XLSX = ['29-xlsx-typed-cells.xlsx', '30-xlsx-second-sheet.xlsx', '31-xlsx-units-row-cm.xlsx'];
 const read = (p: string) => readFileSync(p);
 const text = (p: string) => readFileSync(p, 'utf8');
 
@@ -78,6 +79,16 @@ export const TARGETS: Target[] = [
     const isSamples = p.endsWith('samples.zip');
     const res = await afterLoad(r, isSamples ? p : join(Q, 'samples.csv'), isSamples ? join(Q, 'boundary.geojson') : p);
     return { ...res, mustRefuse: 'a zip that unpacks to far more than any input' };
+  } },
+  { name: 'xlsx-samples', weight: 2, async run(r, dir) {
+    // unpack the workbook, damage one part (the sheet's XML as text, or any part's bytes), pack it again
+    const parts = unzipSync(new Uint8Array(read(join(ROOT, 'tests', 'fixtures', 'labs', r.pick(XLSX)))));
+    const names = Object.keys(parts);
+    const k = r.chance(0.6) ? names.find((n) => /sheet1\.xml$|sharedStrings/.test(n)) ?? r.pick(names) : r.pick(names);
+    parts[k] = <Uint8Array<ArrayBuffer>>(r.chance(0.7) ? new TextEncoder().encode(many(r, new TextDecoder().decode(parts[k]), mutateText)) : many(r, parts[k]!, mutateBytes));
+    const p = join(dir, 'samples.xlsx');
+    writeFileSync(p, r.chance(0.1) ? many(r, zipSync(parts), mutateBytes) : zipSync(parts));
+    return afterLoad(r, p, join(Q, 'boundary.geojson'));
   } },
   { name: 'check-geojson', weight: 3, async run(r, dir) {
     const name = r.pick(['good.geojson', 'gap.geojson', 'overlap.geojson', 'outside.geojson']);

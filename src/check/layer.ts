@@ -6,6 +6,7 @@ import type { Feature } from 'geojson';
 import { UserError } from '../errors.js';
 import { readZip } from '../io/zip.js';
 import { readShapefile } from '../io/shapefile/read.js';
+import { setFilesProblem } from './setfiles.js';
 import { shapefileSet } from '../io/inputs.js';
 import { parseGeoJson } from '../io/geojson.js';
 import { readPrj, type CrsInfo } from '../geo/crs.js';
@@ -73,7 +74,11 @@ export async function readLayer(files: Record<string, Uint8Array>, main: string)
   if (!bytes) throw new UserError(`${main}: not found. Fix: check the path.`, { file: main });
   if (e === 'geojson' || e === 'json') return layerFromGeoJSON(new TextDecoder().decode(bytes), main);
   if (e === 'shp') {
-    const set = await readShapefile(shapefileSet(files, main), main);
+    const parts = shapefileSet(files, main);
+    const set = await readShapefile(parts, main);
+    // then what the reader lets through but GDAL reads differently, or not at all (src/check/setfiles.ts)
+    const mismatch = setFilesProblem(parts.shp, parts.shx, parts.dbf);
+    if (mismatch) throw new UserError(`${main}: the shapefile's files do not agree: ${mismatch}; GDAL and field terminals would read it differently or not at all. Fix: export the prescription again.`, { file: main });
     if (set.shapeType !== 5) {
       throw new UserError(`${main}: holds shape type ${set.shapeType}, not polygons (type 5). Fix: give the zone polygons of the prescription, not points or lines.`, { file: main, value: set.shapeType });
     }

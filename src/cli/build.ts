@@ -3,7 +3,7 @@ import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
 import { buildPrescription, defaultCell, type Prescription } from '../prescription/index.js';
 import { checkBuildCells, checkBoundaryVertices } from './safety/budgets.js';
-import { readinessProblems } from './safety/readiness.js';
+import { addOutlierWarnings, readinessProblems } from './safety/readiness.js';
 import { UserError } from '../errors.js';
 import type { FieldInputs } from '../types.js';
 import type { Plan } from '../agronomy/index.js';
@@ -115,4 +115,5 @@ function refuseUnfit(inputs: FieldInputs, plan: Plan, samplesFile: string, bound
   checkBoundaryVertices(inputs.field, boundaryFile);
   const problems = readinessProblems(inputs, plan, samplesFile);
   if (problems.length) throw new UserError(`cannot make a prescription from these inputs:\n  ${problems.join('\n  ')}`);
+  addOutlierWarnings(inputs, samplesFile);
 }

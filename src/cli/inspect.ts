@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { info, out, printWarnings } from './util.js';
-import { readinessProblems } from './safety/readiness.js';
+import { addOutlierWarnings, readinessProblems } from './safety/readiness.js';
 import { inspectInputs, formatInspection } from '../stats/inspect.js';
 import { formatReading } from '../validate/reading.js';
 
@@ -17,6 +17,7 @@ export function register(program: Command): void {
       '  tilth inspect --samples sample-fields/zoned/samples.geojson --boundary sample-fields/zoned/boundary.geojson --zones sample-fields/zoned/zones.geojson --json')
     .action(async (o) => {
       const inputs = await loadInputs(inputOptionsFrom(o));
+      addOutlierWarnings(inputs, o.samples);
       const r = inspectInputs(inputs);
       const problems = readinessProblems(inputs, null, o.samples);
       if (o.json) out(JSON.stringify({ ...r, columns: inputs.reading ?? [], cannotPrescribe: problems }, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));

@@ -6,14 +6,14 @@
 import type { Warning } from '../errors.js';
 import type { Decision } from '../agronomy/decide.js';
 import type { Plan } from '../agronomy/plan.js';
-import { NUTRIENTS, type Nutrient, type Tables } from '../agronomy/tables.js';
+import { NUTRIENTS, TEXTURES, type Nutrient, type Tables } from '../agronomy/tables.js';
 import { pointInParts } from '../geo/area.js';
 import type { NutrientSurface } from '../surface/nutrientSurface.js';
 import { classify, classifyVectors, type Classes } from '../zones/classify.js';
 import { makeZones, type ZoneSet } from '../zones/index.js';
 import type { Analyte, FieldInputs, Grid } from '../types.js';
 import { M_PER_FT, m2ToAc, mphToMs } from '../units/index.js';
-import { rateJudge, TEXTURES, type ApartReason, type ZoneProfile } from './rateJudge.js';
+import { rateJudge, type ApartReason, type ZoneProfile } from './rateJudge.js';
 
 /** How a zone set's zones came about. */
 export interface ZoneDesign {

@@ -6,6 +6,7 @@
 import type { Plan } from '../../agronomy/index.js';
 import type { Analyte, FieldInputs } from '../../types.js';
 import { farParts, MAX_UNSAMPLED_DISTANCE_M } from './budgets.js';
+import { implausibleValues, neighbourOutliers } from './plausible.js';
 
 /** Samples all within this distance of each other count as one place: 1 m (GPS error of a sampling probe). */
 export const ONE_PLACE_M = 1;
@@ -44,6 +45,7 @@ export function readinessProblems(inputs: FieldInputs, need: Plan | Analyte | nu
       if (!v[a] || !usable(v[a])) out.push(`${samplesFile}: no usable ${NAMES[a]} value, and the plan's ${NAMES[a]} strategy needs one. Fix: add the ${NAMES[a]} results, or set strategy.${a === 'no3_n' ? 'n' : a === 'so4_s' ? 's' : a}.method to none in the plan.`);
     }
   }
+  out.push(...implausibleValues(inputs.samples));
   const xy = inputs.samples.xy;
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
   for (let i = 0; i < xy.length; i += 2) { x0 = Math.min(x0, xy[i]!); x1 = Math.max(x1, xy[i]!); y0 = Math.min(y0, xy[i + 1]!); y1 = Math.max(y1, xy[i + 1]!); }
@@ -55,4 +57,13 @@ export function readinessProblems(inputs: FieldInputs, need: Plan | Analyte | nu
     if (far.length) out.push(`boundary part${far.length > 1 ? 's' : ''} ${far.join(', ')} of ${inputs.field.parts.length} lie${far.length > 1 ? '' : 's'} more than ${MAX_UNSAMPLED_DISTANCE_M} m from every sample; the samples say nothing about ${far.length > 1 ? 'them' : 'it'}. Fix: give the boundary of the sampled field only, or add samples there.`);
   }
   return out;
+}
+
+/**
+ * Adds the neighbour outlier warnings (src/cli/safety/plausible.ts) to the inputs' warnings, so they reach every
+ * output built from them (summary, report) and the terminal.
+ * @example addOutlierWarnings(inputs, 'samples.csv')
+ */
+export function addOutlierWarnings(inputs: FieldInputs, samplesFile: string): void {
+  inputs.warnings.push(...neighbourOutliers(inputs.samples, samplesFile));
 }

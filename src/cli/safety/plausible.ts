@@ -1,0 +1,107 @@
+/**
+ * Soil values that cannot be right: outside a plausible range for the analyte (a typo, a unit mix-up, 1e300) is
+ * refused with the sample's row and the fix; a value far from its neighbours' is named in a warning (and so in
+ * the report), since a real hot spot and a mislabelled bag look alike and only the user can tell. Pure.
+ */
+import type { Warning } from '../../errors.js';
+import type { Analyte, Samples } from '../../types.js';
+
+/**
+ * Plausible ranges in tilth's canonical units (common practice, prairie soil tests: values beyond these come
+ * from typing or unit errors, not from soils). Olsen P above 200 ppm and modified Kelowna above 300 ppm occur
+ * only on heavily manured ground; nitrate-N and sulphate-S in lb/ac 0-24 in; saline soils hold thousands of
+ * lb sulphate-S.
+ */
+export const PLAUSIBLE: Record<Analyte, { min: number; max: number; unit: string }> = {
+  no3_n: { min: 0, max: 600, unit: 'lb/ac 0-24 in' },
+  p: { min: 0, max: 200, unit: 'ppm (Olsen)' },
+  k: { min: 0, max: 2000, unit: 'ppm' },
+  so4_s: { min: 0, max: 5000, unit: 'lb/ac 0-24 in' },
+  om: { min: 0, max: 80, unit: '%' },
+  ph: { min: 2, max: 11, unit: '' },
+};
+/** Modified Kelowna P reads higher than Olsen: up to 300 ppm. */
+export const PLAUSIBLE_P_KELOWNA_MAX = 300;
+
+const NAMES: Record<Analyte, string> = { no3_n: 'nitrate-N', p: 'P', k: 'K', so4_s: 'sulphate-S', om: 'organic matter', ph: 'pH' };
+
+/**
+ * Values outside {@link PLAUSIBLE}, one message each (at most `limit`), naming the sample, its row and the fix.
+ * @example implausibleValues(samples) // ['samples.csv rows 12-13, sample "HQ-06": P 1500 ppm (Olsen) is outside 0-200 ...']
+ */
+export function implausibleValues(s: Samples, limit = 5): string[] {
+  const out: string[] = [];
+  for (const a of Object.keys(PLAUSIBLE) as Analyte[]) {
+    const v = s.values[a];
+    if (!v) continue;
+    const r = PLAUSIBLE[a];
+    const max = a === 'p' && s.pMethod === 'kelowna' ? PLAUSIBLE_P_KELOWNA_MAX : r.max;
+    const unit = a === 'p' && s.pMethod === 'kelowna' ? 'ppm (modified Kelowna)' : r.unit;
+    for (let i = 0; i < v.length && out.length < limit; i++) {
+      const x = v[i]!;
+      if (Number.isNaN(x) || (x >= r.min && x <= max)) continue;
+      out.push(`${s.origin[i] ?? `sample ${i + 1}`}, sample "${s.ids[i]}": ${NAMES[a]} ${x} ${unit} is outside the plausible ${r.min}-${max} (common practice); a typing or unit error? Fix: correct the value, or leave the cell empty if it was not tested.`);
+    }
+  }
+  return out;
+}
+
+/** Median of a small array (sorted copy). */
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
+}
+
+/** Samples compared with their neighbours: at most 5 000 (brute-force neighbours, 25 million distances). */
+export const OUTLIER_MAX_SAMPLES = 5_000;
+/** Neighbours a sample is compared with: 6. */
+export const OUTLIER_NEIGHBOURS = 6;
+/** Robust z above which a value is named: 5 (residual from the neighbours' median over 1.4826 x the median absolute residual). */
+export const OUTLIER_Z = 5;
+
+/** Also required: a factor of {@link OUTLIER_FACTOR} from the neighbours' median (pH: 1.5 units), so natural hot spots (saline sulphate, a manure strip) pass. */
+export const OUTLIER_FACTOR = 3;
+const farOff = (a: Analyte, v: number, med: number) => (a === 'ph' ? Math.abs(v - med) > 1.5 : v > OUTLIER_FACTOR * med || v * OUTLIER_FACTOR < med);
+
+/**
+ * A robust neighbour test: each value's residual from the median of its {@link OUTLIER_NEIGHBOURS} nearest
+ * samples, scaled by 1.4826 x the median absolute residual of the field (the MAD, a standard deviation for
+ * normal data; Iglewicz & Hoaglin 1993 use 3.5 on the modified z, tilth names only beyond {@link OUTLIER_Z}).
+ * @returns warnings with code `neighbour-outlier`, one per analyte with outliers
+ * @example neighbourOutliers(samples, 'samples.csv')
+ */
+export function neighbourOutliers(s: Samples, file: string): Warning[] {
+  const n = s.ids.length;
+  if (n < OUTLIER_NEIGHBOURS + 2 || n > OUTLIER_MAX_SAMPLES) return [];
+  const xy = s.xy;
+  const nb: number[][] = [];
+  for (let i = 0; i < n; i++) {
+    const d: [number, number][] = [];
+    for (let j = 0; j < n; j++) if (j !== i) d.push([Math.hypot(xy[2 * i]! - xy[2 * j]!, xy[2 * i + 1]! - xy[2 * j + 1]!), j]);
+    d.sort((a, b) => a[0] - b[0]);
+    nb.push(d.slice(0, OUTLIER_NEIGHBOURS).map((x) => x[1]));
+  }
+  const warnings: Warning[] = [];
+  for (const a of ['no3_n', 'p', 'k', 'so4_s', 'om', 'ph'] as Analyte[]) {
+    const raw = s.values[a];
+    if (!raw) continue;
+    const v = raw;
+    const res = new Float64Array(n).fill(NaN);
+    for (let i = 0; i < n; i++) {
+      const around = nb[i]!.map((j) => v[j]!).filter((x) => !Number.isNaN(x));
+      if (!Number.isNaN(v[i]!) && around.length >= 3) res[i] = v[i]! - median(around);
+    }
+    const abs = [...res].filter((x) => !Number.isNaN(x)).map(Math.abs);
+    if (abs.length < OUTLIER_NEIGHBOURS) continue;
+    const scale = 1.4826 * median(abs);
+    if (!(scale > 0)) continue;
+    const named: string[] = [];
+    for (let i = 0; i < n; i++) if (Math.abs(res[i]!) / scale > OUTLIER_Z && farOff(a, v[i]!, v[i]! - res[i]!)) named.push(`"${s.ids[i]}" (${raw[i]}, neighbours' median ${Math.round((v[i]! - res[i]!) * 100) / 100})`);
+    if (named.length) {
+      warnings.push({ code: 'neighbour-outlier', file, field: a, where: named.join('; '),
+        message: `${file}: ${NAMES[a]} of sample${named.length > 1 ? 's' : ''} ${named.slice(0, 5).join(', ')}${named.length > 5 ? ` and ${named.length - 5} more` : ''} differ${named.length > 1 ? '' : 's'} from ${named.length > 1 ? 'their' : 'its'} ${OUTLIER_NEIGHBOURS} nearest samples by more than ${OUTLIER_Z} robust standard deviations (neighbour outlier test); it is kept. Check the lab report and the bag labels; if it is wrong, correct or remove it.` });
+    }
+  }
+  return warnings;
+}
