@@ -140,11 +140,11 @@ function whyText(c: ZoneSet['counts'], m: MinZoneArea): string {
 }
 
 /** Per texture, 1 where the cell's nearest textured sample has it (NaN when no sample has a texture). */
-function textureLayers(inputs: FieldInputs, grid: Grid): Float64Array[] | null {
+function textureLayers(inputs: FieldInputs, grid: Grid): Uint8Array[] | null {
   const s = inputs.samples;
   const idx = s.texture.map((t, j) => (t ? j : -1)).filter((j) => j >= 0);
   if (idx.length === 0) return null;
-  const out = TEXTURES.map(() => new Float64Array(grid.cols * grid.rows));
+  const out = TEXTURES.map(() => new Uint8Array(grid.cols * grid.rows)); // 0 or 1 per cell: one byte, not eight
   // blocks of b x b cells take the texture nearest their centre (exact at b = 1; about 40 000 blocks at most),
   // found by the shared k-nearest search (src/surface/neighbours.ts) on the grid of blocks
   const b = Math.max(1, Math.floor(Math.sqrt((grid.cols * grid.rows) / 40000)));

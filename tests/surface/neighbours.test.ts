@@ -12,6 +12,8 @@ import { crossValidate, crossValidateMany } from '../../src/surface/crossValidat
 import { nutrientSurface, nutrientSurfaces } from '../../src/surface/nutrientSurface.js';
 import { fieldGrid } from '../../src/surface/grid.js';
 import { medianNearest } from '../../src/variability/sampling.js';
+import { neighbourOutliers } from '../../src/cli/safety/plausible.js';
+import type { Samples } from '../../src/types.js';
 import { orient } from '../../src/geo/field.js';
 import { ANALYTES, type Analyte } from '../../src/types.js';
 
@@ -197,3 +199,56 @@ describe('medianNearest (variability) on the shared search', () => {
     );
   });
 });
+
+describe('neighbourOutliers (input safety) on the shared search', () => {
+  it("each sample's 6 nearest (10 from the search, ordered by Math.hypot) equal a stable sort of every distance", () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 8, max: 150 }), fc.integer({ min: 1, max: 2 ** 30 }), (n, seed) => {
+        const { xy } = setup(n, seed, 12, 12, 5);
+        // the oracle: the original every-pair version in src/cli/safety/plausible.ts (stable sort of all distances)
+        for (let i = 0; i < n; i++) {
+          const d: [number, number][] = [];
+          for (let j = 0; j < n; j++)
+            if (j !== i) d.push([Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]), j]);
+          expect(nearestSix(xy, i)).toEqual(
+            d
+              .sort((a, b) => a[0] - b[0])
+              .slice(0, 6)
+              .map((x) => x[1]),
+          );
+        }
+      }),
+      { numRuns: 60, seed: 26 },
+    );
+  });
+  it('names the same planted outlier as before (tests/safety/plausible.test.ts has the hand-made cases)', () => {
+    const n = 64,
+      rnd = lcg(9);
+    const xy = Float64Array.from(
+      { length: 2 * n },
+      (_, i) => (i % 2 ? OY : OX) + Math.floor(i % 2 ? Math.floor(i / 2) / 8 : (i / 2) % 8) * 50 + rnd(),
+    );
+    const p = Float64Array.from({ length: n }, () => 12 + rnd() * 6);
+    p[20] = 180;
+    const values = Object.fromEntries(
+      ANALYTES.map((a) => [a, a === 'p' ? p : new Float64Array(n).fill(NaN)]),
+    );
+    const s = { ids: [...Array(n).keys()].map((i) => `S${i + 1}`), xy, values } as unknown as Samples;
+    const w = neighbourOutliers(s, 's.csv');
+    expect(w.map((x) => x.where)).toEqual([expect.stringMatching(/^"S21" \(180/)]);
+  });
+});
+
+/** The shared search's six nearest of sample i, ordered by Math.hypot then index (what plausible.ts uses). */
+function nearestSix(xy: Float64Array, i: number): number[] {
+  const nb = sampleNeighbours(xy, 10);
+  const d: [number, number][] = [];
+  for (let t = 0; t < nb.found[i]; t++) {
+    const j = nb.idx[i * nb.k + t];
+    d.push([Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]), j]);
+  }
+  return d
+    .sort((a, b) => a[0] - b[0] || a[1] - b[1])
+    .slice(0, 6)
+    .map((x) => x[1]);
+}

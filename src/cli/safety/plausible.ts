@@ -5,6 +5,7 @@
  */
 import type { Warning } from '../../errors.js';
 import type { Analyte, Samples } from '../../types.js';
+import { sampleNeighbours } from '../../surface/neighbours.js';
 
 /**
  * Plausible ranges in tilth's canonical units (common practice, prairie soil tests: values beyond these come
@@ -75,11 +76,17 @@ export function neighbourOutliers(s: Samples, file: string): Warning[] {
   const n = s.ids.length;
   if (n < OUTLIER_NEIGHBOURS + 2 || n > OUTLIER_MAX_SAMPLES) return [];
   const xy = s.xy;
+  // the nearest others of each sample: a few more than needed from the shared bucketed search (linear, not
+  // every pair), then ordered by Math.hypot, ties to the lower index, as a sort of every distance would
+  const near = sampleNeighbours(xy, OUTLIER_NEIGHBOURS + 4);
   const nb: number[][] = [];
   for (let i = 0; i < n; i++) {
     const d: [number, number][] = [];
-    for (let j = 0; j < n; j++) if (j !== i) d.push([Math.hypot(xy[2 * i]! - xy[2 * j]!, xy[2 * i + 1]! - xy[2 * j + 1]!), j]);
-    d.sort((a, b) => a[0] - b[0]);
+    for (let t = 0; t < near.found[i]; t++) {
+      const j = near.idx[i * near.k + t]!;
+      d.push([Math.hypot(xy[2 * i]! - xy[2 * j]!, xy[2 * i + 1]! - xy[2 * j + 1]!), j]);
+    }
+    d.sort((a, b) => a[0] - b[0] || a[1] - b[1]);
     nb.push(d.slice(0, OUTLIER_NEIGHBOURS).map((x) => x[1]));
   }
   const warnings: Warning[] = [];
