@@ -26,7 +26,6 @@ const node = Object.fromEntries(
  */
 const TO_SPLIT = [
   'src/agronomy/template.ts', // planTemplate: one long template literal of the plan file
-  'src/check/index.ts', // checkPrescription: the checks inline
   'src/cli/variability.ts', // register
   'src/prescription/index.ts', // buildPrescription
   'src/prescription/reportInput.ts', // reportInput

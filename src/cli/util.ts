@@ -54,8 +54,5 @@ export function numberOption(name: string, value: string | undefined, opts: { mi
   return v;
 }
 
-/** The caution every command's help shows. */
-export const CAUTION =
-  'Caution: tilth computes suggestions from soil tests and editable default tables. Too much fertilizer with the\n' +
-  'seed injures or kills seedlings; wrong rates cost money and can pollute water. Follow local guidelines, and\n' +
-  'have a licensed agronomist or certified crop adviser check every prescription before it is applied.';
+/** The caution every command's help shows (src/vocabulary.ts). */
+export { CAUTION } from '../vocabulary.js';

@@ -19,7 +19,7 @@ import { vertexCount } from '../zones/arcs.js';
 import type { Analyte, FieldInputs, Grid, RingsPart, Texture } from '../types.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import { cellTargets } from './cellTargets.js';
-import { designZoneSets, minZoneArea, numberRateClasses, type ZoneDesign } from './zoneDesign.js';
+import { designZoneSets, minZoneArea, numberRateClasses, type MinZoneArea, type ZoneDesign } from './zoneDesign.js';
 
 export { mergeCloseClasses } from './zoneDesign.js';
 
@@ -183,40 +183,14 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
 
   const zoneSets: ZoneSetResult[] = [];
   const sampled = !!inputs.zones && samples.zone.some((z) => z !== null);
-  const allProducts = plan.products.map((p) => p.product);
 
   if (sampled) {
     progress('zones (sampled polygons)', 0);
-    const { zones: sz, warnings: zw } = zonesFromSampleZones(inputs.zones!, field);
-    warnings.push(...zw);
-    const zonesOut: PrescriptionZone[] = sz.map((z, i) => {
-      const idx = samples.zone.map((k, j) => (k === z.key ? j : -1)).filter((j) => j >= 0);
-      const soil: SoilValues = { no3_n: NaN, p: NaN, k: NaN, so4_s: NaN, om: NaN };
-      for (const a of BUILD_ANALYTES) {
-        const vs = idx.map((j) => samples.values[a][j]).filter((v) => Number.isFinite(v));
-        (soil as unknown as Record<string, number>)[a] = vs.length ? vs.reduce((s, v) => s + v, 0) / vs.length : NaN;
-      }
-      soil.texture = majorityTexture(idx.map((j) => samples.texture[j]));
-      soil.pMethod = samples.pMethod;
-      if (idx.length === 0) warnings.push({ code: 'build.zone-unsampled', where: z.key, message: `sampled zone "${z.key}" has no sample; its soil values are unknown and its rates follow the "not tested" rules. Fix: add its composite sample.` });
-      return zoneRecord(i + 1, i + 1, z.key, z.parts, z.lonlat, z.areaM2, soil, idx.map((j) => samples.ids[j]), plan, tables);
-    });
-    zoneSets.push({ name: 'sampled', drivenBy: 'the sampled zone polygons (zone-composite samples)', products: allProducts, zones: zonesOut, breaks: null, minZoneAreaM2: 0, zoneOfCell: null, design: null });
+    zoneSets.push(sampledZoneSet(inputs, plan, tables, warnings));
   } else {
     // 3. classes and zones, merged until neighbouring zones differ by rates that matter (zoneDesign.ts)
     progress('zones (classes, merging, edges, rates per zone)', 0);
-    const analytes = BUILD_ANALYTES.filter((a) => byAnalyte[a]);
-    const designed = designZoneSets({ inputs, plan, tables, grid, targets: tg, surfaces, analytes, layers: analytes.map((a) => byAnalyte[a]!), minArea, mainNutrient: (p) => mainNutrient(p, tables) });
-    warnings.push(...designed.warnings);
-    for (const set of designed.sets) {
-      const profiles = set.zones.profiles!;
-      const zonesOut = set.zones.zones.map((z, zi): PrescriptionZone => ({
-        id: zi + 1, rateClass: 0, key: null, parts: z.parts, lonlat: z.lonlat, areaM2: z.areaM2, areaAc: m2ToAc(z.areaM2), areaHa: m2ToHa(z.areaM2),
-        soil: profiles[zi].soil, samples: set.samples[zi].map((j) => samples.ids[j]), decision: profiles[zi].decision,
-      }));
-      numberRateClasses(zonesOut, set.products);
-      zoneSets.push({ name: set.name, drivenBy: set.drivenBy, products: set.products, zones: zonesOut, breaks: set.breaks, minZoneAreaM2: minArea.usedM2, zoneOfCell: set.zones.zoneOfCell, design: set.design });
-    }
+    zoneSets.push(...designedZoneSets(inputs, plan, tables, grid, tg, surfaces, byAnalyte, minArea, warnings));
   }
   progress('zones (classes, merging, edges, rates per zone)', 1);
   checkVertexLimit(zoneSets, plan.output.max_vertices);
@@ -251,6 +225,42 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
     sampled,
     soilFlags: soilFlagsById(inputs.samples),
   };
+}
+
+/** The zone set of a zone-composite field: the sampled polygons, each with its composite's soil values. */
+function sampledZoneSet(inputs: FieldInputs, plan: Plan, tables: Tables, warnings: Warning[]): ZoneSetResult {
+  const { samples, field } = inputs;
+  const { zones: sz, warnings: zw } = zonesFromSampleZones(inputs.zones!, field);
+  warnings.push(...zw);
+  const zonesOut: PrescriptionZone[] = sz.map((z, i) => {
+    const idx = samples.zone.map((k, j) => (k === z.key ? j : -1)).filter((j) => j >= 0);
+    const soil: SoilValues = { no3_n: NaN, p: NaN, k: NaN, so4_s: NaN, om: NaN };
+    for (const a of BUILD_ANALYTES) {
+      const vs = idx.map((j) => samples.values[a][j]).filter((v) => Number.isFinite(v));
+      (soil as unknown as Record<string, number>)[a] = vs.length ? vs.reduce((s, v) => s + v, 0) / vs.length : NaN;
+    }
+    soil.texture = majorityTexture(idx.map((j) => samples.texture[j]));
+    soil.pMethod = samples.pMethod;
+    if (idx.length === 0) warnings.push({ code: 'build.zone-unsampled', where: z.key, message: `sampled zone "${z.key}" has no sample; its soil values are unknown and its rates follow the "not tested" rules. Fix: add its composite sample.` });
+    return zoneRecord(i + 1, i + 1, z.key, z.parts, z.lonlat, z.areaM2, soil, idx.map((j) => samples.ids[j]), plan, tables);
+  });
+  return { name: 'sampled', drivenBy: 'the sampled zone polygons (zone-composite samples)', products: plan.products.map((p) => p.product), zones: zonesOut, breaks: null, minZoneAreaM2: 0, zoneOfCell: null, design: null };
+}
+
+/** Zone sets of a grid-sampled field (zoneDesign.ts), each zone with its rate class's decision. */
+function designedZoneSets(inputs: FieldInputs, plan: Plan, tables: Tables, grid: Grid, tg: Record<Nutrient, Float64Array>, surfaces: NutrientSurface[], byAnalyte: Partial<Record<Analyte, Float64Array>>, minArea: MinZoneArea, warnings: Warning[]): ZoneSetResult[] {
+  const analytes = BUILD_ANALYTES.filter((a) => byAnalyte[a]);
+  const designed = designZoneSets({ inputs, plan, tables, grid, targets: tg, surfaces, analytes, layers: analytes.map((a) => byAnalyte[a]!), minArea, mainNutrient: (p) => mainNutrient(p, tables) });
+  warnings.push(...designed.warnings);
+  return designed.sets.map((set) => {
+    const profiles = set.zones.profiles!;
+    const zonesOut = set.zones.zones.map((z, zi): PrescriptionZone => ({
+      id: zi + 1, rateClass: 0, key: null, parts: z.parts, lonlat: z.lonlat, areaM2: z.areaM2, areaAc: m2ToAc(z.areaM2), areaHa: m2ToHa(z.areaM2),
+      soil: profiles[zi].soil, samples: set.samples[zi].map((j) => inputs.samples.ids[j]), decision: profiles[zi].decision,
+    }));
+    numberRateClasses(zonesOut, set.products);
+    return { name: set.name, drivenBy: set.drivenBy, products: set.products, zones: zonesOut, breaks: set.breaks, minZoneAreaM2: minArea.usedM2, zoneOfCell: set.zones.zoneOfCell, design: set.design };
+  });
 }
 
 function zoneRecord(id: number, rateClass: number, key: string | null, parts: RingsPart[], lonlat: number[][][][], areaM2: number, soil: SoilValues, ids: string[], plan: Plan, tables: Tables): PrescriptionZone {

@@ -6,11 +6,9 @@
 import { decide, type Decision } from '../agronomy/decide.js';
 import type { SoilValues } from '../agronomy/interpret.js';
 import type { Plan } from '../agronomy/plan.js';
-import type { Placement, Tables } from '../agronomy/tables.js';
-import type { Analyte, PMethod, Texture } from '../types.js';
+import { TEXTURES, type Placement, type Tables } from '../agronomy/tables.js';
+import type { Analyte, PMethod } from '../types.js';
 import type { RegionJudge } from '../zones/regions.js';
-
-export const TEXTURES: readonly Texture[] = ['light', 'medium', 'heavy'];
 
 /** A zone (or class) as the rate engine sees it. */
 export interface ZoneProfile {

@@ -2,20 +2,17 @@
  * The summary `tilth inspect` prints: field area, UTM zone, sample count and density, and per analyte
  * n / min / median / max / mean / CV with censored counts. Pure; the CLI prints it.
  */
+import { ANALYTE_TERMS } from '../vocabulary.js';
 import type { Warning } from '../errors.js';
 import { ANALYTES, type Analyte, type FieldInputs } from '../types.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import { describe, type Description } from './describe.js';
 import { HIGH_PH, SALINE_EC_DSM, SLIGHTLY_SALINE_EC_DSM, soilFlagsById } from '../agronomy/soilFlags.js';
 
-export const ANALYTE_LABELS: Record<Analyte, { name: string; unit: string }> = {
-  no3_n: { name: 'nitrate-N 0-24 in', unit: 'lb/ac' },
-  p: { name: 'P 0-6 in', unit: 'ppm' },
-  k: { name: 'K 0-6 in', unit: 'ppm' },
-  so4_s: { name: 'sulphate-S 0-24 in', unit: 'lb/ac' },
-  om: { name: 'organic matter', unit: '%' },
-  ph: { name: 'pH', unit: '' },
-};
+/** The inspect table's analyte names and units (src/vocabulary.ts; organic matter and pH without a depth). */
+export const ANALYTE_LABELS: Record<Analyte, { name: string; unit: string }> = Object.fromEntries(
+  Object.entries(ANALYTE_TERMS).map(([a, t]) => [a, { name: a === 'om' || a === 'ph' ? t.short : `${t.short} ${t.depth}`, unit: t.unit }]),
+) as Record<Analyte, { name: string; unit: string }>;
 
 export interface Inspection {
   field: { name: string; areaAc: number; areaHa: number; parts: number; holes: number; utmZone: string; epsg: number };

@@ -4,6 +4,7 @@
  * beside them, and the column reading for people. Positions are not yet projected or checked against the boundary
  * (src/validate/inputs.ts does that).
  */
+import { ANALYTE_TERMS } from '../vocabulary.js';
 import { UserError, type Warning } from '../errors.js';
 import { ANALYTES, EXTRA_VALUES, type Analyte, type ColumnReading, type LimeRating, type PMethod, type Samples, type Texture } from '../types.js';
 import { isUsed, parseDepthText, planColumns, type ColumnInfo, type ColumnMap, type Role, type SoilValue } from '../io/columns.js';
@@ -24,9 +25,8 @@ export interface SampleOptions {
 /** Samples before projection (xy is filled by src/validate/inputs.ts). */
 export type SamplesLonLat = Omit<Samples, 'xy'>;
 
-export const ANALYTE_NAMES: Record<Analyte, string> = {
-  no3_n: 'nitrate-N', p: 'P', k: 'K', so4_s: 'sulphate-S', om: 'organic matter', ph: 'pH',
-};
+/** Short analyte names for messages (src/vocabulary.ts). */
+export const ANALYTE_NAMES: Record<Analyte, string> = Object.fromEntries(Object.entries(ANALYTE_TERMS).map(([a, t]) => [a, t.short])) as Record<Analyte, string>;
 
 const TEXTURES: Record<string, Texture> = {
   light: 'light', coarse: 'light', sand: 'light', 'loamy sand': 'light', 'sandy loam': 'light', l: 'light',

@@ -1,0 +1,141 @@
+/**
+ * What every check of `tilth check` shares: the layer, the options, zone names, the working metres frame and
+ * the report lines being written. Built once by checkPrescription (./index.ts); each check is one file.
+ */
+import type { Feature, MultiPolygon, Polygon } from 'geojson';
+import { utmZone } from '../geo/crs.js';
+import { projector, type Projector } from '../geo/utm.js';
+import type { CheckLayer } from './layer.js';
+import { significantArea, type Poly } from './shape.js';
+import type { CheckLine, CheckOptions, CheckStatus } from './types.js';
+
+/** Pieces of overlap, gap or outside area smaller than this are numeric slivers and ignored (m2). */
+export const SLIVER_M2 = 1;
+/** ... and pieces thinner than this on average (m): rounding slivers along shared edges and the boundary. */
+export const SLIVER_WIDTH_M = 0.05;
+
+/**
+ * Seconds a controller takes to reach a new rate: 4 s by default. Common practice; University of
+ * Georgia Extension (2024) gives 3-5 s for typical rate controllers.
+ */
+export const DEFAULT_TRANSITION_S = 4;
+
+/** Shared state of one check run. */
+export interface CheckContext {
+  layer: CheckLayer;
+  opts: CheckOptions;
+  feats: Feature[];
+  /** per feature: why its coordinates are unusable ('' when usable) */
+  problems: string[];
+  names: string[];
+  lines: CheckLine[];
+  add: (check: string, status: CheckStatus, message: string, zones?: string[]) => void;
+  /** area of the pieces that matter (slivers and a grid's staircase left out), m2 on the ground */
+  significant: (polys: Poly[], scale: number) => number;
+  frame: Frame;
+  /** the working UTM projection, or null when the coordinate system is unknown */
+  work: Projector | null;
+  /** planar / ground area at the layer's centre */
+  scale: number;
+  /** local origin of the working metres */
+  origin: [number, number];
+  /** per feature: its polygons in working metres (null when not a polygon) */
+  metres: (Poly[] | null)[];
+  groundAreas: number[];
+  /** per feature: its metres when it is a valid polygon, else null (set by the geometry check) */
+  usable: (Poly[] | null)[];
+  boxes: ([number, number, number, number] | null)[];
+  /** union of the usable zones (set by the overlap check; null when the overlay failed) */
+  covered: Poly[] | null;
+}
+
+export const significantWith = (width: number) => (polys: Poly[], scale: number) => significantArea(polys, SLIVER_M2, width, scale);
+
+export const UNIT_SUFFIX: [RegExp, string, string, 'ac' | 'ha'][] = [
+  [/_?lb_?ac$/i, 'lb/ac', 'lb', 'ac'],
+  [/_?kg_?ha$/i, 'kg/ha', 'kg', 'ha'],
+  [/_?gal_?ac$/i, 'US gal/ac', 'US gal', 'ac'],
+  [/_?l_?ha$/i, 'L/ha', 'L', 'ha'],
+];
+
+export const fmt = (v: number, d = 1) => v.toFixed(d);
+export const list = (z: string[], max = 12) => (z.length <= max ? z.join(', ') : `${z.slice(0, max).join(', ')} and ${z.length - max} more`);
+
+export function lonlatLike(features: Feature[]): boolean {
+  for (const f of features) {
+    const g = f.geometry as Polygon | MultiPolygon | null;
+    if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) continue;
+    const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
+    for (const p of polys) for (const r of p) for (const pt of r) if (Math.abs(pt[0]) > 180 || Math.abs(pt[1]) > 90) return false;
+  }
+  return true;
+}
+
+export function bboxOf(features: Feature[]): [number, number, number, number] {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  for (const f of features) {
+    const g = f.geometry as Polygon | MultiPolygon | null;
+    if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) continue;
+    for (const p of g.type === 'Polygon' ? [g.coordinates] : g.coordinates) for (const pt of p[0] ?? []) {
+      x0 = Math.min(x0, pt[0]); x1 = Math.max(x1, pt[0]); y0 = Math.min(y0, pt[1]); y1 = Math.max(y1, pt[1]);
+    }
+  }
+  return [x0, y0, x1, y1];
+}
+
+/** How a layer's coordinates become working metres. */
+export interface Frame {
+  /** 'lonlat' and 'utm' are known; 'planar' = unknown system, coordinates used as metres */
+  kind: 'lonlat' | 'utm' | 'planar';
+  utmProj: Projector | null;
+}
+
+/** The layer's polygons in the working UTM metres (null for a feature that is not a polygon). */
+export function toMetres(features: Feature[], frame: Frame, work: Projector | null, origin: [number, number]): (Poly[] | null)[] {
+  const [ox, oy] = origin;
+  // metres from a local origin, rounded to 0.1 mm: overlay (polyclip-ts) is exact arithmetic and fails on
+  // the nanometre noise a projection round trip leaves on edges that should be collinear
+  const snap = (p: number[]): [number, number] => [Math.round((p[0] - ox) * 1e4) / 1e4, Math.round((p[1] - oy) * 1e4) / 1e4];
+  return features.map((f) => {
+    const g = f.geometry as Polygon | MultiPolygon | null;
+    if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) return null;
+    const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
+    return polys.map((p) => p.map((r) => r.map((pt): [number, number] => {
+      if (frame.kind === 'planar' || !work) return snap(pt);
+      if (frame.kind === 'utm' && frame.utmProj!.utm.epsg === work.utm.epsg) return snap(pt);
+      const ll = frame.kind === 'utm' ? frame.utmProj!.toLonLat(pt[0], pt[1]) : [pt[0], pt[1]];
+      return snap(work.toMetres(ll[0], ll[1]));
+    })));
+  });
+}
+
+export function frameOf(layer: CheckLayer): Frame {
+  const c = layer.crs;
+  if (c?.kind === 'utm') return { kind: 'utm', utmProj: projector(utmZone(c.zone!, !!c.south)) };
+  if (c?.kind === 'lonlat' || (!c && lonlatLike(layer.features)) || (c?.kind === null && lonlatLike(layer.features))) return { kind: 'lonlat', utmProj: null };
+  return { kind: 'planar', utmProj: null };
+}
+
+/** Zone names: the value of a zone id column when there is one, else "feature N". */
+export function zoneNames(layer: CheckLayer): string[] {
+  const idField = ['zone_id', 'zoneid', 'zone', 'id', 'zone_no'].map((n) => layer.fields.find((f) => f.name.toLowerCase() === n)).find(Boolean);
+  return layer.features.map((f, i) => {
+    const v = idField ? f.properties?.[idField.name] : undefined;
+    return v === undefined || v === null || v === '' ? `feature ${i + 1}` : `zone ${String(v).trim()}`;
+  });
+}
+
+export function bbox(polys: Poly[]): [number, number, number, number] {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  for (const p of polys) for (const [x, y] of p[0] ?? []) {
+    x0 = Math.min(x0, x); x1 = Math.max(x1, x); y0 = Math.min(y0, y); y1 = Math.max(y1, y);
+  }
+  return [x0, y0, x1, y1];
+}
+export const boxesMeet = (a: number[], b: number[]) => a[0] <= b[2] && b[0] <= a[2] && a[1] <= b[3] && b[1] <= a[3];
+
+/** When an overlay fails: a warning for the check, never a crash (a UserError still stops the run). */
+export function overlayFailed(ctx: CheckContext, check: string, e: unknown, isUserError: (e: unknown) => boolean): void {
+  if (isUserError(e)) throw e;
+  ctx.add(check, 'warn', `not computed: the polygon overlay failed (${(e as Error).message.slice(0, 120)}); inspect the zones in a GIS`);
+}
