@@ -10,12 +10,22 @@ import proj4 from 'proj4';
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 
 // seeded PRNG (mulberry32)
-function rng(seed) { let a = seed >>> 0; return () => { a = (a + 0x6d2b79f5) >>> 0; let t = a; t = Math.imul(t ^ (t >>> 15), t | 1); t ^= t + Math.imul(t ^ (t >>> 7), t | 61); return ((t ^ (t >>> 14)) >>> 0) / 4294967296; }; }
+function rng(seed) {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
 
 const UTM = '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs';
 const toLonLat = proj4(UTM, 'EPSG:4326');
 const [cx, cy] = toLonLat.inverse([-106.5, 52.0]);
-export const X0 = Math.round(cx), Y0 = Math.round(cy); // whole metres, so the 1 m grid starts on X0, Y0
+export const X0 = Math.round(cx),
+  Y0 = Math.round(cy); // whole metres, so the 1 m grid starts on X0, Y0
 export const SIDE = 1609; // 1609 m square = 639.7 ac (a section is 1609.344 m); 1609 x 1609 cells at 1 m
 export const N_SAMPLES = 5000;
 
@@ -26,19 +36,49 @@ export const N_SAMPLES = 5000;
 export function makeSection(dir, TILTH = join(root, 'bin', 'tilth.js')) {
   const rnd = rng(5000);
   const e = 0.01; // corners just inside whole cells
-  const ring = [[X0 + e, Y0 + e], [X0 + SIDE - e, Y0 + e], [X0 + SIDE - e, Y0 + SIDE - e], [X0 + e, Y0 + SIDE - e], [X0 + e, Y0 + e]]
-    .map(([x, y]) => toLonLat.forward([x, y]));
-  writeFileSync(join(dir, 'boundary.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'Bench section (invented)' }, geometry: { type: 'Polygon', coordinates: [ring] } }] }));
+  const ring = [
+    [X0 + e, Y0 + e],
+    [X0 + SIDE - e, Y0 + e],
+    [X0 + SIDE - e, Y0 + SIDE - e],
+    [X0 + e, Y0 + SIDE - e],
+    [X0 + e, Y0 + e],
+  ].map(([x, y]) => toLonLat.forward([x, y]));
+  writeFileSync(
+    join(dir, 'boundary.geojson'),
+    JSON.stringify({
+      type: 'FeatureCollection',
+      features: [
+        {
+          type: 'Feature',
+          properties: { name: 'Bench section (invented)' },
+          geometry: { type: 'Polygon', coordinates: [ring] },
+        },
+      ],
+    }),
+  );
   // smooth seeded "soil" waves plus sample noise, one set per analyte
-  const waves = (k) => Array.from({ length: 4 }, () => ({ fx: (0.5 + 3 * rnd()) / SIDE, fy: (0.5 + 3 * rnd()) / SIDE, ph: 6.283 * rnd(), a: 0.5 + rnd() }));
+  const waves = (k) =>
+    Array.from({ length: 4 }, () => ({
+      fx: (0.5 + 3 * rnd()) / SIDE,
+      fy: (0.5 + 3 * rnd()) / SIDE,
+      ph: 6.283 * rnd(),
+      a: 0.5 + rnd(),
+    }));
   const W = { n: waves(), p: waves(), k: waves(), s: waves(), om: waves() };
   const wv = (w, x, y) => w.reduce((s, t) => s + t.a * Math.sin(6.283 * (t.fx * x + t.fy * y) + t.ph), 0) / 4; // about -1..1
-  const feats = [], csv = ['x,y,z'];
+  const feats = [],
+    csv = ['x,y,z'];
   const taken = new Set(); // 1 m buckets: no two samples closer than 1 m (tilth refuses two samples at one place)
   for (let i = 0; i < N_SAMPLES; i++) {
     let x, y;
-    do { x = 1 + rnd() * (SIDE - 2); y = 1 + rnd() * (SIDE - 2); }
-    while ([-1, 0, 1].some((dx) => [-1, 0, 1].some((dy) => taken.has((Math.floor(x) + dx) * 4096 + Math.floor(y) + dy))));
+    do {
+      x = 1 + rnd() * (SIDE - 2);
+      y = 1 + rnd() * (SIDE - 2);
+    } while (
+      [-1, 0, 1].some((dx) =>
+        [-1, 0, 1].some((dy) => taken.has((Math.floor(x) + dx) * 4096 + Math.floor(y) + dy)),
+      )
+    );
     taken.add(Math.floor(x) * 4096 + Math.floor(y));
     const [lon, lat] = toLonLat.forward([X0 + x, Y0 + y]).map((v) => Math.round(v * 1e7) / 1e7);
     const r1 = (v, d = 0) => Math.round(v * 10 ** d) / 10 ** d;
@@ -59,13 +99,22 @@ export function makeSection(dir, TILTH = join(root, 'bin', 'tilth.js')) {
     const [px, py] = toLonLat.inverse([lon, lat]); // the same (rounded) points that tilth reads
     csv.push(`${px},${py},${p}`);
   }
-  writeFileSync(join(dir, 'samples.geojson'), JSON.stringify({ type: 'FeatureCollection', name: 'Bench section samples (invented)', features: feats }));
+  writeFileSync(
+    join(dir, 'samples.geojson'),
+    JSON.stringify({ type: 'FeatureCollection', name: 'Bench section samples (invented)', features: feats }),
+  );
   writeFileSync(join(dir, 'points.csv'), csv.join('\n') + '\n');
-  writeFileSync(join(dir, 'points.vrt'), `<OGRVRTDataSource><OGRVRTLayer name="points"><SrcDataSource>${join(dir, 'points.csv')}</SrcDataSource><SrcLayer>points</SrcLayer><GeometryType>wkbPoint</GeometryType><LayerSRS>EPSG:32613</LayerSRS><GeometryField encoding="PointFromColumns" x="x" y="y" z="z"/></OGRVRTLayer></OGRVRTDataSource>`);
+  writeFileSync(
+    join(dir, 'points.vrt'),
+    `<OGRVRTDataSource><OGRVRTLayer name="points"><SrcDataSource>${join(dir, 'points.csv')}</SrcDataSource><SrcLayer>points</SrcLayer><GeometryType>wkbPoint</GeometryType><LayerSRS>EPSG:32613</LayerSRS><GeometryField encoding="PointFromColumns" x="x" y="y" z="z"/></OGRVRTLayer></OGRVRTDataSource>`,
+  );
   // the plan: tilth's own starter plan for canola; one shared zone set for the pass (as the demo quarter)
-  const plan = execFileSync(process.execPath, [TILTH, 'plan', 'init', '--crop', 'canola'], { cwd: root, encoding: 'utf8' })
-    .replace(/^(\s*zone_sets:\s*)per_product/m, '$1shared');
-  if (!/zone_sets:\s*shared/.test(plan)) throw new Error('could not set zoning.zone_sets in the starter plan');
+  const plan = execFileSync(process.execPath, [TILTH, 'plan', 'init', '--crop', 'canola'], {
+    cwd: root,
+    encoding: 'utf8',
+  }).replace(/^(\s*zone_sets:\s*)per_product/m, '$1shared');
+  if (!/zone_sets:\s*shared/.test(plan))
+    throw new Error('could not set zoning.zone_sets in the starter plan');
   writeFileSync(join(dir, 'plan.yaml'), plan);
   const ps = feats.map((f) => f.properties.p_olsen_ppm);
   return { pmin: Math.min(...ps), pmax: Math.max(...ps) };
@@ -73,7 +122,10 @@ export function makeSection(dir, TILTH = join(root, 'bin', 'tilth.js')) {
 
 if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
   const dir = process.argv[2];
-  if (!dir) { console.error('usage: node scripts/bench-section.mjs DIR'); process.exit(2); }
+  if (!dir) {
+    console.error('usage: node scripts/bench-section.mjs DIR');
+    process.exit(2);
+  }
   mkdirSync(dir, { recursive: true });
   console.log(JSON.stringify(makeSection(dir)));
 }

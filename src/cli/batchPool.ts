@@ -9,31 +9,35 @@
  */
 import { Worker } from 'node:worker_threads';
 import { pathToFileURL } from 'node:url';
-import type { BuildFlags } from './build.js';
-import type { FieldResult } from './batchWorker.js';
-
-/** A job for a worker: one field's build flags. */
-export interface FieldJob {
-  id: number;
-  flags: BuildFlags;
-}
+import type { FieldJob, FieldResult } from './batchWorker.js';
 
 /**
  * Runs every job on at most `workers` threads; `onDone` hears each field as it finishes (any order).
  * Resolves with the results in job order once all are done; never rejects for a field's failure.
  * @example const results = await runPool(jobs, 2, (r) => console.error(r.status))
  */
-export function runPool(jobs: FieldJob[], workers: number, onDone: (r: FieldResult) => void, entry = process.argv[1]): Promise<FieldResult[]> {
+export function runPool(
+  jobs: FieldJob[],
+  workers: number,
+  onDone: (r: FieldResult) => void,
+  entry = process.argv[1],
+): Promise<FieldResult[]> {
   const results: FieldResult[] = new Array(jobs.length);
   const queue = [...jobs];
   let running = 0;
   return new Promise((resolve) => {
-    if (jobs.length === 0) { resolve(results); return; }
+    if (jobs.length === 0) {
+      resolve(results);
+      return;
+    }
     const finish = (r: FieldResult, w: Worker | null): void => {
       results[r.id] = r;
       running--;
       onDone(r);
-      if (w && queue.length) { give(w); return; }
+      if (w && queue.length) {
+        give(w);
+        return;
+      }
       w?.terminate();
       if (running === 0 && queue.length === 0) resolve(results);
     };
@@ -45,11 +49,20 @@ export function runPool(jobs: FieldJob[], workers: number, onDone: (r: FieldResu
     };
     const current = new Map<Worker, FieldJob>();
     const start = (): void => {
-      const w = new Worker(pathToFileURL(entry), { workerData: { tilthBatchWorker: true }, stdout: true, stderr: false });
+      const w = new Worker(pathToFileURL(entry), {
+        workerData: { tilthBatchWorker: true },
+        stdout: true,
+        stderr: false,
+      });
       w.stdout.resume(); // a field's build prints nothing; anything else is dropped, never mixed into the farm summary
-      w.on('message', (r: FieldResult) => { current.delete(w); finish(r, w); });
+      w.on('message', (r: FieldResult) => {
+        current.delete(w);
+        finish(r, w);
+      });
       w.on('error', (e) => crash(w, e.stack ?? String(e)));
-      w.on('exit', (code) => { if (current.has(w)) crash(w, `the worker stopped (exit code ${code})`); });
+      w.on('exit', (code) => {
+        if (current.has(w)) crash(w, `the worker stopped (exit code ${code})`);
+      });
       give(w);
     };
     const crash = (w: Worker, why: string): void => {

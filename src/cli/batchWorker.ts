@@ -4,8 +4,13 @@
  */
 import { parentPort } from 'node:worker_threads';
 import { isUserError } from '../errors.js';
-import { runBuild, type BuildOutcome } from './build.js';
-import type { FieldJob } from './batchPool.js';
+import { runBuild, type BuildFlags, type BuildOutcome } from './build.js';
+
+/** A job for a worker: one field's build flags. */
+export interface FieldJob {
+  id: number;
+  flags: BuildFlags;
+}
 
 /** One field's result: ok, infeasible (some zone cannot meet its targets), bad input, or a bug. */
 export interface FieldResult {
@@ -15,7 +20,8 @@ export interface FieldResult {
   message?: string;
   /** wall time of the field's build, ms */
   ms: number;
-  outcome: (Pick<BuildOutcome, 'totals' | 'infeasible' | 'field' | 'files' | 'zones'> & { warnings: number }) | null;
+  outcome:
+    (Pick<BuildOutcome, 'totals' | 'infeasible' | 'field' | 'files' | 'zones'> & { warnings: number }) | null;
 }
 
 /**
@@ -26,11 +32,29 @@ export async function buildField(job: FieldJob): Promise<FieldResult> {
   const t0 = performance.now();
   try {
     const o = await runBuild({ ...job.flags, quiet: true }, { say() {}, onProgress() {}, stepDone() {} });
-    const outcome = { totals: o.totals, infeasible: o.infeasible, field: o.field, files: o.files, zones: o.zones, warnings: o.warnings.length };
-    return { id: job.id, status: o.infeasible.length ? 'infeasible' : 'ok', ms: performance.now() - t0, outcome };
+    const outcome = {
+      totals: o.totals,
+      infeasible: o.infeasible,
+      field: o.field,
+      files: o.files,
+      zones: o.zones,
+      warnings: o.warnings.length,
+    };
+    return {
+      id: job.id,
+      status: o.infeasible.length ? 'infeasible' : 'ok',
+      ms: performance.now() - t0,
+      outcome,
+    };
   } catch (e) {
     const user = isUserError(e);
-    return { id: job.id, status: user ? 'bad-input' : 'error', message: user ? (e as Error).message : ((e as Error)?.stack ?? String(e)), ms: performance.now() - t0, outcome: null };
+    return {
+      id: job.id,
+      status: user ? 'bad-input' : 'error',
+      message: user ? (e as Error).message : ((e as Error)?.stack ?? String(e)),
+      ms: performance.now() - t0,
+      outcome: null,
+    };
   }
 }
 

@@ -9,6 +9,7 @@ import type { Plan } from '../agronomy/plan.js';
 import { NUTRIENTS, TEXTURES, type Nutrient, type Tables } from '../agronomy/tables.js';
 import { pointInParts } from '../geo/area.js';
 import type { NutrientSurface } from '../surface/nutrientSurface.js';
+import { forEachNeighbourBand } from '../surface/neighbours.js';
 import { classify, classifyVectors, type Classes } from '../zones/classify.js';
 import { makeZones, type ZoneSet } from '../zones/index.js';
 import type { Analyte, FieldInputs, Grid } from '../types.js';
@@ -144,15 +145,19 @@ function textureLayers(inputs: FieldInputs, grid: Grid): Float64Array[] | null {
   const idx = s.texture.map((t, j) => (t ? j : -1)).filter((j) => j >= 0);
   if (idx.length === 0) return null;
   const out = TEXTURES.map(() => new Float64Array(grid.cols * grid.rows));
-  // blocks of b x b cells take the texture nearest their centre (exact at b = 1; about 40 000 blocks at most)
+  // blocks of b x b cells take the texture nearest their centre (exact at b = 1; about 40 000 blocks at most),
+  // found by the shared k-nearest search (src/surface/neighbours.ts) on the grid of blocks
   const b = Math.max(1, Math.floor(Math.sqrt((grid.cols * grid.rows) / 40000)));
-  for (let r0 = 0; r0 < grid.rows; r0 += b) for (let c0 = 0; c0 < grid.cols; c0 += b) {
-    const x = grid.xmin + (c0 + b / 2) * grid.cell, y = grid.ymax - (r0 + b / 2) * grid.cell;
-    let best = idx[0], bd = Infinity;
-    for (const j of idx) { const dd = (s.xy[2 * j] - x) ** 2 + (s.xy[2 * j + 1] - y) ** 2; if (dd < bd) { bd = dd; best = j; } }
-    const layer = out[TEXTURES.indexOf(s.texture[best]!)];
-    for (let r = r0; r < Math.min(grid.rows, r0 + b); r++) for (let c = c0; c < Math.min(grid.cols, c0 + b); c++) layer[r * grid.cols + c] = 1;
-  }
+  const pts = new Float64Array(2 * idx.length);
+  idx.forEach((j, t) => { pts[2 * t] = s.xy[2 * j]; pts[2 * t + 1] = s.xy[2 * j + 1]; });
+  const blocks = { xmin: grid.xmin, ymax: grid.ymax, cell: grid.cell * b, cols: Math.ceil(grid.cols / b), rows: Math.ceil(grid.rows / b) };
+  forEachNeighbourBand(pts, blocks, 1, {}, (band) => {
+    for (let t = 0; t < band.count; t++) {
+      const R = Math.floor(band.cells[t] / blocks.cols), C = band.cells[t] % blocks.cols;
+      const layer = out[TEXTURES.indexOf(s.texture[idx[band.idx[t]]]!)];
+      for (let r = R * b; r < Math.min(grid.rows, R * b + b); r++) for (let c = C * b; c < Math.min(grid.cols, C * b + b); c++) layer[r * grid.cols + c] = 1;
+    }
+  });
   return out;
 }
 

@@ -62,32 +62,51 @@ interface Layout {
 function layout(xy: Float64Array, grid: GridShape, k: number, radius: number): Layout {
   const n = xy.length >> 1;
   const { cols, rows, cell, xmin, ymax } = grid;
-  let sxmin = Infinity, sxmax = -Infinity, symin = Infinity, symax = -Infinity;
+  let sxmin = Infinity,
+    sxmax = -Infinity,
+    symin = Infinity,
+    symax = -Infinity;
   for (let i = 0; i < n; i++) {
-    const x = xy[2 * i], y = xy[2 * i + 1];
-    if (x < sxmin) sxmin = x; if (x > sxmax) sxmax = x;
-    if (y < symin) symin = y; if (y > symax) symax = y;
+    const x = xy[2 * i],
+      y = xy[2 * i + 1];
+    if (x < sxmin) sxmin = x;
+    if (x > sxmax) sxmax = x;
+    if (y < symin) symin = y;
+    if (y > symax) symax = y;
   }
-  const gw = cols * cell, gh = rows * cell;
-  const ux0 = Math.min(sxmin, xmin), ux1 = Math.max(sxmax, xmin + gw), uy0 = Math.min(symin, ymax - gh), uy1 = Math.max(symax, ymax);
+  const gw = cols * cell,
+    gh = rows * cell;
+  const ux0 = Math.min(sxmin, xmin),
+    ux1 = Math.max(sxmax, xmin + gw),
+    uy0 = Math.min(symin, ymax - gh),
+    uy1 = Math.max(symax, ymax);
   const areaEst = Math.max((ux1 - ux0) * (uy1 - uy0), cell * cell);
   const rk = Math.sqrt((k * areaEst) / (Math.PI * n));
   const S = Math.max(1, Math.min(256, Math.round(rk / 4 / cell)));
   const B = S * cell;
-  const bcols = Math.ceil(cols / S), brows = Math.ceil(rows / S);
+  const bcols = Math.ceil(cols / S),
+    brows = Math.ceil(rows / S);
   const cap = 64;
   const axL = Math.min(cap, Math.max(0, Math.ceil((xmin - sxmin) / B)));
   const axR = Math.min(cap, Math.max(0, Math.ceil((sxmax - (xmin + bcols * B)) / B)));
   const ayT = Math.min(cap, Math.max(0, Math.ceil((symax - ymax) / B)));
   const ayB = Math.min(cap, Math.max(0, Math.ceil((ymax - brows * B - symin) / B)));
-  const nx = axL + bcols + axR, ny = ayT + brows + ayB;
+  const nx = axL + bcols + axR,
+    ny = ayT + brows + ayB;
   const buckets = buildBuckets(xy, B, xmin - axL * B, ymax + ayT * B - ny * B, nx, ny, xmin, ymax);
   const ring = Math.max(1, Math.ceil((1.3 * Math.min(rk, radius)) / B));
   return { buckets, S, axL, ayT, ny, bcols, brows, ring };
 }
 
 /** True when some cell of rows [r0, r1) x cols [c0, c1) is to be searched. */
-function anyWhere(where: ArrayLike<number> | undefined, cols: number, r0: number, r1: number, c0: number, c1: number): boolean {
+function anyWhere(
+  where: ArrayLike<number> | undefined,
+  cols: number,
+  r0: number,
+  r1: number,
+  c0: number,
+  c1: number,
+): boolean {
   if (!where) return true;
   for (let r = r0; r < r1; r++) for (let c = c0; c < c1; c++) if (where[r * cols + c] > 0) return true;
   return false;
@@ -106,23 +125,43 @@ function anyWhere(where: ArrayLike<number> | undefined, cols: number, r0: number
  * @param onBand called once per band that has searched cells, top band first
  * @example forEachNeighbourBand(xy, grid, 16, { where: grid.fraction }, (b) => { for (let t = 0; t < b.count; t++) use(b.cells[t], b.idx[t * b.k]) })
  */
-export function forEachNeighbourBand(xy: Float64Array, grid: GridShape, k: number, opts: NeighbourOptions, onBand: (band: NeighbourBand) => void): void {
+export function forEachNeighbourBand(
+  xy: Float64Array,
+  grid: GridShape,
+  k: number,
+  opts: NeighbourOptions,
+  onBand: (band: NeighbourBand) => void,
+): void {
   const n = xy.length >> 1;
   k = Math.min(Math.floor(k), n);
   if (n === 0 || !(k >= 1)) return;
-  const radius = opts.radius ?? Infinity, where = opts.where;
+  const radius = opts.radius ?? Infinity,
+    where = opts.where;
   const { cols, rows, cell } = grid;
   const L = layout(xy, grid, k, radius);
   const g = new KnnGroup(L.buckets, k, radius * radius);
   const per = L.S * cols;
-  const band: NeighbourBand = { r0: 0, r1: 0, k, count: 0, cells: new Int32Array(per), found: new Int32Array(per), idx: new Int32Array(per * k), d2: new Float64Array(per * k) };
-  const { cells, found, idx, d2 } = band, gd = g.d2, gi = g.idx;
+  const band: NeighbourBand = {
+    r0: 0,
+    r1: 0,
+    k,
+    count: 0,
+    cells: new Int32Array(per),
+    found: new Int32Array(per),
+    idx: new Int32Array(per * k),
+    d2: new Float64Array(per * k),
+  };
+  const { cells, found, idx, d2 } = band,
+    gd = g.d2,
+    gi = g.idx;
   for (let br = 0; br < L.brows; br++) {
     const by = L.ny - 1 - L.ayT - br;
-    const r0 = br * L.S, r1 = Math.min(rows, r0 + L.S);
+    const r0 = br * L.S,
+      r1 = Math.min(rows, r0 + L.S);
     let m = 0;
     for (let bc = 0; bc < L.bcols; bc++) {
-      const c0 = bc * L.S, c1 = Math.min(cols, c0 + L.S);
+      const c0 = bc * L.S,
+        c1 = Math.min(cols, c0 + L.S);
       if (!anyWhere(where, cols, r0, r1, c0, c1)) continue;
       g.begin(L.axL + bc, L.axL + bc, by, by, L.ring);
       g.prune((c0 + 0.5) * cell, -(r1 - 0.5) * cell, (c1 - 0.5) * cell, -(r0 + 0.5) * cell);
@@ -135,15 +174,21 @@ export function forEachNeighbourBand(xy: Float64Array, grid: GridShape, k: numbe
           const i = r * cols + c;
           if (where && !(where[i] > 0)) continue;
           const f = g.nearest((c + 0.5) * cell, qy, -1, true);
-          cells[m] = i; found[m] = f;
+          cells[m] = i;
+          found[m] = f;
           const o = m * k;
-          for (let j = 0; j < f; j++) { idx[o + j] = gi[j]; d2[o + j] = gd[j]; }
+          for (let j = 0; j < f; j++) {
+            idx[o + j] = gi[j];
+            d2[o + j] = gd[j];
+          }
           m++;
         }
       }
     }
     if (m === 0) continue;
-    band.r0 = r0; band.r1 = r1; band.count = m;
+    band.r0 = r0;
+    band.r1 = r1;
+    band.count = m;
     onBand(band);
   }
 }
@@ -164,15 +209,29 @@ export interface CellNeighbours {
  * @param opts radius Infinity, where: every cell
  * @example const nb = cellNeighbours(xy, grid, 12); nb.idx[cell * nb.k] // nearest sample of `cell`
  */
-export function cellNeighbours(xy: Float64Array, grid: GridShape, k: number, opts: NeighbourOptions = {}): CellNeighbours {
+export function cellNeighbours(
+  xy: Float64Array,
+  grid: GridShape,
+  k: number,
+  opts: NeighbourOptions = {},
+): CellNeighbours {
   const kk = Math.max(0, Math.min(Math.floor(k), xy.length >> 1));
   const cellsN = grid.cols * grid.rows;
-  const out: CellNeighbours = { k: kk, found: new Int32Array(cellsN), idx: new Int32Array(cellsN * kk).fill(-1), d2: new Float64Array(cellsN * kk).fill(NaN) };
+  const out: CellNeighbours = {
+    k: kk,
+    found: new Int32Array(cellsN),
+    idx: new Int32Array(cellsN * kk).fill(-1),
+    d2: new Float64Array(cellsN * kk).fill(NaN),
+  };
   forEachNeighbourBand(xy, grid, kk, opts, (b) => {
     for (let t = 0; t < b.count; t++) {
-      const c = b.cells[t], f = b.found[t];
+      const c = b.cells[t],
+        f = b.found[t];
       out.found[c] = f;
-      for (let j = 0; j < f; j++) { out.idx[c * kk + j] = b.idx[t * kk + j]; out.d2[c * kk + j] = b.d2[t * kk + j]; }
+      for (let j = 0; j < f; j++) {
+        out.idx[c * kk + j] = b.idx[t * kk + j];
+        out.d2[c * kk + j] = b.d2[t * kk + j];
+      }
     }
   });
   return out;
@@ -199,23 +258,41 @@ export interface SampleNeighbours {
 export function sampleNeighbours(xy: Float64Array, k: number, radius = Infinity): SampleNeighbours {
   const n = xy.length >> 1;
   k = Math.max(1, Math.min(Math.floor(k), Math.max(1, n - 1)));
-  const out: SampleNeighbours = { k, found: new Int32Array(n), idx: new Int32Array(n * k), d2: new Float64Array(n * k), order: new Int32Array(n) };
-  if (n < 2) { if (n === 1) out.order[0] = 0; return out; }
-  let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
-  for (let i = 0; i < n; i++) {
-    x0 = Math.min(x0, xy[2 * i]); x1 = Math.max(x1, xy[2 * i]);
-    y0 = Math.min(y0, xy[2 * i + 1]); y1 = Math.max(y1, xy[2 * i + 1]);
+  const out: SampleNeighbours = {
+    k,
+    found: new Int32Array(n),
+    idx: new Int32Array(n * k),
+    d2: new Float64Array(n * k),
+    order: new Int32Array(n),
+  };
+  if (n < 2) {
+    if (n === 1) out.order[0] = 0;
+    return out;
   }
-  const w = Math.max(x1 - x0, 1e-6), h = Math.max(y1 - y0, 1e-6);
+  let x0 = Infinity,
+    x1 = -Infinity,
+    y0 = Infinity,
+    y1 = -Infinity;
+  for (let i = 0; i < n; i++) {
+    x0 = Math.min(x0, xy[2 * i]);
+    x1 = Math.max(x1, xy[2 * i]);
+    y0 = Math.min(y0, xy[2 * i + 1]);
+    y1 = Math.max(y1, xy[2 * i + 1]);
+  }
+  const w = Math.max(x1 - x0, 1e-6),
+    h = Math.max(y1 - y0, 1e-6);
   const size = Math.max(Math.sqrt((w * h * 4) / n), 1e-6); // about 4 samples per bucket
-  const nx = Math.max(1, Math.ceil(w / size)), ny = Math.max(1, Math.ceil(h / size));
+  const nx = Math.max(1, Math.ceil(w / size)),
+    ny = Math.max(1, Math.ceil(h / size));
   const b = buildBuckets(xy, size, x0, y0, nx, ny);
   const g = new KnnGroup(b, k, radius * radius);
   const ring = Math.max(1, Math.ceil(Math.sqrt(k / 4) / 2 + 0.5));
   let m = 0;
   for (let by = 0; by < ny; by++) {
     for (let bx = 0; bx < nx; bx++) {
-      const bi = by * nx + bx, s = b.start[bi], e = b.start[bi + 1];
+      const bi = by * nx + bx,
+        s = b.start[bi],
+        e = b.start[bi + 1];
       if (s === e) continue;
       g.begin(bx, bx, by, by, ring);
       for (let j = s; j < e; j++) {
@@ -223,7 +300,10 @@ export function sampleNeighbours(xy: Float64Array, k: number, radius = Infinity)
         const f = g.nearest(b.sx[j], b.sy[j], self, true);
         out.order[m++] = self;
         out.found[self] = f;
-        for (let t = 0; t < f; t++) { out.idx[self * k + t] = g.idx[t]; out.d2[self * k + t] = g.d2[t]; }
+        for (let t = 0; t < f; t++) {
+          out.idx[self * k + t] = g.idx[t];
+          out.d2[self * k + t] = g.d2[t];
+        }
       }
     }
   }

@@ -277,13 +277,16 @@ export function classifyVectors(
   const n = dims[0].length;
   const k = Math.max(1, Math.floor(opts.classes ?? 5));
   const weights = opts.weights;
-  const valid: number[] = [];
-  for (let i = 0; i < n; i++) {
-    if (weights !== undefined && !(weights[i] > 0)) continue;
-    let ok = true;
-    for (let j = 0; j < d; j++) { const x = dims[j][i]; if (x !== x) { ok = false; break; } }
-    if (ok) valid.push(i);
-  }
+  // the cells with a weight and a value in every dimension, as one flat array (millions of cells)
+  const isValid = (i: number): boolean => {
+    if (weights !== undefined && !(weights[i] > 0)) return false;
+    for (let j = 0; j < d; j++) { const x = dims[j][i]; if (x !== x) return false; }
+    return true;
+  };
+  let nValid = 0;
+  for (let i = 0; i < n; i++) if (isValid(i)) nValid++;
+  const valid = new Int32Array(nValid);
+  for (let i = 0, t = 0; i < n; i++) if (isValid(i)) valid[t++] = i;
   const classOf = new Int16Array(n).fill(-1);
   if (valid.length === 0) return { classOf, count: 0, mean: [], value: [], weight: [] };
   const mu = new Float64Array(d), sd = new Float64Array(d);

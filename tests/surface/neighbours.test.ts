@@ -15,17 +15,19 @@ import { medianNearest } from '../../src/variability/sampling.js';
 import { orient } from '../../src/geo/field.js';
 import { ANALYTES, type Analyte } from '../../src/types.js';
 
-const OX = 600000, OY = 5500000;
+const OX = 600000,
+  OY = 5500000;
 
 function lcg(seed: number) {
   let s = seed;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 4294967296);
+  return () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 4294967296;
 }
 
 /** n seeded samples over (and around) a cols x rows grid; some on a 2 m lattice so equal distances occur. */
 function setup(n: number, seed: number, cols: number, rows: number, cell: number) {
   const rnd = lcg(seed);
-  const W = cols * cell, H = rows * cell;
+  const W = cols * cell,
+    H = rows * cell;
   const xy = new Float64Array(2 * n);
   for (let i = 0; i < n; i++) {
     const lattice = i % 3 === 0;
@@ -48,24 +50,38 @@ const caseArb = fc.record({
 
 describe('cellNeighbours (shared k-nearest per cell)', () => {
   it('equals brute force: indices and squared distances, nearest first, ties to the lower index', () => {
-    fc.assert(fc.property(caseArb, (c) => {
-      const { xy, grid } = setup(c.n, c.seed, c.cols, c.rows, c.cell);
-      const nb = cellNeighbours(xy, grid, c.k, { radius: c.radius });
-      expect(nb.k).toBe(Math.min(c.k, c.n));
-      for (let r = 0; r < c.rows; r++) for (let col = 0; col < c.cols; col++) {
-        const i = r * c.cols + col;
-        const want = bruteKnn(xy, grid.xmin + (col + 0.5) * c.cell, grid.ymax - (r + 0.5) * c.cell, c.k, c.radius * c.radius);
-        expect(nb.found[i]).toBe(want.idx.length);
-        expect([...nb.idx.subarray(i * nb.k, i * nb.k + nb.found[i])]).toEqual(want.idx);
-        // the search works relative to the grid corner: distances agree to rounding
-        want.d2.forEach((d, j) => expect(Math.abs(nb.d2[i * nb.k + j] - d)).toBeLessThanOrEqual(1e-9 * Math.max(1, d)));
-      }
-    }), { numRuns: 60, seed: 21 });
+    fc.assert(
+      fc.property(caseArb, (c) => {
+        const { xy, grid } = setup(c.n, c.seed, c.cols, c.rows, c.cell);
+        const nb = cellNeighbours(xy, grid, c.k, { radius: c.radius });
+        expect(nb.k).toBe(Math.min(c.k, c.n));
+        for (let r = 0; r < c.rows; r++)
+          for (let col = 0; col < c.cols; col++) {
+            const i = r * c.cols + col;
+            const want = bruteKnn(
+              xy,
+              grid.xmin + (col + 0.5) * c.cell,
+              grid.ymax - (r + 0.5) * c.cell,
+              c.k,
+              c.radius * c.radius,
+            );
+            expect(nb.found[i]).toBe(want.idx.length);
+            expect([...nb.idx.subarray(i * nb.k, i * nb.k + nb.found[i])]).toEqual(want.idx);
+            // the search works relative to the grid corner: distances agree to rounding
+            want.d2.forEach((d, j) =>
+              expect(Math.abs(nb.d2[i * nb.k + j] - d)).toBeLessThanOrEqual(1e-9 * Math.max(1, d)),
+            );
+          }
+      }),
+      { numRuns: 60, seed: 21 },
+    );
   });
 
   it('searches only where asked (found 0 elsewhere)', () => {
     const { xy, grid } = setup(40, 3, 6, 5, 10);
-    const where = new Float32Array(30); where[4] = 0.5; where[22] = 1;
+    const where = new Float32Array(30);
+    where[4] = 0.5;
+    where[22] = 1;
     const nb = cellNeighbours(xy, grid, 8, { where });
     nb.found.forEach((f, i) => expect(f).toBe(i === 4 || i === 22 ? 8 : 0));
   });
@@ -73,44 +89,83 @@ describe('cellNeighbours (shared k-nearest per cell)', () => {
 
 describe('sampleNeighbours (leave-one-out)', () => {
   it('equals brute force without the sample itself; every sample searched once', () => {
-    fc.assert(fc.property(fc.integer({ min: 2, max: 200 }), fc.integer({ min: 1, max: 2 ** 30 }), fc.constantFrom(1, 8, 16, 300), fc.constantFrom(Infinity, 25), (n, seed, k, radius) => {
-      const { xy } = setup(n, seed, 20, 20, 5);
-      const nb = sampleNeighbours(xy, k, radius);
-      expect([...nb.order].sort((a, b) => a - b)).toEqual([...Array(n).keys()]);
-      for (let i = 0; i < n; i++) {
-        const want = bruteKnn(xy, xy[2 * i], xy[2 * i + 1], nb.k, radius * radius, i);
-        expect([...nb.idx.subarray(i * nb.k, i * nb.k + nb.found[i])]).toEqual(want.idx);
-      }
-    }), { numRuns: 60, seed: 22 });
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 2, max: 200 }),
+        fc.integer({ min: 1, max: 2 ** 30 }),
+        fc.constantFrom(1, 8, 16, 300),
+        fc.constantFrom(Infinity, 25),
+        (n, seed, k, radius) => {
+          const { xy } = setup(n, seed, 20, 20, 5);
+          const nb = sampleNeighbours(xy, k, radius);
+          expect([...nb.order].sort((a, b) => a - b)).toEqual([...Array(n).keys()]);
+          for (let i = 0; i < n; i++) {
+            const want = bruteKnn(xy, xy[2 * i], xy[2 * i + 1], nb.k, radius * radius, i);
+            expect([...nb.idx.subarray(i * nb.k, i * nb.k + nb.found[i])]).toEqual(want.idx);
+          }
+        },
+      ),
+      { numRuns: 60, seed: 22 },
+    );
   });
 });
 
 describe('shared search = one search per surface, bit for bit', () => {
   it('idwSurfaces equals idwSurface for each surface (mixed powers and neighbour counts, all, radius)', () => {
-    fc.assert(fc.property(caseArb, fc.constantFrom(1, 1.5, 2, 3, 2.5), (c, p2) => {
-      const { xy, zs, grid } = setup(c.n, c.seed, c.cols, c.rows, c.cell);
-      const specs = [{ z: zs[0], power: 1, neighbours: c.k }, { z: zs[1], power: p2, neighbours: 8 }, { z: zs[2], power: 1, neighbours: Infinity }];
-      const shared = idwSurfaces(xy, specs, grid, { radius: c.radius });
-      specs.forEach((s, i) => expect(shared[i]).toEqual(idwSurface(xy, s.z, grid, { power: s.power, neighbours: s.neighbours, radius: c.radius })));
-    }), { numRuns: 60, seed: 23 });
+    fc.assert(
+      fc.property(caseArb, fc.constantFrom(1, 1.5, 2, 3, 2.5), (c, p2) => {
+        const { xy, zs, grid } = setup(c.n, c.seed, c.cols, c.rows, c.cell);
+        const specs = [
+          { z: zs[0], power: 1, neighbours: c.k },
+          { z: zs[1], power: p2, neighbours: 8 },
+          { z: zs[2], power: 1, neighbours: Infinity },
+        ];
+        const shared = idwSurfaces(xy, specs, grid, { radius: c.radius });
+        specs.forEach((s, i) =>
+          expect(shared[i]).toEqual(
+            idwSurface(xy, s.z, grid, { power: s.power, neighbours: s.neighbours, radius: c.radius }),
+          ),
+        );
+      }),
+      { numRuns: 60, seed: 23 },
+    );
   });
 
   it('crossValidateMany equals crossValidate for each value set', () => {
-    fc.assert(fc.property(fc.integer({ min: 3, max: 120 }), fc.integer({ min: 1, max: 2 ** 30 }), fc.constantFrom(Infinity, 40), (n, seed, radius) => {
-      const { xy, zs } = setup(n, seed, 20, 20, 5);
-      const many = crossValidateMany(xy, zs, { radius });
-      zs.forEach((z, i) => expect(many[i]).toEqual(crossValidate(xy, z, { radius })));
-    }), { numRuns: 40, seed: 24 });
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 3, max: 120 }),
+        fc.integer({ min: 1, max: 2 ** 30 }),
+        fc.constantFrom(Infinity, 40),
+        (n, seed, radius) => {
+          const { xy, zs } = setup(n, seed, 20, 20, 5);
+          const many = crossValidateMany(xy, zs, { radius });
+          zs.forEach((z, i) => expect(many[i]).toEqual(crossValidate(xy, z, { radius })));
+        },
+      ),
+      { numRuns: 40, seed: 24 },
+    );
   });
 
   it('nutrientSurfaces equals nutrientSurface per nutrient, also when one nutrient misses samples', () => {
-    const rect = new Float64Array([0, 0, 300, 0, 300, 200, 0, 200, 0, 0].map((v, i) => v + (i % 2 ? OY : OX)));
+    const rect = new Float64Array(
+      [0, 0, 300, 0, 300, 200, 0, 200, 0, 0].map((v, i) => v + (i % 2 ? OY : OX)),
+    );
     const grid = fieldGrid({ parts: [{ exterior: orient(rect, true), holes: [] }], name: 'test field' }, 5);
-    const rnd = lcg(7), n = 60;
+    const rnd = lcg(7),
+      n = 60;
     const xy = Float64Array.from({ length: 2 * n }, (_, i) => (i % 2 ? OY + rnd() * 200 : OX + rnd() * 300));
-    const values = Object.fromEntries(ANALYTES.map((a) => [a, Float64Array.from({ length: n }, () => Math.round(rnd() * 500) / 10)])) as Record<Analyte, Float64Array>;
-    values.k[5] = NaN; values.k[17] = NaN; // K at other sites than the rest: its own search
-    const samples = { xy, values, ids: [...Array(n).keys()].map((i) => `S${i + 1}`), zone: Array(n).fill(null) };
+    const values = Object.fromEntries(
+      ANALYTES.map((a) => [a, Float64Array.from({ length: n }, () => Math.round(rnd() * 500) / 10)]),
+    ) as Record<Analyte, Float64Array>;
+    values.k[5] = NaN;
+    values.k[17] = NaN; // K at other sites than the rest: its own search
+    const samples = {
+      xy,
+      values,
+      ids: [...Array(n).keys()].map((i) => `S${i + 1}`),
+      zone: Array(n).fill(null),
+    };
     const list: Analyte[] = ['no3_n', 'p', 'k', 'so4_s', 'om'];
     const shared = nutrientSurfaces(samples, list, grid);
     list.forEach((a, i) => expect(shared[i]).toEqual(nutrientSurface(samples, a, grid)));
@@ -119,18 +174,26 @@ describe('shared search = one search per surface, bit for bit', () => {
 
 describe('medianNearest (variability) on the shared search', () => {
   it('equals a brute-force scan of every pair (Math.hypot), duplicates and lattice ties included', () => {
-    fc.assert(fc.property(fc.integer({ min: 2, max: 150 }), fc.integer({ min: 1, max: 2 ** 30 }), (n, seed) => {
-      const { xy } = setup(n, seed, 15, 15, 4);
-      if (n > 3) { xy[2] = xy[0]; xy[3] = xy[1]; } // two samples at one place
-      const d: number[] = [];
-      for (let i = 0; i < n; i++) {
-        let best = Infinity;
-        for (let j = 0; j < n; j++) if (j !== i) best = Math.min(best, Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]));
-        d.push(best);
-      }
-      d.sort((a, b) => a - b);
-      const want = n % 2 ? d[(n - 1) / 2] : (d[n / 2 - 1] + d[n / 2]) / 2;
-      expect(medianNearest(xy)).toBe(want);
-    }), { numRuns: 80, seed: 25 });
+    fc.assert(
+      fc.property(fc.integer({ min: 2, max: 150 }), fc.integer({ min: 1, max: 2 ** 30 }), (n, seed) => {
+        const { xy } = setup(n, seed, 15, 15, 4);
+        if (n > 3) {
+          xy[2] = xy[0];
+          xy[3] = xy[1];
+        } // two samples at one place
+        const d: number[] = [];
+        for (let i = 0; i < n; i++) {
+          let best = Infinity;
+          for (let j = 0; j < n; j++)
+            if (j !== i)
+              best = Math.min(best, Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]));
+          d.push(best);
+        }
+        d.sort((a, b) => a - b);
+        const want = n % 2 ? d[(n - 1) / 2] : (d[n / 2 - 1] + d[n / 2]) / 2;
+        expect(medianNearest(xy)).toBe(want);
+      }),
+      { numRuns: 80, seed: 25 },
+    );
   });
 });
