@@ -283,7 +283,7 @@ export function decide(soil: SoilValues, plan: Plan, tables: Tables): Decision {
   const texture: Texture = soil.texture ?? plan.implement.default_texture;
   const it = interpret(soil, crop, plan, tables);
   const lim = seedRowLimits(crop, plan.crop, texture, plan, tables);
-  for (const note of lim.notes) warnings.push({ code: 'seed-row-table-missing', message: note, field: 'seed_row' });
+  for (const note of lim.notes) warnings.push({ code: note.startsWith('seed-row N ') ? 'seed-row-override-high' : 'seed-row-table-missing', message: note, field: 'seed_row' });
   if (it.p.kelownaFactor !== null) {
     const b = pClassTable('kelowna', tables, it.p.kelownaFactor).filter((c) => c.below_ppm !== null).map((c) => `${c.name} < ${c.below_ppm}`).join(', ');
     warnings.push({ code: 'kelowna-factor', message: `P classes for modified Kelowna: Olsen bounds x ${it.p.kelownaFactor} (plan key soil_test.kelowna_factor), published Kelowna bounds kept: ${b} ppm`, field: 'p' });

@@ -118,10 +118,17 @@ function missingN(cropKey: string, texture: Texture, why: string, group: Tables[
 }
 
 function seedRowN(crop: CropTable, cropKey: string, texture: Texture, sbu: number, plan: Plan, tables: Tables, notes: string[]): { n: number; nSource: string } {
-  if (plan.seed_row.safe_n_lb !== null) return { n: plan.seed_row.safe_n_lb, nSource: `plan key seed_row.safe_n_lb (${plan.seed_row.safe_n_lb} lb N/ac, supplied by the user)` };
   const group = tables.seed_row_n[crop.seed_row_group]!;
   const cell = group[texture];
   const v = 'missing' in cell ? null : safeNFromTable(cell, sbu);
+  if (plan.seed_row.safe_n_lb !== null) {
+    const own = plan.seed_row.safe_n_lb;
+    // an override far above the published table (more than 1.5 x, and 10 lb N/ac over) is kept, and said plainly
+    if (v !== null && own > 1.5 * v && own - v > 10) {
+      notes.push(`seed-row N ${own} lb N/ac from plan key seed_row.safe_n_lb is far above the published table's ${v.toFixed(1)} lb N/ac for ${cropKey} on ${texture} soil at SBU ${sbu.toFixed(1)} % (${cell.source}); so much N with the seed can injure or kill seedlings. Have your agronomist confirm it.`);
+    }
+    return { n: own, nSource: `plan key seed_row.safe_n_lb (${own} lb N/ac, supplied by the user)` };
+  }
   let r: { n: number; nSource: string };
   if (v !== null && !('missing' in cell)) r = { n: v, nSource: `${cell.source}; at SBU ${sbu.toFixed(1)} %` };
   else {

@@ -1,7 +1,7 @@
 /** `tilth variability`: how variable one nutrient is across the field, whether the sampling can map it, the low spots. */
 import type { Command } from 'commander';
 import { UserError } from '../errors.js';
-import type { Analyte } from '../types.js';
+import type { Analyte, FieldInputs } from '../types.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
 import { tablesFromOption } from './plan.js';
@@ -85,10 +85,7 @@ ${CAUTION}`)
       if (o.out) checkOutputDir(o.out, { force: Boolean(o.force), inputs: inputFiles });
       const cell = numberOption('--cell', o.cell, { min: 0.5, max: 1000 })!;
       const inputs = await loadInputs(inputOptionsFrom(o));
-      checkBoundaryVertices(inputs.field, o.boundary);
-      const problems = readinessProblems(inputs, nutrient, o.samples);
-      if (problems.length) throw new UserError(`cannot judge the variability of these inputs:\n  ${problems.join('\n  ')}`);
-      checkLags(inputs.samples.xy, cutoff, width);
+      refuseUnfit(inputs, nutrient, o.samples, o.boundary, cutoff, width);
       let surf: { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string; label: string } | undefined;
       const surfaceWarnings = [];
       if (o.surface !== false) {
@@ -126,4 +123,12 @@ ${CAUTION}`)
         out(variabilityText(report));
       }
     });
+}
+
+/** Refuses, before the work, inputs no variability can be judged from, and lag or pair counts over the budget. */
+function refuseUnfit(inputs: FieldInputs, nutrient: Analyte, samplesFile: string, boundaryFile: string, cutoff?: number, width?: number): void {
+  checkBoundaryVertices(inputs.field, boundaryFile);
+  const problems = readinessProblems(inputs, nutrient, samplesFile);
+  if (problems.length) throw new UserError(`cannot judge the variability of these inputs:\n  ${problems.join('\n  ')}`);
+  checkLags(inputs.samples.xy, cutoff, width);
 }

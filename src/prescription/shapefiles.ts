@@ -103,6 +103,46 @@ function rateColumnNames(products: string[], units: RxUnit[]): string[] {
 
 interface SetPlan { name: string; cols: { key: string; product: string; placement: string; unit: RxUnit; column: string }[] }
 
+type Pair = { product: string; placement: string; unit: RxUnit };
+
+/** The distinct (product, placement) pairs of the zones in first-seen order, with their unit (RangeError for bad zones). */
+function productPlacements(feats: Feature<Polygon | MultiPolygon>[]): Pair[] {
+  const pairs: Pair[] = [];
+  feats.forEach((f, i) => {
+    const p = f.properties as RxZoneProperties | null;
+    if (!p || p.zone_id === undefined || !Array.isArray(p.rates)) throw new RangeError(`prescriptionFiles: feature ${i + 1} lacks zone_id or rates`);
+    for (const r of p.rates) {
+      if (!(r.unit in RX_UNITS)) throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: unknown unit ${r.unit}`);
+      if (!Number.isFinite(r.rate) || r.rate < 0) throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: rate ${r.rate} for ${r.product}`);
+      const have = pairs.find((q) => q.product === r.product && q.placement === r.placement);
+      if (!have) pairs.push({ product: r.product, placement: r.placement, unit: r.unit });
+      else if (have.unit !== r.unit) throw new RangeError(`prescriptionFiles: ${r.product} (${r.placement}) given in both ${have.unit} and ${r.unit}`);
+    }
+  });
+  return pairs;
+}
+
+/** The shapefile sets of a layout: one per placement (a rate column per product), or one per product (and placement). */
+function setPlans(pairs: Pair[], layout: LayoutOptions['layout'], prefix: string): SetPlan[] {
+  const plans: SetPlan[] = [];
+  if (layout === 'per_placement') {
+    const placements = [...new Set(pairs.map((q) => q.placement))];
+    for (const pl of placements) {
+      const ps = pairs.filter((q) => q.placement === pl);
+      const names = rateColumnNames(ps.map((q) => q.product), ps.map((q) => q.unit));
+      plans.push({ name: `${prefix}_${slug(pl)}`, cols: ps.map((q, k) => ({ key: `rate_${k}`, ...q, column: names[k] })) });
+    }
+  } else {
+    const multi = new Map<string, number>();
+    for (const q of pairs) multi.set(q.product, (multi.get(q.product) ?? 0) + 1);
+    for (const q of pairs) {
+      const name = multi.get(q.product)! > 1 ? `${prefix}_${slug(q.product)}_${slug(q.placement)}` : `${prefix}_${slug(q.product)}`;
+      plans.push({ name, cols: [{ key: 'rate_0', ...q, column: `rate_${RX_UNITS[q.unit]}` }] });
+    }
+  }
+  return plans;
+}
+
 /**
  * Lays out a prescription for machines: shapefile sets (see {@link writeShapefile}) plus, per set,
  * a readable note (`<set>.note.txt`, 8.3: `<SET>.TXT`) and a zip of the set with its note (`<set>.zip`).
@@ -124,35 +164,8 @@ export function prescriptionFiles(fc: FeatureCollection, opts: LayoutOptions): {
     const r = ((f.properties as RxZoneProperties | null)?.rates ?? []).find((x) => x.product === product && x.placement === placement);
     return r ? r.rate : 0;
   };
-  // distinct (product, placement) pairs in first-seen order, with their unit
-  const pairs: { product: string; placement: string; unit: RxUnit }[] = [];
-  feats.forEach((f, i) => {
-    const p = f.properties as RxZoneProperties | null;
-    if (!p || p.zone_id === undefined || !Array.isArray(p.rates)) throw new RangeError(`prescriptionFiles: feature ${i + 1} lacks zone_id or rates`);
-    for (const r of p.rates) {
-      if (!(r.unit in RX_UNITS)) throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: unknown unit ${r.unit}`);
-      if (!Number.isFinite(r.rate) || r.rate < 0) throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: rate ${r.rate} for ${r.product}`);
-      const have = pairs.find((q) => q.product === r.product && q.placement === r.placement);
-      if (!have) pairs.push({ product: r.product, placement: r.placement, unit: r.unit });
-      else if (have.unit !== r.unit) throw new RangeError(`prescriptionFiles: ${r.product} (${r.placement}) given in both ${have.unit} and ${r.unit}`);
-    }
-  });
-  const plans: SetPlan[] = [];
-  if (opts.layout === 'per_placement') {
-    const placements = [...new Set(pairs.map((q) => q.placement))];
-    for (const pl of placements) {
-      const ps = pairs.filter((q) => q.placement === pl);
-      const names = rateColumnNames(ps.map((q) => q.product), ps.map((q) => q.unit));
-      plans.push({ name: `${prefix}_${slug(pl)}`, cols: ps.map((q, k) => ({ key: `rate_${k}`, ...q, column: names[k] })) });
-    }
-  } else {
-    const multi = new Map<string, number>();
-    for (const q of pairs) multi.set(q.product, (multi.get(q.product) ?? 0) + 1);
-    for (const q of pairs) {
-      const name = multi.get(q.product)! > 1 ? `${prefix}_${slug(q.product)}_${slug(q.placement)}` : `${prefix}_${slug(q.product)}`;
-      plans.push({ name, cols: [{ key: 'rate_0', ...q, column: `rate_${RX_UNITS[q.unit]}` }] });
-    }
-  }
+  const pairs = productPlacements(feats);
+  const plans = setPlans(pairs, opts.layout, prefix);
   // unique set names (long and 8.3)
   const longNames = plans.map((p, i) => (plans.findIndex((q) => q.name === p.name) < i ? `${p.name}_${i + 1}` : p.name));
   const setNames = opts.shortFileNames ? shortFileNames(longNames) : longNames.map((n) => baseFileName(n));

@@ -110,7 +110,7 @@ export function shapefilePoints(r: LonLatShapefile): RawTable {
   for (const f of r.features) for (const k of Object.keys(f.props)) if (!columns.includes(k)) columns.push(k);
   if (columns.length === 0) {
     throw new UserError(
-      `${r.file}: the samples have no attributes (no .dbf beside the .shp?). Fix: copy the .dbf with the .shp; the soil-test values are in it.`,
+      `${r.file}: the samples have no attributes (no .dbf beside the .shp, or a .dbf with no columns). Fix: copy the .dbf that belongs to the .shp beside it, or export the layer again; the soil-test values are in it.`,
       { file: r.file },
     );
   }
