@@ -27,10 +27,13 @@ export function formatNumber(v: number | null | undefined, width: number, decima
   return s.padStart(width, ' ');
 }
 
-/** UTF-8 bytes of text cut to at most `width` bytes without splitting a character, padded with spaces. */
+/**
+ * UTF-8 bytes of text cut to at most `width` bytes without splitting a character, padded with spaces. Control
+ * characters (NUL, the 0x1A end-of-file mark, ESC, line breaks ...) become spaces: readers stop or split on them.
+ */
 function textBytes(s: string, width: number): Uint8Array {
   const out = new Uint8Array(width).fill(0x20);
-  let b = enc.encode(s);
+  let b = enc.encode(s.replace(/[\u0000-\u001f\u007f-\u009f]/g, ' '));
   if (b.length > width) {
     let cut = width;
     while (cut > 0 && (b[cut] & 0xc0) === 0x80) cut--; // do not start the cut inside a multi-byte character
