@@ -79,7 +79,15 @@ export const planSchema = z.object({
     /** canola and peas: potash with the seed (at most the crop's K2O limit, and only with nothing else there) */
     potash_with_seed: z.boolean().default(false),
   }).strict().prefault({}),
-  products: z.array(productChoice).min(1),
+  products: z.array(productChoice).min(1).superRefine((list, ctx) => {
+    // one entry per product (a second would silently replace the first's limits and price); limits in order
+    const seen = new Set<string>();
+    list.forEach((p, i) => {
+      if (seen.has(p.product)) ctx.addIssue({ code: 'custom', path: [i, 'product'], message: `product "${p.product}" is listed twice; list each product once` });
+      seen.add(p.product);
+      if (p.min_rate > p.max_rate) ctx.addIssue({ code: 'custom', path: [i, 'min_rate'], message: `min_rate ${p.min_rate} is above max_rate ${p.max_rate}` });
+    });
+  }),
   machine: z.object({
     swath_width_ft: z.number().positive().default(60),
     speed_mph: z.number().positive().default(5),
