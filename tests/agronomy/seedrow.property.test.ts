@@ -52,7 +52,7 @@ const planArb = fc
     potashWithSeed: fc.boolean(),
     safeN: fc.oneof(fc.constant(null), fc.integer({ min: 0, max: 40 })),
     products: fc.oneof(
-      fc.array(productArb, { minLength: 1, maxLength: 5 }),
+      fc.uniqueArray(productArb, { minLength: 1, maxLength: 5, selector: (p) => p.product }), // a plan lists each product once
       fc.tuple(productArb, productArb, productArb, productArb).map((a) => a.map((p, i) => ({ ...p, product: ['map', 'urea', 'ammonium_sulphate', 'potash'][i]!, max_rate: 400, placementsPick: ['seed_row', 'side_band', 'broadcast'] }))),
     ),
   })
