@@ -19,7 +19,9 @@ function newest(dir) {
   return t;
 }
 
-const useDist = existsSync(dist) && process.env.TILTH_FROM_SOURCE !== '1' &&
+const useDist =
+  existsSync(dist) &&
+  process.env.TILTH_FROM_SOURCE !== '1' &&
   statSync(dist).mtimeMs >= Math.max(newest(join(root, 'src')), newest(join(root, 'tables')));
 
 if (useDist) {

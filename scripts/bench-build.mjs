@@ -29,27 +29,37 @@ const SECTION_RUNS = QUICK ? 1 : Math.min(RUNS, 3);
 const NN = args.includes('--nn');
 const KEEP = args.includes('--keep');
 const TIME = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
-const HAS_GDAL = ['gdal_grid', 'gdal_calc.py', 'gdal_polygonize.py'].every((c) => !spawnSync(c, ['--help'], { stdio: 'ignore' }).error);
+const HAS_GDAL = ['gdal_grid', 'gdal_calc.py', 'gdal_polygonize.py'].every(
+  (c) => !spawnSync(c, ['--help'], { stdio: 'ignore' }).error,
+);
 
 // the bundle is what `npx tilth` runs; make sure it is current
 execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
 // TILTH_BENCH_CLI=path: time another entry point (e.g. an experimental bundle) instead of bin/tilth.js
-const TILTH = process.env.TILTH_BENCH_CLI ? join(root, process.env.TILTH_BENCH_CLI) : join(root, 'bin', 'tilth.js');
+const TILTH = process.env.TILTH_BENCH_CLI
+  ? join(root, process.env.TILTH_BENCH_CLI)
+  : join(root, 'bin', 'tilth.js');
 
 const med = (a) => (a.length ? [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)] : NaN);
 
 /** Runs a command `runs` times; median wall and CPU seconds, max peak RSS (MB). Exit 1 (infeasible zones) is accepted for tilth. */
 function measure(cmd, argv, runs, cwd, okStatus = [0]) {
-  const walls = [], rss = [], cpu = [];
+  const walls = [],
+    rss = [],
+    cpu = [];
   for (let r = 0; r < runs; r++) {
     const t0 = process.hrtime.bigint();
-    const res = TIME ? spawnSync(TIME, ['-v', cmd, ...argv], { cwd, encoding: 'utf8', maxBuffer: 1 << 28 }) : spawnSync(cmd, argv, { cwd, encoding: 'utf8', maxBuffer: 1 << 28 });
+    const res = TIME
+      ? spawnSync(TIME, ['-v', cmd, ...argv], { cwd, encoding: 'utf8', maxBuffer: 1 << 28 })
+      : spawnSync(cmd, argv, { cwd, encoding: 'utf8', maxBuffer: 1 << 28 });
     const wall = Number(process.hrtime.bigint() - t0) / 1e9;
-    if (!okStatus.includes(res.status)) throw new Error(`${cmd} ${argv.join(' ')} failed (${res.status}):\n${res.stderr}`);
+    if (!okStatus.includes(res.status))
+      throw new Error(`${cmd} ${argv.join(' ')} failed (${res.status}):\n${res.stderr}`);
     walls.push(wall);
     const m = /Maximum resident set size \(kbytes\): (\d+)/.exec(res.stderr ?? '');
     if (m) rss.push(Number(m[1]) / 1024);
-    const u = /User time \(seconds\): ([\d.]+)/.exec(res.stderr ?? ''), sy = /System time \(seconds\): ([\d.]+)/.exec(res.stderr ?? '');
+    const u = /User time \(seconds\): ([\d.]+)/.exec(res.stderr ?? ''),
+      sy = /System time \(seconds\): ([\d.]+)/.exec(res.stderr ?? '');
     if (u && sy) cpu.push(Number(u[1]) + Number(sy[1]));
   }
   return { wall: med(walls), cpu: med(cpu), rss: rss.length ? Math.max(...rss) : NaN, runs };
@@ -68,7 +78,8 @@ function stages(argv) {
       buf += d;
       let i;
       while ((i = buf.indexOf('\n')) >= 0) {
-        const line = buf.slice(0, i); buf = buf.slice(i + 1);
+        const line = buf.slice(0, i);
+        buf = buf.slice(i + 1);
         // "step ..." starts a step; "step: done in 276 ms" (the terminal helper off a TTY) ends one
         const m = /^(.*) \.\.\.$/.exec(line.trim());
         const d = /^(.*): done in ([\d.]+) (ms|s)\b/.exec(line.trim());
@@ -81,8 +92,12 @@ function stages(argv) {
       if (code !== 0 && code !== 1) return reject(new Error(`tilth build exited ${code}`));
       const end = at();
       marks.sort((a, b) => a.t - b.t);
-      const rows = [{ step: 'start, read plan (before the first progress line)', s: marks.length ? marks[0].t : end }];
-      marks.forEach((m, i) => rows.push({ step: m.step, s: (i + 1 < marks.length ? marks[i + 1].t : end) - m.t }));
+      const rows = [
+        { step: 'start, read plan (before the first progress line)', s: marks.length ? marks[0].t : end },
+      ];
+      marks.forEach((m, i) =>
+        rows.push({ step: m.step, s: (i + 1 < marks.length ? marks[i + 1].t : end) - m.t }),
+      );
       resolve({ rows, total: end });
     });
   });
@@ -90,24 +105,57 @@ function stages(argv) {
 
 const f3 = (x) => (Number.isFinite(x) ? x.toFixed(3) : 'n/a');
 const f0 = (x) => (Number.isFinite(x) ? x.toFixed(0) : 'n/a');
-const load = () => loadavg().map((x) => x.toFixed(2)).join(', ');
+const load = () =>
+  loadavg()
+    .map((x) => x.toFixed(2))
+    .join(', ');
 
-console.log(`machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; load average at start ${load()}`);
-console.log(`quarter: ${RUNS} runs, section: ${SECTION_RUNS} runs per figure (median wall, median CPU = user + system, max peak RSS)`);
+console.log(
+  `machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; load average at start ${load()}`,
+);
+console.log(
+  `quarter: ${RUNS} runs, section: ${SECTION_RUNS} runs per figure (median wall, median CPU = user + system, max peak RSS)`,
+);
 
 const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-build-'));
 const results = [];
 try {
   // 1. the demo quarter at 2 m cells
   const q = 'sample-fields/quarter';
-  const qArgs = ['build', '--samples', `${q}/samples.csv`, '--boundary', `${q}/boundary.geojson`, '--plan', `${q}/plan.yaml`, '--out', join(dir, 'rx-quarter'), '--force', '--cell', '2'];
+  const qArgs = [
+    'build',
+    '--samples',
+    `${q}/samples.csv`,
+    '--boundary',
+    `${q}/boundary.geojson`,
+    '--plan',
+    `${q}/plan.yaml`,
+    '--out',
+    join(dir, 'rx-quarter'),
+    '--force',
+    '--cell',
+    '2',
+  ];
   const tq = measure(process.execPath, [TILTH, ...qArgs], RUNS, root, [0, 1]);
   results.push({ name: 'quarter (demo, 2 m cells)', ...tq });
   const sq = await stages(qArgs);
 
   // 2. the synthetic section at 1 m cells, 5000 samples
   const { pmin, pmax } = makeSection(dir, TILTH);
-  const sArgs = ['build', '--samples', join(dir, 'samples.geojson'), '--boundary', join(dir, 'boundary.geojson'), '--plan', join(dir, 'plan.yaml'), '--out', join(dir, 'rx-section'), '--force', '--cell', '1'];
+  const sArgs = [
+    'build',
+    '--samples',
+    join(dir, 'samples.geojson'),
+    '--boundary',
+    join(dir, 'boundary.geojson'),
+    '--plan',
+    join(dir, 'plan.yaml'),
+    '--out',
+    join(dir, 'rx-section'),
+    '--force',
+    '--cell',
+    '1',
+  ];
   const ts = measure(process.execPath, [TILTH, ...sArgs], SECTION_RUNS, root, [0, 1]);
   results.push({ name: `section (synthetic, 1 m cells, ${N_SAMPLES} samples)`, ...ts });
   const ss = await stages(sArgs);
@@ -115,17 +163,92 @@ try {
   // 3. GDAL's chain on the section's points and grid
   let chain = null;
   if (HAS_GDAL) {
-    const grid = ['-q', '-ot', 'Float32', '-of', 'GTiff', '-a_srs', 'EPSG:32613', '-txe', String(X0), String(X0 + SIDE), '-tye', String(Y0 + SIDE), String(Y0), '-outsize', String(SIDE), String(SIDE), '-zfield', 'z', '-l', 'points'];
-    const g1 = measure('gdal_grid', [...grid, '-a', 'invdist:power=2:smoothing=0', join(dir, 'points.vrt'), join(dir, 'p.tif')], SECTION_RUNS, dir);
+    const grid = [
+      '-q',
+      '-ot',
+      'Float32',
+      '-of',
+      'GTiff',
+      '-a_srs',
+      'EPSG:32613',
+      '-txe',
+      String(X0),
+      String(X0 + SIDE),
+      '-tye',
+      String(Y0 + SIDE),
+      String(Y0),
+      '-outsize',
+      String(SIDE),
+      String(SIDE),
+      '-zfield',
+      'z',
+      '-l',
+      'points',
+    ];
+    const g1 = measure(
+      'gdal_grid',
+      [...grid, '-a', 'invdist:power=2:smoothing=0', join(dir, 'points.vrt'), join(dir, 'p.tif')],
+      SECTION_RUNS,
+      dir,
+    );
     // five equal-interval classes of P Olsen between the samples' min and max
     const br = [1, 2, 3, 4].map((k) => pmin + ((pmax - pmin) * k) / 5);
     const calc = `1+${br.map((b) => `(A>${b.toFixed(4)})`).join('+')}`;
-    const g2 = measure('gdal_calc.py', ['--quiet', '--overwrite', '-A', join(dir, 'p.tif'), '--outfile', join(dir, 'class.tif'), '--type', 'Byte', '--NoDataValue', '0', '--calc', calc], SECTION_RUNS, dir);
-    const g3 = measure('sh', ['-c', `rm -f ${join(dir, 'zones.gpkg')} && gdal_polygonize.py -q ${join(dir, 'class.tif')} -of GPKG ${join(dir, 'zones.gpkg')} zones class`], SECTION_RUNS, dir);
-    const nz = spawnSync('ogrinfo', ['-so', join(dir, 'zones.gpkg'), 'zones'], { encoding: 'utf8' }).stdout.match(/Feature Count: (\d+)/)?.[1];
-    chain = { g1, g2, g3, wall: g1.wall + g2.wall + g3.wall, cpu: g1.cpu + g2.cpu + g3.cpu, rss: Math.max(g1.rss, g2.rss, g3.rss), polygons: nz, calc };
+    const g2 = measure(
+      'gdal_calc.py',
+      [
+        '--quiet',
+        '--overwrite',
+        '-A',
+        join(dir, 'p.tif'),
+        '--outfile',
+        join(dir, 'class.tif'),
+        '--type',
+        'Byte',
+        '--NoDataValue',
+        '0',
+        '--calc',
+        calc,
+      ],
+      SECTION_RUNS,
+      dir,
+    );
+    const g3 = measure(
+      'sh',
+      [
+        '-c',
+        `rm -f ${join(dir, 'zones.gpkg')} && gdal_polygonize.py -q ${join(dir, 'class.tif')} -of GPKG ${join(dir, 'zones.gpkg')} zones class`,
+      ],
+      SECTION_RUNS,
+      dir,
+    );
+    const nz = spawnSync('ogrinfo', ['-so', join(dir, 'zones.gpkg'), 'zones'], {
+      encoding: 'utf8',
+    }).stdout.match(/Feature Count: (\d+)/)?.[1];
+    chain = {
+      g1,
+      g2,
+      g3,
+      wall: g1.wall + g2.wall + g3.wall,
+      cpu: g1.cpu + g2.cpu + g3.cpu,
+      rss: Math.max(g1.rss, g2.rss, g3.rss),
+      polygons: nz,
+      calc,
+    };
     let gnn = null;
-    if (NN) gnn = measure('gdal_grid', [...grid, '-a', `invdistnn:power=2:max_points=12:radius=${2 * SIDE}`, join(dir, 'points.vrt'), join(dir, 'pnn.tif')], 1, dir);
+    if (NN)
+      gnn = measure(
+        'gdal_grid',
+        [
+          ...grid,
+          '-a',
+          `invdistnn:power=2:max_points=12:radius=${2 * SIDE}`,
+          join(dir, 'points.vrt'),
+          join(dir, 'pnn.tif'),
+        ],
+        1,
+        dir,
+      );
     chain.nn = gnn;
   }
   const loadEnd = load();
@@ -133,22 +256,45 @@ try {
   console.log('');
   console.log('| case | wall s (median) | CPU s | peak MB |');
   console.log('|---|---:|---:|---:|');
-  for (const r of results) console.log(`| tilth build: ${r.name} | ${f3(r.wall)} | ${f3(r.cpu)} | ${f0(r.rss)} |`);
+  for (const r of results)
+    console.log(`| tilth build: ${r.name} | ${f3(r.wall)} | ${f3(r.cpu)} | ${f0(r.rss)} |`);
   if (chain) {
-    console.log(`| gdal_grid -a invdist:power=2:smoothing=0 (all ${N_SAMPLES} points, ${SIDE} x ${SIDE}) | ${f3(chain.g1.wall)} | ${f3(chain.g1.cpu)} | ${f0(chain.g1.rss)} |`);
-    console.log(`| gdal_calc.py (5 equal-interval classes, Byte) | ${f3(chain.g2.wall)} | ${f3(chain.g2.cpu)} | ${f0(chain.g2.rss)} |`);
-    console.log(`| gdal_polygonize.py (GPKG, ${chain.polygons ?? '?'} polygons) | ${f3(chain.g3.wall)} | ${f3(chain.g3.cpu)} | ${f0(chain.g3.rss)} |`);
-    console.log(`| GDAL chain total | ${f3(chain.wall)} | ${f3(chain.cpu)} | ${f0(chain.rss)} (largest step) |`);
-    if (chain.nn) console.log(`| gdal_grid -a invdistnn:power=2:max_points=12 (1 run) | ${f3(chain.nn.wall)} | ${f3(chain.nn.cpu)} | ${f0(chain.nn.rss)} |`);
+    console.log(
+      `| gdal_grid -a invdist:power=2:smoothing=0 (all ${N_SAMPLES} points, ${SIDE} x ${SIDE}) | ${f3(chain.g1.wall)} | ${f3(chain.g1.cpu)} | ${f0(chain.g1.rss)} |`,
+    );
+    console.log(
+      `| gdal_calc.py (5 equal-interval classes, Byte) | ${f3(chain.g2.wall)} | ${f3(chain.g2.cpu)} | ${f0(chain.g2.rss)} |`,
+    );
+    console.log(
+      `| gdal_polygonize.py (GPKG, ${chain.polygons ?? '?'} polygons) | ${f3(chain.g3.wall)} | ${f3(chain.g3.cpu)} | ${f0(chain.g3.rss)} |`,
+    );
+    console.log(
+      `| GDAL chain total | ${f3(chain.wall)} | ${f3(chain.cpu)} | ${f0(chain.rss)} (largest step) |`,
+    );
+    if (chain.nn)
+      console.log(
+        `| gdal_grid -a invdistnn:power=2:max_points=12 (1 run) | ${f3(chain.nn.wall)} | ${f3(chain.nn.cpu)} | ${f0(chain.nn.rss)} |`,
+      );
   } else {
-    console.log('(GDAL not installed: gdal_grid, gdal_calc.py and gdal_polygonize.py are needed for the comparison)');
+    console.log(
+      '(GDAL not installed: gdal_grid, gdal_calc.py and gdal_polygonize.py are needed for the comparison)',
+    );
   }
   console.log('');
-  const sec = results[1], qu = results[0];
-  if (chain) console.log(`section: tilth build / GDAL chain (wall) = ${(sec.wall / chain.wall).toFixed(2)}; target <= 1: ${sec.wall <= chain.wall ? 'met' : 'NOT met'}`);
-  console.log(`section: peak memory ${f0(sec.rss)} MB; target < 500 MB: ${sec.rss < 500 ? 'met' : Number.isFinite(sec.rss) ? 'NOT met' : 'not measured (/usr/bin/time missing)'}`);
+  const sec = results[1],
+    qu = results[0];
+  if (chain)
+    console.log(
+      `section: tilth build / GDAL chain (wall) = ${(sec.wall / chain.wall).toFixed(2)}; target <= 1: ${sec.wall <= chain.wall ? 'met' : 'NOT met'}`,
+    );
+  console.log(
+    `section: peak memory ${f0(sec.rss)} MB; target < 500 MB: ${sec.rss < 500 ? 'met' : Number.isFinite(sec.rss) ? 'NOT met' : 'not measured (/usr/bin/time missing)'}`,
+  );
   console.log(`quarter at 2 m: ${f3(qu.wall)} s; target < 1 s: ${qu.wall < 1 ? 'met' : 'NOT met'}`);
-  for (const [name, st] of [['quarter', sq], ['section', ss]]) {
+  for (const [name, st] of [
+    ['quarter', sq],
+    ['section', ss],
+  ]) {
     console.log(`\nstages of one ${name} run (from the progress lines; wall ${f3(st.total)} s):`);
     console.log('| stage | wall s |');
     console.log('|---|---:|');

@@ -11,7 +11,7 @@ import { readInputs } from '../src/io/inputs.js';
 
 function ring(n: number, seed: number): number[][] {
   let a = seed;
-  const rnd = () => ((a = (a * 1664525 + 1013904223) >>> 0) / 4294967296);
+  const rnd = () => (a = (a * 1664525 + 1013904223) >>> 0) / 4294967296;
   const pts: number[][] = [];
   for (let i = 0; i < n; i++) {
     const t = (2 * Math.PI * i) / n;
@@ -31,13 +31,18 @@ for (const n of [1000, 10000]) {
   const flat = new Float64Array(r.flat());
   const ours = time(() => findCrossing([flat]), 5);
   const turf = n <= 10000 ? time(() => kinks(polygon([r])), 1) : NaN;
-  console.log(`boundary of ${n} vertices: findCrossing ${ours.toFixed(1)} ms, @turf/kinks ${turf.toFixed(1)} ms`);
+  console.log(
+    `boundary of ${n} vertices: findCrossing ${ours.toFixed(1)} ms, @turf/kinks ${turf.toFixed(1)} ms`,
+  );
 }
 const root = join(import.meta.dirname, '..');
 const f = (p: string) => ({ name: p, bytes: readFileSync(join(root, p)) });
-const s = f('sample-fields/quarter/samples.csv'), b = f('sample-fields/quarter/boundary.geojson');
+const s = f('sample-fields/quarter/samples.csv'),
+  b = f('sample-fields/quarter/boundary.geojson');
 const load = async () => prepareInputs(await readInputs({ samples: s, boundary: b }));
 await load();
 const t0 = performance.now();
 for (let i = 0; i < 50; i++) await load();
-console.log(`readInputs + prepareInputs, demo quarter (62 samples, CSV): ${((performance.now() - t0) / 50).toFixed(2)} ms`);
+console.log(
+  `readInputs + prepareInputs, demo quarter (62 samples, CSV): ${((performance.now() - t0) / 50).toFixed(2)} ms`,
+);

@@ -17,4 +17,13 @@ for (let i = 0; i < 5; i++) {
   times.push(performance.now() - t);
 }
 times.sort((a, b) => a - b);
-console.log(JSON.stringify({ bench: 'renderReport, demo quarter at 2 m', cells: g.cols * g.rows, rasters: input.surfaces.length + input.response.filter((r) => r.raster).length, medianMs: Math.round(times[2]!), htmlBytes: size, node: process.version }));
+console.log(
+  JSON.stringify({
+    bench: 'renderReport, demo quarter at 2 m',
+    cells: g.cols * g.rows,
+    rasters: input.surfaces.length + input.response.filter((r) => r.raster).length,
+    medianMs: Math.round(times[2]!),
+    htmlBytes: size,
+    node: process.version,
+  }),
+);

@@ -23,56 +23,93 @@ execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root
 
 const UTM = '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs';
 const toLonLat = proj4(UTM, 'EPSG:4326');
-const X0 = 450000, Y0 = 5770000; // whole multiples of every cell size used
+const X0 = 450000,
+  Y0 = 5770000; // whole multiples of every cell size used
 
 function rng(seed) {
   let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 4294967296);
+  return () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 4294967296;
 }
 
 /** Writes boundary, samples (GeoJSON, lon/lat) and the same points in UTM for gdal_grid. */
 function makeCase(dir, n, side, seed, structured = false) {
   const rnd = rng(seed);
   const e = 0.01; // keep the corners just inside whole cells
-  const ring = [[X0 + e, Y0 + e], [X0 + side - e, Y0 + e], [X0 + side - e, Y0 + side - e], [X0 + e, Y0 + side - e], [X0 + e, Y0 + e]]
-    .map(([x, y]) => toLonLat.forward([x, y]));
-  writeFileSync(join(dir, 'boundary.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'Bench field' }, geometry: { type: 'Polygon', coordinates: [ring] } }] }));
-  const feats = [], csv = ['x,y,z'];
+  const ring = [
+    [X0 + e, Y0 + e],
+    [X0 + side - e, Y0 + e],
+    [X0 + side - e, Y0 + side - e],
+    [X0 + e, Y0 + side - e],
+    [X0 + e, Y0 + e],
+  ].map(([x, y]) => toLonLat.forward([x, y]));
+  writeFileSync(
+    join(dir, 'boundary.geojson'),
+    JSON.stringify({
+      type: 'FeatureCollection',
+      features: [
+        {
+          type: 'Feature',
+          properties: { name: 'Bench field' },
+          geometry: { type: 'Polygon', coordinates: [ring] },
+        },
+      ],
+    }),
+  );
+  const feats = [],
+    csv = ['x,y,z'];
   // stratified random: one point in each of n strata of a m x m lattice (the input stage refuses two
   // samples at one place), jittered within the middle 80 % of its stratum
-  const m = Math.ceil(Math.sqrt(n)), w = (side - 2) / m;
+  const m = Math.ceil(Math.sqrt(n)),
+    w = (side - 2) / m;
   const strata = [...Array(m * m).keys()];
-  for (let i = strata.length - 1; i > 0; i--) { const j = Math.floor(rnd() * (i + 1)); [strata[i], strata[j]] = [strata[j], strata[i]]; }
+  for (let i = strata.length - 1; i > 0; i--) {
+    const j = Math.floor(rnd() * (i + 1));
+    [strata[i], strata[j]] = [strata[j], strata[i]];
+  }
   for (let i = 0; i < n; i++) {
-    const sx = strata[i] % m, sy = Math.floor(strata[i] / m);
-    const x = X0 + 1 + (sx + 0.1 + 0.8 * rnd()) * w, y = Y0 + 1 + (sy + 0.1 + 0.8 * rnd()) * w;
+    const sx = strata[i] % m,
+      sy = Math.floor(strata[i] / m);
+    const x = X0 + 1 + (sx + 0.1 + 0.8 * rnd()) * w,
+      y = Y0 + 1 + (sy + 0.1 + 0.8 * rnd()) * w;
     const [lon, lat] = toLonLat.forward([x, y]).map((v) => Math.round(v * 1e8) / 1e8);
     // structured: a smooth pattern a few hundred metres across plus noise (a semivariogram with a sill, so kriging
     // is not refused); otherwise mostly noise with a trend
     const p = structured
       ? Math.round((20 + 8 * Math.sin((x - X0) / 300) * Math.cos((y - Y0) / 250) + 3 * rnd()) * 10) / 10
       : Math.round((8 + 30 * rnd() + (10 * (x - X0)) / side) * 10) / 10;
-    feats.push({ type: 'Feature', properties: { sample_id: `B${i + 1}`, p_olsen_ppm: p }, geometry: { type: 'Point', coordinates: [lon, lat] } });
+    feats.push({
+      type: 'Feature',
+      properties: { sample_id: `B${i + 1}`, p_olsen_ppm: p },
+      geometry: { type: 'Point', coordinates: [lon, lat] },
+    });
     const [px, py] = toLonLat.inverse([lon, lat]);
     csv.push(`${px},${py},${p}`);
   }
   writeFileSync(join(dir, 'samples.geojson'), JSON.stringify({ type: 'FeatureCollection', features: feats }));
   writeFileSync(join(dir, 'points.csv'), csv.join('\n') + '\n');
-  writeFileSync(join(dir, 'points.vrt'), `<OGRVRTDataSource><OGRVRTLayer name="points"><SrcDataSource>${join(dir, 'points.csv')}</SrcDataSource><SrcLayer>points</SrcLayer><GeometryType>wkbPoint</GeometryType><GeometryField encoding="PointFromColumns" x="x" y="y" z="z"/></OGRVRTLayer></OGRVRTDataSource>`);
+  writeFileSync(
+    join(dir, 'points.vrt'),
+    `<OGRVRTDataSource><OGRVRTLayer name="points"><SrcDataSource>${join(dir, 'points.csv')}</SrcDataSource><SrcLayer>points</SrcLayer><GeometryType>wkbPoint</GeometryType><GeometryField encoding="PointFromColumns" x="x" y="y" z="z"/></OGRVRTLayer></OGRVRTDataSource>`,
+  );
 }
 
 /** Runs a command `runs` times; median wall seconds and max peak RSS (MB). */
 function measure(cmd, argv, runs, cwd) {
-  const walls = [], rss = [], cpu = [];
+  const walls = [],
+    rss = [],
+    cpu = [];
   for (let r = 0; r < runs; r++) {
     const t0 = process.hrtime.bigint();
-    const res = TIME ? spawnSync(TIME, ['-v', cmd, ...argv], { cwd, encoding: 'utf8' }) : spawnSync(cmd, argv, { cwd, encoding: 'utf8' });
+    const res = TIME
+      ? spawnSync(TIME, ['-v', cmd, ...argv], { cwd, encoding: 'utf8' })
+      : spawnSync(cmd, argv, { cwd, encoding: 'utf8' });
     const wall = Number(process.hrtime.bigint() - t0) / 1e9;
     if (res.status !== 0) throw new Error(`${cmd} ${argv.join(' ')} failed (${res.status}):\n${res.stderr}`);
     walls.push(wall);
     const m = /Maximum resident set size \(kbytes\): (\d+)/.exec(res.stderr ?? '');
     if (m) rss.push(Number(m[1]) / 1024);
-    const u = /User time \(seconds\): ([\d.]+)/.exec(res.stderr ?? ''), sy = /System time \(seconds\): ([\d.]+)/.exec(res.stderr ?? '');
+    const u = /User time \(seconds\): ([\d.]+)/.exec(res.stderr ?? ''),
+      sy = /System time \(seconds\): ([\d.]+)/.exec(res.stderr ?? '');
     if (u && sy) cpu.push(Number(u[1]) + Number(sy[1]));
   }
   const med = (a) => (a.length ? [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)] : NaN);
@@ -90,12 +127,21 @@ const CASES = [
   { n: 640, cells: 1610, cell: 1, label: '640 ac @ 1 m' },
 ];
 
-console.log(`machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; ${RUNS} runs per figure (median wall, max peak RSS)`);
+console.log(
+  `machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; ${RUNS} runs per figure (median wall, max peak RSS)`,
+);
 console.log('tilth: tilth surface --power 2 --neighbours 12 (whole process, bundled CLI)');
-if (HAS_GDAL) console.log('gdal_grid 3.6: invdist:power=2:smoothing=0 (all points) and invdistnn:power=2:max_points=12 on the same points and grid');
+if (HAS_GDAL)
+  console.log(
+    'gdal_grid 3.6: invdist:power=2:smoothing=0 (all points) and invdistnn:power=2:max_points=12 on the same points and grid',
+  );
 console.log('');
-console.log('wall = median elapsed seconds; cpu = median user + system seconds (all threads); MB = peak resident memory');
-console.log('| samples | grid | tilth wall | tilth cpu | tilth MB | invdist wall | invdist cpu | invdist / tilth (wall) | invdistnn wall | invdistnn / tilth (wall) |');
+console.log(
+  'wall = median elapsed seconds; cpu = median user + system seconds (all threads); MB = peak resident memory',
+);
+console.log(
+  '| samples | grid | tilth wall | tilth cpu | tilth MB | invdist wall | invdist cpu | invdist / tilth (wall) | invdistnn wall | invdistnn / tilth (wall) |',
+);
 console.log('|---:|---|---:|---:|---:|---:|---:|---:|---:|---:|');
 for (const c of ONLY_KRIGING ? [] : CASES) {
   const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-'));
@@ -103,27 +149,90 @@ for (const c of ONLY_KRIGING ? [] : CASES) {
     const side = c.cells * c.cell;
     makeCase(dir, c.n, side, 1000 + c.n);
     const out = join(dir, 'p.asc');
-    const tilthArgs = [join(root, 'bin', 'tilth.js'), 'surface', '--samples', join(dir, 'samples.geojson'), '--boundary', join(dir, 'boundary.geojson'), '--nutrient', 'p', '--cell', String(c.cell), '--power', '2', '--neighbours', '12', '--out', out];
+    const tilthArgs = [
+      join(root, 'bin', 'tilth.js'),
+      'surface',
+      '--samples',
+      join(dir, 'samples.geojson'),
+      '--boundary',
+      join(dir, 'boundary.geojson'),
+      '--nutrient',
+      'p',
+      '--cell',
+      String(c.cell),
+      '--power',
+      '2',
+      '--neighbours',
+      '12',
+      '--out',
+      out,
+    ];
     const t = measure(process.execPath, tilthArgs, RUNS, root);
     const head = readFileSync(out, 'utf8').slice(0, 300).split('\n');
-    const h = Object.fromEntries(head.slice(0, 6).map((l) => l.split(/\s+/)).map(([k, v]) => [k.toLowerCase(), Number(v)]));
-    let gi = '', gc = '', gr = '', nn = '', nr = '';
+    const h = Object.fromEntries(
+      head
+        .slice(0, 6)
+        .map((l) => l.split(/\s+/))
+        .map(([k, v]) => [k.toLowerCase(), Number(v)]),
+    );
+    let gi = '',
+      gc = '',
+      gr = '',
+      nn = '',
+      nr = '';
     if (HAS_GDAL) {
-      const base = ['-q', '-ot', 'Float64', '-of', 'GTiff', '-txe', String(h.xllcorner), String(h.xllcorner + h.ncols * h.cellsize), '-tye', String(h.yllcorner + h.nrows * h.cellsize), String(h.yllcorner), '-outsize', String(h.ncols), String(h.nrows), '-zfield', 'z', '-l', 'points'];
-      const g = measure('gdal_grid', [...base, '-a', 'invdist:power=2:smoothing=0', join(dir, 'points.vrt'), join(dir, 'g.tif')], Math.min(RUNS, 3), dir);
+      const base = [
+        '-q',
+        '-ot',
+        'Float64',
+        '-of',
+        'GTiff',
+        '-txe',
+        String(h.xllcorner),
+        String(h.xllcorner + h.ncols * h.cellsize),
+        '-tye',
+        String(h.yllcorner + h.nrows * h.cellsize),
+        String(h.yllcorner),
+        '-outsize',
+        String(h.ncols),
+        String(h.nrows),
+        '-zfield',
+        'z',
+        '-l',
+        'points',
+      ];
+      const g = measure(
+        'gdal_grid',
+        [...base, '-a', 'invdist:power=2:smoothing=0', join(dir, 'points.vrt'), join(dir, 'g.tif')],
+        Math.min(RUNS, 3),
+        dir,
+      );
       gi = g.wall.toFixed(3);
       gc = g.cpu.toFixed(3);
       gr = (g.wall / t.wall).toFixed(2);
       const nnCost = c.n * c.cells * c.cells;
       if (NN_ALL || nnCost <= 5000 * 160 * 160) {
-        const g2 = measure('gdal_grid', [...base, '-a', `invdistnn:power=2:max_points=12:radius=${2 * side}`, join(dir, 'points.vrt'), join(dir, 'g2.tif')], 1, dir);
+        const g2 = measure(
+          'gdal_grid',
+          [
+            ...base,
+            '-a',
+            `invdistnn:power=2:max_points=12:radius=${2 * side}`,
+            join(dir, 'points.vrt'),
+            join(dir, 'g2.tif'),
+          ],
+          1,
+          dir,
+        );
         nn = g2.wall.toFixed(2);
         nr = (g2.wall / t.wall).toFixed(0);
       } else {
         nn = 'skipped (--nn)';
       }
     }
-    console.log(`| ${c.n} | ${c.label ?? `${c.cells} x ${c.cells}`} (${h.ncols} x ${h.nrows}) | ${t.wall.toFixed(3)} | ${t.cpu.toFixed(3)} | ${Number.isNaN(t.rss) ? 'n/a' : t.rss.toFixed(0)} | ${gi} | ${gc} | ${gr} | ${nn} | ${nr} |`);
+    console.log(
+      `| ${c.n} | ${c.label ?? `${c.cells} x ${c.cells}`} (${h.ncols} x ${h.nrows}) | ${t.wall.toFixed(3)} | ${t.cpu.toFixed(3)} | ${Number.isNaN(t.rss) ? 'n/a' : t.rss.toFixed(0)} | ${gi} | ${gc} | ${gr} | ${nn} | ${nr} |`,
+    );
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
@@ -133,28 +242,71 @@ for (const c of ONLY_KRIGING ? [] : CASES) {
 // 3 x the IDW time on 640 000 cells, peak memory under 300 MB). Both are the whole process; kriging includes its
 // semivariogram fit and leave-one-out, IDW its one-row leave-one-out. Runs alternate so machine load hits both.
 console.log('');
-console.log('ordinary kriging vs IDW, 16 neighbours each, same points and grid (whole `tilth surface` process; structured data)');
-console.log('| samples | grid | IDW wall | IDW MB | kriging wall | kriging MB | kriging / IDW (wall) | load average (1 min) before, after |');
+console.log(
+  'ordinary kriging vs IDW, 16 neighbours each, same points and grid (whole `tilth surface` process; structured data)',
+);
+console.log(
+  '| samples | grid | IDW wall | IDW MB | kriging wall | kriging MB | kriging / IDW (wall) | load average (1 min) before, after |',
+);
 console.log('|---:|---|---:|---:|---:|---:|---:|---|');
-for (const c of [{ n: 640, cells: 800, cell: 5 }, { n: 5000, cells: 800, cell: 5 }]) {
+for (const c of [
+  { n: 640, cells: 800, cell: 5 },
+  { n: 5000, cells: 800, cell: 5 },
+]) {
   const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-'));
   try {
     const side = c.cells * c.cell;
     makeCase(dir, c.n, side, 2000 + c.n, true);
-    const common = [join(root, 'bin', 'tilth.js'), 'surface', '--samples', join(dir, 'samples.geojson'), '--boundary', join(dir, 'boundary.geojson'), '--nutrient', 'p', '--cell', String(c.cell)];
-    const idwArgs = [...common, '--method', 'idw', '--power', '2', '--neighbours', '16', '--out', join(dir, 'i.asc')];
-    const kArgs = [...common, '--method', 'kriging', '--kriging-neighbours', '16', '--out', join(dir, 'k.asc')];
+    const common = [
+      join(root, 'bin', 'tilth.js'),
+      'surface',
+      '--samples',
+      join(dir, 'samples.geojson'),
+      '--boundary',
+      join(dir, 'boundary.geojson'),
+      '--nutrient',
+      'p',
+      '--cell',
+      String(c.cell),
+    ];
+    const idwArgs = [
+      ...common,
+      '--method',
+      'idw',
+      '--power',
+      '2',
+      '--neighbours',
+      '16',
+      '--out',
+      join(dir, 'i.asc'),
+    ];
+    const kArgs = [
+      ...common,
+      '--method',
+      'kriging',
+      '--kriging-neighbours',
+      '16',
+      '--out',
+      join(dir, 'k.asc'),
+    ];
     const load0 = loadavg()[0];
-    const iw = [], kw = [];
-    let irss = 0, krss = 0;
+    const iw = [],
+      kw = [];
+    let irss = 0,
+      krss = 0;
     for (let r = 0; r < RUNS; r++) {
-      const a = measure(process.execPath, idwArgs, 1, root), b = measure(process.execPath, kArgs, 1, root);
-      iw.push(a.wall); kw.push(b.wall);
-      irss = Math.max(irss, a.rss || 0); krss = Math.max(krss, b.rss || 0);
+      const a = measure(process.execPath, idwArgs, 1, root),
+        b = measure(process.execPath, kArgs, 1, root);
+      iw.push(a.wall);
+      kw.push(b.wall);
+      irss = Math.max(irss, a.rss || 0);
+      krss = Math.max(krss, b.rss || 0);
     }
     const med = (a) => [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)];
     const ratios = iw.map((w, i) => kw[i] / w);
-    console.log(`| ${c.n} | ${c.cells} x ${c.cells} | ${med(iw).toFixed(3)} | ${irss.toFixed(0)} | ${med(kw).toFixed(3)} | ${krss.toFixed(0)} | ${med(ratios).toFixed(2)} (median of ${RUNS} paired runs) | ${load0.toFixed(2)}, ${loadavg()[0].toFixed(2)} |`);
+    console.log(
+      `| ${c.n} | ${c.cells} x ${c.cells} | ${med(iw).toFixed(3)} | ${irss.toFixed(0)} | ${med(kw).toFixed(3)} | ${krss.toFixed(0)} | ${med(ratios).toFixed(2)} (median of ${RUNS} paired runs) | ${load0.toFixed(2)}, ${loadavg()[0].toFixed(2)} |`,
+    );
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

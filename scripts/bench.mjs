@@ -9,7 +9,11 @@ import { fileURLToPath } from 'node:url';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const only = process.argv[2];
-const scripts = readdirSync(here).filter((f) => /^bench-.+\.(mjs|ts)$/.test(f) && (!only || f.replace(/\.(mjs|ts)$/, '') === `bench-${only}`)).sort();
+const scripts = readdirSync(here)
+  .filter(
+    (f) => /^bench-.+\.(mjs|ts)$/.test(f) && (!only || f.replace(/\.(mjs|ts)$/, '') === `bench-${only}`),
+  )
+  .sort();
 if (!scripts.length) {
   console.error(`no benchmark ${only ? `"bench-${only}.mjs" ` : ''}in ${here}`);
   process.exit(1);
@@ -18,7 +22,10 @@ let failed = 0;
 for (const s of scripts) {
   console.log(`\n== ${s} ==`);
   const pre = s.endsWith('.ts') ? ['--import', 'tsx'] : [];
-  const r = spawnSync(process.execPath, [...pre, join(here, s), ...process.argv.slice(3)], { stdio: 'inherit', cwd: join(here, '..') });
+  const r = spawnSync(process.execPath, [...pre, join(here, s), ...process.argv.slice(3)], {
+    stdio: 'inherit',
+    cwd: join(here, '..'),
+  });
   if (r.status !== 0) failed++;
 }
 process.exit(failed ? 1 : 0);

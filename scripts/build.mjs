@@ -5,12 +5,21 @@
 // bin/tilth.js falls back to the TypeScript sources through tsx when dist/ is missing or older than src/.
 import { build } from 'esbuild';
 
-const common = { bundle: true, platform: 'node', format: 'esm', target: 'node20', sourcemap: true, logLevel: 'warning' };
+const common = {
+  bundle: true,
+  platform: 'node',
+  format: 'esm',
+  target: 'node20',
+  sourcemap: true,
+  logLevel: 'warning',
+};
 await build({ ...common, entryPoints: ['src/index.ts'], outfile: 'dist/index.js', packages: 'external' });
 await build({
   ...common,
   entryPoints: ['src/cli/main.ts'],
   outfile: 'dist/tilth.mjs',
   // CommonJS packages inside an ES module bundle need a require()
-  banner: { js: "import { createRequire as __tilthRequire } from 'node:module'; const require = __tilthRequire(import.meta.url);" },
+  banner: {
+    js: "import { createRequire as __tilthRequire } from 'node:module'; const require = __tilthRequire(import.meta.url);",
+  },
 });

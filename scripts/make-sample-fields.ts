@@ -19,10 +19,12 @@ const ROOT = join(import.meta.dirname, '..', 'sample-fields');
 
 const rng = mulberry32;
 function gauss(r: () => number): number {
-  const u = Math.max(r(), 1e-12), v = r();
+  const u = Math.max(r(), 1e-12),
+    v = r();
   return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
 }
-const bump = (u: number, v: number, cu: number, cv: number, s2: number) => Math.exp(-((u - cu) ** 2 + (v - cv) ** 2) / s2);
+const bump = (u: number, v: number, cu: number, cv: number, s2: number) =>
+  Math.exp(-((u - cu) ** 2 + (v - cv) ** 2) / s2);
 const r7 = (x: number) => Math.round(x * 1e7) / 1e7;
 const fx = (x: number, d: number) => Number(x.toFixed(d));
 
@@ -30,7 +32,10 @@ type Soil = {
   texture: 'light' | 'medium' | 'heavy';
   no3: [number, number]; // lb/ac 0-6, 6-24
   so4: [number, number]; // lb/ac 0-6, 6-24
-  p: number; k: number; om: number; ph: number;
+  p: number;
+  k: number;
+  om: number;
+  ph: number;
 };
 
 /** Soil at unit-square position (u east, v north) of a landscape; topo > 0 knoll, < 0 depression. */
@@ -51,7 +56,10 @@ function soilAt(topo: number, sandy: number, trendU: number, r: () => number): S
     texture,
     no3: [n0, nTot - n0],
     so4: [s0, sTot - s0],
-    p, k, om, ph,
+    p,
+    k,
+    om,
+    ph,
   };
 }
 
@@ -62,7 +70,13 @@ function labNum(v: number, decimals: number, low?: number, high?: number): numbe
   return fx(v, decimals);
 }
 
-interface SampleOut { id: string; lon: number; lat: number; zone?: string; soil: Soil }
+interface SampleOut {
+  id: string;
+  lon: number;
+  lat: number;
+  zone?: string;
+  soil: Soil;
+}
 
 function sampleProps(s: SampleOut): Record<string, unknown> {
   const props: Record<string, unknown> = { sample_id: s.id };
@@ -82,11 +96,14 @@ function sampleProps(s: SampleOut): Record<string, unknown> {
 }
 
 function samplesGeoJson(samples: SampleOut[], name: string): string {
-  return fc(name, samples.map((s) => ({
-    type: 'Feature',
-    properties: sampleProps(s),
-    geometry: { type: 'Point', coordinates: [s.lon, s.lat] },
-  })));
+  return fc(
+    name,
+    samples.map((s) => ({
+      type: 'Feature',
+      properties: sampleProps(s),
+      geometry: { type: 'Point', coordinates: [s.lon, s.lat] },
+    })),
+  );
 }
 
 /** Lab-style CSV: two preamble lines, then one row per sample and depth. */
@@ -96,17 +113,60 @@ function samplesCsv(samples: SampleOut[], farm: string, field: string): string {
   const lines = [
     `Report,Cutbank Soil Lab (fictional) - soil analysis - ${farm} - ${field}`,
     'Received,2026-10-06',
-    ['Lab No', 'Sample', ...(zoned ? ['Zone'] : []), 'Latitude', 'Longitude', 'Depth (in)', 'NO3-N (lb/ac)',
-      'P Olsen (ppm)', 'K (ppm)', 'SO4-S (lb/ac)', 'OM (%)', 'pH', 'Texture'].join(','),
+    [
+      'Lab No',
+      'Sample',
+      ...(zoned ? ['Zone'] : []),
+      'Latitude',
+      'Longitude',
+      'Depth (in)',
+      'NO3-N (lb/ac)',
+      'P Olsen (ppm)',
+      'K (ppm)',
+      'SO4-S (lb/ac)',
+      'OM (%)',
+      'pH',
+      'Texture',
+    ].join(','),
   ];
   let lab = 26_1400;
   for (const s of samples) {
     const p = sampleProps(s);
     const z = zoned ? [q(s.zone)] : [];
-    lines.push([lab++, s.id, ...z, s.lat.toFixed(7), s.lon.toFixed(7), '0-6', q(p.no3_n_lbac_0_6), q(p.p_olsen_ppm), q(p.k_ppm),
-      q(p.so4_s_lbac_0_6), q(p.om_pct), q(p.ph), s.soil.texture].join(','));
-    lines.push([lab++, s.id, ...z, s.lat.toFixed(7), s.lon.toFixed(7), '6-24', q(p.no3_n_lbac_6_24), '', '',
-      q(p.so4_s_lbac_6_24), '', '', ''].join(','));
+    lines.push(
+      [
+        lab++,
+        s.id,
+        ...z,
+        s.lat.toFixed(7),
+        s.lon.toFixed(7),
+        '0-6',
+        q(p.no3_n_lbac_0_6),
+        q(p.p_olsen_ppm),
+        q(p.k_ppm),
+        q(p.so4_s_lbac_0_6),
+        q(p.om_pct),
+        q(p.ph),
+        s.soil.texture,
+      ].join(','),
+    );
+    lines.push(
+      [
+        lab++,
+        s.id,
+        ...z,
+        s.lat.toFixed(7),
+        s.lon.toFixed(7),
+        '6-24',
+        q(p.no3_n_lbac_6_24),
+        '',
+        '',
+        q(p.so4_s_lbac_6_24),
+        '',
+        '',
+        '',
+      ].join(','),
+    );
   }
   return lines.join('\n') + '\n';
 }
@@ -120,7 +180,8 @@ function fc(name: string, features: unknown[]): string {
 function ringLonLat(p: ReturnType<typeof projector>, xy: [number, number][], ccw: boolean): number[][] {
   let a = 0;
   for (let i = 0; i < xy.length; i++) {
-    const [x0, y0] = xy[i], [x1, y1] = xy[(i + 1) % xy.length];
+    const [x0, y0] = xy[i],
+      [x1, y1] = xy[(i + 1) % xy.length];
     a += x0 * y1 - x1 * y0;
   }
   const pts = a > 0 === ccw ? xy : [...xy].reverse();
@@ -138,14 +199,22 @@ function write(dir: string, file: string, text: string): void {
 // 1. "Home quarter": a quarter section (half a mile square) with a slough, grid-sampled.
 function quarter(): void {
   const r = rng(20261006);
-  const clon = -106.412, clat = 52.318; // invented location, central Saskatchewan (UTM zone 13N)
+  const clon = -106.412,
+    clat = 52.318; // invented location, central Saskatchewan (UTM zone 13N)
   const p = projector(utmZoneFor(clon, clat));
   const [cx, cy] = p.toMetres(clon, clat);
   const side = 804.672; // half a mile
-  const x0 = Math.round(cx - side / 2), y0 = Math.round(cy - side / 2);
-  const sq: [number, number][] = [[x0, y0], [x0 + side, y0], [x0 + side, y0 + side], [x0, y0 + side]];
+  const x0 = Math.round(cx - side / 2),
+    y0 = Math.round(cy - side / 2);
+  const sq: [number, number][] = [
+    [x0, y0],
+    [x0 + side, y0],
+    [x0 + side, y0 + side],
+    [x0, y0 + side],
+  ];
   // the slough: an irregular blob around (0.62, 0.55) of the square, about 6 ac
-  const su = 0.62, sv = 0.55;
+  const su = 0.62,
+    sv = 0.55;
   const slough: [number, number][] = [];
   for (let i = 0; i < 18; i++) {
     const t = (2 * Math.PI * i) / 18;
@@ -160,28 +229,49 @@ function quarter(): void {
   write('quarter', 'boundary.geojson', fc('Home quarter boundary', [boundary]));
 
   const topo = (u: number, v: number) =>
-    1.1 * bump(u, v, 0.22, 0.78, 0.025) + 0.85 * bump(u, v, 0.85, 0.18, 0.02) + 0.5 * bump(u, v, 0.45, 0.15, 0.015)
-    - 1.1 * bump(u, v, su, sv, 0.03) - 0.7 * bump(u, v, 0.3, 0.4, 0.012);
+    1.1 * bump(u, v, 0.22, 0.78, 0.025) +
+    0.85 * bump(u, v, 0.85, 0.18, 0.02) +
+    0.5 * bump(u, v, 0.45, 0.15, 0.015) -
+    1.1 * bump(u, v, su, sv, 0.03) -
+    0.7 * bump(u, v, 0.3, 0.4, 0.012);
   const sandy = (u: number, v: number) => bump(u, v, 0.0, 0.0, 0.12) * 1.2;
   const inSlough = (x: number, y: number) => {
     let inside = false;
     for (let i = 0, j = slough.length - 1; i < slough.length; j = i++) {
-      const [xi, yi] = slough[i], [xj, yj] = slough[j];
+      const [xi, yi] = slough[i],
+        [xj, yj] = slough[j];
       if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
     }
     return inside;
   };
   const samples: SampleOut[] = [];
-  const nGrid = 8, step = side / nGrid;
+  const nGrid = 8,
+    step = side / nGrid;
   let n = 1;
   for (let row = nGrid - 1; row >= 0; row--) {
     for (let col = 0; col < nGrid; col++) {
-      const x = x0 + (col + 0.5) * step + 6 * gauss(r), y = y0 + (row + 0.5) * step + 6 * gauss(r);
+      const x = x0 + (col + 0.5) * step + 6 * gauss(r),
+        y = y0 + (row + 0.5) * step + 6 * gauss(r);
       // skip points in the slough or within 15 m of its edge
-      if ([[0, 0], [15, 0], [-15, 0], [0, 15], [0, -15]].some(([dx, dy]) => inSlough(x + dx, y + dy))) continue;
-      const u = (x - x0) / side, v = (y - y0) / side;
+      if (
+        [
+          [0, 0],
+          [15, 0],
+          [-15, 0],
+          [0, 15],
+          [0, -15],
+        ].some(([dx, dy]) => inSlough(x + dx, y + dy))
+      )
+        continue;
+      const u = (x - x0) / side,
+        v = (y - y0) / side;
       const [lon, lat] = p.toLonLat(x, y);
-      samples.push({ id: `HQ-${String(n++).padStart(2, '0')}`, lon: r7(lon), lat: r7(lat), soil: soilAt(topo(u, v), sandy(u, v), u, r) });
+      samples.push({
+        id: `HQ-${String(n++).padStart(2, '0')}`,
+        lon: r7(lon),
+        lat: r7(lat),
+        soil: soilAt(topo(u, v), sandy(u, v), u, r),
+      });
     }
   }
   write('quarter', 'samples.geojson', samplesGeoJson(samples, 'Home quarter soil samples'));
@@ -193,40 +283,105 @@ function quarter(): void {
 // 2. "Creek field": an irregular field in two parts (a creek between them), zone-composite samples.
 function zoned(): void {
   const r = rng(771203);
-  const clon = -106.371, clat = 52.341;
+  const clon = -106.371,
+    clat = 52.341;
   const p = projector(utmZoneFor(clon, clat));
   const [cx, cy] = p.toMetres(clon, clat);
-  const west: [number, number][] = [[-640, -380], [-40, -420], [-10, -150], [-60, 120], [-30, 390], [-420, 430], [-600, 260], [-690, -60]];
-  const east: [number, number][] = [[60, -300], [420, -340], [470, 40], [380, 300], [90, 250], [110, 20]];
-  const toAbs = (ring: [number, number][]) => ring.map(([x, y]) => [Math.round(cx + x), Math.round(cy + y)] as [number, number]);
+  const west: [number, number][] = [
+    [-640, -380],
+    [-40, -420],
+    [-10, -150],
+    [-60, 120],
+    [-30, 390],
+    [-420, 430],
+    [-600, 260],
+    [-690, -60],
+  ];
+  const east: [number, number][] = [
+    [60, -300],
+    [420, -340],
+    [470, 40],
+    [380, 300],
+    [90, 250],
+    [110, 20],
+  ];
+  const toAbs = (ring: [number, number][]) =>
+    ring.map(([x, y]) => [Math.round(cx + x), Math.round(cy + y)] as [number, number]);
   const partsXY = [toAbs(west), toAbs(east)];
   const boundaryLL = partsXY.map((ring) => [ringLonLat(p, ring, true)]);
-  write('zoned', 'boundary.geojson', fc('Creek field boundary', [{
-    type: 'Feature',
-    properties: { name: 'Creek field', farm: 'Willowbrae Farms (fictional)' },
-    geometry: { type: 'MultiPolygon', coordinates: boundaryLL },
-  }]));
+  write(
+    'zoned',
+    'boundary.geojson',
+    fc('Creek field boundary', [
+      {
+        type: 'Feature',
+        properties: { name: 'Creek field', farm: 'Willowbrae Farms (fictional)' },
+        geometry: { type: 'MultiPolygon', coordinates: boundaryLL },
+      },
+    ]),
+  );
 
   // zones: bands across the west part by landscape position, the east part is one zone
   const Y = (dy: number) => cy + dy;
-  const band = (ya: number, yb: number, xa = cx - 2000, xb = cx + 15): polyclip.Geom => [[[xa, Y(ya)], [xb, Y(ya)], [xb, Y(yb)], [xa, Y(yb)], [xa, Y(ya)]]];
+  const band = (ya: number, yb: number, xa = cx - 2000, xb = cx + 15): polyclip.Geom => [
+    [
+      [xa, Y(ya)],
+      [xb, Y(ya)],
+      [xb, Y(yb)],
+      [xa, Y(yb)],
+      [xa, Y(ya)],
+    ],
+  ];
   const fieldGeom: polyclip.Geom = partsXY.map((ring) => [[...ring, ring[0]]]);
   const zoneDefs: { key: string; topo: number; sandy: number; geom: polyclip.Geom }[] = [
     { key: 'knoll', topo: 0.9, sandy: 0, geom: band(150, 2000) },
     { key: 'midslope', topo: 0.1, sandy: 0, geom: band(-120, 150) },
     { key: 'lowland', topo: -0.8, sandy: 0, geom: band(-2000, -120) },
-    { key: 'east-bench', topo: 0.3, sandy: 0.7, geom: [[[cx + 15, cy - 2000], [cx + 2000, cy - 2000], [cx + 2000, cy + 2000], [cx + 15, cy + 2000], [cx + 15, cy - 2000]]] },
+    {
+      key: 'east-bench',
+      topo: 0.3,
+      sandy: 0.7,
+      geom: [
+        [
+          [cx + 15, cy - 2000],
+          [cx + 2000, cy - 2000],
+          [cx + 2000, cy + 2000],
+          [cx + 15, cy + 2000],
+          [cx + 15, cy - 2000],
+        ],
+      ],
+    },
   ];
   const zoneFeatures: unknown[] = [];
   const samples: SampleOut[] = [];
   let n = 1;
   for (const z of zoneDefs) {
     const mp = polyclip.intersection(fieldGeom, z.geom);
-    const ll = mp.map((poly) => poly.map((ring) => ringLonLat(p, ring.slice(0, -1).map(([x, y]) => [Math.round(x * 100) / 100, Math.round(y * 100) / 100] as [number, number]), poly.indexOf(ring) === 0)));
-    const feature = { type: 'Feature', properties: { zone: z.key }, geometry: { type: 'MultiPolygon', coordinates: ll } };
+    const ll = mp.map((poly) =>
+      poly.map((ring) =>
+        ringLonLat(
+          p,
+          ring
+            .slice(0, -1)
+            .map(([x, y]) => [Math.round(x * 100) / 100, Math.round(y * 100) / 100] as [number, number]),
+          poly.indexOf(ring) === 0,
+        ),
+      ),
+    );
+    const feature = {
+      type: 'Feature',
+      properties: { zone: z.key },
+      geometry: { type: 'MultiPolygon', coordinates: ll },
+    };
     zoneFeatures.push(feature);
     const pt = pointOnFeature(feature as never).geometry.coordinates;
-    samples.push({ id: `CF-${n++}`, zone: z.key, lon: r7(pt[0]), lat: r7(pt[1]), soil: soilAt(z.topo, z.sandy, 0.5, r) });
+    samples.push({
+      id: `CF-${n++}`,
+      zone: z.key,
+      lon: r7(pt[0]),
+      lat: r7(pt[1]),
+      soil: soilAt(z.topo, z.sandy, 0.5, r),
+    });
   }
   write('zoned', 'zones.geojson', fc('Creek field sampling zones', zoneFeatures));
   write('zoned', 'samples.geojson', samplesGeoJson(samples, 'Creek field zone-composite samples'));

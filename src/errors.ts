@@ -9,14 +9,20 @@
  */
 export class UserError extends Error {
   override readonly name = 'UserError';
-  constructor(message: string, readonly details: { file?: string; where?: string; field?: string; value?: unknown } = {}) {
+  constructor(
+    message: string,
+    readonly details: { file?: string; where?: string; field?: string; value?: unknown } = {},
+  ) {
     super(message);
   }
 }
 
 /** True for errors the CLI should report as user errors (exit 2, no stack). */
 export function isUserError(e: unknown): e is UserError {
-  return e instanceof UserError || (typeof e === 'object' && e !== null && (e as { name?: string }).name === 'UserError');
+  return (
+    e instanceof UserError ||
+    (typeof e === 'object' && e !== null && (e as { name?: string }).name === 'UserError')
+  );
 }
 
 /**

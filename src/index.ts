@@ -20,14 +20,33 @@ export { utmZoneFor, projector, type Projector } from './geo/utm.js';
 export * from './surface/index.js';
 export * from './agronomy/index.js';
 export * from './zones/index.js';
-export { buildPrescription, defaultCell, type Prescription, type PrescriptionZone, type ZoneSetResult, type ProductTotal, type BuildOptions } from './prescription/index.js';
-export { prescriptionGeojson, zonesCsv, summaryObject, summaryText, shapefileFeatures, type Provenance } from './prescription/outputs.js';
+export {
+  buildPrescription,
+  defaultCell,
+  type Prescription,
+  type PrescriptionZone,
+  type ZoneSetResult,
+  type ProductTotal,
+  type BuildOptions,
+} from './prescription/index.js';
+export {
+  prescriptionGeojson,
+  zonesCsv,
+  summaryObject,
+  summaryText,
+  shapefileFeatures,
+  type Provenance,
+} from './prescription/outputs.js';
 export { reportInput } from './prescription/reportInput.js';
 export { prescriptionFolder, type FolderOptions, type PrescriptionFolder } from './prescription/folder.js';
 export { provenance, inputsHash } from './prescription/provenance.js';
 export { writeShapefile, readShapefile } from './io/shapefile/index.js';
 export { prescriptionFiles } from './prescription/shapefiles.js';
-export { prescriptionTaskData, prescriptionTaskDataFiles, type TaskDataOptions } from './prescription/taskdata.js';
+export {
+  prescriptionTaskData,
+  prescriptionTaskDataFiles,
+  type TaskDataOptions,
+} from './prescription/taskdata.js';
 export { readTaskData, taskDataFiles, taskDataXml, type TaskData } from './io/isoxml/index.js';
 export { zipFiles, readZip } from './io/zip.js';
 export { checkPrescription } from './check/index.js';

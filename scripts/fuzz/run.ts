@@ -10,16 +10,38 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { ensureBomb, targetOf } from './targets.js';
 
-interface Reply { seed: number; target: string; outcome: string; message?: string; mustRefuse?: string; ms: number; rssMb: number }
+interface Reply {
+  seed: number;
+  target: string;
+  outcome: string;
+  message?: string;
+  mustRefuse?: string;
+  ms: number;
+  rssMb: number;
+}
 
 function args() {
   const a = process.argv.slice(2);
-  const get = (k: string, d?: string) => { const i = a.indexOf(k); return i >= 0 ? a[i + 1] : d; };
-  return { workers: Math.max(1, Number(get('--workers', '1'))), runs: Number(get('--runs', '200')), seed: Number(get('--seed', '1')), hangMs: Number(get('--hang-ms', '30000')), only: get('--only')?.split(','), json: get('--json'), quiet: a.includes('--quiet') };
+  const get = (k: string, d?: string) => {
+    const i = a.indexOf(k);
+    return i >= 0 ? a[i + 1] : d;
+  };
+  return {
+    workers: Math.max(1, Number(get('--workers', '1'))),
+    runs: Number(get('--runs', '200')),
+    seed: Number(get('--seed', '1')),
+    hangMs: Number(get('--hang-ms', '30000')),
+    only: get('--only')?.split(','),
+    json: get('--json'),
+    quiet: a.includes('--quiet'),
+  };
 }
 
 function startWorker(): Promise<ChildProcess> {
-  const w = fork(join(import.meta.dirname, 'worker.ts'), [], { execArgv: ['--import', 'tsx', '--max-old-space-size=2048'], stdio: ['ignore', 'ignore', 'pipe', 'ipc'] });
+  const w = fork(join(import.meta.dirname, 'worker.ts'), [], {
+    execArgv: ['--import', 'tsx', '--max-old-space-size=2048'],
+    stdio: ['ignore', 'ignore', 'pipe', 'ipc'],
+  });
   return new Promise((res, rej) => {
     w.once('message', () => res(w));
     w.once('exit', (c) => rej(new Error(`fuzz worker exited ${c} before it was ready`)));
@@ -29,30 +51,81 @@ function startWorker(): Promise<ChildProcess> {
 /** One run in the worker, or a hang / signal when it does not answer in time. */
 function runOne(w: ChildProcess, seed: number, hangMs: number, only?: string[]): Promise<Reply> {
   return new Promise((res) => {
-    const timer = setTimeout(() => { w.kill('SIGKILL'); res({ seed, target: targetOf(seed, only).name, outcome: 'hang', ms: hangMs, rssMb: 0 }); }, hangMs);
-    const onExit = (code: number | null, sig: string | null) => { clearTimeout(timer); res({ seed, target: targetOf(seed, only).name, outcome: 'signal', message: `worker died: ${sig ?? code}`, ms: 0, rssMb: 0 }); };
+    const timer = setTimeout(() => {
+      w.kill('SIGKILL');
+      res({ seed, target: targetOf(seed, only).name, outcome: 'hang', ms: hangMs, rssMb: 0 });
+    }, hangMs);
+    const onExit = (code: number | null, sig: string | null) => {
+      clearTimeout(timer);
+      res({
+        seed,
+        target: targetOf(seed, only).name,
+        outcome: 'signal',
+        message: `worker died: ${sig ?? code}`,
+        ms: 0,
+        rssMb: 0,
+      });
+    };
     w.once('exit', onExit);
-    w.once('message', (m) => { clearTimeout(timer); w.off('exit', onExit); res(m as Reply); });
+    w.once('message', (m) => {
+      clearTimeout(timer);
+      w.off('exit', onExit);
+      res(m as Reply);
+    });
     w.send({ seed, only });
   });
 }
 
 type Counts = Record<string, Record<string, number>>;
 
-function summarise(o: ReturnType<typeof args>, done: number, counts: Counts, bad: Reply[], t0: number, slowest: number, peakRss: number) {
-  return { runs: done, requested: o.runs, firstSeed: o.seed, seconds: Math.round((Date.now() - t0) / 1000), slowestMs: slowest, peakRssMb: peakRss, byTarget: counts, bad: bad.map((b) => ({ seed: b.seed, target: b.target, outcome: b.outcome, message: b.message?.split('\n')[0] })) };
+function summarise(
+  o: ReturnType<typeof args>,
+  done: number,
+  counts: Counts,
+  bad: Reply[],
+  t0: number,
+  slowest: number,
+  peakRss: number,
+) {
+  return {
+    runs: done,
+    requested: o.runs,
+    firstSeed: o.seed,
+    seconds: Math.round((Date.now() - t0) / 1000),
+    slowestMs: slowest,
+    peakRssMb: peakRss,
+    byTarget: counts,
+    bad: bad.map((b) => ({
+      seed: b.seed,
+      target: b.target,
+      outcome: b.outcome,
+      message: b.message?.split('\n')[0],
+    })),
+  };
 }
 
 /** One worker's share: seeds seed+i for i = start, start+step, ... */
-async function lane(o: ReturnType<typeof args>, start: number, step: number, record: (r: Reply) => void): Promise<void> {
+async function lane(
+  o: ReturnType<typeof args>,
+  start: number,
+  step: number,
+  record: (r: Reply) => void,
+): Promise<void> {
   let w = await startWorker();
   let sinceStart = 0;
   for (let i = start; i < o.runs; i += step) {
-    if (sinceStart >= 250) { w.disconnect(); w = await startWorker(); sinceStart = 0; }
+    if (sinceStart >= 250) {
+      w.disconnect();
+      w = await startWorker();
+      sinceStart = 0;
+    }
     const r = await runOne(w, o.seed + i, o.hangMs, o.only);
     sinceStart++;
     record(r);
-    if (r.outcome === 'hang' || r.outcome === 'signal') { w = await startWorker(); sinceStart = 0; }
+    if (r.outcome === 'hang' || r.outcome === 'signal') {
+      w = await startWorker();
+      sinceStart = 0;
+    }
   }
   w.disconnect();
 }
@@ -62,20 +135,29 @@ async function main() {
   const counts: Counts = {};
   const bad: Reply[] = [];
   if (!o.only || o.only.includes('zip-bomb')) ensureBomb();
-  let done = 0, slowest = 0, peakRss = 0;
+  let done = 0,
+    slowest = 0,
+    peakRss = 0;
   const t0 = Date.now();
   const record = (r: Reply) => {
     done++;
-    slowest = Math.max(slowest, r.ms); peakRss = Math.max(peakRss, r.rssMb);
+    slowest = Math.max(slowest, r.ms);
+    peakRss = Math.max(peakRss, r.rssMb);
     const cls = r.outcome === 'accepted' && r.mustRefuse ? 'wrongly-accepted' : r.outcome;
     (counts[r.target] ??= {})[cls] = (counts[r.target]![cls] ?? 0) + 1;
     if (cls === 'crash' || cls === 'hang' || cls === 'signal' || cls === 'wrongly-accepted') {
       bad.push(r);
-      process.stderr.write(`\nseed ${r.seed} ${r.target}: ${cls}${r.mustRefuse ? ` (${r.mustRefuse})` : ''}\n${r.message ?? ''}\n`);
+      process.stderr.write(
+        `\nseed ${r.seed} ${r.target}: ${cls}${r.mustRefuse ? ` (${r.mustRefuse})` : ''}\n${r.message ?? ''}\n`,
+      );
     }
     if (done % 100 === 0) {
       if (!o.quiet) process.stderr.write(`\r${done}/${o.runs} runs, ${bad.length} bad`);
-      if (o.json) writeFileSync(o.json, JSON.stringify(summarise(o, done, counts, bad, t0, slowest, peakRss), null, 2) + '\n');
+      if (o.json)
+        writeFileSync(
+          o.json,
+          JSON.stringify(summarise(o, done, counts, bad, t0, slowest, peakRss), null, 2) + '\n',
+        );
     }
   };
   await Promise.all(Array.from({ length: o.workers }, (_, k) => lane(o, k, o.workers, record)));

@@ -20,13 +20,31 @@ process.on('message', async (m: { seed: number; only?: string[] }) => {
     const res = await t.run(rng(m.seed), dir);
     reply = { seed: m.seed, target: t.name, outcome: res.outcome, mustRefuse: res.mustRefuse };
   } catch (e) {
-    if (isUserError(e)) reply = { seed: m.seed, target: t.name, outcome: 'refused', message: (e as Error).message.slice(0, 300) };
-    else reply = { seed: m.seed, target: t.name, outcome: 'crash', message: String((e as Error)?.stack ?? e).split('\n').slice(0, 6).join('\n') };
+    if (isUserError(e))
+      reply = {
+        seed: m.seed,
+        target: t.name,
+        outcome: 'refused',
+        message: (e as Error).message.slice(0, 300),
+      };
+    else
+      reply = {
+        seed: m.seed,
+        target: t.name,
+        outcome: 'crash',
+        message: String((e as Error)?.stack ?? e)
+          .split('\n')
+          .slice(0, 6)
+          .join('\n'),
+      };
   }
   reply.ms = Date.now() - started;
   reply.rssMb = Math.round(process.memoryUsage().rss / 1048576);
   rmSync(dir, { recursive: true, force: true });
   process.send!(reply);
 });
-process.on('disconnect', () => { rmSync(base, { recursive: true, force: true }); process.exit(0); });
+process.on('disconnect', () => {
+  rmSync(base, { recursive: true, force: true });
+  process.exit(0);
+});
 process.send!({ ready: true });

@@ -21,21 +21,35 @@ export function formatDecision(d: Decision): string {
   L.push(`Crop ${d.crop}, target ${d.targetYieldBu} bu/ac, ${d.texture} texture`);
   L.push('');
   L.push('Soil test');
-  L.push(`  P   ${f1(it.p.ppm)} ppm ${it.p.method}${it.p.kelownaFactor ? ` (class bounds: Olsen x Kelowna factor ${it.p.kelownaFactor}, published bounds kept)` : ''}: class ${it.p.className ?? 'not tested'}, chance of a response ${pct(it.p.responseProbability)}`);
-  L.push(`  K   ${f1(it.k.ppm)} ppm: class ${it.k.className ?? 'not tested'} (${it.k.below === null ? 'not tested' : it.k.below ? 'below' : 'at or above'} the critical ${it.k.criticalPpm} ppm), chance of a response ${pct(it.k.responseProbability)}`);
-  L.push(`  S   ${f1(it.s.lbac)} lb/ac 0-24 in: ${it.s.status === 'low' ? 'low (reliable)' : it.s.status === 'not_tested' ? 'not tested' : 'not low (uncertain)'}`);
-  L.push(`  N   ${f1(it.n.nitrateLbac)} lb/ac nitrate 0-24 in (used as read)${it.n.springMineralizationLb ? ` + ${f1(it.n.springMineralizationLb)} spring mineralization (fall sample)` : ''}; available with credits ${f1(it.n.availableLb)} lb/ac`);
+  L.push(
+    `  P   ${f1(it.p.ppm)} ppm ${it.p.method}${it.p.kelownaFactor ? ` (class bounds: Olsen x Kelowna factor ${it.p.kelownaFactor}, published bounds kept)` : ''}: class ${it.p.className ?? 'not tested'}, chance of a response ${pct(it.p.responseProbability)}`,
+  );
+  L.push(
+    `  K   ${f1(it.k.ppm)} ppm: class ${it.k.className ?? 'not tested'} (${it.k.below === null ? 'not tested' : it.k.below ? 'below' : 'at or above'} the critical ${it.k.criticalPpm} ppm), chance of a response ${pct(it.k.responseProbability)}`,
+  );
+  L.push(
+    `  S   ${f1(it.s.lbac)} lb/ac 0-24 in: ${it.s.status === 'low' ? 'low (reliable)' : it.s.status === 'not_tested' ? 'not tested' : 'not low (uncertain)'}`,
+  );
+  L.push(
+    `  N   ${f1(it.n.nitrateLbac)} lb/ac nitrate 0-24 in (used as read)${it.n.springMineralizationLb ? ` + ${f1(it.n.springMineralizationLb)} spring mineralization (fall sample)` : ''}; available with credits ${f1(it.n.availableLb)} lb/ac`,
+  );
   L.push('');
   L.push('Targets (actual nutrient applied)');
   for (const n of NUTRIENTS) {
     const r = d.nutrients[n];
-    L.push(`  ${NAME[n].padEnd(5)} target ${both(r.target.lbac)}, applied ${both(r.supplied.lbac)}${Math.abs(r.effective - r.supplied.lbac) > 0.05 ? `, effective ${f1(r.effective)} lb/ac` : ''}`);
+    L.push(
+      `  ${NAME[n].padEnd(5)} target ${both(r.target.lbac)}, applied ${both(r.supplied.lbac)}${Math.abs(r.effective - r.supplied.lbac) > 0.05 ? `, effective ${f1(r.effective)} lb/ac` : ''}`,
+    );
     L.push(`        ${r.strategy}: ${r.detail}`);
   }
   L.push('');
   const sr = d.seedRow;
-  L.push(`Seed row (SBU ${f1(sr.sbu)} %): limits urea-type N ${f1(sr.n)}, P2O5 as MAP ${f1(sr.p2o5)}, P2O5 + K2O ${f1(sr.p2o5K2o)}, K2O ${f1(sr.k2o)}${Number.isFinite(sr.nK2o) ? `, N + K2O ${f1(sr.nK2o)}` : ''} lb/ac`);
-  L.push(`  applied N ${f1(sr.applied.n)} (MAP's N within the P limit is allowed for), P2O5 ${f1(sr.applied.p2o5)}, K2O ${f1(sr.applied.k2o)}, S ${f1(sr.applied.s)} lb/ac`);
+  L.push(
+    `Seed row (SBU ${f1(sr.sbu)} %): limits urea-type N ${f1(sr.n)}, P2O5 as MAP ${f1(sr.p2o5)}, P2O5 + K2O ${f1(sr.p2o5K2o)}, K2O ${f1(sr.k2o)}${Number.isFinite(sr.nK2o) ? `, N + K2O ${f1(sr.nK2o)}` : ''} lb/ac`,
+  );
+  L.push(
+    `  applied N ${f1(sr.applied.n)} (MAP's N within the P limit is allowed for), P2O5 ${f1(sr.applied.p2o5)}, K2O ${f1(sr.applied.k2o)}, S ${f1(sr.applied.s)} lb/ac`,
+  );
   L.push(`  N limit from: ${sr.nSource}`);
   L.push(`  P limit from: ${sr.pSource}`);
   L.push(`  K2O limit from: ${sr.kSource}`);
@@ -49,8 +63,12 @@ export function formatDecision(d: Decision): string {
     for (const p of d.placements) {
       L.push(`  ${p.placement.replace(/_/g, ' ')}:`);
       for (const q of p.products) {
-        const carried = NUTRIENTS.filter((n) => q.nutrients[n] > 0).map((n) => `${f1(q.nutrients[n])} ${NAME[n]}`).join(', ');
-        L.push(`    ${q.label.padEnd(30)} ${f1(q.rate.value)} ${q.rate.unit} (${f1(q.rate.lbac)} lb/ac, ${f1(q.rate.kgha)} kg/ha) carries ${carried} lb/ac, $${q.costPerAc.toFixed(2)}/ac`);
+        const carried = NUTRIENTS.filter((n) => q.nutrients[n] > 0)
+          .map((n) => `${f1(q.nutrients[n])} ${NAME[n]}`)
+          .join(', ');
+        L.push(
+          `    ${q.label.padEnd(30)} ${f1(q.rate.value)} ${q.rate.unit} (${f1(q.rate.lbac)} lb/ac, ${f1(q.rate.kgha)} kg/ha) carries ${carried} lb/ac, $${q.costPerAc.toFixed(2)}/ac`,
+        );
       }
     }
     L.push(`  product cost $${d.costPerAc.toFixed(2)}/ac`);

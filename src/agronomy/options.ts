@@ -48,7 +48,11 @@ export function nEfficiency(placement: Placement, plan: Plan, tables: Tables): n
   const kind = placement === 'seed_row' ? 'seed_row' : placement === 'broadcast' ? 'broadcast' : 'band';
   const cell = t[timing][kind];
   const ref = t[t.reference.timing][t.reference.placement];
-  if ('missing' in ref) throw new UserError(`tables: the reference N efficiency (n_relative_efficiency.${t.reference.timing}.${t.reference.placement}) is missing. Fix: give it a value or choose another reference.`, { field: 'n_relative_efficiency.reference' });
+  if ('missing' in ref)
+    throw new UserError(
+      `tables: the reference N efficiency (n_relative_efficiency.${t.reference.timing}.${t.reference.placement}) is missing. Fix: give it a value or choose another reference.`,
+      { field: 'n_relative_efficiency.reference' },
+    );
   if ('missing' in cell) {
     throw new UserError(
       `N relative efficiency for ${timing} ${kind} is not in the tables: ${cell.source}. Fix: set the plan key strategy.n.efficiency to the efficiency you and your agronomist confirm, add n_relative_efficiency.${timing}.${kind} to your tables file, or keep N products out of that placement.`,
@@ -69,7 +73,9 @@ export function productOptions(plan: Plan, tables: Tables): ProductOption[] {
   for (const ch of plan.products) {
     const t = tables.products[ch.product];
     if (!t) continue;
-    const allowed = (ch.placements ?? t.placements).filter((p) => t.placements.includes(p) && plan.implement.placements.includes(p));
+    const allowed = (ch.placements ?? t.placements).filter(
+      (p) => t.placements.includes(p) && plan.implement.placements.includes(p),
+    );
     const price = (ch.price_per_tonne ?? t.price_per_tonne) / LB_PER_TONNE;
     for (const pl of PLACEMENTS) {
       if (!allowed.includes(pl)) continue;
@@ -95,4 +101,3 @@ export function productOptions(plan: Plan, tables: Tables): ProductOption[] {
   }
   return out;
 }
-

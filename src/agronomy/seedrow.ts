@@ -25,10 +25,12 @@ type SeedRowTable = Exclude<SeedRowCell, { missing: true }>;
  */
 export function sbuPoints(cell: SeedRowTable): { sbu: number; n: number }[] {
   const raw: { sbu: number; n: number }[] = [];
-  cell.spreads_in.forEach((s, i) => cell.rows_in.forEach((r, j) => {
-    const v = cell.safe_n[i]![j];
-    if (v !== null && v !== undefined) raw.push({ sbu: sbuPct(s, r), n: v });
-  }));
+  cell.spreads_in.forEach((s, i) =>
+    cell.rows_in.forEach((r, j) => {
+      const v = cell.safe_n[i]![j];
+      if (v !== null && v !== undefined) raw.push({ sbu: sbuPct(s, r), n: v });
+    }),
+  );
   raw.sort((a, b) => a.sbu - b.sbu || a.n - b.n);
   const out: { sbu: number; n: number }[] = [];
   for (const p of raw) {
@@ -49,8 +51,10 @@ export function interpolateSbu(points: readonly { sbu: number; n: number }[], sb
   const pts = [{ sbu: 0, n: 0 }, ...points];
   if (sbu >= pts[pts.length - 1]!.sbu) return pts[pts.length - 1]!.n;
   for (let i = 1; i < pts.length; i++) {
-    const a = pts[i - 1]!, b = pts[i]!;
-    if (sbu <= b.sbu) return b.sbu === a.sbu ? Math.min(a.n, b.n) : a.n + ((b.n - a.n) * (sbu - a.sbu)) / (b.sbu - a.sbu);
+    const a = pts[i - 1]!,
+      b = pts[i]!;
+    if (sbu <= b.sbu)
+      return b.sbu === a.sbu ? Math.min(a.n, b.n) : a.n + ((b.n - a.n) * (sbu - a.sbu)) / (b.sbu - a.sbu);
   }
   return 0;
 }
@@ -65,9 +69,11 @@ export function interpolateSbu(points: readonly { sbu: number; n: number }[], sb
 export function safeNFromTable(cell: SeedRowTable, sbu: number): number | null {
   const pts = sbuPoints(cell);
   const unknown: number[] = [];
-  cell.spreads_in.forEach((s, i) => cell.rows_in.forEach((r, j) => {
-    if (cell.safe_n[i]![j] === null) unknown.push(sbuPct(s, r));
-  }));
+  cell.spreads_in.forEach((s, i) =>
+    cell.rows_in.forEach((r, j) => {
+      if (cell.safe_n[i]![j] === null) unknown.push(sbuPct(s, r));
+    }),
+  );
   if (unknown.length === 0) return interpolateSbu(pts, sbu);
   const above = pts.filter((p) => p.sbu >= sbu - 1e-9);
   if (above.length && Math.min(...above.map((p) => p.n)) === 0) return 0;
@@ -99,12 +105,22 @@ export interface SeedRowLimits {
   notes: string[];
 }
 
-function missingN(cropKey: string, texture: Texture, why: string, group: Tables['seed_row_n'][string], sbu: number, plan: Plan): { n: number; nSource: string } {
+function missingN(
+  cropKey: string,
+  texture: Texture,
+  why: string,
+  group: Tables['seed_row_n'][string],
+  sbu: number,
+  plan: Plan,
+): { n: number; nSource: string } {
   const light = group.light;
   const lightN = 'missing' in light ? null : safeNFromTable(light, sbu);
   const mode = plan.seed_row.when_table_missing;
   if (mode === 'ask') {
-    const hint = lightN === null ? '' : ` (the light-soil value at SBU ${sbu.toFixed(1)} % is ${lightN.toFixed(1)} lb N/ac)`;
+    const hint =
+      lightN === null
+        ? ''
+        : ` (the light-soil value at SBU ${sbu.toFixed(1)} % is ${lightN.toFixed(1)} lb N/ac)`;
     throw new UserError(
       `seed-row N for ${cropKey} on ${texture} soil at SBU ${sbu.toFixed(1)} % is not in the tables: ${why}. ` +
         `Fix: in the plan set seed_row.safe_n_lb to the lb N/ac you and your agronomist confirm, or seed_row.when_table_missing: light_soil_values${hint} or none_in_seed_row.`,
@@ -112,12 +128,26 @@ function missingN(cropKey: string, texture: Texture, why: string, group: Tables[
     );
   }
   if (mode === 'light_soil_values' && lightN !== null) {
-    return { n: lightN, nSource: `${texture}-soil value missing (${why}); light-soil value used as confirmed in plan key seed_row.when_table_missing: ${(light as SeedRowTable).source}` };
+    return {
+      n: lightN,
+      nSource: `${texture}-soil value missing (${why}); light-soil value used as confirmed in plan key seed_row.when_table_missing: ${(light as SeedRowTable).source}`,
+    };
   }
-  return { n: 0, nSource: `${texture}-soil value missing (${why}); no urea-type N in the seed row (plan key seed_row.when_table_missing)` };
+  return {
+    n: 0,
+    nSource: `${texture}-soil value missing (${why}); no urea-type N in the seed row (plan key seed_row.when_table_missing)`,
+  };
 }
 
-function seedRowN(crop: CropTable, cropKey: string, texture: Texture, sbu: number, plan: Plan, tables: Tables, notes: string[]): { n: number; nSource: string } {
+function seedRowN(
+  crop: CropTable,
+  cropKey: string,
+  texture: Texture,
+  sbu: number,
+  plan: Plan,
+  tables: Tables,
+  notes: string[],
+): { n: number; nSource: string } {
   const group = tables.seed_row_n[crop.seed_row_group]!;
   const cell = group[texture];
   const v = 'missing' in cell ? null : safeNFromTable(cell, sbu);
@@ -125,14 +155,23 @@ function seedRowN(crop: CropTable, cropKey: string, texture: Texture, sbu: numbe
     const own = plan.seed_row.safe_n_lb;
     // an override far above the published table (more than 1.5 x, and 10 lb N/ac over) is kept, and said plainly
     if (v !== null && own > 1.5 * v && own - v > 10) {
-      notes.push(`seed-row N ${own} lb N/ac from plan key seed_row.safe_n_lb is far above the published table's ${v.toFixed(1)} lb N/ac for ${cropKey} on ${texture} soil at SBU ${sbu.toFixed(1)} % (${cell.source}); so much N with the seed can injure or kill seedlings. Have your agronomist confirm it.`);
+      notes.push(
+        `seed-row N ${own} lb N/ac from plan key seed_row.safe_n_lb is far above the published table's ${v.toFixed(1)} lb N/ac for ${cropKey} on ${texture} soil at SBU ${sbu.toFixed(1)} % (${cell.source}); so much N with the seed can injure or kill seedlings. Have your agronomist confirm it.`,
+      );
     }
     return { n: own, nSource: `plan key seed_row.safe_n_lb (${own} lb N/ac, supplied by the user)` };
   }
   let r: { n: number; nSource: string };
   if (v !== null && !('missing' in cell)) r = { n: v, nSource: `${cell.source}; at SBU ${sbu.toFixed(1)} %` };
   else {
-    r = missingN(cropKey, texture, 'missing' in cell ? cell.source : `no published cell at this SBU (${cell.source})`, group, sbu, plan);
+    r = missingN(
+      cropKey,
+      texture,
+      'missing' in cell ? cell.source : `no published cell at this SBU (${cell.source})`,
+      group,
+      sbu,
+      plan,
+    );
     notes.push(r.nSource);
   }
   if (plan.implement.seedbed_moisture === 'dry') {
@@ -153,7 +192,13 @@ function seedRowN(crop: CropTable, cropKey: string, texture: Texture, sbu: numbe
  * - a dry seedbed multiplies every limit by `dry_seedbed_factor`.
  * @example seedRowLimits(tables.crops.wheat, 'wheat', 'medium', plan, tables).n // 15.6 at 1 in on 10 in rows
  */
-export function seedRowLimits(crop: CropTable, cropKey: string, texture: Texture, plan: Plan, tables: Tables): SeedRowLimits {
+export function seedRowLimits(
+  crop: CropTable,
+  cropKey: string,
+  texture: Texture,
+  plan: Plan,
+  tables: Tables,
+): SeedRowLimits {
   const sbu = sbuPct(plan.implement.opener_spread_in, plan.implement.row_spacing_in);
   const notes: string[] = [];
   const { n, nSource } = seedRowN(crop, cropKey, texture, sbu, plan, tables, notes);
@@ -167,7 +212,22 @@ export function seedRowLimits(crop: CropTable, cropKey: string, texture: Texture
   const alone = crop.seed_row_k2o_alone.value;
   const kAllowed = !alone || plan.seed_row.potash_with_seed;
   const k2o = kAllowed ? crop.seed_row_k2o_max.value * dry : 0;
-  const kSource = kAllowed ? `${crop.seed_row_k2o_max.source}${alone ? ' (plan key seed_row.potash_with_seed: true)' : ''}${dryText}` : `no potash with ${crop.label} seed unless the plan sets seed_row.potash_with_seed (${crop.seed_row_k2o_alone.source})`;
+  const kSource = kAllowed
+    ? `${crop.seed_row_k2o_max.source}${alone ? ' (plan key seed_row.potash_with_seed: true)' : ''}${dryText}`
+    : `no potash with ${crop.label} seed unless the plan sets seed_row.potash_with_seed (${crop.seed_row_k2o_alone.source})`;
   const nk = crop.seed_row_n_k2o_max.value;
-  return { sbu, texture, n, nSource, p2o5, pSource, p2o5K2o: p2o5, k2o, kSource, nK2o: nk === null ? Infinity : nk * dry, kAlone: alone && kAllowed, notes };
+  return {
+    sbu,
+    texture,
+    n,
+    nSource,
+    p2o5,
+    pSource,
+    p2o5K2o: p2o5,
+    k2o,
+    kSource,
+    nK2o: nk === null ? Infinity : nk * dry,
+    kAlone: alone && kAllowed,
+    notes,
+  };
 }

@@ -28,7 +28,8 @@ export function sampleFlags(s: Pick<Samples, 'values' | 'extra' | 'limeRating'>,
   if (ec >= SALINE_EC_DSM) out.push('saline');
   else if (ec >= SLIGHTLY_SALINE_EC_DSM) out.push('slightly saline');
   if (s.values.ph[i] >= HIGH_PH) out.push('high pH');
-  if ((s.extra?.carbonate?.[i] ?? NaN) >= HIGH_CARBONATE_PCT || s.limeRating?.[i] === 'high') out.push('free lime');
+  if ((s.extra?.carbonate?.[i] ?? NaN) >= HIGH_CARBONATE_PCT || s.limeRating?.[i] === 'high')
+    out.push('free lime');
   return out;
 }
 
@@ -36,9 +37,14 @@ export function sampleFlags(s: Pick<Samples, 'values' | 'extra' | 'limeRating'>,
  * Sample id -> its flags joined ("saline; high pH"), only for flagged samples.
  * @example soilFlagsById(samples)['PV-03'] // 'saline; free lime'
  */
-export function soilFlagsById(s: Pick<Samples, 'ids' | 'values' | 'extra' | 'limeRating'>): Record<string, string> {
+export function soilFlagsById(
+  s: Pick<Samples, 'ids' | 'values' | 'extra' | 'limeRating'>,
+): Record<string, string> {
   const out: Record<string, string> = {};
-  s.ids.forEach((id, i) => { const f = sampleFlags(s, i); if (f.length) out[id] = f.join('; '); });
+  s.ids.forEach((id, i) => {
+    const f = sampleFlags(s, i);
+    if (f.length) out[id] = f.join('; ');
+  });
   return out;
 }
 
@@ -46,15 +52,46 @@ export function soilFlagsById(s: Pick<Samples, 'ids' | 'values' | 'extra' | 'lim
  * Warnings for saline and high-pH samples (carried into inspect, the report and summary.json).
  * @example soilFlagWarnings(samples, 'samples.csv').map((w) => w.code) // ['soil.saline', 'soil.high-ph']
  */
-export function soilFlagWarnings(s: Pick<Samples, 'ids' | 'values' | 'extra' | 'limeRating' | 'ecMethod'>, file: string): Warning[] {
+export function soilFlagWarnings(
+  s: Pick<Samples, 'ids' | 'values' | 'extra' | 'limeRating' | 'ecMethod'>,
+  file: string,
+): Warning[] {
   const by = (f: string) => s.ids.filter((_, i) => sampleFlags(s, i).includes(f));
-  const list = (ids: string[]) => (ids.length <= 8 ? ids.join(', ') : `${ids.slice(0, 8).join(', ')} and ${ids.length - 8} more`);
+  const list = (ids: string[]) =>
+    ids.length <= 8 ? ids.join(', ') : `${ids.slice(0, 8).join(', ')} and ${ids.length - 8} more`;
   const w: Warning[] = [];
-  const saline = by('saline'), slight = by('slightly saline'), high = by('high pH'), lime = by('free lime');
+  const saline = by('saline'),
+    slight = by('slightly saline'),
+    high = by('high pH'),
+    lime = by('free lime');
   const method = s.ecMethod ? ` (${s.ecMethod})` : '';
-  if (saline.length) w.push({ code: 'soil.saline', file, field: 'ec', message: `${file}: ${saline.length} sample(s) are saline, EC${method} ${SALINE_EC_DSM} dS/m or more: ${list(saline)}. Rates are not changed for it; yields there may be limited by salt, not nutrients: check those areas with your agronomist.` });
-  if (slight.length) w.push({ code: 'soil.slightly-saline', file, field: 'ec', message: `${file}: ${slight.length} sample(s) are slightly saline, EC${method} ${SLIGHTLY_SALINE_EC_DSM}-${SALINE_EC_DSM} dS/m: ${list(slight)}. Salt-sensitive crops may suffer there; rates are not changed for it.` });
-  if (high.length) w.push({ code: 'soil.high-ph', file, field: 'ph', message: `${file}: ${high.length} sample(s) have pH ${HIGH_PH} or more (free lime likely, P less available): ${list(high)}. Rates are not changed for it unless the plan says so.` });
-  if (lime.length) w.push({ code: 'soil.free-lime', file, field: 'carbonate', message: `${file}: ${lime.length} sample(s) have high free lime (carbonate ${HIGH_CARBONATE_PCT} % or more, or rated high): ${list(lime)}.` });
+  if (saline.length)
+    w.push({
+      code: 'soil.saline',
+      file,
+      field: 'ec',
+      message: `${file}: ${saline.length} sample(s) are saline, EC${method} ${SALINE_EC_DSM} dS/m or more: ${list(saline)}. Rates are not changed for it; yields there may be limited by salt, not nutrients: check those areas with your agronomist.`,
+    });
+  if (slight.length)
+    w.push({
+      code: 'soil.slightly-saline',
+      file,
+      field: 'ec',
+      message: `${file}: ${slight.length} sample(s) are slightly saline, EC${method} ${SLIGHTLY_SALINE_EC_DSM}-${SALINE_EC_DSM} dS/m: ${list(slight)}. Salt-sensitive crops may suffer there; rates are not changed for it.`,
+    });
+  if (high.length)
+    w.push({
+      code: 'soil.high-ph',
+      file,
+      field: 'ph',
+      message: `${file}: ${high.length} sample(s) have pH ${HIGH_PH} or more (free lime likely, P less available): ${list(high)}. Rates are not changed for it unless the plan says so.`,
+    });
+  if (lime.length)
+    w.push({
+      code: 'soil.free-lime',
+      file,
+      field: 'carbonate',
+      message: `${file}: ${lime.length} sample(s) have high free lime (carbonate ${HIGH_CARBONATE_PCT} % or more, or rated high): ${list(lime)}.`,
+    });
   return w;
 }

@@ -30,7 +30,11 @@ export interface SolveResult {
   shortfall: number;
 }
 
-function shortfallOf(options: readonly ProductOption[], rates: Float64Array, target: Record<Nutrient, number>): number {
+function shortfallOf(
+  options: readonly ProductOption[],
+  rates: Float64Array,
+  target: Record<Nutrient, number>,
+): number {
   let short = 0;
   for (const n of NUTRIENTS) {
     if (!(target[n] > 0)) continue;
@@ -57,7 +61,9 @@ function seedRowConstraints(limits: SeedRowLimits): [string, Constraint][] {
 }
 
 function coefficients(o: ProductOption, unit: number): [string, number][] {
-  const c: [string, number][] = [['cost', unit * (o.pricePerLb + PLACEMENT_TIE * PLACEMENTS.indexOf(o.placement))]];
+  const c: [string, number][] = [
+    ['cost', unit * (o.pricePerLb + PLACEMENT_TIE * PLACEMENTS.indexOf(o.placement))],
+  ];
   for (const n of NUTRIENTS) if (o.frac[n] > 0) c.push([`t:${n}`, unit * o.frac[n] * o.eff[n]]);
   if (o.placement === 'seed_row') {
     if (o.frac.n > 0 && o.nCounts) c.push(['sr:n', unit * o.frac.n]);
@@ -89,26 +95,49 @@ interface Problem {
   maximize: Nutrient | undefined;
 }
 
-function baseModel(pb: Problem): { constraints: [string, Constraint][]; variables: [string, [string, number][]][] } {
+function baseModel(pb: Problem): {
+  constraints: [string, Constraint][];
+  variables: [string, [string, number][]][];
+} {
   const constraints: [string, Constraint][] = seedRowConstraints(pb.limits);
   const variables: [string, [string, number][]][] = [];
   if (!pb.maximize) {
     for (const n of NUTRIENTS) {
       if (!(pb.target[n] > 0)) continue;
-      constraints.push([`t:${n}`, { min: pb.target[n] }], [`short:${n}`, { max: pb.target[n] * pb.tolerance }]);
-      variables.push([`s_${n}`, [[`t:${n}`, 1], [`short:${n}`, 1], ['cost', SHORTFALL_PENALTY]]]);
+      constraints.push(
+        [`t:${n}`, { min: pb.target[n] }],
+        [`short:${n}`, { max: pb.target[n] * pb.tolerance }],
+      );
+      variables.push([
+        `s_${n}`,
+        [
+          [`t:${n}`, 1],
+          [`short:${n}`, 1],
+          ['cost', SHORTFALL_PENALTY],
+        ],
+      ]);
     }
     if (pb.target.p2o5 > 0) {
       // seedP <= target and seedP <= seed-row P2O5 ('prio' row: seedP - seed-row P2O5 <= 0)
       constraints.push(['prio', { max: 0 }], ['prioCap', { max: pb.target.p2o5 }]);
-      variables.push(['seedP', [['prio', 1], ['prioCap', 1], ['cost', -SEED_P_PRIORITY]]]);
+      variables.push([
+        'seedP',
+        [
+          ['prio', 1],
+          ['prioCap', 1],
+          ['cost', -SEED_P_PRIORITY],
+        ],
+      ]);
     }
   }
   return { constraints, variables };
 }
 
 /** The continuous LP (rates in lb/ac) with some rates fixed; returns the rates (and, as `obj`, the objective) or null when infeasible. */
-function solveLp(pb: Problem, fixed: readonly (number | undefined)[]): (Float64Array & { obj?: number }) | null {
+function solveLp(
+  pb: Problem,
+  fixed: readonly (number | undefined)[],
+): (Float64Array & { obj?: number }) | null {
   const { constraints, variables } = baseModel(pb);
   pb.options.forEach((o, i) => {
     const c = coefficients(o, 1);
@@ -116,7 +145,12 @@ function solveLp(pb: Problem, fixed: readonly (number | undefined)[]): (Float64A
     constraints.push([`b${i}`, fixed[i] === undefined ? { max: o.maxLb } : { equal: fixed[i]! }]);
     variables.push([`x${i}`, c]);
   });
-  const sol = solve({ direction: pb.maximize ? 'maximize' : 'minimize', objective: pb.maximize ? `t:${pb.maximize}` : 'cost', constraints, variables });
+  const sol = solve({
+    direction: pb.maximize ? 'maximize' : 'minimize',
+    objective: pb.maximize ? `t:${pb.maximize}` : 'cost',
+    constraints,
+    variables,
+  });
   if (sol.status !== 'optimal') return null;
   const x: Float64Array & { obj?: number } = new Float64Array(pb.options.length);
   for (const [name, v] of sol.variables) if (name[0] === 'x') x[Number(name.slice(1))] = v;
@@ -163,7 +197,13 @@ function solveMip(pb: Problem, maxIterations = 4000): { x: Float64Array; status:
     if (o.minLb > 0) {
       c.push([`lo${i}`, unit], [`hi${i}`, unit]);
       constraints.push([`lo${i}`, { min: 0 }], [`hi${i}`, { max: 0 }]);
-      variables.push([`u${i}`, [[`lo${i}`, -o.minLb], [`hi${i}`, -o.maxLb]]]);
+      variables.push([
+        `u${i}`,
+        [
+          [`lo${i}`, -o.minLb],
+          [`hi${i}`, -o.maxLb],
+        ],
+      ]);
       binaries.push(`u${i}`);
     } else {
       c.push([`hi${i}`, unit]);
@@ -173,11 +213,19 @@ function solveMip(pb: Problem, maxIterations = 4000): { x: Float64Array; status:
     if (o.stepLb > 0) integers.push(`x${i}`);
   });
   const sol = solve(
-    { direction: pb.maximize ? 'maximize' : 'minimize', objective: pb.maximize ? `t:${pb.maximize}` : 'cost', constraints, variables, integers, binaries },
+    {
+      direction: pb.maximize ? 'maximize' : 'minimize',
+      objective: pb.maximize ? `t:${pb.maximize}` : 'cost',
+      constraints,
+      variables,
+      integers,
+      binaries,
+    },
     { maxIterations },
   );
   const x = new Float64Array(pb.options.length);
-  if (sol.status !== 'optimal' && !(sol.status === 'timedout' && Number.isFinite(sol.result))) return { x, status: sol.status };
+  if (sol.status !== 'optimal' && !(sol.status === 'timedout' && Number.isFinite(sol.result)))
+    return { x, status: sol.status };
   for (const [name, v] of sol.variables) {
     if (name[0] !== 'x') continue;
     const i = Number(name.slice(1));
@@ -202,7 +250,13 @@ function solveMip(pb: Problem, maxIterations = 4000): { x: Float64Array; status:
  * four such tries). Should every dive dead-end, an exact branch and bound (yalps integers and binaries) takes over.
  * @example solveProducts(productOptions(plan, tables), { n: 100, p2o5: 30, k2o: 0, s: 15 }, 0.05, limits).rates
  */
-export function solveProducts(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maximize?: Nutrient): SolveResult {
+export function solveProducts(
+  options: readonly ProductOption[],
+  target: Record<Nutrient, number>,
+  tolerance: number,
+  limits: SeedRowLimits,
+  maximize?: Nutrient,
+): SolveResult {
   const pb: Problem = { options, target, tolerance, limits, maximize };
   const rates = new Float64Array(options.length);
   const steps = new Float64Array(options.length);
@@ -223,7 +277,15 @@ export function solveProducts(options: readonly ProductOption[], target: Record<
   if (x) x = dropTrickles(pb, x);
   if (!x) {
     const m = solveMip(pb);
-    if (m.status !== 'optimal') return { status: m.status === 'infeasible' ? 'infeasible' : 'error', rates, steps, cost: NaN, solver: m.status, shortfall: NaN };
+    if (m.status !== 'optimal')
+      return {
+        status: m.status === 'infeasible' ? 'infeasible' : 'error',
+        rates,
+        steps,
+        cost: NaN,
+        solver: m.status,
+        shortfall: NaN,
+      };
     x = m.x;
     solver = 'optimal (branch and bound)';
   }
@@ -237,7 +299,14 @@ export function solveProducts(options: readonly ProductOption[], target: Record<
     rates[i] = v;
     cost += v * o.pricePerLb;
   });
-  return { status: 'optimal', rates, steps, cost, solver, shortfall: maximize ? 0 : shortfallOf(options, rates, target) };
+  return {
+    status: 'optimal',
+    rates,
+    steps,
+    cost,
+    solver,
+    shortfall: maximize ? 0 : shortfallOf(options, rates, target),
+  };
 }
 
 /** Product cost less the seed-row phosphate credit: what a trickle product is judged on (shortfall aside). */
@@ -262,13 +331,19 @@ function dropTrickles(pb: Problem, x: Float64Array): Float64Array {
   if (pb.maximize) return x;
   const { options } = pb;
   const fixed: (number | undefined)[] = new Array(options.length).fill(undefined);
-  const atMin = options.map((_, i) => i).filter((i) => options[i]!.minLb > 0 && x[i]! > 1e-9 && x[i]! <= options[i]!.minLb + options[i]!.stepLb + 1e-9).slice(0, 6);
+  const atMin = options
+    .map((_, i) => i)
+    .filter(
+      (i) => options[i]!.minLb > 0 && x[i]! > 1e-9 && x[i]! <= options[i]!.minLb + options[i]!.stepLb + 1e-9,
+    )
+    .slice(0, 6);
   for (const i of atMin) {
     if (!(x[i]! > 1e-9)) continue;
     fixed[i] = 0;
     const start = solveLp(pb, fixed);
     const y = start && dive(pb, start, 'best', fixed);
-    if (y && (score(pb, y) < score(pb, x) - 1e-12 || costAndPriority(pb, y) < costAndPriority(pb, x) - 1e-9)) x = y;
+    if (y && (score(pb, y) < score(pb, x) - 1e-12 || costAndPriority(pb, y) < costAndPriority(pb, x) - 1e-9))
+      x = y;
     else fixed[i] = undefined;
   }
   return x;
@@ -291,11 +366,20 @@ function score(pb: Problem, x: Float64Array): number {
     c += x[i]! * (o.pricePerLb + PLACEMENT_TIE * PLACEMENTS.indexOf(o.placement));
     if (o.placement === 'seed_row') seedP += x[i]! * o.frac.p2o5;
   });
-  return c + SHORTFALL_PENALTY * shortfallOf(pb.options, x, pb.target) - SEED_P_PRIORITY * Math.min(seedP, Math.max(0, pb.target.p2o5));
+  return (
+    c +
+    SHORTFALL_PENALTY * shortfallOf(pb.options, x, pb.target) -
+    SEED_P_PRIORITY * Math.min(seedP, Math.max(0, pb.target.p2o5))
+  );
 }
 
 /** One rounding dive from the LP answer x0; null if it dead-ends. */
-function dive(pb: Problem, x0: Float64Array, policy: DivePolicy, preset?: readonly (number | undefined)[]): Float64Array | null {
+function dive(
+  pb: Problem,
+  x0: Float64Array,
+  policy: DivePolicy,
+  preset?: readonly (number | undefined)[],
+): Float64Array | null {
   const { options, maximize } = pb;
   const fixed: (number | undefined)[] = preset ? [...preset] : new Array(options.length).fill(undefined);
   let x: Float64Array = x0;
@@ -310,7 +394,10 @@ function dive(pb: Problem, x0: Float64Array, policy: DivePolicy, preset?: readon
       fixed[i] = c;
       const y = solveLp(pb, fixed);
       if (!y) continue;
-      if (!next || (policy === 'best' && (maximize ? y.obj! > next.obj! + 1e-9 : y.obj! < next.obj! - 1e-9))) {
+      if (
+        !next ||
+        (policy === 'best' && (maximize ? y.obj! > next.obj! + 1e-9 : y.obj! < next.obj! - 1e-9))
+      ) {
         next = y;
         chosen = c;
       }
@@ -327,12 +414,26 @@ function dive(pb: Problem, x0: Float64Array, policy: DivePolicy, preset?: readon
  * against it (scripts/bench-rates.ts; not exported from the library). Slower, and can time out (status "error"). Default 4000 iterations.
  * @example solveProductsExact(options, target, 0.05, limits, 30000).cost
  */
-export function solveProductsExact(options: readonly ProductOption[], target: Record<Nutrient, number>, tolerance: number, limits: SeedRowLimits, maxIterations = 4000): SolveResult {
+export function solveProductsExact(
+  options: readonly ProductOption[],
+  target: Record<Nutrient, number>,
+  tolerance: number,
+  limits: SeedRowLimits,
+  maxIterations = 4000,
+): SolveResult {
   const pb: Problem = { options, target, tolerance, limits, maximize: undefined };
   const m = solveMip(pb, maxIterations);
   const rates = new Float64Array(options.length);
   const steps = new Float64Array(options.length);
-  if (m.status !== 'optimal') return { status: m.status === 'infeasible' ? 'infeasible' : 'error', rates, steps, cost: NaN, solver: m.status, shortfall: NaN };
+  if (m.status !== 'optimal')
+    return {
+      status: m.status === 'infeasible' ? 'infeasible' : 'error',
+      rates,
+      steps,
+      cost: NaN,
+      solver: m.status,
+      shortfall: NaN,
+    };
   let cost = 0;
   options.forEach((o, i) => {
     let v = m.x[i]! <= 1e-9 ? 0 : m.x[i]!;
@@ -343,5 +444,12 @@ export function solveProductsExact(options: readonly ProductOption[], target: Re
     rates[i] = v;
     cost += v * o.pricePerLb;
   });
-  return { status: 'optimal', rates, steps, cost, solver: 'optimal (branch and bound)', shortfall: shortfallOf(options, rates, target) };
+  return {
+    status: 'optimal',
+    rates,
+    steps,
+    cost,
+    solver: 'optimal (branch and bound)',
+    shortfall: shortfallOf(options, rates, target),
+  };
 }

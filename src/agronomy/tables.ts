@@ -20,7 +20,12 @@ export type Nutrient = (typeof NUTRIENTS)[number];
 export const TEXTURES = ['light', 'medium', 'heavy'] as const;
 
 /** A seed-placed P2O5 guideline "as MAP": the value and the drill configuration it was stated for. */
-const seedPGuide = z.object({ value: z.number().min(0), spread_in: z.number().positive(), rows_in: z.number().positive(), source });
+const seedPGuide = z.object({
+  value: z.number().min(0),
+  spread_in: z.number().positive(),
+  rows_in: z.number().positive(),
+  source,
+});
 
 const cropSchema = z.object({
   label: z.string(),
@@ -53,7 +58,7 @@ const seedRowCell = z.union([
     spreads_in: z.array(z.number().positive()).min(1),
     rows_in: z.array(z.number().positive()).min(1),
     /** safe_n[spread index][row index], lb N/ac */
-      safe_n: z.array(z.array(z.number().min(0).nullable())),
+    safe_n: z.array(z.array(z.number().min(0).nullable())),
     source,
   }),
   z.object({ missing: z.literal(true), source }),
@@ -79,7 +84,10 @@ const kClass = z.object({
 
 export const P_RULES = ['build_plus_removal', 'removal', 'fraction_of_removal', 'starter_or_none'] as const;
 
-const nEffCell = z.union([z.object({ value: z.number().positive(), source }), z.object({ missing: z.literal(true), source })]);
+const nEffCell = z.union([
+  z.object({ value: z.number().positive(), source }),
+  z.object({ missing: z.literal(true), source }),
+]);
 const nEffTiming = z.object({ seed_row: nEffCell, band: nEffCell, broadcast: nEffCell });
 
 const productSchema = z.object({
@@ -99,7 +107,12 @@ const productSchema = z.object({
   price_source: source,
 });
 
-const effSchema = z.object({ p2o5: z.number().positive().max(1), k2o: z.number().positive().max(1), s: z.number().positive().max(1), source });
+const effSchema = z.object({
+  p2o5: z.number().positive().max(1),
+  k2o: z.number().positive().max(1),
+  s: z.number().positive().max(1),
+  source,
+});
 
 export const tablesSchema = z.object({
   crops: z.record(z.string(), cropSchema),
@@ -110,7 +123,10 @@ export const tablesSchema = z.object({
     /** published modified Kelowna class bounds (ppm) that win over Olsen x soil_test.kelowna_factor, by class name */
     kelowna_published_below_ppm: z.record(z.string(), num()),
   }),
-  p_class_rates: z.record(z.string(), z.object({ rule: z.enum(P_RULES), fraction: z.number().min(0).max(2).default(1), source })),
+  p_class_rates: z.record(
+    z.string(),
+    z.object({ rule: z.enum(P_RULES), fraction: z.number().min(0).max(2).default(1), source }),
+  ),
   k_classes: z.record(z.string(), z.array(kClass).min(1)),
   k_min_useful_lb: num(),
   yield_gain_pct: z.object({
@@ -125,8 +141,21 @@ export const tablesSchema = z.object({
     legume_credit_lb: num(),
   }),
   /** N relative efficiency by timing and placement, spring broadcast = 100; `reference` is what the N/bu values assume */
-  n_relative_efficiency: z.object({ reference: z.object({ timing: z.enum(['spring', 'fall']), placement: z.enum(['seed_row', 'band', 'broadcast']), source }), spring: nEffTiming, fall: nEffTiming }),
-  placement_efficiency: z.object({ seed_row: effSchema, side_band: effSchema, mid_row_band: effSchema, broadcast: effSchema }),
+  n_relative_efficiency: z.object({
+    reference: z.object({
+      timing: z.enum(['spring', 'fall']),
+      placement: z.enum(['seed_row', 'band', 'broadcast']),
+      source,
+    }),
+    spring: nEffTiming,
+    fall: nEffTiming,
+  }),
+  placement_efficiency: z.object({
+    seed_row: effSchema,
+    side_band: effSchema,
+    mid_row_band: effSchema,
+    broadcast: effSchema,
+  }),
   products: z.record(z.string(), productSchema),
 });
 
@@ -141,35 +170,71 @@ function check(t: unknown, where: string): Tables {
   const r = tablesSchema.safeParse(t);
   if (!r.success) {
     const msgs = r.error.issues.slice(0, 5).map((i) => `key "${i.path.join('.')}": ${i.message}`);
-    throw new UserError(`${where}: ${msgs.join('; ')}. Fix: compare with \`tilth tables\`; every entry needs its value and a "source".`, { file: where });
+    throw new UserError(
+      `${where}: ${msgs.join('; ')}. Fix: compare with \`tilth tables\`; every entry needs its value and a "source".`,
+      { file: where },
+    );
   }
   const tb = r.data;
   for (const [name, c] of Object.entries(tb.crops)) {
     if (!tb.seed_row_n[c.seed_row_group]) {
-      throw new UserError(`${where}: key "crops.${name}.seed_row_group" is "${c.seed_row_group}", which is not a seed_row_n table; allowed: ${Object.keys(tb.seed_row_n).join(', ')}.`, { file: where });
+      throw new UserError(
+        `${where}: key "crops.${name}.seed_row_group" is "${c.seed_row_group}", which is not a seed_row_n table; allowed: ${Object.keys(tb.seed_row_n).join(', ')}.`,
+        { file: where },
+      );
     }
   }
   for (const [g, tex] of Object.entries(tb.seed_row_n)) {
     for (const [t, cell] of Object.entries(tex)) {
       if ('missing' in cell) continue;
-      const ok = cell.safe_n.length === cell.spreads_in.length && cell.safe_n.every((r) => r.length === cell.rows_in.length);
-      if (!ok) throw new UserError(`${where}: key "seed_row_n.${g}.${t}.safe_n" must have one row per spread (${cell.spreads_in.length}) and one value per row spacing (${cell.rows_in.length}).`, { file: where });
+      const ok =
+        cell.safe_n.length === cell.spreads_in.length &&
+        cell.safe_n.every((r) => r.length === cell.rows_in.length);
+      if (!ok)
+        throw new UserError(
+          `${where}: key "seed_row_n.${g}.${t}.safe_n" must have one row per spread (${cell.spreads_in.length}) and one value per row spacing (${cell.rows_in.length}).`,
+          { file: where },
+        );
     }
   }
   checkBounds(tb.p_classes.olsen, 'p_classes.olsen', where);
   for (const c of tb.p_classes.olsen) {
-    if (!tb.p_class_rates[c.name]) throw new UserError(`${where}: P class "${c.name}" has no rate in "p_class_rates". Fix: add p_class_rates.${c.name}.`, { file: where });
-    if (!tb.yield_gain_pct.p[c.name]) throw new UserError(`${where}: P class "${c.name}" has no entry in "yield_gain_pct.p". Fix: add yield_gain_pct.p.${c.name}.`, { file: where });
+    if (!tb.p_class_rates[c.name])
+      throw new UserError(
+        `${where}: P class "${c.name}" has no rate in "p_class_rates". Fix: add p_class_rates.${c.name}.`,
+        { file: where },
+      );
+    if (!tb.yield_gain_pct.p[c.name])
+      throw new UserError(
+        `${where}: P class "${c.name}" has no entry in "yield_gain_pct.p". Fix: add yield_gain_pct.p.${c.name}.`,
+        { file: where },
+      );
   }
   for (const k of Object.keys(tb.p_classes.kelowna_published_below_ppm)) {
-    if (!tb.p_classes.olsen.some((c) => c.name === k && c.below_ppm !== null)) throw new UserError(`${where}: key "p_classes.kelowna_published_below_ppm.${k}" names no bounded Olsen class; allowed: ${tb.p_classes.olsen.filter((c) => c.below_ppm !== null).map((c) => c.name).join(', ')}.`, { file: where });
+    if (!tb.p_classes.olsen.some((c) => c.name === k && c.below_ppm !== null))
+      throw new UserError(
+        `${where}: key "p_classes.kelowna_published_below_ppm.${k}" names no bounded Olsen class; allowed: ${tb.p_classes.olsen
+          .filter((c) => c.below_ppm !== null)
+          .map((c) => c.name)
+          .join(', ')}.`,
+        { file: where },
+      );
   }
   for (const [g, cl] of Object.entries(tb.k_classes)) {
     checkBounds(cl, `k_classes.${g}`, where);
-    for (const c of cl) if (!tb.yield_gain_pct.k[c.name]) throw new UserError(`${where}: K class "${c.name}" has no entry in "yield_gain_pct.k". Fix: add yield_gain_pct.k.${c.name}.`, { file: where });
+    for (const c of cl)
+      if (!tb.yield_gain_pct.k[c.name])
+        throw new UserError(
+          `${where}: K class "${c.name}" has no entry in "yield_gain_pct.k". Fix: add yield_gain_pct.k.${c.name}.`,
+          { file: where },
+        );
   }
   for (const [name, c] of Object.entries(tb.crops)) {
-    if (!tb.k_classes[c.k_class_group]) throw new UserError(`${where}: key "crops.${name}.k_class_group" is "${c.k_class_group}", which is not a k_classes table; allowed: ${Object.keys(tb.k_classes).join(', ')}.`, { file: where });
+    if (!tb.k_classes[c.k_class_group])
+      throw new UserError(
+        `${where}: key "crops.${name}.k_class_group" is "${c.k_class_group}", which is not a k_classes table; allowed: ${Object.keys(tb.k_classes).join(', ')}.`,
+        { file: where },
+      );
   }
   return tb;
 }
@@ -180,7 +245,10 @@ function checkBounds(cl: readonly { below_ppm: number | null }[], key: string, w
     const b = cl[i]!.below_ppm;
     const last = i === cl.length - 1;
     if (last ? b !== null : b === null || (i > 0 && b <= (cl[i - 1]!.below_ppm ?? Infinity))) {
-      throw new UserError(`${where}: key "${key}[${i}].below_ppm" must rise from class to class, and only the last class has null.`, { file: where });
+      throw new UserError(
+        `${where}: key "${key}[${i}].below_ppm" must rise from class to class, and only the last class has null.`,
+        { file: where },
+      );
     }
   }
 }
@@ -224,10 +292,17 @@ export function loadTables(userYamlText?: string, fileName = 'tables file'): Tab
   try {
     user = parseYaml(userYamlText);
   } catch (e) {
-    throw new UserError(`${fileName}: not valid YAML (${(e as Error).message.split('\n')[0]}). Fix: start from \`tilth tables > ${fileName}\`.`, { file: fileName });
+    throw new UserError(
+      `${fileName}: not valid YAML (${(e as Error).message.split('\n')[0]}). Fix: start from \`tilth tables > ${fileName}\`.`,
+      { file: fileName },
+    );
   }
   if (user === null || user === undefined) return defaultTables();
-  if (!isObj(user)) throw new UserError(`${fileName}: expected a mapping of table names (crops, products, ...). Fix: start from \`tilth tables > ${fileName}\`.`, { file: fileName });
+  if (!isObj(user))
+    throw new UserError(
+      `${fileName}: expected a mapping of table names (crops, products, ...). Fix: start from \`tilth tables > ${fileName}\`.`,
+      { file: fileName },
+    );
   return check(merge(defaultTables(), user), fileName);
 }
 

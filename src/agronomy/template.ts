@@ -4,7 +4,13 @@
 import { lbacToKgha } from '../units/index.js';
 import type { Tables } from './tables.js';
 
-const STARTER_YIELD: Record<string, number> = { canola: 50, wheat: 60, barley: 80, malt_barley: 80, peas: 50 };
+const STARTER_YIELD: Record<string, number> = {
+  canola: 50,
+  wheat: 60,
+  barley: 80,
+  malt_barley: 80,
+  peas: 50,
+};
 const STARTER_PRICE: Record<string, number> = { canola: 14, wheat: 8, barley: 5, malt_barley: 6, peas: 10 };
 
 /** The plan's strategy section for a crop: every nutrient's method with the numbers it uses. */
@@ -32,20 +38,30 @@ function strategySection(crop: string, tables: Tables): string {
 function seedRowSection(crop: string, tables: Tables): string {
   const c = tables.crops[crop]!;
   const group = tables.seed_row_n[c.seed_row_group]!;
-  const missing = (['light', 'medium', 'heavy'] as const).filter((t) => 'missing' in group[t] || group[t].safe_n.flat().some((v) => v === null));
+  const missing = (['light', 'medium', 'heavy'] as const).filter(
+    (t) => 'missing' in group[t] || group[t].safe_n.flat().some((v) => v === null),
+  );
   const alone = c.seed_row_k2o_alone.value;
   return `seed_row:
   safe_n_lb: null             # lb N/ac you confirm for the seed row; null = the published table
-${missing.length ? `  # The seed-row urea-N table for ${crop} has no published value for ${missing.join(' and ')} soils
+${
+  missing.length
+    ? `  # The seed-row urea-N table for ${crop} has no published value for ${missing.join(' and ')} soils
   # (or for some drills). Choose what tilth does there: ask (stop and ask), light_soil_values (use the
   # light-soil values, the lowest tabled), or none_in_seed_row (no urea, UAN or ammonium sulphate with the
   # seed; MAP within its P limit still goes). Confirm this with your agronomist.
   when_table_missing: ${alone ? 'none_in_seed_row' : 'ask'}
-` : `  when_table_missing: ask     # ask | light_soil_values | none_in_seed_row
-`}  p_guideline: manitoba       # manitoba | saskatchewan: seed-placed P2O5 as MAP (${c.seed_row_p2o5.manitoba.value} | ${c.seed_row_p2o5.saskatchewan.value} lb/ac), lowered for wider rows
-${alone ? `  potash_with_seed: false     # true: potash may go with the seed (at most ${c.seed_row_k2o_max.value} lb K2O/ac) when nothing else goes there
-` : `  potash_with_seed: false     # canola and peas only; cereals take potash with the seed within the P2O5 + K2O and N + K2O limits
-`}`;
+`
+    : `  when_table_missing: ask     # ask | light_soil_values | none_in_seed_row
+`
+}  p_guideline: manitoba       # manitoba | saskatchewan: seed-placed P2O5 as MAP (${c.seed_row_p2o5.manitoba.value} | ${c.seed_row_p2o5.saskatchewan.value} lb/ac), lowered for wider rows
+${
+  alone
+    ? `  potash_with_seed: false     # true: potash may go with the seed (at most ${c.seed_row_k2o_max.value} lb K2O/ac) when nothing else goes there
+`
+    : `  potash_with_seed: false     # canola and peas only; cereals take potash with the seed within the P2O5 + K2O and N + K2O limits
+`
+}`;
 }
 
 /** The plan's products section: MAP with the seed and in the band, urea, ammonium sulphate and potash in the band; 20 lb/ac minimum, 5 lb/ac steps. */

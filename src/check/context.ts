@@ -49,7 +49,8 @@ export interface CheckContext {
   covered: Poly[] | null;
 }
 
-export const significantWith = (width: number) => (polys: Poly[], scale: number) => significantArea(polys, SLIVER_M2, width, scale);
+export const significantWith = (width: number) => (polys: Poly[], scale: number) =>
+  significantArea(polys, SLIVER_M2, width, scale);
 
 export const UNIT_SUFFIX: [RegExp, string, string, 'ac' | 'ha'][] = [
   [/_?lb_?ac$/i, 'lb/ac', 'lb', 'ac'],
@@ -59,26 +60,35 @@ export const UNIT_SUFFIX: [RegExp, string, string, 'ac' | 'ha'][] = [
 ];
 
 export const fmt = (v: number, d = 1) => v.toFixed(d);
-export const list = (z: string[], max = 12) => (z.length <= max ? z.join(', ') : `${z.slice(0, max).join(', ')} and ${z.length - max} more`);
+export const list = (z: string[], max = 12) =>
+  z.length <= max ? z.join(', ') : `${z.slice(0, max).join(', ')} and ${z.length - max} more`;
 
 export function lonlatLike(features: Feature[]): boolean {
   for (const f of features) {
     const g = f.geometry as Polygon | MultiPolygon | null;
     if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) continue;
     const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
-    for (const p of polys) for (const r of p) for (const pt of r) if (Math.abs(pt[0]) > 180 || Math.abs(pt[1]) > 90) return false;
+    for (const p of polys)
+      for (const r of p) for (const pt of r) if (Math.abs(pt[0]) > 180 || Math.abs(pt[1]) > 90) return false;
   }
   return true;
 }
 
 export function bboxOf(features: Feature[]): [number, number, number, number] {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
   for (const f of features) {
     const g = f.geometry as Polygon | MultiPolygon | null;
     if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) continue;
-    for (const p of g.type === 'Polygon' ? [g.coordinates] : g.coordinates) for (const pt of p[0] ?? []) {
-      x0 = Math.min(x0, pt[0]); x1 = Math.max(x1, pt[0]); y0 = Math.min(y0, pt[1]); y1 = Math.max(y1, pt[1]);
-    }
+    for (const p of g.type === 'Polygon' ? [g.coordinates] : g.coordinates)
+      for (const pt of p[0] ?? []) {
+        x0 = Math.min(x0, pt[0]);
+        x1 = Math.max(x1, pt[0]);
+        y0 = Math.min(y0, pt[1]);
+        y1 = Math.max(y1, pt[1]);
+      }
   }
   return [x0, y0, x1, y1];
 }
@@ -91,34 +101,53 @@ export interface Frame {
 }
 
 /** The layer's polygons in the working UTM metres (null for a feature that is not a polygon). */
-export function toMetres(features: Feature[], frame: Frame, work: Projector | null, origin: [number, number]): (Poly[] | null)[] {
+export function toMetres(
+  features: Feature[],
+  frame: Frame,
+  work: Projector | null,
+  origin: [number, number],
+): (Poly[] | null)[] {
   const [ox, oy] = origin;
   // metres from a local origin, rounded to 0.1 mm: overlay (polyclip-ts) is exact arithmetic and fails on
   // the nanometre noise a projection round trip leaves on edges that should be collinear
-  const snap = (p: number[]): [number, number] => [Math.round((p[0] - ox) * 1e4) / 1e4, Math.round((p[1] - oy) * 1e4) / 1e4];
+  const snap = (p: number[]): [number, number] => [
+    Math.round((p[0] - ox) * 1e4) / 1e4,
+    Math.round((p[1] - oy) * 1e4) / 1e4,
+  ];
   return features.map((f) => {
     const g = f.geometry as Polygon | MultiPolygon | null;
     if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) return null;
     const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
-    return polys.map((p) => p.map((r) => r.map((pt): [number, number] => {
-      if (frame.kind === 'planar' || !work) return snap(pt);
-      if (frame.kind === 'utm' && frame.utmProj!.utm.epsg === work.utm.epsg) return snap(pt);
-      const ll = frame.kind === 'utm' ? frame.utmProj!.toLonLat(pt[0], pt[1]) : [pt[0], pt[1]];
-      return snap(work.toMetres(ll[0], ll[1]));
-    })));
+    return polys.map((p) =>
+      p.map((r) =>
+        r.map((pt): [number, number] => {
+          if (frame.kind === 'planar' || !work) return snap(pt);
+          if (frame.kind === 'utm' && frame.utmProj!.utm.epsg === work.utm.epsg) return snap(pt);
+          const ll = frame.kind === 'utm' ? frame.utmProj!.toLonLat(pt[0], pt[1]) : [pt[0], pt[1]];
+          return snap(work.toMetres(ll[0], ll[1]));
+        }),
+      ),
+    );
   });
 }
 
 export function frameOf(layer: CheckLayer): Frame {
   const c = layer.crs;
   if (c?.kind === 'utm') return { kind: 'utm', utmProj: projector(utmZone(c.zone!, !!c.south)) };
-  if (c?.kind === 'lonlat' || (!c && lonlatLike(layer.features)) || (c?.kind === null && lonlatLike(layer.features))) return { kind: 'lonlat', utmProj: null };
+  if (
+    c?.kind === 'lonlat' ||
+    (!c && lonlatLike(layer.features)) ||
+    (c?.kind === null && lonlatLike(layer.features))
+  )
+    return { kind: 'lonlat', utmProj: null };
   return { kind: 'planar', utmProj: null };
 }
 
 /** Zone names: the value of a zone id column when there is one, else "feature N". */
 export function zoneNames(layer: CheckLayer): string[] {
-  const idField = ['zone_id', 'zoneid', 'zone', 'id', 'zone_no'].map((n) => layer.fields.find((f) => f.name.toLowerCase() === n)).find(Boolean);
+  const idField = ['zone_id', 'zoneid', 'zone', 'id', 'zone_no']
+    .map((n) => layer.fields.find((f) => f.name.toLowerCase() === n))
+    .find(Boolean);
   return layer.features.map((f, i) => {
     const v = idField ? f.properties?.[idField.name] : undefined;
     return v === undefined || v === null || v === '' ? `feature ${i + 1}` : `zone ${String(v).trim()}`;
@@ -126,16 +155,33 @@ export function zoneNames(layer: CheckLayer): string[] {
 }
 
 export function bbox(polys: Poly[]): [number, number, number, number] {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (const p of polys) for (const [x, y] of p[0] ?? []) {
-    x0 = Math.min(x0, x); x1 = Math.max(x1, x); y0 = Math.min(y0, y); y1 = Math.max(y1, y);
-  }
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
+  for (const p of polys)
+    for (const [x, y] of p[0] ?? []) {
+      x0 = Math.min(x0, x);
+      x1 = Math.max(x1, x);
+      y0 = Math.min(y0, y);
+      y1 = Math.max(y1, y);
+    }
   return [x0, y0, x1, y1];
 }
-export const boxesMeet = (a: number[], b: number[]) => a[0] <= b[2] && b[0] <= a[2] && a[1] <= b[3] && b[1] <= a[3];
+export const boxesMeet = (a: number[], b: number[]) =>
+  a[0] <= b[2] && b[0] <= a[2] && a[1] <= b[3] && b[1] <= a[3];
 
 /** When an overlay fails: a warning for the check, never a crash (a UserError still stops the run). */
-export function overlayFailed(ctx: CheckContext, check: string, e: unknown, isUserError: (e: unknown) => boolean): void {
+export function overlayFailed(
+  ctx: CheckContext,
+  check: string,
+  e: unknown,
+  isUserError: (e: unknown) => boolean,
+): void {
   if (isUserError(e)) throw e;
-  ctx.add(check, 'warn', `not computed: the polygon overlay failed (${(e as Error).message.slice(0, 120)}); inspect the zones in a GIS`);
+  ctx.add(
+    check,
+    'warn',
+    `not computed: the polygon overlay failed (${(e as Error).message.slice(0, 120)}); inspect the zones in a GIS`,
+  );
 }

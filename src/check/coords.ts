@@ -16,8 +16,10 @@ function show(v: unknown): string {
 function positionProblem(p: unknown): string {
   if (!Array.isArray(p) || p.length < 2) return `position ${show(p)} is not [x, y]`;
   for (const v of p.slice(0, 2)) {
-    if (typeof v !== 'number' || !Number.isFinite(v)) return `coordinate [${p.slice(0, 2).map(show).join(', ')}] is not a pair of finite numbers`;
-    if (Math.abs(v) > MAX_ABS_COORD) return `coordinate ${v} is beyond any coordinate system's range (|value| <= ${MAX_ABS_COORD})`;
+    if (typeof v !== 'number' || !Number.isFinite(v))
+      return `coordinate [${p.slice(0, 2).map(show).join(', ')}] is not a pair of finite numbers`;
+    if (Math.abs(v) > MAX_ABS_COORD)
+      return `coordinate ${v} is beyond any coordinate system's range (|value| <= ${MAX_ABS_COORD})`;
   }
   return '';
 }
@@ -53,9 +55,19 @@ export function polygonCoordsProblem(g: unknown): string {
  * @example const { features, problems } = usableFeatures(layer.features)
  */
 export function usableFeatures(features: readonly Feature[]): { features: Feature[]; problems: string[] } {
-  const problems = features.map((f) => (f && typeof f === 'object' ? polygonCoordsProblem(f.geometry) : 'not a GeoJSON feature'));
+  const problems = features.map((f) =>
+    f && typeof f === 'object' ? polygonCoordsProblem(f.geometry) : 'not a GeoJSON feature',
+  );
   return {
-    features: features.map((f, i) => (problems[i] ? { type: 'Feature', properties: (f && typeof f === 'object' ? f.properties : null) ?? null, geometry: null as never } : f)),
+    features: features.map((f, i) =>
+      problems[i]
+        ? {
+            type: 'Feature',
+            properties: (f && typeof f === 'object' ? f.properties : null) ?? null,
+            geometry: null as never,
+          }
+        : f,
+    ),
     problems,
   };
 }

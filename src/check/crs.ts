@@ -10,15 +10,43 @@ import type { CheckLayer } from './layer.js';
  */
 export function checkCrs(ctx: CheckContext): void {
   if (!ctx.layer.crs) {
-    if (ctx.opts.strict) throw new UserError(`${ctx.layer.label}: has no coordinate system (no .prj file beside the .shp). Fix: copy the .prj that belongs to it beside it, or drop --strict to read the coordinates as WGS 84 longitude/latitude.`, { file: ctx.layer.label });
-    if (ctx.frame.kind === 'lonlat') ctx.add('crs', 'warn', 'no .prj: coordinates are in longitude/latitude range and are read as WGS 84 (EPSG:4326); add the .prj before loading it in a terminal');
-    else ctx.add('crs', 'fail', 'no .prj and the coordinates are not longitude/latitude: the coordinate system is unknown; measures below use them as metres');
+    if (ctx.opts.strict)
+      throw new UserError(
+        `${ctx.layer.label}: has no coordinate system (no .prj file beside the .shp). Fix: copy the .prj that belongs to it beside it, or drop --strict to read the coordinates as WGS 84 longitude/latitude.`,
+        { file: ctx.layer.label },
+      );
+    if (ctx.frame.kind === 'lonlat')
+      ctx.add(
+        'crs',
+        'warn',
+        'no .prj: coordinates are in longitude/latitude range and are read as WGS 84 (EPSG:4326); add the .prj before loading it in a terminal',
+      );
+    else
+      ctx.add(
+        'crs',
+        'fail',
+        'no .prj and the coordinates are not longitude/latitude: the coordinate system is unknown; measures below use them as metres',
+      );
   } else if (ctx.layer.crs.kind === null) {
-    ctx.add('crs', 'fail', `coordinate system not recognised (${ctx.layer.crs.label}); tilth knows WGS 84, NAD83 and NAD83(CSRS) longitude/latitude and UTM` + (ctx.frame.kind === 'lonlat' ? '; read as WGS 84 longitude/latitude' : '; measures below use the coordinates as metres'));
+    ctx.add(
+      'crs',
+      'fail',
+      `coordinate system not recognised (${ctx.layer.crs.label}); tilth knows WGS 84, NAD83 and NAD83(CSRS) longitude/latitude and UTM` +
+        (ctx.frame.kind === 'lonlat'
+          ? '; read as WGS 84 longitude/latitude'
+          : '; measures below use the coordinates as metres'),
+    );
   } else if (ctx.frame.kind === 'lonlat' && !lonlatLike(ctx.feats)) {
-    ctx.add('crs', 'fail', `${ctx.layer.crs.label} declared but coordinates lie outside longitude -180..180 / latitude -90..90`);
+    ctx.add(
+      'crs',
+      'fail',
+      `${ctx.layer.crs.label} declared but coordinates lie outside longitude -180..180 / latitude -90..90`,
+    );
   } else {
-    const nad = ctx.layer.crs.datum !== 'WGS84' ? ` (${ctx.layer.crs.datum} is used as WGS 84; they differ by 1-2 m)` : '';
+    const nad =
+      ctx.layer.crs.datum !== 'WGS84'
+        ? ` (${ctx.layer.crs.datum} is used as WGS 84; they differ by 1-2 m)`
+        : '';
     ctx.add('crs', ctx.layer.crs.datum === 'WGS84' ? 'pass' : 'warn', `${ctx.layer.crs.label}${nad}`);
   }
 }
@@ -28,7 +56,10 @@ export function checkCrs(ctx: CheckContext): void {
  * at the centre and a local origin; planar (file units as metres) when the system is unknown.
  * @example const { work, scale, origin } = workingFrame(layer, frameOf(layer))
  */
-export function workingFrame(layer: CheckLayer, frame: Frame): { work: Projector | null; scale: number; origin: [number, number] } {
+export function workingFrame(
+  layer: CheckLayer,
+  frame: Frame,
+): { work: Projector | null; scale: number; origin: [number, number] } {
   const [bx0, by0, bx1, by1] = bboxOf(layer.features);
   let work: Projector | null = null;
   let scale = 1;

@@ -9,29 +9,40 @@ import { list, type CheckContext } from './context.js';
  * @example const valid = checkGeometry(ctx)
  */
 export function checkGeometry(ctx: CheckContext): boolean[] {
-  const bad: string[] = [], why: string[] = [];
+  const bad: string[] = [],
+    why: string[] = [];
   const valid = ctx.feats.map((f, i) => {
     const g = f.geometry;
     let reason = ctx.problems[i] ?? '';
-    if (reason) { /* coordinates unusable */ } else if (!g) reason = 'no geometry';
+    if (reason) {
+      /* coordinates unusable */
+    } else if (!g) reason = 'no geometry';
     else if (g.type !== 'Polygon' && g.type !== 'MultiPolygon') reason = `a ${g.type}, not a polygon`;
-    else if ((g.type === 'Polygon' ? [g.coordinates] : g.coordinates).some((p) => p.some((r) => r.length < 4))) reason = 'a ring with fewer than 4 points';
+    else if (
+      (g.type === 'Polygon' ? [g.coordinates] : g.coordinates).some((p) => p.some((r) => r.length < 4))
+    )
+      reason = 'a ring with fewer than 4 points';
     else {
       try {
         const k = kinks(f as Feature<Polygon | MultiPolygon>);
         if (k.features.length) {
           const c = k.features[0].geometry.coordinates;
           reason = `edges cross themselves (${k.features.length} crossing${k.features.length > 1 ? 's' : ''}, first near lat ${c[1].toFixed(6)}, lon ${c[0].toFixed(6)})`;
-        } else if (!booleanValid(f)) reason = 'not a valid polygon (a hole outside its ring, touching rings or overlapping parts)';
+        } else if (!booleanValid(f))
+          reason = 'not a valid polygon (a hole outside its ring, touching rings or overlapping parts)';
       } catch (e) {
         reason = `unreadable geometry (${(e as Error).message})`;
       }
     }
-    if (reason) { bad.push(ctx.names[i]); why.push(`${ctx.names[i]}: ${reason}`); }
+    if (reason) {
+      bad.push(ctx.names[i]);
+      why.push(`${ctx.names[i]}: ${reason}`);
+    }
     return !reason;
   });
   if (!ctx.feats.length) ctx.add('geometry', 'fail', 'the file holds no zones');
-  else if (bad.length) ctx.add('geometry', 'fail', `${bad.length} of ${ctx.feats.length} zones invalid: ${list(why, 6)}`, bad);
+  else if (bad.length)
+    ctx.add('geometry', 'fail', `${bad.length} of ${ctx.feats.length} zones invalid: ${list(why, 6)}`, bad);
   else ctx.add('geometry', 'pass', `${ctx.feats.length} zones, all valid polygons`);
 
   return valid;

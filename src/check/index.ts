@@ -5,7 +5,15 @@
 import type { CheckLayer } from './layer.js';
 import { polysArea } from './shape.js';
 import { usableFeatures } from './coords.js';
-import { bbox, frameOf, significantWith, SLIVER_WIDTH_M, toMetres, zoneNames, type CheckContext } from './context.js';
+import {
+  bbox,
+  frameOf,
+  significantWith,
+  SLIVER_WIDTH_M,
+  toMetres,
+  zoneNames,
+  type CheckContext,
+} from './context.js';
 import { checkCrs, workingFrame } from './crs.js';
 import { checkGeometry } from './geometry.js';
 import { checkOverlap } from './overlap.js';
@@ -44,13 +52,24 @@ export function checkPrescription(rawLayer: CheckLayer, opts: CheckOptions = {})
   const { work, scale, origin } = workingFrame(layer, frame);
   const metres = toMetres(layer.features, work ? frame : { kind: 'planar', utmProj: null }, work, origin);
   const ctx: CheckContext = {
-    layer, opts, feats: layer.features, problems, names: zoneNames(layer), lines,
+    layer,
+    opts,
+    feats: layer.features,
+    problems,
+    names: zoneNames(layer),
+    lines,
     add: (check, status, message, zones = []) => lines.push({ check, status, message, zones }),
     // a grid follows the boundary only to a cell: pieces thinner on average than a cell are its staircase
     significant: significantWith(Math.max(SLIVER_WIDTH_M, layer.resolutionM ?? 0)),
-    frame, work, scale, origin, metres,
+    frame,
+    work,
+    scale,
+    origin,
+    metres,
     groundAreas: metres.map((m) => (m ? polysArea(m) / scale : 0)),
-    usable: [], boxes: [], covered: null,
+    usable: [],
+    boxes: [],
+    covered: null,
   };
   checkCrs(ctx);
   const valid = checkGeometry(ctx);

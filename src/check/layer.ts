@@ -41,12 +41,25 @@ const ext = (n: string) => (/\.([^./\\]+)$/.exec(n)?.[1] ?? '').toLowerCase();
  * naming another system is honoured when tilth knows it (UTM, NAD83) and refused otherwise.
  */
 export function layerFromGeoJSON(text: string, label: string): CheckLayer {
-  const o = parseGeoJson(text, label) as { type?: string; features?: unknown; crs?: { properties?: { name?: string } } };
+  const o = parseGeoJson(text, label) as {
+    type?: string;
+    features?: unknown;
+    crs?: { properties?: { name?: string } };
+  };
   let features: Feature[];
   if (o?.type === 'FeatureCollection' && Array.isArray(o.features)) features = o.features as Feature[];
   else if (o?.type === 'Feature') features = [o as unknown as Feature];
-  else throw new UserError(`${label}: is not a GeoJSON FeatureCollection or Feature (type is ${JSON.stringify(o?.type)}). Fix: give the zone polygons as a FeatureCollection.`, { file: label });
-  let crs: CrsInfo = { kind: 'lonlat', datum: 'WGS84', epsg: 4326, label: 'WGS 84 longitude/latitude (GeoJSON, RFC 7946)' };
+  else
+    throw new UserError(
+      `${label}: is not a GeoJSON FeatureCollection or Feature (type is ${JSON.stringify(o?.type)}). Fix: give the zone polygons as a FeatureCollection.`,
+      { file: label },
+    );
+  let crs: CrsInfo = {
+    kind: 'lonlat',
+    datum: 'WGS84',
+    epsg: 4326,
+    label: 'WGS 84 longitude/latitude (GeoJSON, RFC 7946)',
+  };
   const named = o.crs?.properties?.name;
   if (typeof named === 'string') {
     crs = readPrj(named);
@@ -58,7 +71,13 @@ export function layerFromGeoJSON(text: string, label: string): CheckLayer {
       names.set(k, (names.get(k) ?? true) && num);
     }
   }
-  return { label, features, fields: [...names].map(([name, numeric]) => ({ name, numeric })), crs, crsSource: 'geojson' };
+  return {
+    label,
+    features,
+    fields: [...names].map(([name, numeric]) => ({ name, numeric })),
+    crs,
+    crsSource: 'geojson',
+  };
 }
 
 /**
@@ -78,17 +97,30 @@ export async function readLayer(files: Record<string, Uint8Array>, main: string)
     const set = await readShapefile(parts, main);
     // then what the reader lets through but GDAL reads differently, or not at all (src/check/setfiles.ts)
     const mismatch = setFilesProblem(parts.shp, parts.shx, parts.dbf);
-    if (mismatch) throw new UserError(`${main}: the shapefile's files do not agree: ${mismatch}; GDAL and field terminals would read it differently or not at all. Fix: export the prescription again.`, { file: main });
+    if (mismatch)
+      throw new UserError(
+        `${main}: the shapefile's files do not agree: ${mismatch}; GDAL and field terminals would read it differently or not at all. Fix: export the prescription again.`,
+        { file: main },
+      );
     if (set.shapeType !== 5) {
-      throw new UserError(`${main}: holds shape type ${set.shapeType}, not polygons (type 5). Fix: give the zone polygons of the prescription, not points or lines.`, { file: main, value: set.shapeType });
+      throw new UserError(
+        `${main}: holds shape type ${set.shapeType}, not polygons (type 5). Fix: give the zone polygons of the prescription, not points or lines.`,
+        { file: main, value: set.shapeType },
+      );
     }
     if (!shapefileSet(files, main).dbf) {
-      throw new UserError(`${main}: the attribute table ${main.slice(0, -4)}.dbf is missing, so there are no rates. Fix: copy the .dbf beside the .shp (same name).`, { file: main });
+      throw new UserError(
+        `${main}: the attribute table ${main.slice(0, -4)}.dbf is missing, so there are no rates. Fix: copy the .dbf beside the .shp (same name).`,
+        { file: main },
+      );
     }
     return {
       label: main,
       features: set.features,
-      fields: set.fields.map((f) => ({ name: f.name, numeric: f.type === 'N' || (f.type as string) === 'F' })),
+      fields: set.fields.map((f) => ({
+        name: f.name,
+        numeric: f.type === 'N' || (f.type as string) === 'F',
+      })),
       crs: set.prj === null ? null : readPrj(set.prj),
       crsSource: set.prj === null ? 'none' : 'prj',
       rawText: set.rawText,
@@ -100,12 +132,22 @@ export async function readLayer(files: Record<string, Uint8Array>, main: string)
     const shps = names.filter((n) => ext(n) === 'shp');
     const gj = names.filter((n) => ext(n) === 'geojson' || ext(n) === 'json');
     if (shps.length > 1 || (shps.length === 0 && gj.length > 1)) {
-      throw new UserError(`${main}: holds ${shps.length > 1 ? shps.length + ' shapefiles' : gj.length + ' GeoJSON files'} (${(shps.length > 1 ? shps : gj).join(', ')}); tilth checks one layer at a time. Fix: zip one prescription per archive, or check the files themselves.`, { file: main });
+      throw new UserError(
+        `${main}: holds ${shps.length > 1 ? shps.length + ' shapefiles' : gj.length + ' GeoJSON files'} (${(shps.length > 1 ? shps : gj).join(', ')}); tilth checks one layer at a time. Fix: zip one prescription per archive, or check the files themselves.`,
+        { file: main },
+      );
     }
     const inner = shps[0] ?? gj[0];
-    if (!inner) throw new UserError(`${main}: holds no .shp (nor .geojson) file (entries: ${names.join(', ') || 'none'}). Fix: zip the .shp together with its .shx, .dbf, .prj and .cpg.`, { file: main });
+    if (!inner)
+      throw new UserError(
+        `${main}: holds no .shp (nor .geojson) file (entries: ${names.join(', ') || 'none'}). Fix: zip the .shp together with its .shx, .dbf, .prj and .cpg.`,
+        { file: main },
+      );
     const layer = await readLayer(entries, inner);
     return { ...layer, label: `${main}:${inner}` };
   }
-  throw new UserError(`${main}: tilth checks .geojson, .json, .shp and .zip files, not ".${e}". Fix: give one of those.`, { file: main });
+  throw new UserError(
+    `${main}: tilth checks .geojson, .json, .shp and .zip files, not ".${e}". Fix: give one of those.`,
+    { file: main },
+  );
 }

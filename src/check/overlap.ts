@@ -14,21 +14,32 @@ import { polysArea, type Poly } from './shape.js';
 export function checkOverlap(ctx: CheckContext): void {
   const ok = ctx.usable.filter((m): m is Poly[] => !!m);
   try {
-    ctx.covered = ok.length ? (clip.union(ok[0] as clip.Geom, ...(ok.slice(1) as clip.Geom[])) as Poly[]) : [];
+    ctx.covered = ok.length
+      ? (clip.union(ok[0] as clip.Geom, ...(ok.slice(1) as clip.Geom[])) as Poly[])
+      : [];
     const overlapTotal = ok.reduce((s, m) => s + polysArea(m), 0) - polysArea(ctx.covered);
-    const pairs: string[] = [], overlapZones = new Set<string>();
-    if (overlapTotal >= SLIVER_M2) for (let i = 0; i < ctx.usable.length; i++) for (let j = i + 1; j < ctx.usable.length; j++) {
-      if (!ctx.usable[i] || !ctx.usable[j] || !boxesMeet(ctx.boxes[i]!, ctx.boxes[j]!)) continue;
-      const a = ctx.significant(clip.intersection(ctx.usable[i]! as clip.Geom, ctx.usable[j]! as clip.Geom) as Poly[], ctx.scale);
-      if (a >= SLIVER_M2) {
-        pairs.push(`${ctx.names[i]} & ${ctx.names[j]} (${fmt(a)} m2)`);
-        overlapZones.add(ctx.names[i]); overlapZones.add(ctx.names[j]);
-      }
-    }
-    if (pairs.length) ctx.add('overlap', 'fail', `zones overlap, the controller would pick one rate: ${list(pairs, 8)}`, [...overlapZones]);
+    const pairs: string[] = [],
+      overlapZones = new Set<string>();
+    if (overlapTotal >= SLIVER_M2)
+      for (let i = 0; i < ctx.usable.length; i++)
+        for (let j = i + 1; j < ctx.usable.length; j++) {
+          if (!ctx.usable[i] || !ctx.usable[j] || !boxesMeet(ctx.boxes[i]!, ctx.boxes[j]!)) continue;
+          const a = ctx.significant(
+            clip.intersection(ctx.usable[i]! as clip.Geom, ctx.usable[j]! as clip.Geom) as Poly[],
+            ctx.scale,
+          );
+          if (a >= SLIVER_M2) {
+            pairs.push(`${ctx.names[i]} & ${ctx.names[j]} (${fmt(a)} m2)`);
+            overlapZones.add(ctx.names[i]);
+            overlapZones.add(ctx.names[j]);
+          }
+        }
+    if (pairs.length)
+      ctx.add('overlap', 'fail', `zones overlap, the controller would pick one rate: ${list(pairs, 8)}`, [
+        ...overlapZones,
+      ]);
     else ctx.add('overlap', 'pass', 'no zones overlap');
   } catch (e) {
     overlayFailed(ctx, 'overlap', e, isUserError);
   }
-
 }

@@ -10,7 +10,10 @@ import type { CheckLayer } from './layer.js';
  * UserError for a rate written as text.
  * @example const { rateFields, rates } = checkRateFields(ctx)
  */
-export function checkRateFields(ctx: CheckContext): { rateFields: string[]; rates: Record<string, (number | null)[]> } {
+export function checkRateFields(ctx: CheckContext): {
+  rateFields: string[];
+  rates: Record<string, (number | null)[]>;
+} {
   const rateFields = pickRateFields(ctx.layer, ctx.opts, ctx.add);
   const rates: Record<string, (number | null)[]> = {};
   for (const rf of rateFields) {
@@ -28,7 +31,13 @@ export function checkRateFields(ctx: CheckContext): { rateFields: string[]; rate
   }
   for (const rf of rateFields) {
     const missing = rates[rf].map((v, i) => (v === null ? ctx.names[i] : '')).filter(Boolean);
-    if (missing.length) ctx.add('rate_field', 'fail', `"${rf}": ${missing.length} zone${missing.length > 1 ? 's have' : ' has'} no rate: ${list(missing)}`, missing);
+    if (missing.length)
+      ctx.add(
+        'rate_field',
+        'fail',
+        `"${rf}": ${missing.length} zone${missing.length > 1 ? 's have' : ' has'} no rate: ${list(missing)}`,
+        missing,
+      );
     else ctx.add('rate_field', 'pass', `"${rf}" is numeric in every zone`);
   }
 
@@ -39,42 +48,79 @@ export function checkRateFields(ctx: CheckContext): { rateFields: string[]; rate
  * Adds the `rate_range` lines: rates above 0 below the machine's lowest, above its highest, or negative fail.
  * @example checkRateRange(ctx, rateFields, rates)
  */
-export function checkRateRange(ctx: CheckContext, rateFields: string[], rates: Record<string, (number | null)[]>): void {
-  if (ctx.opts.min === undefined && ctx.opts.max === undefined) ctx.add('rate_range', 'skip', 'no --min or --max given');
-  else for (const rf of rateFields) {
-    const low: string[] = [], high: string[] = [];
-    rates[rf].forEach((v, i) => {
-      if (v === null) return;
-      if (ctx.opts.min !== undefined && v > 0 && v < ctx.opts.min) low.push(`${ctx.names[i]} (${v})`);
-      if (ctx.opts.max !== undefined && v > ctx.opts.max) high.push(`${ctx.names[i]} (${v})`);
-      if (v < 0) low.push(`${ctx.names[i]} (${v}, negative)`);
-    });
-    const zones = [...low, ...high].map((s) => s.replace(/ \(.*$/, ''));
-    if (low.length || high.length) {
-      ctx.add('rate_range', 'fail', `"${rf}" outside the machine's ${ctx.opts.min ?? '-'} to ${ctx.opts.max ?? '-'}: ${[low.length ? `below: ${list(low)}` : '', high.length ? `above: ${list(high)}` : ''].filter(Boolean).join('; ')}`, zones);
-    } else ctx.add('rate_range', 'pass', `"${rf}" within ${ctx.opts.min ?? '-'} to ${ctx.opts.max ?? '-'} (0 = off)`);
-  }
-
+export function checkRateRange(
+  ctx: CheckContext,
+  rateFields: string[],
+  rates: Record<string, (number | null)[]>,
+): void {
+  if (ctx.opts.min === undefined && ctx.opts.max === undefined)
+    ctx.add('rate_range', 'skip', 'no --min or --max given');
+  else
+    for (const rf of rateFields) {
+      const low: string[] = [],
+        high: string[] = [];
+      rates[rf].forEach((v, i) => {
+        if (v === null) return;
+        if (ctx.opts.min !== undefined && v > 0 && v < ctx.opts.min) low.push(`${ctx.names[i]} (${v})`);
+        if (ctx.opts.max !== undefined && v > ctx.opts.max) high.push(`${ctx.names[i]} (${v})`);
+        if (v < 0) low.push(`${ctx.names[i]} (${v}, negative)`);
+      });
+      const zones = [...low, ...high].map((s) => s.replace(/ \(.*$/, ''));
+      if (low.length || high.length) {
+        ctx.add(
+          'rate_range',
+          'fail',
+          `"${rf}" outside the machine's ${ctx.opts.min ?? '-'} to ${ctx.opts.max ?? '-'}: ${[low.length ? `below: ${list(low)}` : '', high.length ? `above: ${list(high)}` : ''].filter(Boolean).join('; ')}`,
+          zones,
+        );
+      } else
+        ctx.add(
+          'rate_range',
+          'pass',
+          `"${rf}" within ${ctx.opts.min ?? '-'} to ${ctx.opts.max ?? '-'} (0 = off)`,
+        );
+    }
 }
 
 /**
  * Adds a `total` line per rate column and returns the totals (product = rate x ground area).
  * @example const totals = rateTotals(ctx, rateFields, rates)
  */
-export function rateTotals(ctx: CheckContext, rateFields: string[], rates: Record<string, (number | null)[]>): RateTotal[] {
+export function rateTotals(
+  ctx: CheckContext,
+  rateFields: string[],
+  rates: Record<string, (number | null)[]>,
+): RateTotal[] {
   const totals: RateTotal[] = [];
   const areaAc = m2ToAc(ctx.groundAreas.reduce((s, a) => s + a, 0));
   for (const rf of rateFields) {
     const u = UNIT_SUFFIX.find(([re]) => re.test(rf));
-    const total = rates[rf].reduce<number>((s, v, i) => s + (v ?? 0) * (u?.[3] === 'ha' ? m2ToHa(ctx.groundAreas[i]) : m2ToAc(ctx.groundAreas[i])), 0);
-    const t: RateTotal = { field: rf, unit: u ? u[1] : null, total, totalUnit: u ? u[2] : 'rate x ac', areaAc };
+    const total = rates[rf].reduce<number>(
+      (s, v, i) => s + (v ?? 0) * (u?.[3] === 'ha' ? m2ToHa(ctx.groundAreas[i]) : m2ToAc(ctx.groundAreas[i])),
+      0,
+    );
+    const t: RateTotal = {
+      field: rf,
+      unit: u ? u[1] : null,
+      total,
+      totalUnit: u ? u[2] : 'rate x ac',
+      areaAc,
+    };
     totals.push(t);
-    ctx.add('total', ctx.work ? 'pass' : 'warn', `"${rf}": ${fmt(total, 0)} ${t.totalUnit} over ${fmt(areaAc, 2)} ac${u ? '' : ' (unit not known from the column name)'}${ctx.work ? '' : ' (areas in file units: coordinate system unknown)'}`);
+    ctx.add(
+      'total',
+      ctx.work ? 'pass' : 'warn',
+      `"${rf}": ${fmt(total, 0)} ${t.totalUnit} over ${fmt(areaAc, 2)} ac${u ? '' : ' (unit not known from the column name)'}${ctx.work ? '' : ' (areas in file units: coordinate system unknown)'}`,
+    );
   }
   return totals;
 }
 
-function pickRateFields(layer: CheckLayer, opts: CheckOptions, add: (c: string, s: CheckStatus, m: string, z?: string[]) => void): string[] {
+function pickRateFields(
+  layer: CheckLayer,
+  opts: CheckOptions,
+  add: (c: string, s: CheckStatus, m: string, z?: string[]) => void,
+): string[] {
   const all = layer.fields.map((f) => f.name);
   if (opts.rateField) {
     const f = layer.fields.find((x) => x.name.toLowerCase() === opts.rateField!.toLowerCase());
@@ -86,11 +132,22 @@ function pickRateFields(layer: CheckLayer, opts: CheckOptions, add: (c: string, 
   }
   const byUnit = layer.fields.filter((f) => UNIT_SUFFIX.some(([re]) => re.test(f.name)));
   if (byUnit.length) return byUnit.map((f) => f.name);
-  const numeric = layer.fields.filter((f) => f.numeric && !/^(zone_?id|zone|id|zone_no|fid|objectid|area.*|acres?|hectares?|ha|ac)$/i.test(f.name));
+  const numeric = layer.fields.filter(
+    (f) =>
+      f.numeric && !/^(zone_?id|zone|id|zone_no|fid|objectid|area.*|acres?|hectares?|ha|ac)$/i.test(f.name),
+  );
   if (numeric.length === 1) {
-    add('rate_field', 'warn', `no --rate-field given; using the only numeric column "${numeric[0].name}" (unit unknown)`);
+    add(
+      'rate_field',
+      'warn',
+      `no --rate-field given; using the only numeric column "${numeric[0].name}" (unit unknown)`,
+    );
     return [numeric[0].name];
   }
-  add('rate_field', 'fail', `cannot tell the rate column: give --rate-field (columns: ${all.join(', ') || 'none'})`);
+  add(
+    'rate_field',
+    'fail',
+    `cannot tell the rate column: give --rate-field (columns: ${all.join(', ') || 'none'})`,
+  );
   return [];
 }

@@ -7,23 +7,32 @@ export type Poly = [number, number][][];
 /** A ring of [x, y] points as the flat array the geometry kernel (src/geo/area.ts) takes. */
 const flat = (r: readonly [number, number][]): Float64Array => {
   const out = new Float64Array(2 * r.length);
-  r.forEach((p, i) => { out[2 * i] = p[0]; out[2 * i + 1] = p[1]; });
+  r.forEach((p, i) => {
+    out[2 * i] = p[0];
+    out[2 * i + 1] = p[1];
+  });
   return out;
 };
 
 /** Area of polygons: |exterior| minus |holes|, summed. */
 export function polysArea(polys: readonly Poly[]): number {
   let a = 0;
-  for (const p of polys) p.forEach((r, k) => (a += k === 0 ? Math.abs(ringArea(flat(r))) : -Math.abs(ringArea(flat(r)))));
+  for (const p of polys)
+    p.forEach((r, k) => (a += k === 0 ? Math.abs(ringArea(flat(r))) : -Math.abs(ringArea(flat(r)))));
   return a;
 }
 
 /** Area-weighted centre of a polygon's exterior ring (falls back to the first point for a degenerate ring). */
 export function ringCentroid(r: readonly [number, number][]): [number, number] {
-  let a = 0, cx = 0, cy = 0;
+  let a = 0,
+    cx = 0,
+    cy = 0;
   const [ox, oy] = r[0];
   for (let i = 0; i < r.length; i++) {
-    const x0 = r[i][0] - ox, y0 = r[i][1] - oy, x1 = r[(i + 1) % r.length][0] - ox, y1 = r[(i + 1) % r.length][1] - oy;
+    const x0 = r[i][0] - ox,
+      y0 = r[i][1] - oy,
+      x1 = r[(i + 1) % r.length][0] - ox,
+      y1 = r[(i + 1) % r.length][1] - oy;
     const c = x0 * y1 - x1 * y0;
     a += c;
     cx += (x0 + x1) * c;
@@ -37,8 +46,10 @@ export function ringCentroid(r: readonly [number, number][]): [number, number] {
 export function convexHull(pts: readonly [number, number][]): [number, number][] {
   const p = [...pts].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
   if (p.length < 3) return p;
-  const cross = (o: number[], a: number[], b: number[]) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
-  const lower: [number, number][] = [], upper: [number, number][] = [];
+  const cross = (o: number[], a: number[], b: number[]) =>
+    (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+  const lower: [number, number][] = [],
+    upper: [number, number][] = [];
   for (const q of p) {
     while (lower.length >= 2 && cross(lower[lower.length - 2], lower[lower.length - 1], q) <= 0) lower.pop();
     lower.push(q);
@@ -61,11 +72,14 @@ export function convexHull(pts: readonly [number, number][]): [number, number][]
 export function hullExtent(pts: readonly [number, number][]): { diameter: number; width: number } {
   const h = convexHull(pts);
   let diameter = 0;
-  for (let i = 0; i < h.length; i++) for (let j = i + 1; j < h.length; j++) diameter = Math.max(diameter, Math.hypot(h[i][0] - h[j][0], h[i][1] - h[j][1]));
+  for (let i = 0; i < h.length; i++)
+    for (let j = i + 1; j < h.length; j++)
+      diameter = Math.max(diameter, Math.hypot(h[i][0] - h[j][0], h[i][1] - h[j][1]));
   if (h.length < 3) return { diameter, width: 0 };
   let width = Infinity;
   for (let i = 0; i < h.length; i++) {
-    const [ax, ay] = h[i], [bx, by] = h[(i + 1) % h.length];
+    const [ax, ay] = h[i],
+      [bx, by] = h[(i + 1) % h.length];
     const len = Math.hypot(bx - ax, by - ay);
     if (len === 0) continue;
     let far = 0;
@@ -80,7 +94,12 @@ export function hullExtent(pts: readonly [number, number][]): { diameter: number
  * (2 x area / perimeter) of at least `minWidth`. Long hair-thin slivers along a boundary, left by rounding
  * coordinates (7 decimals of a degree is about 1 cm), are not gaps or overlaps a controller could act on.
  */
-export function significantArea(polys: readonly Poly[], minArea: number, minWidth: number, scale = 1): number {
+export function significantArea(
+  polys: readonly Poly[],
+  minArea: number,
+  minWidth: number,
+  scale = 1,
+): number {
   let a = 0;
   for (const p of polys) {
     const pa = polysArea([p]) / scale;

@@ -51,4 +51,3 @@ export interface CheckOptions {
   /** refuse a layer without a coordinate system instead of reading it as WGS 84 */
   strict?: boolean;
 }
-

@@ -12,23 +12,47 @@ export function checkZoneSize(ctx: CheckContext): void {
   else {
     const t = ctx.opts.transitionS ?? DEFAULT_TRANSITION_S;
     const d = (ctx.opts.speedKmh / 3.6) * t;
-    const tooShort: string[] = [], narrow: string[] = [], tiny: string[] = [];
+    const tooShort: string[] = [],
+      narrow: string[] = [],
+      tiny: string[] = [];
     ctx.usable.forEach((m, i) => {
       if (!m) return;
       for (const part of m) {
         const { diameter, width } = hullExtent(part[0]);
         const a = polysArea([part]) / ctx.scale;
-        if (diameter < d) { tooShort.push(`${ctx.names[i]} (${fmt(diameter)} m)`); return; }
-        if (ctx.opts.swathM !== undefined && a < d * ctx.opts.swathM) { tiny.push(`${ctx.names[i]} (${fmt(a)} m2)`); return; }
-        if (width < d) { narrow.push(`${ctx.names[i]} (${fmt(width)} m)`); return; }
+        if (diameter < d) {
+          tooShort.push(`${ctx.names[i]} (${fmt(diameter)} m)`);
+          return;
+        }
+        if (ctx.opts.swathM !== undefined && a < d * ctx.opts.swathM) {
+          tiny.push(`${ctx.names[i]} (${fmt(a)} m2)`);
+          return;
+        }
+        if (width < d) {
+          narrow.push(`${ctx.names[i]} (${fmt(width)} m)`);
+          return;
+        }
       }
     });
     const head = `at ${ctx.opts.speedKmh} km/h a rate change takes ${t} s = ${fmt(d)} m`;
     if (tooShort.length || tiny.length) {
-      const parts = [tooShort.length ? `no part longer than that: ${list(tooShort)}` : '', tiny.length ? `smaller than ${fmt(d)} m x ${ctx.opts.swathM} m swath: ${list(tiny)}` : ''].filter(Boolean);
-      ctx.add('zone_size', 'fail', `${head}; ${parts.join('; ')}`, [...tooShort, ...tiny].map((s) => s.replace(/ \(.*$/, '')));
-    } else if (narrow.length) ctx.add('zone_size', 'warn', `${head}; narrower than that across (crossing them the rate is not reached): ${list(narrow)}`, narrow.map((s) => s.replace(/ \(.*$/, '')));
+      const parts = [
+        tooShort.length ? `no part longer than that: ${list(tooShort)}` : '',
+        tiny.length ? `smaller than ${fmt(d)} m x ${ctx.opts.swathM} m swath: ${list(tiny)}` : '',
+      ].filter(Boolean);
+      ctx.add(
+        'zone_size',
+        'fail',
+        `${head}; ${parts.join('; ')}`,
+        [...tooShort, ...tiny].map((s) => s.replace(/ \(.*$/, '')),
+      );
+    } else if (narrow.length)
+      ctx.add(
+        'zone_size',
+        'warn',
+        `${head}; narrower than that across (crossing them the rate is not reached): ${list(narrow)}`,
+        narrow.map((s) => s.replace(/ \(.*$/, '')),
+      );
     else ctx.add('zone_size', 'pass', `${head}; every zone is longer and wider than that`);
   }
-
 }

@@ -12,34 +12,71 @@ import { provenance } from '../prescription/provenance.js';
 import { summaryText } from '../prescription/outputs.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { tablesFromOption } from './plan.js';
-import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
+import {
+  CAUTION,
+  checkOutputDir,
+  info,
+  numberOption,
+  out,
+  printWarnings,
+  readInput,
+  writeOutputDir,
+} from './util.js';
 import { createTerminal, type Task, type Terminal } from './progress.js';
 
 export interface BuildFlags {
-  samples: string; boundary: string; zones?: string; plan: string; tables?: string; out: string;
-  force?: boolean; json?: boolean; cell?: string; columns?: string; depthFactor?: string; dropOutside?: boolean;
-  pMethod?: 'olsen' | 'kelowna'; assumeWgs84?: boolean; quiet?: boolean;
+  samples: string;
+  boundary: string;
+  zones?: string;
+  plan: string;
+  tables?: string;
+  out: string;
+  force?: boolean;
+  json?: boolean;
+  cell?: string;
+  columns?: string;
+  depthFactor?: string;
+  dropOutside?: boolean;
+  pMethod?: 'olsen' | 'kelowna';
+  assumeWgs84?: boolean;
+  quiet?: boolean;
 }
 
 export function register(program: Command): void {
-  addInputOptions(program
-    .command('build'))
-    .description('Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.')
+  addInputOptions(program.command('build'))
+    .description(
+      'Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.',
+    )
     .requiredOption('--plan <file>', 'plan file (see `tilth plan init`)')
-    .requiredOption('--out <dir>', 'output folder (created; an existing one is replaced only with --force and only when empty or written by tilth)')
+    .requiredOption(
+      '--out <dir>',
+      'output folder (created; an existing one is replaced only with --force and only when empty or written by tilth)',
+    )
     .option('--tables <file>', 'your edited agronomy tables (see `tilth tables`)')
     .option('--cell <m>', 'grid cell size in metres (default: about 200 cells across the field, 1-20 m)')
-    .option('--force', 'replace an earlier tilth output folder (never one holding other files, an input, the current or home folder)')
+    .option(
+      '--force',
+      'replace an earlier tilth output folder (never one holding other files, an input, the current or home folder)',
+    )
     .option('--json', 'print summary.json on stdout for scripts')
     .option('--quiet', 'no progress messages')
-    .addHelpText('after', `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json, report.html;\nshapefiles/ and ISO 11783-10 task data (TASKDATA/ and taskdata.zip) as the plan's output.formats asks.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`)
+    .addHelpText(
+      'after',
+      `\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth build --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson \\\n    --plan plan.yaml --out rx-quarter\n\nWrites prescription.geojson (one per zone set when there are several), zones.csv, summary.json, report.html;\nshapefiles/ and ISO 11783-10 task data (TASKDATA/ and taskdata.zip) as the plan's output.formats asks.\nExit 0 ok; 1 when some zone's targets cannot be met (the files are still written, the list is printed); 2 bad input.\n\n${CAUTION}`,
+    )
     .action(async (o: BuildFlags) => {
       const term = createTerminal({ quiet: o.quiet });
       const bars = progressBars(term);
-      const r = await runBuild(o, { say: (s) => term.line(s), onProgress: bars.update, stepDone: bars.finish });
+      const r = await runBuild(o, {
+        say: (s) => term.line(s),
+        onProgress: bars.update,
+        stepDone: bars.finish,
+      });
       out(o.json ? JSON.stringify(r.summary, null, 2) : r.text);
       printWarnings(r.warnings);
-      info(`wrote ${r.files.length} files to ${o.out}: ${[...new Set(r.files.map((f) => f.replace(/\/.*/, '/')))].join(', ')}`);
+      info(
+        `wrote ${r.files.length} files to ${o.out}: ${[...new Set(r.files.map((f) => f.replace(/\/.*/, '/')))].join(', ')}`,
+      );
       info(CAUTION);
       if (r.infeasible.length > 0) {
         info(`\n${r.infeasible.length} zone(s) cannot meet their targets within the plan's limits:`);
@@ -90,11 +127,26 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
   const rx = buildPrescription(inputs, plan, tables, { cell, onProgress: hooks.onProgress });
   hooks.stepDone();
-  const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const).filter((k) => o[k]).map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
-  const { files, summary } = prescriptionFolder(rx, inputs, tables, { provenance: provenance(named), tablesEdited: !!o.tables, onStep: hooks.say });
+  const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const)
+    .filter((k) => o[k])
+    .map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
+  const { files, summary } = prescriptionFolder(rx, inputs, tables, {
+    provenance: provenance(named),
+    tablesEdited: !!o.tables,
+    onStep: hooks.say,
+  });
   writeOutputDir(o.out, files, { force: o.force, inputs: inputFiles });
   const zones = rx.zoneSets.reduce((n, z) => n + z.zones.length, 0);
-  return { summary, text: summaryText(rx), warnings: rx.warnings, infeasible: rx.infeasible, totals: rx.totals, field: { name: rx.field.name, areaAc: rx.field.areaAc }, zones, files: [...files.keys()] };
+  return {
+    summary,
+    text: summaryText(rx),
+    warnings: rx.warnings,
+    infeasible: rx.infeasible,
+    totals: rx.totals,
+    field: { name: rx.field.name, areaAc: rx.field.areaAc },
+    zones,
+    files: [...files.keys()],
+  };
 }
 
 /** One progress bar per build step on stderr. */
@@ -103,7 +155,11 @@ function progressBars(term: Terminal): { update: (step: string, done: number) =>
   let task: Task | null = null;
   return {
     update: (step, done) => {
-      if (step !== last) { task?.done(); last = step; task = term.task(step, 100); }
+      if (step !== last) {
+        task?.done();
+        last = step;
+        task = term.task(step, 100);
+      }
       task!.update(Math.round(done * 100), 100);
     },
     finish: () => task?.done(),
@@ -114,6 +170,7 @@ function progressBars(term: Terminal): { update: (step: string, done: number) =>
 function refuseUnfit(inputs: FieldInputs, plan: Plan, samplesFile: string, boundaryFile: string): void {
   checkBoundaryVertices(inputs.field, boundaryFile);
   const problems = readinessProblems(inputs, plan, samplesFile);
-  if (problems.length) throw new UserError(`cannot make a prescription from these inputs:\n  ${problems.join('\n  ')}`);
+  if (problems.length)
+    throw new UserError(`cannot make a prescription from these inputs:\n  ${problems.join('\n  ')}`);
   addOutlierWarnings(inputs, samplesFile);
 }

@@ -2,7 +2,13 @@
 import type { Command } from 'commander';
 import { readdirSync, statSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
-import { checkPrescription, readLayer, DEFAULT_TRANSITION_S, type CheckLayer, type CheckReport } from '../check/index.js';
+import {
+  checkPrescription,
+  readLayer,
+  DEFAULT_TRANSITION_S,
+  type CheckLayer,
+  type CheckReport,
+} from '../check/index.js';
 import { isTaskDataXml, layersFromTaskDataFiles } from '../check/taskdata.js';
 import { readZip } from '../io/zip.js';
 import { numberOption, out, readInput } from './util.js';
@@ -22,7 +28,13 @@ export async function loadLayer(path: string, what: string): Promise<CheckLayer>
       /* readInput already proved the file is there */
     }
     for (const e of entries) {
-      if (e !== name && e.toLowerCase().startsWith(base + '.') && /\.(shx|dbf|prj|cpg)$/i.test(e) && e.length === base.length + 4) files[e] = readInput(join(dir, e), what);
+      if (
+        e !== name &&
+        e.toLowerCase().startsWith(base + '.') &&
+        /\.(shx|dbf|prj|cpg)$/i.test(e) &&
+        e.length === base.length + 4
+      )
+        files[e] = readInput(join(dir, e), what);
     }
   }
   return readLayer(files, name);
@@ -42,7 +54,8 @@ function loadTaskData(path: string): CheckLayer[] | null {
   if (dir === null && isTaskDataXml(path)) dir = dirname(path);
   if (dir !== null) {
     const files: Record<string, Uint8Array> = {};
-    for (const e of readdirSync(dir)) if (/\.(xml|bin)$/i.test(e)) files[e] = readInput(join(dir, e), 'task data');
+    for (const e of readdirSync(dir))
+      if (/\.(xml|bin)$/i.test(e)) files[e] = readInput(join(dir, e), 'task data');
     const xml = Object.keys(files).find(isTaskDataXml);
     if (!xml) return null;
     return layersFromTaskDataFiles(files, join(dir, xml));
@@ -65,14 +78,27 @@ export function register(program: Command): void {
         'overlaps, gaps and parts outside the boundary, numeric rate column, machine rate range, zones too small for the speed, total product. ' +
         'Exits 0 when nothing fails, 1 when a check fails, 2 when the file cannot be read.',
     )
-    .argument('<file>', 'prescription: .geojson, .shp (with .shx/.dbf/.prj/.cpg beside it), .zip, or ISO 11783-10 task data (TASKDATA.XML, a TASKDATA folder or a zip holding one)')
-    .option('--boundary <file>', 'field boundary (.geojson, .shp or .zip): enables the gap and outside checks')
-    .option('--rate-field <name>', 'rate column (default: columns ending in _lbac, _kgha, _galac or _lha; else the only numeric column)')
+    .argument(
+      '<file>',
+      'prescription: .geojson, .shp (with .shx/.dbf/.prj/.cpg beside it), .zip, or ISO 11783-10 task data (TASKDATA.XML, a TASKDATA folder or a zip holding one)',
+    )
+    .option(
+      '--boundary <file>',
+      'field boundary (.geojson, .shp or .zip): enables the gap and outside checks',
+    )
+    .option(
+      '--rate-field <name>',
+      'rate column (default: columns ending in _lbac, _kgha, _galac or _lha; else the only numeric column)',
+    )
     .option('--min <rate>', "machine's lowest rate above 0 (0 = off always passes); no default")
     .option('--max <rate>', "machine's highest rate; no default")
     .option('--speed <kmh>', 'travel speed, km/h: flags zones too short to reach their rate; no default')
     .option('--swath <m>', 'swath width, m: also flags zones smaller than one rate change x swath')
-    .option('--transition <s>', `seconds the controller needs to reach a new rate (common practice 3-5 s)`, String(DEFAULT_TRANSITION_S))
+    .option(
+      '--transition <s>',
+      `seconds the controller needs to reach a new rate (common practice 3-5 s)`,
+      String(DEFAULT_TRANSITION_S),
+    )
     .option('--strict', 'refuse a shapefile without .prj instead of reading it as WGS 84')
     .option('--json', 'print the report as JSON for scripts')
     .addHelpText(
@@ -91,14 +117,30 @@ export function register(program: Command): void {
       const taskLayers = loadTaskData(file);
       const layers = taskLayers ?? [await loadLayer(file, 'prescription')];
       const boundary = o.boundary ? await loadLayer(o.boundary, 'boundary') : undefined;
-      const reports: CheckReport[] = layers.map((layer) => checkPrescription(layer, { boundary, rateField: o.rateField, min, max, speedKmh, swathM, transitionS, strict: !!o.strict }));
+      const reports: CheckReport[] = layers.map((layer) =>
+        checkPrescription(layer, {
+          boundary,
+          rateField: o.rateField,
+          min,
+          max,
+          speedKmh,
+          swathM,
+          transitionS,
+          strict: !!o.strict,
+        }),
+      );
       const ok = reports.every((r) => r.ok);
       if (o.json) out(JSON.stringify(taskLayers ? { file, ok, reports } : reports[0], null, 2));
-      else for (const r of reports) {
-        out(`tilth check ${r.file}`);
-        for (const l of r.lines) out(`${MARK[l.status]}  ${l.check.padEnd(10)} ${l.message}`);
-        out(r.ok ? 'result: nothing failed' : `result: ${r.lines.filter((l) => l.status === 'fail').length} check(s) failed`);
-      }
+      else
+        for (const r of reports) {
+          out(`tilth check ${r.file}`);
+          for (const l of r.lines) out(`${MARK[l.status]}  ${l.check.padEnd(10)} ${l.message}`);
+          out(
+            r.ok
+              ? 'result: nothing failed'
+              : `result: ${r.lines.filter((l) => l.status === 'fail').length} check(s) failed`,
+          );
+        }
       if (!ok) process.exitCode = 1;
     });
 }

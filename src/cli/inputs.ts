@@ -53,7 +53,8 @@ export function readInputFile(path: string, what: string): InputFile {
   const beside: Record<string, Uint8Array> = {};
   for (const n of existsSync(dir) ? readdirSync(dir) : []) {
     const l = n.toLowerCase();
-    if (l.startsWith(base + '.') && l.length === base.length + 4 && /\.(shx|dbf|prj|cpg)$/.test(l)) beside[prefix + n] = readInput(join(dir, n), what);
+    if (l.startsWith(base + '.') && l.length === base.length + 4 && /\.(shx|dbf|prj|cpg)$/.test(l))
+      beside[prefix + n] = readInput(join(dir, n), what);
   }
   return { name: path, bytes, beside };
 }
@@ -70,7 +71,12 @@ export async function loadInputs(opts: InputOptions): Promise<FieldInputs> {
     boundary: readInputFile(opts.boundary, 'boundary'),
     zones: opts.zones ? readInputFile(opts.zones, 'zones') : undefined,
   };
-  const raw = await readInputs(files, { columns: opts.columns, assumeWgs84: opts.assumeWgs84, crs: opts.crs, sheet: opts.sheet });
+  const raw = await readInputs(files, {
+    columns: opts.columns,
+    assumeWgs84: opts.assumeWgs84,
+    crs: opts.crs,
+    sheet: opts.sheet,
+  });
   const inputs = prepareInputs(raw, {
     columns: opts.columns,
     depthFactor: opts.depthFactor,
@@ -78,7 +84,8 @@ export async function loadInputs(opts: InputOptions): Promise<FieldInputs> {
     pMethod: opts.pMethod,
     crs: opts.crs,
   });
-  if (opts.verbose && inputs.reading) process.stderr.write(`${formatReading(inputs.reading, `columns of ${opts.samples}`)}\n`);
+  if (opts.verbose && inputs.reading)
+    process.stderr.write(`${formatReading(inputs.reading, `columns of ${opts.samples}`)}\n`);
   return inputs;
 }
 
@@ -92,14 +99,26 @@ export function addInputOptions(cmd: Command): Command {
     .requiredOption('--samples <file>', 'soil samples (.geojson, .csv, .xlsx, .shp, .zip)')
     .requiredOption('--boundary <file>', 'field boundary (.geojson, .shp, .zip)')
     .option('--zones <file>', 'zone polygons that zone-composite samples are keyed to (.geojson, .shp, .zip)')
-    .option('--columns <map>', 'column map, e.g. "id=Sample ID,lat=Lat,lon=Long,p=P Olsen:ppm,ph=pH (1:2)@0-6" (headers are recognised otherwise; the map always wins)')
+    .option(
+      '--columns <map>',
+      'column map, e.g. "id=Sample ID,lat=Lat,lon=Long,p=P Olsen:ppm,ph=pH (1:2)@0-6" (headers are recognised otherwise; the map always wins)',
+    )
     .option('--sheet <name>', 'sheet of an .xlsx samples file (default: the first sheet)')
-    .option('--crs <EPSG:code>', 'coordinate system of easting/northing columns in a samples table, e.g. EPSG:26913 (NAD83 / UTM 13N)')
+    .option(
+      '--crs <EPSG:code>',
+      'coordinate system of easting/northing columns in a samples table, e.g. EPSG:26913 (NAD83 / UTM 13N)',
+    )
     .option('--verbose', 'print how each column of the samples file was read (on stderr)')
     .option('--p-method <method>', 'P test method when the file does not name it: olsen or kelowna')
-    .option('--depth-factor <x>', 'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)')
+    .option(
+      '--depth-factor <x>',
+      'factor from 0-6 in to 0-24 in nitrate and sulphate when only 0-6 in was sampled (no default: ask your lab or agronomist)',
+    )
     .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
-    .option('--assume-wgs84', 'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)');
+    .option(
+      '--assume-wgs84',
+      'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)',
+    );
 }
 
 /**
@@ -110,7 +129,10 @@ export function inputOptionsFrom(o: Record<string, unknown>): InputOptions {
   let pMethod: PMethod | undefined;
   if (o.pMethod !== undefined) {
     const m = String(o.pMethod).toLowerCase();
-    if (m !== 'olsen' && m !== 'kelowna') throw new UserError(`option --p-method: "${o.pMethod}" is not olsen or kelowna. Fix: give --p-method olsen or --p-method kelowna.`);
+    if (m !== 'olsen' && m !== 'kelowna')
+      throw new UserError(
+        `option --p-method: "${o.pMethod}" is not olsen or kelowna. Fix: give --p-method olsen or --p-method kelowna.`,
+      );
     pMethod = m;
   }
   return {

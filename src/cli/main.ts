@@ -34,7 +34,8 @@ if (!isMainThread && (workerData as { tilthBatchWorker?: boolean } | null)?.tilt
     .addHelpText('after', `\n${CAUTION}`)
     .exitOverride();
 
-  for (const cmd of [inspect, surface, check, report, plan, rates, tables, build, batch, variability]) cmd.register(program);
+  for (const cmd of [inspect, surface, check, report, plan, rates, tables, build, batch, variability])
+    cmd.register(program);
 
   try {
     await program.parseAsync(process.argv);
@@ -46,7 +47,9 @@ if (!isMainThread && (workerData as { tilthBatchWorker?: boolean } | null)?.tilt
       process.stderr.write(`tilth: ${terminalSafe((e as Error).message)}\n`);
       process.exitCode = 2;
     } else {
-      process.stderr.write(`tilth: internal error (a bug; please report it with this trace):\n${(e as Error)?.stack ?? String(e)}\n`);
+      process.stderr.write(
+        `tilth: internal error (a bug; please report it with this trace):\n${(e as Error)?.stack ?? String(e)}\n`,
+      );
       process.exitCode = 1;
     }
   }

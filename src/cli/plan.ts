@@ -13,18 +13,29 @@ export function register(program: Command): void {
   const plan = program
     .command('plan')
     .description('Write or check a plan file (crop, yield, strategies, implement, products, zoning, output).')
-    .addHelpText('after', '\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth plan check --plan plan.yaml');
+    .addHelpText(
+      'after',
+      '\nExample:\n  tilth plan init --crop canola > plan.yaml\n  tilth plan check --plan plan.yaml',
+    );
   plan
     .command('init')
-    .description('Print a commented starter plan with every default visible (redirect it to a file and edit it).')
-    .option('--crop <crop>', 'crop (canola, wheat, barley, malt_barley, peas, or one from --tables)', 'canola')
+    .description(
+      'Print a commented starter plan with every default visible (redirect it to a file and edit it).',
+    )
+    .option(
+      '--crop <crop>',
+      'crop (canola, wheat, barley, malt_barley, peas, or one from --tables)',
+      'canola',
+    )
     .option('--units <units>', 'rate units: lb/ac or kg/ha', 'lb/ac')
     .option('--tables <file>', 'your edited tables (see `tilth tables`)')
     .addHelpText('after', '\nExample:\n  tilth plan init --crop canola > plan.yaml')
     .action((o: { crop: string; units: string; tables?: string }) => {
       const tables = tablesFromOption(o.tables);
-      if (!tables.crops[o.crop]) throw new UserError(`option --crop: "${o.crop}"; allowed: ${Object.keys(tables.crops).join(', ')}.`);
-      if (o.units !== 'lb/ac' && o.units !== 'kg/ha') throw new UserError(`option --units: "${o.units}"; allowed: lb/ac, kg/ha.`);
+      if (!tables.crops[o.crop])
+        throw new UserError(`option --crop: "${o.crop}"; allowed: ${Object.keys(tables.crops).join(', ')}.`);
+      if (o.units !== 'lb/ac' && o.units !== 'kg/ha')
+        throw new UserError(`option --units: "${o.units}"; allowed: lb/ac, kg/ha.`);
       out(planTemplate(o.crop, tables, o.units));
     });
   plan

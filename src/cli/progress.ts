@@ -74,8 +74,18 @@ export function createTerminal(opts: TerminalOptions = {}): Terminal {
   const quiet = !!opts.quiet;
   const tty = !!stream.isTTY;
   const color = tty && !(env.NO_COLOR !== undefined && env.NO_COLOR !== '') && env.TERM !== 'dumb';
-  const sgr = (open: number, close: number): Paint => (s) => (color ? `\x1b[${open}m${s}\x1b[${close}m` : s);
-  const paint = { bold: sgr(1, 22), dim: sgr(2, 22), green: sgr(32, 39), yellow: sgr(33, 39), red: sgr(31, 39), cyan: sgr(36, 39) };
+  const sgr =
+    (open: number, close: number): Paint =>
+    (s) =>
+      color ? `\x1b[${open}m${s}\x1b[${close}m` : s;
+  const paint = {
+    bold: sgr(1, 22),
+    dim: sgr(2, 22),
+    green: sgr(32, 39),
+    yellow: sgr(33, 39),
+    red: sgr(31, 39),
+    cyan: sgr(36, 39),
+  };
   let live = false; // a bar is drawn on the current line
   const clearLive = (): void => {
     if (live) stream.write('\r\x1b[2K');
@@ -88,7 +98,10 @@ export function createTerminal(opts: TerminalOptions = {}): Terminal {
   const secs = (ms: number): string => (ms < 1000 ? `${Math.round(ms)} ms` : `${(ms / 1000).toFixed(1)} s`);
 
   return {
-    tty, color, quiet, paint,
+    tty,
+    color,
+    quiet,
+    paint,
     task(label, total = 0) {
       const t0 = now();
       let last = -Infinity;
@@ -102,9 +115,14 @@ export function createTerminal(opts: TerminalOptions = {}): Terminal {
         last = t;
         const frac = tot > 0 ? Math.min(1, doneN / tot) : 0;
         const full = Math.round(frac * BAR);
-        const bar = tot > 0 ? `[${'#'.repeat(full)}${'-'.repeat(BAR - full)}] ${String(Math.round(frac * 100)).padStart(3)}%` : '...';
+        const bar =
+          tot > 0
+            ? `[${'#'.repeat(full)}${'-'.repeat(BAR - full)}] ${String(Math.round(frac * 100)).padStart(3)}%`
+            : '...';
         const text = `${label} ${bar} ${paint.dim(secs(t - t0))}`;
-        stream.write(`\r\x1b[2K${text.slice(0, Math.max(20, (stream.columns ?? 80) - 1) + (color ? 20 : 0))}`);
+        stream.write(
+          `\r\x1b[2K${text.slice(0, Math.max(20, (stream.columns ?? 80) - 1) + (color ? 20 : 0))}`,
+        );
         live = true;
       };
       const update = (d: number, t?: number): void => {
@@ -118,9 +136,18 @@ export function createTerminal(opts: TerminalOptions = {}): Terminal {
         ended = true;
         if (quiet) return;
         const mark = ok ? paint.green(tty ? '✓' : 'done') : paint.red(tty ? '✗' : 'failed');
-        write(tty ? `${mark} ${label} ${paint.dim(`(${secs(now() - t0)})`)}${note ? ` ${note}` : ''}` : `${label}: ${mark} in ${secs(now() - t0)}${note ? `; ${note}` : ''}`);
+        write(
+          tty
+            ? `${mark} ${label} ${paint.dim(`(${secs(now() - t0)})`)}${note ? ` ${note}` : ''}`
+            : `${label}: ${mark} in ${secs(now() - t0)}${note ? `; ${note}` : ''}`,
+        );
       };
-      return { update, onProgress: (d: number, t: number) => update(d, t), done: (n) => end(true, n), fail: (n) => end(false, n) };
+      return {
+        update,
+        onProgress: (d: number, t: number) => update(d, t),
+        done: (n) => end(true, n),
+        fail: (n) => end(false, n),
+      };
     },
     line(text) {
       if (!quiet) write(terminalSafe(text));
@@ -131,7 +158,12 @@ export function createTerminal(opts: TerminalOptions = {}): Terminal {
     summary(title, rows) {
       if (quiet) return;
       const w = Math.max(0, ...rows.map(([k]) => k.length));
-      write([paint.bold(terminalSafe(title)), ...rows.map(([k, v]) => `  ${terminalSafe(k).padEnd(w)}  ${paint.cyan(terminalSafe(v))}`)].join('\n'));
+      write(
+        [
+          paint.bold(terminalSafe(title)),
+          ...rows.map(([k, v]) => `  ${terminalSafe(k).padEnd(w)}  ${paint.cyan(terminalSafe(v))}`),
+        ].join('\n'),
+      );
     },
   };
 }

@@ -18,21 +18,33 @@ export function register(program: Command): void {
   program
     .command('report')
     .argument('<dir>', "a build's output folder (holding report-data.json)")
-    .description('Re-render the field report (report.html) from a build\'s output folder: one self-contained HTML page with maps, legends and tables that opens offline and prints on Letter or A4.')
+    .description(
+      "Re-render the field report (report.html) from a build's output folder: one self-contained HTML page with maps, legends and tables that opens offline and prints on Letter or A4.",
+    )
     .option('--out <file>', 'write the report here instead of DIR/report.html')
     .option('--force', 'replace an existing --out file that is not a tilth report')
     .option('--json', 'print what was written as JSON for scripts')
     .option('--quiet', 'print nothing but warnings and errors')
-    .addHelpText('after', '\nExample:\n  tilth report out/prairie-view\n  (reads out/prairie-view/report-data.json, writes out/prairie-view/report.html)')
+    .addHelpText(
+      'after',
+      '\nExample:\n  tilth report out/prairie-view\n  (reads out/prairie-view/report-data.json, writes out/prairie-view/report.html)',
+    )
     .action((dir: string, o: { out?: string; json?: boolean; quiet?: boolean; force?: boolean }) => {
       const term = createTerminal({ quiet: o.quiet || o.json });
       let st;
       try {
         st = statSync(dir);
       } catch {
-        throw new UserError(`output folder "${dir}" does not exist. Fix: give the folder \`tilth build --out\` wrote.`, { file: dir });
+        throw new UserError(
+          `output folder "${dir}" does not exist. Fix: give the folder \`tilth build --out\` wrote.`,
+          { file: dir },
+        );
       }
-      if (!st.isDirectory()) throw new UserError(`"${dir}" is a file, not a build's output folder. Fix: give the folder \`tilth build --out\` wrote.`, { file: dir });
+      if (!st.isDirectory())
+        throw new UserError(
+          `"${dir}" is a file, not a build's output folder. Fix: give the folder \`tilth build --out\` wrote.`,
+          { file: dir },
+        );
       const dataPath = join(dir, REPORT_DATA);
       const text = readInput(dataPath, 'report data (written by `tilth build`)').toString('utf8');
       const input = parseReportInput(text, dataPath);
@@ -43,9 +55,23 @@ export function register(program: Command): void {
       task.done();
       const zones = input.zoneSets.reduce((s, z) => s + z.zones.length, 0);
       const maps = (html.match(/<svg class="map"/g) ?? []).length;
-      if (o.json) out(JSON.stringify({ report: resolve(target), bytes: Buffer.byteLength(html), maps, zones, warnings: input.warnings.length }));
+      if (o.json)
+        out(
+          JSON.stringify({
+            report: resolve(target),
+            bytes: Buffer.byteLength(html),
+            maps,
+            zones,
+            warnings: input.warnings.length,
+          }),
+        );
       else {
-        term.summary(`Report written: ${target}`, [['maps', String(maps)], ['zones', String(zones)], ['warnings', String(input.warnings.length)], ['size', `${(Buffer.byteLength(html) / 1024).toFixed(0)} KiB`]]);
+        term.summary(`Report written: ${target}`, [
+          ['maps', String(maps)],
+          ['zones', String(zones)],
+          ['warnings', String(input.warnings.length)],
+          ['size', `${(Buffer.byteLength(html) / 1024).toFixed(0)} KiB`],
+        ]);
         for (const w of input.warnings) term.warn(w.message);
       }
     });

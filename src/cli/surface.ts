@@ -5,7 +5,20 @@ import { readinessProblems } from './safety/readiness.js';
 import type { Command } from 'commander';
 import { prjText } from '../geo/crs.js';
 import { UserError } from '../errors.js';
-import { analyteFromName, ANALYTE_LABEL, chanceBelow, classProbabilities, fieldGrid, formatAsc, gridWarnings, kName, nutrientSurface, SURFACE_METHODS, type NutrientSurface, type SurfaceMethod } from '../surface/index.js';
+import {
+  analyteFromName,
+  ANALYTE_LABEL,
+  chanceBelow,
+  classProbabilities,
+  fieldGrid,
+  formatAsc,
+  gridWarnings,
+  kName,
+  nutrientSurface,
+  SURFACE_METHODS,
+  type NutrientSurface,
+  type SurfaceMethod,
+} from '../surface/index.js';
 import { chanceSpec } from '../variability/chance.js';
 import type { PMethod } from '../types.js';
 import { tablesFromOption } from './plan.js';
@@ -17,24 +30,49 @@ const ASC_OURS = (h: string) => /^\s*ncols\s/i.test(h);
 const PRJ_OURS = (h: string) => /^PROJCS\["WGS_1984_UTM_Zone_\d+[NS]"/.test(h);
 
 export function register(program: Command): void {
-  addInputOptions(program
-    .command('surface'))
-    .description('Map one soil-test nutrient over the field by inverse-distance weighting (power and neighbours chosen by cross-validation unless given) or ordinary kriging, and write an Esri ASCII grid (.asc with .prj) in the field\'s UTM zone.')
-    .requiredOption('--nutrient <name>', 'no3_n (or n, nitrate), p, k, so4_s (or s, sulphate, sulfate), om, ph')
+  addInputOptions(program.command('surface'))
+    .description(
+      "Map one soil-test nutrient over the field by inverse-distance weighting (power and neighbours chosen by cross-validation unless given) or ordinary kriging, and write an Esri ASCII grid (.asc with .prj) in the field's UTM zone.",
+    )
+    .requiredOption(
+      '--nutrient <name>',
+      'no3_n (or n, nitrate), p, k, so4_s (or s, sulphate, sulfate), om, ph',
+    )
     .requiredOption('--out <file.asc>', 'output grid; the .prj is written beside it')
     .option('--cell <metres>', 'cell size in metres', '5')
-    .option('--method <idw|kriging|auto>', 'idw (inverse distance), kriging (ordinary kriging with the semivariogram model fitted as `tilth variability` fits it; refused with the reason when the fit is unusable), or auto (the lowest leave-one-out RMSE of the IDW candidates and kriging)', 'idw')
+    .option(
+      '--method <idw|kriging|auto>',
+      'idw (inverse distance), kriging (ordinary kriging with the semivariogram model fitted as `tilth variability` fits it; refused with the reason when the fit is unusable), or auto (the lowest leave-one-out RMSE of the IDW candidates and kriging)',
+      'idw',
+    )
     .option('--kriging-neighbours <k>', 'nearest samples per cell for kriging', '16')
-    .option('--log', 'krige the natural logarithm of the values (skewed data) and back-transform to the lognormal mean (docs/surface.md)')
-    .option('--chance-maps', 'with kriging, also write beside --out: <name>-variance.asc (kriging variance), and for P and K <name>-response-chance.asc (expected chance of a yield response) and <name>-class-<class>.asc (chance of each response class), for sulphate-S <name>-chance-below-<t>.asc (chance below the crop\'s low level); Gaussian assumption, docs/surface.md')
+    .option(
+      '--log',
+      'krige the natural logarithm of the values (skewed data) and back-transform to the lognormal mean (docs/surface.md)',
+    )
+    .option(
+      '--chance-maps',
+      "with kriging, also write beside --out: <name>-variance.asc (kriging variance), and for P and K <name>-response-chance.asc (expected chance of a yield response) and <name>-class-<class>.asc (chance of each response class), for sulphate-S <name>-chance-below-<t>.asc (chance below the crop's low level); Gaussian assumption, docs/surface.md",
+    )
     .option('--crop <name>', 'crop whose classes and S low level the chance maps use', 'canola')
     .option('--tables <file>', 'your edited tables (see `tilth tables`) for the chance maps')
-    .option('--power <p|auto>', 'IDW distance power, or auto (lowest cross-validation RMSE of 1, 1.5, 2, 3)', 'auto')
-    .option('--neighbours <k|all|auto>', 'nearest samples per cell, all, or auto (lowest RMSE of 8, 12, 16, all)', 'auto')
+    .option(
+      '--power <p|auto>',
+      'IDW distance power, or auto (lowest cross-validation RMSE of 1, 1.5, 2, 3)',
+      'auto',
+    )
+    .option(
+      '--neighbours <k|all|auto>',
+      'nearest samples per cell, all, or auto (lowest RMSE of 8, 12, 16, all)',
+      'auto',
+    )
     .option('--radius <metres>', 'use only samples within this distance (default: no limit)')
     .option('--min-neighbours <n>', 'leave a cell empty when fewer samples are within --radius', '1')
     .option('--decimals <n>', 'decimals written in the grid', '3')
-    .option('--force', 'replace an existing .asc/.prj that tilth cannot recognise as its own grid (never an input file)')
+    .option(
+      '--force',
+      'replace an existing .asc/.prj that tilth cannot recognise as its own grid (never an input file)',
+    )
     .option('--json', 'print the result (choice, cross-validation table, warnings) as JSON on stdout')
     .addHelpText(
       'after',
@@ -52,15 +90,36 @@ export function register(program: Command): void {
       const cell = numberOption('--cell', o.cell, { min: 0.1, max: 1000 })!;
       const power = o.power === 'auto' ? 'auto' : numberOption('--power', o.power, { min: 0.1, max: 10 })!;
       const nb = String(o.neighbours).toLowerCase();
-      const neighbours = nb === 'auto' ? 'auto' : nb === 'all' ? Infinity : numberOption('--neighbours', o.neighbours, { min: 1, max: 100_000, integer: true })!;
+      const neighbours =
+        nb === 'auto'
+          ? 'auto'
+          : nb === 'all'
+            ? Infinity
+            : numberOption('--neighbours', o.neighbours, { min: 1, max: 100_000, integer: true })!;
       const radius = numberOption('--radius', o.radius, { min: 0.01, max: 1e6 });
-      const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, { min: 1, max: 100_000, integer: true });
-      if (typeof neighbours === 'number') checkOrder('--min-neighbours', minNeighbours, '--neighbours', neighbours);
+      const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, {
+        min: 1,
+        max: 100_000,
+        integer: true,
+      });
+      if (typeof neighbours === 'number')
+        checkOrder('--min-neighbours', minNeighbours, '--neighbours', neighbours);
       const method = String(o.method).toLowerCase();
-      if (!SURFACE_METHODS.includes(method as SurfaceMethod)) throw new UserError(`option --method: "${o.method}" is not a method. Fix: give idw, kriging or auto.`, { value: o.method });
-      const kNeighbours = numberOption('--kriging-neighbours', o.krigingNeighbours, { min: 1, integer: true })!;
+      if (!SURFACE_METHODS.includes(method as SurfaceMethod))
+        throw new UserError(
+          `option --method: "${o.method}" is not a method. Fix: give idw, kriging or auto.`,
+          { value: o.method },
+        );
+      const kNeighbours = numberOption('--kriging-neighbours', o.krigingNeighbours, {
+        min: 1,
+        integer: true,
+      })!;
       const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
-      if (!/\.asc$/i.test(o.out)) throw new UserError(`--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`, { file: o.out });
+      if (!/\.asc$/i.test(o.out))
+        throw new UserError(
+          `--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`,
+          { file: o.out },
+        );
       const inputFiles = [o.samples, o.boundary, o.zones].filter((f): f is string => !!f);
       const prjPath = o.out.replace(/\.asc$/i, '.prj');
       const shpBeside = /\.asc$/i.test(o.out) && existsSync(o.out.replace(/\.asc$/i, '.shp'));
@@ -73,40 +132,77 @@ export function register(program: Command): void {
       const problems = readinessProblems(inputs, analyte, o.samples);
       if (problems.length) throw new UserError(`cannot map these inputs:\n  ${problems.join('\n  ')}`);
       if (minNeighbours !== undefined && minNeighbours > inputs.samples.ids.length) {
-        throw new UserError(`option --min-neighbours ${minNeighbours}: the samples file has ${inputs.samples.ids.length} samples, so every cell would be empty. Fix: give --min-neighbours ${Math.min(3, inputs.samples.ids.length)} or leave it out.`);
+        throw new UserError(
+          `option --min-neighbours ${minNeighbours}: the samples file has ${inputs.samples.ids.length} samples, so every cell would be empty. Fix: give --min-neighbours ${Math.min(3, inputs.samples.ids.length)} or leave it out.`,
+        );
       }
       const grid = fieldGrid(inputs.field, cell);
-      const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, { power, neighbours, radius, minNeighbours, method: method as SurfaceMethod, kriging: { neighbours: kNeighbours, log: Boolean(o.log) } });
+      const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, {
+        power,
+        neighbours,
+        radius,
+        minNeighbours,
+        method: method as SurfaceMethod,
+        kriging: { neighbours: kNeighbours, log: Boolean(o.log) },
+      });
       const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
       writeOutputFile(o.out, formatAsc(grid, s.values, { decimals }), { ...fileOpts, ours: ASC_OURS });
       writeOutputFile(prjPath, prjText(inputs.field.utm), { ...fileOpts, ours: prjOurs });
-      const extra = o.chanceMaps ? chanceGrids(s, o, inputs.samples.pMethod, warnings) : new Map<string, ArrayLike<number>>();
+      const extra = o.chanceMaps
+        ? chanceGrids(s, o, inputs.samples.pMethod, warnings)
+        : new Map<string, ArrayLike<number>>();
       for (const [suffix, values] of extra) {
         const file = o.out.replace(/\.asc$/i, `-${suffix}.asc`);
-        writeOutputFile(file, formatAsc(grid, values as Float64Array, { decimals: suffix === 'variance' ? decimals : Math.max(decimals ?? 3, 4) }), { ...fileOpts, ours: ASC_OURS });
+        writeOutputFile(
+          file,
+          formatAsc(grid, values as Float64Array, {
+            decimals: suffix === 'variance' ? decimals : Math.max(decimals ?? 3, 4),
+          }),
+          { ...fileOpts, ours: ASC_OURS },
+        );
         if (!o.json) info(`wrote ${file}`);
       }
       if (o.json) {
-        out(JSON.stringify(summary(s, o.out, inputs.field.utm.epsg, warnings), (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? (Number.isNaN(v) ? null : 'all') : v), 2));
+        out(
+          JSON.stringify(
+            summary(s, o.out, inputs.field.utm.epsg, warnings),
+            (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? (Number.isNaN(v) ? null : 'all') : v),
+            2,
+          ),
+        );
       } else {
         printWarnings(warnings);
         if (s.cv) out(cvText(s));
         info(`${ANALYTE_LABEL[analyte]}: ${s.choice}.`);
-        info(`wrote ${o.out} (${grid.cols} x ${grid.rows} cells of ${cell} m, EPSG:${inputs.field.utm.epsg}) and its .prj; values ${round(s.min)} to ${round(s.max)} from ${s.samplesUsed} samples.`);
+        info(
+          `wrote ${o.out} (${grid.cols} x ${grid.rows} cells of ${cell} m, EPSG:${inputs.field.utm.epsg}) and its .prj; values ${round(s.min)} to ${round(s.max)} from ${s.samplesUsed} samples.`,
+        );
       }
     });
 }
 
 /** The chance grids (and the kriging variance) of a kriged surface, by file suffix; a warning when there is no kriging. */
-function chanceGrids(s: NutrientSurface, o: { crop: string; tables?: string }, pMethod: PMethod, warnings: { code: string; message: string }[]): Map<string, ArrayLike<number>> {
+function chanceGrids(
+  s: NutrientSurface,
+  o: { crop: string; tables?: string },
+  pMethod: PMethod,
+  warnings: { code: string; message: string }[],
+): Map<string, ArrayLike<number>> {
   const grids = new Map<string, ArrayLike<number>>();
   if (!s.krigedMean || !s.variance || !s.kriging) {
-    warnings.push({ code: 'surface.no-chance-maps', message: `${ANALYTE_LABEL[s.analyte]}: no chance maps: they need the kriging variance, and this surface is ${s.method}. Use --method kriging (or auto when kriging wins).` });
+    warnings.push({
+      code: 'surface.no-chance-maps',
+      message: `${ANALYTE_LABEL[s.analyte]}: no chance maps: they need the kriging variance, and this surface is ${s.method}. Use --method kriging (or auto when kriging wins).`,
+    });
     return grids;
   }
   const tables = tablesFromOption(o.tables);
   const crop = tables.crops[o.crop];
-  if (!crop) throw new UserError(`option --crop: "${o.crop}" is not in the tables. Fix: give one of ${Object.keys(tables.crops).join(', ')}.`, { value: o.crop });
+  if (!crop)
+    throw new UserError(
+      `option --crop: "${o.crop}" is not in the tables. Fix: give one of ${Object.keys(tables.crops).join(', ')}.`,
+      { value: o.crop },
+    );
   const cells = { mean: s.krigedMean, variance: s.variance, transform: s.kriging.transform };
   grids.set('variance', s.variance);
   const spec = chanceSpec(s.analyte, crop, tables, pMethod);
@@ -114,7 +210,9 @@ function chanceGrids(s: NutrientSurface, o: { crop: string; tables?: string }, p
   if (spec.kind === 'classes') {
     const r = classProbabilities(cells, spec.classes);
     grids.set('response-chance', r.expected);
-    spec.classes.names.forEach((name, c) => grids.set(`class-${name.replace(/[^A-Za-z0-9]+/g, '-')}`, r.probability[c]));
+    spec.classes.names.forEach((name, c) =>
+      grids.set(`class-${name.replace(/[^A-Za-z0-9]+/g, '-')}`, r.probability[c]),
+    );
   }
   return grids;
 }
@@ -134,8 +232,18 @@ function summary(s: NutrientSurface, file: string, epsg: number, warnings: unkno
     samplesUsed: s.samplesUsed,
     min: s.min,
     max: s.max,
-    crossValidation: s.cv?.table.map((r) => ({ ...r, method: r.method ?? 'idw', chosen: r === s.cv!.best })) ?? null,
-    kriging: s.kriging ? { model: s.kriging.model, refused: s.kriging.refused, transform: s.kriging.transform, neighbours: s.kriging.neighbours, modelText: s.kriging.modelText, modelSource: s.kriging.modelSource } : null,
+    crossValidation:
+      s.cv?.table.map((r) => ({ ...r, method: r.method ?? 'idw', chosen: r === s.cv!.best })) ?? null,
+    kriging: s.kriging
+      ? {
+          model: s.kriging.model,
+          refused: s.kriging.refused,
+          transform: s.kriging.transform,
+          neighbours: s.kriging.neighbours,
+          modelText: s.kriging.modelText,
+          modelSource: s.kriging.modelSource,
+        }
+      : null,
     warnings,
   };
 }
@@ -143,13 +251,21 @@ function summary(s: NutrientSurface, file: string, epsg: number, warnings: unkno
 /** The cross-validation table as aligned text, the chosen row marked with "*" (MSSE for kriging). */
 export function cvText(s: NutrientSurface): string {
   if (!s.cv) return `${ANALYTE_LABEL[s.analyte]}: no cross-validation table (${s.choice}).`;
-  const lines = [`leave-one-out cross-validation, ${ANALYTE_LABEL[s.analyte]} (${s.samplesUsed} samples)`, '  method    power  neighbours        RMSE         MAE        bias     n        MSSE'];
+  const lines = [
+    `leave-one-out cross-validation, ${ANALYTE_LABEL[s.analyte]} (${s.samplesUsed} samples)`,
+    '  method    power  neighbours        RMSE         MAE        bias     n        MSSE',
+  ];
   for (const r of s.cv.table) {
     const mark = r === s.cv.best ? '*' : ' ';
     const krig = r.method === 'kriging';
-    lines.push(`${mark} ${(krig ? 'kriging' : 'idw').padEnd(7)}  ${(krig ? '-' : String(r.power)).padStart(5)}  ${kName(r.neighbours).padStart(10)}  ${f(r.rmse)}  ${f(r.mae)}  ${f(r.bias)}  ${String(r.n).padStart(4)}  ${krig ? f(r.msse ?? NaN) : ''}`.trimEnd());
+    lines.push(
+      `${mark} ${(krig ? 'kriging' : 'idw').padEnd(7)}  ${(krig ? '-' : String(r.power)).padStart(5)}  ${kName(r.neighbours).padStart(10)}  ${f(r.rmse)}  ${f(r.mae)}  ${f(r.bias)}  ${String(r.n).padStart(4)}  ${krig ? f(r.msse ?? NaN) : ''}`.trimEnd(),
+    );
   }
-  if (s.kriging?.model) lines.push(`  kriging model: ${s.kriging.modelText}; ${s.kriging.modelSource}. MSSE = mean(error^2 / kriging variance), near 1 when the variances fit.`);
+  if (s.kriging?.model)
+    lines.push(
+      `  kriging model: ${s.kriging.modelText}; ${s.kriging.modelSource}. MSSE = mean(error^2 / kriging variance), near 1 when the variances fit.`,
+    );
   return lines.join('\n');
 }
 

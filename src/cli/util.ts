@@ -8,7 +8,12 @@ import { terminalSafe } from './safety/stdio.js';
 
 // output writing lives in ./safety/ (never lose a user's files); re-exported for the commands
 export { checkOutputDir, writeOutputDir, type OutputDirOptions } from './safety/outdir.js';
-export { checkOutputFile, writeFileAtomic, writeOutputFile, type OutputFileOptions } from './safety/outfile.js';
+export {
+  checkOutputFile,
+  writeFileAtomic,
+  writeOutputFile,
+  type OutputFileOptions,
+} from './safety/outfile.js';
 
 /** Reads a whole file; a missing or unreadable file is a UserError naming it and the fix. */
 export function readInput(path: string, what: string): Buffer {
@@ -16,13 +21,22 @@ export function readInput(path: string, what: string): Buffer {
   try {
     st = statSync(path);
   } catch {
-    throw new UserError(`${what} file "${path}" does not exist. Fix: check the path (it is relative to ${process.cwd()}).`, { file: path });
+    throw new UserError(
+      `${what} file "${path}" does not exist. Fix: check the path (it is relative to ${process.cwd()}).`,
+      { file: path },
+    );
   }
-  if (st.isDirectory()) throw new UserError(`${what} "${path}" is a folder, not a file. Fix: name the file inside it.`, { file: path });
+  if (st.isDirectory())
+    throw new UserError(`${what} "${path}" is a folder, not a file. Fix: name the file inside it.`, {
+      file: path,
+    });
   try {
     return readFileSync(path);
   } catch (e) {
-    throw new UserError(`${what} file "${path}" cannot be read (${(e as Error).message}). Fix: check its permissions.`, { file: path });
+    throw new UserError(
+      `${what} file "${path}" cannot be read (${(e as Error).message}). Fix: check its permissions.`,
+      { file: path },
+    );
   }
 }
 
@@ -44,12 +58,28 @@ export function info(text: string): void {
 }
 
 /** Parses a number option or throws a UserError naming the option. */
-export function numberOption(name: string, value: string | undefined, opts: { min?: number; max?: number; integer?: boolean } = {}): number | undefined {
+export function numberOption(
+  name: string,
+  value: string | undefined,
+  opts: { min?: number; max?: number; integer?: boolean } = {},
+): number | undefined {
   if (value === undefined) return undefined;
   const v = Number(value);
-  if (!Number.isFinite(v) || (opts.integer && !Number.isInteger(v)) || (opts.min !== undefined && v < opts.min) || (opts.max !== undefined && v > opts.max)) {
-    const range = [opts.min !== undefined ? `>= ${opts.min}` : '', opts.max !== undefined ? `<= ${opts.max}` : ''].filter(Boolean).join(' and ');
-    throw new UserError(`option ${name}: "${value}" is not ${opts.integer ? 'a whole number' : 'a number'}${range ? ' ' + range : ''}. Fix: give e.g. ${name} ${opts.min ?? 1}.`);
+  if (
+    !Number.isFinite(v) ||
+    (opts.integer && !Number.isInteger(v)) ||
+    (opts.min !== undefined && v < opts.min) ||
+    (opts.max !== undefined && v > opts.max)
+  ) {
+    const range = [
+      opts.min !== undefined ? `>= ${opts.min}` : '',
+      opts.max !== undefined ? `<= ${opts.max}` : '',
+    ]
+      .filter(Boolean)
+      .join(' and ');
+    throw new UserError(
+      `option ${name}: "${value}" is not ${opts.integer ? 'a whole number' : 'a number'}${range ? ' ' + range : ''}. Fix: give e.g. ${name} ${opts.min ?? 1}.`,
+    );
   }
   return v;
 }

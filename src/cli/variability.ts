@@ -3,26 +3,55 @@ import type { Command } from 'commander';
 import { UserError } from '../errors.js';
 import type { Analyte, FieldInputs } from '../types.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
-import { CAUTION, checkOutputDir, info, numberOption, out, printWarnings, readInput, writeOutputDir } from './util.js';
+import {
+  CAUTION,
+  checkOutputDir,
+  info,
+  numberOption,
+  out,
+  printWarnings,
+  readInput,
+  writeOutputDir,
+} from './util.js';
 import { tablesFromOption } from './plan.js';
 import { checkBoundaryVertices, checkLags } from './safety/budgets.js';
 import { readinessProblems } from './safety/readiness.js';
 import { parsePlan } from '../agronomy/index.js';
 import { fieldGrid, gridWarnings, nutrientSurface } from '../surface/index.js';
-import { analyzeVariability, sampleMapSvg, semivariogramSvg, variabilityText, type FitMethod, type Threshold } from '../variability/index.js';
+import {
+  analyzeVariability,
+  sampleMapSvg,
+  semivariogramSvg,
+  variabilityText,
+  type FitMethod,
+  type Threshold,
+} from '../variability/index.js';
 
 const NUTRIENTS: Record<string, Analyte> = {
-  s: 'so4_s', so4_s: 'so4_s', sulphur: 'so4_s', sulfur: 'so4_s', sulphate: 'so4_s', sulfate: 'so4_s',
-  n: 'no3_n', no3_n: 'no3_n', nitrate: 'no3_n',
-  p: 'p', phosphorus: 'p',
-  k: 'k', potassium: 'k',
-  om: 'om', ph: 'ph',
+  s: 'so4_s',
+  so4_s: 'so4_s',
+  sulphur: 'so4_s',
+  sulfur: 'so4_s',
+  sulphate: 'so4_s',
+  sulfate: 'so4_s',
+  n: 'no3_n',
+  no3_n: 'no3_n',
+  nitrate: 'no3_n',
+  p: 'p',
+  phosphorus: 'p',
+  k: 'k',
+  potassium: 'k',
+  om: 'om',
+  ph: 'ph',
 };
 
 /** Parses --nutrient: S, N, P, K, OM, pH (or tilth's analyte names). */
 export function parseNutrient(v: string): Analyte {
   const a = NUTRIENTS[v.trim().toLowerCase()];
-  if (!a) throw new UserError(`option --nutrient: "${v}" is not a nutrient tilth knows. Fix: give one of S, N, P, K, OM, pH.`);
+  if (!a)
+    throw new UserError(
+      `option --nutrient: "${v}" is not a nutrient tilth knows. Fix: give one of S, N, P, K, OM, pH.`,
+    );
   return a;
 }
 
@@ -32,24 +61,50 @@ function toJson(v: unknown): string {
 }
 
 export function register(program: Command): void {
-  addInputOptions(program
-    .command('variability'))
-    .description('Within-field variability of one nutrient (sulphate-S by default): statistics, semivariogram and fitted models, spatial dependence, sampling advice, low spots.')
+  addInputOptions(program.command('variability'))
+    .description(
+      'Within-field variability of one nutrient (sulphate-S by default): statistics, semivariogram and fitted models, spatial dependence, sampling advice, low spots.',
+    )
     .option('--nutrient <name>', 'S, N, P, K, OM or pH', 'S')
-    .option('--plan <file>', 'plan file (see `tilth plan init`): its crop and S strategy set the S threshold and floor from the tables (default: canola)')
+    .option(
+      '--plan <file>',
+      'plan file (see `tilth plan init`): its crop and S strategy set the S threshold and floor from the tables (default: canola)',
+    )
     .option('--tables <file>', 'your edited tables (see `tilth tables`)')
-    .option('--threshold <value>', 'low means below this, in the nutrient\'s unit (default: S the crop\'s s_low_below_lb from the tables, 20 lb S/ac for canola; P at or below 10 ppm Olsen / 17 ppm Kelowna; K the crop\'s k_critical_ppm, 125 for every crop; none for N, OM, pH)')
-    .option('--s-floor <lb/ac>', 'sulphate-S the plan applies regardless of the test, lb S/ac (default: the crop\'s s_floor_lb from the tables, 10 for canola, common practice; 0 when the plan\'s S strategy is none)')
-    .option('--cell <metres>', 'cell size of the interpolated surface (IDW, power and neighbours by cross-validation, as `tilth surface`) used for the share of area below the threshold and the map', '10')
+    .option(
+      '--threshold <value>',
+      "low means below this, in the nutrient's unit (default: S the crop's s_low_below_lb from the tables, 20 lb S/ac for canola; P at or below 10 ppm Olsen / 17 ppm Kelowna; K the crop's k_critical_ppm, 125 for every crop; none for N, OM, pH)",
+    )
+    .option(
+      '--s-floor <lb/ac>',
+      "sulphate-S the plan applies regardless of the test, lb S/ac (default: the crop's s_floor_lb from the tables, 10 for canola, common practice; 0 when the plan's S strategy is none)",
+    )
+    .option(
+      '--cell <metres>',
+      'cell size of the interpolated surface (IDW, power and neighbours by cross-validation, as `tilth surface`) used for the share of area below the threshold and the map',
+      '10',
+    )
     .option('--no-surface', 'skip the interpolated surface (samples only)')
-    .option('--fit-method <n>', 'model fit weights: 7 = N_j/h_j^2 (default, as gstat), 2 = N_j/gamma(h_j)^2 (Cressie)', '7')
+    .option(
+      '--fit-method <n>',
+      'model fit weights: 7 = N_j/h_j^2 (default, as gstat), 2 = N_j/gamma(h_j)^2 (Cressie)',
+      '7',
+    )
     .option('--log', 'semivariogram of the natural logarithm of the values (for strongly skewed data)')
-    .option('--cutoff <m>', 'largest pair distance, metres (default a third of the samples\' bounding-box diagonal)')
+    .option(
+      '--cutoff <m>',
+      "largest pair distance, metres (default a third of the samples' bounding-box diagonal)",
+    )
     .option('--width <m>', 'lag width, metres (default cutoff / 15)')
-    .option('--out <dir>', 'write a folder with the charts (<nutrient>-semivariogram.svg, <nutrient>-map.svg) and variability.json')
+    .option(
+      '--out <dir>',
+      'write a folder with the charts (<nutrient>-semivariogram.svg, <nutrient>-map.svg) and variability.json',
+    )
     .option('--force', 'replace an earlier tilth --out folder (never one holding other files)')
     .option('--json', 'print JSON for scripts')
-    .addHelpText('after', `
+    .addHelpText(
+      'after',
+      `
 Example:
   tilth variability --samples sample-fields/quarter/samples.geojson --boundary sample-fields/quarter/boundary.geojson --nutrient S --out s-charts
   tilth variability --samples sample-fields/quarter/samples.csv --boundary sample-fields/quarter/boundary.geojson --nutrient P --json
@@ -58,7 +113,8 @@ Defaults, all editable: threshold as above (sources in docs/variability.md); S f
 a lag with fewer than 30 pairs is flagged (common practice); sampling is judged against half the effective range
 (common practice). Dependence classes: Cambardella et al. 1994.
 
-${CAUTION}`)
+${CAUTION}`,
+    )
     .action(async (o) => {
       const nutrient = parseNutrient(o.nutrient);
       const tables = tablesFromOption(o.tables);
@@ -67,8 +123,18 @@ ${CAUTION}`)
       const crop = tables.crops[cropName];
       const from = `${o.tables ? o.tables : 'default tables'}, ${cropName}${plan ? ` (plan ${o.plan})` : ' (no --plan: canola assumed)'}`;
       let threshold: number | Threshold | undefined = numberOption('--threshold', o.threshold);
-      if (threshold === undefined && crop && nutrient === 'so4_s') threshold = { value: crop.s_low_below_lb.value, unit: 'lb S/ac 0-24 in', source: `${from}: ${crop.s_low_below_lb.source}` };
-      if (threshold === undefined && crop && nutrient === 'k') threshold = { value: crop.k_critical_ppm.value, unit: 'ppm K 0-6 in', source: `${from}: ${crop.k_critical_ppm.source}` };
+      if (threshold === undefined && crop && nutrient === 'so4_s')
+        threshold = {
+          value: crop.s_low_below_lb.value,
+          unit: 'lb S/ac 0-24 in',
+          source: `${from}: ${crop.s_low_below_lb.source}`,
+        };
+      if (threshold === undefined && crop && nutrient === 'k')
+        threshold = {
+          value: crop.k_critical_ppm.value,
+          unit: 'ppm K 0-6 in',
+          source: `${from}: ${crop.k_critical_ppm.source}`,
+        };
       let sFloor = numberOption('--s-floor', o.sFloor, { min: 0 });
       let sFloorSource = sFloor === undefined ? undefined : '--s-floor';
       if (sFloor === undefined && crop) {
@@ -77,34 +143,73 @@ ${CAUTION}`)
         sFloorSource = none ? `plan ${o.plan}: S strategy none` : `${from}: ${crop.s_floor_lb.source}`;
       }
       const method = numberOption('--fit-method', o.fitMethod, { integer: true });
-      if (method !== 7 && method !== 2) throw new UserError(`option --fit-method: "${o.fitMethod}" is not supported. Fix: give 7 (N_j/h_j^2) or 2 (Cressie).`);
+      if (method !== 7 && method !== 2)
+        throw new UserError(
+          `option --fit-method: "${o.fitMethod}" is not supported. Fix: give 7 (N_j/h_j^2) or 2 (Cressie).`,
+        );
       const cutoff = numberOption('--cutoff', o.cutoff, { min: 0, max: 1e6 });
       const width = numberOption('--width', o.width, { min: 0, max: 1e6 });
-      if (cutoff === 0 || width === 0) throw new UserError('options --cutoff and --width must be above 0. Fix: give a distance in metres, e.g. --cutoff 400.');
+      if (cutoff === 0 || width === 0)
+        throw new UserError(
+          'options --cutoff and --width must be above 0. Fix: give a distance in metres, e.g. --cutoff 400.',
+        );
       const inputFiles = [o.samples, o.boundary, o.zones, o.plan, o.tables].filter((f): f is string => !!f);
       if (o.out) checkOutputDir(o.out, { force: Boolean(o.force), inputs: inputFiles });
       const cell = numberOption('--cell', o.cell, { min: 0.5, max: 1000 })!;
       const inputs = await loadInputs(inputOptionsFrom(o));
       refuseUnfit(inputs, nutrient, o.samples, o.boundary, cutoff, width);
-      let surf: { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string; label: string } | undefined;
+      let surf:
+        { grid: ReturnType<typeof fieldGrid>; values: Float64Array; note: string; label: string } | undefined;
       const surfaceWarnings = [];
       if (o.surface !== false) {
         const grid = fieldGrid(inputs.field, cell);
         const s = nutrientSurface(inputs.samples, nutrient, grid, inputs.zones);
-        surf = { grid, values: s.values, note: `${cell} m cells; ${s.choice}`, label: s.method === 'zones' ? 'zone sample value' : 'interpolated (IDW)' };
+        surf = {
+          grid,
+          values: s.values,
+          note: `${cell} m cells; ${s.choice}`,
+          label: s.method === 'zones' ? 'zone sample value' : 'interpolated (IDW)',
+        };
         surfaceWarnings.push(...gridWarnings(grid, inputs.field.name), ...s.warnings);
       }
-      const report = analyzeVariability(inputs.samples, inputs.field, {
-        nutrient, threshold, sFloor, sFloorSource, transform: o.log ? 'log' : 'none', cutoff, width, fit: { method: method as FitMethod },
-      }, surf ? { values: surf.values, fraction: surf.grid.fraction, cell: surf.grid.cell, note: surf.note } : undefined);
+      const report = analyzeVariability(
+        inputs.samples,
+        inputs.field,
+        {
+          nutrient,
+          threshold,
+          sFloor,
+          sFloorSource,
+          transform: o.log ? 'log' : 'none',
+          cutoff,
+          width,
+          fit: { method: method as FitMethod },
+        },
+        surf
+          ? { values: surf.values, fraction: surf.grid.fraction, cell: surf.grid.cell, note: surf.note }
+          : undefined,
+      );
       report.warnings.push(...surfaceWarnings);
       const warnings = [...inputs.warnings, ...report.warnings];
       if (o.out) {
         const stem = nutrient;
-        const sv = semivariogramSvg({ semivariogram: report.semivariogram, fits: report.fits, best: report.best, label: report.label, unit: report.unit, transform: report.transform });
+        const sv = semivariogramSvg({
+          semivariogram: report.semivariogram,
+          fits: report.fits,
+          best: report.best,
+          label: report.label,
+          unit: report.unit,
+          transform: report.transform,
+        });
         const map = sampleMapSvg({
-          parts: inputs.field.parts, xy: inputs.samples.xy, values: inputs.samples.values[nutrient], ids: inputs.samples.ids,
-          label: report.label, unit: report.unit, threshold: report.threshold?.value ?? null, thresholdInclusive: report.threshold?.inclusive,
+          parts: inputs.field.parts,
+          xy: inputs.samples.xy,
+          values: inputs.samples.values[nutrient],
+          ids: inputs.samples.ids,
+          label: report.label,
+          unit: report.unit,
+          threshold: report.threshold?.value ?? null,
+          thresholdInclusive: report.threshold?.inclusive,
           surface: surf ? { grid: surf.grid, values: surf.values, label: surf.label } : undefined,
         });
         const files = new Map<string, string>([
@@ -126,9 +231,17 @@ ${CAUTION}`)
 }
 
 /** Refuses, before the work, inputs no variability can be judged from, and lag or pair counts over the budget. */
-function refuseUnfit(inputs: FieldInputs, nutrient: Analyte, samplesFile: string, boundaryFile: string, cutoff?: number, width?: number): void {
+function refuseUnfit(
+  inputs: FieldInputs,
+  nutrient: Analyte,
+  samplesFile: string,
+  boundaryFile: string,
+  cutoff?: number,
+  width?: number,
+): void {
   checkBoundaryVertices(inputs.field, boundaryFile);
   const problems = readinessProblems(inputs, nutrient, samplesFile);
-  if (problems.length) throw new UserError(`cannot judge the variability of these inputs:\n  ${problems.join('\n  ')}`);
+  if (problems.length)
+    throw new UserError(`cannot judge the variability of these inputs:\n  ${problems.join('\n  ')}`);
   checkLags(inputs.samples.xy, cutoff, width);
 }

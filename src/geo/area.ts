@@ -10,7 +10,8 @@ export function ringArea(ring: ArrayLike<number>): number {
   const n = ring.length >> 1;
   if (n < 3) return 0;
   // shift to the first vertex to keep precision with large UTM coordinates
-  const ox = ring[0], oy = ring[1];
+  const ox = ring[0],
+    oy = ring[1];
   let s = 0;
   for (let i = 0; i < n; i++) {
     const j = (i + 1) % n;
@@ -26,8 +27,10 @@ export function ringArea(ring: ArrayLike<number>): number {
 export function ringPerimeter(ring: ArrayLike<number>): number {
   const n = ring.length >> 1;
   let l = 0;
-  for (let i = 1; i < n; i++) l += Math.hypot(ring[2 * i] - ring[2 * i - 2], ring[2 * i + 1] - ring[2 * i - 1]);
-  if (n > 2 && (ring[0] !== ring[2 * n - 2] || ring[1] !== ring[2 * n - 1])) l += Math.hypot(ring[0] - ring[2 * n - 2], ring[1] - ring[2 * n - 1]);
+  for (let i = 1; i < n; i++)
+    l += Math.hypot(ring[2 * i] - ring[2 * i - 2], ring[2 * i + 1] - ring[2 * i - 1]);
+  if (n > 2 && (ring[0] !== ring[2 * n - 2] || ring[1] !== ring[2 * n - 1]))
+    l += Math.hypot(ring[0] - ring[2 * n - 2], ring[1] - ring[2 * n - 1]);
   return l;
 }
 
@@ -47,7 +50,10 @@ export function partsArea(parts: RingsPart[]): number {
 
 /** Bounding box of flat rings (x0 y0 x1 y1 ...): [xmin, ymin, xmax, ymax]. */
 export function ringsBbox(rings: Iterable<ArrayLike<number>>): [number, number, number, number] {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
   for (const r of rings) {
     for (let i = 0; i + 1 < r.length; i += 2) {
       if (r[i] < x0) x0 = r[i];
@@ -72,7 +78,10 @@ export function pointInRing(r: ArrayLike<number>, x: number, y: number): boolean
   let inside = false;
   const n = r.length >> 1;
   for (let i = 0, j = n - 1; i < n; j = i++) {
-    const xi = r[2 * i], yi = r[2 * i + 1], xj = r[2 * j], yj = r[2 * j + 1];
+    const xi = r[2 * i],
+      yi = r[2 * i + 1],
+      xj = r[2 * j],
+      yj = r[2 * j + 1];
     if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
   }
   return inside;

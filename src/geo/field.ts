@@ -15,11 +15,19 @@ import { orient, partsArea, partsBbox } from './area.js';
  * @example const f = projectField(mp, 'Home quarter'); f.areaM2 / 4046.86 // acres
  */
 export function projectField(lonlat: number[][][][], name = 'field'): Field & { projector: Projector } {
-  let lx0 = Infinity, lx1 = -Infinity, ly0 = Infinity, ly1 = -Infinity;
-  for (const poly of lonlat) for (const [x, y] of poly[0]) {
-    lx0 = Math.min(lx0, x); lx1 = Math.max(lx1, x); ly0 = Math.min(ly0, y); ly1 = Math.max(ly1, y);
-  }
-  const clon = (lx0 + lx1) / 2, clat = (ly0 + ly1) / 2;
+  let lx0 = Infinity,
+    lx1 = -Infinity,
+    ly0 = Infinity,
+    ly1 = -Infinity;
+  for (const poly of lonlat)
+    for (const [x, y] of poly[0]) {
+      lx0 = Math.min(lx0, x);
+      lx1 = Math.max(lx1, x);
+      ly0 = Math.min(ly0, y);
+      ly1 = Math.max(ly1, y);
+    }
+  const clon = (lx0 + lx1) / 2,
+    clat = (ly0 + ly1) / 2;
   const utm = utmZoneFor(clon, clat);
   const p = projector(utm);
   const parts: RingsPart[] = lonlat.map((poly) => {

@@ -10,12 +10,20 @@ import { ringArea } from './area.js';
  * @example groundAreaM2([[[[-106,52],[-105.99,52],[-105.99,52.01],[-106,52]]]]) // ~381 996
  */
 export function groundAreaM2(polys: number[][][][], p?: Projector): number {
-  let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
-  for (const poly of polys) for (const [x, y] of poly[0] ?? []) {
-    x0 = Math.min(x0, x); x1 = Math.max(x1, x); y0 = Math.min(y0, y); y1 = Math.max(y1, y);
-  }
+  let x0 = Infinity,
+    x1 = -Infinity,
+    y0 = Infinity,
+    y1 = -Infinity;
+  for (const poly of polys)
+    for (const [x, y] of poly[0] ?? []) {
+      x0 = Math.min(x0, x);
+      x1 = Math.max(x1, x);
+      y0 = Math.min(y0, y);
+      y1 = Math.max(y1, y);
+    }
   if (!Number.isFinite(x0)) return 0;
-  const cx = (x0 + x1) / 2, cy = (y0 + y1) / 2;
+  const cx = (x0 + x1) / 2,
+    cy = (y0 + y1) / 2;
   const proj = p ?? projector(utmZoneFor(cx, cy));
   let a = 0;
   for (const poly of polys) {

@@ -25,24 +25,27 @@ export function rasterizeLonLat(shapes: number[][][][][], f: LonLatFrame): Int32
   const out = new Int32Array(f.cols * f.rows).fill(-1);
   shapes.forEach((polys, si) => {
     const crossings = new Map<number, number[]>();
-    for (const poly of polys) for (const ring of poly) {
-      for (let i = 0; i + 1 < ring.length; i++) {
-        const [x1, y1] = ring[i], [x2, y2] = ring[i + 1];
-        if (y1 === y2) continue;
-        const lo = Math.min(y1, y2), hi = Math.max(y1, y2);
-        // rows whose centre latitude c satisfies lo <= c < hi
-        const r0 = Math.max(0, Math.ceil((lo - f.south) / f.cellNorth - 0.5));
-        const r1 = Math.min(f.rows - 1, Math.ceil((hi - f.south) / f.cellNorth - 0.5) - 1);
-        for (let r = r0; r <= r1; r++) {
-          const c = f.south + (r + 0.5) * f.cellNorth;
-          if (c < lo || c >= hi) continue;
-          const x = x1 + ((c - y1) * (x2 - x1)) / (y2 - y1);
-          let list = crossings.get(r);
-          if (!list) crossings.set(r, (list = []));
-          list.push(x);
+    for (const poly of polys)
+      for (const ring of poly) {
+        for (let i = 0; i + 1 < ring.length; i++) {
+          const [x1, y1] = ring[i],
+            [x2, y2] = ring[i + 1];
+          if (y1 === y2) continue;
+          const lo = Math.min(y1, y2),
+            hi = Math.max(y1, y2);
+          // rows whose centre latitude c satisfies lo <= c < hi
+          const r0 = Math.max(0, Math.ceil((lo - f.south) / f.cellNorth - 0.5));
+          const r1 = Math.min(f.rows - 1, Math.ceil((hi - f.south) / f.cellNorth - 0.5) - 1);
+          for (let r = r0; r <= r1; r++) {
+            const c = f.south + (r + 0.5) * f.cellNorth;
+            if (c < lo || c >= hi) continue;
+            const x = x1 + ((c - y1) * (x2 - x1)) / (y2 - y1);
+            let list = crossings.get(r);
+            if (!list) crossings.set(r, (list = []));
+            list.push(x);
+          }
         }
       }
-    }
     for (const [r, xs] of crossings) {
       xs.sort((a, b) => a - b);
       for (let k = 0; k + 1 < xs.length; k += 2) {

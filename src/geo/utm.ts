@@ -36,7 +36,8 @@ export interface Projector {
  */
 export function projector(utm: UtmZone): Projector {
   const conv = proj4('EPSG:4326', utm.proj4);
-  const toMetres = (lon: number, lat: number): [number, number] => conv.forward([lon, lat]) as [number, number];
+  const toMetres = (lon: number, lat: number): [number, number] =>
+    conv.forward([lon, lat]) as [number, number];
   const toLonLat = (x: number, y: number): [number, number] => conv.inverse([x, y]) as [number, number];
   const map = (a: ArrayLike<number>, f: (u: number, v: number) => [number, number]) => {
     const out = new Float64Array(a.length);
@@ -56,7 +57,9 @@ export function projector(utm: UtmZone): Projector {
   };
 }
 
-const A = 6378137, F = 1 / 298.257223563, E2 = F * (2 - F);
+const A = 6378137,
+  F = 1 / 298.257223563,
+  E2 = F * (2 - F);
 
 /**
  * Areal scale factor of the projection at a point (k^2 for a conformal projection such as UTM),

@@ -5,7 +5,17 @@
  */
 import { UserError } from '../errors.js';
 import type { PMethod } from '../types.js';
-import { classifyHeader, headerPieces, parseUnit, ROLES, SOIL_VALUES, UNIT_LABEL, type Role, type SoilValue, type ValueUnit } from './headers.js';
+import {
+  classifyHeader,
+  headerPieces,
+  parseUnit,
+  ROLES,
+  SOIL_VALUES,
+  UNIT_LABEL,
+  type Role,
+  type SoilValue,
+  type ValueUnit,
+} from './headers.js';
 
 export { classifyHeader, parseUnit, ROLES, SOIL_VALUES, UNIT_LABEL };
 export type { Role, SoilValue, ValueUnit };
@@ -50,19 +60,24 @@ export function parseDepthText(raw: unknown, unit: 'in' | 'cm' | null | undefine
   const s = String(raw).trim().toLowerCase();
   const m = /^(\d+(?:\.\d+)?)\s*(?:-|to|–)\s*(\d+(?:\.\d+)?)\s*("|''|in\.?|inch|inches|cm)?$/.exec(s);
   if (!m) return null;
-  const a = Number(m[1]), b = Number(m[2]);
+  const a = Number(m[1]),
+    b = Number(m[2]);
   if (!(b > a)) return null;
-  const u = m[3] === 'cm' ? 'cm' : m[3] ? 'in' : unit ?? null;
+  const u = m[3] === 'cm' ? 'cm' : m[3] ? 'in' : (unit ?? null);
   return u === 'cm' ? [a / 2.5, b / 2.5] : [a, b];
 }
 
 /** Splits a --columns text at commas outside double quotes. */
 function splitMap(spec: string): string[] {
   const parts: string[] = [];
-  let cur = '', q = false;
+  let cur = '',
+    q = false;
   for (const c of spec) {
     if (c === '"') q = !q;
-    else if (c === ',' && !q) { parts.push(cur); cur = ''; } else cur += c;
+    else if (c === ',' && !q) {
+      parts.push(cur);
+      cur = '';
+    } else cur += c;
   }
   parts.push(cur);
   return parts.filter((p) => p.trim() !== '');
@@ -93,25 +108,39 @@ export function parseColumnMap(spec: string | undefined): ColumnMap {
     const at = name.lastIndexOf('@');
     if (at > 0) {
       depth = parseDepthText(name.slice(at + 1).replace(/\s+/g, ' '), 'in');
-      if (!depth) throw new UserError(`option --columns: "${part.trim()}": "${name.slice(at + 1)}" is not a depth. Fix: write it as @0-6 (inches) or @0-15cm.`);
+      if (!depth)
+        throw new UserError(
+          `option --columns: "${part.trim()}": "${name.slice(at + 1)}" is not a depth. Fix: write it as @0-6 (inches) or @0-15cm.`,
+        );
       name = name.slice(0, at).trim();
     }
     let unit: ValueUnit | null = null;
     const colon = name.lastIndexOf(':');
     if (colon > 0) {
       const u = parseUnit(name.slice(colon + 1));
-      if (u) { unit = u; name = name.slice(0, colon).trim(); }
+      if (u) {
+        unit = u;
+        name = name.slice(0, colon).trim();
+      }
     }
     name = name.replace(/^"(.*)"$/, '$1');
-    if (!name) throw new UserError(`option --columns: "${part.trim()}" names no column. Fix: write ${key}=COLUMN NAME.`);
-    if (UNIQUE.includes(key) && out.some((e) => e.role === key)) throw new UserError(`option --columns: "${key}" is given twice. Fix: map ${key} to one column.`);
+    if (!name)
+      throw new UserError(
+        `option --columns: "${part.trim()}" names no column. Fix: write ${key}=COLUMN NAME.`,
+      );
+    if (UNIQUE.includes(key) && out.some((e) => e.role === key))
+      throw new UserError(`option --columns: "${key}" is given twice. Fix: map ${key} to one column.`);
     out.push({ role: key, name, unit, depth });
   }
   return out;
 }
 
 /** Header depth in inches: a stated unit, else the file's depth unit, else by the layer bounds prairie labs use. */
-function headerDepthInches(d: [number, number], unit: 'in' | 'cm' | null, fileUnit: 'in' | 'cm' | null): { depth: [number, number]; note: string } {
+function headerDepthInches(
+  d: [number, number],
+  unit: 'in' | 'cm' | null,
+  fileUnit: 'in' | 'cm' | null,
+): { depth: [number, number]; note: string } {
   let u = unit ?? fileUnit;
   let note = '';
   if (!u) {
@@ -128,14 +157,22 @@ function headerDepthInches(d: [number, number], unit: 'in' | 'cm' | null, fileUn
  * @throws UserError when a mapped column is missing or a role is claimed by two columns where it must be unique
  * @example planColumns(['Sample','Latitude','Longitude','P Olsen (ppm)'], [], 'samples.csv')
  */
-export function planColumns(columns: string[], map: ColumnMap, file: string, notes?: (string | null)[]): ColumnInfo[] {
+export function planColumns(
+  columns: string[],
+  map: ColumnMap,
+  file: string,
+  notes?: (string | null)[],
+): ColumnInfo[] {
   const plan: ColumnInfo[] = [];
   const mapped = new Set<string>();
   const text = (i: number) => (notes?.[i] ? `${columns[i]} ${notes[i]}` : columns[i]);
   const how = (i: number) => (notes?.[i] ? 'header + second row' : 'header');
   const fileUnit = columns.some((c, i) => headerPieces(text(i)).depthUnit === 'cm') ? 'cm' : null;
   for (const e of map) {
-    const i = columns.findIndex((c) => c === e.name) >= 0 ? columns.findIndex((c) => c === e.name) : columns.findIndex((c) => c.trim().toLowerCase() === e.name.toLowerCase());
+    const i =
+      columns.findIndex((c) => c === e.name) >= 0
+        ? columns.findIndex((c) => c === e.name)
+        : columns.findIndex((c) => c.trim().toLowerCase() === e.name.toLowerCase());
     if (i < 0) {
       throw new UserError(
         `${file}: option --columns maps ${e.role} to "${e.name}", but there is no such column. Fix: use one of: ${columns.map((c) => `"${c}"`).join(', ')}.`,
@@ -147,9 +184,10 @@ export function planColumns(columns: string[], map: ColumnMap, file: string, not
     const hd = p.depth && !e.depth ? headerDepthInches(p.depth, p.depthUnit, fileUnit) : null;
     mapped.add(name);
     plan.push({
-      name, role: e.role,
+      name,
+      role: e.role,
       unit: e.unit ?? (e.role === 'ph' ? null : p.unit),
-      depth: e.role === 'depth' ? null : e.depth ?? hd?.depth ?? null,
+      depth: e.role === 'depth' ? null : (e.depth ?? hd?.depth ?? null),
       pMethod: e.role === 'p' ? (classifyHeader(text(i))?.pMethod ?? p.pMethod) : null,
       method: p.methods.length ? p.methods.join(', ') : null,
       depthUnit: e.role === 'depth' ? p.depthUnit : undefined,
@@ -162,8 +200,14 @@ export function planColumns(columns: string[], map: ColumnMap, file: string, not
     if (!info || map.some((e) => e.role === info.role)) return;
     const hd = info.depth ? headerDepthInches(info.depth, info.depthUnit, fileUnit) : null;
     plan.push({
-      name: c, role: info.role, unit: info.unit, depth: hd?.depth ?? null, pMethod: info.pMethod, method: info.method,
-      depthUnit: info.role === 'depth' ? info.depthUnit : undefined, how: how(i) + (hd?.note ?? ''),
+      name: c,
+      role: info.role,
+      unit: info.unit,
+      depth: hd?.depth ?? null,
+      pMethod: info.pMethod,
+      method: info.method,
+      depthUnit: info.role === 'depth' ? info.depthUnit : undefined,
+      how: how(i) + (hd?.note ?? ''),
     });
   });
   return resolveDuplicates(plan, file);
@@ -171,7 +215,10 @@ export function planColumns(columns: string[], map: ColumnMap, file: string, not
 
 /** Preferred unit when a lab prints one value in two units (first preferred). */
 const PREFERRED: Partial<Record<Role, (ValueUnit | null)[]>> = {
-  no3_n: ['lbac', 'kgha', 'ppm', null], so4_s: ['lbac', 'kgha', 'ppm', null], p: ['ppm', null, 'lbac', 'kgha'], k: ['ppm', null, 'meq100g', 'lbac', 'kgha'],
+  no3_n: ['lbac', 'kgha', 'ppm', null],
+  so4_s: ['lbac', 'kgha', 'ppm', null],
+  p: ['ppm', null, 'lbac', 'kgha'],
+  k: ['ppm', null, 'meq100g', 'lbac', 'kgha'],
 };
 
 /**
@@ -220,9 +267,12 @@ function resolveDuplicates(plan: ColumnInfo[], file: string): ColumnInfo[] {
 }
 
 function why(c: ColumnInfo, plan: ColumnInfo[]): string {
-  const kept = plan.find((p) => p !== c && p.role === c.role && (p.depth?.join('-') ?? '') === (c.depth?.join('-') ?? ''));
+  const kept = plan.find(
+    (p) => p !== c && p.role === c.role && (p.depth?.join('-') ?? '') === (c.depth?.join('-') ?? ''),
+  );
   if (c.role === 'ph') return `tilth uses pH in water ("${kept?.name}")`;
-  if (c.role === 'p' && !c.pMethod) return `tilth's P tables are for Olsen or modified Kelowna ("${kept?.name}")`;
+  if (c.role === 'p' && !c.pMethod)
+    return `tilth's P tables are for Olsen or modified Kelowna ("${kept?.name}")`;
   return `the same value in ${c.unit ? UNIT_LABEL[c.unit] : 'no stated unit'}; "${kept?.name}" is used`;
 }
 

@@ -16,8 +16,22 @@ export interface TableCrs {
 
 /** NAD83(CSRS) UTM zones by EPSG code (EPSG registry; checked against GDAL in tests/io/crs.tool.test.ts). */
 const CSRS: Record<number, number> = {
-  3154: 7, 3155: 8, 3156: 9, 3157: 10, 2955: 11, 2956: 12, 2957: 13, 3158: 14, 3159: 15, 3160: 16,
-  2958: 17, 2959: 18, 2960: 19, 2961: 20, 2962: 21, 3761: 22,
+  3154: 7,
+  3155: 8,
+  3156: 9,
+  3157: 10,
+  2955: 11,
+  2956: 12,
+  2957: 13,
+  3158: 14,
+  3159: 15,
+  3160: 16,
+  2958: 17,
+  2959: 18,
+  2960: 19,
+  2961: 20,
+  2962: 21,
+  3761: 22,
 };
 
 const utm = utmProj4;
@@ -31,10 +45,18 @@ export function parseCrs(text: string): TableCrs {
   const m = /^\s*(?:epsg\s*:\s*)?(\d{4,5})\s*$/i.exec(text);
   const n = m ? Number(m[1]) : NaN;
   const code = `EPSG:${n}`;
-  if (n === 4326 || n === 4269 || n === 4617) return { code, label: `${n === 4326 ? 'WGS 84' : n === 4269 ? 'NAD83' : 'NAD83(CSRS)'} degrees`, proj4: null };
-  if (n >= 32601 && n <= 32660) return { code, label: `WGS 84 / UTM zone ${n - 32600}N`, proj4: utm(n - 32600, false) };
-  if (n >= 32701 && n <= 32760) return { code, label: `WGS 84 / UTM zone ${n - 32700}S`, proj4: utm(n - 32700, true) };
-  if (n >= 26901 && n <= 26923) return { code, label: `NAD83 / UTM zone ${n - 26900}N`, proj4: utm(n - 26900, false) };
+  if (n === 4326 || n === 4269 || n === 4617)
+    return {
+      code,
+      label: `${n === 4326 ? 'WGS 84' : n === 4269 ? 'NAD83' : 'NAD83(CSRS)'} degrees`,
+      proj4: null,
+    };
+  if (n >= 32601 && n <= 32660)
+    return { code, label: `WGS 84 / UTM zone ${n - 32600}N`, proj4: utm(n - 32600, false) };
+  if (n >= 32701 && n <= 32760)
+    return { code, label: `WGS 84 / UTM zone ${n - 32700}S`, proj4: utm(n - 32700, true) };
+  if (n >= 26901 && n <= 26923)
+    return { code, label: `NAD83 / UTM zone ${n - 26900}N`, proj4: utm(n - 26900, false) };
   if (CSRS[n]) return { code, label: `NAD83(CSRS) / UTM zone ${CSRS[n]}N`, proj4: utm(CSRS[n], false) };
   throw new UserError(
     `option --crs: "${text}" is not a coordinate system tilth reads for coordinate columns. ` +

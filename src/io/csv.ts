@@ -10,18 +10,26 @@ import { readTable, type TableOptions } from './table.js';
 
 /** The delimiter that splits the first lines most evenly into more than one cell (comma, semicolon, tab). */
 function sniffDelimiter(t: string): string {
-  const lines = t.slice(0, 8000).split(/\r?\n/).filter((l) => l.trim() !== '').slice(0, 30);
+  const lines = t
+    .slice(0, 8000)
+    .split(/\r?\n/)
+    .filter((l) => l.trim() !== '')
+    .slice(0, 30);
   // semicolons with every comma between digits: decimal commas, whatever the counts say
   const head = lines.join('\n');
   if (head.includes(';') && !head.replace(/\d,\d/g, '').includes(',')) return ';';
-  let best = ',', bestScore = -1;
+  let best = ',',
+    bestScore = -1;
   for (const d of [',', ';', '\t']) {
     const counts = lines.map((l) => l.split(d).length - 1);
     const max = Math.max(0, ...counts);
     // the count that most lines share (a table's width), weighted by how many share it
     const mode = counts.filter((c) => c === max).length;
     const score = max > 0 ? mode * 1000 + max : -1;
-    if (score > bestScore) { best = d; bestScore = score; }
+    if (score > bestScore) {
+      best = d;
+      bestScore = score;
+    }
   }
   return best;
 }
@@ -45,7 +53,10 @@ export function parseCsv(text: string): { rows: string[][]; lines: number[]; del
     const c = t[i];
     if (q) {
       if (c === '"') {
-        if (t[i + 1] === '"') { cell += '"'; i++; } else q = false;
+        if (t[i + 1] === '"') {
+          cell += '"';
+          i++;
+        } else q = false;
       } else {
         if (c === '\n') line++;
         cell += c;
@@ -54,14 +65,24 @@ export function parseCsv(text: string): { rows: string[][]; lines: number[]; del
       q = true;
       cell = '';
     } else if (c === delim) {
-      row.push(cell); cell = '';
+      row.push(cell);
+      cell = '';
     } else if (c === '\n' || c === '\r') {
       if (c === '\r' && t[i + 1] === '\n') i++;
-      row.push(cell); rows.push(row); lines.push(rowLine);
-      row = []; cell = ''; line++; rowLine = line;
+      row.push(cell);
+      rows.push(row);
+      lines.push(rowLine);
+      row = [];
+      cell = '';
+      line++;
+      rowLine = line;
     } else cell += c;
   }
-  if (cell !== '' || row.length) { row.push(cell); rows.push(row); lines.push(rowLine); }
+  if (cell !== '' || row.length) {
+    row.push(cell);
+    rows.push(row);
+    lines.push(rowLine);
+  }
   return { rows, lines, delimiter: delim };
 }
 
@@ -74,8 +95,16 @@ const decimalComma = (c: string) => (/^\s*[<>]?=?\s*[-+]?\d+,\d+\s*$/.test(c) ? 
  * @param opts --crs for easting / northing columns
  * @example readCsvRecords(text, 'samples.csv', []).records.length
  */
-export function readCsvRecords(text: string, file: string, map: ColumnMap, opts: TableOptions = {}): RawTable {
-  if (text.replace(/^\uFEFF/, '').trim() === '') throw new UserError(`${file} is empty. Fix: export the lab results again; the file has no content.`, { file });
+export function readCsvRecords(
+  text: string,
+  file: string,
+  map: ColumnMap,
+  opts: TableOptions = {},
+): RawTable {
+  if (text.replace(/^\uFEFF/, '').trim() === '')
+    throw new UserError(`${file} is empty. Fix: export the lab results again; the file has no content.`, {
+      file,
+    });
   const { rows, lines, delimiter } = parseCsv(text);
   const cells = delimiter === ',' ? rows : rows.map((r) => r.map(decimalComma));
   return readTable(cells, lines, file, map, opts);

@@ -15,7 +15,8 @@ type Json = Record<string, unknown>;
  */
 export function parseGeoJson(text: string, file: string): Json {
   const t = text.replace(/^\uFEFF/, '');
-  if (t.trim() === '') throw new UserError(`${file} is empty. Fix: export the layer again; the file has no content.`, { file });
+  if (t.trim() === '')
+    throw new UserError(`${file} is empty. Fix: export the layer again; the file has no content.`, { file });
   let v: unknown;
   try {
     v = JSON.parse(t);
@@ -23,7 +24,8 @@ export function parseGeoJson(text: string, file: string): Json {
     const m = /position (\d+)/.exec((e as Error).message);
     const pos = m ? Number(m[1]) : t.length;
     const line = t.slice(0, pos).split('\n').length;
-    const end = pos >= t.trimEnd().length - 1 || /end of (JSON )?input|Unterminated/i.test((e as Error).message);
+    const end =
+      pos >= t.trimEnd().length - 1 || /end of (JSON )?input|Unterminated/i.test((e as Error).message);
     throw new UserError(
       `${file} is not valid JSON (${end ? 'it ends too early: the file looks cut off' : `error near line ${line}`}: ${(e as Error).message}). ` +
         'Fix: export the layer again as GeoJSON, or check that the whole file was copied.',
@@ -31,7 +33,10 @@ export function parseGeoJson(text: string, file: string): Json {
     );
   }
   if (typeof v !== 'object' || v === null || Array.isArray(v) || typeof (v as Json).type !== 'string') {
-    throw new UserError(`${file} is JSON but not GeoJSON (no "type" member at the top). Fix: give a GeoJSON FeatureCollection, Feature or geometry.`, { file });
+    throw new UserError(
+      `${file} is JSON but not GeoJSON (no "type" member at the top). Fix: give a GeoJSON FeatureCollection, Feature or geometry.`,
+      { file },
+    );
   }
   return v as Json;
 }
@@ -50,18 +55,39 @@ function requireWgs84(obj: Json, file: string): void {
 }
 
 /** The features of a GeoJSON object, each with its 1-based index for messages. */
-function features(obj: Json, file: string): { where: string; props: Record<string, RawValue>; geometry: Json | null }[] {
+function features(
+  obj: Json,
+  file: string,
+): { where: string; props: Record<string, RawValue>; geometry: Json | null }[] {
   const type = obj.type as string;
   if (type === 'FeatureCollection') {
-    if (!Array.isArray(obj.features)) throw new UserError(`${file}: the FeatureCollection has no "features" array. Fix: export the layer again.`, { file });
+    if (!Array.isArray(obj.features))
+      throw new UserError(
+        `${file}: the FeatureCollection has no "features" array. Fix: export the layer again.`,
+        { file },
+      );
     return (obj.features as Json[]).map((f, i) => {
       if (typeof f !== 'object' || f === null || f.type !== 'Feature') {
-        throw new UserError(`${file} feature ${i + 1} is not a GeoJSON Feature. Fix: export the layer again.`, { file, where: `feature ${i + 1}` });
+        throw new UserError(
+          `${file} feature ${i + 1} is not a GeoJSON Feature. Fix: export the layer again.`,
+          { file, where: `feature ${i + 1}` },
+        );
       }
-      return { where: `feature ${i + 1}`, props: cleanProps(f.properties), geometry: (f.geometry ?? null) as Json | null };
+      return {
+        where: `feature ${i + 1}`,
+        props: cleanProps(f.properties),
+        geometry: (f.geometry ?? null) as Json | null,
+      };
     });
   }
-  if (type === 'Feature') return [{ where: 'feature 1', props: cleanProps(obj.properties), geometry: (obj.geometry ?? null) as Json | null }];
+  if (type === 'Feature')
+    return [
+      {
+        where: 'feature 1',
+        props: cleanProps(obj.properties),
+        geometry: (obj.geometry ?? null) as Json | null,
+      },
+    ];
   return [{ where: 'geometry', props: {}, geometry: obj }];
 }
 
@@ -69,7 +95,12 @@ function cleanProps(p: unknown): Record<string, RawValue> {
   const out: Record<string, RawValue> = {};
   if (typeof p !== 'object' || p === null) return out;
   for (const [k, v] of Object.entries(p)) {
-    out[k] = v === undefined || v === null ? null : typeof v === 'number' || typeof v === 'string' || typeof v === 'boolean' ? v : JSON.stringify(v);
+    out[k] =
+      v === undefined || v === null
+        ? null
+        : typeof v === 'number' || typeof v === 'string' || typeof v === 'boolean'
+          ? v
+          : JSON.stringify(v);
   }
   return out;
 }
@@ -101,19 +132,28 @@ export function readGeoJsonPoints(text: string, file: string): RawTable {
   }
   const polygons: number[][][][][] = [];
   const records: RawRecord[] = fs.map((f) => {
-    for (const k of Object.keys(f.props)) if (!seen.has(k)) { seen.add(k); columns.push(k); }
+    for (const k of Object.keys(f.props))
+      if (!seen.has(k)) {
+        seen.add(k);
+        columns.push(k);
+      }
     const g = f.geometry;
     let c: unknown = null;
     if (polys) {
       const mp = polygonsOf(g, file, f.where, 'sample zone');
       polygons.push(mp);
       try {
-        c = pointOnFeature({ type: 'Feature', properties: {}, geometry: { type: 'MultiPolygon', coordinates: mp } }).geometry.coordinates;
+        c = pointOnFeature({
+          type: 'Feature',
+          properties: {},
+          geometry: { type: 'MultiPolygon', coordinates: mp },
+        }).geometry.coordinates;
       } catch {
         c = mp[0]?.[0]?.[0] ?? null;
       }
     } else if (g && g.type === 'Point') c = g.coordinates;
-    else if (g && g.type === 'MultiPoint' && Array.isArray(g.coordinates) && g.coordinates.length === 1) c = g.coordinates[0];
+    else if (g && g.type === 'MultiPoint' && Array.isArray(g.coordinates) && g.coordinates.length === 1)
+      c = g.coordinates[0];
     else {
       throw new UserError(
         `${file} ${f.where}: a soil sample must be a Point (or a zone Polygon for a composite), not ${g ? String(g.type) : 'a feature without geometry'}. ` +
@@ -121,7 +161,11 @@ export function readGeoJsonPoints(text: string, file: string): RawTable {
         { file, where: f.where },
       );
     }
-    if (!isPos(c)) throw new UserError(`${file} ${f.where}: the sample has no valid [longitude, latitude] coordinates. Fix: export the layer again.`, { file, where: f.where });
+    if (!isPos(c))
+      throw new UserError(
+        `${file} ${f.where}: the sample has no valid [longitude, latitude] coordinates. Fix: export the layer again.`,
+        { file, where: f.where },
+      );
     return { where: f.where, lon: c[0], lat: c[1], props: f.props };
   });
   return polys ? { file, columns, records, polygons } : { file, columns, records };
@@ -140,13 +184,19 @@ export function readGeoJsonPolygons(text: string, file: string, what = 'boundary
     const coords = polygonsOf(f.geometry, file, f.where, what);
     out.features.push({ where: f.where, props: f.props, coordinates: coords });
   }
-  if (out.features.length === 0) throw new UserError(`${file} holds no features. Fix: give the ${what} as a Polygon or MultiPolygon.`, { file });
+  if (out.features.length === 0)
+    throw new UserError(`${file} holds no features. Fix: give the ${what} as a Polygon or MultiPolygon.`, {
+      file,
+    });
   return out;
 }
 
 function polygonsOf(g: Json | null, file: string, where: string, what: string): number[][][][] {
   const bad = (why: string) =>
-    new UserError(`${file} ${where}: ${why}. Fix: give the ${what} as a Polygon or MultiPolygon (rings of [longitude, latitude]).`, { file, where });
+    new UserError(
+      `${file} ${where}: ${why}. Fix: give the ${what} as a Polygon or MultiPolygon (rings of [longitude, latitude]).`,
+      { file, where },
+    );
   if (!g) throw bad('the feature has no geometry');
   const ringsOk = (poly: unknown): poly is number[][][] =>
     Array.isArray(poly) && poly.length > 0 && poly.every((r) => Array.isArray(r) && r.every(isPos));
@@ -155,7 +205,8 @@ function polygonsOf(g: Json | null, file: string, where: string, what: string): 
     return [g.coordinates.map((r) => r.map((p) => [p[0], p[1]]))];
   }
   if (g.type === 'MultiPolygon') {
-    if (!Array.isArray(g.coordinates) || !g.coordinates.every(ringsOk)) throw bad('the MultiPolygon coordinates are not polygons of rings');
+    if (!Array.isArray(g.coordinates) || !g.coordinates.every(ringsOk))
+      throw bad('the MultiPolygon coordinates are not polygons of rings');
     return (g.coordinates as number[][][][]).map((poly) => poly.map((r) => r.map((p) => [p[0], p[1]])));
   }
   if (g.type === 'GeometryCollection' && Array.isArray(g.geometries)) {

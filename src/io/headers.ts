@@ -14,14 +14,33 @@ export const SOIL_VALUES: readonly SoilValue[] = ['no3_n', 'p', 'k', 'so4_s', 'o
  * What a column holds. `latlon` is "50.49, -102.01" in one column; `x` / `y` are easting / northing (or
  * longitude / latitude when the values are degrees and no --crs is given).
  */
-export type Role = 'id' | 'lat' | 'lon' | 'latlon' | 'x' | 'y' | 'depth' | 'zone' | 'texture' | 'pmethod' | SoilValue;
-export const ROLES: readonly Role[] = ['id', 'lat', 'lon', 'latlon', 'x', 'y', 'depth', 'zone', 'texture', 'pmethod', ...SOIL_VALUES];
+export type Role =
+  'id' | 'lat' | 'lon' | 'latlon' | 'x' | 'y' | 'depth' | 'zone' | 'texture' | 'pmethod' | SoilValue;
+export const ROLES: readonly Role[] = [
+  'id',
+  'lat',
+  'lon',
+  'latlon',
+  'x',
+  'y',
+  'depth',
+  'zone',
+  'texture',
+  'pmethod',
+  ...SOIL_VALUES,
+];
 
 /** Units a value column may state. */
 export type ValueUnit = 'ppm' | 'lbac' | 'kgha' | 'pct' | 'dsm' | 'uscm' | 'meq100g';
 /** How a unit is written for people. */
 export const UNIT_LABEL: Record<ValueUnit, string> = {
-  ppm: 'ppm', lbac: 'lb/ac', kgha: 'kg/ha', pct: '%', dsm: 'dS/m', uscm: 'µS/cm', meq100g: 'meq/100g',
+  ppm: 'ppm',
+  lbac: 'lb/ac',
+  kgha: 'kg/ha',
+  pct: '%',
+  dsm: 'dS/m',
+  uscm: 'µS/cm',
+  meq100g: 'meq/100g',
 };
 
 /** What one header says. */
@@ -53,7 +72,10 @@ const UNITS: [RegExp, ValueUnit][] = [
  * @example parseUnit('lbs/A') // 'lbac'
  */
 export function parseUnit(s: string): ValueUnit | null {
-  const t = ` ${s.trim().toLowerCase().replace(/^\(|\)$/g, '')} `;
+  const t = ` ${s
+    .trim()
+    .toLowerCase()
+    .replace(/^\(|\)$/g, '')} `;
   for (const [re, unit] of UNITS) {
     const rest = t.replace(re, ' ').trim();
     if (rest === '' && re.test(t)) return unit;
@@ -76,19 +98,74 @@ const METHODS: [RegExp, string, PMethod | null][] = [
 
 /** Chemical formulas and spellings made into one word each (so their digits are not read as depths). */
 const WORDS: [RegExp, string][] = [
-  [/\bo\.\s*m\.?|\bo\/m\b/g, ' om '], [/\be\.\s*c\.?/g, ' ec '],
+  [/\bo\.\s*m\.?|\bo\/m\b/g, ' om '],
+  [/\be\.\s*c\.?/g, ' ec '],
   [/\bno3\s*-?\s*n\b|\bno3\b|\bnitrate\s*-?\s*n\b|\bnitrate\s+nitrogen\b/g, ' nitrate '],
   [/\bso4\s*-?\s*s\b|\bso4\b|\bsul(?:ph|f)ate\s*-?\s*s\b|\bsul(?:ph|f)ate\s+sul(?:ph|f)ur\b/g, ' sulphate '],
-  [/\bnh4\s*-?\s*n\b|\bnh4\b(?!\s*-?\s*o?ac)/g, ' ammonium '], [/\bpo4\s*-?\s*p\b/g, ' p '],
-  [/\bcaco3\b/g, ' carbonate '], [/\bp2o5\b/g, ' oxide '], [/\bk2o\b/g, ' oxide '], [/\bh2o\b/g, ' water '],
+  [/\bnh4\s*-?\s*n\b|\bnh4\b(?!\s*-?\s*o?ac)/g, ' ammonium '],
+  [/\bpo4\s*-?\s*p\b/g, ' p '],
+  [/\bcaco3\b/g, ' carbonate '],
+  [/\bp2o5\b/g, ' oxide '],
+  [/\bk2o\b/g, ' oxide '],
+  [/\bh2o\b/g, ' water '],
   [/\bsoil\s+water\b/g, ' water '],
 ];
 
 /** Words that make a column something tilth does not read (recommendations, ratings, other tests). */
-const IGNORE = new Set(['rec', 'recs', 'recommend', 'recommended', 'recommendation', 'applied', 'apply', 'target', 'buffer', 'smp',
-  'saturation', 'sat', 'requirement', 'oxide', 'ammonium', 'total', 'carbon', 'cec', 'rating', 'date', 'lab', 'grower', 'farm',
-  'client', 'customer', 'crop', 'report', 'invoice', 'order', 'field', 'comment', 'comments', 'notes', 'note', 'ca', 'mg', 'na', 'cu',
-  'zn', 'fe', 'mn', 'b', 'cl', 'chloride', 'boron', 'copper', 'zinc', 'iron', 'manganese', 'calcium', 'magnesium', 'sodium']);
+const IGNORE = new Set([
+  'rec',
+  'recs',
+  'recommend',
+  'recommended',
+  'recommendation',
+  'applied',
+  'apply',
+  'target',
+  'buffer',
+  'smp',
+  'saturation',
+  'sat',
+  'requirement',
+  'oxide',
+  'ammonium',
+  'total',
+  'carbon',
+  'cec',
+  'rating',
+  'date',
+  'lab',
+  'grower',
+  'farm',
+  'client',
+  'customer',
+  'crop',
+  'report',
+  'invoice',
+  'order',
+  'field',
+  'comment',
+  'comments',
+  'notes',
+  'note',
+  'ca',
+  'mg',
+  'na',
+  'cu',
+  'zn',
+  'fe',
+  'mn',
+  'b',
+  'cl',
+  'chloride',
+  'boron',
+  'copper',
+  'zinc',
+  'iron',
+  'manganese',
+  'calcium',
+  'magnesium',
+  'sodium',
+]);
 
 /** Takes every match of `re` out of `s`; returns the text left and the matches. */
 function take(s: string, re: RegExp): [string, RegExpMatchArray[]] {
@@ -101,7 +178,11 @@ function take(s: string, re: RegExp): [string, RegExpMatchArray[]] {
  * @example headerPieces('NO3 0-15 cm ppm').depth // [0, 15]
  */
 export function headerPieces(header: string) {
-  let s = ` ${header.toLowerCase().replace(/[_\s]+/g, ' ').replace(/[″“”]/g, '"').replace(/µ/g, 'u')} `;
+  let s = ` ${header
+    .toLowerCase()
+    .replace(/[_\s]+/g, ' ')
+    .replace(/[″“”]/g, '"')
+    .replace(/µ/g, 'u')} `;
   s = s.replace(/\b(no3|so4)(?=lbs?\b|ppm\b|kg)/g, '$1 ');
   for (const [re, w] of WORDS) s = s.replace(re, w);
   let unit: ValueUnit | null = null;
@@ -122,9 +203,15 @@ export function headerPieces(header: string) {
     if (pm && !pMethod) pMethod = pm;
   }
   const cacl = methods.includes('CaCl2');
-  for (const m of ratio.reverse()) methods.unshift(`1:${m[1]} ${cacl || (m[2] && /^cacl/.test(m[2])) ? 'CaCl2' : m[2] === 'paste' ? 'paste' : 'water'}`);
+  for (const m of ratio.reverse())
+    methods.unshift(
+      `1:${m[1]} ${cacl || (m[2] && /^cacl/.test(m[2])) ? 'CaCl2' : m[2] === 'paste' ? 'paste' : 'water'}`,
+    );
   if (ratio.length && cacl) methods.splice(methods.indexOf('CaCl2'), 1);
-  const [r2, d] = take(s, /(\d+(?:\.\d+)?)\s*(?:-|–|to|\s)\s*(\d+(?:\.\d+)?)\s*("|''|\bin\b\.?|\binch(?:es)?\b|\bcm\b)?/g);
+  const [r2, d] = take(
+    s,
+    /(\d+(?:\.\d+)?)\s*(?:-|–|to|\s)\s*(\d+(?:\.\d+)?)\s*("|''|\bin\b\.?|\binch(?:es)?\b|\bcm\b)?/g,
+  );
   s = r2;
   let depth: [number, number] | null = null;
   let depthUnit: 'in' | 'cm' | null = null;
@@ -134,14 +221,42 @@ export function headerPieces(header: string) {
   }
   const words = s.split(/[^a-z0-9#]+/).filter(Boolean);
   if (!depthUnit && words.includes('cm')) depthUnit = 'cm';
-  if (!depthUnit && (words.includes('in') || words.includes('inches') || words.includes('inch') || /"/.test(s))) depthUnit = 'in';
-  return { unit, methods, pMethod, depth, depthUnit, words: words.filter((w) => !['in', 'inch', 'inches', 'cm', 'm'].includes(w)) };
+  if (
+    !depthUnit &&
+    (words.includes('in') || words.includes('inches') || words.includes('inch') || /"/.test(s))
+  )
+    depthUnit = 'in';
+  return {
+    unit,
+    methods,
+    pMethod,
+    depth,
+    depthUnit,
+    words: words.filter((w) => !['in', 'inch', 'inches', 'cm', 'm'].includes(w)),
+  };
 }
 
 /** The role the name words give; null when the column is not one tilth reads. */
 function roleOf(w: string[], methods: string[], pMethod: PMethod | null): Role | null {
   const has = (...x: string[]) => x.some((v) => w.includes(v));
-  const alone = (...x: string[]) => has(...x) && w.every((v) => x.includes(v) || ['avail', 'available', 'extractable', 'exch', 'exchangeable', 'soil', 'test', 'level', 'value', 'result'].includes(v));
+  const alone = (...x: string[]) =>
+    has(...x) &&
+    w.every(
+      (v) =>
+        x.includes(v) ||
+        [
+          'avail',
+          'available',
+          'extractable',
+          'exch',
+          'exchangeable',
+          'soil',
+          'test',
+          'level',
+          'value',
+          'result',
+        ].includes(v),
+    );
   if (has('method') && (has('p', 'phosphorus') || w.length === 1)) return 'pmethod';
   if (has('depth', 'layer', 'horizon')) return has('field', 'date') ? null : 'depth';
   if (has('lat', 'latitude') && has('lon', 'long', 'longitude', 'lng')) return 'latlon';
@@ -150,7 +265,8 @@ function roleOf(w: string[], methods: string[], pMethod: PMethod | null): Role |
   if (has('lon', 'long', 'longitude', 'lng')) return 'lon';
   if (has('easting') || (has('utm') && has('e', 'east', 'x')) || alone('x')) return 'x';
   if (has('northing') || (has('utm') && has('n', 'north', 'y')) || alone('y')) return 'y';
-  if (has('carbonate', 'carbonates', 'lime', 'cce') && !has('requirement', 'rec', 'recommended', 'applied')) return 'carbonate';
+  if (has('carbonate', 'carbonates', 'lime', 'cce') && !has('requirement', 'rec', 'recommended', 'applied'))
+    return 'carbonate';
   if (w.some((v) => IGNORE.has(v))) return null;
   if (has('zone')) return 'zone';
   if (has('texture', 'textural')) return 'texture';
@@ -160,7 +276,11 @@ function roleOf(w: string[], methods: string[], pMethod: PMethod | null): Role |
   if (has('ph')) return 'ph';
   if (has('om', 'loi', 'orgmatter') || (has('organic', 'org') && !has('c'))) return 'om';
   if (methods.includes('LOI')) return 'om';
-  if (alone('p', 'phosphorus', 'phos', 'phosphate') || (w.length === 0 && (pMethod || methods.includes('Bray') || methods.includes('Mehlich-3')))) return 'p';
+  if (
+    alone('p', 'phosphorus', 'phos', 'phosphate') ||
+    (w.length === 0 && (pMethod || methods.includes('Bray') || methods.includes('Mehlich-3')))
+  )
+    return 'p';
   if (alone('k', 'potassium', 'pot')) return 'k';
   if (has('sample', 'id', 'site', 'point', 'plot', 'sampleid', '#') && !has('type', 'size')) return 'id';
   return null;
@@ -179,7 +299,8 @@ export function classifyHeader(name: string): HeaderReading | null {
   const soil = (SOIL_VALUES as readonly string[]).includes(role);
   if (p.words.includes('loi') && !p.methods.includes('LOI')) p.methods.push('LOI');
   const method = p.methods.length ? p.methods.join(', ') : null;
-  if (role === 'depth') return { role, unit: null, depth: null, depthUnit: p.depthUnit, method: null, pMethod: null };
+  if (role === 'depth')
+    return { role, unit: null, depth: null, depthUnit: p.depthUnit, method: null, pMethod: null };
   return {
     role,
     unit: soil && role !== 'ph' ? p.unit : null,
@@ -199,5 +320,8 @@ export function isHeaderNote(cell: string): boolean {
   if (c === '') return true;
   if (/^[<>]?\s*[-+]?\d+([.,]\d+)?$/.test(c)) return false;
   const p = headerPieces(c);
-  return p.words.every((w) => w === 'units' || w === 'unit') && (p.unit !== null || p.methods.length > 0 || p.depth !== null || p.depthUnit !== null);
+  return (
+    p.words.every((w) => w === 'units' || w === 'unit') &&
+    (p.unit !== null || p.methods.length > 0 || p.depth !== null || p.depthUnit !== null)
+  );
 }

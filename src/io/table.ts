@@ -19,28 +19,40 @@ export interface TableOptions {
   crs?: string;
 }
 
-const text = (c: Cell | undefined): string => (c === null || c === undefined ? '' : c instanceof Date ? isoDate(c) : String(c)).trim();
-const isoDate = (d: Date) => (d.getUTCHours() || d.getUTCMinutes() ? d.toISOString().slice(0, 16).replace('T', ' ') : d.toISOString().slice(0, 10));
+const text = (c: Cell | undefined): string =>
+  (c === null || c === undefined ? '' : c instanceof Date ? isoDate(c) : String(c)).trim();
+const isoDate = (d: Date) =>
+  d.getUTCHours() || d.getUTCMinutes()
+    ? d.toISOString().slice(0, 16).replace('T', ' ')
+    : d.toISOString().slice(0, 10);
 
 /** Position columns a header row must have (by the map or by recognised names). */
 function positionRoles(cells: string[], map: ColumnMap): Role[] {
-  return cells.map((c) => {
-    for (const e of map) if (e.name.toLowerCase() === c.toLowerCase()) return e.role;
-    return c ? classifyHeader(c)?.role ?? null : null;
-  }).filter((r): r is Role => r !== null);
+  return cells
+    .map((c) => {
+      for (const e of map) if (e.name.toLowerCase() === c.toLowerCase()) return e.role;
+      return c ? (classifyHeader(c)?.role ?? null) : null;
+    })
+    .filter((r): r is Role => r !== null);
 }
 
 const hasPosition = (roles: Role[]) =>
-  (roles.includes('lat') && roles.includes('lon')) || roles.includes('latlon') || (roles.includes('x') && roles.includes('y'));
+  (roles.includes('lat') && roles.includes('lon')) ||
+  roles.includes('latlon') ||
+  (roles.includes('x') && roles.includes('y'));
 
 /** Index of the header row (first of the first 50 that names a position), or -1. */
 function findHeader(rows: Cell[][], map: ColumnMap): number {
-  for (let i = 0; i < Math.min(rows.length, 50); i++) if (hasPosition(positionRoles(rows[i].map(text), map))) return i;
+  for (let i = 0; i < Math.min(rows.length, 50); i++)
+    if (hasPosition(positionRoles(rows[i].map(text), map))) return i;
   return -1;
 }
 
 /** Column names (blank ones inherit a spanning header from the left when a second row names them) and second-row notes. */
-function headerNames(head: string[], second: string[] | null): { columns: string[]; notes: (string | null)[] } {
+function headerNames(
+  head: string[],
+  second: string[] | null,
+): { columns: string[]; notes: (string | null)[] } {
   const seen = new Map<string, number>();
   const notes: (string | null)[] = [];
   let left = '';
@@ -59,33 +71,66 @@ function headerNames(head: string[], second: string[] | null): { columns: string
 }
 
 const NUM = /^[-+]?(\d+(\.\d*)?|\.\d+)([eE][-+]?\d+)?$/;
-const num = (v: RawValue): number => (typeof v === 'number' ? v : typeof v === 'string' && NUM.test(v.trim()) ? Number(v) : NaN);
+const num = (v: RawValue): number =>
+  typeof v === 'number' ? v : typeof v === 'string' && NUM.test(v.trim()) ? Number(v) : NaN;
 
-type Locate = (p: Record<string, RawValue>) => { lon: number; lat: number; bad: string | null; empty: boolean };
+type Locate = (p: Record<string, RawValue>) => {
+  lon: number;
+  lat: number;
+  bad: string | null;
+  empty: boolean;
+};
 
 /** How a row's position is read from its cells. */
-function locator(columns: string[], roleOf: (c: string) => Role | null, file: string, opts: TableOptions): { locate: Locate; how: string } {
+function locator(
+  columns: string[],
+  roleOf: (c: string) => Role | null,
+  file: string,
+  opts: TableOptions,
+): { locate: Locate; how: string } {
   const col = (r: Role) => columns.find((c) => roleOf(c) === r);
-  const lat = col('lat'), lon = col('lon'), ll = col('latlon'), x = col('x'), y = col('y');
+  const lat = col('lat'),
+    lon = col('lon'),
+    ll = col('latlon'),
+    x = col('x'),
+    y = col('y');
   const empty = (p: Record<string, RawValue>, cs: string[]) => cs.every((c) => p[c] === null);
-  if (lat && lon) return { how: `degrees from "${lat}" and "${lon}"`, locate: (p) => ({ lat: num(p[lat]), lon: num(p[lon]), bad: Number.isFinite(num(p[lat])) ? lon : lat, empty: empty(p, [lat, lon]) }) };
+  if (lat && lon)
+    return {
+      how: `degrees from "${lat}" and "${lon}"`,
+      locate: (p) => ({
+        lat: num(p[lat]),
+        lon: num(p[lon]),
+        bad: Number.isFinite(num(p[lat])) ? lon : lat,
+        empty: empty(p, [lat, lon]),
+      }),
+    };
   if (ll) {
-    const lonFirst = /lon|lng/i.test(ll) && ll.toLowerCase().search(/lon|lng/) < ll.toLowerCase().search(/lat/);
+    const lonFirst =
+      /lon|lng/i.test(ll) && ll.toLowerCase().search(/lon|lng/) < ll.toLowerCase().search(/lat/);
     return {
       how: `degrees from "${ll}" (${lonFirst ? 'longitude, latitude' : 'latitude, longitude'})`,
       locate: (p) => {
-        const m = /^\s*\(?\s*([-+]?\d+(?:\.\d+)?)\s*[,; ]\s*([-+]?\d+(?:\.\d+)?)\s*\)?\s*$/.exec(String(p[ll] ?? ''));
-        const a = m ? Number(m[1]) : NaN, b = m ? Number(m[2]) : NaN;
-        return lonFirst ? { lon: a, lat: b, bad: ll, empty: empty(p, [ll]) } : { lat: a, lon: b, bad: ll, empty: empty(p, [ll]) };
+        const m = /^\s*\(?\s*([-+]?\d+(?:\.\d+)?)\s*[,; ]\s*([-+]?\d+(?:\.\d+)?)\s*\)?\s*$/.exec(
+          String(p[ll] ?? ''),
+        );
+        const a = m ? Number(m[1]) : NaN,
+          b = m ? Number(m[2]) : NaN;
+        return lonFirst
+          ? { lon: a, lat: b, bad: ll, empty: empty(p, [ll]) }
+          : { lat: a, lon: b, bad: ll, empty: empty(p, [ll]) };
       },
     };
   }
   const crs = opts.crs ? parseCrs(opts.crs) : null;
   const conv = crs?.proj4 ? proj4(crs.proj4, 'EPSG:4326') : null;
   return {
-    how: crs ? `"${x}" / "${y}" in ${crs.label} (${crs.code})${conv ? ', reprojected to WGS 84' : ''}` : `"${x}" / "${y}" as longitude / latitude degrees`,
+    how: crs
+      ? `"${x}" / "${y}" in ${crs.label} (${crs.code})${conv ? ', reprojected to WGS 84' : ''}`
+      : `"${x}" / "${y}" as longitude / latitude degrees`,
     locate: (p) => {
-      const e = num(p[x!]), n = num(p[y!]);
+      const e = num(p[x!]),
+        n = num(p[y!]);
       const bad = Number.isFinite(e) ? y! : x!;
       if (!conv) {
         if (!crs && Number.isFinite(e) && Number.isFinite(n) && (Math.abs(e) > 180 || Math.abs(n) > 90)) {
@@ -97,7 +142,8 @@ function locator(columns: string[], roleOf: (c: string) => Role | null, file: st
         }
         return { lon: e, lat: n, bad, empty: empty(p, [x!, y!]) };
       }
-      if (!Number.isFinite(e) || !Number.isFinite(n)) return { lon: NaN, lat: NaN, bad, empty: empty(p, [x!, y!]) };
+      if (!Number.isFinite(e) || !Number.isFinite(n))
+        return { lon: NaN, lat: NaN, bad, empty: empty(p, [x!, y!]) };
       const [lo, la] = conv.forward([e, n]);
       return { lon: lo, lat: la, bad, empty: false };
     },
@@ -110,7 +156,13 @@ function locator(columns: string[], roleOf: (c: string) => Role | null, file: st
  * @param map the user's column map (parseColumnMap), may be empty
  * @example readTable([['Sample','Lat','Long'],['A','52.3','-106.4']], [1, 2], 't.csv', []).records[0].lat // 52.3
  */
-export function readTable(rows: Cell[][], rowNumbers: number[], file: string, map: ColumnMap, opts: TableOptions = {}): RawTable {
+export function readTable(
+  rows: Cell[][],
+  rowNumbers: number[],
+  file: string,
+  map: ColumnMap,
+  opts: TableOptions = {},
+): RawTable {
   const h = findHeader(rows, map);
   if (h < 0) throw noHeader(rows, file, map);
   const head = rows[h].map(text);
@@ -122,7 +174,7 @@ export function readTable(rows: Cell[][], rowNumbers: number[], file: string, ma
     if (!roles.has(c)) {
       const i = columns.indexOf(c);
       const e = map.find((m) => m.name.toLowerCase() === c.toLowerCase());
-      roles.set(c, e ? e.role : classifyHeader(notes[i] ? `${c} ${notes[i]}` : c)?.role ?? null);
+      roles.set(c, e ? e.role : (classifyHeader(notes[i] ? `${c} ${notes[i]}` : c)?.role ?? null));
     }
     return roles.get(c)!;
   };
@@ -137,32 +189,50 @@ export function readTable(rows: Cell[][], rowNumbers: number[], file: string, ma
     const r = rows[i];
     const where = `row ${rowNumbers[i]}`;
     if (r.every((c) => text(c) === '')) continue;
-    if (r.map(text).join('\u0000') === head.join('\u0000')) { skipped.push({ where, why: 'the header repeated' }); continue; }
+    if (r.map(text).join('\u0000') === head.join('\u0000')) {
+      skipped.push({ where, why: 'the header repeated' });
+      continue;
+    }
     const props: Record<string, RawValue> = {};
     columns.forEach((c, j) => {
       const v = r[j];
-      props[c] = v === null || v === undefined || text(v) === '' ? null : typeof v === 'number' || typeof v === 'boolean' ? v : text(v);
+      props[c] =
+        v === null || v === undefined || text(v) === ''
+          ? null
+          : typeof v === 'number' || typeof v === 'boolean'
+            ? v
+            : text(v);
     });
     let pos = locate(props);
     const prev = idCol && props[idCol] !== null ? byId.get(String(props[idCol])) : undefined;
     if (pos.empty && prev) pos = { lon: prev.lon, lat: prev.lat, bad: null, empty: false }; // deeper layer rows often omit the position
-    if (pos.empty) { pendingNoPosition ??= where; skipped.push({ where, why: 'no position (a note below the table?)' }); continue; }
+    if (pos.empty) {
+      pendingNoPosition ??= where;
+      skipped.push({ where, why: 'no position (a note below the table?)' });
+      continue;
+    }
     if (pendingNoPosition) throw noPosition(file, pendingNoPosition, columns, roleOf);
     if (!Number.isFinite(pos.lat) || !Number.isFinite(pos.lon)) {
       throw new UserError(
         `${file} ${where}, column "${pos.bad}": "${props[pos.bad!] ?? ''}" is not a coordinate. ` +
-          'Fix: give each sample\'s position as decimal degrees (e.g. 52.3175 and -106.4125), or easting / northing in metres with --crs.',
+          "Fix: give each sample's position as decimal degrees (e.g. 52.3175 and -106.4125), or easting / northing in metres with --crs.",
         { file, where, field: pos.bad!, value: props[pos.bad!] },
       );
     }
     const rec = { where, lon: pos.lon, lat: pos.lat, props };
     records.push(rec);
-    if (idCol && props[idCol] !== null && !byId.has(String(props[idCol]))) byId.set(String(props[idCol]), rec);
+    if (idCol && props[idCol] !== null && !byId.has(String(props[idCol])))
+      byId.set(String(props[idCol]), rec);
   }
   return { file, columns, records, headerNotes: notes, headerRow: rowNumbers[h], skipped, position: how };
 }
 
-function noPosition(file: string, where: string, columns: string[], roleOf: (c: string) => Role | null): UserError {
+function noPosition(
+  file: string,
+  where: string,
+  columns: string[],
+  roleOf: (c: string) => Role | null,
+): UserError {
   const pos = columns.filter((c) => ['lat', 'lon', 'latlon', 'x', 'y'].includes(roleOf(c) ?? ''));
   return new UserError(
     `${file} ${where}: the sample has no position (${pos.map((c) => `"${c}"`).join(', ')} empty). Fix: give its coordinates, or remove the row.`,
@@ -171,15 +241,24 @@ function noPosition(file: string, where: string, columns: string[], roleOf: (c: 
 }
 
 function noHeader(rows: Cell[][], file: string, map: ColumnMap): UserError {
-  let best = 0, bestN = -1;
+  let best = 0,
+    bestN = -1;
   for (let i = 0; i < Math.min(rows.length, 50); i++) {
     const n = positionRoles(rows[i].map(text), map).length;
-    if (n > bestN) { best = i; bestN = n; }
+    if (n > bestN) {
+      best = i;
+      bestN = n;
+    }
   }
   const cells = (rows[best] ?? []).map(text).filter(Boolean);
   return new UserError(
     `${file}: no header row with sample positions (latitude and longitude, one "lat, lon" column, or easting and northing) was found in the first 50 rows` +
-      (cells.length ? `; the likeliest header row has ${cells.slice(0, 12).map((c) => `"${c}"`).join(', ')}` : '') +
+      (cells.length
+        ? `; the likeliest header row has ${cells
+            .slice(0, 12)
+            .map((c) => `"${c}"`)
+            .join(', ')}`
+        : '') +
       '. Fix: name the position columns, e.g. --columns "id=Sample ID,lat=Lat,lon=Long" (degrees) or --columns "x=E,y=N" --crs EPSG:26913 (metres).',
     { file },
   );

@@ -12,7 +12,10 @@ import { UserError } from '../errors.js';
  * @param mtime entry date (default 2000-01-01 UTC, a fixed value so output is reproducible)
  * @example writeFileAtomic('rx.zip', zipFiles({ 'rx.shp': shp, 'rx.dbf': dbf }))
  */
-export function zipFiles(files: Readonly<Record<string, Uint8Array>>, mtime: Date = new Date(Date.UTC(2000, 0, 1))): Uint8Array {
+export function zipFiles(
+  files: Readonly<Record<string, Uint8Array>>,
+  mtime: Date = new Date(Date.UTC(2000, 0, 1)),
+): Uint8Array {
   const z: Zippable = {};
   for (const [name, data] of Object.entries(files)) {
     if (!isSafeEntryName(name)) throw new RangeError(`zipFiles: unsafe entry name ${JSON.stringify(name)}`);
@@ -63,8 +66,15 @@ export interface ZipLimits {
 const mib = (n: number) => (n < 1048576 ? `${n} bytes` : `${(n / 1048576).toFixed(0)} MiB`);
 
 /** Checks the central directory's claims (names, count, sizes, ratios) before anything is unpacked. */
-function checkHeaders(bytes: Uint8Array, label: string, maxTotal: number, maxEntries: number, maxRatio: number): void {
-  let total = 0, count = 0;
+function checkHeaders(
+  bytes: Uint8Array,
+  label: string,
+  maxTotal: number,
+  maxEntries: number,
+  maxRatio: number,
+): void {
+  let total = 0,
+    count = 0;
   let bad: string | undefined, bomb: string | undefined;
   try {
     unzipSync(bytes, {
@@ -72,19 +82,38 @@ function checkHeaders(bytes: Uint8Array, label: string, maxTotal: number, maxEnt
         if (!isSafeEntryName(f.name)) bad ??= f.name;
         total += f.originalSize;
         count++;
-        if (f.originalSize > ZIP_RATIO_FLOOR_BYTES && f.originalSize > maxRatio * Math.max(1, f.size)) bomb ??= `${f.name} (${mib(f.originalSize)} from ${mib(f.size)})`;
+        if (f.originalSize > ZIP_RATIO_FLOOR_BYTES && f.originalSize > maxRatio * Math.max(1, f.size))
+          bomb ??= `${f.name} (${mib(f.originalSize)} from ${mib(f.size)})`;
         return false; // nothing is unpacked here
       },
     });
   } catch (e) {
-    throw new UserError(`${label}: not a readable zip archive (${(e as Error).message}). Fix: re-create the zip, or pass the .shp or .geojson file itself.`, { file: label });
+    throw new UserError(
+      `${label}: not a readable zip archive (${(e as Error).message}). Fix: re-create the zip, or pass the .shp or .geojson file itself.`,
+      { file: label },
+    );
   }
   if (bad !== undefined) {
-    throw new UserError(`${label}: entry "${bad}" points outside the folder it would be unpacked into; tilth refuses the whole archive and writes nothing. Fix: re-create the zip with plain file names.`, { file: label, where: bad });
+    throw new UserError(
+      `${label}: entry "${bad}" points outside the folder it would be unpacked into; tilth refuses the whole archive and writes nothing. Fix: re-create the zip with plain file names.`,
+      { file: label, where: bad },
+    );
   }
-  if (count > maxEntries) throw new UserError(`${label}: the archive holds ${count} entries, more than the ${maxEntries} tilth reads. Fix: zip only the shapefile's or prescription's files.`, { file: label });
-  if (total > maxTotal) throw new UserError(`${label}: the archive says it unpacks to ${mib(total)}, more than the ${mib(maxTotal)} tilth reads from a zip. Fix: zip only the shapefile's or prescription's files.`, { file: label });
-  if (bomb) throw new UserError(`${label}: entry ${bomb} unpacks more than ${maxRatio} times its packed size, as only a zip bomb does; refused. Fix: zip the real files again.`, { file: label });
+  if (count > maxEntries)
+    throw new UserError(
+      `${label}: the archive holds ${count} entries, more than the ${maxEntries} tilth reads. Fix: zip only the shapefile's or prescription's files.`,
+      { file: label },
+    );
+  if (total > maxTotal)
+    throw new UserError(
+      `${label}: the archive says it unpacks to ${mib(total)}, more than the ${mib(maxTotal)} tilth reads from a zip. Fix: zip only the shapefile's or prescription's files.`,
+      { file: label },
+    );
+  if (bomb)
+    throw new UserError(
+      `${label}: entry ${bomb} unpacks more than ${maxRatio} times its packed size, as only a zip bomb does; refused. Fix: zip the real files again.`,
+      { file: label },
+    );
 }
 
 /**
@@ -100,21 +129,36 @@ function checkHeaders(bytes: Uint8Array, label: string, maxTotal: number, maxEnt
  * @returns entry name -> bytes
  * @example const entries = readZip(readInput('rx.zip', 'prescription'), 'rx.zip')
  */
-export function readZip(bytes: Uint8Array, label: string, limits: ZipLimits = {}): Record<string, Uint8Array> {
-  const maxTotal = limits.maxTotalBytes ?? ZIP_MAX_TOTAL_BYTES, maxEntries = limits.maxEntries ?? ZIP_MAX_ENTRIES, maxRatio = limits.maxRatio ?? ZIP_MAX_RATIO;
+export function readZip(
+  bytes: Uint8Array,
+  label: string,
+  limits: ZipLimits = {},
+): Record<string, Uint8Array> {
+  const maxTotal = limits.maxTotalBytes ?? ZIP_MAX_TOTAL_BYTES,
+    maxEntries = limits.maxEntries ?? ZIP_MAX_ENTRIES,
+    maxRatio = limits.maxRatio ?? ZIP_MAX_RATIO;
   checkHeaders(bytes, label, maxTotal, maxEntries, maxRatio);
   const parts = new Map<string, Uint8Array[]>();
-  let total = 0, over = '', failed = '';
+  let total = 0,
+    over = '',
+    failed = '';
   const uz = new Unzip((f) => {
-    if (!isSafeEntryName(f.name)) { over = `entry "${f.name}" points outside the folder it would be unpacked into`; return; }
+    if (!isSafeEntryName(f.name)) {
+      over = `entry "${f.name}" points outside the folder it would be unpacked into`;
+      return;
+    }
     if (f.name.endsWith('/') || parts.size >= maxEntries) return;
     const chunks: Uint8Array[] = [];
     parts.set(f.name, chunks);
     f.ondata = (err, chunk) => {
-      if (err) { failed ||= err.message; return; }
+      if (err) {
+        failed ||= err.message;
+        return;
+      }
       total += chunk.length;
       if (total > maxTotal) over ||= `it unpacks to more than ${mib(maxTotal)}`;
-      else if (total > ZIP_RATIO_FLOOR_BYTES && total > maxRatio * bytes.length) over ||= `it unpacks more than ${maxRatio} times its size, as only a zip bomb does`;
+      else if (total > ZIP_RATIO_FLOOR_BYTES && total > maxRatio * bytes.length)
+        over ||= `it unpacks more than ${maxRatio} times its size, as only a zip bomb does`;
       if (over) f.terminate();
       else chunks.push(chunk);
     };
@@ -122,12 +166,21 @@ export function readZip(bytes: Uint8Array, label: string, limits: ZipLimits = {}
   });
   uz.register(UnzipInflate);
   try {
-    for (let i = 0; i < bytes.length && !over; i += FEED) uz.push(bytes.subarray(i, Math.min(bytes.length, i + FEED)), i + FEED >= bytes.length);
+    for (let i = 0; i < bytes.length && !over; i += FEED)
+      uz.push(bytes.subarray(i, Math.min(bytes.length, i + FEED)), i + FEED >= bytes.length);
   } catch (e) {
     failed ||= (e as Error).message;
   }
-  if (over) throw new UserError(`${label}: ${over}; refused. Fix: zip only the shapefile's or prescription's real files.`, { file: label });
-  if (failed) throw new UserError(`${label}: not a readable zip archive (${failed}). Fix: re-create the zip, or pass the .shp or .geojson file itself.`, { file: label });
+  if (over)
+    throw new UserError(
+      `${label}: ${over}; refused. Fix: zip only the shapefile's or prescription's real files.`,
+      { file: label },
+    );
+  if (failed)
+    throw new UserError(
+      `${label}: not a readable zip archive (${failed}). Fix: re-create the zip, or pass the .shp or .geojson file itself.`,
+      { file: label },
+    );
   const out: Record<string, Uint8Array> = {};
   for (const [name, chunks] of parts) out[name] = concat(chunks);
   return out;
@@ -137,6 +190,9 @@ function concat(chunks: Uint8Array[]): Uint8Array {
   if (chunks.length === 1) return chunks[0]!;
   const out = new Uint8Array(chunks.reduce((s, c) => s + c.length, 0));
   let o = 0;
-  for (const c of chunks) { out.set(c, o); o += c.length; }
+  for (const c of chunks) {
+    out.set(c, o);
+    o += c.length;
+  }
   return out;
 }

@@ -61,8 +61,11 @@ export function cellTargets(
       continue;
     }
     // at most two drivers (DRIVERS); scalars instead of a per-cell array keep 2.6 M cells free of garbage
-    const s0 = src[0], s1 = drivers.length > 1 ? src[1] : undefined, two = drivers.length > 1;
-    const q0 = q[0], q1 = two ? q[1] : 1;
+    const s0 = src[0],
+      s1 = drivers.length > 1 ? src[1] : undefined,
+      two = drivers.length > 1;
+    const q0 = q[0],
+      q1 = two ? q[1] : 1;
     for (let i = 0; i < n; i++) {
       if (!(fraction[i] > 0)) continue;
       // integer key from the quantized driver values; a missing surface counts as not tested (NaN)
@@ -74,7 +77,10 @@ export function cellTargets(
       const k1 = s1 ? Math.round(b / q1) : -1;
       const key = two ? (k0 + 2_000_000) * 4_000_003 + (k1 + 2_000_000) : k0 + 2_000_000;
       let t = cache.get(key);
-      if (t === undefined) { t = one(s0 ? k0 * q0 : NaN, s1 ? k1 * q1 : NaN); cache.set(key, t); }
+      if (t === undefined) {
+        t = one(s0 ? k0 * q0 : NaN, s1 ? k1 * q1 : NaN);
+        cache.set(key, t);
+      }
       arr[i] = t;
     }
     out[nut] = arr;

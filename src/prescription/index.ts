@@ -19,7 +19,13 @@ import { vertexCount } from '../zones/arcs.js';
 import type { Analyte, FieldInputs, Grid, RingsPart, Texture } from '../types.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import { cellTargets } from './cellTargets.js';
-import { designZoneSets, minZoneArea, numberRateClasses, type MinZoneArea, type ZoneDesign } from './zoneDesign.js';
+import {
+  designZoneSets,
+  minZoneArea,
+  numberRateClasses,
+  type MinZoneArea,
+  type ZoneDesign,
+} from './zoneDesign.js';
 
 export { mergeCloseClasses } from './zoneDesign.js';
 
@@ -90,7 +96,15 @@ export interface ProductTotal {
 }
 
 export interface Prescription {
-  field: { name: string; areaM2: number; areaAc: number; areaHa: number; utm: FieldInputs['field']['utm']; parts: RingsPart[]; lonlat: number[][][][] };
+  field: {
+    name: string;
+    areaM2: number;
+    areaAc: number;
+    areaHa: number;
+    utm: FieldInputs['field']['utm'];
+    parts: RingsPart[];
+    lonlat: number[][][][];
+  };
   plan: Plan;
   grid: Grid;
   surfaces: NutrientSurface[];
@@ -117,7 +131,11 @@ export function defaultCell(bbox: [number, number, number, number]): number {
 /** The nutrient a product mainly carries (largest share of its analysis). */
 export function mainNutrient(product: string, tables: Tables): Nutrient {
   const p = tables.products[product];
-  if (!p) throw new UserError(`plan product "${product}" is not in the product table; allowed: ${Object.keys(tables.products).join(', ')}. Fix: correct the name or add the product to your tables file.`, { field: 'products', value: product });
+  if (!p)
+    throw new UserError(
+      `plan product "${product}" is not in the product table; allowed: ${Object.keys(tables.products).join(', ')}. Fix: correct the name or add the product to your tables file.`,
+      { field: 'products', value: product },
+    );
   let best: Nutrient = 'n';
   for (const n of NUTRIENTS) if (p[n] > p[best]) best = n;
   return best;
@@ -135,7 +153,12 @@ export function mainNutrient(product: string, tables: Tables): Nutrient {
  *
  * @example const rx = buildPrescription(inputs, parsePlan(yaml), defaultTables()); rx.zoneSets[0].zones.length
  */
-export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Tables, opts: BuildOptions = {}): Prescription {
+export function buildPrescription(
+  inputs: FieldInputs,
+  plan: Plan,
+  tables: Tables,
+  opts: BuildOptions = {},
+): Prescription {
   const { samples, field } = inputs;
   const warnings: Warning[] = [...inputs.warnings];
   const progress = opts.onProgress ?? (() => {});
@@ -145,7 +168,8 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
   let inside = 0;
   const grid = fieldGrid(field, opts.cell ?? defaultCell(field.bbox));
   const cellOf = (x: number, y: number) => {
-    const c = Math.floor((x - grid.xmin) / grid.cell), r = Math.floor((grid.ymax - y) / grid.cell);
+    const c = Math.floor((x - grid.xmin) / grid.cell),
+      r = Math.floor((grid.ymax - y) / grid.cell);
     return c >= 0 && r >= 0 && c < grid.cols && r < grid.rows ? r * grid.cols + c : -1;
   };
   for (let i = 0; i < samples.ids.length; i++) {
@@ -153,7 +177,9 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
     if (c >= 0 && grid.fraction[c] > 0) inside++;
   }
   if (inside === 0 && !inputs.zones) {
-    throw new UserError(`no sample lies inside the field boundary "${field.name}". Fix: check that the samples and the boundary belong to the same field (and the same coordinate system).`);
+    throw new UserError(
+      `no sample lies inside the field boundary "${field.name}". Fix: check that the samples and the boundary belong to the same field (and the same coordinate system).`,
+    );
   }
 
   // 1. surfaces
@@ -162,12 +188,21 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
   // analytes at the same sample sites share one neighbour search (src/surface nutrientSurfaces)
   const present = BUILD_ANALYTES.filter((a) => samples.values[a]?.some((v) => Number.isFinite(v)));
   progress('surfaces (cross-validation and interpolation)', 0);
-  const surfaceOpts = { method: plan.surface.method, kriging: { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours } };
-  const made = nutrientSurfaces(samples, present, grid, inputs.zones, surfaceOpts, (d) => progress('surfaces (cross-validation and interpolation)', d));
+  const surfaceOpts = {
+    method: plan.surface.method,
+    kriging: { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours },
+  };
+  const made = nutrientSurfaces(samples, present, grid, inputs.zones, surfaceOpts, (d) =>
+    progress('surfaces (cross-validation and interpolation)', d),
+  );
   for (const a of BUILD_ANALYTES) {
     const s = made.find((m) => m.analyte === a);
     if (!s) {
-      warnings.push({ code: 'build.analyte-missing', message: `no sample has ${a}; it is treated as not tested everywhere.`, field: a });
+      warnings.push({
+        code: 'build.analyte-missing',
+        message: `no sample has ${a}; it is treated as not tested everywhere.`,
+        field: a,
+      });
       continue;
     }
     surfaces.push(s);
@@ -190,7 +225,9 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
   } else {
     // 3. classes and zones, merged until neighbouring zones differ by rates that matter (zoneDesign.ts)
     progress('zones (classes, merging, edges, rates per zone)', 0);
-    zoneSets.push(...designedZoneSets(inputs, plan, tables, grid, tg, surfaces, byAnalyte, minArea, warnings));
+    zoneSets.push(
+      ...designedZoneSets(inputs, plan, tables, grid, tg, surfaces, byAnalyte, minArea, warnings),
+    );
   }
   progress('zones (classes, merging, edges, rates per zone)', 1);
   checkVertexLimit(zoneSets, plan.output.max_vertices);
@@ -198,22 +235,39 @@ export function buildPrescription(inputs: FieldInputs, plan: Plan, tables: Table
   const infeasible: Prescription['infeasible'] = [];
   // the rate engine's warnings, grouped: one line per kind of warning, naming the zones it concerns
   const groups = new Map<string, { first: Warning; messages: Set<string>; where: Map<string, number[]> }>();
-  for (const set of zoneSets) for (const z of set.zones) {
-    for (const w of z.decision.warnings) {
-      let g = groups.get(w.code);
-      if (!g) groups.set(w.code, (g = { first: w, messages: new Set(), where: new Map() }));
-      g.messages.add(w.message);
-      g.where.set(set.name, [...(g.where.get(set.name) ?? []), z.id]);
+  for (const set of zoneSets)
+    for (const z of set.zones) {
+      for (const w of z.decision.warnings) {
+        let g = groups.get(w.code);
+        if (!g) groups.set(w.code, (g = { first: w, messages: new Set(), where: new Map() }));
+        g.messages.add(w.message);
+        g.where.set(set.name, [...(g.where.get(set.name) ?? []), z.id]);
+      }
+      if (z.decision.status !== 'ok')
+        for (const f of z.decision.infeasible)
+          infeasible.push({ zoneSet: set.name, zone: z.id, nutrient: f.nutrient, reason: f.reason });
     }
-    if (z.decision.status !== 'ok') for (const f of z.decision.infeasible) infeasible.push({ zoneSet: set.name, zone: z.id, nutrient: f.nutrient, reason: f.reason });
-  }
   for (const [code, g] of groups) {
-    const where = [...g.where].map(([set, ids]) => `${zoneSets.length > 1 ? `set ${set} ` : ''}zone${ids.length > 1 ? 's' : ''} ${ids.join(', ')}`).join('; ');
-    const msg = g.messages.size === 1 ? g.first.message : `${g.first.message} (values differ by zone; see zones.csv)`;
+    const where = [...g.where]
+      .map(
+        ([set, ids]) =>
+          `${zoneSets.length > 1 ? `set ${set} ` : ''}zone${ids.length > 1 ? 's' : ''} ${ids.join(', ')}`,
+      )
+      .join('; ');
+    const msg =
+      g.messages.size === 1 ? g.first.message : `${g.first.message} (values differ by zone; see zones.csv)`;
     warnings.push({ ...g.first, code, where, message: `${where}: ${msg}` });
   }
   return {
-    field: { name: field.name, areaM2: field.areaM2, areaAc: m2ToAc(field.areaM2), areaHa: m2ToHa(field.areaM2), utm: field.utm, parts: field.parts, lonlat: field.lonlat },
+    field: {
+      name: field.name,
+      areaM2: field.areaM2,
+      areaAc: m2ToAc(field.areaM2),
+      areaHa: m2ToHa(field.areaM2),
+      utm: field.utm,
+      parts: field.parts,
+      lonlat: field.lonlat,
+    },
     plan,
     grid,
     surfaces,
@@ -237,51 +291,151 @@ function sampledZoneSet(inputs: FieldInputs, plan: Plan, tables: Tables, warning
     const soil: SoilValues = { no3_n: NaN, p: NaN, k: NaN, so4_s: NaN, om: NaN };
     for (const a of BUILD_ANALYTES) {
       const vs = idx.map((j) => samples.values[a][j]).filter((v) => Number.isFinite(v));
-      (soil as unknown as Record<string, number>)[a] = vs.length ? vs.reduce((s, v) => s + v, 0) / vs.length : NaN;
+      (soil as unknown as Record<string, number>)[a] = vs.length
+        ? vs.reduce((s, v) => s + v, 0) / vs.length
+        : NaN;
     }
     soil.texture = majorityTexture(idx.map((j) => samples.texture[j]));
     soil.pMethod = samples.pMethod;
-    if (idx.length === 0) warnings.push({ code: 'build.zone-unsampled', where: z.key, message: `sampled zone "${z.key}" has no sample; its soil values are unknown and its rates follow the "not tested" rules. Fix: add its composite sample.` });
-    return zoneRecord(i + 1, i + 1, z.key, z.parts, z.lonlat, z.areaM2, soil, idx.map((j) => samples.ids[j]), plan, tables);
+    if (idx.length === 0)
+      warnings.push({
+        code: 'build.zone-unsampled',
+        where: z.key,
+        message: `sampled zone "${z.key}" has no sample; its soil values are unknown and its rates follow the "not tested" rules. Fix: add its composite sample.`,
+      });
+    return zoneRecord(
+      i + 1,
+      i + 1,
+      z.key,
+      z.parts,
+      z.lonlat,
+      z.areaM2,
+      soil,
+      idx.map((j) => samples.ids[j]),
+      plan,
+      tables,
+    );
   });
-  return { name: 'sampled', drivenBy: 'the sampled zone polygons (zone-composite samples)', products: plan.products.map((p) => p.product), zones: zonesOut, breaks: null, minZoneAreaM2: 0, zoneOfCell: null, design: null };
+  return {
+    name: 'sampled',
+    drivenBy: 'the sampled zone polygons (zone-composite samples)',
+    products: plan.products.map((p) => p.product),
+    zones: zonesOut,
+    breaks: null,
+    minZoneAreaM2: 0,
+    zoneOfCell: null,
+    design: null,
+  };
 }
 
 /** Zone sets of a grid-sampled field (zoneDesign.ts), each zone with its rate class's decision. */
-function designedZoneSets(inputs: FieldInputs, plan: Plan, tables: Tables, grid: Grid, tg: Record<Nutrient, Float64Array>, surfaces: NutrientSurface[], byAnalyte: Partial<Record<Analyte, Float64Array>>, minArea: MinZoneArea, warnings: Warning[]): ZoneSetResult[] {
+function designedZoneSets(
+  inputs: FieldInputs,
+  plan: Plan,
+  tables: Tables,
+  grid: Grid,
+  tg: Record<Nutrient, Float64Array>,
+  surfaces: NutrientSurface[],
+  byAnalyte: Partial<Record<Analyte, Float64Array>>,
+  minArea: MinZoneArea,
+  warnings: Warning[],
+): ZoneSetResult[] {
   const analytes = BUILD_ANALYTES.filter((a) => byAnalyte[a]);
-  const designed = designZoneSets({ inputs, plan, tables, grid, targets: tg, surfaces, analytes, layers: analytes.map((a) => byAnalyte[a]!), minArea, mainNutrient: (p) => mainNutrient(p, tables) });
+  const designed = designZoneSets({
+    inputs,
+    plan,
+    tables,
+    grid,
+    targets: tg,
+    surfaces,
+    analytes,
+    layers: analytes.map((a) => byAnalyte[a]!),
+    minArea,
+    mainNutrient: (p) => mainNutrient(p, tables),
+  });
   warnings.push(...designed.warnings);
   return designed.sets.map((set) => {
     const profiles = set.zones.profiles!;
     const zonesOut = set.zones.zones.map((z, zi): PrescriptionZone => ({
-      id: zi + 1, rateClass: 0, key: null, parts: z.parts, lonlat: z.lonlat, areaM2: z.areaM2, areaAc: m2ToAc(z.areaM2), areaHa: m2ToHa(z.areaM2),
-      soil: profiles[zi].soil, samples: set.samples[zi].map((j) => inputs.samples.ids[j]), decision: profiles[zi].decision,
+      id: zi + 1,
+      rateClass: 0,
+      key: null,
+      parts: z.parts,
+      lonlat: z.lonlat,
+      areaM2: z.areaM2,
+      areaAc: m2ToAc(z.areaM2),
+      areaHa: m2ToHa(z.areaM2),
+      soil: profiles[zi].soil,
+      samples: set.samples[zi].map((j) => inputs.samples.ids[j]),
+      decision: profiles[zi].decision,
     }));
     numberRateClasses(zonesOut, set.products);
-    return { name: set.name, drivenBy: set.drivenBy, products: set.products, zones: zonesOut, breaks: set.breaks, minZoneAreaM2: minArea.usedM2, zoneOfCell: set.zones.zoneOfCell, design: set.design };
+    return {
+      name: set.name,
+      drivenBy: set.drivenBy,
+      products: set.products,
+      zones: zonesOut,
+      breaks: set.breaks,
+      minZoneAreaM2: minArea.usedM2,
+      zoneOfCell: set.zones.zoneOfCell,
+      design: set.design,
+    };
   });
 }
 
-function zoneRecord(id: number, rateClass: number, key: string | null, parts: RingsPart[], lonlat: number[][][][], areaM2: number, soil: SoilValues, ids: string[], plan: Plan, tables: Tables): PrescriptionZone {
-  return { id, rateClass, key, parts, lonlat, areaM2, areaAc: m2ToAc(areaM2), areaHa: m2ToHa(areaM2), soil, samples: ids, decision: decide(soil, plan, tables) };
+function zoneRecord(
+  id: number,
+  rateClass: number,
+  key: string | null,
+  parts: RingsPart[],
+  lonlat: number[][][][],
+  areaM2: number,
+  soil: SoilValues,
+  ids: string[],
+  plan: Plan,
+  tables: Tables,
+): PrescriptionZone {
+  return {
+    id,
+    rateClass,
+    key,
+    parts,
+    lonlat,
+    areaM2,
+    areaAc: m2ToAc(areaM2),
+    areaHa: m2ToHa(areaM2),
+    soil,
+    samples: ids,
+    decision: decide(soil, plan, tables),
+  };
 }
 
 /** Rate of one product in one placement of a decision, in the plan's unit (0 when not applied). */
-export function productRate(d: Decision, product: string, placement: Placement): { value: number; lbac: number } {
-  for (const p of d.placements) if (p.placement === placement) for (const q of p.products) if (q.product === product) return { value: q.rate.value, lbac: q.rate.lbac };
+export function productRate(
+  d: Decision,
+  product: string,
+  placement: Placement,
+): { value: number; lbac: number } {
+  for (const p of d.placements)
+    if (p.placement === placement)
+      for (const q of p.products)
+        if (q.product === product) return { value: q.rate.value, lbac: q.rate.lbac };
   return { value: 0, lbac: 0 };
 }
 
 /** The (product, placement) pairs that any zone of the set uses, in plan order. */
 export function usedPairs(set: ZoneSetResult): { product: string; placement: Placement; label: string }[] {
   const seen = new Map<string, { product: string; placement: Placement; label: string }>();
-  for (const z of set.zones) for (const p of z.decision.placements) for (const q of p.products) {
-    if (!set.products.includes(q.product)) continue;
-    const k = `${q.product}|${p.placement}`;
-    if (!seen.has(k)) seen.set(k, { product: q.product, placement: p.placement, label: q.label });
-  }
-  const order = (x: { product: string; placement: Placement }) => set.products.indexOf(x.product) * 10 + ['seed_row', 'side_band', 'mid_row_band', 'broadcast'].indexOf(x.placement);
+  for (const z of set.zones)
+    for (const p of z.decision.placements)
+      for (const q of p.products) {
+        if (!set.products.includes(q.product)) continue;
+        const k = `${q.product}|${p.placement}`;
+        if (!seen.has(k)) seen.set(k, { product: q.product, placement: p.placement, label: q.label });
+      }
+  const order = (x: { product: string; placement: Placement }) =>
+    set.products.indexOf(x.product) * 10 +
+    ['seed_row', 'side_band', 'mid_row_band', 'broadcast'].indexOf(x.placement);
   return [...seen.values()].sort((a, b) => order(a) - order(b));
 }
 
@@ -290,7 +444,11 @@ function productTotals(sets: ZoneSetResult[], plan: Plan): ProductTotal[] {
   for (const set of sets) {
     const fieldAc = set.zones.reduce((s, z) => s + z.areaAc, 0);
     for (const pair of usedPairs(set)) {
-      let lb = 0, mean = 0, min = Infinity, max = -Infinity, applied = 0;
+      let lb = 0,
+        mean = 0,
+        min = Infinity,
+        max = -Infinity,
+        applied = 0;
       for (const z of set.zones) {
         const r = productRate(z.decision, pair.product, pair.placement);
         lb += r.lbac * z.areaAc;
@@ -299,7 +457,19 @@ function productTotals(sets: ZoneSetResult[], plan: Plan): ProductTotal[] {
         max = Math.max(max, r.value);
         if (r.lbac > 0) applied += z.areaAc;
       }
-      out.push({ zoneSet: set.name, product: pair.product, label: pair.label, placement: pair.placement, totalLb: lb, totalKg: lb * 0.45359237, meanRate: fieldAc > 0 ? mean / fieldAc : 0, minRate: min, maxRate: max, unit: plan.units, appliedAc: applied });
+      out.push({
+        zoneSet: set.name,
+        product: pair.product,
+        label: pair.label,
+        placement: pair.placement,
+        totalLb: lb,
+        totalKg: lb * 0.45359237,
+        meanRate: fieldAc > 0 ? mean / fieldAc : 0,
+        minRate: min,
+        maxRate: max,
+        unit: plan.units,
+        appliedAc: applied,
+      });
     }
   }
   return out;
@@ -311,7 +481,10 @@ function checkVertexLimit(sets: ZoneSetResult[], max: number | null): void {
   for (const set of sets) {
     const n = set.zones.reduce((s, z) => s + vertexCount(z.parts), 0);
     if (n > max) {
-      throw new UserError(`zone set "${set.name}" needs ${n} polygon vertices, more than plan key output.max_vertices (${max}). Fix: raise zoning.simplify_cells (smoother edges) or zoning.min_zone_ac (fewer zones), or raise output.max_vertices if your controller takes larger files.`, { field: 'output.max_vertices', value: max });
+      throw new UserError(
+        `zone set "${set.name}" needs ${n} polygon vertices, more than plan key output.max_vertices (${max}). Fix: raise zoning.simplify_cells (smoother edges) or zoning.min_zone_ac (fewer zones), or raise output.max_vertices if your controller takes larger files.`,
+        { field: 'output.max_vertices', value: max },
+      );
     }
   }
 }
@@ -319,8 +492,13 @@ function checkVertexLimit(sets: ZoneSetResult[], max: number | null): void {
 function majorityTexture(ts: (Texture | null)[]): Texture | null {
   const count = new Map<Texture, number>();
   for (const t of ts) if (t) count.set(t, (count.get(t) ?? 0) + 1);
-  let best: Texture | null = null, bc = 0;
-  for (const [t, c] of count) if (c > bc) { best = t; bc = c; }
+  let best: Texture | null = null,
+    bc = 0;
+  for (const [t, c] of count)
+    if (c > bc) {
+      best = t;
+      bc = c;
+    }
   return best;
 }
 
@@ -332,4 +510,3 @@ function dedupe(ws: Warning[]): Warning[] {
   const seen = new Set<string>();
   return ws.filter((w) => (seen.has(w.message) ? false : (seen.add(w.message), true)));
 }
-

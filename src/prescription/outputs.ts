@@ -11,7 +11,12 @@ import { apartText, designLines, type ZoneDesign } from './zoneDesign.js';
 
 const unitTag = (u: string) => (u === 'kg/ha' ? 'kgha' : 'lbac');
 const round = (v: number, d: number) => (Number.isFinite(v) ? Number(v.toFixed(d)) : null);
-const PLACEMENT_TAG: Record<Placement, string> = { seed_row: 'seed', side_band: 'band', mid_row_band: 'midrow', broadcast: 'bcast' };
+const PLACEMENT_TAG: Record<Placement, string> = {
+  seed_row: 'seed',
+  side_band: 'band',
+  mid_row_band: 'midrow',
+  broadcast: 'bcast',
+};
 
 /** Column name of a product rate: `<product>_<placement>_<unit>`, e.g. `map_seed_lbac`. */
 export function rateColumn(product: string, placement: Placement, unit: string): string {
@@ -24,7 +29,11 @@ export function geojsonName(rx: Prescription, set: ZoneSetResult): string {
 }
 
 /** The flat attribute record of one zone (numbers in the plan's units). */
-export function zoneAttributes(rx: Prescription, set: ZoneSetResult, zi: number): Record<string, string | number | null> {
+export function zoneAttributes(
+  rx: Prescription,
+  set: ZoneSetResult,
+  zi: number,
+): Record<string, string | number | null> {
   const z = set.zones[zi];
   const u = rx.plan.units;
   const d = z.decision;
@@ -49,7 +58,11 @@ export function zoneAttributes(rx: Prescription, set: ZoneSetResult, zi: number)
   // nutrient targets carry no unit ending, so that only product-rate columns end in the rate unit
   a.target_unit = u;
   for (const n of NUTRIENTS) a[`target_${n}`] = round(d.nutrients[n].target.value, 1);
-  for (const pair of usedPairs(set)) a[rateColumn(pair.product, pair.placement, u)] = round(productRate(d, pair.product, pair.placement).value, 1);
+  for (const pair of usedPairs(set))
+    a[rateColumn(pair.product, pair.placement, u)] = round(
+      productRate(d, pair.product, pair.placement).value,
+      1,
+    );
   a.cost_per_ac = round(d.costPerAc, 2);
   a.binding_limit = d.binding.join('; ');
   a.status = d.status;
@@ -68,11 +81,16 @@ export function prescriptionGeojson(rx: Prescription, set: ZoneSetResult): strin
   const fc: FeatureCollection<Polygon | MultiPolygon> = {
     type: 'FeatureCollection',
     features: set.zones.map((z, zi): Feature<Polygon | MultiPolygon> => {
-      const coords = z.lonlat.map((poly) => poly.map((ring) => ring.map(([x, y]) => [round(x, 7)!, round(y, 7)!])));
+      const coords = z.lonlat.map((poly) =>
+        poly.map((ring) => ring.map(([x, y]) => [round(x, 7)!, round(y, 7)!])),
+      );
       return {
         type: 'Feature',
         properties: zoneAttributes(rx, set, zi),
-        geometry: coords.length === 1 ? { type: 'Polygon', coordinates: coords[0] } : { type: 'MultiPolygon', coordinates: coords },
+        geometry:
+          coords.length === 1
+            ? { type: 'Polygon', coordinates: coords[0] }
+            : { type: 'MultiPolygon', coordinates: coords },
       };
     }),
   };
@@ -81,17 +99,26 @@ export function prescriptionGeojson(rx: Prescription, set: ZoneSetResult): strin
 
 /** Every zone of every set as CSV, one row per zone (same attributes as the GeoJSON). */
 export function zonesCsv(rx: Prescription): string {
-  const rows = rx.zoneSets.flatMap((set) => set.zones.map((z, zi) => {
-    const a = zoneAttributes(rx, set, zi);
-    if (set.design) {
-      a.kept_apart_from = set.design.pairs.filter((p) => p.a === z.id || p.b === z.id)
-        .map((p) => `zone ${p.a === z.id ? p.b : p.a}: ${apartText(p.why && p.a !== z.id ? { ...p.why, a: p.why.b, b: p.why.a } : p.why, rx.plan.units)}`).join('; ');
-    }
-    return a;
-  }));
+  const rows = rx.zoneSets.flatMap((set) =>
+    set.zones.map((z, zi) => {
+      const a = zoneAttributes(rx, set, zi);
+      if (set.design) {
+        a.kept_apart_from = set.design.pairs
+          .filter((p) => p.a === z.id || p.b === z.id)
+          .map(
+            (p) =>
+              `zone ${p.a === z.id ? p.b : p.a}: ${apartText(p.why && p.a !== z.id ? { ...p.why, a: p.why.b, b: p.why.a } : p.why, rx.plan.units)}`,
+          )
+          .join('; ');
+      }
+      return a;
+    }),
+  );
   const cols: string[] = [];
   for (const r of rows) for (const k of Object.keys(r)) if (!cols.includes(k)) cols.push(k);
-  return [cols.join(','), ...rows.map((r) => cols.map((c) => csvCell(r[c] ?? '')).join(','))].join('\n') + '\n';
+  return (
+    [cols.join(','), ...rows.map((r) => cols.map((c) => csvCell(r[c] ?? '')).join(','))].join('\n') + '\n'
+  );
 }
 
 /** Provenance of a build: tilth version, input hashes, date. */
@@ -107,14 +134,59 @@ export interface Provenance {
 export function summaryObject(rx: Prescription, prov: Provenance): unknown {
   return {
     provenance: prov,
-    field: { name: rx.field.name, area_ac: round(rx.field.areaAc, 2), area_ha: round(rx.field.areaHa, 3), utm_epsg: rx.field.utm.epsg },
+    field: {
+      name: rx.field.name,
+      area_ac: round(rx.field.areaAc, 2),
+      area_ha: round(rx.field.areaHa, 3),
+      utm_epsg: rx.field.utm.epsg,
+    },
     crop: rx.plan.crop,
     target_yield_bu: rx.plan.target_yield_bu,
     units: rx.plan.units,
     grid: { cell_m: rx.grid.cell, cols: rx.grid.cols, rows: rx.grid.rows },
-    surfaces: rx.surfaces.map((s) => ({ analyte: s.analyte, method: s.method, power: Number.isFinite(s.power) ? s.power : null, neighbours: Number.isFinite(s.neighbours) ? s.neighbours : s.method === 'idw' ? 'all' : null, choice: s.choice, cv: s.cv?.table.map((r) => ({ method: r.method ?? 'idw', power: Number.isFinite(r.power) ? r.power : null, ...(r.method === 'kriging' ? { msse: round(r.msse ?? NaN, 4), model: s.kriging?.modelText } : {}), chosen: r === s.cv!.best, neighbours: Number.isFinite(r.neighbours) ? r.neighbours : 'all', rmse: round(r.rmse, 4), mae: round(r.mae, 4), bias: round(r.bias, 4), n: r.n })) ?? null })),
-    zone_sets: rx.zoneSets.map((s) => ({ name: s.name, driven_by: s.drivenBy, products: s.products, zones: s.zones.length, min_zone_ac: round(s.minZoneAreaM2 / 4046.8564224, 3), file: geojsonName(rx, s), breaks_lbac: s.breaks?.map((b) => round(b, 2)) ?? null, design: s.design ? designObject(s.design) : null })),
-    totals: rx.totals.map((t) => ({ zone_set: t.zoneSet, product: t.product, label: t.label, placement: t.placement, total_lb: round(t.totalLb, 0), total_kg: round(t.totalKg, 0), total_tonnes: round(t.totalKg / 1000, 3), mean_rate: round(t.meanRate, 1), min_rate: round(t.minRate, 1), max_rate: round(t.maxRate, 1), unit: t.unit, applied_ac: round(t.appliedAc, 2) })),
+    surfaces: rx.surfaces.map((s) => ({
+      analyte: s.analyte,
+      method: s.method,
+      power: Number.isFinite(s.power) ? s.power : null,
+      neighbours: Number.isFinite(s.neighbours) ? s.neighbours : s.method === 'idw' ? 'all' : null,
+      choice: s.choice,
+      cv:
+        s.cv?.table.map((r) => ({
+          method: r.method ?? 'idw',
+          power: Number.isFinite(r.power) ? r.power : null,
+          ...(r.method === 'kriging' ? { msse: round(r.msse ?? NaN, 4), model: s.kriging?.modelText } : {}),
+          chosen: r === s.cv!.best,
+          neighbours: Number.isFinite(r.neighbours) ? r.neighbours : 'all',
+          rmse: round(r.rmse, 4),
+          mae: round(r.mae, 4),
+          bias: round(r.bias, 4),
+          n: r.n,
+        })) ?? null,
+    })),
+    zone_sets: rx.zoneSets.map((s) => ({
+      name: s.name,
+      driven_by: s.drivenBy,
+      products: s.products,
+      zones: s.zones.length,
+      min_zone_ac: round(s.minZoneAreaM2 / 4046.8564224, 3),
+      file: geojsonName(rx, s),
+      breaks_lbac: s.breaks?.map((b) => round(b, 2)) ?? null,
+      design: s.design ? designObject(s.design) : null,
+    })),
+    totals: rx.totals.map((t) => ({
+      zone_set: t.zoneSet,
+      product: t.product,
+      label: t.label,
+      placement: t.placement,
+      total_lb: round(t.totalLb, 0),
+      total_kg: round(t.totalKg, 0),
+      total_tonnes: round(t.totalKg / 1000, 3),
+      mean_rate: round(t.meanRate, 1),
+      min_rate: round(t.minRate, 1),
+      max_rate: round(t.maxRate, 1),
+      unit: t.unit,
+      applied_ac: round(t.appliedAc, 2),
+    })),
     infeasible: rx.infeasible,
     warnings: rx.warnings.map((w) => ({ code: w.code, message: w.message })),
   };
@@ -127,24 +199,42 @@ const lpad = (s: string, n: number) => (s.length >= n ? s : ' '.repeat(n - s.len
 export function summaryText(rx: Prescription): string {
   const u = rx.plan.units;
   const lines: string[] = [];
-  lines.push(`field      ${rx.field.name}: ${rx.field.areaAc.toFixed(1)} ac (${rx.field.areaHa.toFixed(2)} ha), UTM zone ${rx.field.utm.zone}${rx.field.utm.south ? 'S' : 'N'}`);
+  lines.push(
+    `field      ${rx.field.name}: ${rx.field.areaAc.toFixed(1)} ac (${rx.field.areaHa.toFixed(2)} ha), UTM zone ${rx.field.utm.zone}${rx.field.utm.south ? 'S' : 'N'}`,
+  );
   lines.push(`crop       ${rx.plan.crop}, target ${rx.plan.target_yield_bu} bu/ac; rates in ${u}`);
   lines.push(`grid       ${rx.grid.cell} m cells (${rx.grid.cols} x ${rx.grid.rows})`);
   for (const s of rx.surfaces) lines.push(`surface    ${pad(s.analyte, 6)} ${s.choice}`);
-  for (const s of rx.zoneSets) lines.push(`zones      ${s.name}: ${s.zones.length} zone${s.zones.length === 1 ? "" : "s"}, driven by ${s.drivenBy}; products ${s.products.join(', ')}`);
+  for (const s of rx.zoneSets)
+    lines.push(
+      `zones      ${s.name}: ${s.zones.length} zone${s.zones.length === 1 ? '' : 's'}, driven by ${s.drivenBy}; products ${s.products.join(', ')}`,
+    );
   lines.push('');
-  lines.push(`${pad('product', 22)} ${pad('placement', 13)} ${lpad('total lb', 9)} ${lpad('total t', 8)} ${lpad('mean', 7)} ${lpad('min', 6)} ${lpad('max', 6)}  ${u}`);
+  lines.push(
+    `${pad('product', 22)} ${pad('placement', 13)} ${lpad('total lb', 9)} ${lpad('total t', 8)} ${lpad('mean', 7)} ${lpad('min', 6)} ${lpad('max', 6)}  ${u}`,
+  );
   for (const t of rx.totals) {
-    lines.push(`${pad(t.label.slice(0, 22), 22)} ${pad(t.placement, 13)} ${lpad(t.totalLb.toFixed(0), 9)} ${lpad((t.totalKg / 1000).toFixed(2), 8)} ${lpad(t.meanRate.toFixed(1), 7)} ${lpad(t.minRate.toFixed(0), 6)} ${lpad(t.maxRate.toFixed(0), 6)}`);
+    lines.push(
+      `${pad(t.label.slice(0, 22), 22)} ${pad(t.placement, 13)} ${lpad(t.totalLb.toFixed(0), 9)} ${lpad((t.totalKg / 1000).toFixed(2), 8)} ${lpad(t.meanRate.toFixed(1), 7)} ${lpad(t.minRate.toFixed(0), 6)} ${lpad(t.maxRate.toFixed(0), 6)}`,
+    );
   }
   if (rx.totals.length === 0) lines.push('(no product is applied anywhere)');
   lines.push('');
   for (const set of rx.zoneSets) {
     lines.push(`zone set ${set.name}:`);
-    lines.push(`  ${lpad('zone', 4)} ${lpad('class', 5)} ${lpad('ac', 7)}  ${NUTRIENTS.map((n) => lpad(nutrientName(n), 6)).join(' ')}  rates (${u})  binding limit`);
+    lines.push(
+      `  ${lpad('zone', 4)} ${lpad('class', 5)} ${lpad('ac', 7)}  ${NUTRIENTS.map((n) => lpad(nutrientName(n), 6)).join(' ')}  rates (${u})  binding limit`,
+    );
     for (const z of set.zones) {
-      const rates = usedPairs(set).map((p) => `${p.product}@${PLACEMENT_TAG[p.placement]} ${productRate(z.decision, p.product, p.placement).value.toFixed(0)}`).join(', ');
-      lines.push(`  ${lpad(String(z.id), 4)} ${lpad(String(z.rateClass), 5)} ${lpad(z.areaAc.toFixed(2), 7)}  ${NUTRIENTS.map((n) => lpad(z.decision.nutrients[n].target.value.toFixed(0), 6)).join(' ')}  ${rates || '-'}  ${z.decision.status === 'ok' ? z.decision.binding.join('; ') : 'INFEASIBLE: ' + z.decision.infeasible.map((f) => f.reason).join('; ')}`);
+      const rates = usedPairs(set)
+        .map(
+          (p) =>
+            `${p.product}@${PLACEMENT_TAG[p.placement]} ${productRate(z.decision, p.product, p.placement).value.toFixed(0)}`,
+        )
+        .join(', ');
+      lines.push(
+        `  ${lpad(String(z.id), 4)} ${lpad(String(z.rateClass), 5)} ${lpad(z.areaAc.toFixed(2), 7)}  ${NUTRIENTS.map((n) => lpad(z.decision.nutrients[n].target.value.toFixed(0), 6)).join(' ')}  ${rates || '-'}  ${z.decision.status === 'ok' ? z.decision.binding.join('; ') : 'INFEASIBLE: ' + z.decision.infeasible.map((f) => f.reason).join('; ')}`,
+      );
     }
     if (set.design) lines.push(...designLines(set.design, u));
   }
@@ -156,7 +246,10 @@ export function summaryText(rx: Prescription): string {
  * `rates` [{ product, placement, rate, unit }], geometry in lon/lat. Zones with no product still appear
  * (all rates 0), so the files cover the whole field.
  */
-export function shapefileFeatures(rx: Prescription, set: ZoneSetResult): FeatureCollection<Polygon | MultiPolygon> {
+export function shapefileFeatures(
+  rx: Prescription,
+  set: ZoneSetResult,
+): FeatureCollection<Polygon | MultiPolygon> {
   const pairs = usedPairs(set);
   return {
     type: 'FeatureCollection',
@@ -164,9 +257,17 @@ export function shapefileFeatures(rx: Prescription, set: ZoneSetResult): Feature
       type: 'Feature',
       properties: {
         zone_id: z.id,
-        rates: pairs.map((p) => ({ product: p.product, placement: p.placement, rate: round(productRate(z.decision, p.product, p.placement).value, 1) ?? 0, unit: rx.plan.units })),
+        rates: pairs.map((p) => ({
+          product: p.product,
+          placement: p.placement,
+          rate: round(productRate(z.decision, p.product, p.placement).value, 1) ?? 0,
+          unit: rx.plan.units,
+        })),
       },
-      geometry: z.lonlat.length === 1 ? { type: 'Polygon', coordinates: z.lonlat[0] } : { type: 'MultiPolygon', coordinates: z.lonlat },
+      geometry:
+        z.lonlat.length === 1
+          ? { type: 'Polygon', coordinates: z.lonlat[0] }
+          : { type: 'MultiPolygon', coordinates: z.lonlat },
     })),
   };
 }
@@ -176,11 +277,32 @@ function designObject(d: ZoneDesign): unknown {
   const m = d.minArea;
   return {
     why: d.why,
-    counts: { classes_drawn: d.counts.classes, classes_kept: d.counts.classesMerged, zones_after_cleaning: d.counts.zonesCleaned, zones: d.counts.zones },
-    min_zone_area: { used_ac: round(m.usedM2 / 4046.8564224, 3), machine_ac: round(m.machineM2 / 4046.8564224, 3), per_sample_ac: round(m.perSampleM2 / 4046.8564224, 3), grid_samples: m.gridSamples, from_plan: m.fromPlan },
-    min_rate_difference: Object.fromEntries(Object.entries(d.minDifference).map(([k, v]) => [k, round(v, 2)])),
+    counts: {
+      classes_drawn: d.counts.classes,
+      classes_kept: d.counts.classesMerged,
+      zones_after_cleaning: d.counts.zonesCleaned,
+      zones: d.counts.zones,
+    },
+    min_zone_area: {
+      used_ac: round(m.usedM2 / 4046.8564224, 3),
+      machine_ac: round(m.machineM2 / 4046.8564224, 3),
+      per_sample_ac: round(m.perSampleM2 / 4046.8564224, 3),
+      grid_samples: m.gridSamples,
+      from_plan: m.fromPlan,
+    },
+    min_rate_difference: Object.fromEntries(
+      Object.entries(d.minDifference).map(([k, v]) => [k, round(v, 2)]),
+    ),
     rmse_carried: Object.fromEntries(Object.entries(d.rmse).map(([k, v]) => [k, round(v!, 4)])),
     vertices: d.vertices,
-    pairs: d.pairs.map((p) => ({ zones: [p.a, p.b], product: p.why?.product ?? null, placement: p.why?.placement ?? null, rates: p.why ? [p.why.a, p.why.b] : null, difference: p.why ? round(p.why.diff, 1) : null, min_difference: p.why ? round(p.why.min, 1) : null, error_range: p.why?.range ?? null })),
+    pairs: d.pairs.map((p) => ({
+      zones: [p.a, p.b],
+      product: p.why?.product ?? null,
+      placement: p.why?.placement ?? null,
+      rates: p.why ? [p.why.a, p.why.b] : null,
+      difference: p.why ? round(p.why.diff, 1) : null,
+      min_difference: p.why ? round(p.why.min, 1) : null,
+      error_range: p.why?.range ?? null,
+    })),
   };
 }

@@ -63,17 +63,28 @@ export function rateJudge(o: RateJudgeOptions): RateJudge {
   const minDifference = new Map<string, number>();
   const soilOf = (means: Float64Array): SoilValues => {
     const soil: SoilValues = { no3_n: NaN, p: NaN, k: NaN, so4_s: NaN, om: NaN, pMethod: o.pMethod };
-    o.analytes.forEach((a, l) => { (soil as unknown as Record<string, number>)[a] = means[l]; });
+    o.analytes.forEach((a, l) => {
+      (soil as unknown as Record<string, number>)[a] = means[l];
+    });
     if (o.textures) {
-      let best = -1, bw = 0;
-      TEXTURES.forEach((_, t) => { const w = means[o.analytes.length + t]; if (w > bw) { bw = w; best = t; } });
+      let best = -1,
+        bw = 0;
+      TEXTURES.forEach((_, t) => {
+        const w = means[o.analytes.length + t];
+        if (w > bw) {
+          bw = w;
+          best = t;
+        }
+      });
       soil.texture = best >= 0 ? TEXTURES[best] : null;
     }
     return soil;
   };
   const ratesOf = (d: Decision): Map<string, number> => {
     const m = new Map<string, number>();
-    for (const p of d.placements) for (const q of p.products) if (o.products.includes(q.product)) m.set(key(q.product, p.placement), q.rate.value);
+    for (const p of d.placements)
+      for (const q of p.products)
+        if (o.products.includes(q.product)) m.set(key(q.product, p.placement), q.rate.value);
     return m;
   };
   const judge: RateJudge = {
@@ -83,9 +94,11 @@ export function rateJudge(o: RateJudgeOptions): RateJudge {
       const soil = soilOf(means);
       const decision = decide(soil, o.plan, o.tables);
       const rates = ratesOf(decision);
-      const lo = new Map(rates), hi = new Map(rates);
+      const lo = new Map(rates),
+        hi = new Map(rates);
       for (const a of o.analytes) {
-        const e = o.rmse[a], v = (soil as unknown as Record<string, number>)[a];
+        const e = o.rmse[a],
+          v = (soil as unknown as Record<string, number>)[a];
         if (!(e! > 0) || !Number.isFinite(v)) continue;
         for (const moved of [v - e!, v + e!]) {
           const r = ratesOf(decide({ ...soil, [a]: Math.max(0, moved) }, o.plan, o.tables));
@@ -104,23 +117,37 @@ export function rateJudge(o: RateJudgeOptions): RateJudge {
       const keys = new Set(profiles.flatMap((p) => [...p.rates.keys()]));
       for (const k of keys) {
         const product = k.split('|')[0];
-        const mean = total > 0 ? profiles.reduce((s, p, i) => s + (p.rates.get(k) ?? 0) * areas[i], 0) / total : 0;
+        const mean =
+          total > 0 ? profiles.reduce((s, p, i) => s + (p.rates.get(k) ?? 0) * areas[i], 0) / total : 0;
         minDifference.set(k, minRateDifference(o.plan, product, mean));
       }
     },
     compare(a, b) {
-      let why: ApartReason | null = null, score = 0, best = -1;
+      let why: ApartReason | null = null,
+        score = 0,
+        best = -1;
       for (const k of new Set([...a.rates.keys(), ...b.rates.keys()])) {
-        const ra = a.rates.get(k) ?? 0, rb = b.rates.get(k) ?? 0, diff = Math.abs(ra - rb);
+        const ra = a.rates.get(k) ?? 0,
+          rb = b.rates.get(k) ?? 0,
+          diff = Math.abs(ra - rb);
         const min = minDifference.get(k) ?? minRateDifference(o.plan, k.split('|')[0], 0);
         const ratio = min > 0 ? diff / min : diff > 0 ? Infinity : 0;
         score = Math.max(score, ratio);
-        const outA = rb < (a.lo.get(k) ?? 0) || rb > (a.hi.get(k) ?? 0), outB = ra < (b.lo.get(k) ?? 0) || ra > (b.hi.get(k) ?? 0);
+        const outA = rb < (a.lo.get(k) ?? 0) || rb > (a.hi.get(k) ?? 0),
+          outB = ra < (b.lo.get(k) ?? 0) || ra > (b.hi.get(k) ?? 0);
         if (diff > 0 && diff >= min && (outA || outB) && ratio > best) {
           best = ratio;
           const firm = outA ? a : b;
           const [product, placement] = k.split('|') as [string, Placement];
-          why = { product, placement, a: ra, b: rb, diff, min, range: [firm.lo.get(k) ?? 0, firm.hi.get(k) ?? 0] };
+          why = {
+            product,
+            placement,
+            a: ra,
+            b: rb,
+            diff,
+            min,
+            range: [firm.lo.get(k) ?? 0, firm.hi.get(k) ?? 0],
+          };
         }
       }
       return { apart: why !== null, score, why };

@@ -68,10 +68,22 @@ export interface RateColumn {
   total: number;
 }
 
-const TOTAL_UNIT: Record<RxUnit, string> = { 'lb/ac': 'lb', 'kg/ha': 'kg', 'US gal/ac': 'US gal', 'L/ha': 'L' };
+const TOTAL_UNIT: Record<RxUnit, string> = {
+  'lb/ac': 'lb',
+  'kg/ha': 'kg',
+  'US gal/ac': 'US gal',
+  'L/ha': 'L',
+};
 
 function slug(s: string): string {
-  return s.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').toLowerCase().replace(/[^a-z0-9]+/g, '_').replace(/^_+|_+$/g, '') || 'x';
+  return (
+    s
+      .normalize('NFKD')
+      .replace(/[\u0300-\u036f]/g, '')
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '_')
+      .replace(/^_+|_+$/g, '') || 'x'
+  );
 }
 
 /** Decimal places for a rate unit: 1 for mass, 2 for volume. */
@@ -101,7 +113,10 @@ function rateColumnNames(products: string[], units: RxUnit[]): string[] {
   });
 }
 
-interface SetPlan { name: string; cols: { key: string; product: string; placement: string; unit: RxUnit; column: string }[] }
+interface SetPlan {
+  name: string;
+  cols: { key: string; product: string; placement: string; unit: RxUnit; column: string }[];
+}
 
 type Pair = { product: string; placement: string; unit: RxUnit };
 
@@ -110,13 +125,19 @@ function productPlacements(feats: Feature<Polygon | MultiPolygon>[]): Pair[] {
   const pairs: Pair[] = [];
   feats.forEach((f, i) => {
     const p = f.properties as RxZoneProperties | null;
-    if (!p || p.zone_id === undefined || !Array.isArray(p.rates)) throw new RangeError(`prescriptionFiles: feature ${i + 1} lacks zone_id or rates`);
+    if (!p || p.zone_id === undefined || !Array.isArray(p.rates))
+      throw new RangeError(`prescriptionFiles: feature ${i + 1} lacks zone_id or rates`);
     for (const r of p.rates) {
-      if (!(r.unit in RX_UNITS)) throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: unknown unit ${r.unit}`);
-      if (!Number.isFinite(r.rate) || r.rate < 0) throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: rate ${r.rate} for ${r.product}`);
+      if (!(r.unit in RX_UNITS))
+        throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: unknown unit ${r.unit}`);
+      if (!Number.isFinite(r.rate) || r.rate < 0)
+        throw new RangeError(`prescriptionFiles: zone ${p.zone_id}: rate ${r.rate} for ${r.product}`);
       const have = pairs.find((q) => q.product === r.product && q.placement === r.placement);
       if (!have) pairs.push({ product: r.product, placement: r.placement, unit: r.unit });
-      else if (have.unit !== r.unit) throw new RangeError(`prescriptionFiles: ${r.product} (${r.placement}) given in both ${have.unit} and ${r.unit}`);
+      else if (have.unit !== r.unit)
+        throw new RangeError(
+          `prescriptionFiles: ${r.product} (${r.placement}) given in both ${have.unit} and ${r.unit}`,
+        );
     }
   });
   return pairs;
@@ -129,14 +150,23 @@ function setPlans(pairs: Pair[], layout: LayoutOptions['layout'], prefix: string
     const placements = [...new Set(pairs.map((q) => q.placement))];
     for (const pl of placements) {
       const ps = pairs.filter((q) => q.placement === pl);
-      const names = rateColumnNames(ps.map((q) => q.product), ps.map((q) => q.unit));
-      plans.push({ name: `${prefix}_${slug(pl)}`, cols: ps.map((q, k) => ({ key: `rate_${k}`, ...q, column: names[k] })) });
+      const names = rateColumnNames(
+        ps.map((q) => q.product),
+        ps.map((q) => q.unit),
+      );
+      plans.push({
+        name: `${prefix}_${slug(pl)}`,
+        cols: ps.map((q, k) => ({ key: `rate_${k}`, ...q, column: names[k] })),
+      });
     }
   } else {
     const multi = new Map<string, number>();
     for (const q of pairs) multi.set(q.product, (multi.get(q.product) ?? 0) + 1);
     for (const q of pairs) {
-      const name = multi.get(q.product)! > 1 ? `${prefix}_${slug(q.product)}_${slug(q.placement)}` : `${prefix}_${slug(q.product)}`;
+      const name =
+        multi.get(q.product)! > 1
+          ? `${prefix}_${slug(q.product)}_${slug(q.placement)}`
+          : `${prefix}_${slug(q.product)}`;
       plans.push({ name, cols: [{ key: 'rate_0', ...q, column: `rate_${RX_UNITS[q.unit]}` }] });
     }
   }
@@ -156,21 +186,30 @@ function setPlans(pairs: Pair[], layout: LayoutOptions['layout'], prefix: string
  * const { files } = prescriptionFiles(fc, { layout: 'per_placement', crs: 'utm' });
  * for (const [name, bytes] of Object.entries(files)) writeFileAtomic(join(out, 'shapefiles', name), bytes);
  */
-export function prescriptionFiles(fc: FeatureCollection, opts: LayoutOptions): { files: Record<string, Uint8Array>; columns: RateColumn[] } {
+export function prescriptionFiles(
+  fc: FeatureCollection,
+  opts: LayoutOptions,
+): { files: Record<string, Uint8Array>; columns: RateColumn[] } {
   const prefix = opts.prefix ?? 'rx';
   const feats = fc.features as Feature<Polygon | MultiPolygon>[];
   if (!feats.length) throw new RangeError('prescriptionFiles: the prescription has no zones');
   const rateOf = (f: Feature, product: string, placement: string): number => {
-    const r = ((f.properties as RxZoneProperties | null)?.rates ?? []).find((x) => x.product === product && x.placement === placement);
+    const r = ((f.properties as RxZoneProperties | null)?.rates ?? []).find(
+      (x) => x.product === product && x.placement === placement,
+    );
     return r ? r.rate : 0;
   };
   const pairs = productPlacements(feats);
   const plans = setPlans(pairs, opts.layout, prefix);
   // unique set names (long and 8.3)
-  const longNames = plans.map((p, i) => (plans.findIndex((q) => q.name === p.name) < i ? `${p.name}_${i + 1}` : p.name));
+  const longNames = plans.map((p, i) =>
+    plans.findIndex((q) => q.name === p.name) < i ? `${p.name}_${i + 1}` : p.name,
+  );
   const setNames = opts.shortFileNames ? shortFileNames(longNames) : longNames.map((n) => baseFileName(n));
 
-  const areasM2 = feats.map((f) => groundAreaM2(f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.coordinates));
+  const areasM2 = feats.map((f) =>
+    groundAreaM2(f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.coordinates),
+  );
   const zoneIds = feats.map((f) => (f.properties as RxZoneProperties).zone_id);
   const idsNumeric = zoneIds.every((z) => typeof z === 'number' && Number.isInteger(z) && z >= 0);
   const files: Record<string, Uint8Array> = {};
@@ -181,30 +220,78 @@ export function prescriptionFiles(fc: FeatureCollection, opts: LayoutOptions): {
   plans.forEach((plan, si) => {
     const set = setNames[si];
     const rows = feats.map((f, i) => {
-      const props: Record<string, unknown> = { zone_id: zoneIds[i], area_ac: m2ToAc(areasM2[i]), area_ha: m2ToHa(areasM2[i]) };
+      const props: Record<string, unknown> = {
+        zone_id: zoneIds[i],
+        area_ac: m2ToAc(areasM2[i]),
+        area_ha: m2ToHa(areasM2[i]),
+      };
       for (const c of plan.cols) props[c.key] = rateOf(f, c.product, c.placement);
       return { type: 'Feature', properties: props, geometry: f.geometry } as Feature;
     });
     const specs: ColumnSpec[] = [
       idsNumeric
-        ? { key: 'zone_id', type: 'N', width: numberWidth(zoneIds as number[], 0), description: 'zone number' }
+        ? {
+            key: 'zone_id',
+            type: 'N',
+            width: numberWidth(zoneIds as number[], 0),
+            description: 'zone number',
+          }
         : { key: 'zone_id', type: 'C', width: 20, description: 'zone name' },
-      { key: 'area_ac', type: 'N', width: numberWidth(rows.map((r) => r.properties!.area_ac as number), 2), decimals: 2, description: 'zone ground area, acres (WGS 84 ellipsoid)' },
-      { key: 'area_ha', type: 'N', width: numberWidth(rows.map((r) => r.properties!.area_ha as number), 2), decimals: 2, description: 'zone ground area, hectares' },
+      {
+        key: 'area_ac',
+        type: 'N',
+        width: numberWidth(
+          rows.map((r) => r.properties!.area_ac as number),
+          2,
+        ),
+        decimals: 2,
+        description: 'zone ground area, acres (WGS 84 ellipsoid)',
+      },
+      {
+        key: 'area_ha',
+        type: 'N',
+        width: numberWidth(
+          rows.map((r) => r.properties!.area_ha as number),
+          2,
+        ),
+        decimals: 2,
+        description: 'zone ground area, hectares',
+      },
       ...plan.cols.map((c): ColumnSpec => ({
-        key: c.key, name: c.column, type: 'N', decimals: decimalsFor(c.unit),
-        width: numberWidth(rows.map((r) => r.properties![c.key] as number), decimalsFor(c.unit)),
+        key: c.key,
+        name: c.column,
+        type: 'N',
+        decimals: decimalsFor(c.unit),
+        width: numberWidth(
+          rows.map((r) => r.properties![c.key] as number),
+          decimalsFor(c.unit),
+        ),
         description: `${c.product}, ${c.placement}, ${c.unit} of product`,
       })),
     ];
     const written = resolveColumns(specs);
-    const setFiles = writeShapefile(rows, specs, { name: set, crs: opts.crs, utm: opts.utm, shortFileName: opts.shortFileNames, date });
+    const setFiles = writeShapefile(rows, specs, {
+      name: set,
+      crs: opts.crs,
+      utm: opts.utm,
+      shortFileName: opts.shortFileNames,
+      date,
+    });
     const rateCols: RateColumn[] = plan.cols.map((c, k) => {
       const vals = rows.map((r) => r.properties![c.key] as number);
       return {
-        set, column: written[3 + k].name, product: c.product, placement: c.placement, unit: c.unit,
-        min: Math.min(...vals), max: Math.max(...vals),
-        total: vals.reduce((s, v, i) => s + v * (c.unit === 'lb/ac' || c.unit === 'US gal/ac' ? m2ToAc(areasM2[i]) : m2ToHa(areasM2[i])), 0),
+        set,
+        column: written[3 + k].name,
+        product: c.product,
+        placement: c.placement,
+        unit: c.unit,
+        min: Math.min(...vals),
+        max: Math.max(...vals),
+        total: vals.reduce(
+          (s, v, i) =>
+            s + v * (c.unit === 'lb/ac' || c.unit === 'US gal/ac' ? m2ToAc(areasM2[i]) : m2ToHa(areasM2[i])),
+          0,
+        ),
       };
     });
     columns.push(...rateCols);
@@ -217,7 +304,14 @@ export function prescriptionFiles(fc: FeatureCollection, opts: LayoutOptions): {
   return { files, columns };
 }
 
-function noteText(set: string, cols: RateColumn[], opts: LayoutOptions, zones: number, areas: number[], date: Date): string {
+function noteText(
+  set: string,
+  cols: RateColumn[],
+  opts: LayoutOptions,
+  zones: number,
+  areas: number[],
+  date: Date,
+): string {
   const acres = m2ToAc(areas.reduce((s, a) => s + a, 0));
   const lines = [
     `Prescription file set "${set}"${opts.title ? ` for ${opts.title}` : ''}`,
@@ -228,7 +322,10 @@ function noteText(set: string, cols: RateColumn[], opts: LayoutOptions, zones: n
     `Layout: ${opts.layout === 'per_placement' ? 'one file set per placement, one rate column per product' : 'one file set per product, one rate column'}.`,
     '',
     'Rate columns (rates are product, not nutrient; the unit is the end of the column name):',
-    ...cols.map((c) => `  ${c.column}: ${c.product}, placed ${c.placement.replace(/_/g, ' ')}, ${c.unit}; ${c.min.toFixed(decimalsFor(c.unit))} to ${c.max.toFixed(decimalsFor(c.unit))}; about ${c.total.toFixed(0)} ${TOTAL_UNIT[c.unit]} in all`),
+    ...cols.map(
+      (c) =>
+        `  ${c.column}: ${c.product}, placed ${c.placement.replace(/_/g, ' ')}, ${c.unit}; ${c.min.toFixed(decimalsFor(c.unit))} to ${c.max.toFixed(decimalsFor(c.unit))}; about ${c.total.toFixed(0)} ${TOTAL_UNIT[c.unit]} in all`,
+    ),
     '',
     'Other columns: zone_id (zone), area_ac and area_ha (zone ground area). The .columns.csv (8.3: .CSV) lists every column.',
     'Outside every zone the controller applies its own default or off-field rate: set it on the terminal.',

@@ -49,10 +49,13 @@ export interface MinZoneArea {
  * @example minZoneArea(plan, 627000, 62).usedM2 // 10113 m2 (2.5 ac): one sample per 2.5 ac
  */
 export function minZoneArea(plan: Plan, fieldAreaM2: number, gridSamples: number): MinZoneArea {
-  const machineM2 = plan.machine.swath_width_ft * M_PER_FT * mphToMs(plan.machine.speed_mph) * plan.machine.rate_change_s;
+  const machineM2 =
+    plan.machine.swath_width_ft * M_PER_FT * mphToMs(plan.machine.speed_mph) * plan.machine.rate_change_s;
   const perSampleM2 = gridSamples > 0 ? fieldAreaM2 / gridSamples : 0;
   const fromPlan = plan.zoning.min_zone_ac !== 'auto';
-  const usedM2 = fromPlan ? (plan.zoning.min_zone_ac as number) * 4046.8564224 : Math.max(machineM2, perSampleM2);
+  const usedM2 = fromPlan
+    ? (plan.zoning.min_zone_ac as number) * 4046.8564224
+    : Math.max(machineM2, perSampleM2);
   return { machineM2, perSampleM2, gridSamples, usedM2, fromPlan };
 }
 
@@ -95,48 +98,113 @@ export function designZoneSets(d: DesignInputs): { sets: DesignedSet[]; warnings
   const { plan, grid, targets: tg } = d;
   const warnings: Warning[] = [];
   const allProducts = plan.products.map((p) => p.product);
-  const specs: { name: string; drivenBy: string; products: string[]; input: Float64Array | { classOf: Int16Array } }[] = [];
+  const specs: {
+    name: string;
+    drivenBy: string;
+    products: string[];
+    input: Float64Array | { classOf: Int16Array };
+  }[] = [];
   if (plan.zoning.zone_sets === 'shared') {
     const varying = NUTRIENTS.filter((n) => varies(tg[n], grid.fraction));
-    const classOf = varying.length > 0
-      ? classifyVectors(varying.map((n) => tg[n]), { classes: plan.zoning.classes, weights: grid.fraction }).classOf
-      : new Int16Array(grid.cols * grid.rows).map((_, i) => (grid.fraction[i] > 0 ? 0 : -1));
-    specs.push({ name: 'shared', drivenBy: `k-means on the standardized ${varying.map(nutrientLabel).join(', ') || 'targets (all uniform)'} targets`, products: allProducts, input: { classOf } });
+    const classOf =
+      varying.length > 0
+        ? classifyVectors(
+            varying.map((n) => tg[n]),
+            { classes: plan.zoning.classes, weights: grid.fraction },
+          ).classOf
+        : new Int16Array(grid.cols * grid.rows).map((_, i) => (grid.fraction[i] > 0 ? 0 : -1));
+    specs.push({
+      name: 'shared',
+      drivenBy: `k-means on the standardized ${varying.map(nutrientLabel).join(', ') || 'targets (all uniform)'} targets`,
+      products: allProducts,
+      input: { classOf },
+    });
   } else {
     const byNutrient = new Map<Nutrient, string[]>();
-    for (const p of allProducts) byNutrient.set(d.mainNutrient(p), [...(byNutrient.get(d.mainNutrient(p)) ?? []), p]);
-    for (const [n, prods] of byNutrient) specs.push({ name: n, drivenBy: `${nutrientLabel(n)} target (${plan.zoning.method}, up to ${plan.zoning.classes} classes)`, products: prods, input: tg[n] });
+    for (const p of allProducts)
+      byNutrient.set(d.mainNutrient(p), [...(byNutrient.get(d.mainNutrient(p)) ?? []), p]);
+    for (const [n, prods] of byNutrient)
+      specs.push({
+        name: n,
+        drivenBy: `${nutrientLabel(n)} target (${plan.zoning.method}, up to ${plan.zoning.classes} classes)`,
+        products: prods,
+        input: tg[n],
+      });
   }
   const rmse: Partial<Record<Analyte, number>> = {};
   for (const s of d.surfaces) if (s.cv) rmse[s.analyte] = s.cv.best.rmse;
   const textures = textureLayers(d.inputs, grid);
   const sets = specs.map((spec) => {
-    let input = spec.input, breaks: number[] | null = null;
+    let input = spec.input,
+      breaks: number[] | null = null;
     if (input instanceof Float64Array) {
-      const c = mergeCloseClasses(classify(input, { method: plan.zoning.method, classes: plan.zoning.classes, weights: grid.fraction, step: 0 }), plan.zoning.min_class_difference_pct);
+      const c = mergeCloseClasses(
+        classify(input, {
+          method: plan.zoning.method,
+          classes: plan.zoning.classes,
+          weights: grid.fraction,
+          step: 0,
+        }),
+        plan.zoning.min_class_difference_pct,
+      );
       input = { classOf: c.classOf };
       breaks = c.breaks;
     }
-    const judge = rateJudge({ plan, tables: d.tables, products: spec.products, layers: [...d.layers, ...(textures ?? [])], analytes: d.analytes, textures: !!textures, rmse, pMethod: d.inputs.samples.pMethod });
-    const zs = makeZones(grid, input, d.inputs.field, { majorityIterations: plan.zoning.smoothing_passes, minAreaM2: d.minArea.usedM2, judge, simplifyCells: plan.zoning.simplify_cells });
+    const judge = rateJudge({
+      plan,
+      tables: d.tables,
+      products: spec.products,
+      layers: [...d.layers, ...(textures ?? [])],
+      analytes: d.analytes,
+      textures: !!textures,
+      rmse,
+      pMethod: d.inputs.samples.pMethod,
+    });
+    const zs = makeZones(grid, input, d.inputs.field, {
+      majorityIterations: plan.zoning.smoothing_passes,
+      minAreaM2: d.minArea.usedM2,
+      judge,
+      simplifyCells: plan.zoning.simplify_cells,
+    });
     warnings.push(...zs.warnings);
     const minDifference = Object.fromEntries(judge.minDifference);
     const pairs = zs.pairs.map((p) => ({ a: p.a + 1, b: p.b + 1, why: orientWhy(p.why, zs.profiles![p.a]) }));
-    const design: ZoneDesign = { minArea: d.minArea, minDifference, rmse, counts: zs.counts, vertices: zs.vertices, pairs, why: whyText(zs.counts, d.minArea) };
-    return { name: spec.name, drivenBy: spec.drivenBy, products: spec.products, breaks, zones: zs, samples: samplesInZones(d.inputs, zs), design };
+    const design: ZoneDesign = {
+      minArea: d.minArea,
+      minDifference,
+      rmse,
+      counts: zs.counts,
+      vertices: zs.vertices,
+      pairs,
+      why: whyText(zs.counts, d.minArea),
+    };
+    return {
+      name: spec.name,
+      drivenBy: spec.drivenBy,
+      products: spec.products,
+      breaks,
+      zones: zs,
+      samples: samplesInZones(d.inputs, zs),
+      design,
+    };
   });
   if (d.minArea.fromPlan && d.minArea.usedM2 < d.minArea.perSampleM2) {
-    warnings.push({ code: 'zones.min-area-below-sample', message: `zoning.min_zone_ac ${m2ToAc(d.minArea.usedM2).toFixed(2)} ac is below the area one grid sample stands for (${m2ToAc(d.minArea.perSampleM2).toFixed(2)} ac = field area / ${d.minArea.gridSamples} samples): smaller zones rest on one sample or none. Fix: use min_zone_ac: auto unless you have reason to trust the map at that scale.` });
+    warnings.push({
+      code: 'zones.min-area-below-sample',
+      message: `zoning.min_zone_ac ${m2ToAc(d.minArea.usedM2).toFixed(2)} ac is below the area one grid sample stands for (${m2ToAc(d.minArea.perSampleM2).toFixed(2)} ac = field area / ${d.minArea.gridSamples} samples): smaller zones rest on one sample or none. Fix: use min_zone_ac: auto unless you have reason to trust the map at that scale.`,
+    });
   }
   return { sets, warnings };
 }
 
 function whyText(c: ZoneSet['counts'], m: MinZoneArea): string {
   const n = (k: number, one: string, many: string) => `${k} ${k === 1 ? one : many}`;
-  return `${n(c.zones, 'zone', 'zones')} at ${n(c.rateClasses, 'rate', 'distinct rates')}: ${n(c.classes, 'class', 'classes')} drawn, ${c.classesMerged} kept after merging classes whose rates do not differ by an amount that matters; ` +
+  return (
+    `${n(c.zones, 'zone', 'zones')} at ${n(c.rateClasses, 'rate', 'distinct rates')}: ${n(c.classes, 'class', 'classes')} drawn, ${c.classesMerged} kept after merging classes whose rates do not differ by an amount that matters; ` +
     `cleaning (majority filter, zones under ${m2ToAc(m.usedM2).toFixed(2)} ac merged into a neighbour) gave ${n(c.zonesCleaned, 'zone', 'zones')}, ${c.zonesMerged} after merging neighbours the same way; ` +
     `zones anywhere in the field whose rates do not differ by such an amount then share one rate (${n(c.rateClasses, 'rate class', 'rate classes')}). ` +
-    'Every pair of neighbouring zones left differs in some product by at least the minimum difference and by more than the soil maps\' error moves that rate.';
+    "Every pair of neighbouring zones left differs in some product by at least the minimum difference and by more than the soil maps' error moves that rate."
+  );
 }
 
 /** Per texture, 1 where the cell's nearest textured sample has it (NaN when no sample has a texture). */
@@ -149,13 +217,24 @@ function textureLayers(inputs: FieldInputs, grid: Grid): Uint8Array[] | null {
   // found by the shared k-nearest search (src/surface/neighbours.ts) on the grid of blocks
   const b = Math.max(1, Math.floor(Math.sqrt((grid.cols * grid.rows) / 40000)));
   const pts = new Float64Array(2 * idx.length);
-  idx.forEach((j, t) => { pts[2 * t] = s.xy[2 * j]; pts[2 * t + 1] = s.xy[2 * j + 1]; });
-  const blocks = { xmin: grid.xmin, ymax: grid.ymax, cell: grid.cell * b, cols: Math.ceil(grid.cols / b), rows: Math.ceil(grid.rows / b) };
+  idx.forEach((j, t) => {
+    pts[2 * t] = s.xy[2 * j];
+    pts[2 * t + 1] = s.xy[2 * j + 1];
+  });
+  const blocks = {
+    xmin: grid.xmin,
+    ymax: grid.ymax,
+    cell: grid.cell * b,
+    cols: Math.ceil(grid.cols / b),
+    rows: Math.ceil(grid.rows / b),
+  };
   forEachNeighbourBand(pts, blocks, 1, {}, (band) => {
     for (let t = 0; t < band.count; t++) {
-      const R = Math.floor(band.cells[t] / blocks.cols), C = band.cells[t] % blocks.cols;
+      const R = Math.floor(band.cells[t] / blocks.cols),
+        C = band.cells[t] % blocks.cols;
       const layer = out[TEXTURES.indexOf(s.texture[idx[band.idx[t]]]!)];
-      for (let r = R * b; r < Math.min(grid.rows, R * b + b); r++) for (let c = C * b; c < Math.min(grid.cols, C * b + b); c++) layer[r * grid.cols + c] = 1;
+      for (let r = R * b; r < Math.min(grid.rows, R * b + b); r++)
+        for (let c = C * b; c < Math.min(grid.cols, C * b + b); c++) layer[r * grid.cols + c] = 1;
     }
   });
   return out;
@@ -179,8 +258,13 @@ function orientWhy(w: ApartReason | null, first: ZoneProfile): ApartReason | nul
 }
 
 function varies(v: Float64Array, w: ArrayLike<number>): boolean {
-  let lo = Infinity, hi = -Infinity;
-  for (let i = 0; i < v.length; i++) if (w[i] > 0 && v[i] === v[i]) { if (v[i] < lo) lo = v[i]; if (v[i] > hi) hi = v[i]; }
+  let lo = Infinity,
+    hi = -Infinity;
+  for (let i = 0; i < v.length; i++)
+    if (w[i] > 0 && v[i] === v[i]) {
+      if (v[i] < lo) lo = v[i];
+      if (v[i] > hi) hi = v[i];
+    }
   return hi - lo > 1e-9;
 }
 
@@ -193,17 +277,33 @@ const nutrientLabel = (n: Nutrient): string => ({ n: 'N', p2o5: 'P2O5', k2o: 'K2
  * and the legend breaks [min, upper of each class..., max].
  * @example mergeCloseClasses(classify(v, { classes: 5 }), 5).classOf
  */
-export function mergeCloseClasses(c: Classes, pct: number): { classOf: Int16Array; breaks: number[]; count: number } {
+export function mergeCloseClasses(
+  c: Classes,
+  pct: number,
+): { classOf: Int16Array; breaks: number[]; count: number } {
   if (c.count <= 1 || !(pct > 0)) return { classOf: c.classOf, breaks: c.breaks, count: c.count };
-  let tw = 0, tm = 0;
-  for (let k = 0; k < c.count; k++) { tw += c.weight[k]; tm += c.weight[k] * c.mean[k]; }
+  let tw = 0,
+    tm = 0;
+  for (let k = 0; k < c.count; k++) {
+    tw += c.weight[k];
+    tm += c.weight[k] * c.mean[k];
+  }
   const thr = (Math.abs(tm / tw) * pct) / 100;
   const group = new Int16Array(c.count);
   const breaks = [c.breaks[0]];
-  let g = 0, gw = c.weight[0], gm = c.weight[0] * c.mean[0];
+  let g = 0,
+    gw = c.weight[0],
+    gm = c.weight[0] * c.mean[0];
   for (let k = 1; k < c.count; k++) {
-    if (c.mean[k] - gm / gw < thr) { gw += c.weight[k]; gm += c.weight[k] * c.mean[k]; }
-    else { breaks.push(c.breaks[k]); g++; gw = c.weight[k]; gm = c.weight[k] * c.mean[k]; }
+    if (c.mean[k] - gm / gw < thr) {
+      gw += c.weight[k];
+      gm += c.weight[k] * c.mean[k];
+    } else {
+      breaks.push(c.breaks[k]);
+      g++;
+      gw = c.weight[k];
+      gm = c.weight[k] * c.mean[k];
+    }
     group[k] = g;
   }
   breaks.push(c.breaks[c.count]);
@@ -216,13 +316,31 @@ export function mergeCloseClasses(c: Classes, pct: number): { classOf: Int16Arra
  * acre (1 = least product). Sets `rateClass` in place.
  * @example numberRateClasses(zones, ['urea']); zones.map((z) => z.rateClass)
  */
-export function numberRateClasses(zones: { rateClass: number; decision: Decision }[], products: string[]): void {
-  const sig = (d: Decision) => d.placements.flatMap((p) => p.products.filter((q) => products.includes(q.product)).map((q) => `${q.product}|${p.placement}|${q.rate.value}`)).sort().join(';');
-  const order = [...new Map(zones.map((z) => [sig(z.decision), z.decision.costPerAc])).entries()].sort((a, b) => a[1] - b[1] || (a[0] < b[0] ? -1 : 1)).map(([k]) => k);
+export function numberRateClasses(
+  zones: { rateClass: number; decision: Decision }[],
+  products: string[],
+): void {
+  const sig = (d: Decision) =>
+    d.placements
+      .flatMap((p) =>
+        p.products
+          .filter((q) => products.includes(q.product))
+          .map((q) => `${q.product}|${p.placement}|${q.rate.value}`),
+      )
+      .sort()
+      .join(';');
+  const order = [...new Map(zones.map((z) => [sig(z.decision), z.decision.costPerAc])).entries()]
+    .sort((a, b) => a[1] - b[1] || (a[0] < b[0] ? -1 : 1))
+    .map(([k]) => k);
   for (const z of zones) z.rateClass = order.indexOf(sig(z.decision)) + 1;
 }
 
-const PLACEMENT_SHORT: Record<string, string> = { seed_row: 'seed row', side_band: 'side band', mid_row_band: 'mid-row band', broadcast: 'broadcast' };
+const PLACEMENT_SHORT: Record<string, string> = {
+  seed_row: 'seed row',
+  side_band: 'side band',
+  mid_row_band: 'mid-row band',
+  broadcast: 'broadcast',
+};
 
 /**
  * What keeps two neighbouring zones apart, for people.
@@ -230,9 +348,13 @@ const PLACEMENT_SHORT: Record<string, string> = { seed_row: 'seed row', side_ban
  * // 'urea side band 206 vs 250 lb/ac: differs by 44 (minimum 21), outside 191-221 where the soil maps' error moves it'
  */
 export function apartText(w: ApartReason | null, unit: string): string {
-  if (!w) return 'no product rate differs by an amount that matters (kept: the zones are separate parts of the field or were not merged)';
+  if (!w)
+    return 'no product rate differs by an amount that matters (kept: the zones are separate parts of the field or were not merged)';
   const f = (v: number) => (Number.isInteger(v) ? String(v) : v.toFixed(1));
-  const range = w.range[0] === w.range[1] ? `the soil maps' error does not move the firmer rate (${f(w.range[0])})` : `outside ${f(w.range[0])}-${f(w.range[1])} where the soil maps' error moves it`;
+  const range =
+    w.range[0] === w.range[1]
+      ? `the soil maps' error does not move the firmer rate (${f(w.range[0])})`
+      : `outside ${f(w.range[0])}-${f(w.range[1])} where the soil maps' error moves it`;
   return `${w.product} ${PLACEMENT_SHORT[w.placement] ?? w.placement} ${f(w.a)} vs ${f(w.b)} ${unit}: differs by ${f(w.diff)} (minimum ${f(w.min)}), ${range}`;
 }
 
@@ -244,12 +366,28 @@ export function designLines(d: ZoneDesign, unit: string): string[] {
   const ac = (m2: number) => `${m2ToAc(m2).toFixed(2)} ac`;
   const m = d.minArea;
   const lines = [`  why: ${d.why}`];
-  lines.push(m.fromPlan
-    ? `  minimum zone area ${ac(m.usedM2)} from plan key zoning.min_zone_ac (machine ${ac(m.machineM2)}, one grid sample's area ${ac(m.perSampleM2)})`
-    : `  minimum zone area ${ac(m.usedM2)}: the larger of the machine's ${ac(m.machineM2)} (swath x distance travelled during a rate change) and one grid sample's area ${ac(m.perSampleM2)} (field / ${m.gridSamples} samples)`);
-  lines.push(`  minimum rate differences (${unit}): ${Object.entries(d.minDifference).map(([k, v]) => `${k.replace('|', ' ')} ${v.toFixed(1)}`).join(', ') || '-'}`);
-  lines.push(`  soil-map errors carried through the rates (leave-one-out RMSE): ${Object.entries(d.rmse).map(([a, v]) => `${a} ${v!.toPrecision(3)}`).join(', ') || 'none'}`);
-  lines.push(`  edges: ${d.vertices.traced} vertices as a cell staircase, ${d.vertices.simplified} after smoothing shared edges; ${d.vertices.clipped} written (clipped to the exact boundary)`);
+  lines.push(
+    m.fromPlan
+      ? `  minimum zone area ${ac(m.usedM2)} from plan key zoning.min_zone_ac (machine ${ac(m.machineM2)}, one grid sample's area ${ac(m.perSampleM2)})`
+      : `  minimum zone area ${ac(m.usedM2)}: the larger of the machine's ${ac(m.machineM2)} (swath x distance travelled during a rate change) and one grid sample's area ${ac(m.perSampleM2)} (field / ${m.gridSamples} samples)`,
+  );
+  lines.push(
+    `  minimum rate differences (${unit}): ${
+      Object.entries(d.minDifference)
+        .map(([k, v]) => `${k.replace('|', ' ')} ${v.toFixed(1)}`)
+        .join(', ') || '-'
+    }`,
+  );
+  lines.push(
+    `  soil-map errors carried through the rates (leave-one-out RMSE): ${
+      Object.entries(d.rmse)
+        .map(([a, v]) => `${a} ${v!.toPrecision(3)}`)
+        .join(', ') || 'none'
+    }`,
+  );
+  lines.push(
+    `  edges: ${d.vertices.traced} vertices as a cell staircase, ${d.vertices.simplified} after smoothing shared edges; ${d.vertices.clipped} written (clipped to the exact boundary)`,
+  );
   for (const p of d.pairs) lines.push(`  zones ${p.a} and ${p.b}: ${apartText(p.why, unit)}`);
   return lines;
 }

@@ -14,9 +14,29 @@
 export type RampName = 'viridis' | 'magma' | 'cividis';
 
 const ANCHORS: Record<RampName, string[]> = {
-  viridis: ['#440154', '#472d7b', '#3b528b', '#2c728e', '#21918c', '#28ae80', '#5ec962', '#addc30', '#fde725'],
+  viridis: [
+    '#440154',
+    '#472d7b',
+    '#3b528b',
+    '#2c728e',
+    '#21918c',
+    '#28ae80',
+    '#5ec962',
+    '#addc30',
+    '#fde725',
+  ],
   magma: ['#000004', '#1d1147', '#51127c', '#822681', '#b63679', '#e65164', '#fb8861', '#fec287', '#fcfdbf'],
-  cividis: ['#00204d', '#00336f', '#39486b', '#575c6d', '#707173', '#8a8779', '#a69d75', '#c4b56c', '#ffea46'],
+  cividis: [
+    '#00204d',
+    '#00336f',
+    '#39486b',
+    '#575c6d',
+    '#707173',
+    '#8a8779',
+    '#a69d75',
+    '#c4b56c',
+    '#ffea46',
+  ],
 };
 
 /** Part of each ramp used, so that the darkest class is not black and the lightest not white. */
@@ -80,7 +100,8 @@ export function classColours(name: RampName, n: number): string[] {
 export function rateColours(name: RampName, rates: readonly number[], close = 0): string[] {
   if (rates.length === 0) return [];
   const [lo, hi] = RANGE[name];
-  const min = Math.min(...rates), span = Math.max(Math.max(...rates) - min, 4 * close);
+  const min = Math.min(...rates),
+    span = Math.max(Math.max(...rates) - min, 4 * close);
   if (rates.length === 1 || !(span > 0)) return rates.map(() => rgbHex(rampRgb(name, (lo + hi) / 2)));
   return rates.map((v) => rgbHex(rampRgb(name, lo + ((hi - lo) * (v - min)) / span)));
 }

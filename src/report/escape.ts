@@ -10,8 +10,9 @@ const MAP: Record<string, string> = { '&': '&amp;', '<': '&lt;', '>': '&gt;', '"
  * @example esc('<script>alert(1)</script>') // '&lt;script&gt;alert(1)&lt;/script&gt;'
  */
 export function esc(value: unknown): string {
-  // eslint-disable-next-line no-control-regex
-  return String(value ?? '').replace(/[&<>"']/g, (c) => MAP[c]!).replace(/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/g, '');
+  return String(value ?? '')
+    .replace(/[&<>"']/g, (c) => MAP[c]!)
+    .replace(/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/g, '');
 }
 
 /**

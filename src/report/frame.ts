@@ -45,7 +45,10 @@ export const py = (f: Frame, y: number): number => PAD + (f.y0 - y) * f.k;
 
 /** Bounding box of parts' exterior rings. */
 export function partsBbox(parts: readonly ReportPart[]): [number, number, number, number] {
-  let xmin = Infinity, ymin = Infinity, xmax = -Infinity, ymax = -Infinity;
+  let xmin = Infinity,
+    ymin = Infinity,
+    xmax = -Infinity,
+    ymax = -Infinity;
   for (const p of parts) {
     const e = p.exterior;
     for (let i = 0; i + 1 < e.length; i += 2) {
@@ -91,11 +94,13 @@ export function niceLength(max: number): number {
 
 function bar(x: number, y: number, lenPx: number, label: string, cls: string): string {
   const half = lenPx / 2;
-  return `<g class="${cls}">` +
+  return (
+    `<g class="${cls}">` +
     `<rect x="${x.toFixed(1)}" y="${y}" width="${half.toFixed(1)}" height="6" fill="#222"/>` +
     `<rect x="${(x + half).toFixed(1)}" y="${y}" width="${half.toFixed(1)}" height="6" fill="#fff" stroke="#222" stroke-width="1"/>` +
     `<text x="${x.toFixed(1)}" y="${y + 19}" class="sb-t">0</text>` +
-    `<text x="${(x + lenPx).toFixed(1)}" y="${y + 19}" class="sb-t" text-anchor="end">${label}</text></g>`;
+    `<text x="${(x + lenPx).toFixed(1)}" y="${y + 19}" class="sb-t" text-anchor="end">${label}</text></g>`
+  );
 }
 
 /**
@@ -109,8 +114,12 @@ export function scaleBar(f: Frame): string {
   const y = PAD + f.h + 10;
   const mLabel = m >= 1000 ? `${fmt(m / 1000, m % 1000 ? 1 : 0)} km` : `${fmt(m)} m`;
   const ftLabel = `${fmt(ft)} ft`;
-  return `<g class="scalebar" data-m="${m}" data-ft="${ft}">` +
-    bar(PAD, y, m * f.k, mLabel, 'sb-m') + bar(PAD + m * f.k + 40, y, ft * M_PER_FT * f.k, ftLabel, 'sb-ft') + '</g>';
+  return (
+    `<g class="scalebar" data-m="${m}" data-ft="${ft}">` +
+    bar(PAD, y, m * f.k, mLabel, 'sb-m') +
+    bar(PAD + m * f.k + 40, y, ft * M_PER_FT * f.k, ftLabel, 'sb-ft') +
+    '</g>'
+  );
 }
 
 /**
@@ -120,12 +129,14 @@ export function scaleBar(f: Frame): string {
 export function northArrow(f: Frame, trueNorthDeg = 0): string {
   const x = PAD + f.w - 28;
   const y = PAD + 12;
-  return `<g class="north" transform="translate(${x} ${y})" data-true-north-deg="${trueNorthDeg.toFixed(3)}">` +
+  return (
+    `<g class="north" transform="translate(${x} ${y})" data-true-north-deg="${trueNorthDeg.toFixed(3)}">` +
     `<title>True north; grid north (UTM) differs by ${Math.abs(trueNorthDeg).toFixed(1)}°</title>` +
     `<circle cx="0" cy="22" r="20" fill="#fff" fill-opacity="0.85" stroke="#222"/>` +
     `<line x1="0" y1="2" x2="0" y2="10" stroke="#222" stroke-width="1"/>` +
     `<path d="M0 4 L9 32 L0 26 L-9 32 Z" fill="#222" transform="rotate(${trueNorthDeg.toFixed(2)} 0 22)"/>` +
-    `<text x="0" y="56" text-anchor="middle" class="n-t">N</text></g>`;
+    `<text x="0" y="56" text-anchor="middle" class="n-t">N</text></g>`
+  );
 }
 
 export interface LegendItem {
@@ -163,8 +174,13 @@ function lines(text: string, width: number): string[] {
 
 /** Text broken into lines, as <text> with <tspan>s. */
 function wrapText(text: string, x: number, y: number, width: number, cls: string, step = 14): string {
-  return `<text x="${x}" y="${y}" class="${cls}">` +
-    lines(text, width).map((l, i) => `<tspan x="${x}" dy="${i === 0 ? 0 : step}">${esc(l)}</tspan>`).join('') + '</text>';
+  return (
+    `<text x="${x}" y="${y}" class="${cls}">` +
+    lines(text, width)
+      .map((l, i) => `<tspan x="${x}" dy="${i === 0 ? 0 : step}">${esc(l)}</tspan>`)
+      .join('') +
+    '</text>'
+  );
 }
 
 /** Where the legend starts: under the map and its scale bar. */
@@ -175,7 +191,12 @@ const legendTop = (f: Frame): number => PAD + f.h + FOOT;
  * first column, then the second), and notes in small print. Returns the SVG and the height used.
  * @example legend(frame, 'Olsen P (ppm)', [{ fill: '#440154', label: '< 10' }])
  */
-export function legend(f: Frame, title: string, items: readonly LegendItem[], notes: readonly string[] = []): { svg: string; bottom: number } {
+export function legend(
+  f: Frame,
+  title: string,
+  items: readonly LegendItem[],
+  notes: readonly string[] = [],
+): { svg: string; bottom: number } {
   const x0 = PAD;
   let y = legendTop(f);
   let s = `<g class="legend">${wrapText(title, x0, y + 12, TITLE_CHARS, 'lg-title', 17)}`;
@@ -209,11 +230,26 @@ export function legend(f: Frame, title: string, items: readonly LegendItem[], no
  * The whole <svg> of one map: map content (already built), frame items and legend.
  * @param id unique per page (used for clip paths)
  */
-export function mapSvg(f: Frame, id: string, kind: string, body: string, lg: { svg: string; bottom: number }, utm: { epsg: number }, aria: string, trueNorthDeg = 0): string {
+export function mapSvg(
+  f: Frame,
+  id: string,
+  kind: string,
+  body: string,
+  lg: { svg: string; bottom: number },
+  utm: { epsg: number },
+  aria: string,
+  trueNorthDeg = 0,
+): string {
   const W = PAD * 2 + MAP_W;
   const H = Math.ceil(lg.bottom + PAD);
-  return `<svg class="map" data-map="${esc(id)}" data-kind="${esc(kind)}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" ` +
+  return (
+    `<svg class="map" data-map="${esc(id)}" data-kind="${esc(kind)}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" ` +
     `role="img" aria-label="${esc(aria)}" data-epsg="${utm.epsg}" data-utm-origin="${f.x0.toFixed(2)} ${f.y0.toFixed(2)}" data-px-per-m="${f.k.toPrecision(6)}">` +
     `<rect class="map-bg" x="${PAD}" y="${PAD}" width="${f.w}" height="${f.h}" fill="#fff"/>` +
-    body + northArrow(f, trueNorthDeg) + scaleBar(f) + lg.svg + '</svg>';
+    body +
+    northArrow(f, trueNorthDeg) +
+    scaleBar(f) +
+    lg.svg +
+    '</svg>'
+  );
 }

@@ -6,12 +6,28 @@
 import { classColours, NEUTRAL, QUALITATIVE, rateColours } from './colour.js';
 import { esc, fmt } from './escape.js';
 import {
-  type Frame, type LegendItem, geoGroup, legend, makeFrame, mapSvg, partsBbox, partsPath, px, py,
+  type Frame,
+  type LegendItem,
+  geoGroup,
+  legend,
+  makeFrame,
+  mapSvg,
+  partsBbox,
+  partsPath,
+  px,
+  py,
 } from './frame.js';
 import { trueNorthOnGrid } from './north.js';
 import { pngDataUri } from './png.js';
 import { areaLabel } from './tables.js';
-import type { ReportInput, ReportNutrient, ReportPart, ReportRaster, ReportZone, ReportZoneSet } from './types.js';
+import type {
+  ReportInput,
+  ReportNutrient,
+  ReportPart,
+  ReportRaster,
+  ReportZone,
+  ReportZoneSet,
+} from './types.js';
 
 /** One drawn map. */
 export interface ReportMap {
@@ -46,7 +62,8 @@ export function classify(values: ArrayLike<number>, breaks: readonly number[]): 
 export function breakLabels(breaks: readonly number[], decimals = 0): string[] {
   if (breaks.length === 0) return ['all values'];
   const out = [`< ${fmt(breaks[0]!, decimals)}`];
-  for (let i = 1; i < breaks.length; i++) out.push(`${fmt(breaks[i - 1]!, decimals)} – < ${fmt(breaks[i]!, decimals)}`);
+  for (let i = 1; i < breaks.length; i++)
+    out.push(`${fmt(breaks[i - 1]!, decimals)} – < ${fmt(breaks[i]!, decimals)}`);
   out.push(`≥ ${fmt(breaks[breaks.length - 1]!, decimals)}`);
   return out;
 }
@@ -60,27 +77,38 @@ export function breakLabels(breaks: readonly number[], decimals = 0): string[] {
 export function dilateClasses(index: Uint8Array, cols: number, rows: number, passes = 2): Uint8Array {
   for (let p = 0; p < passes; p++) {
     const src = index.slice();
-    for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
-      if (src[r * cols + c] !== 255) continue;
-      search: for (let dr = -1; dr <= 1; dr++) for (let dc = -1; dc <= 1; dc++) {
-        const rr = r + dr, cc = c + dc;
-        if (rr < 0 || cc < 0 || rr >= rows || cc >= cols) continue;
-        const v = src[rr * cols + cc]!;
-        if (v !== 255) {
-          index[r * cols + c] = v;
-          break search;
-        }
+    for (let r = 0; r < rows; r++)
+      for (let c = 0; c < cols; c++) {
+        if (src[r * cols + c] !== 255) continue;
+        search: for (let dr = -1; dr <= 1; dr++)
+          for (let dc = -1; dc <= 1; dc++) {
+            const rr = r + dr,
+              cc = c + dc;
+            if (rr < 0 || cc < 0 || rr >= rows || cc >= cols) continue;
+            const v = src[rr * cols + cc]!;
+            if (v !== 255) {
+              index[r * cols + c] = v;
+              break search;
+            }
+          }
       }
-    }
   }
   return index;
 }
 
-function rasterImage(f: Frame, r: ReportRaster, index: Uint8Array, palette: readonly string[], clipId: string): string {
+function rasterImage(
+  f: Frame,
+  r: ReportRaster,
+  index: Uint8Array,
+  palette: readonly string[],
+  clipId: string,
+): string {
   const g = r.grid;
   const uri = pngDataUri(dilateClasses(index, g.cols, g.rows), g.cols, g.rows, palette);
-  return `<image class="raster" x="${(g.xmin - f.x0).toFixed(2)}" y="${(f.y0 - g.ymax).toFixed(2)}" width="${g.cols * g.cell}" height="${g.rows * g.cell}" ` +
-    `preserveAspectRatio="none" style="image-rendering:pixelated" clip-path="url(#${clipId})" href="${uri}"/>`;
+  return (
+    `<image class="raster" x="${(g.xmin - f.x0).toFixed(2)}" y="${(f.y0 - g.ymax).toFixed(2)}" width="${g.cols * g.cell}" height="${g.rows * g.cell}" ` +
+    `preserveAspectRatio="none" style="image-rendering:pixelated" clip-path="url(#${clipId})" href="${uri}"/>`
+  );
 }
 
 function clipDef(f: Frame, parts: readonly ReportPart[], id: string): string {
@@ -102,28 +130,43 @@ function samplePoints(f: Frame, input: ReportInput, label: (i: number) => string
   let dots = '';
   let texts = '';
   const placed = new BoxIndex();
-  const CH = 6.3, H = 11; // approximate glyph width and height at 11 px
+  const CH = 6.3,
+    H = 11; // approximate glyph width and height at 11 px
   for (let i = 0; i < ids.length; i++) {
     const x = xy[2 * i]!;
     const y = xy[2 * i + 1]!;
     dots += `<circle cx="${(x - f.x0).toFixed(1)}" cy="${(f.y0 - y).toFixed(1)}" r="${r.toPrecision(3)}"/>`;
     const t = label(i);
     if (t === null) continue;
-    const X = px(f, x), Y = py(f, y), w = t.length * CH;
-    const options: [number, number, string][] = [[X + 6, Y - 5, 'start'], [X + 6, Y + 14, 'start'], [X - 6, Y - 5, 'end'], [X - 6, Y + 14, 'end']];
+    const X = px(f, x),
+      Y = py(f, y),
+      w = t.length * CH;
+    const options: [number, number, string][] = [
+      [X + 6, Y - 5, 'start'],
+      [X + 6, Y + 14, 'start'],
+      [X - 6, Y - 5, 'end'],
+      [X - 6, Y + 14, 'end'],
+    ];
     let pick = options[0]!;
     for (const o of options) {
-      const box: [number, number, number, number] = o[2] === 'start' ? [o[0], o[1] - H, o[0] + w, o[1]] : [o[0] - w, o[1] - H, o[0], o[1]];
+      const box: [number, number, number, number] =
+        o[2] === 'start' ? [o[0], o[1] - H, o[0] + w, o[1]] : [o[0] - w, o[1] - H, o[0], o[1]];
       if (!placed.overlaps(box)) {
         pick = o;
         break;
       }
     }
-    placed.add(pick[2] === 'start' ? [pick[0], pick[1] - H, pick[0] + w, pick[1]] : [pick[0] - w, pick[1] - H, pick[0], pick[1]]);
+    placed.add(
+      pick[2] === 'start'
+        ? [pick[0], pick[1] - H, pick[0] + w, pick[1]]
+        : [pick[0] - w, pick[1] - H, pick[0], pick[1]],
+    );
     texts += `<text x="${pick[0].toFixed(1)}" y="${pick[1].toFixed(1)}"${pick[2] === 'end' ? ' text-anchor="end"' : ''}>${esc(t)}</text>`;
   }
-  return `${geoGroup(f, ' class="samples"')}<g fill="#fff" stroke="#000" stroke-width="1.5" class="sample-dots">${dots}</g></g>` +
-    `<g class="sample-labels">${texts}</g>`;
+  return (
+    `${geoGroup(f, ' class="samples"')}<g fill="#fff" stroke="#000" stroke-width="1.5" class="sample-dots">${dots}</g></g>` +
+    `<g class="sample-labels">${texts}</g>`
+  );
 }
 
 /**
@@ -137,15 +180,22 @@ export class BoxIndex {
   private keys(b: readonly number[], fn: (key: number) => boolean | void): boolean {
     const S = BoxIndex.S;
     for (let gy = Math.floor(b[1]! / S); gy <= Math.floor(b[3]! / S); gy++) {
-      for (let gx = Math.floor(b[0]! / S); gx <= Math.floor(b[2]! / S); gx++) if (fn((gy + 4096) * 8192 + gx + 4096)) return true;
+      for (let gx = Math.floor(b[0]! / S); gx <= Math.floor(b[2]! / S); gx++)
+        if (fn((gy + 4096) * 8192 + gx + 4096)) return true;
     }
     return false;
   }
   add(b: [number, number, number, number]): void {
-    this.keys(b, (k) => { const l = this.cells.get(k); if (l) l.push(b); else this.cells.set(k, [b]); });
+    this.keys(b, (k) => {
+      const l = this.cells.get(k);
+      if (l) l.push(b);
+      else this.cells.set(k, [b]);
+    });
   }
   overlaps(box: readonly [number, number, number, number]): boolean {
-    return this.keys(box, (k) => (this.cells.get(k) ?? []).some((b) => box[0] < b[2] && b[0] < box[2] && box[1] < b[3] && b[1] < box[3]));
+    return this.keys(box, (k) =>
+      (this.cells.get(k) ?? []).some((b) => box[0] < b[2] && b[0] < box[2] && box[1] < b[3] && b[1] < box[3]),
+    );
   }
 }
 
@@ -157,10 +207,15 @@ export class BoxIndex {
 export function labelPoint(part: ReportPart): [number, number] {
   const rings = [part.exterior, ...part.holes];
   const e = part.exterior;
-  let xmin = Infinity, ymin = Infinity, xmax = -Infinity, ymax = -Infinity;
+  let xmin = Infinity,
+    ymin = Infinity,
+    xmax = -Infinity,
+    ymax = -Infinity;
   for (let i = 0; i + 1 < e.length; i += 2) {
-    xmin = Math.min(xmin, e[i]!); xmax = Math.max(xmax, e[i]!);
-    ymin = Math.min(ymin, e[i + 1]!); ymax = Math.max(ymax, e[i + 1]!);
+    xmin = Math.min(xmin, e[i]!);
+    xmax = Math.max(xmax, e[i]!);
+    ymin = Math.min(ymin, e[i + 1]!);
+    ymax = Math.max(ymax, e[i + 1]!);
   }
   // signed: distance to the nearest edge, negative outside (even-odd over all rings)
   const score = (x: number, y: number): number => {
@@ -169,9 +224,13 @@ export function labelPoint(part: ReportPart): [number, number] {
     for (const r of rings) {
       const n = r.length >> 1;
       for (let i = 0, j = n - 1; i < n; j = i++) {
-        const xi = r[2 * i]!, yi = r[2 * i + 1]!, xj = r[2 * j]!, yj = r[2 * j + 1]!;
-        if ((yi > y) !== (yj > y) && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
-        const dx = xj - xi, dy = yj - yi;
+        const xi = r[2 * i]!,
+          yi = r[2 * i + 1]!,
+          xj = r[2 * j]!,
+          yj = r[2 * j + 1]!;
+        if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
+        const dx = xj - xi,
+          dy = yj - yi;
         const l2 = dx * dx + dy * dy;
         const t = l2 > 0 ? Math.max(0, Math.min(1, ((x - xi) * dx + (y - yi) * dy) / l2)) : 0;
         d2 = Math.min(d2, (x - xi - t * dx) ** 2 + (y - yi - t * dy) ** 2);
@@ -181,17 +240,26 @@ export function labelPoint(part: ReportPart): [number, number] {
   };
   let best: [number, number] = [(xmin + xmax) / 2, (ymin + ymax) / 2];
   let bestS = score(best[0], best[1]);
-  let sx = (xmax - xmin) / 12, sy = (ymax - ymin) / 12;
-  let cx = xmin + sx / 2, cy = ymin + sy / 2;
+  let sx = (xmax - xmin) / 12,
+    sy = (ymax - ymin) / 12;
+  let cx = xmin + sx / 2,
+    cy = ymin + sy / 2;
   for (let pass = 0; pass < 3; pass++) {
     const n = pass === 0 ? 12 : 5;
-    for (let a = 0; a < n; a++) for (let b = 0; b < n; b++) {
-      const x = cx + a * sx, y = cy + b * sy;
-      const sc = score(x, y);
-      if (sc > bestS) { bestS = sc; best = [x, y]; }
-    }
-    cx = best[0] - 2 * (sx / 2.5); cy = best[1] - 2 * (sy / 2.5);
-    sx /= 2.5; sy /= 2.5;
+    for (let a = 0; a < n; a++)
+      for (let b = 0; b < n; b++) {
+        const x = cx + a * sx,
+          y = cy + b * sy;
+        const sc = score(x, y);
+        if (sc > bestS) {
+          bestS = sc;
+          best = [x, y];
+        }
+      }
+    cx = best[0] - 2 * (sx / 2.5);
+    cy = best[1] - 2 * (sy / 2.5);
+    sx /= 2.5;
+    sy /= 2.5;
   }
   return best;
 }
@@ -218,11 +286,26 @@ const zoneRef = (si: number, zi: number): string => `zp-${si}-${zi}`;
  */
 export function zoneDefs(input: ReportInput): string {
   const f = makeFrame(partsBbox(input.field.parts));
-  return input.zoneSets.map((set, si) => set.zones.map((z, zi) => `<path id="${zoneRef(si, zi)}" class="zp" fill-rule="evenodd" d="${partsPath(f, z.parts)}"/>`).join('')).join('');
+  return input.zoneSets
+    .map((set, si) =>
+      set.zones
+        .map(
+          (z, zi) =>
+            `<path id="${zoneRef(si, zi)}" class="zp" fill-rule="evenodd" d="${partsPath(f, z.parts)}"/>`,
+        )
+        .join(''),
+    )
+    .join('');
 }
 
 /** Zone polygons of set `si` filled by `fill(zone)`, labelled with `label(zone)` lines where the zone is big enough. */
-function zonePolys(f: Frame, si: number, zones: readonly ReportZone[], fill: (z: ReportZone) => string, label: (z: ReportZone) => string[]): string {
+function zonePolys(
+  f: Frame,
+  si: number,
+  zones: readonly ReportZone[],
+  fill: (z: ReportZone) => string,
+  label: (z: ReportZone) => string[],
+): string {
   let polys = '';
   let texts = '';
   for (let zi = 0; zi < zones.length; zi++) {
@@ -235,8 +318,15 @@ function zonePolys(f: Frame, si: number, zones: readonly ReportZone[], fill: (z:
     const lines = label(z);
     const X = px(f, x).toFixed(1);
     const Y0 = py(f, y) - ((lines.length - 1) * 13) / 2 + 4;
-    texts += `<text x="${X}" y="${Y0.toFixed(1)}" text-anchor="middle">` +
-      lines.map((l, i) => `<tspan x="${X}" dy="${i === 0 ? 0 : 13}"${i === 0 ? ' font-weight="bold"' : ''}>${esc(l)}</tspan>`).join('') + '</text>';
+    texts +=
+      `<text x="${X}" y="${Y0.toFixed(1)}" text-anchor="middle">` +
+      lines
+        .map(
+          (l, i) =>
+            `<tspan x="${X}" dy="${i === 0 ? 0 : 13}"${i === 0 ? ' font-weight="bold"' : ''}>${esc(l)}</tspan>`,
+        )
+        .join('') +
+      '</text>';
   }
   return `${geoGroup(f, ' class="zones"')}<g stroke="#fff" stroke-width="1">${polys}</g></g><g class="zone-labels">${texts}</g>`;
 }
@@ -260,17 +350,41 @@ export function buildMaps(input: ReportInput): ReportMap[] {
   const nutLabel = (key: string): ReportNutrient => nut.get(key) ?? { key, label: key, unit: '' };
   // each map sets bodyFor (its content, given the map's id for clip paths), then calls add
   let bodyFor: (id: string) => string = () => '';
-  const add = (kind: ReportMap['kind'], title: string, caption: string, items: LegendItem[], legendTitle: string, notes: string[] = []): void => {
+  const add = (
+    kind: ReportMap['kind'],
+    title: string,
+    caption: string,
+    items: LegendItem[],
+    legendTitle: string,
+    notes: string[] = [],
+  ): void => {
     const id = `map-${maps.length + 1}`;
-    const svg = mapSvg(f, id, kind, bodyFor(id), legend(f, legendTitle, items, notes), input.utm, title, north);
+    const svg = mapSvg(
+      f,
+      id,
+      kind,
+      bodyFor(id),
+      legend(f, legendTitle, items, notes),
+      input.utm,
+      title,
+      north,
+    );
     maps.push({ id, kind, title, caption, svg, legendItems: items.length });
   };
   const utmNote = `UTM zone ${input.utm.zone}${input.utm.south ? 'S' : 'N'} (EPSG:${input.utm.epsg}); the arrow points to true north, ${fmt(Math.abs(north), 1)}° ${north < 0 ? 'west' : 'east'} of grid north.`;
 
   // 1. sample locations
   bodyFor = () => boundary(f, fieldParts) + samplePoints(f, input, (i) => input.samples.ids[i] ?? '');
-  add('samples', 'Soil sample locations', `${input.samples.ids.length} samples, labelled with their ids. ${utmNote}`,
-    [{ fill: 'point', label: `Soil sample (${input.samples.ids.length}), labelled with its id` }, { fill: 'line', label: 'Field boundary' }], 'Samples');
+  add(
+    'samples',
+    'Soil sample locations',
+    `${input.samples.ids.length} samples, labelled with their ids. ${utmNote}`,
+    [
+      { fill: 'point', label: `Soil sample (${input.samples.ids.length}), labelled with its id` },
+      { fill: 'line', label: 'Field boundary' },
+    ],
+    'Samples',
+  );
 
   // 2. surfaces
   for (const s of input.surfaces) {
@@ -279,13 +393,26 @@ export function buildMaps(input: ReportInput): ReportMap[] {
     const colours = classColours('viridis', labels.length);
     const vals = input.samples.values[s.nutrient];
     const cens = input.samples.censored?.[s.nutrient];
-    bodyFor = (id) => geoGroup(f) + clipDef(f, fieldParts, `${id}-clip`) + rasterImage(f, s.raster, classify(s.raster.values, s.breaks), colours, `${id}-clip`) + '</g>' +
-      boundary(f, fieldParts) + samplePoints(f, input, (i) => (vals ? valueLabel(n, vals[i]!, cens ? cens[i]! : 0) : null));
+    bodyFor = (id) =>
+      geoGroup(f) +
+      clipDef(f, fieldParts, `${id}-clip`) +
+      rasterImage(f, s.raster, classify(s.raster.values, s.breaks), colours, `${id}-clip`) +
+      '</g>' +
+      boundary(f, fieldParts) +
+      samplePoints(f, input, (i) => (vals ? valueLabel(n, vals[i]!, cens ? cens[i]! : 0) : null));
     const unit = n.unit ? ` (${n.unit})` : '';
-    add('surface', `${n.label}: interpolated surface`,
+    add(
+      'surface',
+      `${n.label}: interpolated surface`,
       `${n.label}${unit}${s.method ? `, ${s.method}` : ''}, ${fmt(s.raster.grid.cell, s.raster.grid.cell < 10 ? 1 : 0)} m cells; samples labelled with their lab values ("<" below detection, ">" above range). Classes are the zones' classes. ${utmNote}`,
-      [...labels.map((l, i) => ({ fill: colours[i]!, label: l })), { fill: 'point', label: 'Soil sample and its value' }, { fill: 'line', label: 'Field boundary' }],
-      `${n.label}${unit}`, s.raster.notes);
+      [
+        ...labels.map((l, i) => ({ fill: colours[i]!, label: l })),
+        { fill: 'point', label: 'Soil sample and its value' },
+        { fill: 'line', label: 'Field boundary' },
+      ],
+      `${n.label}${unit}`,
+      s.raster.notes,
+    );
   }
 
   // 3. response-probability classes
@@ -300,23 +427,44 @@ export function buildMaps(input: ReportInput): ReportMap[] {
         const v = rr.values[i]!;
         idx[i] = Number.isFinite(v) && v >= 0 && v < colours.length ? v : 255;
       }
-      bodyFor = (id) => geoGroup(f) + clipDef(f, fieldParts, `${id}-clip`) + rasterImage(f, rr, idx, colours, `${id}-clip`) + '</g>' + boundary(f, fieldParts);
+      bodyFor = (id) =>
+        geoGroup(f) +
+        clipDef(f, fieldParts, `${id}-clip`) +
+        rasterImage(f, rr, idx, colours, `${id}-clip`) +
+        '</g>' +
+        boundary(f, fieldParts);
     } else if (r.byZone) {
       const si = input.zoneSets.findIndex((s) => s.name === r.byZone!.zoneSet);
       const cls = r.byZone.classes;
-      bodyFor = () => zonePolys(f, si, si >= 0 ? input.zoneSets[si]!.zones : [], (z) => colours[cls[z.id] ?? -1] ?? NEUTRAL, (z) => [z.id]) + boundary(f, fieldParts);
+      bodyFor = () =>
+        zonePolys(
+          f,
+          si,
+          si >= 0 ? input.zoneSets[si]!.zones : [],
+          (z) => colours[cls[z.id] ?? -1] ?? NEUTRAL,
+          (z) => [z.id],
+        ) + boundary(f, fieldParts);
     } else bodyFor = () => boundary(f, fieldParts);
-    add('response', `${n.label}: chance of a yield response`,
+    add(
+      'response',
+      `${n.label}: chance of a yield response`,
       `Chance that the crop responds to applied ${n.label}, by soil-test class${r.source ? ` (${r.source})` : ''}. ${utmNote}`,
-      [...items, { fill: 'line', label: 'Field boundary' }], `Chance of response to ${n.label}`, r.raster?.notes);
+      [...items, { fill: 'line', label: 'Field boundary' }],
+      `Chance of response to ${n.label}`,
+      r.raster?.notes,
+    );
   }
 
   // 4. rates per zone set and product placement; 5. binding limits per zone set
   input.zoneSets.forEach((set, si) => {
     for (const { product, placement, unit } of productPlacements(set)) {
-      const rateOf = (z: ReportZone): number | undefined => z.rates.find((r) => r.product === product && r.placement === placement)?.rate;
-      const distinct = [...new Set(set.zones.map(rateOf).filter((v): v is number => v !== undefined && Number.isFinite(v)))].sort((a, b) => a - b);
-      const close = set.minDifference?.find((m) => m.product === product && m.placement === placement)?.value ?? 0;
+      const rateOf = (z: ReportZone): number | undefined =>
+        z.rates.find((r) => r.product === product && r.placement === placement)?.rate;
+      const distinct = [
+        ...new Set(set.zones.map(rateOf).filter((v): v is number => v !== undefined && Number.isFinite(v))),
+      ].sort((a, b) => a - b);
+      const close =
+        set.minDifference?.find((m) => m.product === product && m.placement === placement)?.value ?? 0;
       const colours = rateColours('cividis', distinct, close);
       const colourOf = (z: ReportZone): string => {
         const v = rateOf(z);
@@ -327,35 +475,55 @@ export function buildMaps(input: ReportInput): ReportMap[] {
       const items: LegendItem[] = distinct.map((v, i) => {
         const zs = set.zones.filter((z) => rateOf(z) === v);
         const a = zs.reduce((s, z) => s + z.areaM2, 0);
-        return { fill: colours[i]!, label: `${fmt(v, decimals)} ${unit}: ${zs.length} zone${zs.length === 1 ? '' : 's'}, ${areaLabel(a, input.units.area)}` };
+        return {
+          fill: colours[i]!,
+          label: `${fmt(v, decimals)} ${unit}: ${zs.length} zone${zs.length === 1 ? '' : 's'}, ${areaLabel(a, input.units.area)}`,
+        };
       });
       if (set.zones.some((z) => rateOf(z) === undefined)) items.push({ fill: NEUTRAL, label: 'not applied' });
-      bodyFor = () => zonePolys(f, si, set.zones, colourOf, (z) => {
-        const v = rateOf(z);
-        return [z.id, v === undefined ? '–' : `${fmt(v, decimals)}`];
-      }) + boundary(f, fieldParts);
-      add('rate', `${product}, ${placement}: rate by zone${input.zoneSets.length > 1 ? ` (${set.name})` : ''}`,
+      bodyFor = () =>
+        zonePolys(f, si, set.zones, colourOf, (z) => {
+          const v = rateOf(z);
+          return [z.id, v === undefined ? '–' : `${fmt(v, decimals)}`];
+        }) + boundary(f, fieldParts);
+      add(
+        'rate',
+        `${product}, ${placement}: rate by zone${input.zoneSets.length > 1 ? ` (${set.name})` : ''}`,
         `Product rate of ${product} (${placement}) in ${unit} for each of the ${set.zones.length} zones of "${set.name}"; labels give the zone id and rate. ${utmNote}`,
-        items, `${product}, ${placement} (${unit})`, ['Labels: zone id, then rate.']);
+        items,
+        `${product}, ${placement} (${unit})`,
+        ['Labels: zone id, then rate.'],
+      );
     }
     const limits = [...new Set(set.zones.map((z) => z.bindingLimit).filter((v): v is string => !!v))].sort();
-    const colourOf = (z: ReportZone): string => (z.bindingLimit ? QUALITATIVE[limits.indexOf(z.bindingLimit) % QUALITATIVE.length]! : NEUTRAL);
-    const items: LegendItem[] = limits.map((l, i) => ({ fill: QUALITATIVE[i % QUALITATIVE.length]!, label: l }));
+    const colourOf = (z: ReportZone): string =>
+      z.bindingLimit ? QUALITATIVE[limits.indexOf(z.bindingLimit) % QUALITATIVE.length]! : NEUTRAL;
+    const items: LegendItem[] = limits.map((l, i) => ({
+      fill: QUALITATIVE[i % QUALITATIVE.length]!,
+      label: l,
+    }));
     items.push({ fill: NEUTRAL, label: 'no limit binds: rates meet the targets' });
     bodyFor = () => zonePolys(f, si, set.zones, colourOf, (z) => [z.id]) + boundary(f, fieldParts);
-    add('binding', `Where limits bind${input.zoneSets.length > 1 ? ` (${set.name})` : ''}`,
+    add(
+      'binding',
+      `Where limits bind${input.zoneSets.length > 1 ? ` (${set.name})` : ''}`,
       `Zones where a seed-row safety limit or another limit of the plan cut a rate below its target. ${utmNote}`,
-      items, 'Binding limit');
+      items,
+      'Binding limit',
+    );
   });
   return maps;
 }
 
 /** Distinct (product, placement, unit) of a zone set, in the order first met. */
-export function productPlacements(set: ReportZoneSet): { product: string; placement: string; unit: string }[] {
+export function productPlacements(
+  set: ReportZoneSet,
+): { product: string; placement: string; unit: string }[] {
   const seen = new Map<string, { product: string; placement: string; unit: string }>();
-  for (const z of set.zones) for (const r of z.rates) {
-    const key = `${r.product}\u0000${r.placement}`;
-    if (!seen.has(key)) seen.set(key, { product: r.product, placement: r.placement, unit: r.unit });
-  }
+  for (const z of set.zones)
+    for (const r of z.rates) {
+      const key = `${r.product}\u0000${r.placement}`;
+      if (!seen.has(key)) seen.set(key, { product: r.product, placement: r.placement, unit: r.unit });
+    }
   return [...seen.values()];
 }

@@ -12,11 +12,16 @@ import { utmZone } from '../geo/crs.js';
  * meridians converge eastward toward the pole; negative east of it.
  * @example trueNorthOnGrid({ zone: 13, south: false, epsg: 32613 }, 431600, 5742000) // about 0.78
  */
-export function trueNorthOnGrid(utm: { zone: number; south: boolean; epsg: number }, x: number, y: number): number {
+export function trueNorthOnGrid(
+  utm: { zone: number; south: boolean; epsg: number },
+  x: number,
+  y: number,
+): number {
   const p = projector(utmZone(utm.zone, utm.south));
   const [lon, lat] = p.toLonLat(x, y);
   const step = lat > 89.9 ? -0.01 : 0.01;
   const [x2, y2] = p.toMetres(lon, lat + step);
-  const dx = (x2 - x) * Math.sign(step), dy = (y2 - y) * Math.sign(step);
+  const dx = (x2 - x) * Math.sign(step),
+    dy = (y2 - y) * Math.sign(step);
   return (Math.atan2(dx, dy) * 180) / Math.PI;
 }

@@ -41,9 +41,15 @@ function chunk(type: string, data: Uint8Array): Uint8Array {
  * @param palette colours as "#rrggbb", at most 255
  * @example encodeIndexedPng(new Uint8Array([0, 1, 255, 0]), 2, 2, ['#440154', '#fde725'])
  */
-export function encodeIndexedPng(index: Uint8Array, width: number, height: number, palette: readonly string[]): Uint8Array {
+export function encodeIndexedPng(
+  index: Uint8Array,
+  width: number,
+  height: number,
+  palette: readonly string[],
+): Uint8Array {
   if (palette.length > 255) throw new Error(`encodeIndexedPng: ${palette.length} colours, at most 255`);
-  if (index.length !== width * height) throw new Error(`encodeIndexedPng: ${index.length} cells for ${width} x ${height}`);
+  if (index.length !== width * height)
+    throw new Error(`encodeIndexedPng: ${index.length} cells for ${width} x ${height}`);
   const ihdr = new Uint8Array(13);
   const dv = new DataView(ihdr.buffer);
   dv.setUint32(0, width);
@@ -91,7 +97,13 @@ export function encodeIndexedPng(index: Uint8Array, width: number, height: numbe
 /** Base64 of bytes (RFC 4648), without Node's Buffer so the library runs anywhere. */
 export function base64(bytes: Uint8Array): string {
   // Node's encoder (RFC 4648) when present: about 40 times faster than btoa over a binary string
-  const B = (globalThis as { Buffer?: { from(b: ArrayBufferView['buffer'], o: number, l: number): { toString(enc: string): string } } }).Buffer;
+  const B = (
+    globalThis as {
+      Buffer?: {
+        from(b: ArrayBufferView['buffer'], o: number, l: number): { toString(enc: string): string };
+      };
+    }
+  ).Buffer;
   if (B) return B.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('base64');
   let s = '';
   for (let i = 0; i < bytes.length; i += 0x8000) s += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
@@ -109,6 +121,11 @@ export function fromBase64(text: string): Uint8Array {
 }
 
 /** A `data:image/png;base64,` URI of an indexed PNG (see `encodeIndexedPng`). */
-export function pngDataUri(index: Uint8Array, width: number, height: number, palette: readonly string[]): string {
+export function pngDataUri(
+  index: Uint8Array,
+  width: number,
+  height: number,
+  palette: readonly string[],
+): string {
   return 'data:image/png;base64,' + base64(encodeIndexedPng(index, width, height, palette));
 }

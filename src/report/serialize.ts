@@ -36,7 +36,9 @@ export function serializeReportInput(input: ReportInput): string {
   return JSON.stringify({ ...input, schema: REPORT_SCHEMA }, (_k, v: unknown) => {
     if (ArrayBuffer.isView(v) && !(v instanceof DataView)) {
       const a = v as unknown as ArrayLike<number>;
-      return _k === 'values' && a.length > PACK_OVER ? packF32(a) : Array.from(a, (x) => (Number.isFinite(x) ? x : null));
+      return _k === 'values' && a.length > PACK_OVER
+        ? packF32(a)
+        : Array.from(a, (x) => (Number.isFinite(x) ? x : null));
     }
     return v;
   });
@@ -48,69 +50,129 @@ const nums = z.union([
     try {
       return unpackF32(o.f32);
     } catch (e) {
-      ctx.addIssue({ code: 'custom', message: `packed float32 values are not valid base64 (${(e as Error).message})` });
+      ctx.addIssue({
+        code: 'custom',
+        message: `packed float32 values are not valid base64 (${(e as Error).message})`,
+      });
       return z.NEVER;
     }
   }),
 ]);
-const num = z.number().nullable().transform((x) => (x === null ? NaN : x));
+const num = z
+  .number()
+  .nullable()
+  .transform((x) => (x === null ? NaN : x));
 const part = z.object({ exterior: nums, holes: z.array(nums) });
-const grid = z.object({ xmin: z.number(), ymax: z.number(), cell: z.number().positive(), cols: z.number().int().positive(), rows: z.number().int().positive() });
-const raster = z.object({ grid, values: nums, notes: z.array(z.string()).optional() }).refine((r) => r.values.length === r.grid.cols * r.grid.rows, {
-  message: 'values must hold cols x rows numbers',
+const grid = z.object({
+  xmin: z.number(),
+  ymax: z.number(),
+  cell: z.number().positive(),
+  cols: z.number().int().positive(),
+  rows: z.number().int().positive(),
 });
+const raster = z
+  .object({ grid, values: nums, notes: z.array(z.string()).optional() })
+  .refine((r) => r.values.length === r.grid.cols * r.grid.rows, {
+    message: 'values must hold cols x rows numbers',
+  });
 const str = z.string();
 
 const schema = z.object({
   schema: z.literal(REPORT_SCHEMA).optional(),
   title: z.object({
-    farm: str, field: str, crop: str, targetYield: str, planSummary: str, date: str, version: str, hash: str,
-    preparedBy: str.optional(), notes: z.array(str).optional(),
+    farm: str,
+    field: str,
+    crop: str,
+    targetYield: str,
+    planSummary: str,
+    date: str,
+    version: str,
+    hash: str,
+    preparedBy: str.optional(),
+    notes: z.array(str).optional(),
   }),
   units: z.object({ area: z.enum(['ac', 'ha']) }),
   utm: z.object({ zone: z.number().int().min(1).max(60), south: z.boolean(), epsg: z.number().int() }),
   field: z.object({ parts: z.array(part).min(1), areaM2: z.number().nonnegative() }),
-  nutrients: z.array(z.object({ key: str, label: str, unit: str, decimals: z.number().int().min(0).max(6).optional() })),
-  samples: z.object({ ids: z.array(str), xy: nums, values: z.record(str, nums), censored: z.record(str, nums).optional() }),
+  nutrients: z.array(
+    z.object({ key: str, label: str, unit: str, decimals: z.number().int().min(0).max(6).optional() }),
+  ),
+  samples: z.object({
+    ids: z.array(str),
+    xy: nums,
+    values: z.record(str, nums),
+    censored: z.record(str, nums).optional(),
+  }),
   surfaces: z.array(z.object({ nutrient: str, raster, breaks: z.array(z.number()), method: str.optional() })),
-  response: z.array(z.object({
-    nutrient: str,
-    classes: z.array(z.object({ label: str })).min(1),
-    raster: raster.optional(),
-    byZone: z.object({ zoneSet: str, classes: z.record(str, z.number().int()) }).optional(),
-    source: str.optional(),
-  })),
-  zoneSets: z.array(z.object({
-    name: str,
-    products: z.array(str),
-    targetUnit: str,
-    zones: z.array(z.object({
-      id: str,
-      parts: z.array(part),
-      areaM2: z.number().nonnegative(),
-      class: z.number().int().nullable(),
-      soilMeans: z.record(str, num),
-      targets: z.record(str, num),
-      rates: z.array(z.object({ product: str, placement: str, rate: num, unit: str })),
-      bindingLimit: str.nullable(),
-      notes: z.array(str).optional(),
-    })),
-    minDifference: z.array(z.object({ product: str, placement: str, value: num })).optional(),
-    design: z.array(str).optional(),
-  })),
-  totals: z.array(z.object({
-    product: str, placement: str, total: num, totalUnit: str, packaging: str.optional(),
-    meanRate: num, minRate: num, maxRate: num, rateUnit: str,
-  })),
-  crossValidation: z.array(z.object({ nutrient: str, method: str, rmse: num, meanError: num, mae: num.optional(), chosen: z.boolean() })),
-  warnings: z.array(z.object({ code: str, message: str, file: str.optional(), where: str.optional(), field: str.optional() })),
-  tablesUsed: z.array(z.object({ name: str, source: str, mark: str.optional(), edited: z.boolean().optional() })),
+  response: z.array(
+    z.object({
+      nutrient: str,
+      classes: z.array(z.object({ label: str })).min(1),
+      raster: raster.optional(),
+      byZone: z.object({ zoneSet: str, classes: z.record(str, z.number().int()) }).optional(),
+      source: str.optional(),
+    }),
+  ),
+  zoneSets: z.array(
+    z.object({
+      name: str,
+      products: z.array(str),
+      targetUnit: str,
+      zones: z.array(
+        z.object({
+          id: str,
+          parts: z.array(part),
+          areaM2: z.number().nonnegative(),
+          class: z.number().int().nullable(),
+          soilMeans: z.record(str, num),
+          targets: z.record(str, num),
+          rates: z.array(z.object({ product: str, placement: str, rate: num, unit: str })),
+          bindingLimit: str.nullable(),
+          notes: z.array(str).optional(),
+        }),
+      ),
+      minDifference: z.array(z.object({ product: str, placement: str, value: num })).optional(),
+      design: z.array(str).optional(),
+    }),
+  ),
+  totals: z.array(
+    z.object({
+      product: str,
+      placement: str,
+      total: num,
+      totalUnit: str,
+      packaging: str.optional(),
+      meanRate: num,
+      minRate: num,
+      maxRate: num,
+      rateUnit: str,
+    }),
+  ),
+  crossValidation: z.array(
+    z.object({
+      nutrient: str,
+      method: str,
+      rmse: num,
+      meanError: num,
+      mae: num.optional(),
+      chosen: z.boolean(),
+    }),
+  ),
+  warnings: z.array(
+    z.object({ code: str, message: str, file: str.optional(), where: str.optional(), field: str.optional() }),
+  ),
+  tablesUsed: z.array(
+    z.object({ name: str, source: str, mark: str.optional(), edited: z.boolean().optional() }),
+  ),
   cautions: z.array(str),
   charts: z.array(z.object({ title: str, svg: str, caption: str.optional() })),
 });
 
 function pathText(path: readonly PropertyKey[]): string {
-  return path.map((p, i) => (typeof p === 'number' ? `[${p}]` : `${i ? '.' : ''}${String(p)}`)).join('') || '(top level)';
+  return (
+    path.map((p, i) => (typeof p === 'number' ? `[${p}]` : `${i ? '.' : ''}${String(p)}`)).join('') ||
+    '(top level)'
+  );
 }
 
 /**
@@ -126,14 +188,25 @@ export function parseReportInput(text: string, file = 'report-data.json'): Repor
   } catch (e) {
     throw new UserError(`${file} is not valid JSON (${(e as Error).message}). ${fix}`, { file });
   }
-  if (typeof raw === 'object' && raw !== null && 'schema' in raw && (raw as { schema: unknown }).schema !== REPORT_SCHEMA) {
-    throw new UserError(`${file}: schema "${String((raw as { schema: unknown }).schema)}" is not "${REPORT_SCHEMA}", which this tilth reads. ${fix}`, { file, field: 'schema' });
+  if (
+    typeof raw === 'object' &&
+    raw !== null &&
+    'schema' in raw &&
+    (raw as { schema: unknown }).schema !== REPORT_SCHEMA
+  ) {
+    throw new UserError(
+      `${file}: schema "${String((raw as { schema: unknown }).schema)}" is not "${REPORT_SCHEMA}", which this tilth reads. ${fix}`,
+      { file, field: 'schema' },
+    );
   }
   const r = schema.safeParse(raw);
   if (!r.success) {
     const is = r.error.issues[0]!;
     const where = pathText(is.path);
-    throw new UserError(`${file}, at ${where}: ${is.message}${r.error.issues.length > 1 ? ` (and ${r.error.issues.length - 1} more problems)` : ''}. ${fix}`, { file, where });
+    throw new UserError(
+      `${file}, at ${where}: ${is.message}${r.error.issues.length > 1 ? ` (and ${r.error.issues.length - 1} more problems)` : ''}. ${fix}`,
+      { file, where },
+    );
   }
   return r.data as ReportInput;
 }

@@ -28,11 +28,13 @@ export function formatAsc(grid: GridShape, values: ArrayLike<number>, opts: AscO
   const decimals = Math.max(0, Math.min(12, Math.floor(opts.decimals ?? 3)));
   const nodata = opts.nodata ?? ASC_NODATA;
   const { cols, rows, cell, xmin, ymax } = grid;
-  const header =
-    `ncols ${cols}\nnrows ${rows}\nxllcorner ${num(xmin)}\nyllcorner ${num(ymax - rows * cell)}\ncellsize ${num(cell)}\nNODATA_value ${num(nodata)}\n`;
+  const header = `ncols ${cols}\nnrows ${rows}\nxllcorner ${num(xmin)}\nyllcorner ${num(ymax - rows * cell)}\ncellsize ${num(cell)}\nNODATA_value ${num(nodata)}\n`;
   const scale = 10 ** decimals;
   let maxAbs = Math.abs(nodata);
-  for (let i = 0; i < values.length; i++) { const a = Math.abs(values[i]); if (a > maxAbs) maxAbs = a; }
+  for (let i = 0; i < values.length; i++) {
+    const a = Math.abs(values[i]);
+    if (a > maxAbs) maxAbs = a;
+  }
   const intDigits = Math.max(1, Math.ceil(Math.log10(maxAbs + 1)) + 1);
   const per = 2 + intDigits + 1 + decimals + 1; // space, sign, digits, point, decimals, spare
   const out = new Uint8Array(header.length + cols * rows * per + rows + 16);
@@ -51,11 +53,20 @@ export function formatAsc(grid: GridShape, values: ArrayLike<number>, opts: AscO
         continue;
       }
       let m = Math.round(Math.abs(v) * scale);
-      if (m === 0) { out[p++] = 48; continue; }
+      if (m === 0) {
+        out[p++] = 48;
+        continue;
+      }
       if (v < 0) out[p++] = 45;
       // digits of m, least significant first, dropping trailing fraction zeros
-      let t = 0, d = 0, frac = decimals;
-      while (frac > 0 && m % 10 === 0) { m = m / 10; frac--; d++; }
+      let t = 0,
+        d = 0,
+        frac = decimals;
+      while (frac > 0 && m % 10 === 0) {
+        m = m / 10;
+        frac--;
+        d++;
+      }
       const fracDigits = decimals - d;
       let written = 0;
       while (m > 0 || written <= fracDigits) {
@@ -89,7 +100,9 @@ export function readAsc(text: string): { grid: GridShape; values: Float64Array; 
     h[tokens[i].toLowerCase()] = Number(tokens[i + 1]);
     i += 2;
   }
-  const cols = h.ncols, rows = h.nrows, cell = h.cellsize;
+  const cols = h.ncols,
+    rows = h.nrows,
+    cell = h.cellsize;
   const xmin = h.xllcorner ?? h.xllcenter - cell / 2;
   const ymin = h.yllcorner ?? h.yllcenter - cell / 2;
   const nodata = h.nodata_value ?? null;

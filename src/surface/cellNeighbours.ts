@@ -30,24 +30,42 @@ export type CellVisitor = (cell: number, found: number, d2: Float64Array, idx: I
  * @param visit called per cell with its neighbours
  * @example visitCellNeighbours(xy, grid, 12, Infinity, grid.fraction, (i, m, d2, idx) => { out[i] = z[idx[0]]; })
  */
-export function visitCellNeighbours(xy: Float64Array, grid: GridShape, k: number, radius: number, where: ArrayLike<number> | undefined, visit: CellVisitor): void {
+export function visitCellNeighbours(
+  xy: Float64Array,
+  grid: GridShape,
+  k: number,
+  radius: number,
+  where: ArrayLike<number> | undefined,
+  visit: CellVisitor,
+): void {
   const n = xy.length >> 1;
   if (n === 0 || k < 1) return;
   const { cols, rows, cell, xmin, ymax } = grid;
   // bucket side: about a quarter of the expected k-th neighbour distance, in whole cells (see docs/surface.md)
-  let sxmin = Infinity, sxmax = -Infinity, symin = Infinity, symax = -Infinity;
+  let sxmin = Infinity,
+    sxmax = -Infinity,
+    symin = Infinity,
+    symax = -Infinity;
   for (let i = 0; i < n; i++) {
-    const x = xy[2 * i], y = xy[2 * i + 1];
-    if (x < sxmin) sxmin = x; if (x > sxmax) sxmax = x;
-    if (y < symin) symin = y; if (y > symax) symax = y;
+    const x = xy[2 * i],
+      y = xy[2 * i + 1];
+    if (x < sxmin) sxmin = x;
+    if (x > sxmax) sxmax = x;
+    if (y < symin) symin = y;
+    if (y > symax) symax = y;
   }
-  const gw = cols * cell, gh = rows * cell;
-  const ux0 = Math.min(sxmin, xmin), ux1 = Math.max(sxmax, xmin + gw), uy0 = Math.min(symin, ymax - gh), uy1 = Math.max(symax, ymax);
+  const gw = cols * cell,
+    gh = rows * cell;
+  const ux0 = Math.min(sxmin, xmin),
+    ux1 = Math.max(sxmax, xmin + gw),
+    uy0 = Math.min(symin, ymax - gh),
+    uy1 = Math.max(symax, ymax);
   const areaEst = Math.max((ux1 - ux0) * (uy1 - uy0), cell * cell);
   const rk = Math.sqrt((k * areaEst) / (Math.PI * n));
   const S = Math.max(1, Math.min(256, Math.round(rk / 4 / cell)));
   const B = S * cell;
-  const bcols = Math.ceil(cols / S), brows = Math.ceil(rows / S);
+  const bcols = Math.ceil(cols / S),
+    brows = Math.ceil(rows / S);
   // extra buckets around the grid for samples outside it (capped; farther ones are clamped into the edge buckets,
   // which keeps the nearest-neighbour proof valid because they are still beyond every inner bucket edge)
   const cap = 64;
@@ -55,16 +73,20 @@ export function visitCellNeighbours(xy: Float64Array, grid: GridShape, k: number
   const axR = Math.min(cap, Math.max(0, Math.ceil((sxmax - (xmin + bcols * B)) / B)));
   const ayT = Math.min(cap, Math.max(0, Math.ceil((symax - ymax) / B)));
   const ayB = Math.min(cap, Math.max(0, Math.ceil((ymax - brows * B - symin) / B)));
-  const nx = axL + bcols + axR, ny = ayT + brows + ayB;
-  const x0 = xmin - axL * B, y0 = ymax + ayT * B - ny * B;
+  const nx = axL + bcols + axR,
+    ny = ayT + brows + ayB;
+  const x0 = xmin - axL * B,
+    y0 = ymax + ayT * B - ny * B;
   const g = new KnnGroup(buildBuckets(xy, B, x0, y0, nx, ny, xmin, ymax), k, radius * radius);
   const ring = Math.max(1, Math.ceil((1.3 * Math.min(rk, radius)) / B));
 
   for (let br = 0; br < brows; br++) {
     const by = ny - 1 - ayT - br;
-    const r0 = br * S, r1 = Math.min(rows, r0 + S);
+    const r0 = br * S,
+      r1 = Math.min(rows, r0 + S);
     for (let bc = 0; bc < bcols; bc++) {
-      const c0 = bc * S, c1 = Math.min(cols, c0 + S);
+      const c0 = bc * S,
+        c1 = Math.min(cols, c0 + S);
       if (where && !anyIn(where, cols, r0, r1, c0, c1)) continue;
       const bx = axL + bc;
       g.begin(bx, bx, by, by, ring);
@@ -84,7 +106,14 @@ export function visitCellNeighbours(xy: Float64Array, grid: GridShape, k: number
   }
 }
 
-function anyIn(where: ArrayLike<number>, cols: number, r0: number, r1: number, c0: number, c1: number): boolean {
+function anyIn(
+  where: ArrayLike<number>,
+  cols: number,
+  r0: number,
+  r1: number,
+  c0: number,
+  c1: number,
+): boolean {
   for (let r = r0; r < r1; r++) for (let c = c0; c < c1; c++) if (where[r * cols + c] > 0) return true;
   return false;
 }

@@ -60,13 +60,26 @@ export function crossValidate(xy: Float64Array, z: ArrayLike<number>, opts: CvOp
 
 /** Sums of errors per (power, count) cell of the table, for one analyte. */
 class Acc {
-  se: Float64Array; sa: Float64Array; sq: Float64Array; sn: Float64Array;
-  constructor(readonly P: number, readonly K: number) {
-    this.se = new Float64Array(P * K); this.sa = new Float64Array(P * K); this.sq = new Float64Array(P * K); this.sn = new Float64Array(P * K);
+  se: Float64Array;
+  sa: Float64Array;
+  sq: Float64Array;
+  sn: Float64Array;
+  constructor(
+    readonly P: number,
+    readonly K: number,
+  ) {
+    this.se = new Float64Array(P * K);
+    this.sa = new Float64Array(P * K);
+    this.sq = new Float64Array(P * K);
+    this.sn = new Float64Array(P * K);
   }
   add(pi: number, ki: number, pred: number, obs: number): void {
-    const e = pred - obs, j = pi * this.K + ki;
-    this.se[j] += e; this.sa[j] += Math.abs(e); this.sq[j] += e * e; this.sn[j]++;
+    const e = pred - obs,
+      j = pi * this.K + ki;
+    this.se[j] += e;
+    this.sa[j] += Math.abs(e);
+    this.sq[j] += e * e;
+    this.sn[j]++;
   }
 }
 
@@ -78,7 +91,11 @@ class Acc {
  * @param opts as {@link crossValidate}
  * @example const [pCv, kCv] = crossValidateMany(xy, [pVals, kVals])
  */
-export function crossValidateMany(xy: Float64Array, zs: ArrayLike<number>[], opts: CvOptions = {}): (CvResult | null)[] {
+export function crossValidateMany(
+  xy: Float64Array,
+  zs: ArrayLike<number>[],
+  opts: CvOptions = {},
+): (CvResult | null)[] {
   const n = xy.length >> 1;
   if (n < 3) return zs.map(() => null);
   const powers = opts.powers ?? DEFAULT_POWERS;
@@ -87,7 +104,10 @@ export function crossValidateMany(xy: Float64Array, zs: ArrayLike<number>[], opt
   const minN = Math.max(1, opts.minNeighbours ?? 1);
   const accs = zs.map(() => new Acc(powers.length, counts.length));
   const finite = counts.map((k, i) => [k, i] as const).filter(([k]) => Number.isFinite(k) && k < n - 1);
-  const allIdx = counts.map((k, i) => [k, i] as const).filter(([k]) => !(Number.isFinite(k) && k < n - 1)).map(([, i]) => i);
+  const allIdx = counts
+    .map((k, i) => [k, i] as const)
+    .filter(([k]) => !(Number.isFinite(k) && k < n - 1))
+    .map(([, i]) => i);
   if (finite.length) {
     const nb = sampleNeighbours(xy, Math.max(...finite.map(([k]) => k)), radius);
     zs.forEach((z, a) => finiteCounts(nb, z, powers, finite, minN, accs[a]));
@@ -97,8 +117,16 @@ export function crossValidateMany(xy: Float64Array, zs: ArrayLike<number>[], opt
     const table: CvRow[] = [];
     for (let pi = 0; pi < powers.length; pi++) {
       for (let ki = 0; ki < counts.length; ki++) {
-        const j = pi * counts.length + ki, m = acc.sn[j];
-        table.push({ power: powers[pi], neighbours: counts[ki], rmse: m ? Math.sqrt(acc.sq[j] / m) : NaN, mae: m ? acc.sa[j] / m : NaN, bias: m ? acc.se[j] / m : NaN, n: m });
+        const j = pi * counts.length + ki,
+          m = acc.sn[j];
+        table.push({
+          power: powers[pi],
+          neighbours: counts[ki],
+          rmse: m ? Math.sqrt(acc.sq[j] / m) : NaN,
+          mae: m ? acc.sa[j] / m : NaN,
+          bias: m ? acc.se[j] / m : NaN,
+          n: m,
+        });
       }
     }
     return { table, best: pickBest(table) };
@@ -106,10 +134,19 @@ export function crossValidateMany(xy: Float64Array, zs: ArrayLike<number>[], opt
 }
 
 /** Finite neighbour counts from the shared leave-one-out lists (nearest first), samples in search order. */
-function finiteCounts(nb: SampleNeighbours, z: ArrayLike<number>, powers: number[], finite: (readonly [number, number])[], minN: number, acc: Acc): void {
+function finiteCounts(
+  nb: SampleNeighbours,
+  z: ArrayLike<number>,
+  powers: number[],
+  finite: (readonly [number, number])[],
+  minN: number,
+  acc: Acc,
+): void {
   const K = nb.k;
   for (let t = 0; t < nb.order.length; t++) {
-    const self = nb.order[t], found = nb.found[self], o = self * K;
+    const self = nb.order[t],
+      found = nb.found[self],
+      o = self * K;
     for (const [k, ki] of finite) {
       const m = Math.min(k, found);
       if (m < minN) continue;
@@ -117,10 +154,12 @@ function finiteCounts(nb: SampleNeighbours, z: ArrayLike<number>, powers: number
         let pred: number;
         if (nb.d2[o] < COINCIDENT_D2) pred = z[nb.idx[o]];
         else {
-          let num = 0, den = 0;
+          let num = 0,
+            den = 0;
           for (let t2 = 0; t2 < m; t2++) {
             const wt = weight(nb.d2[o + t2], powers[pi]);
-            num += wt * z[nb.idx[o + t2]]; den += wt;
+            num += wt * z[nb.idx[o + t2]];
+            den += wt;
           }
           pred = num / den;
         }
@@ -134,31 +173,60 @@ function finiteCounts(nb: SampleNeighbours, z: ArrayLike<number>, powers: number
  * "All other samples" (within the radius) for every value set: symmetric weights, each pair once; the
  * distances and each power's weight are computed once per pair and shared by the sets.
  */
-function allOthers(xy: Float64Array, zs: ArrayLike<number>[], powers: number[], maxD2: number, minN: number, allIdx: number[], accs: Acc[]): void {
-  const n = xy.length >> 1, P = powers.length, A = zs.length;
-  const num = zs.map(() => new Float64Array(P * n)), den = new Float64Array(P * n);
-  const cnt = new Int32Array(n), hit = new Int32Array(n).fill(-1);
-  const row = new Float64Array(n), wrow = new Float64Array(n);
+function allOthers(
+  xy: Float64Array,
+  zs: ArrayLike<number>[],
+  powers: number[],
+  maxD2: number,
+  minN: number,
+  allIdx: number[],
+  accs: Acc[],
+): void {
+  const n = xy.length >> 1,
+    P = powers.length,
+    A = zs.length;
+  const num = zs.map(() => new Float64Array(P * n)),
+    den = new Float64Array(P * n);
+  const cnt = new Int32Array(n),
+    hit = new Int32Array(n).fill(-1);
+  const row = new Float64Array(n),
+    wrow = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    const xi = xy[2 * i], yi = xy[2 * i + 1];
+    const xi = xy[2 * i],
+      yi = xy[2 * i + 1];
     // squared distances to the later samples; beyond the radius or coincident marked -1
     for (let j = i + 1; j < n; j++) {
-      const dx = xy[2 * j] - xi, dy = xy[2 * j + 1] - yi;
+      const dx = xy[2 * j] - xi,
+        dy = xy[2 * j + 1] - yi;
       const d2 = dx * dx + dy * dy;
-      if (d2 > maxD2) { row[j] = -1; continue; }
-      cnt[i]++; cnt[j]++;
-      if (d2 < COINCIDENT_D2) { if (hit[i] < 0) hit[i] = j; if (hit[j] < 0) hit[j] = i; row[j] = -1; continue; }
+      if (d2 > maxD2) {
+        row[j] = -1;
+        continue;
+      }
+      cnt[i]++;
+      cnt[j]++;
+      if (d2 < COINCIDENT_D2) {
+        if (hit[i] < 0) hit[i] = j;
+        if (hit[j] < 0) hit[j] = i;
+        row[j] = -1;
+        continue;
+      }
       row[j] = d2;
     }
     for (let pi = 0; pi < P; pi++) {
-      const p = powers[pi], o = pi * n;
+      const p = powers[pi],
+        o = pi * n;
       let di = 0;
       for (let j = i + 1; j < n; j++) {
         const d2 = row[j];
-        if (d2 < 0) { wrow[j] = 0; continue; }
+        if (d2 < 0) {
+          wrow[j] = 0;
+          continue;
+        }
         const wt = weight(d2, p);
         wrow[j] = wt;
-        di += wt; den[o + j] += wt;
+        di += wt;
+        den[o + j] += wt;
       }
       den[o + i] += di;
       for (let a = 0; a < A; a++) sumSide(row, wrow, zs[a], num[a], o, i, n);
@@ -177,7 +245,15 @@ function allOthers(xy: Float64Array, zs: ArrayLike<number>[], powers: number[], 
 }
 
 /** Sample i's weighted sum over the later samples, and i's share added to each of them. */
-function sumSide(row: Float64Array, wrow: Float64Array, z: ArrayLike<number>, num: Float64Array, o: number, i: number, n: number): void {
+function sumSide(
+  row: Float64Array,
+  wrow: Float64Array,
+  z: ArrayLike<number>,
+  num: Float64Array,
+  o: number,
+  i: number,
+  n: number,
+): void {
   const zi = z[i];
   let ni = 0;
   for (let j = i + 1; j < n; j++) {

@@ -28,9 +28,16 @@ export const MAX_CELLS = 50_000_000;
  * @throws UserError when the grid would exceed maxCells (the message gives the cell size that fits)
  * @example const g = fieldGrid(field, 5); g.cols * g.rows // cells
  */
-export function fieldGrid(field: Pick<Field, 'parts' | 'name'> & Partial<Pick<Field, 'bbox'>>, cell: number, opts: FieldGridOptions = {}): Grid {
+export function fieldGrid(
+  field: Pick<Field, 'parts' | 'name'> & Partial<Pick<Field, 'bbox'>>,
+  cell: number,
+  opts: FieldGridOptions = {},
+): Grid {
   if (!(cell > 0) || !Number.isFinite(cell)) {
-    throw new UserError(`cell size ${cell} m is not a positive number. Fix: give a cell size in metres, e.g. --cell 5.`, { value: cell });
+    throw new UserError(
+      `cell size ${cell} m is not a positive number. Fix: give a cell size in metres, e.g. --cell 5.`,
+      { value: cell },
+    );
   }
   const maxCells = opts.maxCells ?? MAX_CELLS;
   const [bx0, by0, bx1, by1] = field.bbox ?? bboxOf(field.parts);
@@ -47,20 +54,34 @@ export function fieldGrid(field: Pick<Field, 'parts' | 'name'> & Partial<Pick<Fi
       { field: 'cell', value: cell },
     );
   }
-  const grid: Grid = { xmin, ymax, cell, cols, rows, mask: new Uint8Array(cols * rows), fraction: new Float32Array(cols * rows) };
+  const grid: Grid = {
+    xmin,
+    ymax,
+    cell,
+    cols,
+    rows,
+    mask: new Uint8Array(cols * rows),
+    fraction: new Float32Array(cols * rows),
+  };
   centreMask(field.parts, grid, grid.mask);
   coverage(field.parts, grid, grid.fraction);
   return grid;
 }
 
 function bboxOf(parts: RingsPart[]): [number, number, number, number] {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (const p of parts) for (const r of [p.exterior, ...p.holes]) {
-    for (let i = 0; i < r.length; i += 2) {
-      x0 = Math.min(x0, r[i]); x1 = Math.max(x1, r[i]);
-      y0 = Math.min(y0, r[i + 1]); y1 = Math.max(y1, r[i + 1]);
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
+  for (const p of parts)
+    for (const r of [p.exterior, ...p.holes]) {
+      for (let i = 0; i < r.length; i += 2) {
+        x0 = Math.min(x0, r[i]);
+        x1 = Math.max(x1, r[i]);
+        y0 = Math.min(y0, r[i + 1]);
+        y1 = Math.max(y1, r[i + 1]);
+      }
     }
-  }
   return [x0, y0, x1, y1];
 }
 
@@ -69,7 +90,12 @@ function bboxOf(parts: RingsPart[]): [number, number, number, number] {
  * one horizontal scanline per row through the cell centres. Writes 1 into `out` for inside cells.
  * @example centreMask(field.parts, grid, grid.mask)
  */
-export function centreMask(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>, out: Uint8Array, value = 1): Uint8Array {
+export function centreMask(
+  parts: RingsPart[],
+  g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>,
+  out: Uint8Array,
+  value = 1,
+): Uint8Array {
   const rings: Float64Array[] = [];
   for (const p of parts) rings.push(p.exterior, ...p.holes);
   // edge table: rows spanned by each edge, so a row only visits its own edges
@@ -77,7 +103,8 @@ export function centreMask(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | '
   for (const r of rings) {
     const n = r.length >> 1;
     for (let i = 0, j = n - 1; i < n; j = i++) {
-      const ya = r[2 * j + 1], yb = r[2 * i + 1];
+      const ya = r[2 * j + 1],
+        yb = r[2 * i + 1];
       if (ya === yb) continue;
       edges.push(r[2 * j], ya, r[2 * i], yb);
     }
@@ -87,7 +114,8 @@ export function centreMask(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | '
   const byRow: number[][] = Array.from({ length: g.rows }, () => []);
   const lastRow = new Int32Array(ne);
   for (let e = 0; e < ne; e++) {
-    const ylo = Math.min(edges[4 * e + 1], edges[4 * e + 3]), yhi = Math.max(edges[4 * e + 1], edges[4 * e + 3]);
+    const ylo = Math.min(edges[4 * e + 1], edges[4 * e + 3]),
+      yhi = Math.max(edges[4 * e + 1], edges[4 * e + 3]);
     // rows whose centre y = ymax - (r + .5) cell lies in [ylo, yhi]
     const r0 = Math.max(0, Math.floor((g.ymax - yhi) / g.cell - 0.5));
     const r1 = Math.min(g.rows - 1, Math.ceil((g.ymax - ylo) / g.cell - 0.5));
@@ -103,7 +131,10 @@ export function centreMask(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | '
     const yc = g.ymax - (row + 0.5) * g.cell;
     xs.length = 0;
     for (const e of active) {
-      const xa = edges[4 * e], ya = edges[4 * e + 1], xb = edges[4 * e + 2], yb = edges[4 * e + 3];
+      const xa = edges[4 * e],
+        ya = edges[4 * e + 1],
+        xb = edges[4 * e + 2],
+        yb = edges[4 * e + 3];
       if (ya > yc !== yb > yc) xs.push(xa + ((yc - ya) * (xb - xa)) / (yb - ya));
     }
     if (xs.length < 2) continue;
@@ -126,12 +157,23 @@ export function centreMask(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | '
  * cells it crosses and a running sum along each row completes them (the scheme of font rasterizers).
  * @example const cov = coverage(field.parts, grid); Math.abs(cov[i]) // share of cell i inside
  */
-export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>): Float64Array;
+export function coverage(
+  parts: RingsPart[],
+  g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>,
+): Float64Array;
 /**
  * The same, written as fractions 0..1 into `into` (absolute value; within 1e-9 of 1 written as 1, below 1e-12 as 0).
  */
-export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>, into: Float32Array): Float32Array;
-export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>, into?: Float32Array): Float64Array | Float32Array {
+export function coverage(
+  parts: RingsPart[],
+  g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>,
+  into: Float32Array,
+): Float32Array;
+export function coverage(
+  parts: RingsPart[],
+  g: Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>,
+  into?: Float32Array,
+): Float64Array | Float32Array {
   const W = g.cols + 2; // one spare column each side of the accumulation row
   const acc = new Float64Array(W * g.rows);
   const inv = 1 / g.cell;
@@ -140,8 +182,10 @@ export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'ce
       const n = r.length >> 1;
       for (let i = 0, j = n - 1; i < n; j = i++) {
         // to cell units: u east from xmin, v south from ymax
-        const ua = (r[2 * j] - g.xmin) * inv, va = (g.ymax - r[2 * j + 1]) * inv;
-        const ub = (r[2 * i] - g.xmin) * inv, vb = (g.ymax - r[2 * i + 1]) * inv;
+        const ua = (r[2 * j] - g.xmin) * inv,
+          va = (g.ymax - r[2 * j + 1]) * inv;
+        const ub = (r[2 * i] - g.xmin) * inv,
+          vb = (g.ymax - r[2 * i + 1]) * inv;
         addLine(acc, W, g.rows, g.cols, ua, va, ub, vb);
       }
     }
@@ -172,24 +216,40 @@ export function coverage(parts: RingsPart[], g: Pick<Grid, 'xmin' | 'ymax' | 'ce
 }
 
 /** Adds the signed area contribution of one edge (cell units) to the accumulation rows. */
-function addLine(acc: Float64Array, W: number, rows: number, cols: number, x0: number, y0: number, x1: number, y1: number): void {
+function addLine(
+  acc: Float64Array,
+  W: number,
+  rows: number,
+  cols: number,
+  x0: number,
+  y0: number,
+  x1: number,
+  y1: number,
+): void {
   if (y0 === y1) return;
   let dir = 1;
   if (y0 > y1) {
     dir = -1;
-    let t = x0; x0 = x1; x1 = t;
-    t = y0; y0 = y1; y1 = t;
+    let t = x0;
+    x0 = x1;
+    x1 = t;
+    t = y0;
+    y0 = y1;
+    y1 = t;
   }
   const dxdy = (x1 - x0) / (y1 - y0);
   const rStart = Math.max(0, Math.floor(y0));
   const rEnd = Math.min(rows, Math.ceil(y1));
   for (let row = rStart; row < rEnd; row++) {
-    const ya = Math.max(row, y0), yb = Math.min(row + 1, y1);
+    const ya = Math.max(row, y0),
+      yb = Math.min(row + 1, y1);
     const dy = yb - ya;
     if (dy <= 0) continue;
-    const xa = x0 + (ya - y0) * dxdy, xb = x0 + (yb - y0) * dxdy;
+    const xa = x0 + (ya - y0) * dxdy,
+      xb = x0 + (yb - y0) * dxdy;
     const d = dy * dir;
-    let xl = xa < xb ? xa : xb, xr = xa < xb ? xb : xa;
+    let xl = xa < xb ? xa : xb,
+      xr = xa < xb ? xb : xa;
     // clamp to the grid (the boundary lies inside it; guard rounding)
     if (xl < 0) xl = 0;
     if (xr > cols) xr = cols;
@@ -232,11 +292,13 @@ export function gridWarnings(grid: Grid, name: string): { code: string; message:
   let s = 0;
   for (let i = 0; i < grid.fraction.length; i++) s += grid.fraction[i];
   if (s < 1) {
-    return [{
-      code: 'surface.field-smaller-than-cell',
-      message: `field "${name}" (${Math.round(s * grid.cell * grid.cell)} m2) is smaller than one ${grid.cell} m cell; the map has ${grid.cols * grid.rows} cell(s). Fix: use a smaller --cell.`,
-      field: 'cell',
-    }];
+    return [
+      {
+        code: 'surface.field-smaller-than-cell',
+        message: `field "${name}" (${Math.round(s * grid.cell * grid.cell)} m2) is smaller than one ${grid.cell} m cell; the map has ${grid.cols * grid.rows} cell(s). Fix: use a smaller --cell.`,
+        field: 'cell',
+      },
+    ];
   }
   return [];
 }

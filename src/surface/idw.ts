@@ -47,7 +47,12 @@ export interface IdwSpec {
  * @param opts power 2, neighbours 12, radius Infinity, minNeighbours 1
  * @example const v = idwSurface(xy, z, fieldGrid(field, 5), { power: 2, neighbours: 12 })
  */
-export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridShape & { fraction?: ArrayLike<number> }, opts: IdwOptions = {}): Float64Array {
+export function idwSurface(
+  xy: Float64Array,
+  z: ArrayLike<number>,
+  grid: GridShape & { fraction?: ArrayLike<number> },
+  opts: IdwOptions = {},
+): Float64Array {
   return idwSurfaces(xy, [{ z, power: opts.power, neighbours: opts.neighbours }], grid, opts)[0];
 }
 
@@ -61,7 +66,12 @@ export function idwSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridSha
  * @param opts radius Infinity, minNeighbours 1, where: grid.fraction when present
  * @example const [p, k] = idwSurfaces(xy, [{ z: pVals, power: 1, neighbours: 16 }, { z: kVals, power: 2, neighbours: 8 }], grid)
  */
-export function idwSurfaces(xy: Float64Array, specs: IdwSpec[], grid: GridShape & { fraction?: ArrayLike<number> }, opts: Omit<IdwOptions, 'power' | 'neighbours'> = {}): Float64Array[] {
+export function idwSurfaces(
+  xy: Float64Array,
+  specs: IdwSpec[],
+  grid: GridShape & { fraction?: ArrayLike<number> },
+  opts: Omit<IdwOptions, 'power' | 'neighbours'> = {},
+): Float64Array[] {
   const n = xy.length >> 1;
   const radius = opts.radius ?? Infinity;
   const minN = Math.max(1, opts.minNeighbours ?? 1);
@@ -75,7 +85,10 @@ export function idwSurfaces(xy: Float64Array, specs: IdwSpec[], grid: GridShape 
     const k = Math.min(sp.neighbours ?? 12, n);
     if (!(k >= 1)) return;
     const power = sp.power ?? 2;
-    if (k >= n && radius === Infinity) { if (n >= minN) allSamples(xy, sp.z, power, grid, where, outs[s]); return; }
+    if (k >= n && radius === Infinity) {
+      if (n >= minN) allSamples(xy, sp.z, power, grid, where, outs[s]);
+      return;
+    }
     const [zlo, zhi] = range(sp.z, n);
     const list = byPower.get(power) ?? [];
     list.push({ s, k, zlo, zhi });
@@ -95,8 +108,12 @@ export function idwSurfaces(xy: Float64Array, specs: IdwSpec[], grid: GridShape 
 }
 
 function range(z: ArrayLike<number>, n: number): [number, number] {
-  let zlo = Infinity, zhi = -Infinity;
-  for (let i = 0; i < n; i++) { if (z[i] < zlo) zlo = z[i]; if (z[i] > zhi) zhi = z[i]; }
+  let zlo = Infinity,
+    zhi = -Infinity;
+  for (let i = 0; i < n; i++) {
+    if (z[i] < zlo) zlo = z[i];
+    if (z[i] > zhi) zhi = z[i];
+  }
   return [zlo, zhi];
 }
 
@@ -116,13 +133,23 @@ export function idwWeight(d2: number, power: number): number {
 
 /** w = idwWeight(d2, power) for the first k neighbours of each cell of the band (one loop per usual power). */
 function weights(b: NeighbourBand, k: number, power: number, w: Float64Array): void {
-  const { found, d2 } = b, K = b.k;
+  const { found, d2 } = b,
+    K = b.k;
   for (let t = 0; t < b.count; t++) {
-    const o = t * K, e = o + (found[t] < k ? found[t] : k);
+    const o = t * K,
+      e = o + (found[t] < k ? found[t] : k);
     if (power === 2) for (let j = o; j < e; j++) w[j] = 1 / d2[j];
     else if (power === 1) for (let j = o; j < e; j++) w[j] = 1 / Math.sqrt(d2[j]);
-    else if (power === 1.5) for (let j = o; j < e; j++) { const x = d2[j]; w[j] = 1 / Math.sqrt(x * Math.sqrt(x)); }
-    else if (power === 3) for (let j = o; j < e; j++) { const x = d2[j]; w[j] = 1 / (x * Math.sqrt(x)); }
+    else if (power === 1.5)
+      for (let j = o; j < e; j++) {
+        const x = d2[j];
+        w[j] = 1 / Math.sqrt(x * Math.sqrt(x));
+      }
+    else if (power === 3)
+      for (let j = o; j < e; j++) {
+        const x = d2[j];
+        w[j] = 1 / (x * Math.sqrt(x));
+      }
     else for (let j = o; j < e; j++) w[j] = 1 / Math.pow(d2[j], power / 2);
   }
 }
@@ -131,15 +158,30 @@ function weights(b: NeighbourBand, k: number, power: number, w: Float64Array): v
  * IDW from one band of shared neighbour lists: the first k (nearest first) of each cell with their weights
  * `w`; a neighbour within COINCIDENT_D2 gives its value (the lowest index of several).
  */
-function weighBand(b: NeighbourBand, w: Float64Array, z: ArrayLike<number>, k: number, minN: number, zlo: number, zhi: number, out: Float64Array): void {
-  const { cells, found, idx, d2 } = b, K = b.k;
+function weighBand(
+  b: NeighbourBand,
+  w: Float64Array,
+  z: ArrayLike<number>,
+  k: number,
+  minN: number,
+  zlo: number,
+  zhi: number,
+  out: Float64Array,
+): void {
+  const { cells, found, idx, d2 } = b,
+    K = b.k;
   for (let t = 0; t < b.count; t++) {
     const f = found[t] < k ? found[t] : k;
     if (f < minN) continue;
     const o = t * K;
-    let num = 0, den = 0, hit = -1;
+    let num = 0,
+      den = 0,
+      hit = -1;
     for (let j = o; j < o + f; j++) {
-      if (d2[j] < COINCIDENT_D2) { if (hit < 0 || idx[j] < idx[hit]) hit = j; continue; }
+      if (d2[j] < COINCIDENT_D2) {
+        if (hit < 0 || idx[j] < idx[hit]) hit = j;
+        continue;
+      }
       const wj = w[j];
       num += wj * z[idx[j]];
       den += wj;
@@ -151,22 +193,40 @@ function weighBand(b: NeighbourBand, w: Float64Array, z: ArrayLike<number>, k: n
 }
 
 /** Every sample for every cell (no search), summed in sample order. */
-function allSamples(xy: Float64Array, z: ArrayLike<number>, power: number, grid: GridShape, where: ArrayLike<number> | undefined, out: Float64Array): void {
-  const n = xy.length >> 1, { cols, rows, cell, xmin, ymax } = grid;
+function allSamples(
+  xy: Float64Array,
+  z: ArrayLike<number>,
+  power: number,
+  grid: GridShape,
+  where: ArrayLike<number> | undefined,
+  out: Float64Array,
+): void {
+  const n = xy.length >> 1,
+    { cols, rows, cell, xmin, ymax } = grid;
   const [zlo, zhi] = range(z, n);
-  const sx = new Float64Array(n), sy = new Float64Array(n);
-  for (let i = 0; i < n; i++) { sx[i] = xy[2 * i] - xmin; sy[i] = xy[2 * i + 1] - ymax; }
+  const sx = new Float64Array(n),
+    sy = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    sx[i] = xy[2 * i] - xmin;
+    sy[i] = xy[2 * i + 1] - ymax;
+  }
   for (let r = 0; r < rows; r++) {
     const qy = -(r + 0.5) * cell;
     for (let c = 0; c < cols; c++) {
       const i = r * cols + c;
       if (where && !(where[i] > 0)) continue;
       const qx = (c + 0.5) * cell;
-      let num = 0, den = 0, hit = -1;
+      let num = 0,
+        den = 0,
+        hit = -1;
       for (let j = 0; j < n; j++) {
-        const dx = sx[j] - qx, dy = sy[j] - qy;
+        const dx = sx[j] - qx,
+          dy = sy[j] - qy;
         const d2 = dx * dx + dy * dy;
-        if (d2 < COINCIDENT_D2) { hit = j; break; }
+        if (d2 < COINCIDENT_D2) {
+          hit = j;
+          break;
+        }
         const w = idwWeight(d2, power);
         num += w * z[j];
         den += w;

@@ -31,7 +31,16 @@ export interface Buckets {
  * which must contain every sample. Coordinates are stored relative to (ox, oy).
  * @example const b = buildBuckets(xy, 50, xmin, ymin, 40, 40, xmin, ymax)
  */
-export function buildBuckets(xy: Float64Array, size: number, x0: number, y0: number, nx: number, ny: number, ox = x0, oy = y0): Buckets {
+export function buildBuckets(
+  xy: Float64Array,
+  size: number,
+  x0: number,
+  y0: number,
+  nx: number,
+  ny: number,
+  ox = x0,
+  oy = y0,
+): Buckets {
   const n = xy.length >> 1;
   const start = new Int32Array(nx * ny + 1);
   const which = new Int32Array(n);
@@ -44,7 +53,9 @@ export function buildBuckets(xy: Float64Array, size: number, x0: number, y0: num
   }
   for (let b = 0; b < nx * ny; b++) start[b + 1] += start[b];
   const fill = start.slice(0, nx * ny);
-  const sx = new Float64Array(n), sy = new Float64Array(n), si = new Int32Array(n);
+  const sx = new Float64Array(n),
+    sy = new Float64Array(n),
+    si = new Int32Array(n);
   for (let i = 0; i < n; i++) {
     const k = fill[which[i]]++;
     sx[k] = xy[2 * i] - ox;
@@ -80,7 +91,11 @@ export class KnnGroup {
   /** how many ring expansions were needed in total (for tuning and tests) */
   expansions = 0;
 
-  constructor(readonly b: Buckets, readonly k: number, readonly maxD2 = Infinity) {
+  constructor(
+    readonly b: Buckets,
+    readonly k: number,
+    readonly maxD2 = Infinity,
+  ) {
     this.cx = new Float64Array(64);
     this.cy = new Float64Array(64);
     this.ci = new Int32Array(64);
@@ -98,23 +113,38 @@ export class KnnGroup {
 
   private gather(bxa: number, bxb: number, bya: number, byb: number): void {
     const b = this.b;
-    this.bxa = bxa; this.bxb = bxb; this.bya = bya; this.byb = byb;
-    const xa = Math.max(0, bxa), xb = Math.min(b.nx - 1, bxb), ya = Math.max(0, bya), yb = Math.min(b.ny - 1, byb);
+    this.bxa = bxa;
+    this.bxb = bxb;
+    this.bya = bya;
+    this.byb = byb;
+    const xa = Math.max(0, bxa),
+      xb = Math.min(b.nx - 1, bxb),
+      ya = Math.max(0, bya),
+      yb = Math.min(b.ny - 1, byb);
     let total = 0;
     for (let by = ya; by <= yb; by++) total += b.start[by * b.nx + xb + 1] - b.start[by * b.nx + xa];
     if (total > this.cx.length) {
       const cap = Math.max(total, this.cx.length * 2);
-      this.cx = new Float64Array(cap); this.cy = new Float64Array(cap); this.ci = new Int32Array(cap);
+      this.cx = new Float64Array(cap);
+      this.cy = new Float64Array(cap);
+      this.ci = new Int32Array(cap);
     }
     let m = 0;
     const { cx, cy, ci } = this;
     for (let by = ya; by <= yb; by++) {
-      const s = b.start[by * b.nx + xa], e = b.start[by * b.nx + xb + 1];
-      for (let j = s; j < e; j++) { cx[m] = b.sx[j]; cy[m] = b.sy[j]; ci[m] = b.si[j]; m++; }
+      const s = b.start[by * b.nx + xa],
+        e = b.start[by * b.nx + xb + 1];
+      for (let j = s; j < e; j++) {
+        cx[m] = b.sx[j];
+        cy[m] = b.sy[j];
+        ci[m] = b.si[j];
+        m++;
+      }
     }
     this.count = m;
     this.gen++;
-    const rx = b.x0 - b.ox, ry = b.y0 - b.oy;
+    const rx = b.x0 - b.ox,
+      ry = b.y0 - b.oy;
     this.ex0 = bxa <= 0 ? -Infinity : rx + bxa * b.size;
     this.ex1 = bxb >= b.nx - 1 ? Infinity : rx + (bxb + 1) * b.size;
     this.ey0 = bya <= 0 ? -Infinity : ry + bya * b.size;
@@ -132,7 +162,10 @@ export class KnnGroup {
    * dropped without a heap or insertion; if too few remain, the pass is redone without the bound.
    */
   nearest(qx: number, qy: number, skip = -1, sorted = false): number {
-    const k = this.k, maxD2 = this.maxD2, d2 = this.d2, idx = this.idx;
+    const k = this.k,
+      maxD2 = this.maxD2,
+      d2 = this.d2,
+      idx = this.idx;
     let bound = maxD2;
     if (this.prevK2 >= 0) {
       const step = Math.sqrt((qx - this.px) * (qx - this.px) + (qy - this.py) * (qy - this.py));
@@ -140,46 +173,76 @@ export class KnnGroup {
       bound = b * b * (1 + 1e-12) + 1e-12;
       if (bound > maxD2) bound = maxD2;
     }
-    this.px = qx; this.py = qy;
+    this.px = qx;
+    this.py = qy;
     for (;;) {
-      if (this.sd.length < this.count) { this.sd = new Float64Array(this.cx.length); this.si2 = new Int32Array(this.cx.length); }
+      if (this.sd.length < this.count) {
+        this.sd = new Float64Array(this.cx.length);
+        this.si2 = new Int32Array(this.cx.length);
+      }
       const { cx, ci, sd, si2 } = this;
       const m = this.count;
       // squared y distances are shared by every query on one row (grid cells): computed once per row
       if (qy !== this.rowQy || this.rowGen !== this.gen) {
         if (this.rdy.length < this.cx.length) this.rdy = new Float64Array(this.cx.length);
-        const cy = this.cy, rdy = this.rdy;
-        for (let j = 0; j < m; j++) { const dy = cy[j] - qy; rdy[j] = dy * dy; }
-        this.rowQy = qy; this.rowGen = this.gen;
+        const cy = this.cy,
+          rdy = this.rdy;
+        for (let j = 0; j < m; j++) {
+          const dy = cy[j] - qy;
+          rdy[j] = dy * dy;
+        }
+        this.rowQy = qy;
+        this.rowGen = this.gen;
       }
       const rdy = this.rdy;
       let c = 0;
       for (let j = 0; j < m; j++) {
         const dx = cx[j] - qx;
         const dd = dx * dx + rdy[j];
-        if (dd <= bound) { sd[c] = dd; si2[c] = ci[j]; c++; }
+        if (dd <= bound) {
+          sd[c] = dd;
+          si2[c] = ci[j];
+          c++;
+        }
       }
       if (skip >= 0) {
-        for (let t = 0; t < c; t++) if (si2[t] === skip) { c--; sd[t] = sd[c]; si2[t] = si2[c]; break; }
+        for (let t = 0; t < c; t++)
+          if (si2[t] === skip) {
+            c--;
+            sd[t] = sd[c];
+            si2[t] = si2[c];
+            break;
+          }
       }
-      if (c < k && bound < maxD2) { bound = maxD2; continue; }
+      if (c < k && bound < maxD2) {
+        bound = maxD2;
+        continue;
+      }
       let found: number;
       let kth: number;
       if (c <= k) {
         found = c;
         kth = 0;
-        for (let t = 0; t < c; t++) { d2[t] = sd[t]; idx[t] = si2[t]; if (sd[t] > kth) kth = sd[t]; }
+        for (let t = 0; t < c; t++) {
+          d2[t] = sd[t];
+          idx[t] = si2[t];
+          if (sd[t] > kth) kth = sd[t];
+        }
         if (sorted) sortPairs(d2, idx, found);
       } else {
         // the k smallest (by distance, then index) moved to the front; position k - 1 holds the k-th
         selectK(sd, si2, c, k);
         found = k;
         kth = sd[k - 1];
-        for (let t = 0; t < k; t++) { d2[t] = sd[t]; idx[t] = si2[t]; }
+        for (let t = 0; t < k; t++) {
+          d2[t] = sd[t];
+          idx[t] = si2[t];
+        }
         if (sorted) sortPairs(d2, idx, found);
       }
       // proof: every point outside the gathered region is at least `edge` away
-      const ex = Math.min(qx - this.ex0, this.ex1 - qx), ey = Math.min(qy - this.ey0, this.ey1 - qy);
+      const ex = Math.min(qx - this.ex0, this.ex1 - qx),
+        ey = Math.min(qy - this.ey0, this.ey1 - qy);
       const edge = ex < ey ? ex : ey;
       const need2 = found === k ? kth : maxD2;
       if (edge === Infinity || need2 < edge * edge) {
@@ -198,12 +261,17 @@ export class KnnGroup {
    * search radius) is never chosen. Answers are unchanged; only work is saved.
    */
   prune(x0: number, y0: number, x1: number, y1: number): void {
-    const m = this.count, k = this.k;
+    const m = this.count,
+      k = this.k;
     if (m <= k) return;
-    if (this.sd.length < this.cx.length) { this.sd = new Float64Array(this.cx.length); this.si2 = new Int32Array(this.cx.length); }
+    if (this.sd.length < this.cx.length) {
+      this.sd = new Float64Array(this.cx.length);
+      this.si2 = new Int32Array(this.cx.length);
+    }
     const { cx, cy, ci, sd, si2 } = this;
     for (let j = 0; j < m; j++) {
-      const dx = Math.max(cx[j] - x0, x1 - cx[j]), dy = Math.max(cy[j] - y0, y1 - cy[j]);
+      const dx = Math.max(cx[j] - x0, x1 - cx[j]),
+        dy = Math.max(cy[j] - y0, y1 - cy[j]);
       sd[j] = dx * dx + dy * dy;
       si2[j] = j;
     }
@@ -211,10 +279,16 @@ export class KnnGroup {
     const limit = Math.min(sd[k - 1], this.maxD2);
     let w = 0;
     for (let j = 0; j < m; j++) {
-      const x = cx[j], y = cy[j];
+      const x = cx[j],
+        y = cy[j];
       const dx = x < x0 ? x0 - x : x > x1 ? x - x1 : 0;
       const dy = y < y0 ? y0 - y : y > y1 ? y - y1 : 0;
-      if (dx * dx + dy * dy <= limit) { cx[w] = x; cy[w] = y; ci[w] = ci[j]; w++; }
+      if (dx * dx + dy * dy <= limit) {
+        cx[w] = x;
+        cy[w] = y;
+        ci[w] = ci[j];
+        w++;
+      }
     }
     this.count = w;
     this.gen++;
@@ -241,19 +315,27 @@ export class KnnGroup {
  * [0, k) and position k - 1 holds the k-th smallest. Keys are unique because indices are.
  */
 function selectK(sd: Float64Array, si: Int32Array, c: number, k: number): void {
-  let lo = 0, hi = c - 1;
+  let lo = 0,
+    hi = c - 1;
   const target = k - 1;
   while (lo < hi) {
     const mid = (lo + hi) >> 1;
-    const pd = sd[mid], pi = si[mid];
-    let i = lo, j = hi;
+    const pd = sd[mid],
+      pi = si[mid];
+    let i = lo,
+      j = hi;
     while (i <= j) {
       while (sd[i] < pd || (sd[i] === pd && si[i] < pi)) i++;
       while (sd[j] > pd || (sd[j] === pd && si[j] > pi)) j--;
       if (i <= j) {
-        const td = sd[i]; sd[i] = sd[j]; sd[j] = td;
-        const ti = si[i]; si[i] = si[j]; si[j] = ti;
-        i++; j--;
+        const td = sd[i];
+        sd[i] = sd[j];
+        sd[j] = td;
+        const ti = si[i];
+        si[i] = si[j];
+        si[j] = ti;
+        i++;
+        j--;
       }
     }
     if (target <= j) hi = j;
@@ -265,9 +347,15 @@ function selectK(sd: Float64Array, si: Int32Array, c: number, k: number): void {
 /** Sorts the first n pairs by distance (insertion sort; n is small). */
 function sortPairs(d2: Float64Array, idx: Int32Array, n: number): void {
   for (let i = 1; i < n; i++) {
-    const d = d2[i], j0 = idx[i];
+    const d = d2[i],
+      j0 = idx[i];
     let p = i;
-    while (p > 0 && (d2[p - 1] > d || (d2[p - 1] === d && idx[p - 1] > j0))) { d2[p] = d2[p - 1]; idx[p] = idx[p - 1]; p--; }
-    d2[p] = d; idx[p] = j0;
+    while (p > 0 && (d2[p - 1] > d || (d2[p - 1] === d && idx[p - 1] > j0))) {
+      d2[p] = d2[p - 1];
+      idx[p] = idx[p - 1];
+      p--;
+    }
+    d2[p] = d;
+    idx[p] = j0;
   }
 }

@@ -108,7 +108,12 @@ export class OkSolver {
    * @param nSamples number of samples (indices are below it)
    * @param cacheSets factorisations kept (default 1024)
    */
-  constructor(readonly model: KrigingModel, readonly kmax: number, nSamples: number, cacheSets = KRIGING_CACHE_SETS) {
+  constructor(
+    readonly model: KrigingModel,
+    readonly kmax: number,
+    nSamples: number,
+    cacheSets = KRIGING_CACHE_SETS,
+  ) {
     this.sill = model.nugget + model.psill;
     this.stride = kmax * kmax + 4 * kmax;
     this.pool = new Float64Array(cacheSets * this.stride);
@@ -129,7 +134,8 @@ export class OkSolver {
   load(xy: Float64Array, ox: number, oy: number, z: ArrayLike<number>, idx: Int32Array, m: number): boolean {
     const { mark, members, sizes, kmax } = this;
     const stamp = ++this.stamp;
-    let h1 = 0, h2 = 0;
+    let h1 = 0,
+      h2 = 0;
     for (let t = 0; t < m; t++) {
       const j = idx[t];
       mark[j] = stamp;
@@ -139,10 +145,14 @@ export class OkSolver {
     if (this.cur >= 0 && this.same(this.cur, m, stamp)) return this.ok[this.cur] === 1;
     const key = (h1 >>> 0) * 2097152 + ((h2 >>> 0) & 0x1fffff);
     const hit = this.map.get(key);
-    if (hit !== undefined && this.same(hit, m, stamp)) { this.cur = hit; return this.ok[hit] === 1; }
+    if (hit !== undefined && this.same(hit, m, stamp)) {
+      this.cur = hit;
+      return this.ok[hit] === 1;
+    }
     const slot = this.next;
     this.next = (slot + 1) % sizes.length;
-    if (!Number.isNaN(this.keys[slot]) && this.map.get(this.keys[slot]) === slot) this.map.delete(this.keys[slot]);
+    if (!Number.isNaN(this.keys[slot]) && this.map.get(this.keys[slot]) === slot)
+      this.map.delete(this.keys[slot]);
     this.keys[slot] = key;
     this.map.set(key, slot);
     sizes[slot] = m;
@@ -161,15 +171,31 @@ export class OkSolver {
   }
 
   /** Builds and factorises the slot's covariance matrix; v = L^-1 1, g = L^-1 z and their products. */
-  private factorise(slot: number, xy: Float64Array, ox: number, oy: number, z: ArrayLike<number>, idx: Int32Array, m: number): boolean {
+  private factorise(
+    slot: number,
+    xy: Float64Array,
+    ox: number,
+    oy: number,
+    z: ArrayLike<number>,
+    idx: Int32Array,
+    m: number,
+  ): boolean {
     this.factorisations++;
     const { pool, model, sill, kmax } = this;
-    const o = slot * this.stride, xo = o + kmax * kmax, yo = xo + kmax, vo = yo + kmax, go = vo + kmax;
-    for (let t = 0; t < m; t++) { pool[xo + t] = xy[2 * idx[t]] - ox; pool[yo + t] = xy[2 * idx[t] + 1] - oy; }
+    const o = slot * this.stride,
+      xo = o + kmax * kmax,
+      yo = xo + kmax,
+      vo = yo + kmax,
+      go = vo + kmax;
+    for (let t = 0; t < m; t++) {
+      pool[xo + t] = xy[2 * idx[t]] - ox;
+      pool[yo + t] = xy[2 * idx[t] + 1] - oy;
+    }
     for (let i = 0; i < m; i++) {
       const r = o + i * m;
       for (let j = 0; j < i; j++) {
-        const dx = pool[xo + i] - pool[xo + j], dy = pool[yo + i] - pool[yo + j];
+        const dx = pool[xo + i] - pool[xo + j],
+          dy = pool[yo + i] - pool[yo + j];
         pool[r + j] = covariance(model, dx * dx + dy * dy);
       }
       pool[r + i] = sill;
@@ -187,11 +213,16 @@ export class OkSolver {
         } else pool[ri + j] = s / pool[rj + j];
       }
     }
-    let vv = 0, vg = 0;
+    let vv = 0,
+      vg = 0;
     for (let i = 0; i < m; i++) {
       const ri = o + i * m;
-      let sv = 1, sg = z[idx[i]];
-      for (let t = 0; t < i; t++) { sv -= pool[ri + t] * pool[vo + t]; sg -= pool[ri + t] * pool[go + t]; }
+      let sv = 1,
+        sg = z[idx[i]];
+      for (let t = 0; t < i; t++) {
+        sv -= pool[ri + t] * pool[vo + t];
+        sg -= pool[ri + t] * pool[go + t];
+      }
       const d = pool[ri + i];
       pool[vo + i] = sv / d;
       pool[go + i] = sg / d;
@@ -206,40 +237,57 @@ export class OkSolver {
   /** Kriging mean, variance (>= 0) and Lagrange multiplier at (x, y) (relative to the origin given to load). */
   predict(x: number, y: number): void {
     const { pool, u, model, kmax } = this;
-    const slot = this.cur, m = this.sizes[slot];
-    const o = slot * this.stride, xo = o + kmax * kmax, yo = xo + kmax, vo = yo + kmax, go = vo + kmax;
+    const slot = this.cur,
+      m = this.sizes[slot];
+    const o = slot * this.stride,
+      xo = o + kmax * kmax,
+      yo = xo + kmax,
+      vo = yo + kmax,
+      go = vo + kmax;
     // covariances with the location first, one model branch for all of them
-    const ps = model.psill, ia = 1 / model.range, ia2 = ia * ia;
+    const ps = model.psill,
+      ia = 1 / model.range,
+      ia2 = ia * ia;
     if (model.kind === 'exponential') {
       for (let i = 0; i < m; i++) {
-        const dx = pool[xo + i] - x, dy = pool[yo + i] - y, d2 = dx * dx + dy * dy;
+        const dx = pool[xo + i] - x,
+          dy = pool[yo + i] - y,
+          d2 = dx * dx + dy * dy;
         u[i] = d2 > 0 ? ps * Math.exp(-Math.sqrt(d2) * ia) : this.sill;
       }
     } else if (model.kind === 'gaussian') {
       for (let i = 0; i < m; i++) {
-        const dx = pool[xo + i] - x, dy = pool[yo + i] - y, d2 = dx * dx + dy * dy;
+        const dx = pool[xo + i] - x,
+          dy = pool[yo + i] - y,
+          d2 = dx * dx + dy * dy;
         u[i] = d2 > 0 ? ps * Math.exp(-d2 * ia2) : this.sill;
       }
     } else {
       for (let i = 0; i < m; i++) {
-        const dx = pool[xo + i] - x, dy = pool[yo + i] - y, d2 = dx * dx + dy * dy;
+        const dx = pool[xo + i] - x,
+          dy = pool[yo + i] - y,
+          d2 = dx * dx + dy * dy;
         u[i] = d2 > 0 ? sph(ps, Math.sqrt(d2) * ia) : this.sill;
       }
     }
-    let uu = 0, vu = 0, ug = 0;
+    let uu = 0,
+      vu = 0,
+      ug = 0;
     for (let i = 0; i < m; i++) {
       let s = u[i];
       const ri = o + i * m;
       for (let t = 0; t < i; t++) s -= pool[ri + t] * u[t];
       const ui = s / pool[ri + i];
       u[i] = ui;
-      uu += ui * ui; vu += pool[vo + i] * ui; ug += ui * pool[go + i];
+      uu += ui * ui;
+      vu += pool[vo + i] * ui;
+      ug += ui * pool[go + i];
     }
     const vv = this.scal[2 * slot];
     const mu = (vu - 1) / vv;
     this.mu = mu;
     this.mean = ug - mu * this.scal[2 * slot + 1];
-    const s2 = this.sill - uu + (vu - 1) * (vu - 1) / vv;
+    const s2 = this.sill - uu + ((vu - 1) * (vu - 1)) / vv;
     this.variance = s2 > 0 ? s2 : 0;
   }
 }
@@ -255,7 +303,13 @@ export class OkSolver {
  * @param opts neighbours 16, where grid.fraction, lagrange false
  * @example const { values, variance } = krigingSurface(xy, z, grid, { kind: 'spherical', nugget: 0.05, psill: 0.59, range: 897 })
  */
-export function krigingSurface(xy: Float64Array, z: ArrayLike<number>, grid: GridShape & { fraction?: ArrayLike<number> }, model: KrigingModel, opts: KrigingOptions = {}): KrigingResult {
+export function krigingSurface(
+  xy: Float64Array,
+  z: ArrayLike<number>,
+  grid: GridShape & { fraction?: ArrayLike<number> },
+  model: KrigingModel,
+  opts: KrigingOptions = {},
+): KrigingResult {
   const n = xy.length >> 1;
   const k = Math.min(opts.neighbours ?? 16, n);
   const N = grid.cols * grid.rows;
@@ -269,9 +323,17 @@ export function krigingSurface(xy: Float64Array, z: ArrayLike<number>, grid: Gri
   visitCellNeighbours(xy, grid, k, Infinity, opts.where ?? grid.fraction, (i, found, d2, idx) => {
     let hit = -1;
     for (let t = 0; t < found; t++) if (d2[t] < COINCIDENT_D2 && (hit < 0 || idx[t] < idx[hit])) hit = t;
-    if (hit >= 0) { values[i] = z[idx[hit]]; variance[i] = 0; if (lagrange) lagrange[i] = 0; return; }
-    if (!solver.load(xy, xmin, ymax, z, idx, found)) { res.singular++; return; }
-    solver.predict((i % cols + 0.5) * cell, -(Math.floor(i / cols) + 0.5) * cell);
+    if (hit >= 0) {
+      values[i] = z[idx[hit]];
+      variance[i] = 0;
+      if (lagrange) lagrange[i] = 0;
+      return;
+    }
+    if (!solver.load(xy, xmin, ymax, z, idx, found)) {
+      res.singular++;
+      return;
+    }
+    solver.predict(((i % cols) + 0.5) * cell, -(Math.floor(i / cols) + 0.5) * cell);
     values[i] = solver.mean;
     variance[i] = solver.variance;
     if (lagrange) lagrange[i] = solver.mu;

@@ -54,7 +54,11 @@ export function lognormalMean(y: number, variance: number, mu: number): number {
  * @param opts neighbours 16, log false, model fitted
  * @example const k = krigingCandidate(pts.xy, pts.z); k.refused ?? k.cv!.rmse
  */
-export function krigingCandidate(xy: Float64Array, z: ArrayLike<number>, opts: KrigingChoiceOptions = {}): KrigingInfo {
+export function krigingCandidate(
+  xy: Float64Array,
+  z: ArrayLike<number>,
+  opts: KrigingChoiceOptions = {},
+): KrigingInfo {
   const log = opts.log ?? false;
   const transform = log ? 'log' : 'none';
   const neighbours = Math.min(opts.neighbours ?? KRIGING_NEIGHBOURS, Math.max(1, z.length - 1));
@@ -66,15 +70,47 @@ export function krigingCandidate(xy: Float64Array, z: ArrayLike<number>, opts: K
     model = choice.model;
     refused = choice.refused;
   } else if (log) {
-    for (let i = 0; i < z.length; i++) if (!(z[i] > 0)) { refused = `a value of ${z[i]} has no logarithm; kriging on logarithms needs values above 0`; break; }
+    for (let i = 0; i < z.length; i++)
+      if (!(z[i] > 0)) {
+        refused = `a value of ${z[i]} has no logarithm; kriging on logarithms needs values above 0`;
+        break;
+      }
   }
   if (z.length < 3 && !refused) refused = `only ${z.length} samples; cross-validation needs 3`;
-  const source = opts.model ? 'given' : `fitted to the ${z.length} samples' semivariogram (gstat binning, weighted least squares; best of spherical, exponential, Gaussian)`;
-  if (!model || refused) return { model: null, refused: refused ?? 'no model', transform, neighbours, cv: null, modelText: '', modelSource: source };
+  const source = opts.model
+    ? 'given'
+    : `fitted to the ${z.length} samples' semivariogram (gstat binning, weighted least squares; best of spherical, exponential, Gaussian)`;
+  if (!model || refused)
+    return {
+      model: null,
+      refused: refused ?? 'no model',
+      transform,
+      neighbours,
+      cv: null,
+      modelText: '',
+      modelSource: source,
+    };
   const zt = log ? Float64Array.from(z, Math.log) : z;
   const cv = krigingCv(xy, zt, model, neighbours, z, log ? lognormalMean : undefined);
-  const row: CvRow = { method: 'kriging', power: NaN, neighbours, rmse: cv.rmse, mae: cv.mae, bias: cv.bias, msse: cv.msse, n: cv.n };
-  return { model, refused: null, transform, neighbours, cv: row, modelText: modelText(model, log), modelSource: source };
+  const row: CvRow = {
+    method: 'kriging',
+    power: NaN,
+    neighbours,
+    rmse: cv.rmse,
+    mae: cv.mae,
+    bias: cv.bias,
+    msse: cv.msse,
+    n: cv.n,
+  };
+  return {
+    model,
+    refused: null,
+    transform,
+    neighbours,
+    cv: row,
+    modelText: modelText(model, log),
+    modelSource: source,
+  };
 }
 
 /** Kriged grid: values in the nutrient's unit, plus mean and variance on the kriged scale (ln values when log). */
@@ -90,7 +126,12 @@ export interface KrigedGrid {
  * Kriges the samples onto the grid with a candidate's model.
  * @example const g = krigeGrid(pts.xy, pts.z, grid, info); g.variance[i]
  */
-export function krigeGrid(xy: Float64Array, z: ArrayLike<number>, grid: GridShape & { fraction?: ArrayLike<number> }, info: KrigingInfo): KrigedGrid {
+export function krigeGrid(
+  xy: Float64Array,
+  z: ArrayLike<number>,
+  grid: GridShape & { fraction?: ArrayLike<number> },
+  info: KrigingInfo,
+): KrigedGrid {
   if (!info.model) throw new Error('krigeGrid: no model (kriging was refused)');
   const log = info.transform === 'log';
   const zt = log ? Float64Array.from(z, Math.log) : z;
@@ -98,6 +139,7 @@ export function krigeGrid(xy: Float64Array, z: ArrayLike<number>, grid: GridShap
   if (!log) return { values: r.values, mean: r.values, variance: r.variance, singular: r.singular };
   const values = new Float64Array(r.values.length).fill(NaN);
   const mu = r.lagrange!;
-  for (let i = 0; i < values.length; i++) if (!Number.isNaN(r.values[i])) values[i] = lognormalMean(r.values[i], r.variance[i], mu[i]);
+  for (let i = 0; i < values.length; i++)
+    if (!Number.isNaN(r.values[i])) values[i] = lognormalMean(r.values[i], r.variance[i], mu[i]);
   return { values, mean: r.values, variance: r.variance, singular: r.singular };
 }

@@ -32,35 +32,59 @@ export interface PointKrigingOptions {
  * @param opts neighbours 16, leaveOneOut false
  * @example krigingAtPoints(xy, z, new Float64Array([x, y]), model, { neighbours: 16 }).mean[0]
  */
-export function krigingAtPoints(xy: Float64Array, z: ArrayLike<number>, qxy: Float64Array, model: KrigingModel, opts: PointKrigingOptions = {}): PointKriging {
+export function krigingAtPoints(
+  xy: Float64Array,
+  z: ArrayLike<number>,
+  qxy: Float64Array,
+  model: KrigingModel,
+  opts: PointKrigingOptions = {},
+): PointKriging {
   const loo = opts.leaveOneOut ?? false;
   const n = xy.length >> 1;
   const q = loo ? xy : qxy;
   const nq = q.length >> 1;
   const k = Math.min(opts.neighbours ?? 16, loo ? n - 1 : n);
-  const out: PointKriging = { mean: new Float64Array(nq).fill(NaN), variance: new Float64Array(nq).fill(NaN), lagrange: new Float64Array(nq).fill(NaN) };
+  const out: PointKriging = {
+    mean: new Float64Array(nq).fill(NaN),
+    variance: new Float64Array(nq).fill(NaN),
+    lagrange: new Float64Array(nq).fill(NaN),
+  };
   if (k < 1) return out;
-  let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
+  let x0 = Infinity,
+    x1 = -Infinity,
+    y0 = Infinity,
+    y1 = -Infinity;
   for (const a of [xy, q]) {
     for (let i = 0; i < a.length; i += 2) {
-      x0 = Math.min(x0, a[i]); x1 = Math.max(x1, a[i]);
-      y0 = Math.min(y0, a[i + 1]); y1 = Math.max(y1, a[i + 1]);
+      x0 = Math.min(x0, a[i]);
+      x1 = Math.max(x1, a[i]);
+      y0 = Math.min(y0, a[i + 1]);
+      y1 = Math.max(y1, a[i + 1]);
     }
   }
-  const w = Math.max(x1 - x0, 1e-6), h = Math.max(y1 - y0, 1e-6);
+  const w = Math.max(x1 - x0, 1e-6),
+    h = Math.max(y1 - y0, 1e-6);
   const size = Math.max(Math.sqrt((w * h * 4) / n), 1e-6); // about 4 samples per bucket
-  const nx = Math.max(1, Math.ceil(w / size)), ny = Math.max(1, Math.ceil(h / size));
+  const nx = Math.max(1, Math.ceil(w / size)),
+    ny = Math.max(1, Math.ceil(h / size));
   const b = buildBuckets(xy, size, x0, y0, nx, ny);
   const g = new KnnGroup(b, k);
   const ring = Math.max(1, Math.ceil(Math.sqrt(k / 4) / 2 + 0.5));
   const solver = new OkSolver(model, k, n, loo ? 1 : undefined);
   for (let p = 0; p < nq; p++) {
-    const qx = q[2 * p] - x0, qy = q[2 * p + 1] - y0;
-    const bx = Math.min(nx - 1, Math.max(0, Math.floor(qx / size))), by = Math.min(ny - 1, Math.max(0, Math.floor(qy / size)));
+    const qx = q[2 * p] - x0,
+      qy = q[2 * p + 1] - y0;
+    const bx = Math.min(nx - 1, Math.max(0, Math.floor(qx / size))),
+      by = Math.min(ny - 1, Math.max(0, Math.floor(qy / size)));
     g.begin(bx, bx, by, by, ring);
     g.reset();
     const found = g.nearest(qx, qy, loo ? p : -1, true);
-    if (g.d2[0] < COINCIDENT_D2) { out.mean[p] = z[g.idx[0]]; out.variance[p] = 0; out.lagrange[p] = 0; continue; }
+    if (g.d2[0] < COINCIDENT_D2) {
+      out.mean[p] = z[g.idx[0]];
+      out.variance[p] = 0;
+      out.lagrange[p] = 0;
+      continue;
+    }
     if (!solver.load(xy, x0, y0, z, g.idx, found)) continue;
     solver.predict(qx, qy);
     out.mean[p] = solver.mean;
@@ -99,18 +123,38 @@ export interface KrigingCv {
  * @param back back-transform of (mean, variance, lagrange) to the unit of `observed` (default none)
  * @example krigingCv(xy, z, model, 16).msse // near 1 for a good model
  */
-export function krigingCv(xy: Float64Array, z: ArrayLike<number>, model: KrigingModel, neighbours = 16, observed: ArrayLike<number> = z, back?: (mean: number, variance: number, lagrange: number) => number): KrigingCv {
+export function krigingCv(
+  xy: Float64Array,
+  z: ArrayLike<number>,
+  model: KrigingModel,
+  neighbours = 16,
+  observed: ArrayLike<number> = z,
+  back?: (mean: number, variance: number, lagrange: number) => number,
+): KrigingCv {
   const r = krigingAtPoints(xy, z, xy, model, { neighbours, leaveOneOut: true });
   const n = z.length;
   const pred = new Float64Array(n);
-  let se = 0, sa = 0, sq = 0, ss = 0, m = 0, ms = 0;
+  let se = 0,
+    sa = 0,
+    sq = 0,
+    ss = 0,
+    m = 0,
+    ms = 0;
   for (let i = 0; i < n; i++) {
-    const mean = r.mean[i], v = r.variance[i];
+    const mean = r.mean[i],
+      v = r.variance[i];
     pred[i] = back ? back(mean, v, r.lagrange[i]) : mean;
     if (!Number.isFinite(pred[i])) continue;
     const e = pred[i] - observed[i];
-    se += e; sa += Math.abs(e); sq += e * e; m++;
-    if (v > 0) { const ez = mean - z[i]; ss += (ez * ez) / v; ms++; }
+    se += e;
+    sa += Math.abs(e);
+    sq += e * e;
+    m++;
+    if (v > 0) {
+      const ez = mean - z[i];
+      ss += (ez * ez) / v;
+      ms++;
+    }
   }
   return {
     neighbours: Math.min(neighbours, n - 1),

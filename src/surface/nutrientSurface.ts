@@ -4,7 +4,13 @@
  */
 import { UserError, type Warning } from '../errors.js';
 import type { Analyte, Grid, SampleZones, Samples } from '../types.js';
-import { crossValidateMany, DEFAULT_NEIGHBOURS, DEFAULT_POWERS, type CvResult, type CvRow } from './crossValidate.js';
+import {
+  crossValidateMany,
+  DEFAULT_NEIGHBOURS,
+  DEFAULT_POWERS,
+  type CvResult,
+  type CvRow,
+} from './crossValidate.js';
 import { idwSurfaces } from './idw.js';
 import { nutrientPoints, type NutrientPoints } from './prepare.js';
 import { zoneSurface } from './zoneSurface.js';
@@ -21,11 +27,23 @@ export const ANALYTE_LABEL: Record<Analyte, string> = {
 };
 
 const NAMES: Record<string, Analyte> = {
-  no3_n: 'no3_n', n: 'no3_n', nitrate: 'no3_n', 'no3-n': 'no3_n', no3: 'no3_n',
-  p: 'p', phosphorus: 'p',
-  k: 'k', potassium: 'k',
-  so4_s: 'so4_s', s: 'so4_s', sulphate: 'so4_s', sulfate: 'so4_s', 'so4-s': 'so4_s', so4: 'so4_s',
-  om: 'om', ph: 'ph',
+  no3_n: 'no3_n',
+  n: 'no3_n',
+  nitrate: 'no3_n',
+  'no3-n': 'no3_n',
+  no3: 'no3_n',
+  p: 'p',
+  phosphorus: 'p',
+  k: 'k',
+  potassium: 'k',
+  so4_s: 'so4_s',
+  s: 'so4_s',
+  sulphate: 'so4_s',
+  sulfate: 'so4_s',
+  'so4-s': 'so4_s',
+  so4: 'so4_s',
+  om: 'om',
+  ph: 'ph',
 };
 
 /**
@@ -36,7 +54,11 @@ const NAMES: Record<string, Analyte> = {
  */
 export function analyteFromName(name: string): Analyte {
   const a = NAMES[name.trim().toLowerCase()];
-  if (!a) throw new UserError(`nutrient "${name}" is not known. Fix: use one of no3_n (or n, nitrate), p, k, so4_s (or s, sulphate, sulfate), om, ph.`, { field: 'nutrient', value: name });
+  if (!a)
+    throw new UserError(
+      `nutrient "${name}" is not known. Fix: use one of no3_n (or n, nitrate), p, k, so4_s (or s, sulphate, sulfate), om, ph.`,
+      { field: 'nutrient', value: name },
+    );
   return a;
 }
 
@@ -114,7 +136,13 @@ export interface NutrientSurface {
  * @throws UserError when no sample has a value for the nutrient
  * @example const s = nutrientSurface(inputs.samples, 'p', fieldGrid(inputs.field, 5), inputs.zones); s.cv?.table
  */
-export function nutrientSurface(samples: SurfaceSamples, analyte: Analyte, grid: Grid, zones: SampleZones | null = null, opts: NutrientSurfaceOptions = {}): NutrientSurface {
+export function nutrientSurface(
+  samples: SurfaceSamples,
+  analyte: Analyte,
+  grid: Grid,
+  zones: SampleZones | null = null,
+  opts: NutrientSurfaceOptions = {},
+): NutrientSurface {
   return nutrientSurfaces(samples, [analyte], grid, zones, opts)[0];
 }
 
@@ -132,14 +160,25 @@ type SurfaceSamples = Pick<Samples, 'xy' | 'values' | 'ids' | 'zone'>;
  * @throws UserError when no sample has a value for one of the nutrients
  * @example const [p, k] = nutrientSurfaces(inputs.samples, ['p', 'k'], grid, null)
  */
-export function nutrientSurfaces(samples: SurfaceSamples, analytes: readonly Analyte[], grid: Grid, zones: SampleZones | null = null, opts: NutrientSurfaceOptions = {}, onProgress: (done: number) => void = () => {}): NutrientSurface[] {
+export function nutrientSurfaces(
+  samples: SurfaceSamples,
+  analytes: readonly Analyte[],
+  grid: Grid,
+  zones: SampleZones | null = null,
+  opts: NutrientSurfaceOptions = {},
+  onProgress: (done: number) => void = () => {},
+): NutrientSurface[] {
   const out: NutrientSurface[] = new Array(analytes.length);
   const groups: Pending[][] = [];
   analytes.forEach((a, slot) => {
     const r = prepare(samples, a, grid, zones, slot);
-    if ('values' in r) { out[slot] = r; return; }
+    if ('values' in r) {
+      out[slot] = r;
+      return;
+    }
     const g = groups.find((q) => sameSites(q[0].pts.xy, r.pts.xy));
-    if (g) g.push(r); else groups.push([r]);
+    if (g) g.push(r);
+    else groups.push([r]);
   });
   let done = analytes.length - groups.reduce((s, g) => s + g.length, 0);
   for (const g of groups) {
@@ -165,30 +204,76 @@ function sameSites(a: Float64Array, b: Float64Array): boolean {
 }
 
 /** The nutrient's points; zone-composite and one-sample surfaces finished here, the others left pending. */
-function prepare(samples: SurfaceSamples, analyte: Analyte, grid: Grid, zones: SampleZones | null, slot: number): NutrientSurface | Pending {
+function prepare(
+  samples: SurfaceSamples,
+  analyte: Analyte,
+  grid: Grid,
+  zones: SampleZones | null,
+  slot: number,
+): NutrientSurface | Pending {
   const label = ANALYTE_LABEL[analyte];
   const pts = nutrientPoints(samples.xy, samples.values[analyte], samples.ids, label, samples.zone);
   const warnings = [...pts.warnings];
   const n = pts.z.length;
   if (n === 0) {
-    throw new UserError(`no sample has a value for ${label}. Fix: choose a nutrient the lab tested, or add its values to the samples file.`, { field: analyte });
+    throw new UserError(
+      `no sample has a value for ${label}. Fix: choose a nutrient the lab tested, or add its values to the samples file.`,
+      { field: analyte },
+    );
   }
-  let min = Infinity, max = -Infinity;
-  for (const v of pts.z) { min = Math.min(min, v); max = Math.max(max, v); }
+  let min = Infinity,
+    max = -Infinity;
+  for (const v of pts.z) {
+    min = Math.min(min, v);
+    max = Math.max(max, v);
+  }
   if (n > 1 && min === max) {
-    warnings.push({ code: 'surface.flat', message: `${label}: all ${n} samples have the value ${min}; the map is flat.`, field: label });
+    warnings.push({
+      code: 'surface.flat',
+      message: `${label}: all ${n} samples have the value ${min}; the map is flat.`,
+      field: label,
+    });
   }
-  const base = { analyte, grid, cv: null as CvResult | null, samplesUsed: n, min, max, warnings, kriging: null, krigedMean: null, variance: null };
+  const base = {
+    analyte,
+    grid,
+    cv: null as CvResult | null,
+    samplesUsed: n,
+    min,
+    max,
+    warnings,
+    kriging: null,
+    krigedMean: null,
+    variance: null,
+  };
   if (zones !== null && pts.zone.some((z) => z !== null)) {
     const r = zoneValues(pts, zones, grid, label);
     warnings.push(...r.warnings);
-    return { ...base, values: r.values, method: 'zones', power: NaN, neighbours: NaN, choice: 'zone-composite samples: each zone takes its sample value' };
+    return {
+      ...base,
+      values: r.values,
+      method: 'zones',
+      power: NaN,
+      neighbours: NaN,
+      choice: 'zone-composite samples: each zone takes its sample value',
+    };
   }
   if (n === 1) {
     const values = new Float64Array(grid.cols * grid.rows).fill(NaN);
     for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0) values[i] = pts.z[0];
-    warnings.push({ code: 'surface.one-sample', message: `${label}: only one sample (${pts.ids[0]}) has a value; the whole field takes it.`, field: label });
-    return { ...base, values, method: 'single-sample', power: NaN, neighbours: NaN, choice: 'one sample: uniform value' };
+    warnings.push({
+      code: 'surface.one-sample',
+      message: `${label}: only one sample (${pts.ids[0]}) has a value; the whole field takes it.`,
+      field: label,
+    });
+    return {
+      ...base,
+      values,
+      method: 'single-sample',
+      power: NaN,
+      neighbours: NaN,
+      choice: 'one sample: uniform value',
+    };
   }
   return { slot, label, pts, base };
 }
@@ -199,20 +284,33 @@ type IdwChoice = { cv: CvResult | null; power: number; neighbours: number; choic
  * Nutrients at the same sites: IDW cross-validation shared, kriging considered per nutrient, then the IDW
  * maps from one shared search per cell.
  */
-function interpolate(group: Pending[], grid: Grid, opts: NutrientSurfaceOptions, out: NutrientSurface[], halfway: () => void): void {
+function interpolate(
+  group: Pending[],
+  grid: Grid,
+  opts: NutrientSurfaceOptions,
+  out: NutrientSurface[],
+  halfway: () => void,
+): void {
   const { xy } = group[0].pts;
   const method = opts.method ?? 'idw';
   const idws = method === 'kriging' ? group.map(() => null) : chooseIdw(group, opts);
   const idwLeft: { p: Pending; idw: IdwChoice; kriging: KrigingInfo | null }[] = [];
   group.forEach((p, i) => {
     const r = krigeOrNot(p, idws[i], method, grid, opts);
-    if ('values' in r) out[p.slot] = r; else idwLeft.push({ p, idw: r.idw, kriging: r.kriging });
+    if ('values' in r) out[p.slot] = r;
+    else idwLeft.push({ p, idw: r.idw, kriging: r.kriging });
   });
   halfway();
   if (!idwLeft.length) return;
-  const values = idwSurfaces(xy, idwLeft.map(({ p, idw }) => ({ z: p.pts.z, power: idw.power, neighbours: idw.neighbours })), grid, { radius: opts.radius, minNeighbours: opts.minNeighbours });
+  const values = idwSurfaces(
+    xy,
+    idwLeft.map(({ p, idw }) => ({ z: p.pts.z, power: idw.power, neighbours: idw.neighbours })),
+    grid,
+    { radius: opts.radius, minNeighbours: opts.minNeighbours },
+  );
   idwLeft.forEach(({ p, idw, kriging }, i) => {
-    const v = values[i], label = p.label;
+    const v = values[i],
+      label = p.label;
     let empty = 0;
     for (let c = 0; c < v.length; c++) if (grid.fraction[c] > 0 && Number.isNaN(v[c])) empty++;
     if (empty) {
@@ -222,7 +320,16 @@ function interpolate(group: Pending[], grid: Grid, opts: NutrientSurfaceOptions,
         field: label,
       });
     }
-    out[p.slot] = { ...p.base, cv: idw.cv, kriging, values: v, method: 'idw', power: idw.power, neighbours: idw.neighbours, choice: idw.choice };
+    out[p.slot] = {
+      ...p.base,
+      cv: idw.cv,
+      kriging,
+      values: v,
+      method: 'idw',
+      power: idw.power,
+      neighbours: idw.neighbours,
+      choice: idw.choice,
+    };
   });
 }
 
@@ -230,21 +337,50 @@ function interpolate(group: Pending[], grid: Grid, opts: NutrientSurfaceOptions,
  * Kriging as asked or as a candidate against the nutrient's best IDW: the kriged surface when it wins,
  * else the IDW choice (its table and sentence extended by kriging's row or refusal) left to interpolate.
  */
-function krigeOrNot(p: Pending, idw: IdwChoice | null, method: SurfaceMethod, grid: Grid, opts: NutrientSurfaceOptions): NutrientSurface | { idw: IdwChoice; kriging: KrigingInfo | null } {
-  const { label, pts, base } = p, warnings = base.warnings;
+function krigeOrNot(
+  p: Pending,
+  idw: IdwChoice | null,
+  method: SurfaceMethod,
+  grid: Grid,
+  opts: NutrientSurfaceOptions,
+): NutrientSurface | { idw: IdwChoice; kriging: KrigingInfo | null } {
+  const { label, pts, base } = p,
+    warnings = base.warnings;
   const kriging = method === 'idw' ? null : krigingCandidate(pts.xy, pts.z, opts.kriging);
   if (kriging?.refused && method === 'kriging') {
-    throw new UserError(`${label}: ordinary kriging is refused: ${kriging.refused}. Fix: use --method idw (or auto, which falls back to IDW), or add samples.`, { field: base.analyte });
+    throw new UserError(
+      `${label}: ordinary kriging is refused: ${kriging.refused}. Fix: use --method idw (or auto, which falls back to IDW), or add samples.`,
+      { field: base.analyte },
+    );
   }
-  const useKriging = kriging !== null && kriging.cv !== null && (idw === null || !idw.cv || kriging.cv.rmse < idw.cv.best.rmse);
+  const useKriging =
+    kriging !== null &&
+    kriging.cv !== null &&
+    (idw === null || !idw.cv || kriging.cv.rmse < idw.cv.best.rmse);
   if (useKriging) {
     const g = krigeGrid(pts.xy, pts.z, grid, kriging);
-    if (g.singular) warnings.push({ code: 'surface.kriging-singular', message: `${label}: ${g.singular} cells have no value: their neighbours' covariance matrix is singular under the ${kriging.modelText} model.`, field: label });
+    if (g.singular)
+      warnings.push({
+        code: 'surface.kriging-singular',
+        message: `${label}: ${g.singular} cells have no value: their neighbours' covariance matrix is singular under the ${kriging.modelText} model.`,
+        field: label,
+      });
     const table = [...(idw?.cv?.table ?? []), kriging.cv!];
     const choice = idw
       ? `ordinary kriging chosen by leave-one-out cross-validation: RMSE ${fmt(kriging.cv!.rmse)} against ${fmt(idw.cv!.best.rmse)} for the best IDW (power ${idw.power}, ${kName(idw.neighbours)} neighbours); ${kriging.modelText}, ${kriging.neighbours} neighbours`
       : `ordinary kriging as asked (leave-one-out RMSE ${fmt(kriging.cv!.rmse)}, MSSE ${fmt(kriging.cv!.msse ?? NaN)}); ${kriging.modelText}, ${kriging.neighbours} neighbours`;
-    return { ...base, values: g.values, krigedMean: g.mean, variance: g.variance, kriging, cv: { table, best: kriging.cv! }, method: 'kriging', power: NaN, neighbours: kriging.neighbours, choice };
+    return {
+      ...base,
+      values: g.values,
+      krigedMean: g.mean,
+      variance: g.variance,
+      kriging,
+      cv: { table, best: kriging.cv! },
+      method: 'kriging',
+      power: NaN,
+      neighbours: kriging.neighbours,
+      choice,
+    };
   }
   let { cv, choice } = idw!;
   if (kriging) {
@@ -253,7 +389,11 @@ function krigeOrNot(p: Pending, idw: IdwChoice | null, method: SurfaceMethod, gr
       choice = `IDW chosen by leave-one-out cross-validation over IDW and ordinary kriging: RMSE ${fmt(cv.best.rmse)} against ${fmt(kriging.cv.rmse)} for kriging (${kriging.modelText}); ${choice}`;
     } else if (kriging.refused) {
       choice = `IDW (ordinary kriging was not a candidate: ${kriging.refused}); ${choice}`;
-      warnings.push({ code: 'surface.kriging-refused', message: `${label}: ordinary kriging was not used: ${kriging.refused}.`, field: label });
+      warnings.push({
+        code: 'surface.kriging-refused',
+        message: `${label}: ordinary kriging was not used: ${kriging.refused}.`,
+        field: label,
+      });
     }
   }
   return { idw: { ...idw!, cv, choice }, kriging };
@@ -271,33 +411,69 @@ function chooseIdw(group: Pending[], opts: NutrientSurfaceOptions): IdwChoice[] 
   if (fixedK === null && n > ALL_CV_LIMIT && choices.some((k) => !Number.isFinite(k))) {
     // leave-one-out with every sample costs n^2 distance pairs, and its map cells x samples: too slow for dense data
     choices = choices.filter((k) => Number.isFinite(k));
-    for (const p of group) p.base.warnings.push({ code: 'surface.cv-all-skipped', message: `${p.label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (its cost grows with the square of the sample count; give --neighbours all to use it).`, field: p.label });
+    for (const p of group)
+      p.base.warnings.push({
+        code: 'surface.cv-all-skipped',
+        message: `${p.label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (its cost grows with the square of the sample count; give --neighbours all to use it).`,
+        field: p.label,
+      });
   }
   // a fixed value is the only candidate on its axis: with both given, the table is the one row that says
   // how well the given pair predicts left-out samples (cheap), not a search
-  const cvs = opts.skipCv && fixedP !== null && fixedK !== null ? group.map(() => null) : crossValidateMany(group[0].pts.xy, group.map((p) => p.pts.z), {
-    powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
-    neighbours: fixedK !== null ? [fixedK] : choices,
-    radius: opts.radius,
-    minNeighbours: opts.minNeighbours,
-  });
+  const cvs =
+    opts.skipCv && fixedP !== null && fixedK !== null
+      ? group.map(() => null)
+      : crossValidateMany(
+          group[0].pts.xy,
+          group.map((p) => p.pts.z),
+          {
+            powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
+            neighbours: fixedK !== null ? [fixedK] : choices,
+            radius: opts.radius,
+            minNeighbours: opts.minNeighbours,
+          },
+        );
   return group.map((p, i) => idwFromCv(cvs[i], fixedP, fixedK, n, p));
 }
 
 /** Power and neighbours from one nutrient's table (restricted to the given values), and why. */
-function idwFromCv(cv: CvResult | null, fixedP: number | null, fixedK: number | null, n: number, p: Pending): IdwChoice {
-  let power = fixedP ?? 2, neighbours = fixedK ?? 12;
+function idwFromCv(
+  cv: CvResult | null,
+  fixedP: number | null,
+  fixedK: number | null,
+  n: number,
+  p: Pending,
+): IdwChoice {
+  let power = fixedP ?? 2,
+    neighbours = fixedK ?? 12;
   if (!cv) {
-    if (n < 3) p.base.warnings.push({ code: 'surface.few-samples', message: `${p.label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`, field: p.label });
-    const choice = n < 3 ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)` : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
+    if (n < 3)
+      p.base.warnings.push({
+        code: 'surface.few-samples',
+        message: `${p.label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`,
+        field: p.label,
+      });
+    const choice =
+      n < 3
+        ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)`
+        : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
     return { cv, power, neighbours, choice };
   }
-  const rows = cv.table.filter((r) => (fixedP === null || r.power === fixedP) && (fixedK === null || r.neighbours === fixedK));
+  const rows = cv.table.filter(
+    (r) => (fixedP === null || r.power === fixedP) && (fixedK === null || r.neighbours === fixedK),
+  );
   let best: CvRow = rows[0];
   for (const r of rows) if (r.rmse < best.rmse || Number.isNaN(best.rmse)) best = r;
   power = best.power;
   neighbours = best.neighbours;
-  const what = fixedP === null && fixedK === null ? 'power and neighbours' : fixedP === null ? 'power' : fixedK === null ? 'neighbours' : '';
+  const what =
+    fixedP === null && fixedK === null
+      ? 'power and neighbours'
+      : fixedP === null
+        ? 'power'
+        : fixedK === null
+          ? 'neighbours'
+          : '';
   const choice = what
     ? `${what} chosen by leave-one-out cross-validation: lowest RMSE ${fmt(best.rmse)} at power ${power}, ${kName(neighbours)} neighbours`
     : `power ${power} and ${kName(neighbours)} neighbours as given (leave-one-out RMSE ${fmt(best.rmse)}; use --power auto --neighbours auto to compare others)`;
@@ -305,13 +481,36 @@ function idwFromCv(cv: CvResult | null, fixedP: number | null, fixedK: number | 
 }
 
 /** Zone-composite samples: each zone painted with its (averaged) sample value. */
-function zoneValues(pts: NutrientPoints, zones: SampleZones, grid: Grid, label: string): { values: Float64Array; warnings: Warning[] } {
+function zoneValues(
+  pts: NutrientPoints,
+  zones: SampleZones,
+  grid: Grid,
+  label: string,
+): { values: Float64Array; warnings: Warning[] } {
   const warnings: Warning[] = [];
   const byKey = new Map<string, number[]>();
-  pts.zone.forEach((k, i) => { if (k !== null) { const a = byKey.get(k); if (a) a.push(pts.z[i]); else byKey.set(k, [pts.z[i]]); } });
+  pts.zone.forEach((k, i) => {
+    if (k !== null) {
+      const a = byKey.get(k);
+      if (a) a.push(pts.z[i]);
+      else byKey.set(k, [pts.z[i]]);
+    }
+  });
   for (const [k, vs] of byKey) {
-    if (!zones.keys.includes(k)) warnings.push({ code: 'surface.zone-unknown', message: `${label}: samples keyed to zone "${k}" match no zone polygon and are not used.`, where: k, field: label });
-    if (vs.length > 1) warnings.push({ code: 'surface.zone-several', message: `${label}: zone "${k}" has ${vs.length} samples (${vs.join(', ')}); their average is used.`, where: k, field: label });
+    if (!zones.keys.includes(k))
+      warnings.push({
+        code: 'surface.zone-unknown',
+        message: `${label}: samples keyed to zone "${k}" match no zone polygon and are not used.`,
+        where: k,
+        field: label,
+      });
+    if (vs.length > 1)
+      warnings.push({
+        code: 'surface.zone-several',
+        message: `${label}: zone "${k}" has ${vs.length} samples (${vs.join(', ')}); their average is used.`,
+        where: k,
+        field: label,
+      });
   }
   const zs = zones.keys.map((key, i) => {
     const vs = byKey.get(key);
@@ -329,4 +528,3 @@ export function kName(k: number): string {
 function fmt(v: number): string {
   return Number.isFinite(v) ? String(Number(v.toPrecision(4))) : 'n/a';
 }
-

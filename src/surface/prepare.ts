@@ -27,16 +27,26 @@ export const SAME_PLACE_M = 0.001;
  * @param zone zone key per sample (optional)
  * @example const pts = nutrientPoints(s.xy, s.values.p, s.ids, 'P (ppm)')
  */
-export function nutrientPoints(xy: Float64Array, values: ArrayLike<number>, ids: string[], label: string, zone?: (string | null)[]): NutrientPoints {
+export function nutrientPoints(
+  xy: Float64Array,
+  values: ArrayLike<number>,
+  ids: string[],
+  label: string,
+  zone?: (string | null)[],
+): NutrientPoints {
   const warnings: Warning[] = [];
   const n = values.length;
   const missing: string[] = [];
   const groups = new Map<string, number[]>();
   for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(values[i])) { missing.push(ids[i] ?? `#${i + 1}`); continue; }
+    if (!Number.isFinite(values[i])) {
+      missing.push(ids[i] ?? `#${i + 1}`);
+      continue;
+    }
     const key = `${Math.round(xy[2 * i] / SAME_PLACE_M)},${Math.round(xy[2 * i + 1] / SAME_PLACE_M)}`;
     const g = groups.get(key);
-    if (g) g.push(i); else groups.set(key, [i]);
+    if (g) g.push(i);
+    else groups.set(key, [i]);
   }
   if (missing.length) {
     warnings.push({
@@ -47,11 +57,23 @@ export function nutrientPoints(xy: Float64Array, values: ArrayLike<number>, ids:
     });
   }
   const m = groups.size;
-  const out: NutrientPoints = { xy: new Float64Array(2 * m), z: new Float64Array(m), ids: [], zone: [], warnings };
+  const out: NutrientPoints = {
+    xy: new Float64Array(2 * m),
+    z: new Float64Array(m),
+    ids: [],
+    zone: [],
+    warnings,
+  };
   let k = 0;
   for (const g of groups.values()) {
-    let s = 0, lo = Infinity, hi = -Infinity;
-    for (const i of g) { s += values[i]; lo = Math.min(lo, values[i]); hi = Math.max(hi, values[i]); }
+    let s = 0,
+      lo = Infinity,
+      hi = -Infinity;
+    for (const i of g) {
+      s += values[i];
+      lo = Math.min(lo, values[i]);
+      hi = Math.max(hi, values[i]);
+    }
     out.xy[2 * k] = xy[2 * g[0]];
     out.xy[2 * k + 1] = xy[2 * g[0] + 1];
     out.z[k] = s / g.length;

@@ -35,7 +35,12 @@ function scaled(t: number, transform: 'none' | 'log'): number {
  * Chance that the value is below `threshold` at one cell (Gaussian, or lognormal when transform is 'log').
  * @example chanceBelowAt(25, 16, 20, 'none') // Phi(-1.25) = 0.106
  */
-export function chanceBelowAt(mean: number, variance: number, threshold: number, transform: 'none' | 'log' = 'none'): number {
+export function chanceBelowAt(
+  mean: number,
+  variance: number,
+  threshold: number,
+  transform: 'none' | 'log' = 'none',
+): number {
   if (!Number.isFinite(mean) || !(variance >= 0)) return NaN;
   return normalCdf(scaled(threshold, transform), mean, Math.sqrt(variance));
 }
@@ -59,20 +64,26 @@ export function chanceBelow(k: KrigedCells, threshold: number): Float32Array {
  * @returns probability[c] per class (Float32Array per cell) and expected chance per cell
  * @example const { probability, expected } = classProbabilities(k, { names: ['low', 'high'], below: [10, null], chance: [0.7, 0.2] })
  */
-export function classProbabilities(k: KrigedCells, classes: ResponseClasses): { probability: Float32Array[]; expected: Float32Array } {
-  const n = k.mean.length, C = classes.names.length;
+export function classProbabilities(
+  k: KrigedCells,
+  classes: ResponseClasses,
+): { probability: Float32Array[]; expected: Float32Array } {
+  const n = k.mean.length,
+    C = classes.names.length;
   const probability = classes.names.map(() => new Float32Array(n));
   const expected = new Float32Array(n);
   const limits = classes.below.map((b) => (b === null ? Infinity : scaled(b, k.transform)));
   for (let i = 0; i < n; i++) {
-    const m = k.mean[i], v = k.variance[i];
+    const m = k.mean[i],
+      v = k.variance[i];
     if (!Number.isFinite(m) || !(v >= 0)) {
       for (let c = 0; c < C; c++) probability[c][i] = NaN;
       expected[i] = NaN;
       continue;
     }
     const sd = Math.sqrt(v);
-    let prev = 0, e = 0;
+    let prev = 0,
+      e = 0;
     for (let c = 0; c < C; c++) {
       const cum = limits[c] === Infinity ? 1 : normalCdf(limits[c], m, sd);
       const p = Math.max(0, cum - prev);

@@ -42,33 +42,54 @@ export interface VariogramChoiceOptions {
  * @param opts log false, fit method 7
  * @example const c = chooseVariogram(pts.xy, pts.z); c.refused ?? c.model
  */
-export function chooseVariogram(xy: Float64Array, z: ArrayLike<number>, opts: VariogramChoiceOptions = {}): VariogramChoice {
+export function chooseVariogram(
+  xy: Float64Array,
+  z: ArrayLike<number>,
+  opts: VariogramChoiceOptions = {},
+): VariogramChoice {
   const transform = opts.log ? 'log' : 'none';
-  const none = (refused: string, sv: Semivariogram | null = null, fit: FittedModel | null = null): VariogramChoice => ({ model: null, refused, fit, semivariogram: sv, transform });
+  const none = (
+    refused: string,
+    sv: Semivariogram | null = null,
+    fit: FittedModel | null = null,
+  ): VariogramChoice => ({ model: null, refused, fit, semivariogram: sv, transform });
   const n = z.length;
   if (n < KRIGING_MIN_SAMPLES) {
-    return none(`only ${n} samples; kriging needs at least ${KRIGING_MIN_SAMPLES} to estimate a semivariogram (common practice)`);
+    return none(
+      `only ${n} samples; kriging needs at least ${KRIGING_MIN_SAMPLES} to estimate a semivariogram (common practice)`,
+    );
   }
   const zt = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    if (opts.log && !(z[i] > 0)) return none(`a value of ${z[i]} has no logarithm; kriging on logarithms needs values above 0`);
+    if (opts.log && !(z[i] > 0))
+      return none(`a value of ${z[i]} has no logarithm; kriging on logarithms needs values above 0`);
     zt[i] = opts.log ? Math.log(z[i]) : z[i];
   }
   const sv = semivariogram(xy, zt);
   const good = sv.np.filter((p) => p >= KRIGING_MIN_PAIRS).length;
   if (good < KRIGING_MIN_LAGS) {
-    return none(`only ${good} semivariogram lag${good === 1 ? '' : 's'} hold ${KRIGING_MIN_PAIRS} or more pairs; at least ${KRIGING_MIN_LAGS} are needed (common practice)`, sv);
+    return none(
+      `only ${good} semivariogram lag${good === 1 ? '' : 's'} hold ${KRIGING_MIN_PAIRS} or more pairs; at least ${KRIGING_MIN_LAGS} are needed (common practice)`,
+      sv,
+    );
   }
   const { fits, best } = fitModels(sv, opts.fit);
   if (!best) {
     const atLimit = fits.some((f) => f.ok && f.rangeAtLimit);
     const why = atLimit
       ? 'the semivariogram does not level off within the distances examined (a trend across the field, or a range longer than the field)'
-      : fits.find((f) => f.problem)?.problem ?? 'no model could be fitted';
+      : (fits.find((f) => f.problem)?.problem ?? 'no model could be fitted');
     return none(`no usable semivariogram model: ${why}`, sv);
   }
-  if (!(best.psill > 0) || !(best.range > 0)) return none('no spatial structure: the fitted partial sill is not positive (pure nugget)', sv, best);
-  return { model: { kind: best.kind, nugget: best.nugget, psill: best.psill, range: best.range }, refused: null, fit: best, semivariogram: sv, transform };
+  if (!(best.psill > 0) || !(best.range > 0))
+    return none('no spatial structure: the fitted partial sill is not positive (pure nugget)', sv, best);
+  return {
+    model: { kind: best.kind, nugget: best.nugget, psill: best.psill, range: best.range },
+    refused: null,
+    fit: best,
+    semivariogram: sv,
+    transform,
+  };
 }
 
 /**

@@ -14,7 +14,11 @@ import { coverage } from './grid.js';
  * @param label nutrient name for messages
  * @example zoneSurface(grid, [{ key: 'A', parts, value: 12 }], 'P (ppm)')
  */
-export function zoneSurface(grid: Grid, zones: { key: string; parts: RingsPart[]; value: number }[], label: string): { values: Float64Array; zoneOf: Int32Array; warnings: Warning[] } {
+export function zoneSurface(
+  grid: Grid,
+  zones: { key: string; parts: RingsPart[]; value: number }[],
+  label: string,
+): { values: Float64Array; zoneOf: Int32Array; warnings: Warning[] } {
   const N = grid.cols * grid.rows;
   const values = new Float64Array(N).fill(NaN);
   const zoneOf = new Int32Array(N).fill(-1);
@@ -34,20 +38,30 @@ export function zoneSurface(grid: Grid, zones: { key: string; parts: RingsPart[]
     const cov = coverage(z.parts, grid);
     for (let i = 0; i < N; i++) {
       const a = Math.abs(cov[i]);
-      if (a > 1e-12 && a > bestCov[i]) { bestCov[i] = a; zoneOf[i] = z.i; }
+      if (a > 1e-12 && a > bestCov[i]) {
+        bestCov[i] = a;
+        zoneOf[i] = z.i;
+      }
     }
   }
   let orphans = 0;
   for (let i = 0; i < N; i++) {
-    if (!(grid.fraction[i] > 0)) { zoneOf[i] = -1; continue; }
+    if (!(grid.fraction[i] > 0)) {
+      zoneOf[i] = -1;
+      continue;
+    }
     if (zoneOf[i] < 0 && used.length) {
       // slivers of rounding size between the field and zone outlines are filled without a warning
       if (grid.fraction[i] > 1e-6) orphans++;
-      const x = grid.xmin + ((i % grid.cols) + 0.5) * grid.cell, y = grid.ymax - (Math.floor(i / grid.cols) + 0.5) * grid.cell;
+      const x = grid.xmin + ((i % grid.cols) + 0.5) * grid.cell,
+        y = grid.ymax - (Math.floor(i / grid.cols) + 0.5) * grid.cell;
       let best = Infinity;
       for (const z of used) {
         const d = distToParts(z.parts, x, y);
-        if (d < best) { best = d; zoneOf[i] = z.i; }
+        if (d < best) {
+          best = d;
+          zoneOf[i] = z.i;
+        }
       }
     }
     if (zoneOf[i] >= 0) values[i] = zones[zoneOf[i]].value;
@@ -69,11 +83,16 @@ function distToParts(parts: RingsPart[], x: number, y: number): number {
     for (const r of [p.exterior, ...p.holes]) {
       const n = r.length >> 1;
       for (let i = 0, j = n - 1; i < n; j = i++) {
-        const ax = r[2 * j], ay = r[2 * j + 1], bx = r[2 * i], by = r[2 * i + 1];
-        const dx = bx - ax, dy = by - ay;
+        const ax = r[2 * j],
+          ay = r[2 * j + 1],
+          bx = r[2 * i],
+          by = r[2 * i + 1];
+        const dx = bx - ax,
+          dy = by - ay;
         const L = dx * dx + dy * dy;
         const t = L > 0 ? Math.max(0, Math.min(1, ((x - ax) * dx + (y - ay) * dy) / L)) : 0;
-        const ex = ax + t * dx - x, ey = ay + t * dy - y;
+        const ex = ax + t * dx - x,
+          ey = ay + t * dy - y;
         best = Math.min(best, ex * ex + ey * ey);
       }
     }

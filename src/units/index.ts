@@ -4,7 +4,9 @@
  */
 
 /** Atomic weights (IUPAC): P 30.974, K 39.098, O 15.999. */
-const P = 30.974, K = 39.098, O = 15.999;
+const P = 30.974,
+  K = 39.098,
+  O = 15.999;
 
 /** P to P2O5 mass factor, about 2.2914 (from atomic weights). */
 export const P_TO_P2O5 = (2 * P + 5 * O) / (2 * P);
@@ -20,7 +22,12 @@ export const LBAC_TO_KGHA = KG_PER_LB / HA_PER_AC;
 
 /** Bushel weights, lb per bushel (Canada Grains Council bushel/tonne factors). */
 export const BUSHEL_LB: Readonly<Record<string, number>> = {
-  canola: 50, wheat: 60, peas: 60, barley: 48, oats: 34, flax: 56,
+  canola: 50,
+  wheat: 60,
+  peas: 60,
+  barley: 48,
+  oats: 34,
+  flax: 56,
 };
 
 /** Element to oxide, e.g. `p2o5FromP(10)` = 22.9 lb P2O5. */
@@ -46,9 +53,11 @@ export function ppmToLbacFactor(topIn: number, bottomIn: number): number {
   return (2 * (bottomIn - topIn)) / 6;
 }
 /** ppm in a layer to lb/ac. @example ppmToLbac(10, 0, 6) // 20 */
-export const ppmToLbac = (ppm: number, topIn: number, bottomIn: number): number => ppm * ppmToLbacFactor(topIn, bottomIn);
+export const ppmToLbac = (ppm: number, topIn: number, bottomIn: number): number =>
+  ppm * ppmToLbacFactor(topIn, bottomIn);
 /** lb/ac in a layer to ppm. @example lbacToPpm(250, 0, 6) // 125 */
-export const lbacToPpm = (lbac: number, topIn: number, bottomIn: number): number => lbac / ppmToLbacFactor(topIn, bottomIn);
+export const lbacToPpm = (lbac: number, topIn: number, bottomIn: number): number =>
+  lbac / ppmToLbacFactor(topIn, bottomIn);
 
 /**
  * Yield in bu/ac to t/ha, given the crop's bushel weight in lb.

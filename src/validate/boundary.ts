@@ -18,7 +18,10 @@ const ringName = (poly: number, ring: number, nPolys: number) =>
  * @param what "boundary" or "zone" (for messages)
  * @example const mp = checkPolygonsLonLat(readGeoJsonPolygons(text, 'b.geojson'), 'boundary')
  */
-export function checkPolygonsLonLat(src: RawPolygons, what: string): { coordinates: number[][][][]; where: string[]; warnings: Warning[] } {
+export function checkPolygonsLonLat(
+  src: RawPolygons,
+  what: string,
+): { coordinates: number[][][][]; where: string[]; warnings: Warning[] } {
   const file = src.file;
   const out: number[][][][] = [];
   const where: string[] = [];
@@ -31,7 +34,10 @@ export function checkPolygonsLonLat(src: RawPolygons, what: string): { coordinat
         for (let k = 0; k < ring.length; k++) {
           const [x, y] = ring[k];
           if (!Number.isFinite(x) || !Number.isFinite(y)) {
-            throw new UserError(`${file} ${at}, point ${k + 1}: coordinate [${x}, ${y}] is not a number. Fix: export the ${what} again.`, { file, where: at });
+            throw new UserError(
+              `${file} ${at}, point ${k + 1}: coordinate [${x}, ${y}] is not a number. Fix: export the ${what} again.`,
+              { file, where: at },
+            );
           }
           if (Math.abs(y) > 90 && Math.abs(y) <= 180 && Math.abs(x) <= 90) {
             throw new UserError(
@@ -48,7 +54,8 @@ export function checkPolygonsLonLat(src: RawPolygons, what: string): { coordinat
             );
           }
         }
-        const first = ring[0], last = ring[ring.length - 1];
+        const first = ring[0],
+          last = ring[ring.length - 1];
         if (ring.length > 0 && (first[0] !== last[0] || first[1] !== last[1])) {
           throw new UserError(
             `${file} ${at}: the ring is not closed (it starts at [${first}] and ends at [${last}]). Fix: repeat the first point at the end, or export the ${what} again from a GIS (GeoJSON rings must be closed, RFC 7946 3.1.6).`,
@@ -61,7 +68,10 @@ export function checkPolygonsLonLat(src: RawPolygons, what: string): { coordinat
           if (!q || q[0] !== p[0] || q[1] !== p[1]) clean.push([p[0], p[1]]);
         }
         if (clean.length < 4) {
-          throw new UserError(`${file} ${at}: the ring has ${clean.length - 1} distinct point(s); a polygon needs at least 3. Fix: draw the ${what} again.`, { file, where: at });
+          throw new UserError(
+            `${file} ${at}: the ring has ${clean.length - 1} distinct point(s); a polygon needs at least 3. Fix: draw the ${what} again.`,
+            { file, where: at },
+          );
         }
         rings.push(clean);
       });
@@ -69,7 +79,10 @@ export function checkPolygonsLonLat(src: RawPolygons, what: string): { coordinat
       where.push(`${f.where}${f.coordinates.length > 1 ? `, part ${pi + 1}` : ''}`);
     });
   }
-  if (out.length === 0) throw new UserError(`${file} holds no polygon. Fix: give the ${what} as a Polygon or MultiPolygon.`, { file });
+  if (out.length === 0)
+    throw new UserError(`${file} holds no polygon. Fix: give the ${what} as a Polygon or MultiPolygon.`, {
+      file,
+    });
   // every coordinate very small and the whole thing tiny: degrees given as something else?
   return { coordinates: out, where, warnings };
 }
@@ -84,12 +97,19 @@ export function checkPartsMetres(parts: RingsPart[], where: string[], file: stri
   const rings: Float64Array[] = [];
   const names: string[] = [];
   parts.forEach((p, i) => {
-    rings.push(p.exterior); names.push(`${where[i]}, outer ring`);
-    p.holes.forEach((h, j) => { rings.push(h); names.push(`${where[i]}, hole ${j + 1}`); });
+    rings.push(p.exterior);
+    names.push(`${where[i]}, outer ring`);
+    p.holes.forEach((h, j) => {
+      rings.push(h);
+      names.push(`${where[i]}, hole ${j + 1}`);
+    });
   });
   rings.forEach((r, k) => {
     if (fanArea(r) < Math.max(1, 1e-4 * perimeter(r) ** 2)) {
-      throw new UserError(`${file} ${names[k]}: the ring has no area (its points lie on one line, or it is a sliver far thinner than any field). Fix: draw the ${what} again.`, { file, where: names[k] });
+      throw new UserError(
+        `${file} ${names[k]}: the ring has no area (its points lie on one line, or it is a sliver far thinner than any field). Fix: draw the ${what} again.`,
+        { file, where: names[k] },
+      );
     }
   });
   const x = findCrossing(rings);
@@ -103,18 +123,23 @@ export function checkPartsMetres(parts: RingsPart[], where: string[], file: stri
   }
   parts.forEach((p, i) => {
     if (Math.abs(ringArea(p.exterior)) < 1) {
-      throw new UserError(`${file} ${where[i]}: the outer ring has no area (its points lie on a line or on top of each other). Fix: draw the ${what} again.`, { file, where: where[i] });
+      throw new UserError(
+        `${file} ${where[i]}: the outer ring has no area (its points lie on a line or on top of each other). Fix: draw the ${what} again.`,
+        { file, where: where[i] },
+      );
     }
   });
   parts.forEach((p, i) => {
     p.holes.forEach((h, j) => {
       if (!pointInRing(p.exterior, h[0], h[1])) {
-        throw new UserError(`${file} ${where[i]}, hole ${j + 1}: the hole lies outside its outer ring. Fix: make it a separate part, or remove it.`, { file, where: where[i] });
+        throw new UserError(
+          `${file} ${where[i]}, hole ${j + 1}: the hole lies outside its outer ring. Fix: make it a separate part, or remove it.`,
+          { file, where: where[i] },
+        );
       }
     });
   });
 }
-
 
 /** Sum of |triangle areas| of the fan from the first point: 0 exactly when all points lie on one line. */
 function fanArea(r: Float64Array): number {

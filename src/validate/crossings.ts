@@ -7,7 +7,12 @@
  * shared vertices between rings as kinks; see docs/architecture.md.
  */
 
-export interface Crossing { ringA: number; segA: number; ringB: number; segB: number }
+export interface Crossing {
+  ringA: number;
+  segA: number;
+  ringB: number;
+  segB: number;
+}
 
 /**
  * @param rings closed rings x0 y0 ... xn yn (first == last), in metres
@@ -15,11 +20,23 @@ export interface Crossing { ringA: number; segA: number; ringB: number; segB: nu
  * @example findCrossing([new Float64Array([0,0, 2,2, 2,0, 0,2, 0,0])]) // bow-tie: { ringA: 0, segA: 0, ringB: 0, segB: 2 }
  */
 export function findCrossing(rings: ArrayLike<number>[]): Crossing | null {
-  const segs: { r: number; s: number; x0: number; y0: number; x1: number; y1: number; minx: number; maxx: number }[] = [];
+  const segs: {
+    r: number;
+    s: number;
+    x0: number;
+    y0: number;
+    x1: number;
+    y1: number;
+    minx: number;
+    maxx: number;
+  }[] = [];
   rings.forEach((ring, r) => {
     const n = (ring.length >> 1) - 1;
     for (let s = 0; s < n; s++) {
-      const x0 = ring[2 * s], y0 = ring[2 * s + 1], x1 = ring[2 * s + 2], y1 = ring[2 * s + 3];
+      const x0 = ring[2 * s],
+        y0 = ring[2 * s + 1],
+        x1 = ring[2 * s + 2],
+        y1 = ring[2 * s + 3];
       segs.push({ r, s, x0, y0, x1, y1, minx: Math.min(x0, x1), maxx: Math.max(x0, x1) });
     }
   });
@@ -46,7 +63,9 @@ export function findCrossing(rings: ArrayLike<number>[]): Crossing | null {
 type Seg = { r: number; s: number; x0: number; y0: number; x1: number; y1: number };
 
 function order(a: Seg, b: Seg): Crossing {
-  return a.r < b.r || (a.r === b.r && a.s < b.s) ? { ringA: a.r, segA: a.s, ringB: b.r, segB: b.s } : { ringA: b.r, segA: b.s, ringB: a.r, segB: a.s };
+  return a.r < b.r || (a.r === b.r && a.s < b.s)
+    ? { ringA: a.r, segA: a.s, ringB: b.r, segB: b.s }
+    : { ringA: b.r, segA: b.s, ringB: a.r, segB: a.s };
 }
 
 function orient(ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number {
@@ -73,20 +92,24 @@ function crosses(a: Seg, b: Seg): boolean {
 
 /** Point strictly between the ends of a (assumed collinear). */
 function interior(a: Seg, x: number, y: number): boolean {
-  const t = Math.abs(a.x1 - a.x0) >= Math.abs(a.y1 - a.y0) ? (x - a.x0) / (a.x1 - a.x0) : (y - a.y0) / (a.y1 - a.y0);
+  const t =
+    Math.abs(a.x1 - a.x0) >= Math.abs(a.y1 - a.y0) ? (x - a.x0) / (a.x1 - a.x0) : (y - a.y0) / (a.y1 - a.y0);
   return t > 1e-12 && t < 1 - 1e-12;
 }
 
 function overlapLength(a: Seg, b: Seg): number {
-  const ux = a.x1 - a.x0, uy = a.y1 - a.y0;
+  const ux = a.x1 - a.x0,
+    uy = a.y1 - a.y0;
   const L = Math.hypot(ux, uy);
   if (L === 0) return 0;
   const t = (x: number, y: number) => ((x - a.x0) * ux + (y - a.y0) * uy) / L;
-  const b0 = t(b.x0, b.y0), b1 = t(b.x1, b.y1);
+  const b0 = t(b.x0, b.y0),
+    b1 = t(b.x1, b.y1);
   return Math.min(L, Math.max(b0, b1)) - Math.max(0, Math.min(b0, b1));
 }
 
 function foldsBack(a: Seg, b: Seg): boolean {
-  if (orient(a.x0, a.y0, a.x1, a.y1, b.x0, b.y0) !== 0 || orient(a.x0, a.y0, a.x1, a.y1, b.x1, b.y1) !== 0) return false;
+  if (orient(a.x0, a.y0, a.x1, a.y1, b.x0, b.y0) !== 0 || orient(a.x0, a.y0, a.x1, a.y1, b.x1, b.y1) !== 0)
+    return false;
   return overlapLength(a, b) > 1e-9;
 }

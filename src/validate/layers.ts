@@ -9,27 +9,56 @@ import { UNIT_LABEL, type ColumnInfo, type SoilValue, type ValueUnit } from '../
 import type { RawRecord } from '../io/records.js';
 import type { LabValue } from './values.js';
 
-export interface Layer { top: number; bottom: number; value: number; censor: Censor; where: string }
+export interface Layer {
+  top: number;
+  bottom: number;
+  value: number;
+  censor: Censor;
+  where: string;
+}
 
 export const SOIL_NAMES: Record<SoilValue, string> = {
-  no3_n: 'nitrate-N', p: 'P', k: 'K', so4_s: 'sulphate-S', om: 'organic matter', ph: 'pH', ec: 'soluble salts (EC)', carbonate: 'carbonate (free lime)',
+  no3_n: 'nitrate-N',
+  p: 'P',
+  k: 'K',
+  so4_s: 'sulphate-S',
+  om: 'organic matter',
+  ph: 'pH',
+  ec: 'soluble salts (EC)',
+  carbonate: 'carbonate (free lime)',
 };
 
 /** Units each soil value may be given in (first: the canonical one). */
 const ALLOWED: Record<SoilValue, (ValueUnit | null)[]> = {
-  no3_n: ['lbac', 'ppm', 'kgha'], so4_s: ['lbac', 'ppm', 'kgha'], p: ['ppm', null, 'lbac', 'kgha'], k: ['ppm', null, 'lbac', 'kgha', 'meq100g'],
-  om: ['pct', null], ph: [null], ec: ['dsm', null, 'uscm'], carbonate: ['pct', null],
+  no3_n: ['lbac', 'ppm', 'kgha'],
+  so4_s: ['lbac', 'ppm', 'kgha'],
+  p: ['ppm', null, 'lbac', 'kgha'],
+  k: ['ppm', null, 'lbac', 'kgha', 'meq100g'],
+  om: ['pct', null],
+  ph: [null],
+  ec: ['dsm', null, 'uscm'],
+  carbonate: ['pct', null],
 };
 
 /** Context for messages. */
-export interface LayerContext { file: string; id: string; record: RawRecord; column: ColumnInfo & { role: SoilValue } }
+export interface LayerContext {
+  file: string;
+  id: string;
+  record: RawRecord;
+  column: ColumnInfo & { role: SoilValue };
+}
 
 /**
  * Converts a parsed lab value of a layer to the canonical unit (lb/ac 0-24 in sums for nitrate / sulphate, ppm for
  * P and K, % for OM and carbonate, dS/m for EC).
  * @returns the value, or throws a UserError naming the column and the fix
  */
-export function toCanonical(v: LabValue, unit: ValueUnit | null, d: [number, number], ctx: LayerContext): number {
+export function toCanonical(
+  v: LabValue,
+  unit: ValueUnit | null,
+  d: [number, number],
+  ctx: LayerContext,
+): number {
   const { file, record: r, column: c } = ctx;
   if (!ALLOWED[c.role].includes(unit)) {
     const fix = ALLOWED[c.role].filter((u): u is ValueUnit => u !== null).map((u) => UNIT_LABEL[u]);
@@ -41,12 +70,18 @@ export function toCanonical(v: LabValue, unit: ValueUnit | null, d: [number, num
   }
   const x = v.value;
   switch (unit) {
-    case 'ppm': return c.role === 'no3_n' || c.role === 'so4_s' ? ppmToLbac(x, d[0], d[1]) : x;
-    case 'kgha': return c.role === 'no3_n' || c.role === 'so4_s' ? kghaToLbac(x) : lbacToPpm(kghaToLbac(x), d[0], d[1]);
-    case 'lbac': return c.role === 'no3_n' || c.role === 'so4_s' ? x : lbacToPpm(x, d[0], d[1]);
-    case 'meq100g': return kMeqToPpm(x);
-    case 'uscm': return uscmToDsm(x);
-    default: return x;
+    case 'ppm':
+      return c.role === 'no3_n' || c.role === 'so4_s' ? ppmToLbac(x, d[0], d[1]) : x;
+    case 'kgha':
+      return c.role === 'no3_n' || c.role === 'so4_s' ? kghaToLbac(x) : lbacToPpm(kghaToLbac(x), d[0], d[1]);
+    case 'lbac':
+      return c.role === 'no3_n' || c.role === 'so4_s' ? x : lbacToPpm(x, d[0], d[1]);
+    case 'meq100g':
+      return kMeqToPpm(x);
+    case 'uscm':
+      return uscmToDsm(x);
+    default:
+      return x;
   }
 }
 
@@ -57,10 +92,15 @@ export function toCanonical(v: LabValue, unit: ValueUnit | null, d: [number, num
 export function checkRange(v: LabValue, raw: unknown, ctx: LayerContext): void {
   const { file, id, record: r, column: c } = ctx;
   const at = `${file} ${r.where} (sample "${id}"), column "${c.name}"`;
-  const fail = (why: string, fix: string) => { throw new UserError(`${at}: ${why}. Fix: ${fix}`, { file, where: r.where, field: c.name, value: raw }); };
-  if (v.limit < 0) fail(`${raw} is negative; soil test values cannot be`, 'correct the value or leave it empty.');
-  if (c.role === 'ph' && (v.limit < 2 || v.limit > 12)) fail(`pH ${raw} is outside any soil's range (2-12)`, 'check the column; is it pH?');
-  if ((c.role === 'om' || c.role === 'carbonate') && v.limit > 100) fail(`${SOIL_NAMES[c.role]} ${raw} % is over 100 %`, 'check the column and its unit.');
+  const fail = (why: string, fix: string) => {
+    throw new UserError(`${at}: ${why}. Fix: ${fix}`, { file, where: r.where, field: c.name, value: raw });
+  };
+  if (v.limit < 0)
+    fail(`${raw} is negative; soil test values cannot be`, 'correct the value or leave it empty.');
+  if (c.role === 'ph' && (v.limit < 2 || v.limit > 12))
+    fail(`pH ${raw} is outside any soil's range (2-12)`, 'check the column; is it pH?');
+  if ((c.role === 'om' || c.role === 'carbonate') && v.limit > 100)
+    fail(`${SOIL_NAMES[c.role]} ${raw} % is over 100 %`, 'check the column and its unit.');
 }
 
 /**
@@ -68,14 +108,23 @@ export function checkRange(v: LabValue, raw: unknown, ctx: LayerContext): void {
  * the depth factor), other values from the layer that starts at the surface.
  * @returns [value, censor], or null when the sample has none of this value
  */
-export function mergeLayers(list: Layer[], role: SoilValue, id: string, file: string, depthFactor: number | undefined): [number, Censor, boolean] | null {
+export function mergeLayers(
+  list: Layer[],
+  role: SoilValue,
+  id: string,
+  file: string,
+  depthFactor: number | undefined,
+): [number, Censor, boolean] | null {
   if (list.length === 0) return null;
   list.sort((x, y) => x.top - y.top || x.bottom - y.bottom);
   if (role === 'no3_n' || role === 'so4_s') {
-    let depth = 0, sum = 0, cens: Censor = 0;
+    let depth = 0,
+      sum = 0,
+      cens: Censor = 0;
     for (const l of list) {
       if (l.top !== depth || depth >= 24) break;
-      sum += l.value; depth = l.bottom;
+      sum += l.value;
+      depth = l.bottom;
       if (!cens && l.censor) cens = l.censor;
     }
     if (depth === 24) return [sum, cens, false];
@@ -83,7 +132,7 @@ export function mergeLayers(list: Layer[], role: SoilValue, id: string, file: st
       if (depthFactor === undefined) {
         throw new UserError(
           `${file}: sample "${id}" has ${SOIL_NAMES[role]} for 0-6 in only; tilth's rates are calibrated to 0-24 in. ` +
-            'Fix: give the 6-24 in results, or give --depth-factor X (your lab\'s or agronomist\'s factor from 0-6 in to 0-24 in; there is no published default).',
+            "Fix: give the 6-24 in results, or give --depth-factor X (your lab's or agronomist's factor from 0-6 in to 0-24 in; there is no published default).",
           { file, where: id, field: role },
         );
       }

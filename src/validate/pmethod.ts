@@ -14,7 +14,12 @@ import type { RawTable } from '../io/records.js';
  * @throws UserError when methods are mixed, disagree with the option, or P has no method at all
  * @example decidePMethod(table, plan, undefined, 'olsen') // 'olsen'
  */
-export function decidePMethod(table: RawTable, used: ColumnInfo[], pmCol: ColumnInfo | undefined, option: PMethod | undefined): PMethod {
+export function decidePMethod(
+  table: RawTable,
+  used: ColumnInfo[],
+  pmCol: ColumnInfo | undefined,
+  option: PMethod | undefined,
+): PMethod {
   const file = table.file;
   const methods = new Map<PMethod, string>();
   for (const c of used) if (c.role === 'p' && c.pMethod) methods.set(c.pMethod, `column "${c.name}"`);
@@ -23,8 +28,16 @@ export function decidePMethod(table: RawTable, used: ColumnInfo[], pmCol: Column
       const raw = r.props[pmCol.name];
       if (raw === null) continue;
       const s = String(raw).toLowerCase();
-      const m: PMethod | null = /olsen|bicarb|nahco3/.test(s) ? 'olsen' : /kelowna/.test(s) ? 'kelowna' : null;
-      if (!m) throw new UserError(`${file} ${r.where}, column "${pmCol.name}": "${raw}" is not a P method tilth knows. Fix: write Olsen or modified Kelowna.`, { file, where: r.where, field: pmCol.name, value: raw });
+      const m: PMethod | null = /olsen|bicarb|nahco3/.test(s)
+        ? 'olsen'
+        : /kelowna/.test(s)
+          ? 'kelowna'
+          : null;
+      if (!m)
+        throw new UserError(
+          `${file} ${r.where}, column "${pmCol.name}": "${raw}" is not a P method tilth knows. Fix: write Olsen or modified Kelowna.`,
+          { file, where: r.where, field: pmCol.name, value: raw },
+        );
       if (!methods.has(m)) methods.set(m, `${r.where}`);
     }
   }
@@ -39,7 +52,10 @@ export function decidePMethod(table: RawTable, used: ColumnInfo[], pmCol: Column
   const pCols = used.filter((c) => c.role === 'p');
   const fileMethod = [...methods.keys()][0];
   if (fileMethod && option && fileMethod !== option) {
-    throw new UserError(`${file}: the file says P is by the ${fileMethod} method (${methods.get(fileMethod)}), but the option says ${option}. Fix: drop the option or correct it.`, { file, field: 'P method' });
+    throw new UserError(
+      `${file}: the file says P is by the ${fileMethod} method (${methods.get(fileMethod)}), but the option says ${option}. Fix: drop the option or correct it.`,
+      { file, field: 'P method' },
+    );
   }
   if (fileMethod) return fileMethod;
   if (option) return option;

@@ -5,7 +5,14 @@
  * such cell named.
  */
 import { UserError, type Warning } from '../errors.js';
-import { ANALYTES, EXTRA_VALUES, type Analyte, type Censor, type ExtraValue, type LimeRating } from '../types.js';
+import {
+  ANALYTES,
+  EXTRA_VALUES,
+  type Analyte,
+  type Censor,
+  type ExtraValue,
+  type LimeRating,
+} from '../types.js';
 import type { ColumnInfo, SoilValue, ValueUnit } from '../io/columns.js';
 import { UNIT_LABEL } from '../io/columns.js';
 import type { RawTable } from '../io/records.js';
@@ -33,10 +40,28 @@ export interface ValueInput {
 }
 
 /** "Not tested" marks labs print: read as no value, listed as refused. */
-const NOT_TESTED = /^(-|--|n\/?a|na|nd|n\.d\.|not tested|nt|none|null|\.|qns|insufficient|x|\*|#value!|#n\/a)$/i;
+const NOT_TESTED =
+  /^(-|--|n\/?a|na|nd|n\.d\.|not tested|nt|none|null|\.|qns|insufficient|x|\*|#value!|#n\/a)$/i;
 const LIME: Record<string, LimeRating> = {
-  none: 'none', nil: 'none', no: 'none', trace: 'none', 'n': 'none', low: 'low', slight: 'low', l: 'low', weak: 'low',
-  medium: 'medium', moderate: 'medium', med: 'medium', m: 'medium', high: 'high', strong: 'high', 'very high': 'high', excessive: 'high', h: 'high', vh: 'high',
+  none: 'none',
+  nil: 'none',
+  no: 'none',
+  trace: 'none',
+  n: 'none',
+  low: 'low',
+  slight: 'low',
+  l: 'low',
+  weak: 'low',
+  medium: 'medium',
+  moderate: 'medium',
+  med: 'medium',
+  m: 'medium',
+  high: 'high',
+  strong: 'high',
+  'very high': 'high',
+  excessive: 'high',
+  h: 'high',
+  vh: 'high',
 };
 
 /**
@@ -47,10 +72,16 @@ export function readSampleValues(inp: ValueInput): ValueArrays {
   const { table, ids, groups, soilCols, recDepth, opts, warnings } = inp;
   const n = ids.length;
   const out: ValueArrays = {
-    values: {} as ValueArrays['values'], censored: {} as ValueArrays['censored'], extra: {} as ValueArrays['extra'],
-    limeRating: new Array(n).fill(null), refused: new Map(),
+    values: {} as ValueArrays['values'],
+    censored: {} as ValueArrays['censored'],
+    extra: {} as ValueArrays['extra'],
+    limeRating: new Array(n).fill(null),
+    refused: new Map(),
   };
-  for (const a of ANALYTES) { out.values[a] = new Float64Array(n).fill(NaN); out.censored[a] = new Int8Array(n); }
+  for (const a of ANALYTES) {
+    out.values[a] = new Float64Array(n).fill(NaN);
+    out.censored[a] = new Int8Array(n);
+  }
   for (const e of EXTRA_VALUES) out.extra[e] = new Float64Array(n).fill(NaN);
   checkUnitsStated(table, soilCols);
   const bad: { where: string; column: string; value: unknown; id: string }[] = [];
@@ -67,10 +98,16 @@ export function readSampleValues(inp: ValueInput): ValueArrays {
           out.limeRating[s] ??= LIME[raw.trim().toLowerCase()];
           continue;
         }
-        if (typeof raw === 'string' && NOT_TESTED.test(raw.trim())) { refuse(out, c.name, r.where, raw); continue; }
+        if (typeof raw === 'string' && NOT_TESTED.test(raw.trim())) {
+          refuse(out, c.name, r.where, raw);
+          continue;
+        }
         const v = parseLabValue(raw);
         if (v === null) continue;
-        if (v === 'bad') { bad.push({ where: r.where, column: c.name, value: raw, id }); continue; }
+        if (v === 'bad') {
+          bad.push({ where: r.where, column: c.name, value: raw, id });
+          continue;
+        }
         const ctx: LayerContext = { file: table.file, id, record: r, column: c };
         checkRange(v, raw, ctx);
         const d = recDepth[i] ?? c.depth ?? defaultDepth(c, r.where, table.file);
@@ -85,7 +122,13 @@ export function readSampleValues(inp: ValueInput): ValueArrays {
             { file: table.file, where: r.where, value: id },
           );
         }
-        list.push({ top: d[0], bottom: d[1], value: toCanonical(v, unit, d, ctx), censor: v.censor, where: r.where });
+        list.push({
+          top: d[0],
+          bottom: d[1],
+          value: toCanonical(v, unit, d, ctx),
+          censor: v.censor,
+          where: r.where,
+        });
       }
     }
     return layers;
@@ -96,7 +139,10 @@ export function readSampleValues(inp: ValueInput): ValueArrays {
       const m = mergeLayers(list, role, ids[s], table.file, opts.depthFactor);
       if (!m) continue;
       if (role === 'ec' || role === 'carbonate') out.extra[role][s] = m[0];
-      else { out.values[role][s] = m[0]; out.censored[role][s] = m[1] as Censor; }
+      else {
+        out.values[role][s] = m[0];
+        out.censored[role][s] = m[1] as Censor;
+      }
       if (m[2]) (factorUsed[role] ??= []).push(ids[s]);
     }
   });
@@ -107,12 +153,21 @@ export function readSampleValues(inp: ValueInput): ValueArrays {
 /** Nitrate and sulphate need a stated unit (ppm and lb/ac differ by 2-6 times): refused with every column to map. */
 function checkUnitsStated(table: RawTable, soilCols: (ColumnInfo & { role: SoilValue })[]): void {
   const file = table.file;
-  const inCells = (c: ColumnInfo) => table.records.some((r) => { const v = parseLabValue(r.props[c.name] ?? null); return v !== null && v !== 'bad' && v.unit; });
+  const inCells = (c: ColumnInfo) =>
+    table.records.some((r) => {
+      const v = parseLabValue(r.props[c.name] ?? null);
+      return v !== null && v !== 'bad' && v.unit;
+    });
   for (const role of ['no3_n', 'so4_s'] as const) {
     const cs = soilCols.filter((c) => c.role === role);
     const missing = cs.filter((c) => !c.unit && !inCells(c));
     if (!missing.length) continue;
-    const fix = cs.map((c) => `${role}=${c.name}:${c.unit ? UNIT_LABEL[c.unit] : 'ppm'}${c.depth && c.how?.includes('read as') ? `@${c.depth.join('-')}` : ''}`).join(',');
+    const fix = cs
+      .map(
+        (c) =>
+          `${role}=${c.name}:${c.unit ? UNIT_LABEL[c.unit] : 'ppm'}${c.depth && c.how?.includes('read as') ? `@${c.depth.join('-')}` : ''}`,
+      )
+      .join(',');
     throw new UserError(
       `${file}: column${missing.length > 1 ? 's' : ''} ${missing.map((c) => `"${c.name}"`).join(', ')} hold${missing.length > 1 ? '' : 's'} ${SOIL_NAMES[role]} but do${missing.length > 1 ? '' : 'es'} not say ${missing.length > 1 ? 'their' : 'its'} unit (ppm and lb/ac differ 2-6 times). ` +
         `Fix: state it with --columns "${fix}" (or :lb/ac, :kg/ha; map every ${role} column, the map replaces the header reading for ${role}).`,
@@ -138,7 +193,12 @@ function defaultDepth(c: ColumnInfo & { role: SoilValue }, where: string, file: 
 }
 
 /** A unit printed in the cell itself ("12 ppm"): must agree with the header and the rest of the column. */
-function cellUnit(u: ValueUnit | undefined, c: ColumnInfo, seen: Map<string, { unit: ValueUnit; where: string }>, ctx: LayerContext): ValueUnit | null {
+function cellUnit(
+  u: ValueUnit | undefined,
+  c: ColumnInfo,
+  seen: Map<string, { unit: ValueUnit; where: string }>,
+  ctx: LayerContext,
+): ValueUnit | null {
   if (!u) return null;
   const prev = seen.get(c.name);
   if ((c.unit && u !== c.unit) || (prev && prev.unit !== u)) {
@@ -153,7 +213,10 @@ function cellUnit(u: ValueUnit | undefined, c: ColumnInfo, seen: Map<string, { u
   return u;
 }
 
-function badValues(file: string, bad: { where: string; column: string; value: unknown; id: string }[]): UserError {
+function badValues(
+  file: string,
+  bad: { where: string; column: string; value: unknown; id: string }[],
+): UserError {
   if (bad.length === 1) {
     const b = bad[0];
     return new UserError(
@@ -161,7 +224,10 @@ function badValues(file: string, bad: { where: string; column: string; value: un
       { file, where: b.where, field: b.column, value: b.value },
     );
   }
-  const list = bad.slice(0, 10).map((b) => `${b.where} (sample "${b.id}"), column "${b.column}": "${b.value}"`).join('; ');
+  const list = bad
+    .slice(0, 10)
+    .map((b) => `${b.where} (sample "${b.id}"), column "${b.column}": "${b.value}"`)
+    .join('; ');
   return new UserError(
     `${file}: ${bad.length} cell(s) are not numbers: ${list}${bad.length > 10 ? `; and ${bad.length - 10} more` : ''}. ` +
       'Fix: enter the lab value (e.g. 12, <2 or >60), or leave the cell empty if it was not tested.',
@@ -169,13 +235,31 @@ function badValues(file: string, bad: { where: string; column: string; value: un
   );
 }
 
-function noteWarnings(file: string, factorUsed: Partial<Record<SoilValue, string[]>>, assumed: Set<string>, soilCols: ColumnInfo[], factor: number | undefined, warnings: Warning[]): void {
+function noteWarnings(
+  file: string,
+  factorUsed: Partial<Record<SoilValue, string[]>>,
+  assumed: Set<string>,
+  soilCols: ColumnInfo[],
+  factor: number | undefined,
+  warnings: Warning[],
+): void {
   for (const [a, list] of Object.entries(factorUsed) as [SoilValue, string[]][]) {
-    const shown = list.length <= 8 ? list.join(', ') : `${list.slice(0, 8).join(', ')} and ${list.length - 8} more`;
-    warnings.push({ code: 'depth-factor', file, field: a, message: `${file}: ${SOIL_NAMES[a]} was tested 0-6 in only for ${list.length} sample(s) (${shown}); multiplied by --depth-factor ${factor} to estimate 0-24 in.` });
+    const shown =
+      list.length <= 8 ? list.join(', ') : `${list.slice(0, 8).join(', ')} and ${list.length - 8} more`;
+    warnings.push({
+      code: 'depth-factor',
+      file,
+      field: a,
+      message: `${file}: ${SOIL_NAMES[a]} was tested 0-6 in only for ${list.length} sample(s) (${shown}); multiplied by --depth-factor ${factor} to estimate 0-24 in.`,
+    });
   }
   assumed.forEach((name) => {
     const ec = soilCols.find((c) => c.name === name)?.role === 'ec';
-    warnings.push({ code: 'unit-assumed', file, field: name, message: `${file}: column "${name}" states no unit; read as ${ec ? 'dS/m (= mmhos/cm)' : 'ppm (mg/kg)'}. If it is ${ec ? 'µS/cm' : 'lb/ac'}, say so with --columns.` });
+    warnings.push({
+      code: 'unit-assumed',
+      file,
+      field: name,
+      message: `${file}: column "${name}" states no unit; read as ${ec ? 'dS/m (= mmhos/cm)' : 'ppm (mg/kg)'}. If it is ${ec ? 'µS/cm' : 'lb/ac'}, say so with --columns.`,
+    });
   });
 }

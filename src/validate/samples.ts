@@ -6,8 +6,25 @@
  */
 import { ANALYTE_TERMS } from '../vocabulary.js';
 import { UserError, type Warning } from '../errors.js';
-import { ANALYTES, EXTRA_VALUES, type Analyte, type ColumnReading, type LimeRating, type PMethod, type Samples, type Texture } from '../types.js';
-import { isUsed, parseDepthText, planColumns, type ColumnInfo, type ColumnMap, type Role, type SoilValue } from '../io/columns.js';
+import {
+  ANALYTES,
+  EXTRA_VALUES,
+  type Analyte,
+  type ColumnReading,
+  type LimeRating,
+  type PMethod,
+  type Samples,
+  type Texture,
+} from '../types.js';
+import {
+  isUsed,
+  parseDepthText,
+  planColumns,
+  type ColumnInfo,
+  type ColumnMap,
+  type Role,
+  type SoilValue,
+} from '../io/columns.js';
 import type { RawRecord, RawTable } from '../io/records.js';
 import { decidePMethod } from './pmethod.js';
 import { readSampleValues, type ValueArrays } from './sampleValues.js';
@@ -26,12 +43,33 @@ export interface SampleOptions {
 export type SamplesLonLat = Omit<Samples, 'xy'>;
 
 /** Short analyte names for messages (src/vocabulary.ts). */
-export const ANALYTE_NAMES: Record<Analyte, string> = Object.fromEntries(Object.entries(ANALYTE_TERMS).map(([a, t]) => [a, t.short])) as Record<Analyte, string>;
+export const ANALYTE_NAMES: Record<Analyte, string> = Object.fromEntries(
+  Object.entries(ANALYTE_TERMS).map(([a, t]) => [a, t.short]),
+) as Record<Analyte, string>;
 
 const TEXTURES: Record<string, Texture> = {
-  light: 'light', coarse: 'light', sand: 'light', 'loamy sand': 'light', 'sandy loam': 'light', l: 'light',
-  medium: 'medium', loam: 'medium', 'silt loam': 'medium', silt: 'medium', 'sandy clay loam': 'medium', 'fine sandy loam': 'medium', m: 'medium',
-  heavy: 'heavy', fine: 'heavy', clay: 'heavy', 'clay loam': 'heavy', 'silty clay': 'heavy', 'silty clay loam': 'heavy', 'sandy clay': 'heavy', 'heavy clay': 'heavy', h: 'heavy',
+  light: 'light',
+  coarse: 'light',
+  sand: 'light',
+  'loamy sand': 'light',
+  'sandy loam': 'light',
+  l: 'light',
+  medium: 'medium',
+  loam: 'medium',
+  'silt loam': 'medium',
+  silt: 'medium',
+  'sandy clay loam': 'medium',
+  'fine sandy loam': 'medium',
+  m: 'medium',
+  heavy: 'heavy',
+  fine: 'heavy',
+  clay: 'heavy',
+  'clay loam': 'heavy',
+  'silty clay': 'heavy',
+  'silty clay loam': 'heavy',
+  'sandy clay': 'heavy',
+  'heavy clay': 'heavy',
+  h: 'heavy',
 };
 
 /**
@@ -40,7 +78,10 @@ const TEXTURES: Record<string, Texture> = {
  */
 export function parseTexture(raw: unknown): Texture | null | 'bad' {
   if (raw === null || raw === undefined) return null;
-  const s = String(raw).trim().toLowerCase().replace(/[\s_-]+/g, ' ');
+  const s = String(raw)
+    .trim()
+    .toLowerCase()
+    .replace(/[\s_-]+/g, ' ');
   if (s === '') return null;
   return TEXTURES[s] ?? 'bad';
 }
@@ -58,14 +99,20 @@ export const parseDepth = parseDepthText;
  * @throws UserError for anything that cannot be read unambiguously (see docs/method.md "Reading samples")
  * @example const { samples, warnings } = buildSamples(readCsvRecords(text, 'samples.csv', []), {});
  */
-export function buildSamples(table: RawTable, opts: SampleOptions = {}): { samples: SamplesLonLat; warnings: Warning[]; firstRecord: number[]; reading: ColumnReading[] } {
+export function buildSamples(
+  table: RawTable,
+  opts: SampleOptions = {},
+): { samples: SamplesLonLat; warnings: Warning[]; firstRecord: number[]; reading: ColumnReading[] } {
   const file = table.file;
   const warnings: Warning[] = [];
   const plan = planColumns(table.columns, opts.map ?? [], file, table.headerNotes);
   const used = plan.filter(isUsed);
   const col = (role: Role) => used.find((c) => c.role === role);
   if (table.records.length === 0) {
-    throw new UserError(`${file} holds no samples. Fix: check that the file is the lab results with one row (or point) per sample.`, { file });
+    throw new UserError(
+      `${file} holds no samples. Fix: check that the file is the lab results with one row (or point) per sample.`,
+      { file },
+    );
   }
   const depthCol = col('depth');
   const recDepth = recordDepths(table, depthCol);
@@ -73,28 +120,59 @@ export function buildSamples(table: RawTable, opts: SampleOptions = {}): { sampl
   const groups = groupRecords(table, idCol, depthCol, warnings);
   const ids = [...groups.keys()];
   const pMethod = decidePMethod(table, used, col('pmethod'), opts.pMethod);
-  const soilCols = used.filter((c) => (['no3_n', 'p', 'k', 'so4_s', 'om', 'ph', 'ec', 'carbonate'] as Role[]).includes(c.role)) as (ColumnInfo & { role: SoilValue })[];
+  const soilCols = used.filter((c) =>
+    (['no3_n', 'p', 'k', 'so4_s', 'om', 'ph', 'ec', 'carbonate'] as Role[]).includes(c.role),
+  ) as (ColumnInfo & { role: SoilValue })[];
   const arrays = readSampleValues({ table, ids, groups, soilCols, recDepth, depthCol, opts, warnings });
-  const texture: (Texture | null)[] = ids.map((id) => firstText(table, groups.get(id)!, col('texture'), (v) => {
-    const t = parseTexture(v);
-    if (t === 'bad') throw new UserError(`${file} sample "${id}", column "${col('texture')!.name}": "${v}" is not a texture class tilth knows. Fix: write light, medium or heavy (or a class such as sandy loam, loam, clay loam).`, { file, where: id, field: col('texture')!.name, value: v });
-    return t;
-  }));
+  const texture: (Texture | null)[] = ids.map((id) =>
+    firstText(table, groups.get(id)!, col('texture'), (v) => {
+      const t = parseTexture(v);
+      if (t === 'bad')
+        throw new UserError(
+          `${file} sample "${id}", column "${col('texture')!.name}": "${v}" is not a texture class tilth knows. Fix: write light, medium or heavy (or a class such as sandy loam, loam, clay loam).`,
+          { file, where: id, field: col('texture')!.name, value: v },
+        );
+      return t;
+    }),
+  );
   const zone = ids.map((id) => firstText(table, groups.get(id)!, col('zone'), (v) => v));
   const origin = ids.map((id) => {
     const recs = groups.get(id)!;
-    const a = table.records[recs[0]].where, b = table.records[recs[recs.length - 1]].where;
+    const a = table.records[recs[0]].where,
+      b = table.records[recs[recs.length - 1]].where;
     return recs.length === 1 ? `${file} ${a}` : `${file} ${a}-${b.replace(/^\D+/, '')}`;
   });
   const lonlat = new Float64Array(2 * ids.length);
-  ids.forEach((id, s) => { const r = table.records[groups.get(id)![0]]; lonlat[2 * s] = r.lon; lonlat[2 * s + 1] = r.lat; });
+  ids.forEach((id, s) => {
+    const r = table.records[groups.get(id)![0]];
+    lonlat[2 * s] = r.lon;
+    lonlat[2 * s + 1] = r.lat;
+  });
   missingWarnings(arrays, soilCols, ids, file, warnings);
-  const samples: SamplesLonLat = { ids, lonlat, values: arrays.values, censored: arrays.censored, texture, zone, pMethod, origin };
-  const extra = Object.fromEntries(EXTRA_VALUES.filter((e) => soilCols.some((c) => c.role === e)).map((e) => [e, arrays.extra[e]]));
+  const samples: SamplesLonLat = {
+    ids,
+    lonlat,
+    values: arrays.values,
+    censored: arrays.censored,
+    texture,
+    zone,
+    pMethod,
+    origin,
+  };
+  const extra = Object.fromEntries(
+    EXTRA_VALUES.filter((e) => soilCols.some((c) => c.role === e)).map((e) => [e, arrays.extra[e]]),
+  );
   if (Object.keys(extra).length) samples.extra = extra;
-  if (soilCols.some((c) => c.role === 'ec')) samples.ecMethod = soilCols.find((c) => c.role === 'ec')!.method ?? null;
-  if (arrays.limeRating.some((r) => r !== null)) samples.limeRating = arrays.limeRating as (LimeRating | null)[];
-  return { samples, warnings, firstRecord: ids.map((id) => groups.get(id)![0]), reading: columnReading(table, plan, arrays.refused, depthCol) };
+  if (soilCols.some((c) => c.role === 'ec'))
+    samples.ecMethod = soilCols.find((c) => c.role === 'ec')!.method ?? null;
+  if (arrays.limeRating.some((r) => r !== null))
+    samples.limeRating = arrays.limeRating as (LimeRating | null)[];
+  return {
+    samples,
+    warnings,
+    firstRecord: ids.map((id) => groups.get(id)![0]),
+    reading: columnReading(table, plan, arrays.refused, depthCol),
+  };
 }
 
 /** Each record's depth from the depth column (the row's depth beats a depth in a header). */
@@ -116,13 +194,25 @@ function recordDepths(table: RawTable, depthCol: ColumnInfo | undefined): ([numb
 }
 
 /** Records grouped into samples by id (file order), checking that one id is one place. */
-function groupRecords(table: RawTable, idCol: ColumnInfo | undefined, depthCol: ColumnInfo | undefined, warnings: Warning[]): Map<string, number[]> {
+function groupRecords(
+  table: RawTable,
+  idCol: ColumnInfo | undefined,
+  depthCol: ColumnInfo | undefined,
+  warnings: Warning[],
+): Map<string, number[]> {
   const file = table.file;
   if (!idCol && depthCol) {
-    throw new UserError(`${file}: there is a depth column but no sample id column, so rows cannot be joined into samples. Fix: name it with --columns "id=YOUR ID COLUMN".`, { file });
+    throw new UserError(
+      `${file}: there is a depth column but no sample id column, so rows cannot be joined into samples. Fix: name it with --columns "id=YOUR ID COLUMN".`,
+      { file },
+    );
   }
   if (!idCol) {
-    warnings.push({ code: 'no-id-column', file, message: `${file}: no sample id column was recognised; samples are numbered in file order (1, 2, ...). Name it with --columns "id=COLUMN" if there is one.` });
+    warnings.push({
+      code: 'no-id-column',
+      file,
+      message: `${file}: no sample id column was recognised; samples are numbered in file order (1, 2, ...). Name it with --columns "id=COLUMN" if there is one.`,
+    });
   }
   const groups = new Map<string, number[]>();
   table.records.forEach((r, i) => {
@@ -130,12 +220,18 @@ function groupRecords(table: RawTable, idCol: ColumnInfo | undefined, depthCol: 
     if (idCol) {
       const raw = r.props[idCol.name];
       if (raw === null || String(raw).trim() === '') {
-        throw new UserError(`${file} ${r.where}, column "${idCol.name}": the sample id is empty. Fix: give every row its sample id.`, { file, where: r.where, field: idCol.name });
+        throw new UserError(
+          `${file} ${r.where}, column "${idCol.name}": the sample id is empty. Fix: give every row its sample id.`,
+          { file, where: r.where, field: idCol.name },
+        );
       }
       id = String(raw).trim();
     }
     const g = groups.get(id);
-    if (!g) { groups.set(id, [i]); return; }
+    if (!g) {
+      groups.set(id, [i]);
+      return;
+    }
     const first = table.records[g[0]];
     if (Math.abs(r.lon - first.lon) > 5e-5 || Math.abs(r.lat - first.lat) > 5e-5) {
       throw new UserError(
@@ -150,7 +246,12 @@ function groupRecords(table: RawTable, idCol: ColumnInfo | undefined, depthCol: 
 }
 
 /** The first non-empty text of a column over a sample's records, parsed. */
-function firstText<T>(table: RawTable, recs: number[], c: ColumnInfo | undefined, parse: (v: string) => T): T | null {
+function firstText<T>(
+  table: RawTable,
+  recs: number[],
+  c: ColumnInfo | undefined,
+  parse: (v: string) => T,
+): T | null {
   if (!c) return null;
   for (const i of recs) {
     const raw = table.records[i].props[c.name];
@@ -159,14 +260,31 @@ function firstText<T>(table: RawTable, recs: number[], c: ColumnInfo | undefined
   return null;
 }
 
-function missingWarnings(arrays: ValueArrays, soilCols: ColumnInfo[], ids: string[], file: string, warnings: Warning[]): void {
+function missingWarnings(
+  arrays: ValueArrays,
+  soilCols: ColumnInfo[],
+  ids: string[],
+  file: string,
+  warnings: Warning[],
+): void {
   for (const a of ANALYTES) {
     if (!soilCols.some((c) => c.role === a)) {
-      warnings.push({ code: 'missing-nutrient', file, field: a, message: `${file}: no ${ANALYTE_NAMES[a]} column was found; ${ANALYTE_NAMES[a]} is treated as not tested.` });
+      warnings.push({
+        code: 'missing-nutrient',
+        file,
+        field: a,
+        message: `${file}: no ${ANALYTE_NAMES[a]} column was found; ${ANALYTE_NAMES[a]} is treated as not tested.`,
+      });
       continue;
     }
     const miss = ids.filter((_, s) => Number.isNaN(arrays.values[a][s]));
-    if (miss.length) warnings.push({ code: 'missing-value', file, field: a, message: `${file}: ${miss.length} sample(s) have no ${ANALYTE_NAMES[a]} value (${abbrev(miss)}).` });
+    if (miss.length)
+      warnings.push({
+        code: 'missing-value',
+        file,
+        field: a,
+        message: `${file}: ${miss.length} sample(s) have no ${ANALYTE_NAMES[a]} value (${abbrev(miss)}).`,
+      });
   }
 }
 
@@ -175,12 +293,15 @@ function missingWarnings(arrays: ValueArrays, soilCols: ColumnInfo[], ids: strin
  * @example abbrev(['a', 'b', 'c'], 2) // 'a, b and 1 more'
  */
 export function abbrev(list: string[], max = 8): string {
-  return list.length <= max ? list.join(', ') : `${list.slice(0, max).join(', ')} and ${list.length - max} more`;
+  return list.length <= max
+    ? list.join(', ')
+    : `${list.slice(0, max).join(', ')} and ${list.length - max} more`;
 }
 
 /** Depth values without a unit: centimetre layers (bounds 15, 30, 60) or inches (6, 12, 24), by majority. */
 function guessDepthUnit(records: RawRecord[], depthCol: ColumnInfo): 'in' | 'cm' {
-  let cm = 0, inch = 0;
+  let cm = 0,
+    inch = 0;
   for (const r of records) {
     const v = r.props[depthCol.name];
     if (v === null) continue;

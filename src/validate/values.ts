@@ -40,7 +40,10 @@ export function parseLabValue(raw: RawValue): LabValue | null | 'bad' {
   if (typeof raw === 'boolean') return 'bad';
   const s = raw.trim();
   if (MISSING.test(s)) return null;
-  const m = /^(<|>|<=|>=|less than|greater than)?\s*([-+]?(\d+(\.\d*)?|\.\d+)([eE][-+]?\d+)?)\s*([a-z%/ ]*)$/i.exec(s);
+  const m =
+    /^(<|>|<=|>=|less than|greater than)?\s*([-+]?(\d+(\.\d*)?|\.\d+)([eE][-+]?\d+)?)\s*([a-z%/ ]*)$/i.exec(
+      s,
+    );
   if (!m) return 'bad';
   let unit: ValueUnit | undefined;
   if (m[6] && m[6].trim() !== '%') {

@@ -19,8 +19,14 @@ export interface AreaShare {
  * @param threshold value < threshold counts as below (value <= threshold when `inclusive`)
  * @example areaShareBelow([5, 15, NaN], [1, 0.5, 1], 10) // { share: 0.667, belowCells: 1, totalCells: 1.5 }
  */
-export function areaShareBelow(values: ArrayLike<number>, fraction: ArrayLike<number>, threshold: number, inclusive = false): AreaShare {
-  if (values.length !== fraction.length) throw new Error(`areaShareBelow: ${values.length} values for ${fraction.length} cells`);
+export function areaShareBelow(
+  values: ArrayLike<number>,
+  fraction: ArrayLike<number>,
+  threshold: number,
+  inclusive = false,
+): AreaShare {
+  if (values.length !== fraction.length)
+    throw new Error(`areaShareBelow: ${values.length} values for ${fraction.length} cells`);
   let below = 0;
   let total = 0;
   for (let i = 0; i < values.length; i++) {

@@ -24,15 +24,42 @@ export type ChanceSpec =
  * @param pMethod the samples' P method (default 'olsen')
  * @example chanceSpec('so4_s', tables.crops.canola!, tables) // { kind: 'below', threshold: 20, ... }
  */
-export function chanceSpec(analyte: Analyte, crop: CropTable, tables: Tables, pMethod: PMethod = 'olsen'): ChanceSpec {
+export function chanceSpec(
+  analyte: Analyte,
+  crop: CropTable,
+  tables: Tables,
+  pMethod: PMethod = 'olsen',
+): ChanceSpec {
   if (analyte === 'p') {
     const rows = pClassTable(pMethod, tables);
-    return { kind: 'classes', classes: { names: rows.map((r) => r.name), below: rows.map((r) => r.below_ppm), chance: rows.map((r) => r.response_probability) }, source: rows.map((r) => `${r.name}: ${r.source}`).join('; ') };
+    return {
+      kind: 'classes',
+      classes: {
+        names: rows.map((r) => r.name),
+        below: rows.map((r) => r.below_ppm),
+        chance: rows.map((r) => r.response_probability),
+      },
+      source: rows.map((r) => `${r.name}: ${r.source}`).join('; '),
+    };
   }
   if (analyte === 'k') {
     const rows = tables.k_classes[crop.k_class_group] ?? [];
-    return { kind: 'classes', classes: { names: rows.map((r) => r.name), below: rows.map((r) => r.below_ppm), chance: rows.map((r) => r.response_probability) }, source: rows.map((r) => `${r.name}: ${r.source}`).join('; ') };
+    return {
+      kind: 'classes',
+      classes: {
+        names: rows.map((r) => r.name),
+        below: rows.map((r) => r.below_ppm),
+        chance: rows.map((r) => r.response_probability),
+      },
+      source: rows.map((r) => `${r.name}: ${r.source}`).join('; '),
+    };
   }
-  if (analyte === 'so4_s') return { kind: 'below', threshold: crop.s_low_below_lb.value, unit: 'lb S/ac 0-24 in', source: crop.s_low_below_lb.source };
+  if (analyte === 'so4_s')
+    return {
+      kind: 'below',
+      threshold: crop.s_low_below_lb.value,
+      unit: 'lb S/ac 0-24 in',
+      source: crop.s_low_below_lb.source,
+    };
   return { kind: 'none' };
 }

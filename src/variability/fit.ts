@@ -83,7 +83,11 @@ interface Lin {
 
 /** Weighted linear fit of gamma = c0 * [fit nugget] + c1 * u. */
 function linearFit(g: number[], u: Float64Array, w: Float64Array, fitNugget: boolean): Lin {
-  let sw = 0, su = 0, suu = 0, sg = 0, sug = 0;
+  let sw = 0,
+    su = 0,
+    suu = 0,
+    sg = 0,
+    sug = 0;
   for (let j = 0; j < g.length; j++) {
     sw += w[j];
     su += w[j] * u[j];
@@ -91,7 +95,8 @@ function linearFit(g: number[], u: Float64Array, w: Float64Array, fitNugget: boo
     sg += w[j] * g[j];
     sug += w[j] * u[j] * g[j];
   }
-  let c0 = 0, c1: number;
+  let c0 = 0,
+    c1: number;
   if (fitNugget) {
     const det = sw * suu - su * su;
     if (!(Math.abs(det) > 1e-300 * Math.max(1, sw * suu))) return { nugget: NaN, psill: NaN, sse: Infinity };
@@ -109,17 +114,24 @@ function linearFit(g: number[], u: Float64Array, w: Float64Array, fitNugget: boo
   return { nugget: c0, psill: c1, sse };
 }
 
-function weightsFor(v: Pick<Semivariogram, 'np' | 'dist'>, kind: ModelKind, method: FitMethod, start: StartModel): Float64Array | string {
+function weightsFor(
+  v: Pick<Semivariogram, 'np' | 'dist'>,
+  kind: ModelKind,
+  method: FitMethod,
+  start: StartModel,
+): Float64Array | string {
   const w = new Float64Array(v.np.length);
   for (let j = 0; j < w.length; j++) {
     if (method === 6) w[j] = 1;
     else if (method === 1) w[j] = v.np[j];
     else if (method === 7) {
-      if (v.dist[j] === 0) return 'fit method 7 (N_j / h_j^2) cannot use a lag at distance 0; choose method 2';
+      if (v.dist[j] === 0)
+        return 'fit method 7 (N_j / h_j^2) cannot use a lag at distance 0; choose method 2';
       w[j] = v.np[j] / (v.dist[j] * v.dist[j]);
     } else {
       const s = start.nugget + start.psill * unitVariogram(kind, v.dist[j], start.range);
-      if (!(Math.abs(s) > 1e-30)) return 'the starting model is 0 at a lag, so Cressie weights are infinite; give another start';
+      if (!(Math.abs(s) > 1e-30))
+        return 'the starting model is 0 at a lag, so Cressie weights are infinite; give another start';
       w[j] = v.np[j] / (s * s);
     }
   }
@@ -127,7 +139,13 @@ function weightsFor(v: Pick<Semivariogram, 'np' | 'dist'>, kind: ModelKind, meth
 }
 
 /** Minimises the profile SSE over the range parameter; returns the best range and its linear fit. */
-function profileFit(v: Pick<Semivariogram, 'dist' | 'gamma'>, kind: ModelKind, w: Float64Array, fitNugget: boolean, search: [number, number]) {
+function profileFit(
+  v: Pick<Semivariogram, 'dist' | 'gamma'>,
+  kind: ModelKind,
+  w: Float64Array,
+  fitNugget: boolean,
+  search: [number, number],
+) {
   const hmax = Math.max(...v.dist);
   const lo = Math.log(search[0] * hmax);
   const hi = Math.log(search[1] * hmax);
@@ -156,11 +174,15 @@ function profileFit(v: Pick<Semivariogram, 'dist' | 'gamma'>, kind: ModelKind, w
   let fd = at(Math.exp(d)).sse;
   for (let it = 0; it < 200 && b - a > 1e-13; it++) {
     if (fc <= fd) {
-      b = d; d = c; fd = fc;
+      b = d;
+      d = c;
+      fd = fc;
       c = b - phi * (b - a);
       fc = at(Math.exp(c)).sse;
     } else {
-      a = c; c = d; fc = fd;
+      a = c;
+      c = d;
+      fc = fd;
       d = a + phi * (b - a);
       fd = at(Math.exp(d)).sse;
     }
@@ -186,15 +208,33 @@ function profileFit(v: Pick<Semivariogram, 'dist' | 'gamma'>, kind: ModelKind, w
  * const m = fitModel(v, 'spherical', { method: 7, start: { nugget: 1, psill: 1, range: 800 } });
  * // Meuse log(zinc): m.nugget 0.0507, m.psill 0.591, m.range 897 (as gstat)
  */
-export function fitModel(v: Pick<Semivariogram, 'np' | 'dist' | 'gamma'>, kind: ModelKind, opts: FitOptions = {}): FittedModel {
+export function fitModel(
+  v: Pick<Semivariogram, 'np' | 'dist' | 'gamma'>,
+  kind: ModelKind,
+  opts: FitOptions = {},
+): FittedModel {
   const method = opts.method ?? 7;
   const start = opts.start ?? defaultStart(v);
   const search = opts.rangeSearch ?? [1e-3, 100];
   const fail = (problem: string): FittedModel => ({
-    kind, method, nugget: NaN, psill: NaN, sill: NaN, range: NaN, effectiveRange: NaN, ssErr: NaN,
-    nuggetFixedAtZero: false, rangeAtLimit: false, ok: false, problem, start,
+    kind,
+    method,
+    nugget: NaN,
+    psill: NaN,
+    sill: NaN,
+    range: NaN,
+    effectiveRange: NaN,
+    ssErr: NaN,
+    nuggetFixedAtZero: false,
+    rangeAtLimit: false,
+    ok: false,
+    problem,
+    start,
   });
-  if (v.np.length < 3) return fail(`only ${v.np.length} lag(s) hold pairs; a model with nugget, sill and range needs at least 3`);
+  if (v.np.length < 3)
+    return fail(
+      `only ${v.np.length} lag(s) hold pairs; a model with nugget, sill and range needs at least 3`,
+    );
   let w = weightsFor(v, kind, method, start);
   if (typeof w === 'string') return fail(w);
   let r = profileFit(v, kind, w, true, search);
@@ -202,20 +242,38 @@ export function fitModel(v: Pick<Semivariogram, 'np' | 'dist' | 'gamma'>, kind: 
   if (r.lin.nugget < 0) {
     // as R's fit.variogram: negative nugget -> 0, range back to the start, fit again (weights from that model)
     nuggetFixedAtZero = true;
-    const restart: StartModel = { nugget: 0, psill: r.lin.psill > 0 ? r.lin.psill : start.psill, range: start.range };
+    const restart: StartModel = {
+      nugget: 0,
+      psill: r.lin.psill > 0 ? r.lin.psill : start.psill,
+      range: start.range,
+    };
     w = weightsFor(v, kind, method, restart);
     if (typeof w === 'string') return fail(w);
     r = profileFit(v, kind, w, false, search);
     r.lin.nugget = 0;
   }
   if (!(r.lin.psill > 0) || !Number.isFinite(r.lin.sse)) {
-    return fail('no spatial structure: the fitted partial sill is not positive (a pure-nugget semivariogram)');
+    return fail(
+      'no spatial structure: the fitted partial sill is not positive (a pure-nugget semivariogram)',
+    );
   }
   const out: FittedModel = {
-    kind, method, nugget: r.lin.nugget, psill: r.lin.psill, sill: r.lin.nugget + r.lin.psill, range: r.range,
-    effectiveRange: effectiveRange(kind, r.range), ssErr: r.lin.sse, nuggetFixedAtZero, rangeAtLimit: r.atLimit, ok: true, start,
+    kind,
+    method,
+    nugget: r.lin.nugget,
+    psill: r.lin.psill,
+    sill: r.lin.nugget + r.lin.psill,
+    range: r.range,
+    effectiveRange: effectiveRange(kind, r.range),
+    ssErr: r.lin.sse,
+    nuggetFixedAtZero,
+    rangeAtLimit: r.atLimit,
+    ok: true,
+    start,
   };
-  if (r.atLimit) out.problem = 'the best range lies at the end of the searched interval: the semivariogram does not level off within the distances examined';
+  if (r.atLimit)
+    out.problem =
+      'the best range lies at the end of the searched interval: the semivariogram does not level off within the distances examined';
   return out;
 }
 
@@ -224,7 +282,10 @@ export function fitModel(v: Pick<Semivariogram, 'np' | 'dist' | 'gamma'>, kind: 
  * whose range is inside the searched interval (as gstat picks from a model list by SSErr).
  * @example const { fits, best } = fitModels(v); // best?.kind === 'spherical' for Meuse log(zinc)
  */
-export function fitModels(v: Pick<Semivariogram, 'np' | 'dist' | 'gamma'>, opts: FitOptions = {}): { fits: FittedModel[]; best: FittedModel | null } {
+export function fitModels(
+  v: Pick<Semivariogram, 'np' | 'dist' | 'gamma'>,
+  opts: FitOptions = {},
+): { fits: FittedModel[]; best: FittedModel | null } {
   const fits = (['spherical', 'exponential', 'gaussian'] as const).map((k) => fitModel(v, k, opts));
   let best: FittedModel | null = null;
   for (const f of fits) if (f.ok && !f.rangeAtLimit && (!best || f.ssErr < best.ssErr)) best = f;

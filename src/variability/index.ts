@@ -9,7 +9,14 @@ import { fitModels, type FitOptions, type FittedModel } from './fit.js';
 import { spatialDependence, type Dependence } from './dependence.js';
 import { samplingAdvice, type SamplingAdvice } from './sampling.js';
 import { areaShareBelow, sampleShareBelow } from './area-share.js';
-import { NUTRIENT_LABEL, NUTRIENT_UNIT, defaultThreshold, S_FLOOR_DEFAULT, S_MARGINAL_UPPER, type Threshold } from './thresholds.js';
+import {
+  NUTRIENT_LABEL,
+  NUTRIENT_UNIT,
+  defaultThreshold,
+  S_FLOOR_DEFAULT,
+  S_MARGINAL_UPPER,
+  type Threshold,
+} from './thresholds.js';
 
 export * from './semivariogram.js';
 export * from './models.js';
@@ -121,7 +128,12 @@ const NOT_LOW_UNCERTAIN =
  * const r = analyzeVariability(inputs.samples, inputs.field, { nutrient: 'so4_s' });
  * r.low.map((s) => s.id); r.dependence?.class; r.sampling.text;
  */
-export function analyzeVariability(samples: Samples, field: Field, opts: VariabilityOptions = {}, surface?: SurfaceForShare): VariabilityReport {
+export function analyzeVariability(
+  samples: Samples,
+  field: Field,
+  opts: VariabilityOptions = {},
+  surface?: SurfaceForShare,
+): VariabilityReport {
   const nutrient = opts.nutrient ?? 'so4_s';
   const values = samples.values[nutrient];
   const cens = samples.censored[nutrient];
@@ -136,10 +148,13 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
   }
 
   const threshold: Threshold | null =
-    opts.threshold === null ? null
-    : typeof opts.threshold === 'number' ? { value: opts.threshold, unit: NUTRIENT_UNIT[nutrient], source: 'set by the user' }
-    : opts.threshold !== undefined ? opts.threshold
-    : defaultThreshold(nutrient, samples.pMethod);
+    opts.threshold === null
+      ? null
+      : typeof opts.threshold === 'number'
+        ? { value: opts.threshold, unit: NUTRIENT_UNIT[nutrient], source: 'set by the user' }
+        : opts.threshold !== undefined
+          ? opts.threshold
+          : defaultThreshold(nutrient, samples.pMethod);
 
   // semivariogram on the tested samples
   const transform = opts.transform ?? 'none';
@@ -150,24 +165,46 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
   }
   if (transform === 'log') {
     let dropped = 0;
-    for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && !Number.isFinite(z[i])) dropped++;
-    if (dropped) warnings.push({ code: 'variability.log-nonpositive', message: `${dropped} ${nutrient} value(s) are 0 or negative and have no logarithm; they are left out of the semivariogram.`, field: nutrient });
+    for (let i = 0; i < values.length; i++)
+      if (Number.isFinite(values[i]) && !Number.isFinite(z[i])) dropped++;
+    if (dropped)
+      warnings.push({
+        code: 'variability.log-nonpositive',
+        message: `${dropped} ${nutrient} value(s) are 0 or negative and have no logarithm; they are left out of the semivariogram.`,
+        field: nutrient,
+      });
   }
   if (samples.zone.some((k) => k !== null)) {
     warnings.push({
       code: 'variability.zone-composites',
-      message: 'these are zone-composite samples: each stands for a whole zone, not a point, so the semivariogram and the sampling advice describe the zone centres only. Grid or point samples are needed to measure variation within the zones.',
+      message:
+        'these are zone-composite samples: each stands for a whole zone, not a point, so the semivariogram and the sampling advice describe the zone centres only. Grid or point samples are needed to measure variation within the zones.',
       field: nutrient,
     });
   }
   const xyUsed: number[] = [];
-  for (let i = 0; i < values.length; i++) if (Number.isFinite(z[i])) xyUsed.push(samples.xy[2 * i], samples.xy[2 * i + 1]);
+  for (let i = 0; i < values.length; i++)
+    if (Number.isFinite(z[i])) xyUsed.push(samples.xy[2 * i], samples.xy[2 * i + 1]);
   if (xyUsed.length / 2 < 2) {
-    warnings.push({ code: 'variability.too-few', message: `only ${xyUsed.length / 2} sample(s) have a ${nutrient} value: no semivariogram can be computed.`, field: nutrient });
+    warnings.push({
+      code: 'variability.too-few',
+      message: `only ${xyUsed.length / 2} sample(s) have a ${nutrient} value: no semivariogram can be computed.`,
+      field: nutrient,
+    });
   }
-  const sv = xyUsed.length >= 4
-    ? semivariogram(samples.xy, z, { cutoff: opts.cutoff, width: opts.width })
-    : { cutoff: NaN, width: NaN, bboxDiagonal: NaN, n: xyUsed.length / 2, lag: [], np: [], dist: [], gamma: [] };
+  const sv =
+    xyUsed.length >= 4
+      ? semivariogram(samples.xy, z, { cutoff: opts.cutoff, width: opts.width })
+      : {
+          cutoff: NaN,
+          width: NaN,
+          bboxDiagonal: NaN,
+          n: xyUsed.length / 2,
+          lag: [],
+          np: [],
+          dist: [],
+          gamma: [],
+        };
   const fewPairLags = sv.lag.filter((_, j) => sv.np[j] < MIN_PAIRS);
   if (fewPairLags.length) {
     warnings.push({
@@ -178,9 +215,18 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
   }
   const { fits, best } = sv.lag.length ? fitModels(sv, opts.fit) : { fits: [], best: null };
   const dependence = best ? spatialDependence(best.nugget, best.psill) : null;
-  if (!best) warnings.push({ code: 'variability.no-fit', message: `no semivariogram model could be fitted to ${nutrient}: ${fits.find((f) => f.problem)?.problem ?? 'too few lags'}.`, field: nutrient });
+  if (!best)
+    warnings.push({
+      code: 'variability.no-fit',
+      message: `no semivariogram model could be fitted to ${nutrient}: ${fits.find((f) => f.problem)?.problem ?? 'too few lags'}.`,
+      field: nutrient,
+    });
   else if (best.effectiveRange > sv.cutoff) {
-    warnings.push({ code: 'variability.range-beyond-cutoff', message: `the fitted effective range (${best.effectiveRange.toFixed(0)} m) is beyond the largest distance examined (${sv.cutoff.toFixed(0)} m): it is an extrapolation and uncertain.`, field: nutrient });
+    warnings.push({
+      code: 'variability.range-beyond-cutoff',
+      message: `the fitted effective range (${best.effectiveRange.toFixed(0)} m) is beyond the largest distance examined (${sv.cutoff.toFixed(0)} m): it is an extrapolation and uncertain.`,
+      field: nutrient,
+    });
   }
   const noSill = !best && fits.some((f) => f.ok && f.rangeAtLimit);
   const sampling = samplingAdvice({
@@ -193,15 +239,25 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
   });
 
   const sampleAt = (i: number): LowSample => ({
-    id: samples.ids[i], value: values[i], censored: cens[i],
-    lon: samples.lonlat[2 * i], lat: samples.lonlat[2 * i + 1], x: samples.xy[2 * i], y: samples.xy[2 * i + 1],
+    id: samples.ids[i],
+    value: values[i],
+    censored: cens[i],
+    lon: samples.lonlat[2 * i],
+    lat: samples.lonlat[2 * i + 1],
+    x: samples.xy[2 * i],
+    y: samples.xy[2 * i + 1],
   });
   const low: LowSample[] = [];
   let shareBelow: VariabilityReport['shareBelow'] = null;
   let areaShare: number | null = null;
   if (threshold) {
     const inc = Boolean(threshold.inclusive);
-    for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && (values[i] < threshold.value || (inc && values[i] === threshold.value))) low.push(sampleAt(i));
+    for (let i = 0; i < values.length; i++)
+      if (
+        Number.isFinite(values[i]) &&
+        (values[i] < threshold.value || (inc && values[i] === threshold.value))
+      )
+        low.push(sampleAt(i));
     low.sort((a, b) => a.value - b.value);
     let areaAc: number | null = null;
     if (surface) {
@@ -209,7 +265,12 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
       areaShare = a.share;
       areaAc = (a.belowCells * surface.cell * surface.cell) / 4046.8564224;
     }
-    shareBelow = { samples: sampleShareBelow(values, threshold.value, inc), area: areaShare, areaAc, surface: surface ? surface.note ?? 'interpolated surface' : null };
+    shareBelow = {
+      samples: sampleShareBelow(values, threshold.value, inc),
+      area: areaShare,
+      areaAc,
+      surface: surface ? (surface.note ?? 'interpolated surface') : null,
+    };
   }
 
   let sulphur: SulphurFindings | null = null;
@@ -218,7 +279,8 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
     const marginal: LowSample[] = [];
     const lowValue = threshold?.value ?? NaN;
     if (threshold && lowValue < S_MARGINAL_UPPER) {
-      for (let i = 0; i < values.length; i++) if (values[i] >= lowValue && values[i] < S_MARGINAL_UPPER) marginal.push(sampleAt(i));
+      for (let i = 0; i < values.length; i++)
+        if (values[i] >= lowValue && values[i] < S_MARGINAL_UPPER) marginal.push(sampleAt(i));
       marginal.sort((a, b) => a.value - b.value);
     }
     const mean = stats.mean;
@@ -242,9 +304,10 @@ export function analyzeVariability(samples: Samples, field: Field, opts: Variabi
       marginal,
       marginalUpper: S_MARGINAL_UPPER,
       floor,
-      floorText: floor <= 0
-        ? `The plan applies no sulphate-S floor (${opts.sFloorSource ?? 'set to 0'}); since a not-low result is uncertain, S on the low spots above rests on the test alone.`
-        : `Whatever the test, the plan applies at least ${floor} lb S/ac as sulphate on every acre (${opts.sFloorSource ?? 'canola default 10 lb S/ac, common practice; Canola Encyclopedia: 10-20 lb S/ac whatever the test'}).`,
+      floorText:
+        floor <= 0
+          ? `The plan applies no sulphate-S floor (${opts.sFloorSource ?? 'set to 0'}); since a not-low result is uncertain, S on the low spots above rests on the test alone.`
+          : `Whatever the test, the plan applies at least ${floor} lb S/ac as sulphate on every acre (${opts.sFloorSource ?? 'canola default 10 lb S/ac, common practice; Canola Encyclopedia: 10-20 lb S/ac whatever the test'}).`,
     };
   }
 

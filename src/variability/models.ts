@@ -11,7 +11,11 @@ export type ModelKind = 'spherical' | 'exponential' | 'gaussian';
 export const MODEL_KINDS: readonly ModelKind[] = ['spherical', 'exponential', 'gaussian'];
 
 /** gstat's short names, for output that is compared with gstat */
-export const GSTAT_NAME: Readonly<Record<ModelKind, string>> = { spherical: 'Sph', exponential: 'Exp', gaussian: 'Gau' };
+export const GSTAT_NAME: Readonly<Record<ModelKind, string>> = {
+  spherical: 'Sph',
+  exponential: 'Exp',
+  gaussian: 'Gau',
+};
 
 /**
  * The unit (sill 1, no nugget) model at distance h > 0 with range parameter a.
@@ -48,6 +52,8 @@ export function effectiveRange(kind: ModelKind, a: number): number {
 /** How to read the range parameter, for people. */
 export const RANGE_NOTE: Readonly<Record<ModelKind, string>> = {
   spherical: 'spherical: the range parameter is the distance at which the sill is reached',
-  exponential: "exponential: gstat's range parameter a; 95 % of the sill is reached at 3a (the effective range)",
-  gaussian: "Gaussian: gstat's range parameter a; 95 % of the sill is reached at sqrt(3) a (the effective range)",
+  exponential:
+    "exponential: gstat's range parameter a; 95 % of the sill is reached at 3a (the effective range)",
+  gaussian:
+    "Gaussian: gstat's range parameter a; 95 % of the sill is reached at sqrt(3) a (the effective range)",
 };

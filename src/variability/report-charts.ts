@@ -11,23 +11,47 @@ import { sampleMapSvg, semivariogramSvg } from './charts.js';
  * The semivariogram and low-spot map of one study, with captions that carry the findings.
  * @example input.charts.push(...variabilityReportCharts(analyzeVariability(samples, field), samples, field))
  */
-export function variabilityReportCharts(r: VariabilityReport, samples: Samples, field: Field, surface?: Parameters<typeof sampleMapSvg>[0]['surface']): ReportChart[] {
+export function variabilityReportCharts(
+  r: VariabilityReport,
+  samples: Samples,
+  field: Field,
+  surface?: Parameters<typeof sampleMapSvg>[0]['surface'],
+): ReportChart[] {
   const best = r.best;
   const dep = r.dependence;
-  const svCaption = best && dep
-    ? `Best fit ${best.kind}: nugget ${best.nugget.toPrecision(3)}, sill ${best.sill.toPrecision(3)}, effective range ${best.effectiveRange.toFixed(0)} m; spatial dependence ${dep.class} (nugget/sill ${(100 * dep.ratio).toFixed(0)} %, Cambardella et al. 1994). ${r.sampling.text}`
-    : `No semivariogram model could be fitted. ${r.sampling.text}`;
+  const svCaption =
+    best && dep
+      ? `Best fit ${best.kind}: nugget ${best.nugget.toPrecision(3)}, sill ${best.sill.toPrecision(3)}, effective range ${best.effectiveRange.toFixed(0)} m; spatial dependence ${dep.class} (nugget/sill ${(100 * dep.ratio).toFixed(0)} %, Cambardella et al. 1994). ${r.sampling.text}`
+      : `No semivariogram model could be fitted. ${r.sampling.text}`;
   const lowIds = r.low.map((l) => l.id).join(', ');
   const mapCaption = r.threshold
     ? `${r.low.length} of ${r.stats.n} samples ${r.threshold.inclusive ? 'at or below' : 'below'} ${r.threshold.value} ${r.unit}${lowIds ? `: ${lowIds}` : ''}.${r.sulphur ? ` ${r.sulphur.compositeText} ${r.sulphur.notLowIsUncertain} ${r.sulphur.floorText}` : ''}`
     : `Samples coloured by ${r.label}; no threshold for this nutrient.`;
   return [
-    { title: `Semivariogram of ${r.label}`, svg: semivariogramSvg({ semivariogram: r.semivariogram, fits: r.fits, best: r.best, label: r.label, unit: r.unit, transform: r.transform }), caption: svCaption },
+    {
+      title: `Semivariogram of ${r.label}`,
+      svg: semivariogramSvg({
+        semivariogram: r.semivariogram,
+        fits: r.fits,
+        best: r.best,
+        label: r.label,
+        unit: r.unit,
+        transform: r.transform,
+      }),
+      caption: svCaption,
+    },
     {
       title: `${r.label}: low spots`,
       svg: sampleMapSvg({
-        parts: field.parts, xy: samples.xy, values: samples.values[r.nutrient], ids: samples.ids, label: r.label, unit: r.unit,
-        threshold: r.threshold?.value ?? null, thresholdInclusive: r.threshold?.inclusive, surface,
+        parts: field.parts,
+        xy: samples.xy,
+        values: samples.values[r.nutrient],
+        ids: samples.ids,
+        label: r.label,
+        unit: r.unit,
+        threshold: r.threshold?.value ?? null,
+        thresholdInclusive: r.threshold?.inclusive,
+        surface,
       }),
       caption: mapCaption,
     },
@@ -46,15 +70,52 @@ export interface CropSulphurEntries {
  * @example const c = buildSulphurCharts(inputs.samples, inputs.field, tables.crops[plan.crop], plan.strategy.s.method, sSurface)
  */
 export function buildSulphurCharts(
-  samples: Samples, field: Field, crop: CropSulphurEntries | undefined, sMethod: string,
+  samples: Samples,
+  field: Field,
+  crop: CropSulphurEntries | undefined,
+  sMethod: string,
   surface?: { grid: Grid; values: ArrayLike<number>; note?: string; zones?: boolean },
 ): ReportChart[] {
   if (!Array.from(samples.values.so4_s).some(Number.isFinite)) return [];
-  const r = analyzeVariability(samples, field, {
-    nutrient: 'so4_s',
-    threshold: crop ? { value: crop.s_low_below_lb.value, unit: 'lb S/ac 0-24 in', source: `tables: ${crop.s_low_below_lb.source}` } : undefined,
-    sFloor: sMethod === 'none' ? 0 : crop?.s_floor_lb.value,
-    sFloorSource: sMethod === 'none' ? "the plan's S strategy is none" : crop ? `tables: ${crop.s_floor_lb.source}` : undefined,
-  }, surface ? { values: surface.values, fraction: surface.grid.fraction, cell: surface.grid.cell, note: surface.note } : undefined);
-  return variabilityReportCharts(r, samples, field, surface ? { grid: surface.grid, values: surface.values, label: surface.zones ? 'zone sample value' : 'interpolated (IDW)' } : undefined);
+  const r = analyzeVariability(
+    samples,
+    field,
+    {
+      nutrient: 'so4_s',
+      threshold: crop
+        ? {
+            value: crop.s_low_below_lb.value,
+            unit: 'lb S/ac 0-24 in',
+            source: `tables: ${crop.s_low_below_lb.source}`,
+          }
+        : undefined,
+      sFloor: sMethod === 'none' ? 0 : crop?.s_floor_lb.value,
+      sFloorSource:
+        sMethod === 'none'
+          ? "the plan's S strategy is none"
+          : crop
+            ? `tables: ${crop.s_floor_lb.source}`
+            : undefined,
+    },
+    surface
+      ? {
+          values: surface.values,
+          fraction: surface.grid.fraction,
+          cell: surface.grid.cell,
+          note: surface.note,
+        }
+      : undefined,
+  );
+  return variabilityReportCharts(
+    r,
+    samples,
+    field,
+    surface
+      ? {
+          grid: surface.grid,
+          values: surface.values,
+          label: surface.zones ? 'zone sample value' : 'interpolated (IDW)',
+        }
+      : undefined,
+  );
 }

@@ -85,7 +85,13 @@ export function samplingAdvice(s: SamplingInput): SamplingAdvice {
   };
   if (s.noSill) {
     return {
-      n, acresPerSample, spacing, medianNearest: nearest, halfRange, verdict: 'trend', needed: null,
+      n,
+      acresPerSample,
+      spacing,
+      medianNearest: nearest,
+      halfRange,
+      verdict: 'trend',
+      needed: null,
       text: `${base} The semivariogram keeps rising to the largest distance examined: the nutrient changes steadily across the field (a trend) rather than in patches, so the field-scale pattern is resolved; map it, and consider whether landscape position explains it.`,
     };
   }
@@ -93,20 +99,37 @@ export function samplingAdvice(s: SamplingInput): SamplingAdvice {
     // 1 ac grids find boundaries that 4-5 ac grids miss: [published] Franzen, NDSU SF-1176-2 (1999)
     const target = Math.sqrt(4046.8564224); // a 1 ac grid cell
     return {
-      n, acresPerSample, spacing, medianNearest: nearest, halfRange, verdict: 'no-structure',
+      n,
+      acresPerSample,
+      spacing,
+      medianNearest: nearest,
+      halfRange,
+      verdict: 'no-structure',
       needed: acresPerSample > 1 ? resolve(target) : null,
-      text: `${base} The samples show little or no spatial structure at this spacing (${s.dependence === 'weak' ? 'nugget over 75 % of the sill' : 'no model could be fitted'}): either the field is uniform at this scale, or the pattern is finer than ${fmt(Math.max(spacing, s.firstLag))} m. A map from these samples is little better than the field mean.${acresPerSample > 1 ? ' To find out, sample about 1 per acre (' + Math.ceil(s.areaM2 / 4046.8564224) + " samples; NDSU SF-1176-2: 1 ac grids find fertility boundaries that 4-5 ac grids miss)." : ''}`,
+      text: `${base} The samples show little or no spatial structure at this spacing (${s.dependence === 'weak' ? 'nugget over 75 % of the sill' : 'no model could be fitted'}): either the field is uniform at this scale, or the pattern is finer than ${fmt(Math.max(spacing, s.firstLag))} m. A map from these samples is little better than the field mean.${acresPerSample > 1 ? ' To find out, sample about 1 per acre (' + Math.ceil(s.areaM2 / 4046.8564224) + ' samples; NDSU SF-1176-2: 1 ac grids find fertility boundaries that 4-5 ac grids miss).' : ''}`,
     };
   }
   if (spacing <= halfRange) {
     return {
-      n, acresPerSample, spacing, medianNearest: nearest, halfRange, verdict: 'adequate', needed: null,
+      n,
+      acresPerSample,
+      spacing,
+      medianNearest: nearest,
+      halfRange,
+      verdict: 'adequate',
+      needed: null,
       text: `${base} That is within half the effective range (${fmt(halfRange)} m of ${fmt(s.effectiveRange)} m; common practice), so the sampling is dense enough to map the pattern.`,
     };
   }
   const need = resolve(halfRange);
   return {
-    n, acresPerSample, spacing, medianNearest: nearest, halfRange, verdict: 'too-sparse', needed: need,
+    n,
+    acresPerSample,
+    spacing,
+    medianNearest: nearest,
+    halfRange,
+    verdict: 'too-sparse',
+    needed: need,
     text: `${base} That is wider than half the effective range (${fmt(halfRange)} m of ${fmt(s.effectiveRange)} m; common practice), so patches smaller than the spacing can be missed. To resolve the pattern, sample every ${fmt(halfRange)} m or closer: about ${fmt(need.acresPerSample, 1)} ac per sample, ${need.samples} samples for this field.`,
   };
 }

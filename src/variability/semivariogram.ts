@@ -46,8 +46,13 @@ export interface Semivariogram {
  * const v = semivariogram(new Float64Array([0, 0, 10, 0, 0, 10]), [1, 2, 4]);
  * // v.cutoff = sqrt(200) / 3, v.width = v.cutoff / 15
  */
-export function semivariogram(xy: ArrayLike<number>, values: ArrayLike<number>, opts: SemivariogramOptions = {}): Semivariogram {
-  if (xy.length !== 2 * values.length) throw new Error(`semivariogram: ${xy.length} coordinates for ${values.length} values`);
+export function semivariogram(
+  xy: ArrayLike<number>,
+  values: ArrayLike<number>,
+  opts: SemivariogramOptions = {},
+): Semivariogram {
+  if (xy.length !== 2 * values.length)
+    throw new Error(`semivariogram: ${xy.length} coordinates for ${values.length} values`);
   const xs: number[] = [];
   const ys: number[] = [];
   const zs: number[] = [];
@@ -59,7 +64,10 @@ export function semivariogram(xy: ArrayLike<number>, values: ArrayLike<number>, 
     zs.push(z);
   }
   const n = zs.length;
-  let xmin = Infinity, xmax = -Infinity, ymin = Infinity, ymax = -Infinity;
+  let xmin = Infinity,
+    xmax = -Infinity,
+    ymin = Infinity,
+    ymax = -Infinity;
   for (let i = 0; i < n; i++) {
     if (xs[i] < xmin) xmin = xs[i];
     if (xs[i] > xmax) xmax = xs[i];
@@ -70,7 +78,8 @@ export function semivariogram(xy: ArrayLike<number>, values: ArrayLike<number>, 
   // gstat: a zero diagonal gives a cutoff of 1
   const cutoff = opts.cutoff ?? (bboxDiagonal === 0 ? 1 : bboxDiagonal / 3);
   const width = opts.width ?? cutoff / 15;
-  if (!(cutoff > 0) || !(width > 0)) throw new Error(`semivariogram: cutoff ${cutoff} and width ${width} must be positive`);
+  if (!(cutoff > 0) || !(width > 0))
+    throw new Error(`semivariogram: cutoff ${cutoff} and width ${width} must be positive`);
 
   const nLags = Math.floor(cutoff / width) + 1;
   const sumSq = new Float64Array(nLags);

@@ -23,42 +23,74 @@ export function variabilityText(r: VariabilityReport): string {
   L.push(`Within-field variability of ${r.label}, ${r.unit}`);
   L.push('');
   L.push('Statistics');
-  L.push(`  samples tested  ${s.n}${s.censoredBelow ? `  (${s.censoredBelow} below detection)` : ''}${s.censoredAbove ? `  (${s.censoredAbove} above range)` : ''}`);
-  L.push(`  mean ${f(s.mean)}   median ${f(s.median)}   SD ${f(s.sd)}   CV ${f(100 * s.cv, 0)} %   min ${f(s.min)}   max ${f(s.max)}`);
+  L.push(
+    `  samples tested  ${s.n}${s.censoredBelow ? `  (${s.censoredBelow} below detection)` : ''}${s.censoredAbove ? `  (${s.censoredAbove} above range)` : ''}`,
+  );
+  L.push(
+    `  mean ${f(s.mean)}   median ${f(s.median)}   SD ${f(s.sd)}   CV ${f(100 * s.cv, 0)} %   min ${f(s.min)}   max ${f(s.max)}`,
+  );
   if (r.threshold) {
-    L.push(`  threshold       ${r.threshold.value} ${r.threshold.unit} ("low" is ${r.threshold.inclusive ? 'at or below' : 'below'} it)`);
+    L.push(
+      `  threshold       ${r.threshold.value} ${r.threshold.unit} ("low" is ${r.threshold.inclusive ? 'at or below' : 'below'} it)`,
+    );
     L.push(wrap(`source: ${r.threshold.source}`, '                  '));
     const sb = r.shareBelow;
- if (sb) L.push(wrap(`  below it        ${f(100 * sb.samples, 0)} % of samples; ${sb.area === null ? 'share of the mapped area: not computed (no surface)' : `${f(100 * sb.area, 0)} % of the mapped area (${f(sb.areaAc ?? NaN)} ac; ${sb.surface})`}`, '                  '));
+    if (sb)
+      L.push(
+        wrap(
+          `  below it        ${f(100 * sb.samples, 0)} % of samples; ${sb.area === null ? 'share of the mapped area: not computed (no surface)' : `${f(100 * sb.area, 0)} % of the mapped area (${f(sb.areaAc ?? NaN)} ac; ${sb.surface})`}`,
+          '                  ',
+        ),
+      );
   } else {
     L.push('  threshold       none for this nutrient (give --threshold to mark low spots)');
   }
   L.push('');
   const v = r.semivariogram;
-  L.push(`Semivariogram${r.transform === 'log' ? ' of ln(value)' : ''} (Matheron; ${v.lag.length} lags of ${f(v.width, 0)} m up to ${f(v.cutoff, 0)} m, a third of the samples' bounding-box diagonal unless set)`);
-  L.push(`  ${lpad('lag', 3)}  ${lpad('from-to m', 13)}  ${lpad('pairs', 5)}  ${lpad('mean dist m', 11)}  ${lpad('semivariance', 12)}`);
+  L.push(
+    `Semivariogram${r.transform === 'log' ? ' of ln(value)' : ''} (Matheron; ${v.lag.length} lags of ${f(v.width, 0)} m up to ${f(v.cutoff, 0)} m, a third of the samples' bounding-box diagonal unless set)`,
+  );
+  L.push(
+    `  ${lpad('lag', 3)}  ${lpad('from-to m', 13)}  ${lpad('pairs', 5)}  ${lpad('mean dist m', 11)}  ${lpad('semivariance', 12)}`,
+  );
   for (let j = 0; j < v.lag.length; j++) {
     const k = v.lag[j];
     const few = v.np[j] < 30 ? '  < 30 pairs' : '';
-    L.push(`  ${lpad(String(k + 1), 3)}  ${lpad(`${f(k * v.width, 0)}-${f(Math.min((k + 1) * v.width, v.cutoff), 0)}`, 13)}  ${lpad(String(v.np[j]), 5)}  ${lpad(f(v.dist[j], 1), 11)}  ${lpad(g(v.gamma[j]), 12)}${few}`);
+    L.push(
+      `  ${lpad(String(k + 1), 3)}  ${lpad(`${f(k * v.width, 0)}-${f(Math.min((k + 1) * v.width, v.cutoff), 0)}`, 13)}  ${lpad(String(v.np[j]), 5)}  ${lpad(f(v.dist[j], 1), 11)}  ${lpad(g(v.gamma[j]), 12)}${few}`,
+    );
   }
   L.push('');
   const method = r.fits[0]?.method ?? 7;
-  L.push(`Model fits (weighted least squares, weights ${method === 7 ? 'N_j / h_j^2 (gstat fit.method 7)' : method === 2 ? 'N_j / gamma(h_j)^2 (Cressie; gstat fit.method 2)' : `gstat fit.method ${method}`})`);
-  L.push(`  ${pad('model', 17)} ${lpad('nugget', 9)} ${lpad('p. sill', 9)} ${lpad('sill', 9)} ${lpad('range a m', 10)} ${lpad('eff. range m', 12)} ${lpad('nugget/sill', 11)}  note`);
+  L.push(
+    `Model fits (weighted least squares, weights ${method === 7 ? 'N_j / h_j^2 (gstat fit.method 7)' : method === 2 ? 'N_j / gamma(h_j)^2 (Cressie; gstat fit.method 2)' : `gstat fit.method ${method}`})`,
+  );
+  L.push(
+    `  ${pad('model', 17)} ${lpad('nugget', 9)} ${lpad('p. sill', 9)} ${lpad('sill', 9)} ${lpad('range a m', 10)} ${lpad('eff. range m', 12)} ${lpad('nugget/sill', 11)}  note`,
+  );
   for (const m of r.fits) {
     if (!m.ok) {
       L.push(`  ${pad(m.kind, 17)} no usable fit: ${m.problem}`);
       continue;
     }
     const best = m === r.best ? 'best fit' : '';
-    const notes = [best, m.nuggetFixedAtZero ? 'nugget fixed at 0' : '', m.rangeAtLimit ? 'no sill reached' : ''].filter(Boolean).join('; ');
-    L.push(`  ${pad(`${m.kind} (${GSTAT_NAME[m.kind]})`, 17)} ${lpad(g(m.nugget), 9)} ${lpad(g(m.psill), 9)} ${lpad(g(m.sill), 9)} ${lpad(f(m.range, 0), 10)} ${lpad(f(m.effectiveRange, 0), 12)} ${lpad(f((100 * m.nugget) / m.sill, 0) + ' %', 11)}  ${notes}`);
+    const notes = [
+      best,
+      m.nuggetFixedAtZero ? 'nugget fixed at 0' : '',
+      m.rangeAtLimit ? 'no sill reached' : '',
+    ]
+      .filter(Boolean)
+      .join('; ');
+    L.push(
+      `  ${pad(`${m.kind} (${GSTAT_NAME[m.kind]})`, 17)} ${lpad(g(m.nugget), 9)} ${lpad(g(m.psill), 9)} ${lpad(g(m.sill), 9)} ${lpad(f(m.range, 0), 10)} ${lpad(f(m.effectiveRange, 0), 12)} ${lpad(f((100 * m.nugget) / m.sill, 0) + ' %', 11)}  ${notes}`,
+    );
   }
   if (r.best) L.push(`  Range: ${RANGE_NOTE[r.best.kind]}.`);
   L.push('');
   if (r.dependence && r.best) {
-    L.push(`Spatial dependence: ${r.dependence.class.toUpperCase()} (nugget / sill ${f(100 * r.dependence.ratio, 0)} %; < 25 % strong, 25-75 % moderate, > 75 % weak: Cambardella et al. 1994, Soil Sci. Soc. Am. J. 58:1501-1511)`);
+    L.push(
+      `Spatial dependence: ${r.dependence.class.toUpperCase()} (nugget / sill ${f(100 * r.dependence.ratio, 0)} %; < 25 % strong, 25-75 % moderate, > 75 % weak: Cambardella et al. 1994, Soil Sci. Soc. Am. J. 58:1501-1511)`,
+    );
   } else {
     L.push('Spatial dependence: not determined (no model fitted)');
   }
@@ -67,13 +99,24 @@ export function variabilityText(r: VariabilityReport): string {
   L.push(wrap(r.sampling.text, '  '));
   L.push('');
   if (r.threshold) {
-    L.push(`Low spots (${r.threshold.inclusive ? 'at or below' : 'below'} ${r.threshold.value} ${r.unit}):${r.low.length ? '' : ' none among the samples'}`);
-    for (const l of r.low) L.push(`  ${pad(l.id, 10)} ${lpad(f(l.value), 7)} ${r.unit}${l.censored < 0 ? ' (below detection; half the limit used)' : l.censored > 0 ? ' (above range)' : ''}   lat ${f(l.lat, 6)} lon ${f(l.lon, 6)}  (UTM ${f(l.x, 0)} E, ${f(l.y, 0)} N)`);
+    L.push(
+      `Low spots (${r.threshold.inclusive ? 'at or below' : 'below'} ${r.threshold.value} ${r.unit}):${r.low.length ? '' : ' none among the samples'}`,
+    );
+    for (const l of r.low)
+      L.push(
+        `  ${pad(l.id, 10)} ${lpad(f(l.value), 7)} ${r.unit}${l.censored < 0 ? ' (below detection; half the limit used)' : l.censored > 0 ? ' (above range)' : ''}   lat ${f(l.lat, 6)} lon ${f(l.lon, 6)}  (UTM ${f(l.x, 0)} E, ${f(l.y, 0)} N)`,
+      );
     L.push('');
   }
   if (r.sulphur) {
     const su = r.sulphur;
-    if (su.marginal.length) L.push(wrap(`Marginal (${r.threshold?.value}-${su.marginalUpper} lb S/ac, where canola may still respond): ${su.marginal.map((m) => `${m.id} ${f(m.value)}`).join(', ')}`, ''));
+    if (su.marginal.length)
+      L.push(
+        wrap(
+          `Marginal (${r.threshold?.value}-${su.marginalUpper} lb S/ac, where canola may still respond): ${su.marginal.map((m) => `${m.id} ${f(m.value)}`).join(', ')}`,
+          '',
+        ),
+      );
     L.push(wrap(su.notLowIsUncertain, ''));
     L.push(wrap(su.compositeText, ''));
     L.push(wrap(su.floorText, ''));

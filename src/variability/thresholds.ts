@@ -29,10 +29,25 @@ export function defaultThreshold(analyte: Analyte, pMethod: PMethod = 'olsen'): 
       };
     case 'p':
       return pMethod === 'olsen'
-        ? { value: 10, inclusive: true, unit: 'ppm Olsen P 0-6 in', source: '[published] Canola Council of Canada, Canola Encyclopedia: "low" is <= 10 ppm Olsen P' }
-        : { value: 17, inclusive: true, unit: 'ppm modified Kelowna P 0-6 in', source: '[published] Canola Council of Canada, Canola Encyclopedia: "low" is <= 17 ppm modified Kelowna P' };
+        ? {
+            value: 10,
+            inclusive: true,
+            unit: 'ppm Olsen P 0-6 in',
+            source: '[published] Canola Council of Canada, Canola Encyclopedia: "low" is <= 10 ppm Olsen P',
+          }
+        : {
+            value: 17,
+            inclusive: true,
+            unit: 'ppm modified Kelowna P 0-6 in',
+            source:
+              '[published] Canola Council of Canada, Canola Encyclopedia: "low" is <= 17 ppm modified Kelowna P',
+          };
     case 'k':
-      return { value: 125, unit: 'ppm K 0-6 in', source: 'common practice: critical level about 125 ppm ammonium acetate K' };
+      return {
+        value: 125,
+        unit: 'ppm K 0-6 in',
+        source: 'common practice: critical level about 125 ppm ammonium acetate K',
+      };
     default:
       return null;
   }

@@ -9,9 +9,12 @@ import { pointInRing, ringArea } from '../geo/area.js';
 import type { RasterFrame } from './trace.js';
 
 // directions: 0 east, 1 north, 2 west, 3 south (j counts rows downwards); cell ahead-left / ahead-right
-const DI = [1, 0, -1, 0], DJ = [0, -1, 0, 1];
-const LCX = [0, -1, -1, 0], LCY = [-1, -1, 0, 0];
-const RCX = [0, 0, -1, -1], RCY = [0, -1, -1, 0];
+const DI = [1, 0, -1, 0],
+  DJ = [0, -1, 0, 1];
+const LCX = [0, -1, -1, 0],
+  LCY = [-1, -1, 0, 0];
+const RCX = [0, 0, -1, -1],
+  RCY = [0, -1, -1, 0];
 
 /** The arcs of a zone raster and each zone's rings as arcs. */
 export interface ZoneArcs {
@@ -38,11 +41,16 @@ export interface ZoneArcs {
  */
 export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneArcs {
   const { cols, rows } = f;
-  const W = cols + 1, V = W * (rows + 1);
+  const W = cols + 1,
+    V = W * (rows + 1);
   const lab = (c: number, r: number) => (c < 0 || r < 0 || c >= cols || r >= rows ? -1 : zone[r * cols + c]);
   const isJunction = (key: number): boolean => {
-    const j = Math.floor(key / W), i = key - j * W;
-    const a = lab(i - 1, j - 1), b = lab(i, j - 1), c = lab(i - 1, j), d = lab(i, j);
+    const j = Math.floor(key / W),
+      i = key - j * W;
+    const a = lab(i - 1, j - 1),
+      b = lab(i, j - 1),
+      c = lab(i - 1, j),
+      d = lab(i, j);
     if (a === d && b === c) return a !== b; // saddle (or no border at all)
     let k = 1;
     if (b !== a) k++;
@@ -51,18 +59,32 @@ export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneA
     return k >= 3;
   };
   const rightOf = (p: number, q: number): number => {
-    const j0 = Math.floor(p / W), i0 = p - j0 * W, j1 = Math.floor(q / W), i1 = q - j1 * W;
+    const j0 = Math.floor(p / W),
+      i0 = p - j0 * W,
+      j1 = Math.floor(q / W),
+      i1 = q - j1 * W;
     if (i1 > i0) return lab(i0, j0);
     if (i1 < i0) return lab(i1, j0 - 1);
     if (j1 < j0) return lab(i0, j1);
     return lab(i0 - 1, j0);
   };
-  const out: ZoneArcs = { W, arcs: [], fixed: [], closed: [], left: [], right: [], rings: Array.from({ length: count }, () => []) };
-  const byEdge = new Map<number, number>(), byNode = new Map<number, number>();
+  const out: ZoneArcs = {
+    W,
+    arcs: [],
+    fixed: [],
+    closed: [],
+    left: [],
+    right: [],
+    rings: Array.from({ length: count }, () => []),
+  };
+  const byEdge = new Map<number, number>(),
+    byNode = new Map<number, number>();
   const ek = (a: number, b: number) => (a < b ? a * V + b : b * V + a);
   const register = (nodes: number[], closed: boolean, z: number): number => {
     const n = nodes.length;
-    const key = closed ? Math.min(...nodes) : Math.min(ek(nodes[0], nodes[1]), ek(nodes[n - 2], nodes[n - 1]));
+    const key = closed
+      ? Math.min(...nodes)
+      : Math.min(ek(nodes[0], nodes[1]), ek(nodes[n - 2], nodes[n - 1]));
     const map = closed ? byNode : byEdge;
     const found = map.get(key);
     if (found !== undefined) return -(found + 1); // the neighbour walked it the other way
@@ -90,7 +112,8 @@ export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneA
     }
     const refs: number[] = [];
     for (let q = 0; q < js.length; q++) {
-      const a = js[q], b = q + 1 < js.length ? js[q + 1] : js[0] + m;
+      const a = js[q],
+        b = q + 1 < js.length ? js[q + 1] : js[0] + m;
       const nodes: number[] = [];
       for (let t = a; t <= b; t++) nodes.push(loop[t % m]);
       refs.push(register(nodes, false, z));
@@ -119,12 +142,18 @@ function walkLoops(zone: Int32Array, count: number, f: RasterFrame): [number, nu
     for (let c = 0; c < cols; c++) {
       const L = zone[r * cols + c];
       if (L < 0 || L >= count || lab(c, r - 1) === L || visited[r * W + c + 1]) continue;
-      const i0 = c + 1, j0 = r, d0 = 2;
-      let i = i0, j = j0, d = d0, saddles = 0;
+      const i0 = c + 1,
+        j0 = r,
+        d0 = 2;
+      let i = i0,
+        j = j0,
+        d = d0,
+        saddles = 0;
       const nodes: number[] = [];
       for (;;) {
         if (d === 2) visited[j * W + i] = 1;
-        i += DI[d]; j += DJ[d];
+        i += DI[d];
+        j += DJ[d];
         nodes.push(j * W + i);
         const la = lab(i + LCX[d], j + LCY[d]);
         if (la !== L) {
@@ -181,7 +210,8 @@ export function arcsToParts(a: ZoneArcs, arcs: number[][], f: RasterFrame): Ring
     else {
       shells.sort((p, q) => p.area - q.area);
       for (const h of holes) {
-        const px = (h[0] + h[2]) / 2, py = (h[1] + h[3]) / 2;
+        const px = (h[0] + h[2]) / 2,
+          py = (h[1] + h[3]) / 2;
         const s = shells.find((s) => pointInRing(s.ring, px, py));
         (s ?? shells[shells.length - 1]).holes.push(h);
       }
@@ -217,9 +247,15 @@ function straightDropped(keys: number[], W: number): number[] {
   if (n < 4) return keys;
   const out: number[] = [];
   for (let t = 0; t < n; t++) {
-    const a = keys[(t + n - 1) % n], b = keys[t], c = keys[(t + 1) % n];
-    const ja = Math.floor(a / W), jb = Math.floor(b / W), jc = Math.floor(c / W);
-    const ax = a - ja * W, bx = b - jb * W, cx = c - jc * W;
+    const a = keys[(t + n - 1) % n],
+      b = keys[t],
+      c = keys[(t + 1) % n];
+    const ja = Math.floor(a / W),
+      jb = Math.floor(b / W),
+      jc = Math.floor(c / W);
+    const ax = a - ja * W,
+      bx = b - jb * W,
+      cx = c - jc * W;
     const cross = (bx - ax) * (jc - jb) - (jb - ja) * (cx - bx);
     const dot = (bx - ax) * (cx - bx) + (jb - ja) * (jc - jb);
     if (cross === 0 && dot > 0) continue;
@@ -232,7 +268,8 @@ function keysToRing(keys: number[], W: number, f: RasterFrame): Float64Array {
   const n = keys.length;
   const out = new Float64Array(2 * n + 2);
   for (let t = 0; t < n; t++) {
-    const j = Math.floor(keys[t] / W), i = keys[t] - j * W;
+    const j = Math.floor(keys[t] / W),
+      i = keys[t] - j * W;
     out[2 * t] = f.xmin + i * f.cell;
     out[2 * t + 1] = f.ymax - j * f.cell;
   }

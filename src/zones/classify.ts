@@ -45,14 +45,28 @@ export interface Classes {
 }
 
 /** Weighted, sorted summary of the finite values: exact distinct values, or binned. */
-interface Summary { v: Float64Array; w: Float64Array; hi: Float64Array; min: number; max: number }
+interface Summary {
+  v: Float64Array;
+  w: Float64Array;
+  hi: Float64Array;
+  min: number;
+  max: number;
+}
 
-function summarize(values: ArrayLike<number>, weights: ArrayLike<number> | undefined, bins: number): Summary | null {
-  let min = Infinity, max = -Infinity;
+function summarize(
+  values: ArrayLike<number>,
+  weights: ArrayLike<number> | undefined,
+  bins: number,
+): Summary | null {
+  let min = Infinity,
+    max = -Infinity;
   const n = values.length;
   for (let i = 0; i < n; i++) {
     const x = values[i];
-    if (x === x && (weights === undefined || weights[i] > 0)) { if (x < min) min = x; if (x > max) max = x; }
+    if (x === x && (weights === undefined || weights[i] > 0)) {
+      if (x < min) min = x;
+      if (x > max) max = x;
+    }
   }
   if (min === Infinity) return null;
   // try exact distinct values first
@@ -68,10 +82,13 @@ function summarize(values: ArrayLike<number>, weights: ArrayLike<number> | undef
   }
   if (exact) {
     const keys = [...distinct.keys()].sort((a, b) => a - b);
-    const v = Float64Array.from(keys), w = Float64Array.from(keys, (k) => distinct.get(k)!);
+    const v = Float64Array.from(keys),
+      w = Float64Array.from(keys, (k) => distinct.get(k)!);
     return { v, w, hi: v, min, max };
   }
-  const sw = new Float64Array(bins), sv = new Float64Array(bins), bh = new Float64Array(bins).fill(-Infinity);
+  const sw = new Float64Array(bins),
+    sv = new Float64Array(bins),
+    bh = new Float64Array(bins).fill(-Infinity);
   const scale = bins / (max - min);
   for (let i = 0; i < n; i++) {
     const x = values[i];
@@ -79,12 +96,22 @@ function summarize(values: ArrayLike<number>, weights: ArrayLike<number> | undef
     const wi = weights === undefined ? 1 : weights[i];
     if (!(wi > 0)) continue;
     const b = Math.min(bins - 1, Math.floor((x - min) * scale));
-    sw[b] += wi; sv[b] += wi * x; if (x > bh[b]) bh[b] = x;
+    sw[b] += wi;
+    sv[b] += wi * x;
+    if (x > bh[b]) bh[b] = x;
   }
   let m = 0;
   for (let b = 0; b < bins; b++) if (sw[b] > 0) m++;
-  const v = new Float64Array(m), w = new Float64Array(m), hi = new Float64Array(m);
-  for (let b = 0, j = 0; b < bins; b++) if (sw[b] > 0) { v[j] = sv[b] / sw[b]; w[j] = sw[b]; hi[j] = bh[b]; j++; }
+  const v = new Float64Array(m),
+    w = new Float64Array(m),
+    hi = new Float64Array(m);
+  for (let b = 0, j = 0; b < bins; b++)
+    if (sw[b] > 0) {
+      v[j] = sv[b] / sw[b];
+      w[j] = sw[b];
+      hi[j] = bh[b];
+      j++;
+    }
   return { v, w, hi, min, max };
 }
 
@@ -93,14 +120,29 @@ function summarize(values: ArrayLike<number>, weights: ArrayLike<number> | undef
  * weights `w`, largest raw value of each entry `hi`); O(k m log m).
  * @example jenksUppers([1, 2, 3, 10, 11, 12], [1, 1, 1, 1, 1, 1], [1, 2, 3, 10, 11, 12], 2) // [3]
  */
-export function jenksUppers(v: ArrayLike<number>, w: ArrayLike<number>, hi: ArrayLike<number>, k: number): number[] {
+export function jenksUppers(
+  v: ArrayLike<number>,
+  w: ArrayLike<number>,
+  hi: ArrayLike<number>,
+  k: number,
+): number[] {
   const m = v.length;
   if (k <= 1 || m <= 1) return [];
   k = Math.min(k, m);
-  const W = new Float64Array(m + 1), S = new Float64Array(m + 1), Q = new Float64Array(m + 1);
-  for (let i = 0; i < m; i++) { W[i + 1] = W[i] + w[i]; S[i + 1] = S[i] + w[i] * v[i]; Q[i + 1] = Q[i] + w[i] * v[i] * v[i]; }
+  const W = new Float64Array(m + 1),
+    S = new Float64Array(m + 1),
+    Q = new Float64Array(m + 1);
+  for (let i = 0; i < m; i++) {
+    W[i + 1] = W[i] + w[i];
+    S[i + 1] = S[i] + w[i] * v[i];
+    Q[i + 1] = Q[i] + w[i] * v[i] * v[i];
+  }
   // ssd of items a..b-1
-  const ssd = (a: number, b: number) => { const ww = W[b] - W[a], s = S[b] - S[a]; return Math.max(0, Q[b] - Q[a] - (s * s) / ww); };
+  const ssd = (a: number, b: number) => {
+    const ww = W[b] - W[a],
+      s = S[b] - S[a];
+    return Math.max(0, Q[b] - Q[a] - (s * s) / ww);
+  };
   let prev = new Float64Array(m + 1);
   for (let j = 1; j <= m; j++) prev[j] = ssd(0, j);
   const back: Int32Array[] = [];
@@ -112,12 +154,17 @@ export function jenksUppers(v: ArrayLike<number>, w: ArrayLike<number>, hi: Arra
     const solve = (jlo: number, jhi: number, ilo: number, ihi: number) => {
       if (jlo > jhi) return;
       const j = (jlo + jhi) >> 1;
-      let best = Infinity, arg = Math.max(c - 1, ilo);
+      let best = Infinity,
+        arg = Math.max(c - 1, ilo);
       for (let i = Math.max(c - 1, ilo); i <= Math.min(j - 1, ihi); i++) {
         const t = prev[i] + ssd(i, j);
-        if (t < best) { best = t; arg = i; }
+        if (t < best) {
+          best = t;
+          arg = i;
+        }
       }
-      cur[j] = best; bk[j] = arg;
+      cur[j] = best;
+      bk[j] = arg;
       solve(jlo, j - 1, ilo, arg);
       solve(j + 1, jhi, arg, ihi);
     };
@@ -127,7 +174,11 @@ export function jenksUppers(v: ArrayLike<number>, w: ArrayLike<number>, hi: Arra
   }
   const uppers: number[] = [];
   let j = m;
-  for (let c = k; c >= 2; c--) { const i = back[c - 2][j]; uppers.push(hi[i - 1]); j = i; }
+  for (let c = k; c >= 2; c--) {
+    const i = back[c - 2][j];
+    uppers.push(hi[i - 1]);
+    j = i;
+  }
   return uppers.reverse();
 }
 
@@ -141,22 +192,34 @@ export function kmeans1d(v: ArrayLike<number>, w: ArrayLike<number>, k: number, 
   let total = 0;
   for (let i = 0; i < m; i++) total += w[i];
   const c: number[] = [];
-  let acc = 0, q = 0;
+  let acc = 0,
+    q = 0;
   for (let i = 0; i < m && q < k; i++) {
     acc += w[i];
-    while (q < k && acc >= ((q + 0.5) / k) * total) { c.push(v[i]); q++; }
+    while (q < k && acc >= ((q + 0.5) / k) * total) {
+      c.push(v[i]);
+      q++;
+    }
   }
   const centres = [...new Set(c)];
   for (let it = 0; it < maxIter; it++) {
-    const sw = new Float64Array(centres.length), sv = new Float64Array(centres.length);
+    const sw = new Float64Array(centres.length),
+      sv = new Float64Array(centres.length);
     let j = 0;
     for (let i = 0; i < m; i++) {
       while (j + 1 < centres.length && Math.abs(v[i] - centres[j + 1]) < Math.abs(v[i] - centres[j])) j++;
-      sw[j] += w[i]; sv[j] += w[i] * v[i];
+      sw[j] += w[i];
+      sv[j] += w[i] * v[i];
     }
     let moved = false;
     for (let t = 0; t < centres.length; t++) {
-      if (sw[t] > 0) { const nc = sv[t] / sw[t]; if (nc !== centres[t]) { moved = true; centres[t] = nc; } }
+      if (sw[t] > 0) {
+        const nc = sv[t] / sw[t];
+        if (nc !== centres[t]) {
+          moved = true;
+          centres[t] = nc;
+        }
+      }
     }
     centres.sort((a, b) => a - b);
     if (!moved) break;
@@ -202,10 +265,14 @@ export function classify(values: ArrayLike<number>, opts: ClassifyOptions = {}):
     let total = 0;
     for (let i = 0; i < s.w.length; i++) total += s.w[i];
     uppers = [];
-    let acc = 0, q = 1;
+    let acc = 0,
+      q = 1;
     for (let i = 0; i < s.v.length && q < k; i++) {
       acc += s.w[i];
-      while (q < k && acc >= (q / k) * total - 1e-12 * total) { uppers.push(s.hi[i]); q++; }
+      while (q < k && acc >= (q / k) * total - 1e-12 * total) {
+        uppers.push(s.hi[i]);
+        q++;
+      }
     }
   } else if (method === 'jenks') {
     uppers = jenksUppers(s.v, s.w, s.hi, k);
@@ -219,23 +286,36 @@ export function classify(values: ArrayLike<number>, opts: ClassifyOptions = {}):
   uppers = [...new Set(uppers.filter((u) => u >= s.min && u < s.max))].sort((a, b) => a - b);
   const bounds = [...uppers, Infinity];
   const raw = new Int16Array(n).fill(-1);
-  const cw = new Float64Array(bounds.length), cv = new Float64Array(bounds.length);
+  const cw = new Float64Array(bounds.length),
+    cv = new Float64Array(bounds.length);
   for (let i = 0; i < n; i++) {
     const x = values[i];
     if (x !== x) continue;
     const wi = weights === undefined ? 1 : weights[i];
     if (weights !== undefined && !(wi > 0)) continue;
-    let lo = 0, hi = bounds.length - 1;
-    while (lo < hi) { const mid = (lo + hi) >> 1; if (x <= bounds[mid]) hi = mid; else lo = mid + 1; }
-    raw[i] = lo; cw[lo] += wi; cv[lo] += wi * x;
+    let lo = 0,
+      hi = bounds.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (x <= bounds[mid]) hi = mid;
+      else lo = mid + 1;
+    }
+    raw[i] = lo;
+    cw[lo] += wi;
+    cv[lo] += wi * x;
   }
   // drop empty classes
   const remap = new Int16Array(bounds.length).fill(-1);
-  const breaks = [s.min], mean: number[] = [], value: number[] = [], weight: number[] = [];
+  const breaks = [s.min],
+    mean: number[] = [],
+    value: number[] = [],
+    weight: number[] = [];
   for (let c = 0; c < bounds.length; c++) {
     if (cw[c] > 0) {
       remap[c] = mean.length;
-      mean.push(cv[c] / cw[c]); value.push(roundTo(cv[c] / cw[c], step)); weight.push(cw[c]);
+      mean.push(cv[c] / cw[c]);
+      value.push(roundTo(cv[c] / cw[c], step));
+      weight.push(cw[c]);
       breaks.push(c === bounds.length - 1 ? s.max : bounds[c]);
     } else if (mean.length > 0 && c < bounds.length - 1) {
       breaks[breaks.length - 1] = bounds[c];
@@ -256,7 +336,6 @@ export interface VectorClasses {
   weight: number[];
 }
 
-
 /**
  * k-means on standardized vectors: each dimension (e.g. the N, P2O5 and S targets of one pass) is
  * centred and divided by its area-weighted standard deviation, so no nutrient dominates by its units.
@@ -270,7 +349,14 @@ export interface VectorClasses {
  */
 export function classifyVectors(
   dims: ArrayLike<number>[],
-  opts: { classes?: number; steps?: number[]; weights?: ArrayLike<number>; sample?: number; seed?: number; maxIter?: number } = {},
+  opts: {
+    classes?: number;
+    steps?: number[];
+    weights?: ArrayLike<number>;
+    sample?: number;
+    seed?: number;
+    maxIter?: number;
+  } = {},
 ): VectorClasses {
   const d = dims.length;
   if (d === 0) throw new RangeError('classifyVectors needs at least one dimension');
@@ -280,7 +366,10 @@ export function classifyVectors(
   // the cells with a weight and a value in every dimension, as one flat array (millions of cells)
   const isValid = (i: number): boolean => {
     if (weights !== undefined && !(weights[i] > 0)) return false;
-    for (let j = 0; j < d; j++) { const x = dims[j][i]; if (x !== x) return false; }
+    for (let j = 0; j < d; j++) {
+      const x = dims[j][i];
+      if (x !== x) return false;
+    }
     return true;
   };
   let nValid = 0;
@@ -289,12 +378,23 @@ export function classifyVectors(
   for (let i = 0, t = 0; i < n; i++) if (isValid(i)) valid[t++] = i;
   const classOf = new Int16Array(n).fill(-1);
   if (valid.length === 0) return { classOf, count: 0, mean: [], value: [], weight: [] };
-  const mu = new Float64Array(d), sd = new Float64Array(d);
+  const mu = new Float64Array(d),
+    sd = new Float64Array(d);
   let tw = 0;
-  for (const i of valid) { const wi = weights ? weights[i] : 1; tw += wi; for (let j = 0; j < d; j++) mu[j] += wi * dims[j][i]; }
+  for (const i of valid) {
+    const wi = weights ? weights[i] : 1;
+    tw += wi;
+    for (let j = 0; j < d; j++) mu[j] += wi * dims[j][i];
+  }
   for (let j = 0; j < d; j++) mu[j] /= tw;
-  for (const i of valid) { const wi = weights ? weights[i] : 1; for (let j = 0; j < d; j++) sd[j] += wi * (dims[j][i] - mu[j]) ** 2; }
-  for (let j = 0; j < d; j++) { sd[j] = Math.sqrt(sd[j] / tw); if (!(sd[j] > 0)) sd[j] = 1; }
+  for (const i of valid) {
+    const wi = weights ? weights[i] : 1;
+    for (let j = 0; j < d; j++) sd[j] += wi * (dims[j][i] - mu[j]) ** 2;
+  }
+  for (let j = 0; j < d; j++) {
+    sd[j] = Math.sqrt(sd[j] / tw);
+    if (!(sd[j] > 0)) sd[j] = 1;
+  }
   const z = (i: number, j: number) => (dims[j][i] - mu[j]) / sd[j];
   const rnd = mulberry32(opts.seed ?? 1);
   const m = Math.min(valid.length, opts.sample ?? 20000);
@@ -316,33 +416,53 @@ export function classifyVectors(
       sum += dist[s];
     }
     if (!(sum > 0)) break;
-    let r = rnd() * sum, pick = sample.length - 1;
-    for (let s = 0; s < sample.length; s++) { r -= dist[s]; if (r <= 0) { pick = s; break; } }
+    let r = rnd() * sum,
+      pick = sample.length - 1;
+    for (let s = 0; s < sample.length; s++) {
+      r -= dist[s];
+      if (r <= 0) {
+        pick = s;
+        break;
+      }
+    }
     cent.push(Float64Array.from({ length: d }, (_, j) => z(sample[pick], j)));
   }
   const nearest = (i: number) => {
-    let best = Infinity, arg = 0;
+    let best = Infinity,
+      arg = 0;
     for (let c = 0; c < cent.length; c++) {
       let dd = 0;
       for (let j = 0; j < d; j++) dd += (z(i, j) - cent[c][j]) ** 2;
-      if (dd < best) { best = dd; arg = c; }
+      if (dd < best) {
+        best = dd;
+        arg = c;
+      }
     }
     return arg;
   };
   for (let it = 0; it < (opts.maxIter ?? 50); it++) {
     const acc = cent.map(() => new Float64Array(d + 1));
-    for (const i of sample) { const c = nearest(i); for (let j = 0; j < d; j++) acc[c][j] += z(i, j); acc[c][d] += 1; }
+    for (const i of sample) {
+      const c = nearest(i);
+      for (let j = 0; j < d; j++) acc[c][j] += z(i, j);
+      acc[c][d] += 1;
+    }
     let moved = 0;
     for (let c = 0; c < cent.length; c++) {
       if (acc[c][d] === 0) continue;
-      for (let j = 0; j < d; j++) { const v = acc[c][j] / acc[c][d]; moved += Math.abs(v - cent[c][j]); cent[c][j] = v; }
+      for (let j = 0; j < d; j++) {
+        const v = acc[c][j] / acc[c][d];
+        moved += Math.abs(v - cent[c][j]);
+        cent[c][j] = v;
+      }
     }
     if (moved < 1e-9) break;
   }
   const order = cent.map((c, idx) => ({ idx, s: c.reduce((a, b) => a + b, 0) })).sort((a, b) => a.s - b.s);
   const rank = new Int16Array(cent.length);
   order.forEach((o, r) => (rank[o.idx] = r));
-  const sw = new Float64Array(cent.length), sm = cent.map(() => new Float64Array(d));
+  const sw = new Float64Array(cent.length),
+    sm = cent.map(() => new Float64Array(d));
   for (const i of valid) {
     const c = rank[nearest(i)];
     classOf[i] = c;
@@ -352,7 +472,9 @@ export function classifyVectors(
   }
   // drop empty classes
   const remap = new Int16Array(cent.length).fill(-1);
-  const mean: number[][] = [], value: number[][] = [], weight: number[] = [];
+  const mean: number[][] = [],
+    value: number[][] = [],
+    weight: number[] = [];
   for (let c = 0; c < cent.length; c++) {
     if (!(sw[c] > 0)) continue;
     remap[c] = mean.length;

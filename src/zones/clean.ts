@@ -14,9 +14,15 @@ import { M2_PER_AC } from '../units/index.js';
  * @param speedKmh travel speed, km/h
  * @example minZoneAreaM2({ swathM: 18.3, speedKmh: 8 }) // max(18.3 x 8.89, 2023.4) = 2023.4 m2 (0.5 ac)
  */
-export function minZoneAreaM2(opts: { swathM: number; speedKmh: number; changeSeconds?: number; floorAc?: number }): number {
+export function minZoneAreaM2(opts: {
+  swathM: number;
+  speedKmh: number;
+  changeSeconds?: number;
+  floorAc?: number;
+}): number {
   const { swathM, speedKmh } = opts;
-  if (!(swathM > 0) || !(speedKmh > 0)) throw new RangeError(`swath (${swathM} m) and speed (${speedKmh} km/h) must be positive`);
+  if (!(swathM > 0) || !(speedKmh > 0))
+    throw new RangeError(`swath (${swathM} m) and speed (${speedKmh} km/h) must be positive`);
   const travel = (speedKmh / 3.6) * (opts.changeSeconds ?? 4);
   return Math.max(swathM * travel, (opts.floorAc ?? 0.5) * M2_PER_AC);
 }
@@ -37,19 +43,44 @@ export function majorityFilter(classes: Int16Array, cols: number, rows: number, 
     const dst = new Int16Array(src.length);
     let changed = false;
     for (let r = 0; r < rows; r++) {
-      const r0 = r > 0 ? r - 1 : r, r1 = r < rows - 1 ? r + 1 : r;
+      const r0 = r > 0 ? r - 1 : r,
+        r1 = r < rows - 1 ? r + 1 : r;
       for (let c = 0; c < cols; c++) {
-        const i = r * cols + c, own = src[i];
-        if (own < 0) { dst[i] = own; continue; }
-        const c0 = c > 0 ? c - 1 : c, c1 = c < cols - 1 ? c + 1 : c;
+        const i = r * cols + c,
+          own = src[i];
+        if (own < 0) {
+          dst[i] = own;
+          continue;
+        }
+        const c0 = c > 0 ? c - 1 : c,
+          c1 = c < cols - 1 ? c + 1 : c;
         // fast path: all neighbours equal to own
         let same = true;
-        for (let rr = r0; rr <= r1 && same; rr++) for (let cc = c0; cc <= c1; cc++) { const v = src[rr * cols + cc]; if (v !== own && v >= 0) { same = false; break; } }
-        if (same) { dst[i] = own; continue; }
+        for (let rr = r0; rr <= r1 && same; rr++)
+          for (let cc = c0; cc <= c1; cc++) {
+            const v = src[rr * cols + cc];
+            if (v !== own && v >= 0) {
+              same = false;
+              break;
+            }
+          }
+        if (same) {
+          dst[i] = own;
+          continue;
+        }
         counts.fill(0);
-        for (let rr = r0; rr <= r1; rr++) for (let cc = c0; cc <= c1; cc++) { const v = src[rr * cols + cc]; if (v >= 0) counts[v]++; }
-        let best = own, bc = counts[own];
-        for (let k = 0; k < nc; k++) if (counts[k] > bc) { bc = counts[k]; best = k; }
+        for (let rr = r0; rr <= r1; rr++)
+          for (let cc = c0; cc <= c1; cc++) {
+            const v = src[rr * cols + cc];
+            if (v >= 0) counts[v]++;
+          }
+        let best = own,
+          bc = counts[own];
+        for (let k = 0; k < nc; k++)
+          if (counts[k] > bc) {
+            bc = counts[k];
+            best = k;
+          }
         dst[i] = best;
         if (best !== own) changed = true;
       }
@@ -65,17 +96,36 @@ export function majorityFilter(classes: Int16Array, cols: number, rows: number, 
  * and each label's class. Linear time (scan + union-find).
  * @example const { label, count, classOfLabel } = labelComponents(classes, cols, rows);
  */
-export function labelComponents(classes: Int16Array, cols: number, rows: number): { label: Int32Array; count: number; classOfLabel: Int16Array } {
+export function labelComponents(
+  classes: Int16Array,
+  cols: number,
+  rows: number,
+): { label: Int32Array; count: number; classOfLabel: Int16Array } {
   const n = classes.length;
   const parent = new Int32Array(n);
-  const find = (x: number) => { while (parent[x] !== x) { parent[x] = parent[parent[x]]; x = parent[x]; } return x; };
+  const find = (x: number) => {
+    while (parent[x] !== x) {
+      parent[x] = parent[parent[x]];
+      x = parent[x];
+    }
+    return x;
+  };
   for (let i = 0; i < n; i++) parent[i] = i;
   for (let r = 0; r < rows; r++) {
     for (let c = 0; c < cols; c++) {
-      const i = r * cols + c, k = classes[i];
+      const i = r * cols + c,
+        k = classes[i];
       if (k < 0) continue;
-      if (c > 0 && classes[i - 1] === k) { const a = find(i), b = find(i - 1); if (a !== b) parent[a < b ? b : a] = a < b ? a : b; }
-      if (r > 0 && classes[i - cols] === k) { const a = find(i), b = find(i - cols); if (a !== b) parent[a < b ? b : a] = a < b ? a : b; }
+      if (c > 0 && classes[i - 1] === k) {
+        const a = find(i),
+          b = find(i - 1);
+        if (a !== b) parent[a < b ? b : a] = a < b ? a : b;
+      }
+      if (r > 0 && classes[i - cols] === k) {
+        const a = find(i),
+          b = find(i - cols);
+        if (a !== b) parent[a < b ? b : a] = a < b ? a : b;
+      }
     }
   }
   const label = new Int32Array(n).fill(-1);
@@ -83,7 +133,10 @@ export function labelComponents(classes: Int16Array, cols: number, rows: number)
   for (let i = 0; i < n; i++) {
     if (classes[i] < 0) continue;
     const root = find(i);
-    if (root === i) { label[i] = cls.length; cls.push(classes[i]); } else label[i] = label[root];
+    if (root === i) {
+      label[i] = cls.length;
+      cls.push(classes[i]);
+    } else label[i] = label[root];
   }
   return { label, count: cls.length, classOfLabel: Int16Array.from(cls) };
 }
@@ -98,9 +151,14 @@ export function fillUnclassed(classes: Int16Array, cols: number, rows: number): 
   const out = Int16Array.from(classes);
   const n = out.length;
   // start from classed cells that touch an unclassed one (a thin ring, not every cell)
-  let front: Int32Array = new Int32Array(1024), len = 0;
+  let front: Int32Array = new Int32Array(1024),
+    len = 0;
   const push = (arr: Int32Array, l: number, i: number): Int32Array => {
-    if (l === arr.length) { const b = new Int32Array(arr.length * 2); b.set(arr); arr = b; }
+    if (l === arr.length) {
+      const b = new Int32Array(arr.length * 2);
+      b.set(arr);
+      arr = b;
+    }
     arr[l] = i;
     return arr;
   };
@@ -108,21 +166,46 @@ export function fillUnclassed(classes: Int16Array, cols: number, rows: number): 
   for (let i = 0; i < n; i++) {
     if (out[i] < 0) continue;
     any = true;
-    const r = (i / cols) | 0, c = i - r * cols;
-    if ((c > 0 && out[i - 1] < 0) || (c < cols - 1 && out[i + 1] < 0) || (r > 0 && out[i - cols] < 0) || (r < rows - 1 && out[i + cols] < 0)) front = push(front, len++, i);
+    const r = (i / cols) | 0,
+      c = i - r * cols;
+    if (
+      (c > 0 && out[i - 1] < 0) ||
+      (c < cols - 1 && out[i + 1] < 0) ||
+      (r > 0 && out[i - cols] < 0) ||
+      (r < rows - 1 && out[i + cols] < 0)
+    )
+      front = push(front, len++, i);
   }
   if (!any) return out;
   let next: Int32Array = new Int32Array(1024);
   while (len > 0) {
     let nl = 0;
     for (let t = 0; t < len; t++) {
-      const i = front[t], r = (i / cols) | 0, c = i - r * cols, k = out[i];
-      if (c > 0 && out[i - 1] < 0) { out[i - 1] = k; next = push(next, nl++, i - 1); }
-      if (c < cols - 1 && out[i + 1] < 0) { out[i + 1] = k; next = push(next, nl++, i + 1); }
-      if (r > 0 && out[i - cols] < 0) { out[i - cols] = k; next = push(next, nl++, i - cols); }
-      if (r < rows - 1 && out[i + cols] < 0) { out[i + cols] = k; next = push(next, nl++, i + cols); }
+      const i = front[t],
+        r = (i / cols) | 0,
+        c = i - r * cols,
+        k = out[i];
+      if (c > 0 && out[i - 1] < 0) {
+        out[i - 1] = k;
+        next = push(next, nl++, i - 1);
+      }
+      if (c < cols - 1 && out[i + 1] < 0) {
+        out[i + 1] = k;
+        next = push(next, nl++, i + 1);
+      }
+      if (r > 0 && out[i - cols] < 0) {
+        out[i - cols] = k;
+        next = push(next, nl++, i - cols);
+      }
+      if (r < rows - 1 && out[i + cols] < 0) {
+        out[i + cols] = k;
+        next = push(next, nl++, i + cols);
+      }
     }
-    const tmp = front; front = next; next = tmp; len = nl;
+    const tmp = front;
+    front = next;
+    next = tmp;
+    len = nl;
   }
   return out;
 }
@@ -149,7 +232,14 @@ export interface Merged {
  *
  * @example const m = mergeSmallZones(classes, grid.cols, grid.rows, grid.fraction, grid.cell, 2023);
  */
-export function mergeSmallZones(classes: Int16Array, cols: number, rows: number, fraction: ArrayLike<number>, cell: number, minAreaM2: number): Merged {
+export function mergeSmallZones(
+  classes: Int16Array,
+  cols: number,
+  rows: number,
+  fraction: ArrayLike<number>,
+  cell: number,
+  minAreaM2: number,
+): Merged {
   const { label, count, classOfLabel } = labelComponents(classes, cols, rows);
   const area = new Float64Array(count);
   const cellA = cell * cell;
@@ -157,7 +247,13 @@ export function mergeSmallZones(classes: Int16Array, cols: number, rows: number,
   const cls = Int16Array.from(classOfLabel);
   const parent = new Int32Array(count);
   for (let i = 0; i < count; i++) parent[i] = i;
-  const find = (x: number) => { while (parent[x] !== x) { parent[x] = parent[parent[x]]; x = parent[x]; } return x; };
+  const find = (x: number) => {
+    while (parent[x] !== x) {
+      parent[x] = parent[parent[x]];
+      x = parent[x];
+    }
+    return x;
+  };
   // adjacency (border length in cell edges), kept only for pairs with at least one small zone: a zone at or
   // above the minimum never has to choose a neighbour, and two large zones of one class are never adjacent
   const isSmall = new Uint8Array(count);
@@ -170,10 +266,17 @@ export function mergeSmallZones(classes: Int16Array, cols: number, rows: number,
   };
   for (let r = 0; r < rows; r++) {
     for (let c = 0; c < cols; c++) {
-      const i = r * cols + c, a = label[i];
+      const i = r * cols + c,
+        a = label[i];
       if (a < 0) continue;
-      if (c + 1 < cols) { const b = label[i + 1]; if (b >= 0 && b !== a) addEdge(a, b); }
-      if (r + 1 < rows) { const b = label[i + cols]; if (b >= 0 && b !== a) addEdge(a, b); }
+      if (c + 1 < cols) {
+        const b = label[i + 1];
+        if (b >= 0 && b !== a) addEdge(a, b);
+      }
+      if (r + 1 < rows) {
+        const b = label[i + cols];
+        if (b >= 0 && b !== a) addEdge(a, b);
+      }
     }
   }
   const absorb = (into: number, from: number) => {
@@ -181,7 +284,10 @@ export function mergeSmallZones(classes: Int16Array, cols: number, rows: number,
     parent[from] = into;
     area[into] += area[from];
     for (const [nb, len] of adj[from]) {
-      if (nb === into) { adj[into].delete(from); continue; }
+      if (nb === into) {
+        adj[into].delete(from);
+        continue;
+      }
       adj[into].set(nb, (adj[into].get(nb) ?? 0) + len);
       const m = adj[nb];
       m.delete(from);
@@ -192,20 +298,30 @@ export function mergeSmallZones(classes: Int16Array, cols: number, rows: number,
   if (minAreaM2 > 0) {
     for (let pass = 0; pass < 1000; pass++) {
       const small: number[] = [];
-      for (let z = 0; z < count; z++) if (parent[z] === z && area[z] < minAreaM2 && adj[z].size > 0) small.push(z);
+      for (let z = 0; z < count; z++)
+        if (parent[z] === z && area[z] < minAreaM2 && adj[z].size > 0) small.push(z);
       if (small.length === 0) break;
       small.sort((a, b) => area[a] - area[b] || a - b);
       let merged = 0;
       for (const z of small) {
         if (parent[z] !== z || area[z] >= minAreaM2 || adj[z].size === 0) continue;
-        let best = -1, bl = -1;
-        for (const [nb, len] of adj[z]) if (len > bl || (len === bl && nb < best)) { bl = len; best = nb; }
+        let best = -1,
+          bl = -1;
+        for (const [nb, len] of adj[z])
+          if (len > bl || (len === bl && nb < best)) {
+            bl = len;
+            best = nb;
+          }
         const target = find(best);
         absorb(target, z);
         // join same-class zones the merge has connected
-        for (let again = true; again; ) {
+        for (let again = true; again;) {
           again = false;
-          for (const nb of [...adj[target].keys()]) if (cls[nb] === cls[target] && parent[nb] === nb) { absorb(target, nb); again = true; }
+          for (const nb of [...adj[target].keys()])
+            if (cls[nb] === cls[target] && parent[nb] === nb) {
+              absorb(target, nb);
+              again = true;
+            }
         }
         merged++;
       }
@@ -214,8 +330,14 @@ export function mergeSmallZones(classes: Int16Array, cols: number, rows: number,
   }
   const ids = new Int32Array(count).fill(-1);
   let nz = 0;
-  const zoneCls: number[] = [], zoneArea: number[] = [];
-  for (let z = 0; z < count; z++) if (parent[z] === z) { ids[z] = nz++; zoneCls.push(cls[z]); zoneArea.push(area[z]); }
+  const zoneCls: number[] = [],
+    zoneArea: number[] = [];
+  for (let z = 0; z < count; z++)
+    if (parent[z] === z) {
+      ids[z] = nz++;
+      zoneCls.push(cls[z]);
+      zoneArea.push(area[z]);
+    }
   const zone = new Int32Array(label.length).fill(-1);
   const outCls = new Int16Array(label.length).fill(-1);
   for (let i = 0; i < label.length; i++) {
@@ -224,5 +346,11 @@ export function mergeSmallZones(classes: Int16Array, cols: number, rows: number,
     zone[i] = id;
     outCls[i] = zoneCls[id];
   }
-  return { zone, count: nz, classOfZone: Int16Array.from(zoneCls), areaM2: Float64Array.from(zoneArea), classes: outCls };
+  return {
+    zone,
+    count: nz,
+    classOfZone: Int16Array.from(zoneCls),
+    areaM2: Float64Array.from(zoneArea),
+    classes: outCls,
+  };
 }

@@ -27,10 +27,14 @@ export function boundaryCells(parts: RingsPart[], f: RasterFrame): Uint8Array {
   for (const p of parts) {
     for (const ring of [p.exterior, ...p.holes]) {
       for (let k = 0; k + 3 < ring.length; k += 2) {
-        const ax = ring[k], ay = ring[k + 1], bx = ring[k + 2], by = ring[k + 3];
+        const ax = ring[k],
+          ay = ring[k + 1],
+          bx = ring[k + 2],
+          by = ring[k + 3];
         const steps = Math.max(1, Math.ceil(Math.hypot(bx - ax, by - ay) / (cell * 0.5)));
         for (let s = 0; s < steps; s++) {
-          const t0 = s / steps, t1 = (s + 1) / steps;
+          const t0 = s / steps,
+            t1 = (s + 1) / steps;
           mark(ax + (bx - ax) * t0, ay + (by - ay) * t0, ax + (bx - ax) * t1, ay + (by - ay) * t1);
         }
       }
@@ -49,10 +53,12 @@ function toLocal(r: Float64Array, ox: number, oy: number): Ring {
 
 function fromLocal(r: Ring, ox: number, oy: number): Float64Array {
   const out = new Float64Array(r.length * 2);
-  for (let i = 0; i < r.length; i++) { out[2 * i] = r[i][0] + ox; out[2 * i + 1] = r[i][1] + oy; }
+  for (let i = 0; i < r.length; i++) {
+    out[2 * i] = r[i][0] + ox;
+    out[2 * i + 1] = r[i][1] + oy;
+  }
   return out;
 }
-
 
 // jsts (a 1 MB bundle) is loaded on first use, so commands that never clip start faster
 let jstsLib: any = null; // the jsts module (untyped)
@@ -83,7 +89,10 @@ function fromJsts(g: any, ox: number, oy: number, minPartM2: number): RingsPart[
   const ring = (ls: any) => {
     const cs = ls.getCoordinates();
     const r = new Float64Array(cs.length * 2);
-    for (let i = 0; i < cs.length; i++) { r[2 * i] = cs[i].x + ox; r[2 * i + 1] = cs[i].y + oy; }
+    for (let i = 0; i < cs.length; i++) {
+      r[2 * i] = cs[i].x + ox;
+      r[2 * i + 1] = cs[i].y + oy;
+    }
     return r;
   };
   const visit = (x: any) => {
@@ -109,10 +118,19 @@ function fromJsts(g: any, ox: number, oy: number, minPartM2: number): RingsPart[
  * counter-clockwise, holes clockwise; parts with no area (below `minPartM2`, default 1e-6 m2) are dropped.
  * @example const clipped = clipParts(zoneParts, field.parts, grid.xmin, grid.ymax);
  */
-export function clipParts(parts: RingsPart[], clip: RingsPart[], ox: number, oy: number, minPartM2 = 1e-6): RingsPart[] {
+export function clipParts(
+  parts: RingsPart[],
+  clip: RingsPart[],
+  ox: number,
+  oy: number,
+  minPartM2 = 1e-6,
+): RingsPart[] {
   try {
     let f = fieldCache.get(clip);
-    if (!f || f.ox !== ox || f.oy !== oy) { f = { ox, oy, g: toJsts(clip, ox, oy) }; fieldCache.set(clip, f); }
+    if (!f || f.ox !== ox || f.oy !== oy) {
+      f = { ox, oy, g: toJsts(clip, ox, oy) };
+      fieldCache.set(clip, f);
+    }
     const res = (toJsts(parts, ox, oy) as any).intersection(f.g);
     return fromJsts(res, ox, oy, minPartM2);
   } catch {
@@ -124,7 +142,13 @@ export function clipParts(parts: RingsPart[], clip: RingsPart[], ox: number, oy:
  * The same intersection with polyclip-ts (slower; used when JTS fails, and as a cross-check in tests).
  * @example const clipped = clipPartsPolyclip(zoneParts, field.parts, grid.xmin, grid.ymax);
  */
-export function clipPartsPolyclip(parts: RingsPart[], clip: RingsPart[], ox: number, oy: number, minPartM2 = 1e-6): RingsPart[] {
+export function clipPartsPolyclip(
+  parts: RingsPart[],
+  clip: RingsPart[],
+  ox: number,
+  oy: number,
+  minPartM2 = 1e-6,
+): RingsPart[] {
   const a = parts.map((p) => [toLocal(p.exterior, ox, oy), ...p.holes.map((h) => toLocal(h, ox, oy))]);
   const b = clip.map((p) => [toLocal(p.exterior, ox, oy), ...p.holes.map((h) => toLocal(h, ox, oy))]);
   const res = robust(() => polyclip.intersection(a as polyclip.Geom, b as polyclip.Geom) as Ring[][]);

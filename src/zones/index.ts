@@ -51,7 +51,14 @@ export interface ZoneSet<P = unknown, Why = string> {
   /** every pair of neighbouring zones (ids), with the judge's reason for keeping them apart */
   pairs: { a: number; b: number; why: Why | null }[];
   /** how the count came about: classes found, classes after merging, zones after cleaning, zones after merging */
-  counts: { classes: number; classesMerged: number; zonesCleaned: number; zonesMerged: number; rateClasses: number; zones: number };
+  counts: {
+    classes: number;
+    classesMerged: number;
+    zonesCleaned: number;
+    zonesMerged: number;
+    rateClasses: number;
+    zones: number;
+  };
   /** vertices of the zone rings before and after edge simplification (before clipping), and as returned */
   vertices: { traced: number; simplified: number; clipped: number };
   /** per cell: class after cleaning (-1 where the cell has no share of the field) */
@@ -98,7 +105,12 @@ export interface MakeZonesOptions<P = unknown, Why = string> extends ClassifyOpt
  * const zs = makeZones(grid, nRate, field, { method: 'jenks', classes: 4, step: 5, minAreaM2: minZoneAreaM2({ swathM: 18.3, speedKmh: 9 }) });
  * zs.zones.map((z) => [z.cls, z.areaM2 / 4046.86]);
  */
-export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLike<number> | { classOf: Int16Array }, field: Field, opts: MakeZonesOptions<P, Why> = {}): ZoneSet<P, Why> {
+export function makeZones<P = unknown, Why = string>(
+  grid: Grid,
+  input: ArrayLike<number> | { classOf: Int16Array },
+  field: Field,
+  opts: MakeZonesOptions<P, Why> = {},
+): ZoneSet<P, Why> {
   const { cols, rows, cell } = grid;
   const n = cols * rows;
   const warnings: Warning[] = [];
@@ -114,7 +126,11 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
     raw = classes.classOf;
   }
   const missing = countMissing(raw, grid.fraction);
-  if (missing > 0) warnings.push({ code: 'zones-cell-without-value', message: `${missing} cells inside the field have no driving value; they take the nearest zone's class.` });
+  if (missing > 0)
+    warnings.push({
+      code: 'zones-cell-without-value',
+      message: `${missing} cells inside the field have no driving value; they take the nearest zone's class.`,
+    });
   let nClasses = 0;
   for (let i = 0; i < n; i++) if (raw[i] + 1 > nClasses) nClasses = raw[i] + 1;
   const judge = opts.judge;
@@ -128,20 +144,31 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
     classesMerged = m.count;
   }
   // 2. speckle, edge cells, small zones
-  const smooth = (opts.majorityIterations ?? 1) > 0 ? majorityFilter(raw, cols, rows, opts.majorityIterations ?? 1) : raw;
+  const smooth =
+    (opts.majorityIterations ?? 1) > 0 ? majorityFilter(raw, cols, rows, opts.majorityIterations ?? 1) : raw;
   const filled = fillUnclassed(smooth, cols, rows);
   const minAreaM2 = opts.minAreaM2 ?? 0.5 * M2_PER_AC;
   const cleaned = mergeSmallZones(filled, cols, rows, grid.fraction, cell, minAreaM2);
   // 3. neighbouring zones whose rates do not differ enough become one zone; then zones anywhere in the field
   // whose rates do not differ enough form one rate class (one decision), and touching zones of a class join
-  let zoneLabel = cleaned.zone, count = cleaned.count, classOfZone = cleaned.classOfZone, zoneArea = cleaned.areaM2;
+  let zoneLabel = cleaned.zone,
+    count = cleaned.count,
+    classOfZone = cleaned.classOfZone,
+    zoneArea = cleaned.areaM2;
   let profiles: P[] | null = null;
   let pairs: ZoneSet<P, Why>['pairs'] = [];
-  let zonesMerged = count, rateClasses = classesMerged;
+  let zonesMerged = count,
+    rateClasses = classesMerged;
   if (judge) {
     const r = rateClassZones(cleaned.zone, cleaned.count, grid, judge);
-    zonesMerged = r.zonesMerged; rateClasses = r.rateClasses;
-    zoneLabel = r.label; count = r.count; classOfZone = r.classOfZone; profiles = r.profiles; pairs = r.pairs; zoneArea = r.areaM2;
+    zonesMerged = r.zonesMerged;
+    rateClasses = r.rateClasses;
+    zoneLabel = r.label;
+    count = r.count;
+    classOfZone = r.classOfZone;
+    profiles = r.profiles;
+    pairs = r.pairs;
+    zoneArea = r.areaM2;
   } else pairs = neighbourPairs(zoneLabel, cols, rows);
   // 4. polygons: shared borders simplified once, then clipped to the exact boundary
   const poly = zonePolygons(grid, field, zoneLabel, count, zoneArea, opts.simplifyCells ?? 1, minAreaM2);
@@ -152,7 +179,13 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
     const parts = poly.parts[z];
     if (parts.length === 0) continue;
     newId[z] = zones.length;
-    zones.push({ id: zones.length, cls: classOfZone[z], parts, lonlat: proj ? toLonLat(parts, proj) : [], areaM2: partsArea(parts) * poly.scale });
+    zones.push({
+      id: zones.length,
+      cls: classOfZone[z],
+      parts,
+      lonlat: proj ? toLonLat(parts, proj) : [],
+      areaM2: partsArea(parts) * poly.scale,
+    });
   }
   const vertices = poly.vertices;
   const zoneOfCell = new Int32Array(n).fill(-1);
@@ -166,10 +199,25 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
     if (classOfCell[i] + 1 > classCount) classCount = classOfCell[i] + 1;
   }
   return {
-    zones, classOfCell, zoneOfCell, classCount, classes, minAreaM2, warnings,
+    zones,
+    classOfCell,
+    zoneOfCell,
+    classCount,
+    classes,
+    minAreaM2,
+    warnings,
     profiles: profiles ? profiles.filter((_, z) => newId[z] >= 0) : null,
-    pairs: pairs.filter((p) => newId[p.a] >= 0 && newId[p.b] >= 0).map((p) => ({ ...p, a: newId[p.a], b: newId[p.b] })),
-    counts: { classes: nClasses, classesMerged, zonesCleaned: cleaned.count, zonesMerged, rateClasses, zones: zones.length },
+    pairs: pairs
+      .filter((p) => newId[p.a] >= 0 && newId[p.b] >= 0)
+      .map((p) => ({ ...p, a: newId[p.a], b: newId[p.b] })),
+    counts: {
+      classes: nClasses,
+      classesMerged,
+      zonesCleaned: cleaned.count,
+      zonesMerged,
+      rateClasses,
+      zones: zones.length,
+    },
     vertices,
   };
 }
@@ -180,16 +228,40 @@ export function makeZones<P = unknown, Why = string>(grid: Grid, input: ArrayLik
  * joined. Zone ids follow the raster order of each zone's first cell; classes are numbered by their first zone.
  */
 function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, judge: RegionJudge<P, Why>) {
-  const m = mergeRegions(zone, count, grid.cols, grid.rows, grid.fraction, grid.cell * grid.cell, judge, 'scan');
+  const m = mergeRegions(
+    zone,
+    count,
+    grid.cols,
+    grid.rows,
+    grid.fraction,
+    grid.cell * grid.cell,
+    judge,
+    'scan',
+  );
   const g = mergeGraph(m.graph, judge, true);
   // touching merged zones of one rate class become one zone
   const parent = Int32Array.from({ length: m.count }, (_, k) => k);
-  const find = (x: number) => { while (parent[x] !== x) { parent[x] = parent[parent[x]]; x = parent[x]; } return x; };
-  for (const p of m.pairs) if (g.root[p.a] === g.root[p.b]) { const a = find(p.a), b = find(p.b); if (a !== b) parent[Math.max(a, b)] = Math.min(a, b); }
-  const newId = new Int32Array(m.count).fill(-1), classId = new Int32Array(m.count).fill(-1);
-  let n = 0, k = 0;
-  const classOf: number[] = [], profiles: P[] = [];
-  for (let z = 0; z < m.count; z++) { // m's ids already follow the raster order of first cells
+  const find = (x: number) => {
+    while (parent[x] !== x) {
+      parent[x] = parent[parent[x]];
+      x = parent[x];
+    }
+    return x;
+  };
+  for (const p of m.pairs)
+    if (g.root[p.a] === g.root[p.b]) {
+      const a = find(p.a),
+        b = find(p.b);
+      if (a !== b) parent[Math.max(a, b)] = Math.min(a, b);
+    }
+  const newId = new Int32Array(m.count).fill(-1),
+    classId = new Int32Array(m.count).fill(-1);
+  let n = 0,
+    k = 0;
+  const classOf: number[] = [],
+    profiles: P[] = [];
+  for (let z = 0; z < m.count; z++) {
+    // m's ids already follow the raster order of first cells
     const c = find(z);
     if (newId[c] >= 0) continue;
     newId[c] = n++;
@@ -204,7 +276,8 @@ function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, jud
   const seen = new Set<number>();
   const pairs: { a: number; b: number; why: Why | null }[] = [];
   for (const p of m.pairs) {
-    const a = Math.min(final[p.a], final[p.b]), b = Math.max(final[p.a], final[p.b]);
+    const a = Math.min(final[p.a], final[p.b]),
+      b = Math.max(final[p.a], final[p.b]);
     if (a === b || seen.has(a * n + b)) continue;
     seen.add(a * n + b);
     pairs.push({ a, b, why: judge.compare(profiles[a], profiles[b]).why });
@@ -212,7 +285,16 @@ function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, jud
   pairs.sort((p, q) => p.a - q.a || p.b - q.b);
   const areaM2 = new Float64Array(n);
   for (let z = 0; z < m.count; z++) areaM2[final[z]] += m.graph.areaM2[z];
-  return { label, count: n, classOfZone: Int16Array.from(classOf), profiles, pairs, zonesMerged: m.count, rateClasses: k, areaM2 };
+  return {
+    label,
+    count: n,
+    classOfZone: Int16Array.from(classOf),
+    profiles,
+    pairs,
+    zonesMerged: m.count,
+    rateClasses: k,
+    areaM2,
+  };
 }
 
 /**
@@ -220,7 +302,15 @@ function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, jud
  * the boundary clipped to it. A zone that simplification would take under `minAreaM2` although its cells
  * reach it keeps its staircase borders (simplification is redone with them fixed).
  */
-function zonePolygons(grid: Grid, field: Field, label: Int32Array, count: number, cellArea: Float64Array, tol: number, minAreaM2: number): { parts: RingsPart[][]; vertices: ZoneSet['vertices']; scale: number } {
+function zonePolygons(
+  grid: Grid,
+  field: Field,
+  label: Int32Array,
+  count: number,
+  cellArea: Float64Array,
+  tol: number,
+  minAreaM2: number,
+): { parts: RingsPart[][]; vertices: ZoneSet['vertices']; scale: number } {
   const arcs = zoneArcs(label, count, grid);
   const staircase = simplifyArcs(arcs, 0);
   const needsClip = zonesNearBoundary(field, grid, label, count, Math.ceil(tol) + 1);
@@ -233,48 +323,76 @@ function zonePolygons(grid: Grid, field: Field, label: Int32Array, count: number
     const parts = traced.map((p, z) => (needsClip[z] ? clipParts(p, field.parts, grid.xmin, grid.ymax) : p));
     let redo = false;
     for (let z = 0; z < count; z++) {
-      if (keep[z] || tol <= 0 || cellArea[z] < minAreaM2 || partsArea(parts[z]) >= minAreaM2 * (1 - 1e-9)) continue;
+      if (keep[z] || tol <= 0 || cellArea[z] < minAreaM2 || partsArea(parts[z]) >= minAreaM2 * (1 - 1e-9))
+        continue;
       keep[z] = 1;
       redo = true;
-      arcs.arcs.forEach((_, k) => { if (arcs.left[k] === z || arcs.right[k] === z) arcs.fixed[k] = true; });
+      arcs.arcs.forEach((_, k) => {
+        if (arcs.left[k] === z || arcs.right[k] === z) arcs.fixed[k] = true;
+      });
     }
     if (!redo || attempt >= 3) {
-      const vertices = { traced: ringsVertexCount(arcs, staircase), simplified: ringsVertexCount(arcs, smooth), clipped: parts.reduce((s, p) => s + vertexCount(p), 0) };
+      const vertices = {
+        traced: ringsVertexCount(arcs, staircase),
+        simplified: ringsVertexCount(arcs, smooth),
+        clipped: parts.reduce((s, p) => s + vertexCount(p), 0),
+      };
       return { parts, vertices, scale };
     }
   }
 }
 
 /** Zones with a cell within `reach` cells of one the boundary crosses, or of a cell outside: these are clipped. */
-function zonesNearBoundary(field: Field, grid: Grid, label: Int32Array, count: number, reach: number): Uint8Array {
+function zonesNearBoundary(
+  field: Field,
+  grid: Grid,
+  label: Int32Array,
+  count: number,
+  reach: number,
+): Uint8Array {
   const { cols, rows } = grid;
   const band = boundaryCells(field.parts, grid);
   const out = new Uint8Array(count);
   for (let i = 0; i < label.length; i++) if (label[i] >= 0 && (!grid.mask[i] || band[i])) out[label[i]] = 1;
   // smoothed borders move up to about `reach` cells: zones that near the boundary are clipped too
-  for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
-    if (!band[r * cols + c]) continue;
-    for (let rr = Math.max(0, r - reach); rr <= Math.min(rows - 1, r + reach); rr++) {
-      for (let cc = Math.max(0, c - reach); cc <= Math.min(cols - 1, c + reach); cc++) { const z = label[rr * cols + cc]; if (z >= 0) out[z] = 1; }
+  for (let r = 0; r < rows; r++)
+    for (let c = 0; c < cols; c++) {
+      if (!band[r * cols + c]) continue;
+      for (let rr = Math.max(0, r - reach); rr <= Math.min(rows - 1, r + reach); rr++) {
+        for (let cc = Math.max(0, c - reach); cc <= Math.min(cols - 1, c + reach); cc++) {
+          const z = label[rr * cols + cc];
+          if (z >= 0) out[z] = 1;
+        }
+      }
     }
-  }
   return out;
 }
 
 /** Pairs of zone ids that share a cell edge. */
-function neighbourPairs(label: Int32Array, cols: number, rows: number): { a: number; b: number; why: null }[] {
+function neighbourPairs(
+  label: Int32Array,
+  cols: number,
+  rows: number,
+): { a: number; b: number; why: null }[] {
   const seen = new Set<string>();
   const out: { a: number; b: number; why: null }[] = [];
   const add = (p: number, q: number) => {
-    const a = Math.min(p, q), b = Math.max(p, q), k = `${a},${b}`;
-    if (!seen.has(k)) { seen.add(k); out.push({ a, b, why: null }); }
+    const a = Math.min(p, q),
+      b = Math.max(p, q),
+      k = `${a},${b}`;
+    if (!seen.has(k)) {
+      seen.add(k);
+      out.push({ a, b, why: null });
+    }
   };
-  for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
-    const i = r * cols + c, a = label[i];
-    if (a < 0) continue;
-    if (c + 1 < cols && label[i + 1] >= 0 && label[i + 1] !== a) add(a, label[i + 1]);
-    if (r + 1 < rows && label[i + cols] >= 0 && label[i + cols] !== a) add(a, label[i + cols]);
-  }
+  for (let r = 0; r < rows; r++)
+    for (let c = 0; c < cols; c++) {
+      const i = r * cols + c,
+        a = label[i];
+      if (a < 0) continue;
+      if (c + 1 < cols && label[i + 1] >= 0 && label[i + 1] !== a) add(a, label[i + 1]);
+      if (r + 1 < rows && label[i + cols] >= 0 && label[i + cols] !== a) add(a, label[i + cols]);
+    }
   return out.sort((p, q) => p.a - q.a || p.b - q.b);
 }
 
@@ -314,7 +432,11 @@ export interface SampledZone {
  * no sampled zone covers is reported in a warning (it gets no rate).
  * @example const { zones, warnings } = zonesFromSampleZones(inputs.zones!, inputs.field);
  */
-export function zonesFromSampleZones(sz: SampleZones, field: Field, opts: { projector?: Projector } = {}): { zones: SampledZone[]; warnings: Warning[] } {
+export function zonesFromSampleZones(
+  sz: SampleZones,
+  field: Field,
+  opts: { projector?: Projector } = {},
+): { zones: SampledZone[]; warnings: Warning[] } {
   const [ox, oy] = [field.bbox[0], field.bbox[3]];
   const planarField = partsArea(field.parts);
   const scale = planarField > 0 ? field.areaM2 / planarField : 1;
@@ -329,33 +451,56 @@ export function zonesFromSampleZones(sz: SampleZones, field: Field, opts: { proj
       parts = differenceParts(parts, taken.flat(), ox, oy);
       const lost = before - partsArea(parts);
       if (lost > 1e-6 * Math.max(1, before)) {
-        warnings.push({ code: 'zones-sampled-overlap', where: sz.keys[k], message: `Sampled zone "${sz.keys[k]}" overlaps an earlier zone by ${(lost * scale / M2_PER_AC).toFixed(2)} ac; the overlap stays with the earlier zone. Fix: correct the zone polygons so they do not overlap.` });
+        warnings.push({
+          code: 'zones-sampled-overlap',
+          where: sz.keys[k],
+          message: `Sampled zone "${sz.keys[k]}" overlaps an earlier zone by ${((lost * scale) / M2_PER_AC).toFixed(2)} ac; the overlap stays with the earlier zone. Fix: correct the zone polygons so they do not overlap.`,
+        });
       }
     }
     if (parts.length === 0) {
-      warnings.push({ code: 'zones-sampled-outside', where: sz.keys[k], message: `Sampled zone "${sz.keys[k]}" lies outside the field boundary; it is left out. Fix: check that the zone file belongs to this field.` });
+      warnings.push({
+        code: 'zones-sampled-outside',
+        where: sz.keys[k],
+        message: `Sampled zone "${sz.keys[k]}" lies outside the field boundary; it is left out. Fix: check that the zone file belongs to this field.`,
+      });
       continue;
     }
     taken.push(parts);
-    zones.push({ id: zones.length, key: sz.keys[k], parts, lonlat: toLonLat(parts, proj), areaM2: partsArea(parts) * scale });
+    zones.push({
+      id: zones.length,
+      key: sz.keys[k],
+      parts,
+      lonlat: toLonLat(parts, proj),
+      areaM2: partsArea(parts) * scale,
+    });
   }
   const covered = zones.reduce((s, z) => s + z.areaM2, 0);
   if (field.areaM2 - covered > 1e-4 * field.areaM2) {
-    warnings.push({ code: 'zones-sampled-gap', message: `The sampled zones cover ${(covered / M2_PER_AC).toFixed(2)} of the field's ${(field.areaM2 / M2_PER_AC).toFixed(2)} ac; the rest gets no rate. Fix: extend the zone polygons to the boundary.` });
+    warnings.push({
+      code: 'zones-sampled-gap',
+      message: `The sampled zones cover ${(covered / M2_PER_AC).toFixed(2)} of the field's ${(field.areaM2 / M2_PER_AC).toFixed(2)} ac; the rest gets no rate. Fix: extend the zone polygons to the boundary.`,
+    });
   }
   return { zones, warnings };
 }
 
 function differenceParts(a: RingsPart[], b: RingsPart[], ox: number, oy: number): RingsPart[] {
-  const g = (ps: RingsPart[]) => ps.map((p) => [p.exterior, ...p.holes].map((r) => {
-    const out: [number, number][] = [];
-    for (let i = 0; i + 1 < r.length; i += 2) out.push([r[i] - ox, r[i + 1] - oy]);
-    return out;
-  }));
-  const res = robust(() => polyclip.difference(g(a) as polyclip.Geom, g(b) as polyclip.Geom) as [number, number][][][]);
-  return res.map((poly) => {
-    const rings = poly.map((r) => Float64Array.from(r.flatMap(([x, y]) => [x + ox, y + oy])));
-    return { exterior: rings[0], holes: rings.slice(1) };
-  }).map((p) => ({ exterior: orient(p.exterior, true), holes: p.holes.map((h) => orient(h, false)) }));
+  const g = (ps: RingsPart[]) =>
+    ps.map((p) =>
+      [p.exterior, ...p.holes].map((r) => {
+        const out: [number, number][] = [];
+        for (let i = 0; i + 1 < r.length; i += 2) out.push([r[i] - ox, r[i + 1] - oy]);
+        return out;
+      }),
+    );
+  const res = robust(
+    () => polyclip.difference(g(a) as polyclip.Geom, g(b) as polyclip.Geom) as [number, number][][][],
+  );
+  return res
+    .map((poly) => {
+      const rings = poly.map((r) => Float64Array.from(r.flatMap(([x, y]) => [x + ox, y + oy])));
+      return { exterior: rings[0], holes: rings.slice(1) };
+    })
+    .map((p) => ({ exterior: orient(p.exterior, true), holes: p.holes.map((h) => orient(h, false)) }));
 }
-

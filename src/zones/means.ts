@@ -11,10 +11,17 @@
  * @param count number of zones (ZoneSet.zones.length)
  * @example const p = zoneMeans(zs.zoneOfCell, zs.zones.length, surfaces.p, grid.fraction); p[3] // mean P ppm of zone 3
  */
-export function zoneMeans(zoneOfCell: Int32Array, count: number, values: ArrayLike<number>, weights?: ArrayLike<number>): Float64Array {
-  const sw = new Float64Array(count), sv = new Float64Array(count);
+export function zoneMeans(
+  zoneOfCell: Int32Array,
+  count: number,
+  values: ArrayLike<number>,
+  weights?: ArrayLike<number>,
+): Float64Array {
+  const sw = new Float64Array(count),
+    sv = new Float64Array(count);
   for (let i = 0; i < zoneOfCell.length; i++) {
-    const z = zoneOfCell[i], v = values[i];
+    const z = zoneOfCell[i],
+      v = values[i];
     if (z < 0 || v !== v) continue;
     const w = weights ? weights[i] : 1;
     if (!(w > 0)) continue;

@@ -6,13 +6,22 @@ import type { RingsPart } from '../types.js';
 import { pointInRing, ringArea } from '../geo/area.js';
 
 /** Raster placement of a zone raster: the Grid's geometry. */
-export interface RasterFrame { xmin: number; ymax: number; cell: number; cols: number; rows: number }
+export interface RasterFrame {
+  xmin: number;
+  ymax: number;
+  cell: number;
+  cols: number;
+  rows: number;
+}
 
 // directions: 0 east, 1 north, 2 west, 3 south (j counts rows downwards)
-const DI = [1, 0, -1, 0], DJ = [0, -1, 0, 1];
+const DI = [1, 0, -1, 0],
+  DJ = [0, -1, 0, 1];
 // cell on the left / right of an edge leaving vertex (i, j) in direction d, as offsets (dc, dr)
-const LCX = [0, -1, -1, 0], LCY = [-1, -1, 0, 0];
-const RCX = [0, 0, -1, -1], RCY = [0, -1, -1, 0];
+const LCX = [0, -1, -1, 0],
+  LCY = [-1, -1, 0, 0];
+const RCX = [0, 0, -1, -1],
+  RCY = [0, -1, -1, 0];
 
 /**
  * Traces each zone of a label raster (4-connected regions; -1 = no zone) into polygons in metres.
@@ -30,7 +39,8 @@ const RCX = [0, 0, -1, -1], RCY = [0, -1, -1, 0];
  */
 export function traceZones(zone: Int32Array, count: number, f: RasterFrame): RingsPart[][] {
   const { cols, rows, xmin, ymax, cell } = f;
-  const W = cols + 1, V = W * (rows + 1);
+  const W = cols + 1,
+    V = W * (rows + 1);
   const visited = new Uint8Array(V); // only west-going edges (north sides of cells) start rings
   const lab = (c: number, r: number) => (c < 0 || r < 0 || c >= cols || r >= rows ? -1 : zone[r * cols + c]);
   const rings: number[][][] = Array.from({ length: count }, () => []);
@@ -39,13 +49,18 @@ export function traceZones(zone: Int32Array, count: number, f: RasterFrame): Rin
       const L = zone[r * cols + c];
       if (L < 0 || lab(c, r - 1) === L || visited[r * W + c + 1]) continue;
       // trace from vertex (c+1, r) going west
-      const i0 = c + 1, j0 = r, d0 = 2;
-      let i = i0, j = j0, d = d0;
+      const i0 = c + 1,
+        j0 = r,
+        d0 = 2;
+      let i = i0,
+        j = j0,
+        d = d0;
       const verts: number[] = []; // vertex keys j * W + i
       let saddles = 0;
       for (;;) {
         if (d === 2) visited[j * W + i] = 1;
-        i += DI[d]; j += DJ[d];
+        i += DI[d];
+        j += DJ[d];
         const la = lab(i + LCX[d], j + LCY[d]);
         let nd: number;
         if (la !== L) {
@@ -75,7 +90,8 @@ export function traceZones(zone: Int32Array, count: number, f: RasterFrame): Rin
     else {
       shells.sort((a, b) => a.area - b.area);
       for (const h of holes) {
-        const px = (h[0] + h[2]) / 2, py = (h[1] + h[3]) / 2;
+        const px = (h[0] + h[2]) / 2,
+          py = (h[1] + h[3]) / 2;
         const s = shells.find((s) => pointInRing(s.ring, px, py));
         (s ?? shells[shells.length - 1]).holes.push(h);
       }
@@ -112,9 +128,15 @@ function dropCollinear(keys: number[], W: number): number[] {
   if (n < 4) return keys;
   const out: number[] = [];
   for (let t = 0; t < n; t++) {
-    const a = keys[(t + n - 1) % n], b = keys[t], c = keys[(t + 1) % n];
-    const ja = Math.floor(a / W), jb = Math.floor(b / W), jc = Math.floor(c / W);
-    const ia = a - ja * W, ib = b - jb * W, ic = c - jc * W;
+    const a = keys[(t + n - 1) % n],
+      b = keys[t],
+      c = keys[(t + 1) % n];
+    const ja = Math.floor(a / W),
+      jb = Math.floor(b / W),
+      jc = Math.floor(c / W);
+    const ia = a - ja * W,
+      ib = b - jb * W,
+      ic = c - jc * W;
     if ((ja === jb && jb === jc) || (ia === ib && ib === ic)) continue;
     out.push(b);
   }
@@ -125,7 +147,8 @@ function toRing(keys: number[], W: number, xmin: number, ymax: number, cell: num
   const n = keys.length;
   const out = new Float64Array(2 * n + 2);
   for (let t = 0; t < n; t++) {
-    const j = Math.floor(keys[t] / W), i = keys[t] - j * W;
+    const j = Math.floor(keys[t] / W),
+      i = keys[t] - j * W;
     out[2 * t] = xmin + i * cell;
     out[2 * t + 1] = ymax - j * cell;
   }

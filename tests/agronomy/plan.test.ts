@@ -22,23 +22,61 @@ describe('plan', () => {
         const p = parsePlan(planTemplate(crop, tables, units), 'plan.yaml', tables);
         expect(p.crop).toBe(crop);
         expect(p.units).toBe(units);
-        expect(p.zoning).toEqual({ method: 'jenks', classes: 5, smoothing_passes: 2, min_zone_ac: 'auto', zone_sets: 'per_product', min_class_difference_pct: 5, min_rate_difference: 'auto', min_rate_difference_pct: 10, simplify_cells: 1 });
+        expect(p.zoning).toEqual({
+          method: 'jenks',
+          classes: 5,
+          smoothing_passes: 2,
+          min_zone_ac: 'auto',
+          zone_sets: 'per_product',
+          min_class_difference_pct: 5,
+          min_rate_difference: 'auto',
+          min_rate_difference_pct: 10,
+          simplify_cells: 1,
+        });
         expect(p.machine.rate_change_s).toBe(4);
-        expect(p.output).toEqual({ shapefile_layout: 'per_placement', short_names: false, crs: 'wgs84', formats: ['shapefile', 'isoxml'], isoxml_grid: false, isoxml_grid_cell_m: null, max_vertices: null });
+        expect(p.output).toEqual({
+          shapefile_layout: 'per_placement',
+          short_names: false,
+          crs: 'wgs84',
+          formats: ['shapefile', 'isoxml'],
+          isoxml_grid: false,
+          isoxml_grid_cell_m: null,
+          max_vertices: null,
+        });
       }
     }
   });
 
   it('the starter plan shows the cautions and every section', () => {
     const text = planTemplate('canola', tables);
-    for (const k of ['CAUTION', 'agronomist', 'soil_test:', 'credits:', 'strategy:', 'implement:', 'seed_row:', 'when_table_missing', 'products:', 'machine:', 'zoning:', 'output:']) expect(text).toContain(k);
+    for (const k of [
+      'CAUTION',
+      'agronomist',
+      'soil_test:',
+      'credits:',
+      'strategy:',
+      'implement:',
+      'seed_row:',
+      'when_table_missing',
+      'products:',
+      'machine:',
+      'zoning:',
+      'output:',
+    ])
+      expect(text).toContain(k);
   });
 
   it('fills visible defaults for omitted sections', () => {
     const p = parsePlan(MIN, 'plan.yaml', tables);
     expect(p.units).toBe('lb/ac');
     expect(p.strategy.tolerance_pct).toBe(5);
-    expect(p.implement).toEqual({ opener_spread_in: 1, row_spacing_in: 10, default_texture: 'medium', seedbed_moisture: 'good', placements: ['seed_row', 'side_band'] });
+    expect(p.implement).toEqual({
+      opener_spread_in: 1,
+      row_spacing_in: 10,
+      default_texture: 'medium',
+      seedbed_moisture: 'good',
+      placements: ['seed_row', 'side_band'],
+    });
     expect(p.seed_row.when_table_missing).toBe('ask');
     expect(p.products[0]).toMatchObject({ product: 'map', min_rate: 0, max_rate: 300, step: 1 });
   });
@@ -59,9 +97,21 @@ describe('plan', () => {
     expect(m).toContain('key "target_yield_bu" is missing');
     m = msg(() => parsePlan(MIN.replace('map', 'mapp'), 'p.yaml', tables));
     expect(m).toContain('products[0].product');
-    m = msg(() => parsePlan('crop: canola\ntarget_yield_bu: 50\nproducts:\n  - product: dap\n    placements: [seed_row]\n', 'p.yaml', tables));
+    m = msg(() =>
+      parsePlan(
+        'crop: canola\ntarget_yield_bu: 50\nproducts:\n  - product: dap\n    placements: [seed_row]\n',
+        'p.yaml',
+        tables,
+      ),
+    );
     expect(m).toMatch(/does not allow for dap; allowed: side_band/);
-    m = msg(() => parsePlan('crop: canola\ntarget_yield_bu: 50\nproducts:\n  - product: map\n    min_rate: 50\n    max_rate: 40\n', 'p.yaml', tables));
+    m = msg(() =>
+      parsePlan(
+        'crop: canola\ntarget_yield_bu: 50\nproducts:\n  - product: map\n    min_rate: 50\n    max_rate: 40\n',
+        'p.yaml',
+        tables,
+      ),
+    );
     expect(m).toContain('min_rate');
     m = msg(() => parsePlan('crop: [oops', 'p.yaml'));
     expect(m).toContain('not valid YAML');

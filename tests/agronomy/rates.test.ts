@@ -1,7 +1,17 @@
 import { describe, expect, it } from 'vitest';
 import {
-  decide, defaultTables, interpolateSbu, loadTables, parseSoilSpec, pClass, sbuPct, sbuPoints, seedRowLimits, validatePlan,
-  type PlanInput, type Tables,
+  decide,
+  defaultTables,
+  interpolateSbu,
+  loadTables,
+  parseSoilSpec,
+  pClass,
+  sbuPct,
+  sbuPoints,
+  seedRowLimits,
+  validatePlan,
+  type PlanInput,
+  type Tables,
 } from '../../src/agronomy/index.js';
 import { isUserError } from '../../src/errors.js';
 import { LBAC_TO_KGHA, ppmToLbac } from '../../src/units/index.js';
@@ -20,7 +30,14 @@ function plan(over: Partial<PlanInput> & Record<string, unknown> = {}, tables: T
       // canola on medium soil has no published seed-row N value: these tests use the light-soil values
       seed_row: { when_table_missing: 'light_soil_values' },
       ...over,
-      strategy: { n: { method: 'none' }, p: { method: 'none' }, k: { method: 'none' }, s: { method: 'none' }, tolerance_pct: 0, ...(over.strategy as object) },
+      strategy: {
+        n: { method: 'none' },
+        p: { method: 'none' },
+        k: { method: 'none' },
+        s: { method: 'none' },
+        tolerance_pct: 0,
+        ...(over.strategy as object),
+      },
     },
     'test plan',
     tables,
@@ -46,27 +63,52 @@ describe('interpretation', () => {
     // common practice: critical level about 125 ppm (250 lb/ac in 0-6 in; Manitoba Soil Fertility Guide: ppm x 2 per 6 in)
     expect(ppmToLbac(T.crops.wheat!.k_critical_ppm.value, 0, 6)).toBe(250);
     expect(T.crops.canola!.k_critical_ppm.value).toBe(125);
-    const p = plan({ strategy: { k: { method: 'response_class' }, tolerance_pct: 0 }, products: [{ product: 'potash', placements: ['side_band'], step: 0 }] });
+    const p = plan({
+      strategy: { k: { method: 'response_class' }, tolerance_pct: 0 },
+      products: [{ product: 'potash', placements: ['side_band'], step: 0 }],
+    });
     const below = decide({ ...SOIL, k: 124 }, p, T);
     expect(below.interpretation.k.below).toBe(true);
     // the class rate, not (critical - test) x 2.41, which gives 2.4 lb K2O just under the critical level (common practice)
-    expect(below.nutrients.k2o.target.lbac).toBe(T.k_classes.default!.find((c) => c.name === 'medium')!.k2o_lb);
+    expect(below.nutrients.k2o.target.lbac).toBe(
+      T.k_classes.default!.find((c) => c.name === 'medium')!.k2o_lb,
+    );
     expect(below.nutrients.k2o.target.lbac).toBeGreaterThanOrEqual(T.k_min_useful_lb.value);
     const at = decide({ ...SOIL, k: 125 }, p, T);
     expect(at.interpretation.k.below).toBe(false);
     expect(at.nutrients.k2o.target.lbac).toBe(0);
     // [published] Canola Encyclopedia, Potassium Fertilizer Management: canola responds less than cereals; a response likely only below about 75 ppm
-    const c = plan({ crop: 'canola', target_yield_bu: 50, strategy: { k: { method: 'response_class' }, tolerance_pct: 0 }, products: [{ product: 'potash', placements: ['side_band'], step: 0 }] });
+    const c = plan({
+      crop: 'canola',
+      target_yield_bu: 50,
+      strategy: { k: { method: 'response_class' }, tolerance_pct: 0 },
+      products: [{ product: 'potash', placements: ['side_band'], step: 0 }],
+    });
     for (const k of [40, 60, 100, 120]) {
       const dc = decide({ ...SOIL, k }, c, T);
       const dw = decide({ ...SOIL, k }, p, T);
       expect(dc.interpretation.k.responseProbability).toBeLessThan(dw.interpretation.k.responseProbability);
       expect(dc.nutrients.k2o.target.lbac).toBeLessThanOrEqual(dw.nutrients.k2o.target.lbac);
     }
-    expect(decide({ ...SOIL, k: 60 }, c, T).interpretation.k.responseProbability).toBeGreaterThan(decide({ ...SOIL, k: 100 }, c, T).interpretation.k.responseProbability);
+    expect(decide({ ...SOIL, k: 60 }, c, T).interpretation.k.responseProbability).toBeGreaterThan(
+      decide({ ...SOIL, k: 100 }, c, T).interpretation.k.responseProbability,
+    );
     // common practice: a K2O rate below the minimum useful rate is rounded to 0 and said so
-    const t = loadTables('k_classes:\n  default:\n    - { name: very_low, below_ppm: 60, response_probability: 0.9, k2o_lb: 80, source: test }\n    - { name: low, below_ppm: 90, response_probability: 0.7, k2o_lb: 60, source: test }\n    - { name: medium, below_ppm: 125, response_probability: 0.4, k2o_lb: 12, source: test }\n    - { name: adequate, below_ppm: null, response_probability: 0.05, k2o_lb: 0, source: test }\n', 't.yaml');
-    const r = decide({ ...SOIL, k: 110 }, plan({ strategy: { k: { method: 'response_class' }, tolerance_pct: 0 }, products: [{ product: 'potash', placements: ['side_band'], step: 0 }] }, t), t);
+    const t = loadTables(
+      'k_classes:\n  default:\n    - { name: very_low, below_ppm: 60, response_probability: 0.9, k2o_lb: 80, source: test }\n    - { name: low, below_ppm: 90, response_probability: 0.7, k2o_lb: 60, source: test }\n    - { name: medium, below_ppm: 125, response_probability: 0.4, k2o_lb: 12, source: test }\n    - { name: adequate, below_ppm: null, response_probability: 0.05, k2o_lb: 0, source: test }\n',
+      't.yaml',
+    );
+    const r = decide(
+      { ...SOIL, k: 110 },
+      plan(
+        {
+          strategy: { k: { method: 'response_class' }, tolerance_pct: 0 },
+          products: [{ product: 'potash', placements: ['side_band'], step: 0 }],
+        },
+        t,
+      ),
+      t,
+    );
     expect(r.nutrients.k2o.target.lbac).toBe(0);
     expect(r.warnings.map((w) => w.code)).toContain('target-rounded-to-zero');
   });
@@ -80,14 +122,23 @@ describe('interpretation', () => {
     expect(decide({ ...SOIL, p: 24 }, p, T).interpretation.p.className).toBe('high');
     expect(decide({ ...SOIL, p: 24 }, p, T).interpretation.p.kelownaFactor).toBe(1.2);
     // the factor is said with every decision (and so in every output that shows a class)
-    expect(decide({ ...SOIL, p: 24 }, p, T).warnings.find((w) => w.code === 'kelowna-factor')!.message).toContain('x 1.2');
-    expect(decide({ ...SOIL, p: 24 }, plan(), T).warnings.some((w) => w.code === 'kelowna-factor')).toBe(false);
+    expect(
+      decide({ ...SOIL, p: 24 }, p, T).warnings.find((w) => w.code === 'kelowna-factor')!.message,
+    ).toContain('x 1.2');
+    expect(decide({ ...SOIL, p: 24 }, plan(), T).warnings.some((w) => w.code === 'kelowna-factor')).toBe(
+      false,
+    );
   });
 
   it('canola S: a high test still gets the 10 lb S floor and is flagged uncertain', () => {
     // common practice: about 10 lb S/ac on every canola acre regardless of soil test;
     // a sulphate test that is not low is unreliable (common practice; Manitoba Soil Fertility Guide, Sulphur)
-    const p = plan({ crop: 'canola', target_yield_bu: 50, strategy: { s: { method: 'need_or_floor' }, tolerance_pct: 0 }, products: [{ product: 'ammonium_sulphate', placements: ['side_band'], step: 0 }] });
+    const p = plan({
+      crop: 'canola',
+      target_yield_bu: 50,
+      strategy: { s: { method: 'need_or_floor' }, tolerance_pct: 0 },
+      products: [{ product: 'ammonium_sulphate', placements: ['side_band'], step: 0 }],
+    });
     const d = decide({ ...SOIL, so4_s: 80 }, p, T);
     expect(d.interpretation.s.status).toBe('not_low_uncertain');
     expect(d.nutrients.s.target.lbac).toBe(10);
@@ -101,12 +152,33 @@ describe('interpretation', () => {
     // OM 4 % x 14 x 0.8 = 44.8 (Canola Watch). [published] Manitoba Agriculture, Fertilizer Recommendation Guidelines
     // Based on Soil Tests, point 3: about 8 lb/ac mineralizes between fall sampling and spring, so a fall sample is
     // never reduced; with the plan's credit it gains 8 lb/ac. A spring sample is used as read.
-    const p = plan({ crop: 'canola', target_yield_bu: 50, soil_test: { nitrate_sampled: 'fall' }, credits: { organic_matter: true }, strategy: { n: { method: 'mass_balance' }, tolerance_pct: 0 }, products: [{ product: 'urea', placements: ['side_band'], step: 0 }] });
+    const p = plan({
+      crop: 'canola',
+      target_yield_bu: 50,
+      soil_test: { nitrate_sampled: 'fall' },
+      credits: { organic_matter: true },
+      strategy: { n: { method: 'mass_balance' }, tolerance_pct: 0 },
+      products: [{ product: 'urea', placements: ['side_band'], step: 0 }],
+    });
     const d = decide(SOIL, p, T);
     expect(d.nutrients.n.target.lbac).toBeCloseTo(150 - (25 + 44.8), 9);
-    const credit = plan({ crop: 'canola', target_yield_bu: 50, soil_test: { nitrate_sampled: 'fall' }, credits: { organic_matter: true, fall_sample_mineralization: true }, strategy: { n: { method: 'mass_balance' }, tolerance_pct: 0 }, products: [{ product: 'urea', placements: ['side_band'], step: 0 }] });
+    const credit = plan({
+      crop: 'canola',
+      target_yield_bu: 50,
+      soil_test: { nitrate_sampled: 'fall' },
+      credits: { organic_matter: true, fall_sample_mineralization: true },
+      strategy: { n: { method: 'mass_balance' }, tolerance_pct: 0 },
+      products: [{ product: 'urea', placements: ['side_band'], step: 0 }],
+    });
     expect(decide(SOIL, credit, T).nutrients.n.target.lbac).toBeCloseTo(150 - (25 + 8 + 44.8), 9);
-    const spring = plan({ crop: 'canola', target_yield_bu: 50, soil_test: { nitrate_sampled: 'spring' }, credits: { organic_matter: true, fall_sample_mineralization: true }, strategy: { n: { method: 'mass_balance' }, tolerance_pct: 0 }, products: [{ product: 'urea', placements: ['side_band'], step: 0 }] });
+    const spring = plan({
+      crop: 'canola',
+      target_yield_bu: 50,
+      soil_test: { nitrate_sampled: 'spring' },
+      credits: { organic_matter: true, fall_sample_mineralization: true },
+      strategy: { n: { method: 'mass_balance' }, tolerance_pct: 0 },
+      products: [{ product: 'urea', placements: ['side_band'], step: 0 }],
+    });
     expect(decide(SOIL, spring, T).nutrients.n.target.lbac).toBeCloseTo(150 - (25 + 44.8), 9);
     // floored at 0
     expect(decide({ ...SOIL, no3_n: 300 }, p, T).nutrients.n.target.lbac).toBe(0);
@@ -114,14 +186,25 @@ describe('interpretation', () => {
 
   it('60 bu/ac canola removes about 54 lb P2O5/ac', () => {
     // common practice: 0.9 lb P2O5/bu (agronomy.md check value)
-    const p = plan({ crop: 'canola', target_yield_bu: 60, strategy: { p: { method: 'removal' }, tolerance_pct: 0 } });
+    const p = plan({
+      crop: 'canola',
+      target_yield_bu: 60,
+      strategy: { p: { method: 'removal' }, tolerance_pct: 0 },
+    });
     expect(decide(SOIL, p, T).nutrients.p2o5.target.lbac).toBeCloseTo(54, 9);
   });
 
   it('P build: removal plus the rise toward the target test over the years', () => {
     // arithmetic; 18 lb P2O5 per ppm is within the published 12-40 (Canola Watch 2016)
-    const p = plan({ crop: 'wheat', target_yield_bu: 60, strategy: { p: { method: 'build', build_to_ppm: 15, build_years: 4 }, tolerance_pct: 0 } });
-    expect(decide({ ...SOIL, p: 7 }, p, T).nutrients.p2o5.target.lbac).toBeCloseTo(0.59 * 60 + (8 * 18) / 4, 9);
+    const p = plan({
+      crop: 'wheat',
+      target_yield_bu: 60,
+      strategy: { p: { method: 'build', build_to_ppm: 15, build_years: 4 }, tolerance_pct: 0 },
+    });
+    expect(decide({ ...SOIL, p: 7 }, p, T).nutrients.p2o5.target.lbac).toBeCloseTo(
+      0.59 * 60 + (8 * 18) / 4,
+      9,
+    );
   });
 });
 
@@ -136,16 +219,51 @@ describe('seed-row limits', () => {
     // [published] Manitoba Agriculture, Guidelines for Safely Applying Fertilizer with Seed (cereals, urea-N, good moisture)
     // and Seed-Placed Nitrogen Fertilizer (canola, light soil); values typed here from agronomy.md, not read from the tables
     const published: [string, 'light' | 'medium' | 'heavy', number[][]][] = [
-      ['wheat', 'light', [[10, 0, 0], [20, 15, 10], [30, 20, 15]]],
-      ['wheat', 'medium', [[20, 15, 10], [30, 25, 20], [40, 30, 25]]],
-      ['wheat', 'heavy', [[25, 20, 10], [40, 30, 25], [50, 40, 30]]],
-      ['canola', 'light', [[0, 0, 0], [10, 0, 0], [20, 10, 0]]],
+      [
+        'wheat',
+        'light',
+        [
+          [10, 0, 0],
+          [20, 15, 10],
+          [30, 20, 15],
+        ],
+      ],
+      [
+        'wheat',
+        'medium',
+        [
+          [20, 15, 10],
+          [30, 25, 20],
+          [40, 30, 25],
+        ],
+      ],
+      [
+        'wheat',
+        'heavy',
+        [
+          [25, 20, 10],
+          [40, 30, 25],
+          [50, 40, 30],
+        ],
+      ],
+      [
+        'canola',
+        'light',
+        [
+          [0, 0, 0],
+          [10, 0, 0],
+          [20, 10, 0],
+        ],
+      ],
     ];
     for (const [crop, texture, rows] of published) {
       [1, 2, 3].forEach((spread, i) =>
         [6, 9, 12].forEach((row, j) => {
           const p = plan({ crop, implement: { opener_spread_in: spread, row_spacing_in: row } });
-          expect(seedRowLimits(T.crops[crop]!, crop, texture, p, T).n, `${crop} ${texture} ${spread} in / ${row} in`).toBeCloseTo(rows[i]![j]!, 9);
+          expect(
+            seedRowLimits(T.crops[crop]!, crop, texture, p, T).n,
+            `${crop} ${texture} ${spread} in / ${row} in`,
+          ).toBeCloseTo(rows[i]![j]!, 9);
         }),
       );
     }
@@ -177,9 +295,17 @@ describe('seed-row limits', () => {
       expect((e as Error).message).toContain('seed_row.safe_n_lb');
       expect((e as Error).message).toContain('seed_row.when_table_missing');
     }
-    const light = plan({ crop: 'canola', implement: { opener_spread_in: 3, row_spacing_in: 6 }, seed_row: { when_table_missing: 'light_soil_values' } });
+    const light = plan({
+      crop: 'canola',
+      implement: { opener_spread_in: 3, row_spacing_in: 6 },
+      seed_row: { when_table_missing: 'light_soil_values' },
+    });
     expect(seedRowLimits(T.crops.canola!, 'canola', 'heavy', light, T).n).toBe(20);
-    const none = plan({ crop: 'canola', implement: { opener_spread_in: 3, row_spacing_in: 6 }, seed_row: { when_table_missing: 'none_in_seed_row' } });
+    const none = plan({
+      crop: 'canola',
+      implement: { opener_spread_in: 3, row_spacing_in: 6 },
+      seed_row: { when_table_missing: 'none_in_seed_row' },
+    });
     expect(seedRowLimits(T.crops.canola!, 'canola', 'heavy', none, T).n).toBe(0);
     const given = plan({ crop: 'canola', seed_row: { safe_n_lb: 12 } });
     expect(seedRowLimits(T.crops.canola!, 'canola', 'heavy', given, T).n).toBe(12);
@@ -188,23 +314,35 @@ describe('seed-row limits', () => {
 
   it('P2O5 and K2O with the seed are additive: with a 30 lb limit, 10 lb K2O leaves 20 lb P2O5', () => {
     // common practice (agronomy.md): adding 10 lb K2O to a 30 lb P2O5 safe rate leaves room for only 20 lb P2O5
-    const t = loadTables('crops:\n  wheat:\n    seed_row_p2o5:\n      manitoba: { value: 30, spread_in: 1, rows_in: 7, source: "test" }\n', 't.yaml');
+    const t = loadTables(
+      'crops:\n  wheat:\n    seed_row_p2o5:\n      manitoba: { value: 30, spread_in: 1, rows_in: 7, source: "test" }\n',
+      't.yaml',
+    );
     const p = plan(
       {
         strategy: { p: { method: 'removal' }, k: { method: 'response_class' }, tolerance_pct: 0 },
         implement: { opener_spread_in: 1, row_spacing_in: 7, placements: ['seed_row', 'side_band'] },
         seed_row: { safe_n_lb: 100 },
         // potash only in the seed row, so its K2O must go there; MAP may go either way
-        products: [{ product: 'potash', placements: ['seed_row'], step: 0 }, { product: 'map', placements: ['seed_row', 'side_band'], step: 0 }],
+        products: [
+          { product: 'potash', placements: ['seed_row'], step: 0 },
+          { product: 'map', placements: ['seed_row', 'side_band'], step: 0 },
+        ],
       },
       t,
     );
     // K class medium -> 30 lb K2O would need the whole row; a 10 lb K2O target comes from an edited class table
-    const t2 = loadTables('crops:\n  wheat:\n    seed_row_p2o5:\n      manitoba: { value: 30, spread_in: 1, rows_in: 7, source: "test" }\nk_min_useful_lb: { value: 5, source: test }\nk_classes:\n  default:\n    - { name: very_low, below_ppm: 60, response_probability: 0.9, k2o_lb: 80, source: test }\n    - { name: low, below_ppm: 90, response_probability: 0.7, k2o_lb: 60, source: test }\n    - { name: medium, below_ppm: 125, response_probability: 0.4, k2o_lb: 10, source: test }\n    - { name: adequate, below_ppm: null, response_probability: 0.05, k2o_lb: 0, source: test }\n', 't.yaml');
+    const t2 = loadTables(
+      'crops:\n  wheat:\n    seed_row_p2o5:\n      manitoba: { value: 30, spread_in: 1, rows_in: 7, source: "test" }\nk_min_useful_lb: { value: 5, source: test }\nk_classes:\n  default:\n    - { name: very_low, below_ppm: 60, response_probability: 0.9, k2o_lb: 80, source: test }\n    - { name: low, below_ppm: 90, response_probability: 0.7, k2o_lb: 60, source: test }\n    - { name: medium, below_ppm: 125, response_probability: 0.4, k2o_lb: 10, source: test }\n    - { name: adequate, below_ppm: null, response_probability: 0.05, k2o_lb: 0, source: test }\n',
+      't.yaml',
+    );
     const d = decide({ ...SOIL, k: 110 }, { ...p }, t2);
     expect(d.seedRow.applied.k2o).toBeCloseTo(10, 6);
     expect(d.seedRow.applied.p2o5).toBeCloseTo(20, 6);
-    expect(d.placements.find((x) => x.placement === 'side_band')!.nutrients.p2o5).toBeCloseTo(0.59 * 60 - 20, 6);
+    expect(d.placements.find((x) => x.placement === 'side_band')!.nutrients.p2o5).toBeCloseTo(
+      0.59 * 60 - 20,
+      6,
+    );
     expect(d.binding.join()).toContain('seed-row P2O5 + K2O limit 30 lb/ac');
     void t;
   });
@@ -213,7 +351,10 @@ describe('seed-row limits', () => {
 describe('products', () => {
   it('20 lb P2O5 as MAP 11-52-0 is 38.5 lb of product carrying 4.2 lb N', () => {
     // arithmetic on the published analysis ([published] IFA product tables): 20 / 0.52 = 38.46; x 0.11 = 4.23
-    const t = loadTables('crops:\n  wheat:\n    removal_per_bu:\n      p2o5: { value: 0.4, source: "test" }\n', 't.yaml');
+    const t = loadTables(
+      'crops:\n  wheat:\n    removal_per_bu:\n      p2o5: { value: 0.4, source: "test" }\n',
+      't.yaml',
+    );
     const p = plan({ target_yield_bu: 50, strategy: { p: { method: 'removal' }, tolerance_pct: 0 } }, t);
     const d = decide(SOIL, p, t);
     const map = d.placements[0]!.products[0]!;
@@ -241,14 +382,25 @@ describe('products', () => {
     );
     const p = plan(
       {
-        strategy: { n: { method: 'mass_balance' }, p: { method: 'removal' }, s: { method: 'need_or_floor' }, tolerance_pct: 0 },
-        products: ['map', 'urea', 'ammonium_sulphate'].map((product) => ({ product, placements: ['side_band'], step: 0 })),
+        strategy: {
+          n: { method: 'mass_balance' },
+          p: { method: 'removal' },
+          s: { method: 'need_or_floor' },
+          tolerance_pct: 0,
+        },
+        products: ['map', 'urea', 'ammonium_sulphate'].map((product) => ({
+          product,
+          placements: ['side_band'],
+          step: 0,
+        })),
       },
       t,
     );
     // N: 2 x 60 - 20 nitrate = 100; P2O5: 0.5 x 60 = 30; S: floor 15 (test not low)
     const d = decide({ ...SOIL, no3_n: 20, so4_s: 40 }, p, t);
-    expect([d.nutrients.n.target.lbac, d.nutrients.p2o5.target.lbac, d.nutrients.s.target.lbac]).toEqual([100, 30, 15]);
+    expect([d.nutrients.n.target.lbac, d.nutrients.p2o5.target.lbac, d.nutrients.s.target.lbac]).toEqual([
+      100, 30, 15,
+    ]);
     const rate = (name: string) => d.placements[0]!.products.find((x) => x.product === name)?.rate.lbac ?? 0;
     expect(rate('map')).toBeCloseTo(57.692, 2);
     expect(rate('ammonium_sulphate')).toBeCloseTo(62.5, 2);
@@ -259,10 +411,13 @@ describe('products', () => {
   it('machine step and minimum: rates are whole steps, zero or at least the minimum', () => {
     // common practice: meters apply in fixed increments and cannot meter below a minimum
     const p = plan({
-      crop: 'canola', target_yield_bu: 50,
+      crop: 'canola',
+      target_yield_bu: 50,
       seed_row: { safe_n_lb: 20 },
       strategy: { p: { method: 'response_class' }, tolerance_pct: 5 },
-      products: [{ product: 'map', placements: ['seed_row', 'side_band'], step: 5, min_rate: 40, max_rate: 150 }],
+      products: [
+        { product: 'map', placements: ['seed_row', 'side_band'], step: 5, min_rate: 40, max_rate: 150 },
+      ],
     });
     const d = decide({ ...SOIL, p: 12 }, p, T); // medium class: 30 lb P2O5 -> 57.7 lb MAP -> 60 in steps of 5
     const rates = d.placements.flatMap((x) => x.products.map((q) => q.rate.lbac));
@@ -276,7 +431,11 @@ describe('products', () => {
   });
 
   it('kg/ha plans give machine steps in kg/ha', () => {
-    const p = plan({ units: 'kg/ha', strategy: { p: { method: 'removal' }, tolerance_pct: 5 }, products: [{ product: 'map', placements: ['side_band'], step: 10 }] });
+    const p = plan({
+      units: 'kg/ha',
+      strategy: { p: { method: 'removal' }, tolerance_pct: 5 },
+      products: [{ product: 'map', placements: ['side_band'], step: 10 }],
+    });
     const q = decide(SOIL, p, T).placements[0]!.products[0]!;
     expect(q.rate.unit).toBe('kg/ha');
     expect(q.rate.value % 10).toBe(0);
@@ -286,7 +445,8 @@ describe('products', () => {
   it('an infeasible plan says which nutrient and why', () => {
     // S must go with canola, but ammonium sulphate is allowed only in the seed row, where the light-soil N limit at 10 % SBU is 0
     const p = plan({
-      crop: 'canola', target_yield_bu: 50,
+      crop: 'canola',
+      target_yield_bu: 50,
       seed_row: { when_table_missing: 'light_soil_values' },
       strategy: { s: { method: 'need_or_floor' }, tolerance_pct: 0 },
       products: [{ product: 'ammonium_sulphate', placements: ['seed_row'], step: 0 }],
@@ -296,13 +456,22 @@ describe('products', () => {
     expect(d.infeasible[0]!.nutrient).toBe('s');
     expect(d.infeasible[0]!.reason).toContain('No product that carries S is allowed outside the seed row');
     expect(d.infeasible[0]!.reason).toContain('seed-row urea-type N limit 0 lb/ac');
-    const q = plan({ crop: 'canola', seed_row: { when_table_missing: 'light_soil_values' }, strategy: { s: { method: 'need_or_floor' }, tolerance_pct: 0 } });
-    expect(decide(SOIL, q, T).infeasible[0]!.reason).toMatch(/no product in the plan carries S.*ammonium_sulphate/);
+    const q = plan({
+      crop: 'canola',
+      seed_row: { when_table_missing: 'light_soil_values' },
+      strategy: { s: { method: 'need_or_floor' }, tolerance_pct: 0 },
+    });
+    expect(decide(SOIL, q, T).infeasible[0]!.reason).toMatch(
+      /no product in the plan carries S.*ammonium_sulphate/,
+    );
   });
 
   it('expected return is probability x yield gain x price - the cost P adds', () => {
     // definition in the issue; the yield-gain table is an estimate (from memory)
-    const p = plan({ crop_price_per_bu: 10, strategy: { p: { method: 'response_class' }, tolerance_pct: 0 } });
+    const p = plan({
+      crop_price_per_bu: 10,
+      strategy: { p: { method: 'response_class' }, tolerance_pct: 0 },
+    });
     const d = decide({ ...SOIL, p: 3 }, p, T);
     const e = d.economics.find((x) => x.nutrient === 'p2o5')!;
     expect(e.responseProbability).toBe(1);
@@ -325,7 +494,13 @@ describe('P rates follow the soil class', () => {
   it('build + removal on very low and low, removal on medium, half on high, starter or none on very high', () => {
     // common practice (agronomy.md): 10-20 ppm is the maintenance range, apply crop removal there;
     // canola 60 bu x 0.9 = 54 lb P2O5 (common practice); build: 18 lb P2O5/ppm ([published] Canola Watch 2016: 12-40) to 15 ppm over 4 yr
-    const p = plan({ crop: 'canola', target_yield_bu: 60, implement: { placements: ['side_band'] }, strategy: { p: { method: 'response_class' } }, products: [{ product: 'map', placements: ['side_band'], step: 0 }] });
+    const p = plan({
+      crop: 'canola',
+      target_yield_bu: 60,
+      implement: { placements: ['side_band'] },
+      strategy: { p: { method: 'response_class' } },
+      products: [{ product: 'map', placements: ['side_band'], step: 0 }],
+    });
     const at = (ppm: number) => decide({ ...SOIL, p: ppm }, p, T).nutrients.p2o5.target.lbac;
     expect(at(15)).toBeCloseTo(54, 9);
     expect(at(8)).toBeCloseTo(54 + ((15 - 8) * 18) / 4, 9);
@@ -334,9 +509,18 @@ describe('P rates follow the soil class', () => {
     expect(at(35)).toBe(0); // no seed row here: no starter
     // the rate never rises with the soil test
     let prev = Infinity;
-    for (let ppm = 0; ppm <= 40; ppm += 0.5) { expect(at(ppm)).toBeLessThanOrEqual(prev + 1e-9); prev = at(ppm); }
+    for (let ppm = 0; ppm <= 40; ppm += 0.5) {
+      expect(at(ppm)).toBeLessThanOrEqual(prev + 1e-9);
+      prev = at(ppm);
+    }
     // canola is always offered its seed-row starter ([published] Canola Council of Canada, Right rates for seed-placed fertilizer)
-    const s = plan({ crop: 'canola', target_yield_bu: 60, strategy: { p: { method: 'response_class' } }, seed_row: { when_table_missing: 'none_in_seed_row' }, products: [{ product: 'map', placements: ['seed_row', 'side_band'], step: 5 }] });
+    const s = plan({
+      crop: 'canola',
+      target_yield_bu: 60,
+      strategy: { p: { method: 'response_class' } },
+      seed_row: { when_table_missing: 'none_in_seed_row' },
+      products: [{ product: 'map', placements: ['seed_row', 'side_band'], step: 5 }],
+    });
     const vh = decide({ ...SOIL, p: 35 }, s, T);
     expect(vh.nutrients.p2o5.target.lbac).toBeGreaterThan(0);
     expect(vh.seedRow.applied.p2o5).toBeCloseTo(vh.nutrients.p2o5.target.lbac, 6);

@@ -4,7 +4,17 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { decide, defaultTables, loadTables, parsePlan, planTemplate, seedRowLimits, validatePlan, type PlanInput, type Tables } from '../../src/agronomy/index.js';
+import {
+  decide,
+  defaultTables,
+  loadTables,
+  parsePlan,
+  planTemplate,
+  seedRowLimits,
+  validatePlan,
+  type PlanInput,
+  type Tables,
+} from '../../src/agronomy/index.js';
 import { isUserError } from '../../src/errors.js';
 
 const T = defaultTables();
@@ -14,16 +24,25 @@ const SOIL = { no3_n: 25, p: 8, k: 140, so4_s: 12, om: 4, texture: 'medium' as c
 function plan(over: Partial<PlanInput> & Record<string, unknown>, tables: Tables = T) {
   return validatePlan(
     {
-      crop: 'canola', target_yield_bu: 50, seed_row: { when_table_missing: 'none_in_seed_row' }, products: [{ product: 'map', step: 0 }],
+      crop: 'canola',
+      target_yield_bu: 50,
+      seed_row: { when_table_missing: 'none_in_seed_row' },
+      products: [{ product: 'map', step: 0 }],
       ...over,
-      strategy: { n: { method: 'none' }, k: { method: 'none' }, s: { method: 'none' }, ...(over.strategy as object) },
+      strategy: {
+        n: { method: 'none' },
+        k: { method: 'none' },
+        s: { method: 'none' },
+        ...(over.strategy as object),
+      },
     },
     'test plan',
     tables,
   );
 }
 type Placement = 'seed_row' | 'side_band' | 'mid_row_band' | 'broadcast';
-const seedProducts = (d: ReturnType<typeof decide>) => d.placements.find((p) => p.placement === 'seed_row')?.products.map((q) => q.product) ?? [];
+const seedProducts = (d: ReturnType<typeof decide>) =>
+  d.placements.find((p) => p.placement === 'seed_row')?.products.map((q) => q.product) ?? [];
 
 describe('phosphate with canola and pea seed', () => {
   it('MAP goes with canola seed although the urea-N table allows 0: its N is within the P2O5-as-MAP limit', () => {
@@ -31,7 +50,11 @@ describe('phosphate with canola and pea seed', () => {
     // medium soil, 1 in spread: 0 lb urea-N on 6 and 9 in rows; [published] Manitoba Agriculture, Safe Rates of
     // Seed-Placed Phosphorus: the P2O5 limits are stated as MAP (canola 20 lb P2O5, 1 in spread, 6-7 in rows)
     const p = plan({
-      products: [{ product: 'map', placements: ['seed_row', 'side_band'], step: 0 }, { product: 'ammonium_sulphate', placements: ['seed_row', 'side_band'], step: 0 }, { product: 'urea', placements: ['seed_row', 'side_band'], step: 0 }],
+      products: [
+        { product: 'map', placements: ['seed_row', 'side_band'], step: 0 },
+        { product: 'ammonium_sulphate', placements: ['seed_row', 'side_band'], step: 0 },
+        { product: 'urea', placements: ['seed_row', 'side_band'], step: 0 },
+      ],
       strategy: { n: { method: 'mass_balance' }, s: { method: 'need_or_floor' } },
     });
     const d = decide(SOIL, p, T);
@@ -49,14 +72,28 @@ describe('phosphate with canola and pea seed', () => {
     expect(d.status).toBe('ok');
     expect(seedProducts(d)).toEqual(['map']);
     const sk = { ...p, seed_row: { ...p.seed_row, p_guideline: 'saskatchewan' as const } };
-    expect(seedRowLimits(T.crops.peas!, 'peas', 'medium', sk, T).p2o5).toBeCloseTo(15 * 9 / 10, 9);
+    expect(seedRowLimits(T.crops.peas!, 'peas', 'medium', sk, T).p2o5).toBeCloseTo((15 * 9) / 10, 9);
   });
 
   it('the P limit is lowered for wider rows, never raised for a wider spread, halved in a dry seedbed', () => {
     // common practice (agronomy.md): lower the as-MAP rates for a 1 in spread on wider rows, never raise them
     // automatically for a wider spread; halve them in a dry seedbed
-    const at = (spread: number, row: number, moisture: 'good' | 'dry' = 'good', guide: 'manitoba' | 'saskatchewan' = 'manitoba') =>
-      seedRowLimits(T.crops.canola!, 'canola', 'medium', plan({ implement: { opener_spread_in: spread, row_spacing_in: row, seedbed_moisture: moisture }, seed_row: { when_table_missing: 'none_in_seed_row', p_guideline: guide } }), T).p2o5;
+    const at = (
+      spread: number,
+      row: number,
+      moisture: 'good' | 'dry' = 'good',
+      guide: 'manitoba' | 'saskatchewan' = 'manitoba',
+    ) =>
+      seedRowLimits(
+        T.crops.canola!,
+        'canola',
+        'medium',
+        plan({
+          implement: { opener_spread_in: spread, row_spacing_in: row, seedbed_moisture: moisture },
+          seed_row: { when_table_missing: 'none_in_seed_row', p_guideline: guide },
+        }),
+        T,
+      ).p2o5;
     expect(at(1, 7)).toBeCloseTo(20, 9);
     expect(at(1, 14)).toBeCloseTo(10, 9);
     expect(at(3, 7)).toBeCloseTo(20, 9);
@@ -68,7 +105,10 @@ describe('phosphate with canola and pea seed', () => {
   });
 
   it('says why a P need got no seed P when the limit is below what MAP carries at its minimum rate', () => {
-    const p = plan({ implement: { opener_spread_in: 1, row_spacing_in: 15 }, products: [{ product: 'map', placements: ['seed_row', 'side_band'], min_rate: 20, step: 5 }] });
+    const p = plan({
+      implement: { opener_spread_in: 1, row_spacing_in: 15 },
+      products: [{ product: 'map', placements: ['seed_row', 'side_band'], min_rate: 20, step: 5 }],
+    });
     const d = decide(SOIL, p, T);
     expect(d.seedRow.applied.p2o5).toBe(0);
     expect(d.warnings.find((w) => w.code === 'no-seed-p')!.message).toMatch(/below the 10.4 lb P2O5/);
@@ -81,8 +121,25 @@ describe('phosphate before potash; the potash rules', () => {
     // Broadcast is half as efficient for both ([published] Manitoba Soil Fertility Guide, Potassium; P from memory),
     // so by price alone the dear product (potash here) would take the seed row.
     const p = plan({
-      crop: 'wheat', target_yield_bu: 60, implement: { opener_spread_in: 1, row_spacing_in: 7, placements: ['seed_row', 'broadcast'] },
-      products: [{ product: 'potash', price_per_tonne: 3000, placements: ['seed_row', 'broadcast'], step: 0, max_rate: 800 }, { product: 'map', price_per_tonne: 50, placements: ['seed_row', 'broadcast'], step: 0, max_rate: 800 }],
+      crop: 'wheat',
+      target_yield_bu: 60,
+      implement: { opener_spread_in: 1, row_spacing_in: 7, placements: ['seed_row', 'broadcast'] },
+      products: [
+        {
+          product: 'potash',
+          price_per_tonne: 3000,
+          placements: ['seed_row', 'broadcast'],
+          step: 0,
+          max_rate: 800,
+        },
+        {
+          product: 'map',
+          price_per_tonne: 50,
+          placements: ['seed_row', 'broadcast'],
+          step: 0,
+          max_rate: 800,
+        },
+      ],
       strategy: { k: { method: 'response_class' } },
     });
     const d = decide({ ...SOIL, p: 8, k: 50 }, p, T);
@@ -95,14 +152,29 @@ describe('phosphate before potash; the potash rules', () => {
   it('canola: no potash with the seed unless the plan opts in, then at most 15 lb K2O and alone', () => {
     // [published] Alberta Agriculture potassium guide (older edition): canola, flax, peas at most 15 lb K2O/ac with
     // the seed and only if nothing else goes with the seed
-    const products = [{ product: 'map', placements: ['seed_row', 'side_band'] as Placement[] }, { product: 'potash', placements: ['seed_row', 'side_band'] as Placement[] }];
-    const off = decide({ ...SOIL, k: 40 }, plan({ products, strategy: { k: { method: 'response_class' } } }), T);
+    const products = [
+      { product: 'map', placements: ['seed_row', 'side_band'] as Placement[] },
+      { product: 'potash', placements: ['seed_row', 'side_band'] as Placement[] },
+    ];
+    const off = decide(
+      { ...SOIL, k: 40 },
+      plan({ products, strategy: { k: { method: 'response_class' } } }),
+      T,
+    );
     expect(off.seedRow.applied.k2o).toBe(0);
-    const optIn = plan({ products, strategy: { k: { method: 'response_class' } }, seed_row: { when_table_missing: 'none_in_seed_row', potash_with_seed: true } });
+    const optIn = plan({
+      products,
+      strategy: { k: { method: 'response_class' } },
+      seed_row: { when_table_missing: 'none_in_seed_row', potash_with_seed: true },
+    });
     const withP = decide({ ...SOIL, k: 40 }, optIn, T);
     expect(withP.seedRow.applied.k2o).toBe(0); // the P need has the row
     expect(seedProducts(withP)).toEqual(['map']);
-    const noP = decide({ ...SOIL, k: 40 }, { ...optIn, strategy: { ...optIn.strategy, p: { ...optIn.strategy.p, method: 'none' } } }, T);
+    const noP = decide(
+      { ...SOIL, k: 40 },
+      { ...optIn, strategy: { ...optIn.strategy, p: { ...optIn.strategy.p, method: 'none' } } },
+      T,
+    );
     expect(seedProducts(noP)).toEqual(['potash']);
     expect(noP.seedRow.applied.k2o).toBeGreaterThan(0);
     expect(noP.seedRow.applied.k2o).toBeLessThanOrEqual(15 + 1e-9);
@@ -111,9 +183,20 @@ describe('phosphate before potash; the potash rules', () => {
   it('cereals: N + K2O with the seed at most 40 lb/ac', () => {
     // [published] Alberta Agriculture potassium guide (older edition): N + K2O with the seed at most 40 lb/ac
     const p = plan({
-      crop: 'barley', target_yield_bu: 80, implement: { opener_spread_in: 3, row_spacing_in: 6 }, seed_row: { when_table_missing: 'ask' },
-      products: [{ product: 'urea', placements: ['seed_row', 'side_band'], step: 0 }, { product: 'potash', placements: ['seed_row'], step: 0 }],
-      strategy: { n: { method: 'mass_balance' }, p: { method: 'none' }, k: { method: 'response_class' }, tolerance_pct: 25 },
+      crop: 'barley',
+      target_yield_bu: 80,
+      implement: { opener_spread_in: 3, row_spacing_in: 6 },
+      seed_row: { when_table_missing: 'ask' },
+      products: [
+        { product: 'urea', placements: ['seed_row', 'side_band'], step: 0 },
+        { product: 'potash', placements: ['seed_row'], step: 0 },
+      ],
+      strategy: {
+        n: { method: 'mass_balance' },
+        p: { method: 'none' },
+        k: { method: 'response_class' },
+        tolerance_pct: 25,
+      },
     });
     const d = decide({ ...SOIL, no3_n: 0, k: 100 }, p, T);
     // [published] Manitoba Agriculture: medium soil, 3 in spread on 6 in rows, 40 lb urea-N; potash must go with the seed
@@ -162,8 +245,16 @@ describe('potassium by class, practical rates', () => {
 });
 
 describe('N efficiency by placement and timing', () => {
-  const products = (pl: 'side_band' | 'broadcast') => [{ product: 'urea', placements: [pl], step: 0, max_rate: 800 }];
-  const base = { crop: 'wheat', target_yield_bu: 60, implement: { placements: ['seed_row', 'side_band', 'broadcast'] as Placement[] }, seed_row: { when_table_missing: 'ask' as const }, strategy: { n: { method: 'mass_balance' as const }, p: { method: 'none' as const }, tolerance_pct: 0 } };
+  const products = (pl: 'side_band' | 'broadcast') => [
+    { product: 'urea', placements: [pl], step: 0, max_rate: 800 },
+  ];
+  const base = {
+    crop: 'wheat',
+    target_yield_bu: 60,
+    implement: { placements: ['seed_row', 'side_band', 'broadcast'] as Placement[] },
+    seed_row: { when_table_missing: 'ask' as const },
+    strategy: { n: { method: 'mass_balance' as const }, p: { method: 'none' as const }, tolerance_pct: 0 },
+  };
 
   it('spring broadcast N counts 100/120 of spring-banded N; fall banding as spring broadcast', () => {
     // [published] Canola Digest, Jan 2018 (Manitoba relative values, spring broadcast = 100): spring band about
@@ -171,22 +262,58 @@ describe('N efficiency by placement and timing', () => {
     const band = decide(SOIL, plan({ ...base, products: products('side_band') }), T);
     const bc = decide(SOIL, plan({ ...base, products: products('broadcast') }), T);
     expect(bc.nutrients.n.supplied.lbac / band.nutrients.n.supplied.lbac).toBeCloseTo(1.2, 6);
-    const fall = decide(SOIL, plan({ ...base, strategy: { ...base.strategy, n: { timing: 'fall' } }, products: products('side_band') }), T);
+    const fall = decide(
+      SOIL,
+      plan({
+        ...base,
+        strategy: { ...base.strategy, n: { timing: 'fall' } },
+        products: products('side_band'),
+      }),
+      T,
+    );
     expect(fall.nutrients.n.supplied.lbac).toBeCloseTo(bc.nutrients.n.supplied.lbac, 6);
   });
 
   it('fall broadcast is missing from the table: the plan is asked, never given an invented value', () => {
     try {
-      decide(SOIL, plan({ ...base, strategy: { ...base.strategy, n: { timing: 'fall' } }, products: products('broadcast') }), T);
+      decide(
+        SOIL,
+        plan({
+          ...base,
+          strategy: { ...base.strategy, n: { timing: 'fall' } },
+          products: products('broadcast'),
+        }),
+        T,
+      );
       expect.unreachable();
     } catch (e) {
       expect(isUserError(e)).toBe(true);
       expect((e as Error).message).toContain('strategy.n.efficiency');
     }
-    const given = decide(SOIL, plan({ ...base, strategy: { ...base.strategy, n: { timing: 'fall', efficiency: 0.7 } }, products: products('broadcast') }), T);
+    const given = decide(
+      SOIL,
+      plan({
+        ...base,
+        strategy: { ...base.strategy, n: { timing: 'fall', efficiency: 0.7 } },
+        products: products('broadcast'),
+      }),
+      T,
+    );
     expect(given.nutrients.n.target.lbac).toBeCloseTo((2.75 * 60 - 25) / 0.7, 6);
-    const edited = loadTables('n_relative_efficiency:\n  fall:\n    broadcast: { value: 70, source: "my agronomist" }\n', 't.yaml');
-    expect(decide(SOIL, plan({ ...base, strategy: { ...base.strategy, n: { timing: 'fall' } }, products: products('broadcast') }, edited), edited).status).toBe('ok');
+    const edited = loadTables(
+      'n_relative_efficiency:\n  fall:\n    broadcast: { value: 70, source: "my agronomist" }\n',
+      't.yaml',
+    );
+    expect(
+      decide(
+        SOIL,
+        plan(
+          { ...base, strategy: { ...base.strategy, n: { timing: 'fall' } }, products: products('broadcast') },
+          edited,
+        ),
+        edited,
+      ).status,
+    ).toBe('ok');
   });
 });
 
@@ -195,7 +322,11 @@ describe('demo data', () => {
     const csv = readFileSync(new URL('../../sample-fields/quarter/samples.csv', import.meta.url), 'utf8');
     const received = /^Received,(\d{4})-(\d{2})-\d{2}/m.exec(csv)!;
     expect(Number(received[2])).toBeGreaterThanOrEqual(9); // received in the fall
-    const p = parsePlan(readFileSync(new URL('../../sample-fields/quarter/plan.yaml', import.meta.url), 'utf8'), 'plan.yaml', T);
+    const p = parsePlan(
+      readFileSync(new URL('../../sample-fields/quarter/plan.yaml', import.meta.url), 'utf8'),
+      'plan.yaml',
+      T,
+    );
     expect(p.soil_test.nitrate_sampled).toBe('fall');
   });
 });

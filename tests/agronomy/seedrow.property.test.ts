@@ -8,7 +8,15 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { decide, defaultTables, sbuPct, validatePlan, PLACEMENTS, type Decision, type Plan } from '../../src/agronomy/index.js';
+import {
+  decide,
+  defaultTables,
+  sbuPct,
+  validatePlan,
+  PLACEMENTS,
+  type Decision,
+  type Plan,
+} from '../../src/agronomy/index.js';
 
 const T = defaultTables();
 const crops = Object.keys(T.crops);
@@ -23,7 +31,14 @@ const soilArb = fc.record({
   texture: fc.constantFrom('light', 'medium', 'heavy', null),
 });
 
-interface ProductPick { product: string; placementsPick: string[]; step: number; min_rate: number; max_rate: number; price_per_tonne: number }
+interface ProductPick {
+  product: string;
+  placementsPick: string[];
+  step: number;
+  min_rate: number;
+  max_rate: number;
+  price_per_tonne: number;
+}
 const productArb = fc.record({
   product: fc.constantFrom(...products),
   placementsPick: fc.subarray([...PLACEMENTS] as string[], { minLength: 1 }),
@@ -46,14 +61,27 @@ const planArb = fc
     spread: fc.double({ min: 0.5, max: 4, noNaN: true }),
     row: fc.double({ min: 6, max: 15, noNaN: true }),
     moisture: fc.constantFrom('good', 'dry'),
-    implPlacements: fc.oneof(fc.constant(['seed_row', 'side_band']), fc.constant(['seed_row', 'side_band']), fc.constant(['seed_row']), fc.constant(['seed_row', 'broadcast']), fc.subarray([...PLACEMENTS], { minLength: 1 })),
+    implPlacements: fc.oneof(
+      fc.constant(['seed_row', 'side_band']),
+      fc.constant(['seed_row', 'side_band']),
+      fc.constant(['seed_row']),
+      fc.constant(['seed_row', 'broadcast']),
+      fc.subarray([...PLACEMENTS], { minLength: 1 }),
+    ),
     missing: fc.constantFrom('light_soil_values', 'none_in_seed_row'),
     guideline: fc.constantFrom('manitoba', 'saskatchewan'),
     potashWithSeed: fc.boolean(),
     safeN: fc.oneof(fc.constant(null), fc.integer({ min: 0, max: 40 })),
     products: fc.oneof(
       fc.uniqueArray(productArb, { minLength: 1, maxLength: 5, selector: (p) => p.product }), // a plan lists each product once
-      fc.tuple(productArb, productArb, productArb, productArb).map((a) => a.map((p, i) => ({ ...p, product: ['map', 'urea', 'ammonium_sulphate', 'potash'][i]!, max_rate: 400, placementsPick: ['seed_row', 'side_band', 'broadcast'] }))),
+      fc.tuple(productArb, productArb, productArb, productArb).map((a) =>
+        a.map((p, i) => ({
+          ...p,
+          product: ['map', 'urea', 'ammonium_sulphate', 'potash'][i]!,
+          max_rate: 400,
+          placementsPick: ['seed_row', 'side_band', 'broadcast'],
+        })),
+      ),
     ),
   })
   .map((r): Plan =>
@@ -65,11 +93,30 @@ const planArb = fc
         soil_test: { p_method: r.p_method, nitrate_sampled: r.sampled },
         credits: { organic_matter: r.om },
         strategy: { p: { method: r.pm }, tolerance_pct: r.tolerance_pct },
-        implement: { opener_spread_in: r.spread, row_spacing_in: r.row, seedbed_moisture: r.moisture, placements: r.implPlacements },
-        seed_row: { safe_n_lb: r.safeN, when_table_missing: r.missing, p_guideline: r.guideline, potash_with_seed: r.potashWithSeed },
+        implement: {
+          opener_spread_in: r.spread,
+          row_spacing_in: r.row,
+          seedbed_moisture: r.moisture,
+          placements: r.implPlacements,
+        },
+        seed_row: {
+          safe_n_lb: r.safeN,
+          when_table_missing: r.missing,
+          p_guideline: r.guideline,
+          potash_with_seed: r.potashWithSeed,
+        },
         products: (r.products as ProductPick[]).map((p) => {
-          const allowed = p.placementsPick.filter((x: string) => (T.products[p.product]!.placements as string[]).includes(x));
-          return { product: p.product, placements: allowed.length ? allowed : T.products[p.product]!.placements, step: p.step, min_rate: p.min_rate, max_rate: p.max_rate, price_per_tonne: p.price_per_tonne };
+          const allowed = p.placementsPick.filter((x: string) =>
+            (T.products[p.product]!.placements as string[]).includes(x),
+          );
+          return {
+            product: p.product,
+            placements: allowed.length ? allowed : T.products[p.product]!.placements,
+            step: p.step,
+            min_rate: p.min_rate,
+            max_rate: p.max_rate,
+            price_per_tonne: p.price_per_tonne,
+          };
         }),
       },
       'random plan',
@@ -88,17 +135,26 @@ function publishedBound(plan: Plan, texture: 'light' | 'medium' | 'heavy'): numb
     if ('missing' in cell) return Infinity;
     let bound = Infinity;
     let largest = -Infinity;
-    cell.spreads_in.forEach((s, i) => cell.rows_in.forEach((r, j) => {
-      const v = cell.safe_n[i]![j];
-      if (v === null || v === undefined) return;
-      if ((s / r) * 100 >= sbu - 1e-9) bound = Math.min(bound, v);
-      largest = Math.max(largest, v);
-    }));
+    cell.spreads_in.forEach((s, i) =>
+      cell.rows_in.forEach((r, j) => {
+        const v = cell.safe_n[i]![j];
+        if (v === null || v === undefined) return;
+        if ((s / r) * 100 >= sbu - 1e-9) bound = Math.min(bound, v);
+        largest = Math.max(largest, v);
+      }),
+    );
     return bound === Infinity && cell.safe_n.flat().every((v) => v !== null) ? largest : bound;
   };
   let b = boundOf(group[texture]);
-  const fallback = plan.seed_row.when_table_missing === 'none_in_seed_row' ? 0 : Math.min(boundOf(group.light), 'missing' in group.light ? 0 : Infinity);
-  b = Number.isFinite(b) ? Math.max(b, Number.isFinite(fallback) ? fallback : 0) : (Number.isFinite(fallback) ? fallback : 0);
+  const fallback =
+    plan.seed_row.when_table_missing === 'none_in_seed_row'
+      ? 0
+      : Math.min(boundOf(group.light), 'missing' in group.light ? 0 : Infinity);
+  b = Number.isFinite(b)
+    ? Math.max(b, Number.isFinite(fallback) ? fallback : 0)
+    : Number.isFinite(fallback)
+      ? fallback
+      : 0;
   return plan.implement.seedbed_moisture === 'dry' ? b * T.dry_seedbed_factor.value : b;
 }
 
@@ -134,13 +190,18 @@ function checkRates(d: Decision, plan: Plan): void {
   for (const pl of d.placements) {
     for (const q of pl.products) {
       const t = T.products[q.product]!;
-      const choices = plan.products.filter((c) => c.product === q.product && (c.placements ?? t.placements).includes(pl.placement));
+      const choices = plan.products.filter(
+        (c) => c.product === q.product && (c.placements ?? t.placements).includes(pl.placement),
+      );
       const choice = choices[0]!;
       expect(q.rate.value).toBeGreaterThan(0);
       expect(q.rate.value).toBeLessThanOrEqual(Math.max(...choices.map((c) => c.max_rate)) + 1e-6);
       if (choices.length === 1) {
         expect(q.rate.value).toBeGreaterThanOrEqual(choice.min_rate - 1e-6);
-        if (choice.step > 0) expect(Math.abs(q.rate.value / choice.step - Math.round(q.rate.value / choice.step))).toBeLessThan(1e-6);
+        if (choice.step > 0)
+          expect(Math.abs(q.rate.value / choice.step - Math.round(q.rate.value / choice.step))).toBeLessThan(
+            1e-6,
+          );
       }
     }
   }
@@ -155,19 +216,30 @@ function checkPhosphateFirst(d: Decision, plan: Plan, sr: Sums, pLim: number): v
   const toLb = plan.units === 'kg/ha' ? 1 / 1.12085 : 1;
   for (const c of plan.products) {
     const t = T.products[c.product]!;
-    if (!(t.p2o5 > 0) || !(c.placements ?? t.placements).includes('seed_row') || !plan.implement.placements.includes('seed_row')) continue;
-    const now = d.placements.find((p) => p.placement === 'seed_row')?.products.find((q) => q.product === c.product)?.rate.lbac ?? 0;
+    if (
+      !(t.p2o5 > 0) ||
+      !(c.placements ?? t.placements).includes('seed_row') ||
+      !plan.implement.placements.includes('seed_row')
+    )
+      continue;
+    const now =
+      d.placements.find((p) => p.placement === 'seed_row')?.products.find((q) => q.product === c.product)
+        ?.rate.lbac ?? 0;
     const next = now > 0 ? now + Math.max(c.step, 1e-3) * toLb : Math.max(c.min_rate, c.step, 1e-3) * toLb;
     const fitsP = sr.p2o5 + ((next - now) * t.p2o5) / 100 <= pLim + 1e-6;
     const fitsN = t.seed_row_n !== 'counts' || sr.ureaN + ((next - now) * t.n) / 100 <= d.seedRow.n + 1e-6;
     const fitsMax = next <= c.max_rate * toLb + 1e-6;
-    expect(fitsP && fitsN && fitsMax, `${c.product} could take more of the seed row before potash`).toBe(false);
+    expect(fitsP && fitsN && fitsMax, `${c.product} could take more of the seed row before potash`).toBe(
+      false,
+    );
   }
 }
 
 describe('seed-row safety over random soils and plans', () => {
   it('never over any seed-row limit; no rate between 0 and min_rate; phosphate before potash', () => {
-    let feasible = 0, withSeedRow = 0, withSeedP = 0;
+    let feasible = 0,
+      withSeedRow = 0,
+      withSeedP = 0;
     fc.assert(
       fc.property(soilArb, planArb, (soil, plan) => {
         const d = decide(soil, plan, T);
@@ -190,14 +262,17 @@ describe('seed-row safety over random soils and plans', () => {
           expect(plan.seed_row.potash_with_seed).toBe(true);
           expect(sr.other).toBe(0);
         }
-        if (crop.seed_row_n_k2o_max.value !== null) expect(sr.n + sr.k2o).toBeLessThanOrEqual(crop.seed_row_n_k2o_max.value * dry + 1e-6);
+        if (crop.seed_row_n_k2o_max.value !== null)
+          expect(sr.n + sr.k2o).toBeLessThanOrEqual(crop.seed_row_n_k2o_max.value * dry + 1e-6);
         checkPhosphateFirst(d, plan, sr, pLim);
         if (d.status === 'ok') {
           feasible++;
           if (sr.n + sr.p2o5 + sr.k2o > 0) withSeedRow++;
           if (sr.p2o5 > 0) withSeedP++;
           for (const n of ['n', 'p2o5', 'k2o', 's'] as const) {
-            expect(d.nutrients[n].effective).toBeGreaterThanOrEqual(d.nutrients[n].target.lbac * (1 - plan.strategy.tolerance_pct / 100) - 1e-6);
+            expect(d.nutrients[n].effective).toBeGreaterThanOrEqual(
+              d.nutrients[n].target.lbac * (1 - plan.strategy.tolerance_pct / 100) - 1e-6,
+            );
           }
         } else {
           expect(d.infeasible.length).toBeGreaterThan(0);

@@ -17,7 +17,14 @@ describe('default tables', () => {
   it('every entry carries a source marked as in agronomy.md', () => {
     let entries = 0;
     walk(DEFAULT_TABLES, '', (path, node) => {
-      const holdsValue = 'value' in node || 'rule' in node || 'safe_n' in node || 'missing' in node || 'response_probability' in node || 'p2o5' in node && 'label' in node || 'n' in node && 'k2o' in node && 'form' in node;
+      const holdsValue =
+        'value' in node ||
+        'rule' in node ||
+        'safe_n' in node ||
+        'missing' in node ||
+        'response_probability' in node ||
+        ('p2o5' in node && 'label' in node) ||
+        ('n' in node && 'k2o' in node && 'form' in node);
       const isEff = path.startsWith('placement_efficiency.') && path.split('.').length === 2;
       if (!holdsValue && !isEff) return;
       entries++;
@@ -36,14 +43,22 @@ describe('default tables', () => {
     expect(t.products.potash!.k2o).toBe(60);
     // [published] Manitoba Agriculture, Safe Rates of Seed-Placed Phosphorus (as MAP, 1 in spread, 6-7 in rows):
     // cereals 50, canola 20, peas 20; Saskatchewan alongside: 50, 25, 15
-    expect(['wheat', 'canola', 'peas'].map((c) => t.crops[c]!.seed_row_p2o5.manitoba.value)).toEqual([50, 20, 20]);
-    expect(['wheat', 'canola', 'peas'].map((c) => t.crops[c]!.seed_row_p2o5.saskatchewan.value)).toEqual([50, 25, 15]);
+    expect(['wheat', 'canola', 'peas'].map((c) => t.crops[c]!.seed_row_p2o5.manitoba.value)).toEqual([
+      50, 20, 20,
+    ]);
+    expect(['wheat', 'canola', 'peas'].map((c) => t.crops[c]!.seed_row_p2o5.saskatchewan.value)).toEqual([
+      50, 25, 15,
+    ]);
     expect(t.crops.canola!.seed_row_p2o5.manitoba).toMatchObject({ spread_in: 1 });
     // the P2O5 limit is stated as MAP: MAP's N is within it, urea-type N counts against the urea-N table
     expect(t.products.map!.seed_row_n).toBe('within_p_limit');
-    for (const k of ['urea', 'ammonium_sulphate', 'uan', 'ammonium_thiosulphate']) expect(t.products[k]!.seed_row_n).toBe('counts');
+    for (const k of ['urea', 'ammonium_sulphate', 'uan', 'ammonium_thiosulphate'])
+      expect(t.products[k]!.seed_row_n).toBe('counts');
     // [published] Alberta Agriculture potassium guide (older edition): canola and peas 15 lb K2O alone; cereals N + K2O 40
-    expect([t.crops.canola!.seed_row_k2o_max.value, t.crops.canola!.seed_row_k2o_alone.value]).toEqual([15, true]);
+    expect([t.crops.canola!.seed_row_k2o_max.value, t.crops.canola!.seed_row_k2o_alone.value]).toEqual([
+      15,
+      true,
+    ]);
     expect(t.crops.wheat!.seed_row_n_k2o_max.value).toBe(40);
     // [published] Manitoba Agriculture, Seed-Placed Nitrogen Fertilizer: A Second Opinion Please, Table 1:
     // canola medium soil, 1 in spread, 0 on 6 and 9 in rows; the cells not found are null (asked, never invented)
@@ -58,7 +73,10 @@ describe('default tables', () => {
     // between fall sampling and spring; Canola Digest 2018: spring band about 20 % above spring broadcast (100)
     expect(t.soil.spring_mineralization_lb.value).toBe(8);
     const eff = t.n_relative_efficiency;
-    expect(['spring', 'fall'].map((x) => eff[x as 'spring'].broadcast)).toMatchObject([{ value: 100 }, { missing: true }]);
+    expect(['spring', 'fall'].map((x) => eff[x as 'spring'].broadcast)).toMatchObject([
+      { value: 100 },
+      { missing: true },
+    ]);
     expect(eff.spring.band).toMatchObject({ value: 120 });
   });
 
@@ -89,6 +107,8 @@ describe('default tables', () => {
       expect((e as Error).message).toContain('crops.canola.n_per_bu');
     }
     expect(() => loadTables('crops:\n  oats:\n    label: oats\n', 'f.yaml')).toThrow(/crops\.oats/);
-    expect(() => loadTables('crops:\n  canola:\n    seed_row_group: lentil\n', 'f.yaml')).toThrow(/seed_row_group.*allowed: cereal, canola, peas/);
+    expect(() => loadTables('crops:\n  canola:\n    seed_row_group: lentil\n', 'f.yaml')).toThrow(
+      /seed_row_group.*allowed: cereal, canola, peas/,
+    );
   });
 });

@@ -21,7 +21,9 @@ import { isUserError } from '../../src/errors.js';
 const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
 const fx = (n: string) => join(FIX, n);
 const BOUNDARY = fx('boundary.geojson');
-const good = JSON.parse(readFileSync(fx('good.geojson'), 'utf8')) as FeatureCollection<Polygon | MultiPolygon>;
+const good = JSON.parse(readFileSync(fx('good.geojson'), 'utf8')) as FeatureCollection<
+  Polygon | MultiPolygon
+>;
 const COLS: ColumnSpec[] = [
   { key: 'zone_id', type: 'N', width: 4 },
   { key: 'urea_lbac', type: 'N', width: 8, decimals: 1 },
@@ -31,7 +33,9 @@ const COLS: ColumnSpec[] = [
 const K2 = (0.9996 * (1 + (400400 - 500000) ** 2 / (2 * 6371000 ** 2))) ** 2;
 
 let dir = '';
-beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'tilth-check-')); });
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'tilth-check-'));
+});
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 function save(files: Record<string, Uint8Array>, sub: string): string {
@@ -57,8 +61,14 @@ async function lib(args: string[]): Promise<{ code: number; report: CheckReport;
     const layer = await loadLayer(file, 'prescription');
     const boundary = o.boundary ? await loadLayer(o.boundary as string, 'boundary') : undefined;
     const report = checkPrescription(layer, {
-      boundary, rateField: o.rateField as string | undefined, min: num('min'), max: num('max'), speedKmh: num('speed'),
-      swathM: num('swath'), transitionS: num('transition'), strict: !!o.strict,
+      boundary,
+      rateField: o.rateField as string | undefined,
+      min: num('min'),
+      max: num('max'),
+      speedKmh: num('speed'),
+      swathM: num('swath'),
+      transitionS: num('transition'),
+      strict: !!o.strict,
     });
     return { code: report.ok ? 0 : 1, report, stderr: '' };
   } catch (e) {
@@ -71,27 +81,41 @@ const line = (r: CheckReport, check: string) => r.lines.filter((l) => l.check ==
 describe('hullExtent against brute force', () => {
   it('diameter = largest distance between any two points; width = smallest spread over every pair direction', async () => {
     const pt = fc.tuple(fc.integer({ min: -1000, max: 1000 }), fc.integer({ min: -1000, max: 1000 }));
-    fc.assert(fc.property(fc.array(pt, { minLength: 3, maxLength: 25 }), (pts) => {
-      const P = pts as [number, number][];
-      let diam = 0, width = Infinity;
-      for (const a of P) for (const b of P) diam = Math.max(diam, Math.hypot(a[0] - b[0], a[1] - b[1]));
-      // the minimum-width strip has one side through two of the points (a hull edge)
-      for (const a of P) for (const b of P) {
-        const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
-        if (!len) continue;
-        const d = P.map(([x, y]) => ((b[0] - a[0]) * (y - a[1]) - (b[1] - a[1]) * (x - a[0])) / len);
-        width = Math.min(width, Math.max(...d) - Math.min(...d));
-      }
-      const h = hullExtent(P);
-      expect(h.diameter).toBeCloseTo(diam, 6);
-      if (Number.isFinite(width) && width > 1e-9) expect(h.width).toBeCloseTo(width, 6);
-    }));
+    fc.assert(
+      fc.property(fc.array(pt, { minLength: 3, maxLength: 25 }), (pts) => {
+        const P = pts as [number, number][];
+        let diam = 0,
+          width = Infinity;
+        for (const a of P) for (const b of P) diam = Math.max(diam, Math.hypot(a[0] - b[0], a[1] - b[1]));
+        // the minimum-width strip has one side through two of the points (a hull edge)
+        for (const a of P)
+          for (const b of P) {
+            const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+            if (!len) continue;
+            const d = P.map(([x, y]) => ((b[0] - a[0]) * (y - a[1]) - (b[1] - a[1]) * (x - a[0])) / len);
+            width = Math.min(width, Math.max(...d) - Math.min(...d));
+          }
+        const h = hullExtent(P);
+        expect(h.diameter).toBeCloseTo(diam, 6);
+        if (Number.isFinite(width) && width > 1e-9) expect(h.width).toBeCloseTo(width, 6);
+      }),
+    );
   });
 });
 
 describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
   it('passes the good one: hole, MultiPolygon zone, with boundary, machine range and speed', async () => {
-    const { code, report } = await lib([fx('good.geojson'), '--boundary', BOUNDARY, '--min', '40', '--max', '200', '--speed', '12']);
+    const { code, report } = await lib([
+      fx('good.geojson'),
+      '--boundary',
+      BOUNDARY,
+      '--min',
+      '40',
+      '--max',
+      '200',
+      '--speed',
+      '12',
+    ]);
     expect(code).toBe(0);
     expect(report.ok).toBe(true);
     expect(report.lines.filter((l) => l.status !== 'pass')).toEqual([]);
@@ -99,21 +123,23 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     const acres = good.features.map((f) => {
       const polys = f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.coordinates;
       let a = 0;
-      for (const poly of polys) poly.forEach((ring, k) => {
-        const p = geodesic.Geodesic.WGS84.Polygon(false);
-        for (const [lon, lat] of ring.slice(0, -1)) p.AddPoint(lat, lon);
-        a += (k ? -1 : 1) * Math.abs(p.Compute(false, true).area!);
-      });
+      for (const poly of polys)
+        poly.forEach((ring, k) => {
+          const p = geodesic.Geodesic.WGS84.Polygon(false);
+          for (const [lon, lat] of ring.slice(0, -1)) p.AddPoint(lat, lon);
+          a += (k ? -1 : 1) * Math.abs(p.Compute(false, true).area!);
+        });
       return a / 4046.8564224; // 1 ac = 4046.8564224 m2 (international yard and pound, 1959)
     });
     const urea = report.totals.find((t) => t.field === 'urea_lbac')!;
     expect(urea.unit).toBe('lb/ac');
     const want = good.features.reduce((s, f, i) => s + (f.properties!.urea_lbac as number) * acres[i], 0);
     expect(Math.abs(urea.total - want) / want).toBeLessThan(1e-4);
-    expect(urea.areaAc).toBeCloseTo(acres.reduce((s, a) => s + a, 0), 2);
+    expect(urea.areaAc).toBeCloseTo(
+      acres.reduce((s, a) => s + a, 0),
+      2,
+    );
   });
-
-
 
   it('fails a gap inside the boundary, naming the zones beside it (400 m x 50 m by construction)', async () => {
     const { code, report } = await lib([fx('gap.geojson'), '--boundary', BOUNDARY]);
@@ -142,9 +168,16 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(l.zones).toEqual(['zone 4']);
   });
 
-
   it("fails rates outside the machine's range, naming the zones; 0 (off) passes", async () => {
-    const { code, report } = await lib([fx('good.geojson'), '--rate-field', 'urea_lbac', '--min', '100', '--max', '150']);
+    const { code, report } = await lib([
+      fx('good.geojson'),
+      '--rate-field',
+      'urea_lbac',
+      '--min',
+      '100',
+      '--max',
+      '150',
+    ]);
     expect(code).toBe(1);
     const [l] = line(report, 'rate_range');
     expect(l.zones.sort()).toEqual(['zone 3', 'zone 4']); // 90 below, 170 above
@@ -165,7 +198,9 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
   it('fails when the rate column cannot be told apart, and names the columns', async () => {
     const { code, report } = await lib([fx('good.geojson'), '--rate-field', 'n_rate']);
     expect(code).toBe(1);
-    expect(line(report, 'rate_field')[0].message).toMatch(/no column "n_rate"; the columns are zone_id, urea_lbac, map_lbac/);
+    expect(line(report, 'rate_field')[0].message).toMatch(
+      /no column "n_rate"; the columns are zone_id, urea_lbac, map_lbac/,
+    );
   });
 });
 
@@ -174,17 +209,37 @@ describe("tilth check on tilth's own shapefile outputs", () => {
     type: 'FeatureCollection',
     features: good.features.map((f) => ({
       ...f,
-      properties: { zone_id: f.properties!.zone_id, rates: [{ product: 'Urea 46-0-0', placement: 'side_band', rate: f.properties!.urea_lbac, unit: 'lb/ac' }, { product: 'MAP 11-52-0', placement: 'seed_row', rate: f.properties!.map_lbac, unit: 'lb/ac' }] },
+      properties: {
+        zone_id: f.properties!.zone_id,
+        rates: [
+          { product: 'Urea 46-0-0', placement: 'side_band', rate: f.properties!.urea_lbac, unit: 'lb/ac' },
+          { product: 'MAP 11-52-0', placement: 'seed_row', rate: f.properties!.map_lbac, unit: 'lb/ac' },
+        ],
+      },
     })),
   };
-  for (const [layout, crs, short] of [['per_placement', 'lonlat', false], ['per_product', 'utm', true]] as const) {
+  for (const [layout, crs, short] of [
+    ['per_placement', 'lonlat', false],
+    ['per_product', 'utm', true],
+  ] as const) {
     it(`${layout}, ${crs}${short ? ', 8.3 names' : ''}: every zip and .shp passes`, async () => {
       const { files } = prescriptionFiles(rx, { layout, crs, shortFileNames: short });
       const d = save(files, `own-${layout}`);
       const targets = Object.keys(files).filter((k) => /\.(zip|shp)$/i.test(k));
       expect(targets.length).toBe(4);
       for (const t of targets) {
-        const { code, report } = await lib([join(d, t), '--boundary', BOUNDARY, '--min', '40', '--max', '200', '--speed', '12', '--strict']);
+        const { code, report } = await lib([
+          join(d, t),
+          '--boundary',
+          BOUNDARY,
+          '--min',
+          '40',
+          '--max',
+          '200',
+          '--speed',
+          '12',
+          '--strict',
+        ]);
         expect(report.lines.filter((l) => l.status !== 'pass')).toEqual([]);
         expect(code).toBe(0);
         expect(line(report, 'crs')[0].message).toMatch(crs === 'utm' ? /EPSG:32613/ : /EPSG:4326/);
@@ -213,7 +268,10 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
   });
 
   it('rate column of text in the .dbf, naming the zone', async () => {
-    const feats = good.features.map((f) => ({ ...f, properties: { ...f.properties, urea_lbac: `${f.properties!.urea_lbac} lb` } }));
+    const feats = good.features.map((f) => ({
+      ...f,
+      properties: { ...f.properties, urea_lbac: `${f.properties!.urea_lbac} lb` },
+    }));
     const f = writeShapefile(feats, [COLS[0], { key: 'urea_lbac', type: 'C', width: 12 }], { name: 'rx' });
     const r = await lib([join(save(f, 'textrate'), 'rx.shp')]);
     expect(r.code).toBe(2);
@@ -227,7 +285,6 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/rx\.zip: holds no \.shp .*entries: rx\.dbf, rx\.prj/);
   });
-
 
   it('a UTM shapefile against a lon/lat boundary, and a .shp without .shx and .cpg', async () => {
     const f = writeShapefile(good.features, COLS, { name: 'rx', crs: 'utm' });
@@ -247,16 +304,47 @@ describe('checkPrescription (library)', () => {
     const { projector, utmZoneFor } = await import('../../src/geo/utm.js');
     const p = projector(utmZoneFor(-105, 52));
     const feats = [];
-    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) {
-      const x0 = 400000 + i * 200, y0 = 5780000 + j * 200, c = [[x0, y0], [x0 + 200, y0], [x0 + 200, y0 + 200], [x0, y0 + 200]];
-      const ring: number[][] = [];
-      for (let k = 0; k < 4; k++) for (let t = 0; t < 25; t++) ring.push(p.toLonLat(c[k][0] + ((c[(k + 1) % 4][0] - c[k][0]) * t) / 25, c[k][1] + ((c[(k + 1) % 4][1] - c[k][1]) * t) / 25));
-      ring.push(ring[0]);
-      feats.push({ type: 'Feature', properties: { zone_id: feats.length + 1, urea_lbac: 100 }, geometry: { type: 'Polygon', coordinates: [ring] } });
-    }
-    const sq = [[400000, 5780000], [400600, 5780000], [400600, 5780600], [400000, 5780600], [400000, 5780000]].map(([x, y]) => p.toLonLat(x, y));
-    const layer = layerFromGeoJSON(JSON.stringify({ type: 'FeatureCollection', features: feats }), 'grid.geojson');
-    const boundary = layerFromGeoJSON(JSON.stringify({ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [sq] } }), 'b.geojson');
+    for (let i = 0; i < 3; i++)
+      for (let j = 0; j < 3; j++) {
+        const x0 = 400000 + i * 200,
+          y0 = 5780000 + j * 200,
+          c = [
+            [x0, y0],
+            [x0 + 200, y0],
+            [x0 + 200, y0 + 200],
+            [x0, y0 + 200],
+          ];
+        const ring: number[][] = [];
+        for (let k = 0; k < 4; k++)
+          for (let t = 0; t < 25; t++)
+            ring.push(
+              p.toLonLat(
+                c[k][0] + ((c[(k + 1) % 4][0] - c[k][0]) * t) / 25,
+                c[k][1] + ((c[(k + 1) % 4][1] - c[k][1]) * t) / 25,
+              ),
+            );
+        ring.push(ring[0]);
+        feats.push({
+          type: 'Feature',
+          properties: { zone_id: feats.length + 1, urea_lbac: 100 },
+          geometry: { type: 'Polygon', coordinates: [ring] },
+        });
+      }
+    const sq = [
+      [400000, 5780000],
+      [400600, 5780000],
+      [400600, 5780600],
+      [400000, 5780600],
+      [400000, 5780000],
+    ].map(([x, y]) => p.toLonLat(x, y));
+    const layer = layerFromGeoJSON(
+      JSON.stringify({ type: 'FeatureCollection', features: feats }),
+      'grid.geojson',
+    );
+    const boundary = layerFromGeoJSON(
+      JSON.stringify({ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [sq] } }),
+      'b.geojson',
+    );
     const r = checkPrescription(layer, { boundary });
     expect(r.lines.filter((l) => l.status === 'fail' || l.status === 'warn')).toEqual([]);
     expect(r.ok).toBe(true);

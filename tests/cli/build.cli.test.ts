@@ -9,11 +9,26 @@ import { ROOT, tilth } from '../helpers/cli.js';
 import { requireTool } from '../helpers/tools.js';
 
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
-const withPlan = (edit: (p: Record<string, any>) => void) => { const p = parseYaml(PLAN); edit(p); return stringify(p); };
+const withPlan = (edit: (p: Record<string, any>) => void) => {
+  const p = parseYaml(PLAN);
+  edit(p);
+  return stringify(p);
+};
 
 describe('tilth build (CLI)', () => {
   const tmp = () => mkdtempSync(join(tmpdir(), 'tilth-build-'));
-  const args = (out: string, plan = join(ROOT, 'sample-fields/quarter/plan.yaml')) => ['build', '--samples', 'sample-fields/quarter/samples.csv', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', plan, '--out', out, '--quiet'];
+  const args = (out: string, plan = join(ROOT, 'sample-fields/quarter/plan.yaml')) => [
+    'build',
+    '--samples',
+    'sample-fields/quarter/samples.csv',
+    '--boundary',
+    'sample-fields/quarter/boundary.geojson',
+    '--plan',
+    plan,
+    '--out',
+    out,
+    '--quiet',
+  ];
 
   it('writes the prescription and its summary; --json parses', () => {
     const out = join(tmp(), 'rx');
@@ -22,12 +37,29 @@ describe('tilth build (CLI)', () => {
     expect(r.code).toBe(0);
     const s = JSON.parse(r.stdout);
     expect(s.zone_sets[0].zones).toBeGreaterThan(1);
-    expect(readdirSync(out)).toEqual(expect.arrayContaining(['prescription.geojson', 'zones.csv', 'summary.json', 'report.html', 'report-data.json', 'shapefiles']));
+    expect(readdirSync(out)).toEqual(
+      expect.arrayContaining([
+        'prescription.geojson',
+        'zones.csv',
+        'summary.json',
+        'report.html',
+        'report-data.json',
+        'shapefiles',
+      ]),
+    );
     // tilth check passes its own outputs: the GeoJSON, each shapefile set and each zip
     const sets = readdirSync(join(out, 'shapefiles')).filter((f) => f.endsWith('.shp') || f.endsWith('.zip'));
     expect(sets.length).toBeGreaterThanOrEqual(2);
     for (const f of [join(out, 'prescription.geojson'), ...sets.map((x) => join(out, 'shapefiles', x))]) {
-      const c = tilth(['check', f, '--boundary', 'sample-fields/quarter/boundary.geojson', '--speed', '8', '--json']);
+      const c = tilth([
+        'check',
+        f,
+        '--boundary',
+        'sample-fields/quarter/boundary.geojson',
+        '--speed',
+        '8',
+        '--json',
+      ]);
       expect(c.code, `${f}: ${c.stdout}${c.stderr}`).toBe(0);
     }
     const gj = JSON.parse(readFileSync(join(out, 'prescription.geojson'), 'utf8'));
@@ -39,20 +71,40 @@ describe('tilth build (CLI)', () => {
     expect(tilth([...args(out), '--force']).code).toBe(0);
   });
 
-  it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))('every zone is valid for GDAL (ogrinfo ST_IsValid, GDAL 3.6.2)', () => {
-    const out = join(tmp(), 'rx');
-    expect(tilth(args(out)).code).toBe(0);
-    const r = spawnSync('ogrinfo', ['-ro', '-q', '-dialect', 'sqlite', '-sql', 'SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM prescription', join(out, 'prescription.geojson')], { encoding: 'utf8' });
-    const n = Number(/n \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
-    const v = Number(/v \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
-    expect(n).toBeGreaterThan(1);
-    expect(v).toBe(n);
-  });
+  it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))(
+    'every zone is valid for GDAL (ogrinfo ST_IsValid, GDAL 3.6.2)',
+    () => {
+      const out = join(tmp(), 'rx');
+      expect(tilth(args(out)).code).toBe(0);
+      const r = spawnSync(
+        'ogrinfo',
+        [
+          '-ro',
+          '-q',
+          '-dialect',
+          'sqlite',
+          '-sql',
+          'SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM prescription',
+          join(out, 'prescription.geojson'),
+        ],
+        { encoding: 'utf8' },
+      );
+      const n = Number(/n \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
+      const v = Number(/v \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
+      expect(n).toBeGreaterThan(1);
+      expect(v).toBe(n);
+    },
+  );
 
   it('bad input: unknown product, output is a file, no sample inside the boundary', () => {
     const d = tmp();
     const bad = join(d, 'plan.yaml');
-    writeFileSync(bad, withPlan((p) => { p.products[0].product = 'magic_dust'; }));
+    writeFileSync(
+      bad,
+      withPlan((p) => {
+        p.products[0].product = 'magic_dust';
+      }),
+    );
     const r1 = tilth(args(join(d, 'o1'), bad));
     expect(r1.code).toBe(2);
     expect(r1.stderr).toMatch(/magic_dust/);
@@ -61,7 +113,18 @@ describe('tilth build (CLI)', () => {
     const r2 = tilth(args(join(d, 'file')));
     expect(r2.code).toBe(2);
     expect(r2.stderr).toMatch(/is a file/);
-    const r3 = tilth(['build', '--samples', 'sample-fields/zoned/samples.geojson', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', 'sample-fields/quarter/plan.yaml', '--out', join(d, 'o3'), '--quiet']);
+    const r3 = tilth([
+      'build',
+      '--samples',
+      'sample-fields/zoned/samples.geojson',
+      '--boundary',
+      'sample-fields/quarter/boundary.geojson',
+      '--plan',
+      'sample-fields/quarter/plan.yaml',
+      '--out',
+      join(d, 'o3'),
+      '--quiet',
+    ]);
     expect(r3.code).toBe(2);
     expect(r3.stderr).not.toMatch(/at .*\.ts:\d+/);
     expect(existsSync(join(d, 'o3'))).toBe(false);
@@ -71,7 +134,13 @@ describe('tilth build (CLI)', () => {
     const d = tmp();
     const plan = join(d, 'plan.yaml');
     // only MAP, only in the seed row, at most 10 lb/ac: the P2O5 targets cannot be met
-    writeFileSync(plan, withPlan((p) => { p.products = [{ product: 'map', placements: ['seed_row'], max_rate: 10 }]; p.implement.placements = ['seed_row']; }));
+    writeFileSync(
+      plan,
+      withPlan((p) => {
+        p.products = [{ product: 'map', placements: ['seed_row'], max_rate: 10 }];
+        p.implement.placements = ['seed_row'];
+      }),
+    );
     const r = tilth(args(join(d, 'rx'), plan));
     expect(r.code).toBe(1);
     expect(r.stderr).toMatch(/cannot meet their targets/);
@@ -79,4 +148,3 @@ describe('tilth build (CLI)', () => {
     expect(existsSync(join(d, 'rx', 'prescription.geojson'))).toBe(true);
   });
 });
-

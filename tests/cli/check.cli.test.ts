@@ -16,7 +16,9 @@ import type { CheckReport } from '../../src/check/index.js';
 const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
 const fx = (n: string) => join(FIX, n);
 const BOUNDARY = fx('boundary.geojson');
-const good = JSON.parse(readFileSync(fx('good.geojson'), 'utf8')) as FeatureCollection<Polygon | MultiPolygon>;
+const good = JSON.parse(readFileSync(fx('good.geojson'), 'utf8')) as FeatureCollection<
+  Polygon | MultiPolygon
+>;
 const COLS: ColumnSpec[] = [
   { key: 'zone_id', type: 'N', width: 4 },
   { key: 'urea_lbac', type: 'N', width: 8, decimals: 1 },
@@ -26,7 +28,9 @@ const COLS: ColumnSpec[] = [
 const K2 = (0.9996 * (1 + (400400 - 500000) ** 2 / (2 * 6371000 ** 2))) ** 2;
 
 let dir = '';
-beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'tilth-check-')); });
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'tilth-check-'));
+});
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 function save(files: Record<string, Uint8Array>, sub: string): string {
@@ -37,7 +41,11 @@ function save(files: Record<string, Uint8Array>, sub: string): string {
 }
 function json(args: string[]): { code: number; report: CheckReport; stderr: string } {
   const r = tilth(['check', ...args, '--json']);
-  return { code: r.code, report: r.stdout ? (JSON.parse(r.stdout) as CheckReport) : (undefined as unknown as CheckReport), stderr: r.stderr };
+  return {
+    code: r.code,
+    report: r.stdout ? (JSON.parse(r.stdout) as CheckReport) : (undefined as unknown as CheckReport),
+    stderr: r.stderr,
+  };
 }
 const line = (r: CheckReport, check: string) => r.lines.filter((l) => l.check === check);
 
@@ -81,7 +89,12 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
   });
   it('zip whose entry escapes the folder (zip slip): refused, nothing written', async () => {
     const f = set();
-    const d = save({ 'rx.zip': zipSync({ '../evil.shp': f['rx.shp'], '../evil.dbf': f['rx.dbf'], 'rx.shp': f['rx.shp'] }) }, 'slip/inner');
+    const d = save(
+      {
+        'rx.zip': zipSync({ '../evil.shp': f['rx.shp'], '../evil.dbf': f['rx.dbf'], 'rx.shp': f['rx.shp'] }),
+      },
+      'slip/inner',
+    );
     const r = tilth(['check', join(d, 'rx.zip')], { cwd: d });
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/entry "\.\.\/evil\.shp" points outside the folder/);

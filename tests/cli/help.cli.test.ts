@@ -2,7 +2,18 @@ import { describe, expect, it } from 'vitest';
 import { tilth } from '../helpers/cli.js';
 
 // The guide's rule: every command has --help with an example; the top-level help shows the cautions.
-const COMMANDS = ['inspect', 'surface', 'plan', 'rates', 'tables', 'build', 'batch', 'check', 'report', 'variability'];
+const COMMANDS = [
+  'inspect',
+  'surface',
+  'plan',
+  'rates',
+  'tables',
+  'build',
+  'batch',
+  'check',
+  'report',
+  'variability',
+];
 
 describe('tilth --help', () => {
   it('lists every command and the caution', () => {

@@ -12,11 +12,27 @@ import { tilth } from '../helpers/cli.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'tilth-krige-cli-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
-const IN = ['--samples', 'sample-fields/quarter/samples.csv', '--boundary', 'sample-fields/quarter/boundary.geojson'];
+const IN = [
+  '--samples',
+  'sample-fields/quarter/samples.csv',
+  '--boundary',
+  'sample-fields/quarter/boundary.geojson',
+];
 
 describe('tilth surface with kriging', () => {
   it('--method auto --chance-maps for sulphate-S: both methods in the table, kriging variance and chance below 20 written', () => {
-    const r = tilth(['surface', ...IN, '--nutrient', 's', '--method', 'auto', '--chance-maps', '--out', join(dir, 's.asc'), '--json']);
+    const r = tilth([
+      'surface',
+      ...IN,
+      '--nutrient',
+      's',
+      '--method',
+      'auto',
+      '--chance-maps',
+      '--out',
+      join(dir, 's.asc'),
+      '--json',
+    ]);
     expect(r.code, r.stderr).toBe(0);
     const j = JSON.parse(r.stdout);
     const methods = j.crossValidation.map((row: { method: string }) => row.method);
@@ -44,14 +60,37 @@ describe('tilth surface with kriging', () => {
   });
 
   it('--method kriging --chance-maps for P: class chances and the expected response chance', () => {
-    const r = tilth(['surface', ...IN, '--nutrient', 'p', '--method', 'kriging', '--chance-maps', '--out', join(dir, 'p.asc')]);
+    const r = tilth([
+      'surface',
+      ...IN,
+      '--nutrient',
+      'p',
+      '--method',
+      'kriging',
+      '--chance-maps',
+      '--out',
+      join(dir, 'p.asc'),
+    ]);
     expect(r.code, r.stderr).toBe(0);
     expect(r.stderr).toMatch(/ordinary kriging as asked/);
-    for (const f of ['p-variance.asc', 'p-response-chance.asc', 'p-class-low.asc']) expect(existsSync(join(dir, f)), f).toBe(true);
+    for (const f of ['p-variance.asc', 'p-response-chance.asc', 'p-class-low.asc'])
+      expect(existsSync(join(dir, f)), f).toBe(true);
   });
 
   it('a refusal is a user error that says why (zone-composite field: too few samples)', () => {
-    const r = tilth(['surface', '--samples', 'sample-fields/zoned/samples.csv', '--boundary', 'sample-fields/zoned/boundary.geojson', '--nutrient', 's', '--method', 'kriging', '--out', join(dir, 'z.asc')]);
+    const r = tilth([
+      'surface',
+      '--samples',
+      'sample-fields/zoned/samples.csv',
+      '--boundary',
+      'sample-fields/zoned/boundary.geojson',
+      '--nutrient',
+      's',
+      '--method',
+      'kriging',
+      '--out',
+      join(dir, 'z.asc'),
+    ]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/kriging is refused: only \d+ samples/);
   });

@@ -2,7 +2,15 @@ import { describe, expect, it } from 'vitest';
 import { createTerminal, type TermStream } from '../../src/cli/progress.js';
 
 function fake(isTTY: boolean): TermStream & { text: string } {
-  const s = { text: '', isTTY, columns: 100, write(t: string) { s.text += t; return true; } };
+  const s = {
+    text: '',
+    isTTY,
+    columns: 100,
+    write(t: string) {
+      s.text += t;
+      return true;
+    },
+  };
   return s;
 }
 // a clock that moves 100 ms per reading, so every update redraws

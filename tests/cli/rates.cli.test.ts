@@ -18,9 +18,24 @@ describe('tilth plan / rates / tables', () => {
 
     const text = tilth(['rates', '--plan', plan, '--soil', 'no3=25,p=8,k=140,s=12,om=4']);
     expect(text.code).toBe(0);
-    for (const s of ['class low', 'Seed row (SBU 10.0 %)', 'MAP 11-52-0', 'Binding', 'Expected return (estimate)', 'kg/ha']) expect(text.stdout).toContain(s);
+    for (const s of [
+      'class low',
+      'Seed row (SBU 10.0 %)',
+      'MAP 11-52-0',
+      'Binding',
+      'Expected return (estimate)',
+      'kg/ha',
+    ])
+      expect(text.stdout).toContain(s);
 
-    const js = tilth(['rates', '--plan', plan, '--soil', 'no3=25,p=8,k=140,s=12,om=4,texture=light', '--json']);
+    const js = tilth([
+      'rates',
+      '--plan',
+      plan,
+      '--soil',
+      'no3=25,p=8,k=140,s=12,om=4,texture=light',
+      '--json',
+    ]);
     expect(js.code).toBe(0);
     const d = JSON.parse(js.stdout);
     expect(d.status).toBe('ok');
@@ -34,7 +49,11 @@ describe('tilth plan / rates / tables', () => {
     expect(d.seedRow.p2o5).toBeCloseTo(14, 9);
     expect(d.seedRow.applied.p2o5).toBeGreaterThan(10);
     expect(d.seedRow.applied.p2o5).toBeLessThanOrEqual(14);
-    expect(d.placements.find((p: { placement: string }) => p.placement === 'seed_row').products.map((q: { product: string }) => q.product)).toEqual(['map']);
+    expect(
+      d.placements
+        .find((p: { placement: string }) => p.placement === 'seed_row')
+        .products.map((q: { product: string }) => q.product),
+    ).toEqual(['map']);
   });
 
   it('every crop starter plan runs on a typical soil with exit 0, peas included', () => {
@@ -42,7 +61,14 @@ describe('tilth plan / rates / tables', () => {
     for (const crop of ['canola', 'wheat', 'barley', 'malt_barley', 'peas']) {
       const file = join(dir, `${crop}.yaml`);
       writeFileSync(file, tilth(['plan', 'init', '--crop', crop]).stdout);
-      const r = tilth(['rates', '--plan', file, '--soil', 'no3=25,p=8,k=140,s=12,om=4,texture=heavy', '--json']);
+      const r = tilth([
+        'rates',
+        '--plan',
+        file,
+        '--soil',
+        'no3=25,p=8,k=140,s=12,om=4,texture=heavy',
+        '--json',
+      ]);
       expect(r.code, `${crop}: ${r.stderr}`).toBe(0);
       const d = JSON.parse(r.stdout);
       expect(d.seedRow.applied.p2o5, crop).toBeGreaterThan(0);
@@ -57,7 +83,10 @@ describe('tilth plan / rates / tables', () => {
     const edited = join(dir, 'my-tables.yaml');
     writeFileSync(edited, JSON.stringify(obj));
     const plan = join(dir, 'plan.yaml'); // written by the first test
-    const d = JSON.parse(tilth(['rates', '--plan', plan, '--tables', edited, '--soil', 'no3=25,p=8,k=140,s=12,om=4', '--json']).stdout);
+    const d = JSON.parse(
+      tilth(['rates', '--plan', plan, '--tables', edited, '--soil', 'no3=25,p=8,k=140,s=12,om=4', '--json'])
+        .stdout,
+    );
     // 2.5 lb N/bu x 50 bu - 25 nitrate = 100
     expect(d.nutrients.n.target.lbac).toBeCloseTo(100, 9);
   });
@@ -77,7 +106,10 @@ describe('tilth plan / rates / tables', () => {
 
   it('an infeasible plan prints why and exits 2', () => {
     const plan = join(dir, 'nos.yaml');
-    writeFileSync(plan, 'crop: canola\ntarget_yield_bu: 50\nseed_row: { when_table_missing: light_soil_values }\nproducts: [{ product: map }, { product: urea }]\n');
+    writeFileSync(
+      plan,
+      'crop: canola\ntarget_yield_bu: 50\nseed_row: { when_table_missing: light_soil_values }\nproducts: [{ product: map }, { product: urea }]\n',
+    );
     const r = tilth(['rates', '--plan', plan, '--soil', 'no3=25,p=8,k=200,s=12,om=4']);
     expect(r.code).toBe(2);
     expect(r.stdout).toContain('no product in the plan carries S');

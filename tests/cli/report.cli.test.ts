@@ -63,16 +63,38 @@ describe('tilth report DIR', () => {
 describe('inputsHash', () => {
   it('is the first 12 hex digits of SHA-256 of length-prefixed names and bytes (GNU coreutils sha256sum as reference)', async () => {
     const { spawnSync } = await import('node:child_process');
-    const a = inputsHash([{ name: 'a', bytes: Buffer.from('xy') }, { name: 'b', bytes: Buffer.from('z') }]);
-    const u64 = (n: number): Buffer => { const b = Buffer.alloc(8); b.writeBigUInt64BE(BigInt(n)); return b; };
+    const a = inputsHash([
+      { name: 'a', bytes: Buffer.from('xy') },
+      { name: 'b', bytes: Buffer.from('z') },
+    ]);
+    const u64 = (n: number): Buffer => {
+      const b = Buffer.alloc(8);
+      b.writeBigUInt64BE(BigInt(n));
+      return b;
+    };
     const stream = Buffer.concat([u64(1), u64(2), Buffer.from('axy'), u64(1), u64(1), Buffer.from('bz')]);
     const ref = spawnSync('sha256sum', [], { input: stream, encoding: 'utf8' });
     expect(ref.status).toBe(0);
     expect(a).toBe(ref.stdout.slice(0, 12));
     expect(a).toMatch(/^[0-9a-f]{12}$/);
     // moving a byte from one file to the next, or renaming a file, changes the hash
-    expect(inputsHash([{ name: 'a', bytes: Buffer.from('x') }, { name: 'b', bytes: Buffer.from('yz') }])).not.toBe(a);
-    expect(inputsHash([{ name: 'c', bytes: Buffer.from('xy') }, { name: 'b', bytes: Buffer.from('z') }])).not.toBe(a);
-    expect(inputsHash([{ name: 'a', bytes: Buffer.from('xy') }, { name: 'b', bytes: Buffer.from('z') }])).toBe(a);
+    expect(
+      inputsHash([
+        { name: 'a', bytes: Buffer.from('x') },
+        { name: 'b', bytes: Buffer.from('yz') },
+      ]),
+    ).not.toBe(a);
+    expect(
+      inputsHash([
+        { name: 'c', bytes: Buffer.from('xy') },
+        { name: 'b', bytes: Buffer.from('z') },
+      ]),
+    ).not.toBe(a);
+    expect(
+      inputsHash([
+        { name: 'a', bytes: Buffer.from('xy') },
+        { name: 'b', bytes: Buffer.from('z') },
+      ]),
+    ).toBe(a);
   });
 });

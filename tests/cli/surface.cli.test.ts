@@ -19,20 +19,43 @@ afterAll(() => rmSync(tmp, { recursive: true, force: true }));
 /** The boundary's UTM 13N bounding box by proj4js directly from the GeoJSON. */
 function bbox(): [number, number, number, number] {
   const gj = JSON.parse(readFileSync(join(Q, 'boundary.geojson'), 'utf8'));
-  const geom = gj.type === 'FeatureCollection' ? gj.features[0].geometry : gj.geometry ?? gj;
+  const geom = gj.type === 'FeatureCollection' ? gj.features[0].geometry : (gj.geometry ?? gj);
   const rings: number[][][] = geom.type === 'Polygon' ? geom.coordinates : geom.coordinates.flat();
   const t = proj4('EPSG:4326', '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs');
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
   for (const [lon, lat] of rings[0]) {
     const [x, y] = t.forward([lon, lat]);
-    x0 = Math.min(x0, x); x1 = Math.max(x1, x); y0 = Math.min(y0, y); y1 = Math.max(y1, y);
+    x0 = Math.min(x0, x);
+    x1 = Math.max(x1, x);
+    y0 = Math.min(y0, y);
+    y1 = Math.max(y1, y);
   }
   return [x0, y0, x1, y1];
 }
 
 describe('tilth surface', () => {
   const out = join(tmp, 'p.asc');
-  const r = tilth(['surface', '--samples', join(Q, 'samples.geojson'), '--boundary', join(Q, 'boundary.geojson'), '--nutrient', 'P', '--cell', '5', '--power', 'auto', '--neighbours', '12', '--out', out, '--json']);
+  const r = tilth([
+    'surface',
+    '--samples',
+    join(Q, 'samples.geojson'),
+    '--boundary',
+    join(Q, 'boundary.geojson'),
+    '--nutrient',
+    'P',
+    '--cell',
+    '5',
+    '--power',
+    'auto',
+    '--neighbours',
+    '12',
+    '--out',
+    out,
+    '--json',
+  ]);
 
   it('writes the .asc and .prj, prints the choice and the cross-validation table as JSON', () => {
     expect(r.code, r.stderr).toBe(0);
@@ -57,25 +80,39 @@ describe('tilth surface', () => {
     expect(grid.ymax - grid.rows * 5).toBeLessThanOrEqual(y0);
     const j = JSON.parse(r.stdout);
     let n = 0;
-    for (const v of values) if (!Number.isNaN(v)) { n++; expect(v).toBeGreaterThanOrEqual(j.min - 5e-4); expect(v).toBeLessThanOrEqual(j.max + 5e-4); }
+    for (const v of values)
+      if (!Number.isNaN(v)) {
+        n++;
+        expect(v).toBeGreaterThanOrEqual(j.min - 5e-4);
+        expect(v).toBeLessThanOrEqual(j.max + 5e-4);
+      }
     // about 155 ac = 62.7 ha of cropland (sample-fields/README.md) = 25 000 cells of 25 m2, plus partial edge cells
     expect(n * 25).toBeGreaterThan(62e4);
     expect(n * 25).toBeLessThan(68e4);
   });
 
-  it.skipIf(!requireTool('gdalinfo', 'gdal-bin'))('gdalinfo reads the extent and WGS 84 / UTM zone 13N', () => {
-    const g = spawnSync('gdalinfo', ['-json', out], { encoding: 'utf8' });
-    expect(g.status, g.stderr).toBe(0);
-    const info = JSON.parse(g.stdout);
-    const { grid } = readAsc(readFileSync(out, 'utf8'));
-    expect(info.size).toEqual([grid.cols, grid.rows]);
-    expect(info.geoTransform).toEqual([grid.xmin, 5, 0, grid.ymax, 0, -5]);
-    expect(info.coordinateSystem.wkt).toMatch(/^PROJCRS\["WGS 84 \/ UTM zone 13N"/);
-    expect(info.bands[0].noDataValue).toBe(-9999);
-  });
+  it.skipIf(!requireTool('gdalinfo', 'gdal-bin'))(
+    'gdalinfo reads the extent and WGS 84 / UTM zone 13N',
+    () => {
+      const g = spawnSync('gdalinfo', ['-json', out], { encoding: 'utf8' });
+      expect(g.status, g.stderr).toBe(0);
+      const info = JSON.parse(g.stdout);
+      const { grid } = readAsc(readFileSync(out, 'utf8'));
+      expect(info.size).toEqual([grid.cols, grid.rows]);
+      expect(info.geoTransform).toEqual([grid.xmin, 5, 0, grid.ymax, 0, -5]);
+      expect(info.coordinateSystem.wkt).toMatch(/^PROJCRS\["WGS 84 \/ UTM zone 13N"/);
+      expect(info.bands[0].noDataValue).toBe(-9999);
+    },
+  );
 
   it('user errors exit 2 with the fix: unknown nutrient, too many cells, output not .asc', () => {
-    const base = ['surface', '--samples', join(Q, 'samples.geojson'), '--boundary', join(Q, 'boundary.geojson')];
+    const base = [
+      'surface',
+      '--samples',
+      join(Q, 'samples.geojson'),
+      '--boundary',
+      join(Q, 'boundary.geojson'),
+    ];
     const a = tilth([...base, '--nutrient', 'zinc', '--out', join(tmp, 'x.asc')]);
     expect(a.code).toBe(2);
     expect(a.stderr).toMatch(/nutrient "zinc" is not known\. Fix:/);
@@ -90,7 +127,22 @@ describe('tilth surface', () => {
   it('zone-composite samples: every field cell takes one of the zone values (sample-fields/zoned)', () => {
     const Z = join(ROOT, 'sample-fields', 'zoned');
     const o = join(tmp, 's.asc');
-    const z = tilth(['surface', '--samples', join(Z, 'samples.geojson'), '--boundary', join(Z, 'boundary.geojson'), '--zones', join(Z, 'zones.geojson'), '--nutrient', 'sulphate', '--cell', '10', '--out', o, '--json']);
+    const z = tilth([
+      'surface',
+      '--samples',
+      join(Z, 'samples.geojson'),
+      '--boundary',
+      join(Z, 'boundary.geojson'),
+      '--zones',
+      join(Z, 'zones.geojson'),
+      '--nutrient',
+      'sulphate',
+      '--cell',
+      '10',
+      '--out',
+      o,
+      '--json',
+    ]);
     expect(z.code, z.stderr).toBe(0);
     const j = JSON.parse(z.stdout);
     expect(j.method).toBe('zones');

@@ -18,11 +18,42 @@ const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8')
 describe('the demo build (CLI)', () => {
   it('writes TASKDATA/ and taskdata.zip, and tilth check passes both', () => {
     const out = join(mkdtempSync(join(tmpdir(), 'tilth-demo-td-')), 'out');
-    const b = spawnSync(process.execPath, [join(ROOT, 'bin/tilth.js'), 'build', '--samples', 'sample-fields/quarter/samples.csv', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', 'sample-fields/quarter/plan.yaml', '--out', out, '--quiet'], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
+    const b = spawnSync(
+      process.execPath,
+      [
+        join(ROOT, 'bin/tilth.js'),
+        'build',
+        '--samples',
+        'sample-fields/quarter/samples.csv',
+        '--boundary',
+        'sample-fields/quarter/boundary.geojson',
+        '--plan',
+        'sample-fields/quarter/plan.yaml',
+        '--out',
+        out,
+        '--quiet',
+      ],
+      { cwd: ROOT, encoding: 'utf8', timeout: 120_000 },
+    );
     expect(b.status).toBe(0);
-    expect(readFileSync(join(out, 'TASKDATA', 'TASKDATA.XML'), 'utf8')).toMatch(/^<\?xml version="1.0" encoding="UTF-8"\?>\n<ISO11783_TaskData VersionMajor="4"/);
+    expect(readFileSync(join(out, 'TASKDATA', 'TASKDATA.XML'), 'utf8')).toMatch(
+      /^<\?xml version="1.0" encoding="UTF-8"\?>\n<ISO11783_TaskData VersionMajor="4"/,
+    );
     for (const f of ['taskdata.zip', 'TASKDATA']) {
-      const c = spawnSync(process.execPath, [join(ROOT, 'bin/tilth.js'), 'check', join(out, f), '--boundary', 'sample-fields/quarter/boundary.geojson', '--speed', '8', '--json'], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
+      const c = spawnSync(
+        process.execPath,
+        [
+          join(ROOT, 'bin/tilth.js'),
+          'check',
+          join(out, f),
+          '--boundary',
+          'sample-fields/quarter/boundary.geojson',
+          '--speed',
+          '8',
+          '--json',
+        ],
+        { cwd: ROOT, encoding: 'utf8', timeout: 120_000 },
+      );
       expect(c.stderr).toBe('');
       const j = JSON.parse(c.stdout);
       expect(j.ok).toBe(true);
@@ -31,7 +62,9 @@ describe('the demo build (CLI)', () => {
       const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
       for (const r of j.reports) {
         const [, task, product] = /task \S+ "[^:]+: ([^"]+)", product \S+ "([^"]+)"/.exec(r.file)!;
-        const t = summary.totals.find((x: any) => x.label === product && x.placement === task.replace(' ', '_'));
+        const t = summary.totals.find(
+          (x: any) => x.label === product && x.placement === task.replace(' ', '_'),
+        );
         // summary.json rounds to whole kg
         expect(Math.abs(r.totals[0].total - t.total_kg)).toBeLessThan(Math.max(0.001 * t.total_kg, 0.5));
       }
@@ -43,10 +76,30 @@ describe('the demo build (CLI)', () => {
     const p = parseYaml(PLAN);
     Object.assign(p.output, { formats: ['isoxml'], isoxml_grid: true, isoxml_grid_cell_m: 4 });
     writeFileSync(join(d, 'plan.yaml'), stringify(p));
-    const b = spawnSync(process.execPath, [join(ROOT, 'bin/tilth.js'), 'build', '--samples', 'sample-fields/quarter/samples.csv', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', join(d, 'plan.yaml'), '--out', join(d, 'out'), '--quiet'], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
+    const b = spawnSync(
+      process.execPath,
+      [
+        join(ROOT, 'bin/tilth.js'),
+        'build',
+        '--samples',
+        'sample-fields/quarter/samples.csv',
+        '--boundary',
+        'sample-fields/quarter/boundary.geojson',
+        '--plan',
+        join(d, 'plan.yaml'),
+        '--out',
+        join(d, 'out'),
+        '--quiet',
+      ],
+      { cwd: ROOT, encoding: 'utf8', timeout: 120_000 },
+    );
     expect(b.status).toBe(0);
     expect(readdirSync(join(d, 'out'))).not.toContain('shapefiles');
-    expect(readdirSync(join(d, 'out', 'TASKDATA')).sort()).toEqual(['GRD00001.bin', 'GRD00002.bin', 'TASKDATA.XML']);
+    expect(readdirSync(join(d, 'out', 'TASKDATA')).sort()).toEqual([
+      'GRD00001.bin',
+      'GRD00002.bin',
+      'TASKDATA.XML',
+    ]);
     // 4 m cells: the GRD's north size is 4 m of latitude (1 degree of latitude is about 111.25 km at 52 N, from memory)
     const xml = readFileSync(join(d, 'out', 'TASKDATA', 'TASKDATA.XML'), 'utf8');
     expect(Number(/<GRD A="[^"]+" B="[^"]+" C="([^"]+)"/.exec(xml)![1]) * 111_250).toBeCloseTo(4, 1);

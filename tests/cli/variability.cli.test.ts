@@ -25,14 +25,28 @@ describe('tilth variability', () => {
   });
 
   it('an unsupported fit method is a user error', () => {
-    const r = tilth(['variability', '--samples', 'x.geojson', '--boundary', 'y.geojson', '--fit-method', '5']);
+    const r = tilth([
+      'variability',
+      '--samples',
+      'x.geojson',
+      '--boundary',
+      'y.geojson',
+      '--fit-method',
+      '5',
+    ]);
     expect(r.code).toBe(2);
     expect(r.stderr).toContain('--fit-method');
   });
 });
 
 describe('tilth variability on the demo quarter (invented data: plumbing, not agronomy)', () => {
-  const args = ['variability', '--samples', 'sample-fields/quarter/samples.geojson', '--boundary', 'sample-fields/quarter/boundary.geojson'];
+  const args = [
+    'variability',
+    '--samples',
+    'sample-fields/quarter/samples.geojson',
+    '--boundary',
+    'sample-fields/quarter/boundary.geojson',
+  ];
 
   it('text names the low spots, the dependence class and a sampling recommendation', () => {
     const r = tilth([...args, '--nutrient', 'S']);
@@ -69,13 +83,29 @@ describe('tilth variability on the demo quarter (invented data: plumbing, not ag
       const outDir = join(dir, 'charts');
       const r = tilth([...args, '--out', outDir]);
       expect(r.code, r.stderr).toBe(0);
-      expect(readdirSync(outDir).sort()).toEqual(['.tilth-output.json', 'so4_s-map.svg', 'so4_s-semivariogram.svg', 'variability.json']);
+      expect(readdirSync(outDir).sort()).toEqual([
+        '.tilth-output.json',
+        'so4_s-map.svg',
+        'so4_s-semivariogram.svg',
+        'variability.json',
+      ]);
       // a second run into the same, now non-empty folder is refused without --force
       expect(tilth([...args, '--out', outDir]).code).toBe(2);
       if (requireTool('chromium', 'chromium')) {
         for (const f of ['so4_s-map.svg']) {
           const png = join(dir, f + '.png');
-          spawnSync('chromium', ['--headless', '--no-sandbox', '--disable-gpu', `--screenshot=${png}`, '--window-size=880,660', join(outDir, f)], { timeout: 60_000 });
+          spawnSync(
+            'chromium',
+            [
+              '--headless',
+              '--no-sandbox',
+              '--disable-gpu',
+              `--screenshot=${png}`,
+              '--window-size=880,660',
+              join(outDir, f),
+            ],
+            { timeout: 60_000 },
+          );
           expect(statSync(png).size).toBeGreaterThan(10_000);
         }
       }
@@ -92,16 +122,28 @@ describe('tilth variability takes the S threshold and floor from the plan and ta
       const plan = tilth(['plan', 'init', '--crop', 'wheat']);
       expect(plan.code, plan.stderr).toBe(0);
       writeFileSync(join(dir, 'plan.yaml'), plan.stdout);
-      const base = ['variability', '--samples', 'sample-fields/quarter/samples.geojson', '--boundary', 'sample-fields/quarter/boundary.geojson', '--json'];
+      const base = [
+        'variability',
+        '--samples',
+        'sample-fields/quarter/samples.geojson',
+        '--boundary',
+        'sample-fields/quarter/boundary.geojson',
+        '--json',
+      ];
       const w = JSON.parse(tilth([...base, '--plan', join(dir, 'plan.yaml')]).stdout);
       expect(w.sulphur.floor).toBe(0);
-      writeFileSync(join(dir, 'tables.yaml'), 'crops:\n  canola:\n    s_floor_lb: { value: 15, source: "test agronomist" }\n    s_low_below_lb: { value: 25, source: "test agronomist" }\n');
+      writeFileSync(
+        join(dir, 'tables.yaml'),
+        'crops:\n  canola:\n    s_floor_lb: { value: 15, source: "test agronomist" }\n    s_low_below_lb: { value: 25, source: "test agronomist" }\n',
+      );
       const c = JSON.parse(tilth([...base, '--tables', join(dir, 'tables.yaml')]).stdout);
       expect(c.sulphur.floor).toBe(15);
       expect(c.threshold.value).toBe(25);
       expect(c.threshold.source).toContain('test agronomist');
       // --threshold and --s-floor win over the tables
-      const o = JSON.parse(tilth([...base, '--tables', join(dir, 'tables.yaml'), '--threshold', '12', '--s-floor', '5']).stdout);
+      const o = JSON.parse(
+        tilth([...base, '--tables', join(dir, 'tables.yaml'), '--threshold', '12', '--s-floor', '5']).stdout,
+      );
       expect(o.threshold.value).toBe(12);
       expect(o.sulphur.floor).toBe(5);
     } finally {
@@ -116,7 +158,17 @@ describe('tilth build report carries the sulphate-S variability charts', () => {
     try {
       const plan = tilth(['plan', 'init', '--crop', 'canola']);
       writeFileSync(join(dir, 'plan.yaml'), plan.stdout);
-      const r = tilth(['build', '--samples', 'sample-fields/quarter/samples.geojson', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', join(dir, 'plan.yaml'), '--out', join(dir, 'out')]);
+      const r = tilth([
+        'build',
+        '--samples',
+        'sample-fields/quarter/samples.geojson',
+        '--boundary',
+        'sample-fields/quarter/boundary.geojson',
+        '--plan',
+        join(dir, 'plan.yaml'),
+        '--out',
+        join(dir, 'out'),
+      ]);
       expect(r.code, r.stderr).toBe(0);
       const html = readFileSync(join(dir, 'out', 'report.html'), 'utf8');
       expect(html).toContain('<h3>Semivariogram of sulphate-S (0-24 in)</h3>');

@@ -25,7 +25,8 @@ function karneyArea(mp: number[][][][]): number {
 }
 
 const load = (f: string) => JSON.parse(readFileSync(join(ROOT, f), 'utf8'));
-const multi = (g: { type: string; coordinates: unknown }) => (g.type === 'Polygon' ? [g.coordinates] : g.coordinates) as number[][][][];
+const multi = (g: { type: string; coordinates: unknown }) =>
+  (g.type === 'Polygon' ? [g.coordinates] : g.coordinates) as number[][][][];
 
 describe('field area (ellipsoidal) against outside references', () => {
   for (const f of ['sample-fields/quarter/boundary.geojson', 'sample-fields/zoned/boundary.geojson']) {
@@ -59,15 +60,20 @@ describe('field area (ellipsoidal) against outside references', () => {
 
 describe('UTM projection', () => {
   const rows = readFileSync(join(ROOT, 'tests/fixtures/reference/gdaltransform-utm.txt'), 'utf8')
-    .split('\n').filter((l) => l && !l.startsWith('#')).map((l) => l.trim().split(/\s+/).map(Number));
-  it.each(rows)('lon %f lat %f in EPSG:%i matches gdaltransform (GDAL 3.6.2, PROJ 9.1.1) within 1 mm', (lon, lat, epsg, e, n) => {
-    // source: tests/fixtures/reference/gdaltransform-utm.txt, made with GDAL 3.6.2 gdaltransform
-    const z = utmZoneFor(lon, lat);
-    expect(z.epsg).toBe(epsg);
-    const [x, y] = projector(z).toMetres(lon, lat);
-    expect(Math.abs(x - e)).toBeLessThan(1e-3);
-    expect(Math.abs(y - n)).toBeLessThan(1e-3);
-  });
+    .split('\n')
+    .filter((l) => l && !l.startsWith('#'))
+    .map((l) => l.trim().split(/\s+/).map(Number));
+  it.each(rows)(
+    'lon %f lat %f in EPSG:%i matches gdaltransform (GDAL 3.6.2, PROJ 9.1.1) within 1 mm',
+    (lon, lat, epsg, e, n) => {
+      // source: tests/fixtures/reference/gdaltransform-utm.txt, made with GDAL 3.6.2 gdaltransform
+      const z = utmZoneFor(lon, lat);
+      expect(z.epsg).toBe(epsg);
+      const [x, y] = projector(z).toMetres(lon, lat);
+      expect(Math.abs(x - e)).toBeLessThan(1e-3);
+      expect(Math.abs(y - n)).toBeLessThan(1e-3);
+    },
+  );
 
   it('zone from longitude: zone = floor((lon + 180) / 6) + 1, south below the equator', () => {
     // source: UTM definition (formats.md): central meridian 6 * zone - 183
@@ -79,13 +85,20 @@ describe('UTM projection', () => {
 
   it('metres and back round-trip within 1 mm anywhere within the zone (property)', () => {
     // source: proj4js forward/inverse are exact inverses to well under a millimetre inside a UTM zone
-    fc.assert(fc.property(fc.double({ min: -179.9, max: 179.9, noNaN: true }), fc.double({ min: -79, max: 83, noNaN: true }), (lon, lat) => {
-      const z = utmZoneFor(lon, lat);
-      const p = projector(z);
-      const [x, y] = p.toMetres(lon, lat);
-      const [lon2, lat2] = p.toLonLat(x, y);
-      const [x2, y2] = p.toMetres(lon2, lat2);
-      return Math.hypot(x2 - x, y2 - y) < 1e-3;
-    }), { seed: 7, numRuns: 300 });
+    fc.assert(
+      fc.property(
+        fc.double({ min: -179.9, max: 179.9, noNaN: true }),
+        fc.double({ min: -79, max: 83, noNaN: true }),
+        (lon, lat) => {
+          const z = utmZoneFor(lon, lat);
+          const p = projector(z);
+          const [x, y] = p.toMetres(lon, lat);
+          const [lon2, lat2] = p.toLonLat(x, y);
+          const [x2, y2] = p.toMetres(lon2, lat2);
+          return Math.hypot(x2 - x, y2 - y) < 1e-3;
+        },
+      ),
+      { seed: 7, numRuns: 300 },
+    );
   });
 });

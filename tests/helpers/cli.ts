@@ -4,10 +4,17 @@ import { join } from 'node:path';
 
 export const ROOT = join(import.meta.dirname, '..', '..');
 
-export interface CliResult { code: number; stdout: string; stderr: string }
+export interface CliResult {
+  code: number;
+  stdout: string;
+  stderr: string;
+}
 
 /** Runs `tilth args...` in `cwd` (default the repository root). */
-export function tilth(args: string[], opts: { cwd?: string; env?: Record<string, string>; input?: string } = {}): CliResult {
+export function tilth(
+  args: string[],
+  opts: { cwd?: string; env?: Record<string, string>; input?: string } = {},
+): CliResult {
   const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'tilth.js'), ...args], {
     cwd: opts.cwd ?? ROOT,
     // bin/tilth.js runs the esbuild bundle when it is newer than src/, else the sources through tsx

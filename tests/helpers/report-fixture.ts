@@ -20,14 +20,16 @@ export function demoInputAt(cell: number): ReportInput {
   const inp = demoInput();
   const resample = (r: ReportRaster, wobble: number): ReportRaster => {
     const g = r.grid;
-    const cols = Math.ceil((g.cols * g.cell) / cell), rows = Math.ceil((g.rows * g.cell) / cell);
+    const cols = Math.ceil((g.cols * g.cell) / cell),
+      rows = Math.ceil((g.rows * g.cell) / cell);
     const v = new Float64Array(cols * rows);
-    for (let y = 0; y < rows; y++) for (let x = 0; x < cols; x++) {
-      const c = Math.min(g.cols - 1, Math.floor(((x + 0.5) * cell) / g.cell));
-      const rr = Math.min(g.rows - 1, Math.floor(((y + 0.5) * cell) / g.cell));
-      const base = r.values[rr * g.cols + c]!;
-      v[y * cols + x] = base + wobble * Math.sin(x / 7) * Math.cos(y / 9);
-    }
+    for (let y = 0; y < rows; y++)
+      for (let x = 0; x < cols; x++) {
+        const c = Math.min(g.cols - 1, Math.floor(((x + 0.5) * cell) / g.cell));
+        const rr = Math.min(g.rows - 1, Math.floor(((y + 0.5) * cell) / g.cell));
+        const base = r.values[rr * g.cols + c]!;
+        v[y * cols + x] = base + wobble * Math.sin(x / 7) * Math.cos(y / 9);
+      }
     return { grid: { ...g, cell, cols, rows }, values: v };
   };
   for (const s of inp.surfaces) s.raster = resample(s.raster, 0.5);

@@ -27,7 +27,10 @@ export function requireTool(cmd: string, pkg: string, args: string[] = ['--versi
   if (process.env.TILTH_TIER === 'fast') return false;
   if (hasProgram(cmd, args)) return true;
   const msg = `${cmd} is not installed (apt-get install -y ${pkg}); tests that compare with it are skipped`;
-  if (process.env.TILTH_REQUIRE_TOOLS === '1') throw new Error(`TILTH_REQUIRE_TOOLS=1 but ${msg.replace('; tests that compare with it are skipped', '')}`);
+  if (process.env.TILTH_REQUIRE_TOOLS === '1')
+    throw new Error(
+      `TILTH_REQUIRE_TOOLS=1 but ${msg.replace('; tests that compare with it are skipped', '')}`,
+    );
   console.warn(`SKIP: ${msg}`);
   return false;
 }

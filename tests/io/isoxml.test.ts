@@ -14,7 +14,12 @@ import { isUserError } from '../../src/errors.js';
 const xmlOf = (td: TaskData) => new TextDecoder().decode(taskDataFiles(td)['TASKDATA.XML']);
 const enc = (s: string) => new TextEncoder().encode(s);
 function userError(f: () => unknown): string {
-  try { f(); } catch (e) { expect(isUserError(e)).toBe(true); return (e as Error).message; }
+  try {
+    f();
+  } catch (e) {
+    expect(isUserError(e)).toBe(true);
+    return (e as Error).message;
+  }
   throw new Error('expected a UserError');
 }
 
@@ -41,7 +46,8 @@ describe('readTaskData', () => {
     expect(layers[0].features.map((f) => f.properties!.rate_kgha).sort()).toEqual([1, 2, 3]);
     // the south-west cell (first in the file: rows run south to north) holds 100 mg/m2
     const sw = layers[0].features.find((f) => f.properties!.rate_kgha === 1)!.geometry as any;
-    const xs = sw.coordinates[0][0].map((p: number[]) => p[0]), ys = sw.coordinates[0][0].map((p: number[]) => p[1]);
+    const xs = sw.coordinates[0][0].map((p: number[]) => p[0]),
+      ys = sw.coordinates[0][0].map((p: number[]) => p[1]);
     expect([Math.min(...xs), Math.min(...ys)]).toEqual([-106, 52]);
     expect(Math.max(...ys)).toBeCloseTo(52.001, 9);
   });
@@ -49,7 +55,9 @@ describe('readTaskData', () => {
   it('a missing grid file names the GRD and the file', () => {
     const files = taskDataFiles(sample(true));
     delete files['GRD00001.bin'];
-    expect(userError(() => readTaskData(files))).toMatch(/TSK TSK1.*GRD.*GRD00001\.BIN is missing.*Fix: copy GRD00001\.BIN/);
+    expect(userError(() => readTaskData(files))).toMatch(
+      /TSK TSK1.*GRD.*GRD00001\.BIN is missing.*Fix: copy GRD00001\.BIN/,
+    );
   });
 
   it('a grid file of the wrong size (cut short) is refused', () => {
@@ -61,30 +69,44 @@ describe('readTaskData', () => {
   it('a zone code no TZN defines is refused, naming the task and attribute', () => {
     const td = sample();
     td.tasks[0].outOfFieldZone = 9;
-    expect(userError(() => readTaskData({ 'TASKDATA.XML': enc(xmlOf(td)) }))).toMatch(/TSK TSK1.*out-of-field zone code \(attribute J\) is 9.*Fix: add a TZN with code 9/);
+    expect(userError(() => readTaskData({ 'TASKDATA.XML': enc(xmlOf(td)) }))).toMatch(
+      /TSK TSK1.*out-of-field zone code \(attribute J\) is 9.*Fix: add a TZN with code 9/,
+    );
   });
 
   it('an unknown DDI is refused by the check, naming the TZN and PDV meaning', () => {
     const td = sample();
     td.tasks[0].zones[1].values[0].ddi = 0x10;
     const read = readTaskData({ 'TASKDATA.XML': enc(xmlOf(td)) });
-    expect(userError(() => layersFromTaskData(read, 'TASKDATA.XML'))).toMatch(/TSK TSK1 > TZN code 1: process data DDI 0010 \(16\) is not a setpoint rate.*DDI 1.*DDI 6/);
+    expect(userError(() => layersFromTaskData(read, 'TASKDATA.XML'))).toMatch(
+      /TSK TSK1 > TZN code 1: process data DDI 0010 \(16\) is not a setpoint rate.*DDI 1.*DDI 6/,
+    );
   });
 
   it('a truncated file is refused with its line and column', () => {
     const text = xmlOf(sample());
-    expect(userError(() => readTaskData({ 'TASKDATA.XML': enc(text.slice(0, Math.floor(text.length * 0.6))) }))).toMatch(/line \d+: not well-formed XML: the file ends before its root element ISO11783_TaskData is closed.*cut short/);
+    expect(
+      userError(() => readTaskData({ 'TASKDATA.XML': enc(text.slice(0, Math.floor(text.length * 0.6))) })),
+    ).toMatch(
+      /line \d+: not well-formed XML: the file ends before its root element ISO11783_TaskData is closed.*cut short/,
+    );
     // an element closed wrongly inside a complete file: line and column from the validator
-    expect(userError(() => parseXml('<R>\n <A x="1">\n</R>', 'T.XML'))).toMatch(/T\.XML line 3, column \d+: not well-formed XML: .*'A'/);
+    expect(userError(() => parseXml('<R>\n <A x="1">\n</R>', 'T.XML'))).toMatch(
+      /T\.XML line 3, column \d+: not well-formed XML: .*'A'/,
+    );
   });
 
   it('entity expansion and external entities are refused before anything is expanded or read', () => {
     const laughs = `<?xml version="1.0"?>\n<!DOCTYPE r [<!ENTITY a "aaaaaaaaaa"><!ENTITY b "&a;&a;&a;&a;&a;&a;&a;&a;&a;&a;"><!ENTITY c "&b;&b;&b;&b;&b;&b;&b;&b;&b;&b;">]>\n<ISO11783_TaskData VersionMajor="4" VersionMinor="3"><CTR A="CTR1" B="&c;"/></ISO11783_TaskData>`;
-    expect(userError(() => parseXml(laughs, 'TASKDATA.XML'))).toMatch(/line 2: has a DOCTYPE or ENTITY declaration/);
+    expect(userError(() => parseXml(laughs, 'TASKDATA.XML'))).toMatch(
+      /line 2: has a DOCTYPE or ENTITY declaration/,
+    );
     const xxe = `<?xml version="1.0"?><!DOCTYPE r [<!ENTITY x SYSTEM "file:///etc/hostname">]><ISO11783_TaskData><CTR A="CTR1" B="&x;"/></ISO11783_TaskData>`;
     expect(userError(() => parseXml(xxe, 'TASKDATA.XML'))).toMatch(/DOCTYPE/);
     // an entity used without a declaration is refused too (never looked up anywhere)
-    expect(userError(() => parseXml('<ISO11783_TaskData><CTR A="CTR1" B="&x;"/></ISO11783_TaskData>', 'T.XML'))).toMatch(/CTR attribute B uses the entity "&x;"/);
+    expect(
+      userError(() => parseXml('<ISO11783_TaskData><CTR A="CTR1" B="&x;"/></ISO11783_TaskData>', 'T.XML')),
+    ).toMatch(/CTR attribute B uses the entity "&x;"/);
   });
 
   it('character references and the predefined entities are decoded', () => {
@@ -95,15 +117,20 @@ describe('readTaskData', () => {
 
   it('external files (XFR) are merged in; a missing one is named', () => {
     const xml = xmlOf(sample()).replace(/ <PDT [^>]*\/>\n/, ' <XFR A="PDT00001" B="1"/>\n');
-    const ext = '<?xml version="1.0" encoding="UTF-8"?>\n<XFC>\n <PDT A="PDT1" B="urea from an external file"/>\n</XFC>\n';
+    const ext =
+      '<?xml version="1.0" encoding="UTF-8"?>\n<XFC>\n <PDT A="PDT1" B="urea from an external file"/>\n</XFC>\n';
     const td = readTaskData({ 'TASKDATA.XML': enc(xml), 'PDT00001.XML': enc(ext) });
     expect(td.products.map((p) => p.name)).toEqual(['urea from an external file']);
-    expect(userError(() => readTaskData({ 'TASKDATA.XML': enc(xml) }))).toMatch(/XFR PDT00001: the external file PDT00001\.XML is missing/);
+    expect(userError(() => readTaskData({ 'TASKDATA.XML': enc(xml) }))).toMatch(
+      /XFR PDT00001: the external file PDT00001\.XML is missing/,
+    );
   });
 
   it('a zip holding TASKDATA/ is read in memory', () => {
     const files = taskDataFiles(sample(true));
     const zip = zipFiles(Object.fromEntries(Object.entries(files).map(([k, v]) => [`TASKDATA/${k}`, v])));
-    expect(layersFromTaskDataFiles({ 'td.zip': zip }, 'td.zip')[0].label).toMatch(/td\.zip:TASKDATA\/TASKDATA\.XML task TSK1/);
+    expect(layersFromTaskDataFiles({ 'td.zip': zip }, 'td.zip')[0].label).toMatch(
+      /td\.zip:TASKDATA\/TASKDATA\.XML task TSK1/,
+    );
   });
 });

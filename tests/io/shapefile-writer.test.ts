@@ -13,7 +13,13 @@ import { read as readShp } from 'shapefile';
 import { unzipSync } from 'fflate';
 import geodesic from 'geographiclib-geodesic';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
-import { writeShapefile, encodeDbf, shortFieldNames, shortFileNames, type ColumnSpec } from '../../src/io/shapefile/index.js';
+import {
+  writeShapefile,
+  encodeDbf,
+  shortFieldNames,
+  shortFileNames,
+  type ColumnSpec,
+} from '../../src/io/shapefile/index.js';
 import { prescriptionFiles } from '../../src/prescription/shapefiles.js';
 import { prjText, readPrj } from '../../src/geo/crs.js';
 import { zipFiles, readZip, isSafeEntryName } from '../../src/io/zip.js';
@@ -21,7 +27,9 @@ import { utmZoneFor } from '../../src/geo/utm.js';
 import { requireTool } from '../helpers/tools.js';
 
 const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
-const good = JSON.parse(readFileSync(join(FIX, 'good.geojson'), 'utf8')) as FeatureCollection<Polygon | MultiPolygon>;
+const good = JSON.parse(readFileSync(join(FIX, 'good.geojson'), 'utf8')) as FeatureCollection<
+  Polygon | MultiPolygon
+>;
 const DATE = new Date(Date.UTC(2026, 3, 1));
 const COLS: ColumnSpec[] = [
   { key: 'zone_id', type: 'N', width: 4 },
@@ -30,7 +38,14 @@ const COLS: ColumnSpec[] = [
   { key: 'a_very_long_property_name', type: 'C', width: 24 },
   { key: 'a_very_long_property_other', type: 'N', width: 6, decimals: 2 },
 ];
-const feats: Feature[] = good.features.map((f, i) => ({ ...f, properties: { ...f.properties, a_very_long_property_name: `zöne ${i + 1}`, a_very_long_property_other: i / 3 } }));
+const feats: Feature[] = good.features.map((f, i) => ({
+  ...f,
+  properties: {
+    ...f.properties,
+    a_very_long_property_name: `zöne ${i + 1}`,
+    a_very_long_property_other: i / 3,
+  },
+}));
 
 /** independent oracle: signed shoelace area of a flat ring, positive counter-clockwise */
 function shoelace(r: Float64Array): number {
@@ -43,16 +58,20 @@ function shoelace(r: Float64Array): number {
 function shpRings(b: Uint8Array): Float64Array[][] {
   const v = new DataView(b.buffer, b.byteOffset, b.byteLength);
   const out: Float64Array[][] = [];
-  for (let off = 100; off < b.length; ) {
-    const len = v.getInt32(off + 4, false) * 2, c = off + 8;
+  for (let off = 100; off < b.length;) {
+    const len = v.getInt32(off + 4, false) * 2,
+      c = off + 8;
     expect(v.getInt32(c, true)).toBe(5);
-    const np = v.getInt32(c + 36, true), nq = v.getInt32(c + 40, true);
+    const np = v.getInt32(c + 36, true),
+      nq = v.getInt32(c + 40, true);
     const starts = Array.from({ length: np }, (_, k) => v.getInt32(c + 44 + 4 * k, true));
     const p0 = c + 44 + 4 * np;
-    out.push(starts.map((a, k) => {
-      const e = k + 1 < np ? starts[k + 1] : nq;
-      return Float64Array.from({ length: 2 * (e - a) }, (_, q) => v.getFloat64(p0 + 8 * (2 * a + q), true));
-    }));
+    out.push(
+      starts.map((a, k) => {
+        const e = k + 1 < np ? starts[k + 1] : nq;
+        return Float64Array.from({ length: 2 * (e - a) }, (_, q) => v.getFloat64(p0 + 8 * (2 * a + q), true));
+      }),
+    );
     off += 8 + len;
   }
   return out;
@@ -62,12 +81,13 @@ function shpRings(b: Uint8Array): Float64Array[][] {
 function geodesicArea(g: Polygon | MultiPolygon): number {
   const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
   let a = 0;
-  for (const poly of polys) poly.forEach((ring, k) => {
-    const p = geodesic.Geodesic.WGS84.Polygon(false);
-    for (const [lon, lat] of ring.slice(0, -1)) p.AddPoint(lat, lon);
-    const r = Math.abs(p.Compute(false, true).area!);
-    a += k === 0 ? r : -r;
-  });
+  for (const poly of polys)
+    poly.forEach((ring, k) => {
+      const p = geodesic.Geodesic.WGS84.Polygon(false);
+      for (const [lon, lat] of ring.slice(0, -1)) p.AddPoint(lat, lon);
+      const r = Math.abs(p.Compute(false, true).area!);
+      a += k === 0 ? r : -r;
+    });
   return a;
 }
 
@@ -78,7 +98,9 @@ function sh(cmd: string, args: string[]): string {
 }
 
 let dir = '';
-beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'tilth-shp-')); });
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'tilth-shp-'));
+});
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 function writeSet(files: Record<string, Uint8Array>, sub: string): string {
@@ -90,26 +112,41 @@ function writeSet(files: Record<string, Uint8Array>, sub: string): string {
 
 describe('names', () => {
   it('dBASE column names: at most 10 characters, ASCII, unique ignoring case (dBASE III field descriptor: 11-byte name, NUL-ended)', () => {
-    fc.assert(fc.property(fc.array(fc.string({ maxLength: 30 }), { maxLength: 40 }), (names) => {
-      const s = shortFieldNames(names);
-      expect(s).toHaveLength(names.length);
-      for (const n of s) expect(n).toMatch(/^[A-Za-z][A-Za-z0-9_]{0,9}$/);
-      expect(new Set(s.map((n) => n.toUpperCase())).size).toBe(s.length);
-    }));
+    fc.assert(
+      fc.property(fc.array(fc.string({ maxLength: 30 }), { maxLength: 40 }), (names) => {
+        const s = shortFieldNames(names);
+        expect(s).toHaveLength(names.length);
+        for (const n of s) expect(n).toMatch(/^[A-Za-z][A-Za-z0-9_]{0,9}$/);
+        expect(new Set(s.map((n) => n.toUpperCase())).size).toBe(s.length);
+      }),
+    );
     expect(shortFieldNames(['zone_id', 'urea_lbac'])).toEqual(['zone_id', 'urea_lbac']);
   });
   it('8.3 file names: at most 8 characters, upper case, unique (MS-DOS 8.3 rule)', () => {
-    fc.assert(fc.property(fc.array(fc.string({ maxLength: 20 }), { maxLength: 30 }), (names) => {
-      const s = shortFileNames(names);
-      for (const n of s) expect(n).toMatch(/^[A-Z][A-Z0-9_]{0,7}$/);
-      expect(new Set(s).size).toBe(s.length);
-    }));
+    fc.assert(
+      fc.property(fc.array(fc.string({ maxLength: 20 }), { maxLength: 30 }), (names) => {
+        const s = shortFileNames(names);
+        for (const n of s) expect(n).toMatch(/^[A-Z][A-Z0-9_]{0,7}$/);
+        expect(new Set(s).size).toBe(s.length);
+      }),
+    );
   });
 });
 
 describe('dbf bytes (dBASE III layout as given in the ESRI Shapefile Technical Description, 1998)', () => {
   it('header, descriptors, records and end marker', () => {
-    const b = encodeDbf([{ name: 'zone', type: 'N', width: 4, decimals: 0 }, { name: 'rate', type: 'N', width: 7, decimals: 1 }, { name: 'name', type: 'C', width: 5, decimals: 0 }], [[1, 80.25, 'é'], [12, null, 'abcdefg']], DATE);
+    const b = encodeDbf(
+      [
+        { name: 'zone', type: 'N', width: 4, decimals: 0 },
+        { name: 'rate', type: 'N', width: 7, decimals: 1 },
+        { name: 'name', type: 'C', width: 5, decimals: 0 },
+      ],
+      [
+        [1, 80.25, 'é'],
+        [12, null, 'abcdefg'],
+      ],
+      DATE,
+    );
     const v = new DataView(b.buffer);
     expect(b[0]).toBe(0x03);
     expect([b[1], b[2], b[3]]).toEqual([126, 4, 1]); // 2026-04-01: year - 1900
@@ -131,36 +168,53 @@ describe('dbf bytes (dBASE III layout as given in the ESRI Shapefile Technical D
     expect([...b.subarray(32 + 32 + 1 + 1, 32 + 32 + 1 + 6)]).toEqual([0x61, 0x62, 0x63, 0x64, 0x20]);
   });
   it('refuses a value wider than its column', () => {
-    expect(() => encodeDbf([{ name: 'r', type: 'N', width: 4, decimals: 1 }], [[1234.5]])).toThrow(RangeError);
+    expect(() => encodeDbf([{ name: 'r', type: 'N', width: 4, decimals: 1 }], [[1234.5]])).toThrow(
+      RangeError,
+    );
   });
 });
 
 describe('prj', () => {
-  it.skipIf(!requireTool('ogr2ogr', 'gdal-bin'))('matches the .prj GDAL 3.6.2 ogr2ogr writes for EPSG:4326, 32613, 32713 and 32631', () => {
-    const gj = join(dir, 'one.geojson');
-    writeFileSync(gj, JSON.stringify({ type: 'FeatureCollection', features: [good.features[0]] }));
-    for (const [epsg, zone] of [[4326, null], [32613, utmZoneFor(-105, 52)], [32713, utmZoneFor(-105, -30)], [32631, utmZoneFor(3, 45)]] as const) {
-      const out = join(dir, `prj${epsg}.shp`);
-      sh('ogr2ogr', ['-t_srs', `EPSG:${epsg}`, out, gj]);
-      expect(prjText(zone)).toBe(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'));
-      expect(readPrj(prjText(zone)).epsg).toBe(epsg);
-    }
-  });
-  it.skipIf(!requireTool('ogr2ogr', 'gdal-bin'))('recognises the .prj GDAL 3.6.2 writes for NAD83 (EPSG:4269, 26913) and NAD83(CSRS) UTM 13N (EPSG:2957)', () => {
-    const gj = join(dir, 'one-nad.geojson');
-    writeFileSync(gj, JSON.stringify({ type: 'FeatureCollection', features: [good.features[0]] }));
-    const want: Record<number, object> = {
-      4269: { kind: 'lonlat', datum: 'NAD83', epsg: 4269 },
-      26913: { kind: 'utm', zone: 13, south: false, datum: 'NAD83', epsg: 26913 },
-      2957: { kind: 'utm', zone: 13, south: false, datum: 'NAD83(CSRS)' },
-    };
-    for (const epsg of [4269, 26913, 2957]) {
-      const out = join(dir, `nad${epsg}.shp`);
-      sh('ogr2ogr', ['-t_srs', `EPSG:${epsg}`, out, gj]);
-      expect(readPrj(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'))).toMatchObject(want[epsg]);
-    }
-    expect(readPrj('PROJCS["Some_Local_Grid",GEOGCS["GCS_Other",DATUM["D_Other",SPHEROID["x",6378000,300]]],PROJECTION["Lambert"]]').kind).toBeNull();
-  });
+  it.skipIf(!requireTool('ogr2ogr', 'gdal-bin'))(
+    'matches the .prj GDAL 3.6.2 ogr2ogr writes for EPSG:4326, 32613, 32713 and 32631',
+    () => {
+      const gj = join(dir, 'one.geojson');
+      writeFileSync(gj, JSON.stringify({ type: 'FeatureCollection', features: [good.features[0]] }));
+      for (const [epsg, zone] of [
+        [4326, null],
+        [32613, utmZoneFor(-105, 52)],
+        [32713, utmZoneFor(-105, -30)],
+        [32631, utmZoneFor(3, 45)],
+      ] as const) {
+        const out = join(dir, `prj${epsg}.shp`);
+        sh('ogr2ogr', ['-t_srs', `EPSG:${epsg}`, out, gj]);
+        expect(prjText(zone)).toBe(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'));
+        expect(readPrj(prjText(zone)).epsg).toBe(epsg);
+      }
+    },
+  );
+  it.skipIf(!requireTool('ogr2ogr', 'gdal-bin'))(
+    'recognises the .prj GDAL 3.6.2 writes for NAD83 (EPSG:4269, 26913) and NAD83(CSRS) UTM 13N (EPSG:2957)',
+    () => {
+      const gj = join(dir, 'one-nad.geojson');
+      writeFileSync(gj, JSON.stringify({ type: 'FeatureCollection', features: [good.features[0]] }));
+      const want: Record<number, object> = {
+        4269: { kind: 'lonlat', datum: 'NAD83', epsg: 4269 },
+        26913: { kind: 'utm', zone: 13, south: false, datum: 'NAD83', epsg: 26913 },
+        2957: { kind: 'utm', zone: 13, south: false, datum: 'NAD83(CSRS)' },
+      };
+      for (const epsg of [4269, 26913, 2957]) {
+        const out = join(dir, `nad${epsg}.shp`);
+        sh('ogr2ogr', ['-t_srs', `EPSG:${epsg}`, out, gj]);
+        expect(readPrj(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'))).toMatchObject(want[epsg]);
+      }
+      expect(
+        readPrj(
+          'PROJCS["Some_Local_Grid",GEOGCS["GCS_Other",DATUM["D_Other",SPHEROID["x",6378000,300]]],PROJECTION["Lambert"]]',
+        ).kind,
+      ).toBeNull();
+    },
+  );
 });
 
 for (const crs of ['lonlat', 'utm'] as const) {
@@ -169,11 +223,24 @@ for (const crs of ['lonlat', 'utm'] as const) {
     const base = `good_${crs}`;
 
     it('writes the six files, .cpg = UTF-8, a column list beside', () => {
-      expect(Object.keys(files).sort()).toEqual([`${base}.columns.csv`, `${base}.cpg`, `${base}.dbf`, `${base}.prj`, `${base}.shp`, `${base}.shx`]);
+      expect(Object.keys(files).sort()).toEqual([
+        `${base}.columns.csv`,
+        `${base}.cpg`,
+        `${base}.dbf`,
+        `${base}.prj`,
+        `${base}.shp`,
+        `${base}.shx`,
+      ]);
       expect(new TextDecoder().decode(files[`${base}.cpg`])).toBe('UTF-8');
       const list = new TextDecoder().decode(files[`${base}.columns.csv`]).trim().split('\n');
       expect(list[0]).toBe('column,property,type,width,decimals,description');
-      expect(list.slice(1).map((l) => l.split(',').slice(0, 2).join(','))).toEqual(['zone_id,zone_id', 'urea_lbac,urea_lbac', 'map_lbac,map_lbac', 'a_very_lon,a_very_long_property_name', 'a_very_l_2,a_very_long_property_other']);
+      expect(list.slice(1).map((l) => l.split(',').slice(0, 2).join(','))).toEqual([
+        'zone_id,zone_id',
+        'urea_lbac,urea_lbac',
+        'map_lbac,map_lbac',
+        'a_very_lon,a_very_long_property_name',
+        'a_very_l_2,a_very_long_property_other',
+      ]);
     });
 
     it('rings: exteriors clockwise, holes counter-clockwise, read from the .shp bytes (ESRI technical description)', () => {
@@ -196,7 +263,9 @@ for (const crs of ['lonlat', 'utm'] as const) {
     });
 
     it('re-read by the shapefile package (0.6.6): types, coordinates, attributes', async () => {
-      const r = await readShp(files[`${base}.shp`].slice().buffer, files[`${base}.dbf`].slice().buffer, { encoding: 'utf-8' });
+      const r = await readShp(files[`${base}.shp`].slice().buffer, files[`${base}.dbf`].slice().buffer, {
+        encoding: 'utf-8',
+      });
       expect(r.features.map((f) => f.geometry.type)).toEqual(feats.map((f) => f.geometry!.type));
       expect(r.features.map((f) => f.properties!.zone_id)).toEqual([1, 2, 3, 4]);
       expect(r.features.map((f) => f.properties!.urea_lbac)).toEqual([110, 145.5, 90, 170]);
@@ -210,49 +279,78 @@ for (const crs of ['lonlat', 'utm'] as const) {
       }
     });
 
-    it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))('re-read by GDAL 3.6.2 ogrinfo: type, count, extent, SRS, fields, ST_IsValid, areas', () => {
-      const d = writeSet(files, crs);
-      const shp = join(d, `${base}.shp`);
-      const info = sh('ogrinfo', ['-ro', '-al', '-so', shp]);
-      expect(info).toMatch(/Geometry: Polygon/);
-      expect(info).toMatch(/Feature Count: 4/);
-      expect(info).toMatch(crs === 'lonlat' ? /ID\["EPSG",4326\]\]\s*$/m : /ID\["EPSG",32613\]\]\s*$/m);
-      expect(info).toMatch(/zone_id: Integer \(4\.0\)/);
-      expect(info).toMatch(/urea_lbac: Real \(8\.1\)/);
-      expect(info).toMatch(/a_very_lon: String \(24\.0\)/);
-      expect(info).toMatch(/a_very_l_2: Real \(6\.2\)/);
-      const ext = /Extent: \(([-\d.]+), ([-\d.]+)\) - \(([-\d.]+), ([-\d.]+)\)/.exec(info)!.slice(1).map(Number);
-      if (crs === 'lonlat') {
-        const xs = feats.flatMap((f) => (f.geometry as Polygon).coordinates ? JSON.stringify(f.geometry).match(/-?\d+\.\d+/g)!.map(Number) : []);
-        const lons = xs.filter((v) => v < 0), lats = xs.filter((v) => v > 0);
-        expect(ext[0]).toBeCloseTo(Math.min(...lons), 6);
-        expect(ext[2]).toBeCloseTo(Math.max(...lons), 6);
-        expect(ext[1]).toBeCloseTo(Math.min(...lats), 6);
-        expect(ext[3]).toBeCloseTo(Math.max(...lats), 6);
-      } else {
-        // the fixture field spans 0..800 m from E 400000, N 5780000 (scripts/make-check-fixtures.ts), to 1 mm
-        expect(ext[0]).toBeCloseTo(400000, 2);
-        expect(ext[1]).toBeCloseTo(5780000, 2);
-        expect(ext[2]).toBeCloseTo(400800, 2);
-        expect(ext[3]).toBeCloseTo(5780800, 2);
-      }
-      const valid = sh('ogrinfo', ['-ro', '-q', '-dialect', 'sqlite', '-sql', `SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM ${base}`, shp]);
-      expect(valid).toMatch(/n \(Integer\) = 4/);
-      expect(valid).toMatch(/v \(Integer\) = 4/);
-      // areas: GDAL's planar UTM area (ST_Transform to EPSG:32613 for lon/lat) over k^2 at the centroid,
-      // k = k0 (1 + x^2 / 2R^2) with x = E - 500000 (Snyder 1987, Map Projections: A Working Manual, eq. 8-11
-      // to first order), against GeographicLib's geodesic area of the GeoJSON; within 0.01 %
-      const geomExpr = crs === 'lonlat' ? 'ST_Transform(geometry, 32613)' : 'geometry';
-      const out = sh('ogrinfo', ['-ro', '-q', '-dialect', 'sqlite', '-sql', `SELECT ST_Area(${geomExpr}) AS a, ST_X(ST_Centroid(${geomExpr})) AS x FROM ${base}`, shp]);
-      const areas = [...out.matchAll(/ a \(Real\) = ([\d.e+]+)/g)].map((m) => Number(m[1]));
-      const xs = [...out.matchAll(/ x \(Real\) = ([\d.e+]+)/g)].map((m) => Number(m[1]));
-      expect(areas).toHaveLength(4);
-      areas.forEach((a, i) => {
-        const k = 0.9996 * (1 + (xs[i] - 500000) ** 2 / (2 * 6371000 ** 2));
-        const want = geodesicArea(feats[i].geometry as Polygon | MultiPolygon);
-        expect(Math.abs(a / (k * k) - want) / want).toBeLessThan(1e-4);
-      });
-    });
+    it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))(
+      're-read by GDAL 3.6.2 ogrinfo: type, count, extent, SRS, fields, ST_IsValid, areas',
+      () => {
+        const d = writeSet(files, crs);
+        const shp = join(d, `${base}.shp`);
+        const info = sh('ogrinfo', ['-ro', '-al', '-so', shp]);
+        expect(info).toMatch(/Geometry: Polygon/);
+        expect(info).toMatch(/Feature Count: 4/);
+        expect(info).toMatch(crs === 'lonlat' ? /ID\["EPSG",4326\]\]\s*$/m : /ID\["EPSG",32613\]\]\s*$/m);
+        expect(info).toMatch(/zone_id: Integer \(4\.0\)/);
+        expect(info).toMatch(/urea_lbac: Real \(8\.1\)/);
+        expect(info).toMatch(/a_very_lon: String \(24\.0\)/);
+        expect(info).toMatch(/a_very_l_2: Real \(6\.2\)/);
+        const ext = /Extent: \(([-\d.]+), ([-\d.]+)\) - \(([-\d.]+), ([-\d.]+)\)/
+          .exec(info)!
+          .slice(1)
+          .map(Number);
+        if (crs === 'lonlat') {
+          const xs = feats.flatMap((f) =>
+            (f.geometry as Polygon).coordinates
+              ? JSON.stringify(f.geometry)
+                  .match(/-?\d+\.\d+/g)!
+                  .map(Number)
+              : [],
+          );
+          const lons = xs.filter((v) => v < 0),
+            lats = xs.filter((v) => v > 0);
+          expect(ext[0]).toBeCloseTo(Math.min(...lons), 6);
+          expect(ext[2]).toBeCloseTo(Math.max(...lons), 6);
+          expect(ext[1]).toBeCloseTo(Math.min(...lats), 6);
+          expect(ext[3]).toBeCloseTo(Math.max(...lats), 6);
+        } else {
+          // the fixture field spans 0..800 m from E 400000, N 5780000 (scripts/make-check-fixtures.ts), to 1 mm
+          expect(ext[0]).toBeCloseTo(400000, 2);
+          expect(ext[1]).toBeCloseTo(5780000, 2);
+          expect(ext[2]).toBeCloseTo(400800, 2);
+          expect(ext[3]).toBeCloseTo(5780800, 2);
+        }
+        const valid = sh('ogrinfo', [
+          '-ro',
+          '-q',
+          '-dialect',
+          'sqlite',
+          '-sql',
+          `SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM ${base}`,
+          shp,
+        ]);
+        expect(valid).toMatch(/n \(Integer\) = 4/);
+        expect(valid).toMatch(/v \(Integer\) = 4/);
+        // areas: GDAL's planar UTM area (ST_Transform to EPSG:32613 for lon/lat) over k^2 at the centroid,
+        // k = k0 (1 + x^2 / 2R^2) with x = E - 500000 (Snyder 1987, Map Projections: A Working Manual, eq. 8-11
+        // to first order), against GeographicLib's geodesic area of the GeoJSON; within 0.01 %
+        const geomExpr = crs === 'lonlat' ? 'ST_Transform(geometry, 32613)' : 'geometry';
+        const out = sh('ogrinfo', [
+          '-ro',
+          '-q',
+          '-dialect',
+          'sqlite',
+          '-sql',
+          `SELECT ST_Area(${geomExpr}) AS a, ST_X(ST_Centroid(${geomExpr})) AS x FROM ${base}`,
+          shp,
+        ]);
+        const areas = [...out.matchAll(/ a \(Real\) = ([\d.e+]+)/g)].map((m) => Number(m[1]));
+        const xs = [...out.matchAll(/ x \(Real\) = ([\d.e+]+)/g)].map((m) => Number(m[1]));
+        expect(areas).toHaveLength(4);
+        areas.forEach((a, i) => {
+          const k = 0.9996 * (1 + (xs[i] - 500000) ** 2 / (2 * 6371000 ** 2));
+          const want = geodesicArea(feats[i].geometry as Polygon | MultiPolygon);
+          expect(Math.abs(a / (k * k) - want) / want).toBeLessThan(1e-4);
+        });
+      },
+    );
   });
 }
 
@@ -264,7 +362,8 @@ describe('zip', () => {
     expect(readZip(z, 'a.zip')['a.dbf'][0]).toBe(4);
   });
   it('calls names escaping the folder unsafe', () => {
-    for (const n of ['../x.shp', '/etc/x', 'a/../../x', 'C:\\x', 'a\\..\\..\\x', '']) expect(isSafeEntryName(n)).toBe(false);
+    for (const n of ['../x.shp', '/etc/x', 'a/../../x', 'C:\\x', 'a\\..\\..\\x', ''])
+      expect(isSafeEntryName(n)).toBe(false);
     for (const n of ['x.shp', 'a/b.shp', 'a..b.shp']) expect(isSafeEntryName(n)).toBe(true);
   });
 });
@@ -286,53 +385,107 @@ describe('prescriptionFiles (machine layouts)', () => {
   };
 
   it('per_placement: one set per placement, one rate column per product, unit in the name, note and zip', async () => {
-    const { files, columns } = prescriptionFiles(rx, { layout: 'per_placement', date: DATE, title: 'Coulee Bend West (invented)' });
-    expect(Object.keys(files).filter((k) => k.endsWith('.shp')).sort()).toEqual(['rx_seed_row.shp', 'rx_side_band.shp']);
-    expect(columns.map((c) => `${c.set}:${c.column}`)).toEqual(['rx_side_band:urea_lbac', 'rx_seed_row:map_lbac', 'rx_seed_row:urea_lbac']);
+    const { files, columns } = prescriptionFiles(rx, {
+      layout: 'per_placement',
+      date: DATE,
+      title: 'Coulee Bend West (invented)',
+    });
+    expect(
+      Object.keys(files)
+        .filter((k) => k.endsWith('.shp'))
+        .sort(),
+    ).toEqual(['rx_seed_row.shp', 'rx_side_band.shp']);
+    expect(columns.map((c) => `${c.set}:${c.column}`)).toEqual([
+      'rx_side_band:urea_lbac',
+      'rx_seed_row:map_lbac',
+      'rx_seed_row:urea_lbac',
+    ]);
     const note = new TextDecoder().decode(files['rx_seed_row.note.txt']);
     expect(note).toMatch(/map_lbac: MAP 11-52-0, placed seed row, lb\/ac/);
     expect(note).toMatch(/Caution/);
     const z = unzipSync(files['rx_seed_row.zip']);
-    expect(Object.keys(z).sort()).toEqual(['rx_seed_row.columns.csv', 'rx_seed_row.cpg', 'rx_seed_row.dbf', 'rx_seed_row.note.txt', 'rx_seed_row.prj', 'rx_seed_row.shp', 'rx_seed_row.shx']);
+    expect(Object.keys(z).sort()).toEqual([
+      'rx_seed_row.columns.csv',
+      'rx_seed_row.cpg',
+      'rx_seed_row.dbf',
+      'rx_seed_row.note.txt',
+      'rx_seed_row.prj',
+      'rx_seed_row.shp',
+      'rx_seed_row.shx',
+    ]);
     const r = await readShp(files['rx_seed_row.shp'].slice().buffer, files['rx_seed_row.dbf'].slice().buffer);
-    expect(r.features.map((f) => [f.properties!.map_lbac, f.properties!.urea_lbac])).toEqual([[60, 10], [45, 10], [50, 10], [70, 10]]);
+    expect(r.features.map((f) => [f.properties!.map_lbac, f.properties!.urea_lbac])).toEqual([
+      [60, 10],
+      [45, 10],
+      [50, 10],
+      [70, 10],
+    ]);
     // totals: rate x ground area; zone areas add up to the field (800 m x 800 m in UTM = 158.24 ac on the ground)
     const side = columns[0];
     const acres = r.features.map((f) => f.properties!.area_ac as number);
     expect(acres.reduce((s, a) => s + a, 0)).toBeCloseTo(640000 / 4046.8564224 / 0.99944, 0);
-    expect(side.total).toBeCloseTo([110, 145.5, 90, 170].reduce((s, v, i) => s + v * acres[i], 0), -1);
+    expect(side.total).toBeCloseTo(
+      [110, 145.5, 90, 170].reduce((s, v, i) => s + v * acres[i], 0),
+      -1,
+    );
   });
 
   it('per_product: one set per product (and placement when it has two), single rate column', () => {
     const { files, columns } = prescriptionFiles(rx, { layout: 'per_product', date: DATE });
-    expect(columns.map((c) => `${c.set}:${c.column}`)).toEqual(['rx_urea_46_0_0_side_band:rate_lbac', 'rx_map_11_52_0:rate_lbac', 'rx_urea_46_0_0_seed_row:rate_lbac']);
+    expect(columns.map((c) => `${c.set}:${c.column}`)).toEqual([
+      'rx_urea_46_0_0_side_band:rate_lbac',
+      'rx_map_11_52_0:rate_lbac',
+      'rx_urea_46_0_0_seed_row:rate_lbac',
+    ]);
     expect(files['rx_map_11_52_0.zip']).toBeDefined();
   });
 
-  it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))('every set of both layouts re-read by the shapefile package and GDAL 3.6.2 ogrinfo (count, ST_IsValid)', async () => {
-    for (const [layout, crs] of [['per_placement', 'lonlat'], ['per_product', 'utm']] as const) {
-      const { files } = prescriptionFiles(rx, { layout, crs, date: DATE });
-      const d = writeSet(files, `all-${layout}`);
-      const sets = Object.keys(files).filter((k) => k.endsWith('.shp'));
-      expect(sets.length).toBeGreaterThanOrEqual(2);
-      for (const shp of sets) {
-        const base = shp.slice(0, -4);
-        const r = await readShp(files[shp].slice().buffer, files[`${base}.dbf`].slice().buffer);
-        expect(r.features).toHaveLength(4);
-        const out = sh('ogrinfo', ['-ro', '-q', '-dialect', 'sqlite', '-sql', `SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM ${base}`, join(d, shp)]);
-        expect(out).toMatch(/n \(Integer\) = 4/);
-        expect(out).toMatch(/v \(Integer\) = 4/);
+  it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))(
+    'every set of both layouts re-read by the shapefile package and GDAL 3.6.2 ogrinfo (count, ST_IsValid)',
+    async () => {
+      for (const [layout, crs] of [
+        ['per_placement', 'lonlat'],
+        ['per_product', 'utm'],
+      ] as const) {
+        const { files } = prescriptionFiles(rx, { layout, crs, date: DATE });
+        const d = writeSet(files, `all-${layout}`);
+        const sets = Object.keys(files).filter((k) => k.endsWith('.shp'));
+        expect(sets.length).toBeGreaterThanOrEqual(2);
+        for (const shp of sets) {
+          const base = shp.slice(0, -4);
+          const r = await readShp(files[shp].slice().buffer, files[`${base}.dbf`].slice().buffer);
+          expect(r.features).toHaveLength(4);
+          const out = sh('ogrinfo', [
+            '-ro',
+            '-q',
+            '-dialect',
+            'sqlite',
+            '-sql',
+            `SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM ${base}`,
+            join(d, shp),
+          ]);
+          expect(out).toMatch(/n \(Integer\) = 4/);
+          expect(out).toMatch(/v \(Integer\) = 4/);
+        }
       }
-    }
-  });
+    },
+  );
 
-  it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))('8.3 names, UTM: GDAL 3.6.2 reads the zipped set through /vsizip/', () => {
-    const { files } = prescriptionFiles(rx, { layout: 'per_placement', crs: 'utm', shortFileNames: true, date: DATE });
-    for (const k of Object.keys(files)) expect(k).toMatch(/^[A-Z][A-Z0-9_]{0,7}\.[A-Z]{3}$/);
-    const d = writeSet({ 'RX_SEED.ZIP': files['RX_SEED.ZIP'] }, 'short');
-    const info = sh('ogrinfo', ['-ro', '-al', '-so', `/vsizip/${join(d, 'RX_SEED.ZIP')}/RX_SEED.SHP`]);
-    expect(info).toMatch(/Feature Count: 4/);
-    expect(info).toMatch(/ID\["EPSG",32613\]\]\s*$/m);
-    expect(info).toMatch(/map_lbac: Real \(\d+\.1\)/);
-  });
+  it.skipIf(!requireTool('ogrinfo', 'gdal-bin'))(
+    '8.3 names, UTM: GDAL 3.6.2 reads the zipped set through /vsizip/',
+    () => {
+      const { files } = prescriptionFiles(rx, {
+        layout: 'per_placement',
+        crs: 'utm',
+        shortFileNames: true,
+        date: DATE,
+      });
+      for (const k of Object.keys(files)) expect(k).toMatch(/^[A-Z][A-Z0-9_]{0,7}\.[A-Z]{3}$/);
+      const d = writeSet({ 'RX_SEED.ZIP': files['RX_SEED.ZIP'] }, 'short');
+      const info = sh('ogrinfo', ['-ro', '-al', '-so', `/vsizip/${join(d, 'RX_SEED.ZIP')}/RX_SEED.SHP`]);
+      expect(info).toMatch(/Feature Count: 4/);
+      expect(info).toMatch(/ID\["EPSG",32613\]\]\s*$/m);
+      expect(info).toMatch(/map_lbac: Real \(\d+\.1\)/);
+    },
+  );
 });

@@ -10,7 +10,12 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { ISOXMLManager } from 'isoxml';
 import geodesic from 'geographiclib-geodesic';
 import { parse as parseYaml, stringify } from 'yaml';
-import { buildPrescription, productRate, usedPairs, type Prescription } from '../../src/prescription/index.js';
+import {
+  buildPrescription,
+  productRate,
+  usedPairs,
+  type Prescription,
+} from '../../src/prescription/index.js';
 import { prescriptionGeojson, rateColumn } from '../../src/prescription/outputs.js';
 import { prescriptionTaskDataFiles } from '../../src/prescription/taskdata.js';
 import { parsePlan, defaultTables } from '../../src/agronomy/index.js';
@@ -28,7 +33,11 @@ import { requireTool } from '../helpers/tools.js';
 const tables = defaultTables();
 const src = (f: string) => ({ name: f, bytes: readFileSync(join(ROOT, 'sample-fields/quarter', f)) });
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
-const plan = (edit: (p: Record<string, any>) => void = () => {}) => { const p = parseYaml(PLAN); edit(p); return parsePlan(stringify(p), 'plan.yaml', tables); };
+const plan = (edit: (p: Record<string, any>) => void = () => {}) => {
+  const p = parseYaml(PLAN);
+  edit(p);
+  return parsePlan(stringify(p), 'plan.yaml', tables);
+};
 const inputs = await fieldInputs(src('samples.csv'), src('boundary.geojson'));
 
 /** Parses a TASKDATA folder (as a zip, the way isoxml reads grid files) with the isoxml library. */
@@ -45,7 +54,8 @@ function ringArea(ring: number[][]): number {
   for (const [lon, lat] of ring.slice(0, -1)) p.AddPoint(lat, lon);
   return Math.abs(p.Compute(false, true).area!);
 }
-const polyArea = (poly: number[][][]) => ringArea(poly[0]) - poly.slice(1).reduce((s, r) => s + ringArea(r), 0);
+const polyArea = (poly: number[][][]) =>
+  ringArea(poly[0]) - poly.slice(1).reduce((s, r) => s + ringArea(r), 0);
 
 const A = (e: any) => e.attributes;
 const pnts = (lsg: any): number[][] => A(lsg).Point.map((p: any) => [A(p).PointEast, A(p).PointNorth]);
@@ -54,7 +64,9 @@ const ddi6ToLbac = (v: number) => v / 100 / lbacToKgha(1);
 
 /** The demo quarter's prescription (10 m cells), shared by the polygon and grid tests. */
 let base: Prescription;
-beforeAll(() => { base = buildPrescription(inputs, plan(), tables, { cell: 10 }); });
+beforeAll(() => {
+  base = buildPrescription(inputs, plan(), tables, { cell: 10 });
+});
 
 describe('task data with zone polygons, read by the isoxml package', () => {
   let rx: Prescription, files: Record<string, Uint8Array>, m: ISOXMLManager;
@@ -75,7 +87,11 @@ describe('task data with zone polygons, read by the isoxml package', () => {
     for (const t of root.Task) {
       expect(A(t).TreatmentZone.length).toBe(set.zones.length + 1);
       // default, position-lost and out-of-field zone: code 0, a zero rate for every product
-      expect([A(t).DefaultTreatmentZoneCode, A(t).PositionLostTreatmentZoneCode, A(t).OutOfFieldTreatmentZoneCode]).toEqual([0, 0, 0]);
+      expect([
+        A(t).DefaultTreatmentZoneCode,
+        A(t).PositionLostTreatmentZoneCode,
+        A(t).OutOfFieldTreatmentZoneCode,
+      ]).toEqual([0, 0, 0]);
       const zero = A(t).TreatmentZone.find((z: any) => A(z).TreatmentZoneCode === 0);
       expect(A(zero).ProcessDataVariable.every((v: any) => A(v).ProcessDataValue === 0)).toBe(true);
     }
@@ -97,10 +113,14 @@ describe('task data with zone polygons, read by the isoxml package', () => {
         const f = fc.features.find((x: any) => x.properties.zone_id === code);
         for (const v of A(z).ProcessDataVariable) {
           expect(A(v).ProcessDataDDI).toBe('0006');
-          const product = Object.entries(tables.products).find(([, p]) => p.label === A(A(v).ProductIdRef.entity).ProductDesignator)![0];
+          const product = Object.entries(tables.products).find(
+            ([, p]) => p.label === A(A(v).ProductIdRef.entity).ProductDesignator,
+          )![0];
           const want = f.properties[rateColumn(product, placement as any, 'lb/ac')];
           // resolution 1 mg/m2: half of it in lb/ac
-          expect(Math.abs(ddi6ToLbac(A(v).ProcessDataValue) - want)).toBeLessThanOrEqual(0.5 / 100 / lbacToKgha(1) + 1e-9);
+          expect(Math.abs(ddi6ToLbac(A(v).ProcessDataValue) - want)).toBeLessThanOrEqual(
+            0.5 / 100 / lbacToKgha(1) + 1e-9,
+          );
           compared++;
         }
       }
@@ -110,42 +130,66 @@ describe('task data with zone polygons, read by the isoxml package', () => {
 
   it('zone polygons rebuilt from the parsed file match prescription.geojson (area 0.01 %, same holes)', () => {
     const fc = JSON.parse(prescriptionGeojson(rx, rx.zoneSets[0]));
-    for (const t of A(m.rootElement).Task) for (const z of A(t).TreatmentZone) {
-      const code = A(z).TreatmentZoneCode;
-      if (code === 0) continue;
-      const polys = (A(z).PolygonTreatmentZoneonly ?? []).map((pln: any) => {
-        expect(A(pln).PolygonType).toBe('2');
-        const lsg = A(pln).LineString;
-        return [pnts(lsg.find((l: any) => A(l).LineStringType === '1')), ...lsg.filter((l: any) => A(l).LineStringType === '2').map(pnts)];
-      });
-      const g = fc.features.find((x: any) => x.properties.zone_id === code).geometry;
-      const want: number[][][][] = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
-      expect(polys.map((p: number[][][]) => p.length - 1)).toEqual(want.map((p) => p.length - 1));
-      const a = polys.reduce((s: number, p: number[][][]) => s + polyArea(p), 0), b = want.reduce((s, p) => s + polyArea(p), 0);
-      // prescription.geojson rounds to 7 decimals (RFC 7946 advice, about 1 cm), which alone moves a small zone's
-      // area by up to its perimeter x 0.56 cm (half of 1e-7 degree of latitude); the task data keeps 9 decimals
-      const perimeter = want.flat().reduce((s, r) => s + r.slice(1).reduce((t, q, i) => t + Math.hypot((q[0] - r[i][0]) * 68_000, (q[1] - r[i][1]) * 111_300), 0), 0);
-      expect(Math.abs(a - b)).toBeLessThan(Math.max(1e-4 * b, perimeter * 0.0056));
-      // against the prescription's own (unrounded) zone, the 0.01 % holds outright
-      const exact = rx.zoneSets[0].zones.find((x) => x.id === code)!.lonlat.reduce((s, p) => s + polyArea(p), 0);
-      expect(Math.abs(a - exact) / exact).toBeLessThan(1e-4);
-    }
+    for (const t of A(m.rootElement).Task)
+      for (const z of A(t).TreatmentZone) {
+        const code = A(z).TreatmentZoneCode;
+        if (code === 0) continue;
+        const polys = (A(z).PolygonTreatmentZoneonly ?? []).map((pln: any) => {
+          expect(A(pln).PolygonType).toBe('2');
+          const lsg = A(pln).LineString;
+          return [
+            pnts(lsg.find((l: any) => A(l).LineStringType === '1')),
+            ...lsg.filter((l: any) => A(l).LineStringType === '2').map(pnts),
+          ];
+        });
+        const g = fc.features.find((x: any) => x.properties.zone_id === code).geometry;
+        const want: number[][][][] = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
+        expect(polys.map((p: number[][][]) => p.length - 1)).toEqual(want.map((p) => p.length - 1));
+        const a = polys.reduce((s: number, p: number[][][]) => s + polyArea(p), 0),
+          b = want.reduce((s, p) => s + polyArea(p), 0);
+        // prescription.geojson rounds to 7 decimals (RFC 7946 advice, about 1 cm), which alone moves a small zone's
+        // area by up to its perimeter x 0.56 cm (half of 1e-7 degree of latitude); the task data keeps 9 decimals
+        const perimeter = want
+          .flat()
+          .reduce(
+            (s, r) =>
+              s +
+              r
+                .slice(1)
+                .reduce(
+                  (t, q, i) => t + Math.hypot((q[0] - r[i][0]) * 68_000, (q[1] - r[i][1]) * 111_300),
+                  0,
+                ),
+            0,
+          );
+        expect(Math.abs(a - b)).toBeLessThan(Math.max(1e-4 * b, perimeter * 0.0056));
+        // against the prescription's own (unrounded) zone, the 0.01 % holds outright
+        const exact = rx.zoneSets[0].zones
+          .find((x) => x.id === code)!
+          .lonlat.reduce((s, p) => s + polyArea(p), 0);
+        expect(Math.abs(a - exact) / exact).toBeLessThan(1e-4);
+      }
   });
 
   it('the partfield boundary keeps its hole', () => {
     const pfd = A(m.rootElement).Partfield[0];
     const plns = A(pfd).PolygonnonTreatmentZoneonly ?? A(pfd).Polygon;
     expect(plns.length).toBe(rx.field.lonlat.length);
-    expect(A(plns[0]).LineString.filter((l: any) => A(l).LineStringType === '2').length).toBe(rx.field.lonlat[0].length - 1);
+    expect(A(plns[0]).LineString.filter((l: any) => A(l).LineStringType === '2').length).toBe(
+      rx.field.lonlat[0].length - 1,
+    );
   });
 
-  it.skipIf(!requireTool('xmllint', 'libxml2-utils'))('xmllint --noout finds TASKDATA.XML well formed (libxml2)', () => {
-    const d = mkdtempSync(join(tmpdir(), 'tilth-isoxml-'));
-    writeFileSync(join(d, 'TASKDATA.XML'), files['TASKDATA.XML']);
-    const r = spawnSync('xmllint', ['--noout', join(d, 'TASKDATA.XML')], { encoding: 'utf8' });
-    expect(r.stderr).toBe('');
-    expect(r.status).toBe(0);
-  });
+  it.skipIf(!requireTool('xmllint', 'libxml2-utils'))(
+    'xmllint --noout finds TASKDATA.XML well formed (libxml2)',
+    () => {
+      const d = mkdtempSync(join(tmpdir(), 'tilth-isoxml-'));
+      writeFileSync(join(d, 'TASKDATA.XML'), files['TASKDATA.XML']);
+      const r = spawnSync('xmllint', ['--noout', join(d, 'TASKDATA.XML')], { encoding: 'utf8' });
+      expect(r.stderr).toBe('');
+      expect(r.status).toBe(0);
+    },
+  );
 });
 
 describe('task data as a type-2 grid, read by the isoxml package', () => {
@@ -156,7 +200,10 @@ describe('task data as a type-2 grid, read by the isoxml package', () => {
   }, 120_000);
 
   it('passes tilth check with the boundary (the staircase along the edge is under one cell wide); a grid cut short leaves a gap', () => {
-    const boundary = layerFromGeoJSON(readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8'), 'boundary.geojson');
+    const boundary = layerFromGeoJSON(
+      readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8'),
+      'boundary.geojson',
+    );
     const layers = layersFromTaskData(readTaskData(files), 'TASKDATA.XML');
     expect(layers.length).toBeGreaterThan(2);
     for (const l of layers) {
@@ -183,18 +230,27 @@ describe('task data as a type-2 grid, read by the isoxml package', () => {
       expect(g.GridType).toBe('2');
       const tzn = A(t).TreatmentZone.find((z: any) => A(z).TreatmentZoneCode === g.TreatmentZoneCode);
       const pdvs = A(tzn).ProcessDataVariable;
-      const cells = new Int32Array(grd.binaryData.buffer, grd.binaryData.byteOffset, grd.binaryData.byteLength / 4);
+      const cells = new Int32Array(
+        grd.binaryData.buffer,
+        grd.binaryData.byteOffset,
+        grd.binaryData.byteLength / 4,
+      );
       const placement = A(t).TaskDesignator.includes('seed row') ? 'seed_row' : 'side_band';
       for (const z of set.zones) {
         const big = z.parts.reduce((a, b) => (b.exterior.length > a.exterior.length ? b : a));
         const [x, y] = labelPoint(big);
         const [lon, lat] = proj.inverse([x, y]);
-        const c = Math.floor((lon - g.GridMinimumEastPosition) / g.GridCellEastSize), r = Math.floor((lat - g.GridMinimumNorthPosition) / g.GridCellNorthSize);
+        const c = Math.floor((lon - g.GridMinimumEastPosition) / g.GridCellEastSize),
+          r = Math.floor((lat - g.GridMinimumNorthPosition) / g.GridCellNorthSize);
         pdvs.forEach((v: any, k: number) => {
-          const product = Object.entries(tables.products).find(([, p]) => p.label === A(A(v).ProductIdRef.entity).ProductDesignator)![0];
+          const product = Object.entries(tables.products).find(
+            ([, p]) => p.label === A(A(v).ProductIdRef.entity).ProductDesignator,
+          )![0];
           const want = productRate(z.decision, product, placement).lbac;
           // rows run south to north: row r from the south is at index r * cols
-          expect(Math.abs(ddi6ToLbac(cells[(r * g.GridMaximumColumn + c) * pdvs.length + k]) - want)).toBeLessThanOrEqual(0.5 / 100 / lbacToKgha(1) + 1e-9);
+          expect(
+            Math.abs(ddi6ToLbac(cells[(r * g.GridMaximumColumn + c) * pdvs.length + k]) - want),
+          ).toBeLessThanOrEqual(0.5 / 100 / lbacToKgha(1) + 1e-9);
         });
       }
     }
@@ -203,7 +259,14 @@ describe('task data as a type-2 grid, read by the isoxml package', () => {
 
 describe('task layouts', () => {
   it('per_product: one task per product and placement; per-product zone sets: tasks per set, ids unique', async () => {
-    const rx = buildPrescription(inputs, plan((p) => { p.zoning.zone_sets = 'per_product'; }), tables, { cell: 10 });
+    const rx = buildPrescription(
+      inputs,
+      plan((p) => {
+        p.zoning.zone_sets = 'per_product';
+      }),
+      tables,
+      { cell: 10 },
+    );
     const m = await outside(prescriptionTaskDataFiles(rx, tables, { layout: 'per_product' }));
     expect(m.getWarnings()).toEqual([]);
     const tasks = A(m.rootElement).Task;
@@ -226,7 +289,10 @@ describe('names and liquids', () => {
       p.field = 'Field <7> & co';
       p.strategy.s.method = 'none';
       p.strategy.k.method = 'none';
-      p.products = [{ product: 'map', placements: ['seed_row', 'side_band'], max_rate: 200, step: 1 }, { product: 'uan', placements: ['side_band'], max_rate: 600, step: 1 }];
+      p.products = [
+        { product: 'map', placements: ['seed_row', 'side_band'], max_rate: 200, step: 1 },
+        { product: 'uan', placements: ['side_band'], max_rate: 600, step: 1 },
+      ];
     });
     const rx = buildPrescription(inputs, pl, tables, { cell: 10 });
     const files = prescriptionTaskDataFiles(rx, tables);
@@ -242,17 +308,25 @@ describe('names and liquids', () => {
     for (const z of A(band).TreatmentZone) {
       const code = A(z).TreatmentZoneCode;
       if (code === 0) continue;
-      const v = A(z).ProcessDataVariable.find((x: any) => A(x).ProductIdRef.xmlId === A(uan).ProductId || A(x).ProductIdRef.entity === uan);
+      const v = A(z).ProcessDataVariable.find(
+        (x: any) => A(x).ProductIdRef.xmlId === A(uan).ProductId || A(x).ProductIdRef.entity === uan,
+      );
       expect(A(v).ProcessDataDDI).toBe('0001');
       // DDI 1 mm3/m2 = L/ha x 100 (ISO 11783-11); L/ha = kg/ha / 1.28 kg/L
       const lbac = productRate(set.zones.find((x) => x.id === code)!.decision, 'uan', 'side_band').lbac;
-      expect(Math.abs(A(v).ProcessDataValue - lbacToKgha(lbac) / 1.28 * 100)).toBeLessThanOrEqual(0.5);
+      expect(Math.abs(A(v).ProcessDataValue - (lbacToKgha(lbac) / 1.28) * 100)).toBeLessThanOrEqual(0.5);
     }
     // tilth check reads it back in L/ha (DDI 1: mm3/m2 / 100)
-    const layer = layersFromTaskData(readTaskData(files), 'TASKDATA.XML').find((l) => l.label.includes('side band') && l.label.includes('UAN'))!;
+    const layer = layersFromTaskData(readTaskData(files), 'TASKDATA.XML').find(
+      (l) => l.label.includes('side band') && l.label.includes('UAN'),
+    )!;
     expect(layer.fields.map((f) => f.name)).toEqual(['zone_id', 'rate_lha']);
     for (const f of layer.features) {
-      const lbac = productRate(set.zones.find((x) => x.id === f.properties!.zone_id)!.decision, 'uan', 'side_band').lbac;
+      const lbac = productRate(
+        set.zones.find((x) => x.id === f.properties!.zone_id)!.decision,
+        'uan',
+        'side_band',
+      ).lbac;
       expect(Math.abs(f.properties!.rate_lha - lbacToKgha(lbac) / 1.28)).toBeLessThanOrEqual(0.005 + 1e-9);
     }
   }, 120_000);

@@ -17,7 +17,14 @@ import { ROOT, tilth } from '../helpers/cli.js';
 import { demoInput } from '../helpers/report-fixture.js';
 
 const CHROMIUM = '/usr/bin/chromium';
-const ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];
+const ARGS = [
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--no-first-run',
+];
 const ART = join(ROOT, 'test-artifacts');
 const EVIL = '<script>alert(1)</script>';
 
@@ -34,7 +41,19 @@ describe.skipIf(!have)('report in Chromium', () => {
 
   beforeAll(async () => {
     mkdirSync(ART, { recursive: true });
-    const b = tilth(['build', '--samples', 'sample-fields/quarter/samples.csv', '--boundary', 'sample-fields/quarter/boundary.geojson', '--plan', 'sample-fields/quarter/plan.yaml', '--out', demoOut, '--force', '--quiet']);
+    const b = tilth([
+      'build',
+      '--samples',
+      'sample-fields/quarter/samples.csv',
+      '--boundary',
+      'sample-fields/quarter/boundary.geojson',
+      '--plan',
+      'sample-fields/quarter/plan.yaml',
+      '--out',
+      demoOut,
+      '--force',
+      '--quiet',
+    ]);
     if (b.code !== 0) throw new Error(`tilth build failed: ${b.stderr}`);
     input = parseReportInput(readFileSync(join(demoOut, 'report-data.json'), 'utf8'));
     geojsonZones = JSON.parse(readFileSync(join(demoOut, 'prescription.geojson'), 'utf8')).features.length;
@@ -54,16 +73,25 @@ describe.skipIf(!have)('report in Chromium', () => {
   });
 
   /** Opens a file, recording console errors, dialogs and every request that is not the page or a data: URL. */
-  async function open(path: string): Promise<{ page: Page; errors: string[]; requests: string[]; dialogs: string[] }> {
+  async function open(
+    path: string,
+  ): Promise<{ page: Page; errors: string[]; requests: string[]; dialogs: string[] }> {
     const page = await browser.newPage({ viewport: { width: 1100, height: 1400 } });
     const errors: string[] = [];
     const requests: string[] = [];
     const dialogs: string[] = [];
     const self = pathToFileURL(path).href;
-    page.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()); });
+    page.on('console', (m) => {
+      if (m.type() === 'error') errors.push(m.text());
+    });
     page.on('pageerror', (e) => errors.push(e.message));
-    page.on('dialog', (d) => { dialogs.push(d.message()); void d.dismiss(); });
-    page.on('request', (r) => { if (r.url() !== self && !r.url().startsWith('data:')) requests.push(r.url()); });
+    page.on('dialog', (d) => {
+      dialogs.push(d.message());
+      void d.dismiss();
+    });
+    page.on('request', (r) => {
+      if (r.url() !== self && !r.url().startsWith('data:')) requests.push(r.url());
+    });
     await page.route('**/*', (route) => {
       const u = route.request().url();
       if (u === self || u.startsWith('data:')) return route.continue();
@@ -76,19 +104,21 @@ describe.skipIf(!have)('report in Chromium', () => {
 
   it('opens with no console error and no network request, every map with legend, scale bar and north arrow', async () => {
     const { page, errors, requests } = await open(htmlPath);
-    const maps = await page.$$eval('svg.map', (svgs) => svgs.map((s) => {
-      const box = s.getBoundingClientRect();
-      const lg = s.querySelector('g.legend');
-      const lb = lg?.getBoundingClientRect();
-      return {
-        id: s.getAttribute('data-map'),
-        legendTitle: lg?.querySelector('.lg-title')?.textContent ?? '',
-        swatches: lg?.querySelectorAll('rect, circle').length ?? 0,
-        legendInside: !!lb && lb.width > 0 && lb.right <= box.right + 1 && lb.bottom <= box.bottom + 1,
-        scale: !!s.querySelector('g.scalebar .sb-m') && !!s.querySelector('g.scalebar .sb-ft'),
-        north: !!s.querySelector('g.north'),
-      };
-    }));
+    const maps = await page.$$eval('svg.map', (svgs) =>
+      svgs.map((s) => {
+        const box = s.getBoundingClientRect();
+        const lg = s.querySelector('g.legend');
+        const lb = lg?.getBoundingClientRect();
+        return {
+          id: s.getAttribute('data-map'),
+          legendTitle: lg?.querySelector('.lg-title')?.textContent ?? '',
+          swatches: lg?.querySelectorAll('rect, circle').length ?? 0,
+          legendInside: !!lb && lb.width > 0 && lb.right <= box.right + 1 && lb.bottom <= box.bottom + 1,
+          scale: !!s.querySelector('g.scalebar .sb-m') && !!s.querySelector('g.scalebar .sb-ft'),
+          north: !!s.querySelector('g.north'),
+        };
+      }),
+    );
     expect(maps.length).toBeGreaterThanOrEqual(1 + input.surfaces.length + input.response.length + 2);
     for (const m of maps) {
       expect(m.legendTitle, m.id!).not.toBe('');
@@ -102,21 +132,42 @@ describe.skipIf(!have)('report in Chromium', () => {
     expect(zones).toBe(geojsonZones);
     expect(await page.textContent('#zone-count')).toBe(String(zones));
     expect(await page.locator('tr[data-zone]').count()).toBe(zones);
-    const perRateMap = await page.$$eval('svg.map[data-kind="rate"]', (svgs) => svgs.map((s) => new Set([...s.querySelectorAll('[data-zone-id]')].map((p) => p.getAttribute('data-zone-id'))).size));
+    const perRateMap = await page.$$eval('svg.map[data-kind="rate"]', (svgs) =>
+      svgs.map(
+        (s) =>
+          new Set([...s.querySelectorAll('[data-zone-id]')].map((p) => p.getAttribute('data-zone-id'))).size,
+      ),
+    );
     expect(perRateMap.length).toBeGreaterThan(0);
     for (const n of perRateMap) expect(n).toBe(zones);
     // every raster decodes in Chromium (an independent PNG decoder) at its grid size
-    const sizes = await page.$$eval('image.raster', async (imgs) => Promise.all(imgs.map(async (im) => {
-      const Img = (globalThis as unknown as { Image: new () => { src: string; decode(): Promise<void>; naturalWidth: number; naturalHeight: number } }).Image;
-      const i = new Img();
-      i.src = im.getAttribute('href')!;
-      await i.decode();
-      return [i.naturalWidth, i.naturalHeight];
-    })));
+    const sizes = await page.$$eval('image.raster', async (imgs) =>
+      Promise.all(
+        imgs.map(async (im) => {
+          const Img = (
+            globalThis as unknown as {
+              Image: new () => {
+                src: string;
+                decode(): Promise<void>;
+                naturalWidth: number;
+                naturalHeight: number;
+              };
+            }
+          ).Image;
+          const i = new Img();
+          i.src = im.getAttribute('href')!;
+          await i.decode();
+          return [i.naturalWidth, i.naturalHeight];
+        }),
+      ),
+    );
     expect(sizes.length).toBe(input.surfaces.length + input.response.filter((r) => r.raster).length);
     expect(sizes[0]).toEqual([input.surfaces[0]!.raster.grid.cols, input.surfaces[0]!.raster.grid.rows]);
     await page.screenshot({ path: join(ART, 'report-demo.png'), fullPage: true });
-    await page.locator('figure.map-page').nth(1).screenshot({ path: join(ART, 'report-demo-map2.png') });
+    await page
+      .locator('figure.map-page')
+      .nth(1)
+      .screenshot({ path: join(ART, 'report-demo-map2.png') });
     expect(errors).toEqual([]);
     expect(requests).toEqual([]);
     await page.close();
@@ -145,8 +196,13 @@ describe.skipIf(!have)('report in Chromium', () => {
       // printable area with the stylesheet's 12 mm margins: Letter 215.9 x 279.4 mm, A4 210 x 297 mm (ISO 216)
       const [wmm, hmm] = format === 'A4' ? [210, 297] : [215.9, 279.4];
       const pxPerMm = 96 / 25.4;
-      await page.setViewportSize({ width: Math.floor((wmm - 24) * pxPerMm), height: Math.floor((hmm - 24) * pxPerMm) });
-      const figs = await page.$$eval('figure.map-page', (fs) => fs.map((f) => f.getBoundingClientRect().height));
+      await page.setViewportSize({
+        width: Math.floor((wmm - 24) * pxPerMm),
+        height: Math.floor((hmm - 24) * pxPerMm),
+      });
+      const figs = await page.$$eval('figure.map-page', (fs) =>
+        fs.map((f) => f.getBoundingClientRect().height),
+      );
       for (const h of figs) expect(h).toBeLessThanOrEqual((hmm - 24) * pxPerMm);
       const pdf = await page.pdf({ format, path: join(ART, `report-demo-${format}.pdf`) });
       const pages = (pdf.toString('latin1').match(/\/Type\s*\/Page[^s]/g) ?? []).length;
@@ -161,11 +217,24 @@ describe.skipIf(!have)('report in Chromium', () => {
     if (!requireTool('pdftoppm', 'poppler-utils', ['-v'])) return ctx.skip();
     const pdf = join(ART, 'report-demo-cli.pdf');
     rmSync(pdf, { force: true });
-    const r = spawnSync(CHROMIUM, ['--headless', ...ARGS, '--no-pdf-header-footer', `--print-to-pdf=${pdf}`, pathToFileURL(htmlPath).href], { encoding: 'utf8', timeout: 90_000 });
+    const r = spawnSync(
+      CHROMIUM,
+      [
+        '--headless',
+        ...ARGS,
+        '--no-pdf-header-footer',
+        `--print-to-pdf=${pdf}`,
+        pathToFileURL(htmlPath).href,
+      ],
+      { encoding: 'utf8', timeout: 90_000 },
+    );
     expect(existsSync(pdf), r.stderr).toBe(true);
     expect(statSync(pdf).size).toBeGreaterThan(10_000);
     for (const f of readdirSync(ART)) if (f.startsWith('print-')) rmSync(join(ART, f));
-    const p = spawnSync('pdftoppm', ['-r', '50', '-png', pdf, join(ART, 'print')], { encoding: 'utf8', timeout: 90_000 });
+    const p = spawnSync('pdftoppm', ['-r', '50', '-png', pdf, join(ART, 'print')], {
+      encoding: 'utf8',
+      timeout: 90_000,
+    });
     expect(p.status, p.stderr).toBe(0);
     const pngs = readdirSync(ART).filter((f) => f.startsWith('print-') && f.endsWith('.png'));
     expect(pngs.length).toBeGreaterThanOrEqual(input.surfaces.length + 3);

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { classColours, QUALITATIVE, rampRgb, rateColours, textOn, type RampName } from '../../src/report/colour.js';
+import {
+  classColours,
+  QUALITATIVE,
+  rampRgb,
+  rateColours,
+  textOn,
+  type RampName,
+} from '../../src/report/colour.js';
 
 /** CIE 1976 L* of an sRGB colour (sRGB transfer function IEC 61966-2-1; L* from CIE 15:2004). */
 function lightness(hex: string): number {
@@ -28,10 +35,12 @@ describe('colour ramps', () => {
   });
 
   it('neighbouring classes differ in lightness by at least 5 L* for up to 7 classes', () => {
-    for (const r of ramps) for (let n = 2; n <= 7; n++) {
-      const L = classColours(r, n).map(lightness);
-      for (let i = 1; i < n; i++) expect(L[i]! - L[i - 1]!, `${r} n=${n} class ${i}`).toBeGreaterThanOrEqual(5);
-    }
+    for (const r of ramps)
+      for (let n = 2; n <= 7; n++) {
+        const L = classColours(r, n).map(lightness);
+        for (let i = 1; i < n; i++)
+          expect(L[i]! - L[i - 1]!, `${r} n=${n} class ${i}`).toBeGreaterThanOrEqual(5);
+      }
   });
 
   it("viridis ends at matplotlib's published end colours #440154 and #fde725 (from memory)", () => {
@@ -43,13 +52,17 @@ describe('colour ramps', () => {
       const lum = (h: string): number => {
         const full = h.length === 4 ? '#' + [...h.slice(1)].map((c) => c + c).join('') : h;
         const n = parseInt(full.slice(1), 16);
-        const [r, g, bl] = [(n >> 16) & 255, (n >> 8) & 255, n & 255].map((v) => { const c = v / 255; return c <= 0.03928 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4; });
+        const [r, g, bl] = [(n >> 16) & 255, (n >> 8) & 255, n & 255].map((v) => {
+          const c = v / 255;
+          return c <= 0.03928 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4;
+        });
         return 0.2126 * r! + 0.7152 * g! + 0.0722 * bl!;
       };
       const [x, y] = [lum(a), lum(b)].sort((p, q) => q - p);
       return (x! + 0.05) / (y! + 0.05);
     };
-    for (const r of ramps) for (const c of classColours(r, 7)) expect(contrast(c, textOn(c))).toBeGreaterThanOrEqual(4.5);
+    for (const r of ramps)
+      for (const c of classColours(r, 7)) expect(contrast(c, textOn(c))).toBeGreaterThanOrEqual(4.5);
     for (const c of QUALITATIVE) expect(contrast(c, textOn(c))).toBeGreaterThanOrEqual(4.5);
   });
 
@@ -59,7 +72,9 @@ describe('colour ramps', () => {
     // the demo's old urea rates 206, 212, 215 with a minimum difference of 21: all within a quarter of the ramp,
     // measured as CIE L* (cividis' lightness spans about 80 L* units end to end)
     const [a, b, c] = rateColours('cividis', [206, 212, 215], 21).map(lightness);
-    const span = Math.abs(lightness(classColours('cividis', 2)[1]!) - lightness(classColours('cividis', 2)[0]!));
+    const span = Math.abs(
+      lightness(classColours('cividis', 2)[1]!) - lightness(classColours('cividis', 2)[0]!),
+    );
     expect(Math.max(a!, b!, c!) - Math.min(a!, b!, c!)).toBeLessThan(span / 4);
     // one rate: the ramp's middle, like a single class
     expect(rateColours('cividis', [87], 5)).toEqual(classColours('cividis', 1));

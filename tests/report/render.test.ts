@@ -36,12 +36,14 @@ describe('escaping', () => {
   });
 
   it('esc leaves none of < > " \' and a bare & in any string (HTML 5 text and attribute rules)', () => {
-    fc.assert(fc.property(fc.string({ unit: 'binary' }), (s) => {
-      const e = esc(s);
-      expect(e).not.toMatch(/[<>"']/);
-      // every & starts one of the five references esc writes
-      expect(e.replace(/&(amp|lt|gt|quot|#39);/g, '')).not.toContain('&');
-    }));
+    fc.assert(
+      fc.property(fc.string({ unit: 'binary' }), (s) => {
+        const e = esc(s);
+        expect(e).not.toMatch(/[<>"']/);
+        // every & starts one of the five references esc writes
+        expect(e.replace(/&(amp|lt|gt|quot|#39);/g, '')).not.toContain('&');
+      }),
+    );
   });
 
   it('fmt groups thousands and prints a dash for no value', () => {
@@ -53,64 +55,80 @@ describe('escaping', () => {
 
 describe('indexed PNG', () => {
   it('decodes with Node zlib to the same indices, with valid chunk CRCs (PNG spec, ISO/IEC 15948)', () => {
-    fc.assert(fc.property(fc.integer({ min: 1, max: 40 }), fc.integer({ min: 1, max: 30 }), fc.integer({ min: 1, max: 9 }), fc.integer(), (w, h, k, seed) => {
-      let s = seed >>> 0;
-      const idx = new Uint8Array(w * h).map(() => {
-        s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-        const v = s % (k + 1);
-        return v === k ? 255 : v;
-      });
-      const pal = Array.from({ length: k }, (_, i) => '#' + (i * 0x1f2f3f).toString(16).padStart(6, '0').slice(-6));
-      const png = encodeIndexedPng(idx, w, h, pal);
-      expect([...png.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
-      const dv = new DataView(png.buffer, png.byteOffset);
-      let o = 8;
-      const chunks: Record<string, Uint8Array> = {};
-      while (o < png.length) {
-        const len = dv.getUint32(o);
-        const type = String.fromCharCode(...png.subarray(o + 4, o + 8));
-        // Node's own CRC-32 (zlib) as the outside reference
-        expect(dv.getUint32(o + 8 + len)).toBe(nodeCrc32(png.subarray(o + 4, o + 8 + len)));
-        chunks[type] = png.subarray(o + 8, o + 8 + len);
-        o += 12 + len;
-      }
-      expect(Object.keys(chunks)).toEqual(['IHDR', 'PLTE', 'tRNS', 'IDAT', 'IEND']);
-      const ih = new DataView(chunks.IHDR!.buffer, chunks.IHDR!.byteOffset);
-      expect([ih.getUint32(0), ih.getUint32(4), chunks.IHDR![8], chunks.IHDR![9]]).toEqual([w, h, 8, 3]);
-      const raw = inflateSync(chunks.IDAT!);
-      expect(raw.length).toBe(h * (w + 1));
-      const trns = chunks.tRNS!;
-      for (let r = 0; r < h; r++) {
-        expect(raw[r * (w + 1)]).toBe(0);
-        for (let c = 0; c < w; c++) {
-          const v = raw[r * (w + 1) + 1 + c]!;
-          const want = idx[r * w + c]!;
-          if (want === 255) expect(trns[v]).toBe(0);
-          else expect(v).toBe(want);
-        }
-      }
-    }), { numRuns: 40 });
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 40 }),
+        fc.integer({ min: 1, max: 30 }),
+        fc.integer({ min: 1, max: 9 }),
+        fc.integer(),
+        (w, h, k, seed) => {
+          let s = seed >>> 0;
+          const idx = new Uint8Array(w * h).map(() => {
+            s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+            const v = s % (k + 1);
+            return v === k ? 255 : v;
+          });
+          const pal = Array.from(
+            { length: k },
+            (_, i) => '#' + (i * 0x1f2f3f).toString(16).padStart(6, '0').slice(-6),
+          );
+          const png = encodeIndexedPng(idx, w, h, pal);
+          expect([...png.subarray(0, 8)]).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
+          const dv = new DataView(png.buffer, png.byteOffset);
+          let o = 8;
+          const chunks: Record<string, Uint8Array> = {};
+          while (o < png.length) {
+            const len = dv.getUint32(o);
+            const type = String.fromCharCode(...png.subarray(o + 4, o + 8));
+            // Node's own CRC-32 (zlib) as the outside reference
+            expect(dv.getUint32(o + 8 + len)).toBe(nodeCrc32(png.subarray(o + 4, o + 8 + len)));
+            chunks[type] = png.subarray(o + 8, o + 8 + len);
+            o += 12 + len;
+          }
+          expect(Object.keys(chunks)).toEqual(['IHDR', 'PLTE', 'tRNS', 'IDAT', 'IEND']);
+          const ih = new DataView(chunks.IHDR!.buffer, chunks.IHDR!.byteOffset);
+          expect([ih.getUint32(0), ih.getUint32(4), chunks.IHDR![8], chunks.IHDR![9]]).toEqual([w, h, 8, 3]);
+          const raw = inflateSync(chunks.IDAT!);
+          expect(raw.length).toBe(h * (w + 1));
+          const trns = chunks.tRNS!;
+          for (let r = 0; r < h; r++) {
+            expect(raw[r * (w + 1)]).toBe(0);
+            for (let c = 0; c < w; c++) {
+              const v = raw[r * (w + 1) + 1 + c]!;
+              const want = idx[r * w + c]!;
+              if (want === 255) expect(trns[v]).toBe(0);
+              else expect(v).toBe(want);
+            }
+          }
+        },
+      ),
+      { numRuns: 40 },
+    );
   });
 
   it('crc32 matches Node zlib.crc32 and the check value of "123456789" (0xCBF43926, ITU-T V.42)', () => {
     expect(crc32(new TextEncoder().encode('123456789'))).toBe(0xcbf43926);
-    fc.assert(fc.property(fc.uint8Array({ maxLength: 300 }), (b) => {
-      expect(crc32(b)).toBe(nodeCrc32(b));
-    }));
+    fc.assert(
+      fc.property(fc.uint8Array({ maxLength: 300 }), (b) => {
+        expect(crc32(b)).toBe(nodeCrc32(b));
+      }),
+    );
   });
 });
 
 describe('scale bar', () => {
   it('niceLength is the largest 1-2-5 x 10^n not over the limit (common practice for scale bars)', () => {
-    fc.assert(fc.property(fc.double({ min: 0.01, max: 1e7, noNaN: true }), (max) => {
-      const n = niceLength(max);
-      expect(n).toBeLessThanOrEqual(max);
-      const m = n / 10 ** Math.floor(Math.log10(n) + 1e-12);
-      expect([1, 2, 5].some((x) => Math.abs(m - x) < 1e-9)).toBe(true);
-      // the next nice length up would be over the limit
-      const next = m === 1 ? 2 * n : m === 2 ? 2.5 * n : 2 * n;
-      expect(next).toBeGreaterThan(max);
-    }));
+    fc.assert(
+      fc.property(fc.double({ min: 0.01, max: 1e7, noNaN: true }), (max) => {
+        const n = niceLength(max);
+        expect(n).toBeLessThanOrEqual(max);
+        const m = n / 10 ** Math.floor(Math.log10(n) + 1e-12);
+        expect([1, 2, 5].some((x) => Math.abs(m - x) < 1e-9)).toBe(true);
+        // the next nice length up would be over the limit
+        const next = m === 1 ? 2 * n : m === 2 ? 2.5 * n : 2 * n;
+        expect(next).toBeGreaterThan(max);
+      }),
+    );
   });
 
   it('bars in the SVG are as long as their labels say, in metres and in feet (1 ft = 0.3048 m exactly, 1959 agreement)', () => {
@@ -119,7 +137,9 @@ describe('scale bar', () => {
     const svg = html.match(/<svg class="map"[^]*?<\/svg>/)![0];
     const k = Number(svg.match(/data-px-per-m="([\d.e+-]+)"/)![1]);
     const sb = svg.match(/<g class="scalebar" data-m="(\d+)" data-ft="(\d+)">([^]*?)<\/g><\/g>/)!;
-    const widths = [...sb[0].matchAll(/<g class="sb-(m|ft)">[^]*?width="([\d.]+)"[^]*?width="([\d.]+)"/g)].map((x) => [x[1], Number(x[2]) + Number(x[3])] as const);
+    const widths = [
+      ...sb[0].matchAll(/<g class="sb-(m|ft)">[^]*?width="([\d.]+)"[^]*?width="([\d.]+)"/g),
+    ].map((x) => [x[1], Number(x[2]) + Number(x[3])] as const);
     expect(widths[0]![0]).toBe('m');
     expect(widths[0]![1]).toBeCloseTo(Number(sb[1]) * k, 0);
     expect(widths[1]![1]).toBeCloseTo(Number(sb[2]) * M_PER_FT * k, 0);
@@ -130,48 +150,98 @@ describe('scale bar', () => {
 
 describe('maps', () => {
   it('classify puts each value in the class its breaks name (breaks[c-1] <= v < breaks[c])', () => {
-    fc.assert(fc.property(fc.array(fc.double({ min: -100, max: 100, noNaN: true }), { maxLength: 6 }), fc.array(fc.double({ min: -150, max: 150 })), (b, vals) => {
-      const breaks = [...new Set(b)].sort((x, y) => x - y);
-      const cls = classify(vals, breaks);
-      vals.forEach((v, i) => {
-        if (!Number.isFinite(v)) return expect(cls[i]).toBe(255);
-        const c = cls[i]!;
-        if (c > 0) expect(v).toBeGreaterThanOrEqual(breaks[c - 1]!);
-        if (c < breaks.length) expect(v).toBeLessThan(breaks[c]!);
-      });
-      expect(breakLabels(breaks).length).toBe(breaks.length + 1);
-    }));
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: -100, max: 100, noNaN: true }), { maxLength: 6 }),
+        fc.array(fc.double({ min: -150, max: 150 })),
+        (b, vals) => {
+          const breaks = [...new Set(b)].sort((x, y) => x - y);
+          const cls = classify(vals, breaks);
+          vals.forEach((v, i) => {
+            if (!Number.isFinite(v)) return expect(cls[i]).toBe(255);
+            const c = cls[i]!;
+            if (c > 0) expect(v).toBeGreaterThanOrEqual(breaks[c - 1]!);
+            if (c < breaks.length) expect(v).toBeLessThan(breaks[c]!);
+          });
+          expect(breakLabels(breaks).length).toBe(breaks.length + 1);
+        },
+      ),
+    );
   });
 
   it('dilateClasses only fills empty cells, each with the class of a neighbour (brute-force oracle)', () => {
-    fc.assert(fc.property(fc.integer({ min: 1, max: 12 }), fc.integer({ min: 1, max: 12 }), fc.array(fc.constantFrom(0, 1, 2, 255), { minLength: 144, maxLength: 144 }), (cols, rows, cells) => {
-      const idx = Uint8Array.from(cells.slice(0, cols * rows));
-      const out = dilateClasses(idx.slice(), cols, rows, 1);
-      for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
-        const i = r * cols + c;
-        if (idx[i] !== 255) { expect(out[i]).toBe(idx[i]); continue; }
-        const nb: number[] = [];
-        for (let dr = -1; dr <= 1; dr++) for (let dc = -1; dc <= 1; dc++) {
-          const rr = r + dr, cc = c + dc;
-          if (rr >= 0 && cc >= 0 && rr < rows && cc < cols && idx[rr * cols + cc] !== 255) nb.push(idx[rr * cols + cc]!);
-        }
-        if (nb.length === 0) expect(out[i]).toBe(255);
-        else expect(nb).toContain(out[i]);
-      }
-    }));
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 12 }),
+        fc.integer({ min: 1, max: 12 }),
+        fc.array(fc.constantFrom(0, 1, 2, 255), { minLength: 144, maxLength: 144 }),
+        (cols, rows, cells) => {
+          const idx = Uint8Array.from(cells.slice(0, cols * rows));
+          const out = dilateClasses(idx.slice(), cols, rows, 1);
+          for (let r = 0; r < rows; r++)
+            for (let c = 0; c < cols; c++) {
+              const i = r * cols + c;
+              if (idx[i] !== 255) {
+                expect(out[i]).toBe(idx[i]);
+                continue;
+              }
+              const nb: number[] = [];
+              for (let dr = -1; dr <= 1; dr++)
+                for (let dc = -1; dc <= 1; dc++) {
+                  const rr = r + dr,
+                    cc = c + dc;
+                  if (rr >= 0 && cc >= 0 && rr < rows && cc < cols && idx[rr * cols + cc] !== 255)
+                    nb.push(idx[rr * cols + cc]!);
+                }
+              if (nb.length === 0) expect(out[i]).toBe(255);
+              else expect(nb).toContain(out[i]);
+            }
+        },
+      ),
+    );
   });
 
   it('labelPoint lies inside the zone, outside its holes (turf booleanPointInPolygon as reference)', () => {
     // random star-shaped rings around a centre, with a square hole near the centre
-    fc.assert(fc.property(fc.array(fc.double({ min: 20, max: 100, noNaN: true }), { minLength: 5, maxLength: 30 }), fc.boolean(), (radii, hole) => {
-      const n = radii.length;
-      const ext: number[] = [];
-      radii.forEach((r, i) => ext.push(500000 + r * Math.cos((2 * Math.PI * i) / n), 5700000 + r * Math.sin((2 * Math.PI * i) / n)));
-      const holes = hole ? [[500000 - 8, 5700000 - 8, 500000 - 8, 5700000 + 8, 500000 + 8, 5700000 + 8, 500000 + 8, 5700000 - 8]] : [];
-      const [x, y] = labelPoint({ exterior: ext, holes });
-      const ring = (a: number[]): number[][] => { const r = []; for (let i = 0; i < a.length; i += 2) r.push([a[i]!, a[i + 1]!]); r.push(r[0]!); return r; };
-      expect(booleanPointInPolygon(point([x, y]), polygon([ring(ext), ...holes.map(ring)]))).toBe(true);
-    }), { numRuns: 60 });
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: 20, max: 100, noNaN: true }), { minLength: 5, maxLength: 30 }),
+        fc.boolean(),
+        (radii, hole) => {
+          const n = radii.length;
+          const ext: number[] = [];
+          radii.forEach((r, i) =>
+            ext.push(
+              500000 + r * Math.cos((2 * Math.PI * i) / n),
+              5700000 + r * Math.sin((2 * Math.PI * i) / n),
+            ),
+          );
+          const holes = hole
+            ? [
+                [
+                  500000 - 8,
+                  5700000 - 8,
+                  500000 - 8,
+                  5700000 + 8,
+                  500000 + 8,
+                  5700000 + 8,
+                  500000 + 8,
+                  5700000 - 8,
+                ],
+              ]
+            : [];
+          const [x, y] = labelPoint({ exterior: ext, holes });
+          const ring = (a: number[]): number[][] => {
+            const r = [];
+            for (let i = 0; i < a.length; i += 2) r.push([a[i]!, a[i + 1]!]);
+            r.push(r[0]!);
+            return r;
+          };
+          expect(booleanPointInPolygon(point([x, y]), polygon([ring(ext), ...holes.map(ring)]))).toBe(true);
+        },
+      ),
+      { numRuns: 60 },
+    );
   });
 
   it('draws every map with a legend, a scale bar and a north arrow, and every zone of every set', () => {
@@ -179,7 +249,9 @@ describe('maps', () => {
     const html = renderReport(inp);
     const svgs = [...html.matchAll(/<svg class="map"[^]*?<\/svg>/g)].map((m) => m[0]);
     // samples + one per surface + one per response map + per zone set: one per product placement and the binding map
-    const placements = new Set(inp.zoneSets[0]!.zones.flatMap((z) => z.rates.map((r) => `${r.product}|${r.placement}`)));
+    const placements = new Set(
+      inp.zoneSets[0]!.zones.flatMap((z) => z.rates.map((r) => `${r.product}|${r.placement}`)),
+    );
     expect(svgs.length).toBe(1 + inp.surfaces.length + inp.response.length + placements.size + 1);
     for (const s of svgs) {
       expect(s).toContain('<g class="legend">');
@@ -187,7 +259,9 @@ describe('maps', () => {
       expect(s).toContain('<g class="north"');
     }
     const rateMap = svgs.find((s) => s.includes('data-kind="rate"'))!;
-    expect(new Set([...rateMap.matchAll(/data-zone-id="([^"]*)"/g)].map((m) => m[1])).size).toBe(inp.zoneSets[0]!.zones.length);
+    expect(new Set([...rateMap.matchAll(/data-zone-id="([^"]*)"/g)].map((m) => m[1])).size).toBe(
+      inp.zoneSets[0]!.zones.length,
+    );
     expect((html.match(/<tr data-zone=/g) ?? []).length).toBe(inp.zoneSets[0]!.zones.length);
   });
 
@@ -195,9 +269,15 @@ describe('maps', () => {
     const inp = demoInput();
     const html = renderReport(inp);
     const svg = html.match(/<svg class="map"[^]*?<\/svg>/)![0];
-    const [x0, y0] = svg.match(/data-utm-origin="([\d.]+) ([\d.]+)"/)!.slice(1).map(Number) as [number, number];
+    const [x0, y0] = svg
+      .match(/data-utm-origin="([\d.]+) ([\d.]+)"/)!
+      .slice(1)
+      .map(Number) as [number, number];
     const d = svg.match(/<g class="geo"[^>]*class="boundary"><path d="([^"]+)"/)![1]!;
-    const first = d.match(/^M([\d.-]+) ([\d.-]+)/)!.slice(1).map(Number) as [number, number];
+    const first = d
+      .match(/^M([\d.-]+) ([\d.-]+)/)!
+      .slice(1)
+      .map(Number) as [number, number];
     const ext = inp.field.parts[0]!.exterior;
     expect(x0 + first[0]).toBeCloseTo(ext[0]!, 1);
     expect(y0 - first[1]).toBeCloseTo(ext[1]!, 1);
@@ -225,7 +305,8 @@ describe('report-data.json', () => {
     const back = parseReportInput(serializeReportInput(inp));
     expect(Array.from(back.samples.xy)).toEqual(Array.from(inp.samples.xy));
     expect(Array.from(back.field.parts[0]!.exterior)).toEqual(Array.from(inp.field.parts[0]!.exterior));
-    const a = inp.surfaces[0]!.raster.values, b = back.surfaces[0]!.raster.values;
+    const a = inp.surfaces[0]!.raster.values,
+      b = back.surfaces[0]!.raster.values;
     for (let i = 0; i < a.length; i++) {
       if (Number.isNaN(a[i]!)) expect(b[i]).toBeNaN();
       else expect(b[i]).toBe(Math.fround(a[i]!));
@@ -241,9 +322,13 @@ describe('report-data.json', () => {
       expect.unreachable();
     } catch (e) {
       expect(isUserError(e)).toBe(true);
-      expect((e as Error).message).toMatch(/out\/report-data\.json, at zoneSets\[0\]\.zones\[2\]\.areaM2: .*Fix: re-run `tilth build`/);
+      expect((e as Error).message).toMatch(
+        /out\/report-data\.json, at zoneSets\[0\]\.zones\[2\]\.areaM2: .*Fix: re-run `tilth build`/,
+      );
     }
-    expect(() => parseReportInput('{"schema":"tilth-report/99"}', 'x.json')).toThrow(/schema "tilth-report\/99"/);
+    expect(() => parseReportInput('{"schema":"tilth-report/99"}', 'x.json')).toThrow(
+      /schema "tilth-report\/99"/,
+    );
     expect(() => parseReportInput('{', 'x.json')).toThrow(/x\.json is not valid JSON/);
   });
 });
@@ -252,16 +337,25 @@ describe('north arrow', () => {
   it('points to true north: meridian convergence matches atan(tan(dlon) sin(lat)) within 0.02° (Snyder 1987, USGS PP 1395, transverse Mercator)', async () => {
     const { trueNorthOnGrid } = await import('../../src/report/north.js');
     const { projector, utmZoneFor } = await import('../../src/geo/utm.js');
-    fc.assert(fc.property(fc.double({ min: -2.9, max: 2.9, noNaN: true }), fc.double({ min: 30, max: 60, noNaN: true }), fc.boolean(), (dlon, alat, south) => {
-      const lat = south ? -alat : alat;
-      const lon = -105 + dlon; // zone 13, central meridian 105° W
-      const z = utmZoneFor(lon, lat);
-      const [x, y] = projector(z).toMetres(lon, lat);
-      const got = trueNorthOnGrid(z, x, y);
-      // grid convergence gamma = atan(tan(dlon) sin(lat)); on a north-up map true north sits -gamma clockwise of grid north
-      const gamma = (Math.atan(Math.tan((dlon * Math.PI) / 180) * Math.sin((lat * Math.PI) / 180)) * 180) / Math.PI;
-      expect(Math.abs(got + gamma)).toBeLessThan(0.02);
-    }), { numRuns: 50 });
+    fc.assert(
+      fc.property(
+        fc.double({ min: -2.9, max: 2.9, noNaN: true }),
+        fc.double({ min: 30, max: 60, noNaN: true }),
+        fc.boolean(),
+        (dlon, alat, south) => {
+          const lat = south ? -alat : alat;
+          const lon = -105 + dlon; // zone 13, central meridian 105° W
+          const z = utmZoneFor(lon, lat);
+          const [x, y] = projector(z).toMetres(lon, lat);
+          const got = trueNorthOnGrid(z, x, y);
+          // grid convergence gamma = atan(tan(dlon) sin(lat)); on a north-up map true north sits -gamma clockwise of grid north
+          const gamma =
+            (Math.atan(Math.tan((dlon * Math.PI) / 180) * Math.sin((lat * Math.PI) / 180)) * 180) / Math.PI;
+          expect(Math.abs(got + gamma)).toBeLessThan(0.02);
+        },
+      ),
+      { numRuns: 50 },
+    );
   });
 });
 
@@ -291,21 +385,34 @@ describe('other shapes of input', () => {
     const inp = demoInput();
     // a 16 x 16 grid at 40 m (0.4 ac per sample): at ~0.82 px/m the dots are ~33 px apart and a 6-character id
     // is ~38 px wide, so labels all placed north-east would overlap their neighbours
-    const ids: string[] = [], xy: number[] = [], p: number[] = [];
+    const ids: string[] = [],
+      xy: number[] = [],
+      p: number[] = [];
     const [ex, ey] = [inp.field.parts[0]!.exterior[0]!, inp.field.parts[0]!.exterior[1]!];
-    for (let r = 0; r < 16; r++) for (let c = 0; c < 16; c++) { ids.push(`PV-${String(ids.length + 1).padStart(3, '0')}`); xy.push(ex + 20 + c * 40, ey + 20 + r * 40); p.push(10 + ((r * 13 + c) % 17)); }
+    for (let r = 0; r < 16; r++)
+      for (let c = 0; c < 16; c++) {
+        ids.push(`PV-${String(ids.length + 1).padStart(3, '0')}`);
+        xy.push(ex + 20 + c * 40, ey + 20 + r * 40);
+        p.push(10 + ((r * 13 + c) % 17));
+      }
     inp.samples = { ids, xy, values: { p } };
     const svg = renderReport(inp).match(/<svg class="map"[^]*?<\/svg>/)![0];
-    const boxes = [...svg.matchAll(/<text x="([\d.]+)" y="([\d.]+)"( text-anchor="end")?>([^<]*)<\/text>/g)].map((m) => {
-      const x = Number(m[1]), y = Number(m[2]), w = m[4]!.length * 6.3;
+    const boxes = [
+      ...svg.matchAll(/<text x="([\d.]+)" y="([\d.]+)"( text-anchor="end")?>([^<]*)<\/text>/g),
+    ].map((m) => {
+      const x = Number(m[1]),
+        y = Number(m[2]),
+        w = m[4]!.length * 6.3;
       return m[3] ? [x - w, y - 11, x, y] : [x, y - 11, x + w, y];
     });
     expect(boxes.length).toBe(256);
     let overlaps = 0;
-    for (let i = 0; i < boxes.length; i++) for (let j = 0; j < i; j++) {
-      const a = boxes[i]!, b = boxes[j]!;
-      if (a[0]! < b[2]! && b[0]! < a[2]! && a[1]! < b[3]! && b[1]! < a[3]!) overlaps++;
-    }
+    for (let i = 0; i < boxes.length; i++)
+      for (let j = 0; j < i; j++) {
+        const a = boxes[i]!,
+          b = boxes[j]!;
+        if (a[0]! < b[2]! && b[0]! < a[2]! && a[1]! < b[3]! && b[1]! < a[3]!) overlaps++;
+      }
     expect(overlaps).toBe(0);
   });
 });

@@ -41,7 +41,10 @@ describe('terminalSafe (ECMA-48 control functions removed)', () => {
 describe('DBF text cells (dBASE: 0x1A ends the file; NUL and line breaks split text in readers)', () => {
   it('control characters in a text cell are written as spaces', async () => {
     const { encodeDbf } = await import('../../src/io/shapefile/dbf.js');
-    const dbf = encodeDbf([{ name: 'zone', type: 'C', width: 20, decimals: 0 }], [['A\u001aB\u0000C\nD\u001b[2J']]);
+    const dbf = encodeDbf(
+      [{ name: 'zone', type: 'C', width: 20, decimals: 0 }],
+      [['A\u001aB\u0000C\nD\u001b[2J']],
+    );
     const headerLen = new DataView(dbf.buffer, dbf.byteOffset).getUint16(8, true);
     const cell = dbf.subarray(headerLen + 1, headerLen + 21);
     expect([...cell].some((b) => b < 0x20 || b === 0x7f)).toBe(false);

@@ -12,7 +12,24 @@ import { ROOT } from '../helpers/cli.js';
 describe('seeded fuzz (small run)', () => {
   it('120 seeded runs over every reader and command stage: no crash, hang or wrongly accepted input', () => {
     const json = join(mkdtempSync(join(tmpdir(), 'tilth-fuzz-test-')), 'fuzz.json');
-    const r = spawnSync(process.execPath, ['--import', 'tsx', join(ROOT, 'scripts', 'fuzz', 'run.ts'), '--runs', '120', '--seed', '7000', '--quiet', '--hang-ms', '60000', '--json', json], { cwd: ROOT, encoding: 'utf8', timeout: 900_000 });
+    const r = spawnSync(
+      process.execPath,
+      [
+        '--import',
+        'tsx',
+        join(ROOT, 'scripts', 'fuzz', 'run.ts'),
+        '--runs',
+        '120',
+        '--seed',
+        '7000',
+        '--quiet',
+        '--hang-ms',
+        '60000',
+        '--json',
+        json,
+      ],
+      { cwd: ROOT, encoding: 'utf8', timeout: 900_000 },
+    );
     const summary = JSON.parse(readFileSync(json, 'utf8'));
     expect(summary.bad, r.stderr).toEqual([]);
     expect(r.status).toBe(0);

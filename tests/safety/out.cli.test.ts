@@ -2,7 +2,16 @@
  * The commands never destroy a user's files through --out (common practice: refuse and say why). Every case runs
  * the CLI in a temporary copy of the invented demo quarter; refusals happen before any work.
  */
-import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, realpathSync, writeFileSync } from 'node:fs';
+import {
+  copyFileSync,
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  readdirSync,
+  readFileSync,
+  realpathSync,
+  writeFileSync,
+} from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -15,7 +24,19 @@ function field(): string {
   for (const f of ['samples.csv', 'boundary.geojson', 'plan.yaml']) copyFileSync(join(Q, f), join(d, f));
   return d;
 }
-const build = (out: string) => ['build', '--samples', 'samples.csv', '--boundary', 'boundary.geojson', '--plan', 'plan.yaml', '--out', out, '--force', '--quiet'];
+const build = (out: string) => [
+  'build',
+  '--samples',
+  'samples.csv',
+  '--boundary',
+  'boundary.geojson',
+  '--plan',
+  'plan.yaml',
+  '--out',
+  out,
+  '--force',
+  '--quiet',
+];
 
 describe('build --out --force refuses the places a user would lose files', () => {
   it('the current folder (it holds the inputs): exit 2, every file intact', () => {
@@ -28,13 +49,19 @@ describe('build --out --force refuses the places a user would lose files', () =>
   it('a folder above the current folder', () => {
     const d = field();
     mkdirSync(join(d, 'sub'));
-    const r = tilth(build('..').map((a) => (a.endsWith('.csv') || a.endsWith('.geojson') || a.endsWith('.yaml') ? `../${a}` : a)), { cwd: join(d, 'sub') });
+    const r = tilth(
+      build('..').map((a) =>
+        a.endsWith('.csv') || a.endsWith('.geojson') || a.endsWith('.yaml') ? `../${a}` : a,
+      ),
+      { cwd: join(d, 'sub') },
+    );
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/above the current folder/);
     expect(existsSync(join(d, 'samples.csv'))).toBe(true);
   });
   it('the home folder, and /', () => {
-    const d = field(), home = realpathSync(mkdtempSync(join(tmpdir(), 'tilth-home-')));
+    const d = field(),
+      home = realpathSync(mkdtempSync(join(tmpdir(), 'tilth-home-')));
     writeFileSync(join(home, 'letter.txt'), 'mine');
     const r = tilth(build(home), { cwd: d, env: { HOME: home } });
     expect(r.code).toBe(2);
@@ -47,7 +74,21 @@ describe('build --out --force refuses the places a user would lose files', () =>
   it('the folder holding the inputs', () => {
     const d = field();
     // run from elsewhere so only the input rule applies
-    const r2 = tilth(['build', '--samples', join(d, 'samples.csv'), '--boundary', join(d, 'boundary.geojson'), '--plan', join(d, 'plan.yaml'), '--out', d, '--force'], { cwd: tmpdir() });
+    const r2 = tilth(
+      [
+        'build',
+        '--samples',
+        join(d, 'samples.csv'),
+        '--boundary',
+        join(d, 'boundary.geojson'),
+        '--plan',
+        join(d, 'plan.yaml'),
+        '--out',
+        d,
+        '--force',
+      ],
+      { cwd: tmpdir() },
+    );
     expect(r2.code).toBe(2);
     expect(r2.stderr).toMatch(/holds the input file/);
     expect(readdirSync(d)).toHaveLength(3);
@@ -91,11 +132,25 @@ describe('variability --out replaces only its own folder', () => {
 });
 
 describe('single-file outputs never overwrite an input or a user file', () => {
-  it('surface: the .prj of an input shapefile is refused (it would lose the shapefile\'s projection)', () => {
+  it("surface: the .prj of an input shapefile is refused (it would lose the shapefile's projection)", () => {
     const d = field();
-    for (const e of ['shp', 'shx', 'dbf', 'prj']) copyFileSync(join(ROOT, 'tests', 'fixtures', 'shp', `boundary.${e}`), join(d, `field.${e}`));
+    for (const e of ['shp', 'shx', 'dbf', 'prj'])
+      copyFileSync(join(ROOT, 'tests', 'fixtures', 'shp', `boundary.${e}`), join(d, `field.${e}`));
     const prj = readFileSync(join(d, 'field.prj'), 'utf8');
-    const r = tilth(['surface', '--samples', 'samples.csv', '--boundary', 'field.shp', '--nutrient', 'p', '--out', 'field.asc'], { cwd: d });
+    const r = tilth(
+      [
+        'surface',
+        '--samples',
+        'samples.csv',
+        '--boundary',
+        'field.shp',
+        '--nutrient',
+        'p',
+        '--out',
+        'field.asc',
+      ],
+      { cwd: d },
+    );
     expect(r.code, r.stderr).toBe(2);
     expect(r.stderr).toMatch(/input file "field\.shp"/);
     expect(readFileSync(join(d, 'field.prj'), 'utf8')).toBe(prj);
@@ -103,7 +158,19 @@ describe('single-file outputs never overwrite an input or a user file', () => {
   it('surface: an existing .asc that is not a grid is refused without --force; its own grid is replaced', () => {
     const d = field();
     writeFileSync(join(d, 'p.asc'), 'my notes');
-    const a = ['surface', '--samples', 'samples.csv', '--boundary', 'boundary.geojson', '--nutrient', 'p', '--cell', '20', '--out', 'p.asc'];
+    const a = [
+      'surface',
+      '--samples',
+      'samples.csv',
+      '--boundary',
+      'boundary.geojson',
+      '--nutrient',
+      'p',
+      '--cell',
+      '20',
+      '--out',
+      'p.asc',
+    ];
     const r = tilth(a, { cwd: d });
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/tilth did not write it.*--force/);
@@ -114,7 +181,10 @@ describe('single-file outputs never overwrite an input or a user file', () => {
   it('report --out onto the report data is refused', () => {
     const d = field();
     mkdirSync(join(d, 'rx'));
-    copyFileSync(join(ROOT, 'tests', 'fixtures', 'report', 'demo-input.json'), join(d, 'rx', 'report-data.json'));
+    copyFileSync(
+      join(ROOT, 'tests', 'fixtures', 'report', 'demo-input.json'),
+      join(d, 'rx', 'report-data.json'),
+    );
     const before = readFileSync(join(d, 'rx', 'report-data.json'));
     const r = tilth(['report', 'rx', '--out', 'rx/report-data.json', '--force'], { cwd: d });
     expect(r.code).toBe(2);

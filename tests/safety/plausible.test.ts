@@ -8,28 +8,48 @@ import type { Samples } from '../../src/types.js';
 
 /** A 5 x 5 grid of samples 100 m apart with P values `p` (others empty). */
 function grid(p: number[], pMethod: 'olsen' | 'kelowna' = 'olsen'): Samples {
-  const n = p.length, xy = new Float64Array(2 * n);
-  for (let i = 0; i < n; i++) { xy[2 * i] = (i % 5) * 100; xy[2 * i + 1] = Math.floor(i / 5) * 100; }
+  const n = p.length,
+    xy = new Float64Array(2 * n);
+  for (let i = 0; i < n; i++) {
+    xy[2 * i] = (i % 5) * 100;
+    xy[2 * i + 1] = Math.floor(i / 5) * 100;
+  }
   const nan = () => new Float64Array(n).fill(NaN);
-  return { ids: p.map((_, i) => `S${i + 1}`), xy, lonlat: new Float64Array(2 * n), values: { p: Float64Array.from(p), no3_n: nan(), k: nan(), so4_s: nan(), om: nan(), ph: nan() }, pMethod, origin: p.map((_, i) => `s.csv row ${i + 4}`) } as unknown as Samples;
+  return {
+    ids: p.map((_, i) => `S${i + 1}`),
+    xy,
+    lonlat: new Float64Array(2 * n),
+    values: { p: Float64Array.from(p), no3_n: nan(), k: nan(), so4_s: nan(), om: nan(), ph: nan() },
+    pMethod,
+    origin: p.map((_, i) => `s.csv row ${i + 4}`),
+  } as unknown as Samples;
 }
 const smooth = Array.from({ length: 25 }, (_, i) => 12 + (i % 5) + Math.floor(i / 5) * 0.5);
 
 describe('plausible ranges', () => {
   it('Olsen P 1500 and 1e300 are refused with the row and the fix; 200 passes', () => {
-    const v = [...smooth]; v[3] = 1500; v[7] = 1e300; v[9] = 200;
+    const v = [...smooth];
+    v[3] = 1500;
+    v[7] = 1e300;
+    v[9] = 200;
     const m = implausibleValues(grid(v));
     expect(m).toHaveLength(2);
-    expect(m[0]).toMatch(/s\.csv row 7, sample "S4": P 1500 ppm \(Olsen\) is outside the plausible 0-200.*Fix: correct the value/);
+    expect(m[0]).toMatch(
+      /s\.csv row 7, sample "S4": P 1500 ppm \(Olsen\) is outside the plausible 0-200.*Fix: correct the value/,
+    );
   });
   it('modified Kelowna reads higher: 250 ppm passes, 350 does not', () => {
-    const v = [...smooth]; v[0] = 250;
+    const v = [...smooth];
+    v[0] = 250;
     expect(implausibleValues(grid(v, 'kelowna'))).toEqual([]);
     v[0] = 350;
-    expect(implausibleValues(grid(v, 'kelowna'))[0]).toMatch(/modified Kelowna\) is outside the plausible 0-300/);
+    expect(implausibleValues(grid(v, 'kelowna'))[0]).toMatch(
+      /modified Kelowna\) is outside the plausible 0-300/,
+    );
   });
   it('a negative value is refused', () => {
-    const v = [...smooth]; v[0] = -3;
+    const v = [...smooth];
+    v[0] = -3;
     expect(implausibleValues(grid(v))).toHaveLength(1);
   });
 });
@@ -37,14 +57,16 @@ describe('plausible ranges', () => {
 describe('neighbour outliers', () => {
   it('a typed 180 among values of 12-18 is named; the smooth field is not', () => {
     expect(neighbourOutliers(grid(smooth), 's.csv')).toEqual([]);
-    const v = [...smooth]; v[12] = 180;
+    const v = [...smooth];
+    v[12] = 180;
     const w = neighbourOutliers(grid(v), 's.csv');
     expect(w).toHaveLength(1);
     expect(w[0]!.code).toBe('neighbour-outlier');
     expect(w[0]!.message).toMatch(/P of sample "S13" \(180, neighbours' median/);
   });
   it('a hot spot less than 3 times its neighbours is not named (saline sulphate, manure strips)', () => {
-    const v = [...smooth]; v[12] = 40;
+    const v = [...smooth];
+    v[12] = 40;
     expect(neighbourOutliers(grid(v), 's.csv')).toEqual([]);
   });
 });

@@ -23,11 +23,24 @@ suite('describe', () => {
 
   it.skipIf(!requireTool('Rscript', 'r-base-core'))('agrees with R (median, mean, sd) on random data', () => {
     // source: R 4.x stats::median, base::mean, stats::sd (n - 1 denominator), run here through Rscript
-    const sets = fc.sample(fc.array(fc.double({ min: -1e4, max: 1e4, noNaN: true }), { minLength: 2, maxLength: 40 }), { seed: 5, numRuns: 25 });
+    const sets = fc.sample(
+      fc.array(fc.double({ min: -1e4, max: 1e4, noNaN: true }), { minLength: 2, maxLength: 40 }),
+      { seed: 5, numRuns: 25 },
+    );
     const input = sets.map((s) => s.map((v) => v.toPrecision(17)).join(' ')).join('\n') + '\n';
-    const r = spawnSync('Rscript', ['-e', 'for (l in readLines(file("stdin"))) { x <- as.numeric(strsplit(l, " ")[[1]]); cat(sprintf("%.17g %.17g %.17g %.17g %.17g\\n", min(x), median(x), max(x), mean(x), sd(x))) }'], { input, encoding: 'utf8' });
+    const r = spawnSync(
+      'Rscript',
+      [
+        '-e',
+        'for (l in readLines(file("stdin"))) { x <- as.numeric(strsplit(l, " ")[[1]]); cat(sprintf("%.17g %.17g %.17g %.17g %.17g\\n", min(x), median(x), max(x), mean(x), sd(x))) }',
+      ],
+      { input, encoding: 'utf8' },
+    );
     expect(r.status).toBe(0);
-    const rows = r.stdout.trim().split('\n').map((l) => l.split(' ').map(Number));
+    const rows = r.stdout
+      .trim()
+      .split('\n')
+      .map((l) => l.split(' ').map(Number));
     expect(rows.length).toBe(sets.length);
     sets.forEach((s, i) => {
       const d = describe(Float64Array.from(s));

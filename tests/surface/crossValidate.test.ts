@@ -10,17 +10,37 @@ import { requireTool } from '../helpers/tools.js';
 import { ROOT } from '../helpers/cli.js';
 
 function points(): { xy: Float64Array; z: Float64Array } {
-  const lines = readFileSync(join(ROOT, 'tests/fixtures/gdal/points.csv'), 'utf8').trim().split('\n').slice(1);
-  const xy = new Float64Array(lines.length * 2), z = new Float64Array(lines.length);
-  lines.forEach((l, i) => { const [x, y, v] = l.split(',').map(Number); xy[2 * i] = x; xy[2 * i + 1] = y; z[i] = v; });
+  const lines = readFileSync(join(ROOT, 'tests/fixtures/gdal/points.csv'), 'utf8')
+    .trim()
+    .split('\n')
+    .slice(1);
+  const xy = new Float64Array(lines.length * 2),
+    z = new Float64Array(lines.length);
+  lines.forEach((l, i) => {
+    const [x, y, v] = l.split(',').map(Number);
+    xy[2 * i] = x;
+    xy[2 * i + 1] = y;
+    z[i] = v;
+  });
   return { xy, z };
 }
 
 function parse(csv: string): CvRow[] {
-  return csv.trim().split('\n').slice(1).map((l) => {
-    const [p, k, rmse, mae, bias, n] = l.split(',');
-    return { power: Number(p), neighbours: k === 'all' ? Infinity : Number(k), rmse: Number(rmse), mae: Number(mae), bias: Number(bias), n: Number(n) };
-  });
+  return csv
+    .trim()
+    .split('\n')
+    .slice(1)
+    .map((l) => {
+      const [p, k, rmse, mae, bias, n] = l.split(',');
+      return {
+        power: Number(p),
+        neighbours: k === 'all' ? Infinity : Number(k),
+        rmse: Number(rmse),
+        mae: Number(mae),
+        bias: Number(bias),
+        n: Number(n),
+      };
+    });
 }
 
 function expectSame(ours: CvRow[], ref: CvRow[]) {
@@ -30,7 +50,10 @@ function expectSame(ours: CvRow[], ref: CvRow[]) {
     expect(o, `row power ${r.power} k ${r.neighbours}`).toBeDefined();
     expect(o.n).toBe(r.n);
     for (const key of ['rmse', 'mae', 'bias'] as const) {
-      expect(Math.abs(o[key] - r[key]), `${key} power ${r.power} k ${r.neighbours}: ${o[key]} vs gstat ${r[key]}`).toBeLessThan(1e-9 * Math.max(1, Math.abs(r[key])));
+      expect(
+        Math.abs(o[key] - r[key]),
+        `${key} power ${r.power} k ${r.neighbours}: ${o[key]} vs gstat ${r[key]}`,
+      ).toBeLessThan(1e-9 * Math.max(1, Math.abs(r[key])));
     }
   }
 }
@@ -48,9 +71,13 @@ describe('crossValidate matches R gstat krige.cv (IDW)', () => {
     expect(crossValidate(new Float64Array([0, 0, 1, 1]), [1, 2])).toBeNull();
   });
 
-  it.skipIf(!requireTool('Rscript', 'r-cran-gstat r-cran-sp', ['-e', 'library(gstat)']))('live Rscript run of idw-cv.R', () => {
-    const r = spawnSync('Rscript', ['tests/fixtures/gstat/idw-cv.R'], { cwd: ROOT, encoding: 'utf8' });
-    expect(r.status, r.stderr).toBe(0);
-    expectSame(crossValidate(xy, z)!.table, parse(r.stdout));
-  }, 300_000); // R starts slowly on a busy machine
+  it.skipIf(!requireTool('Rscript', 'r-cran-gstat r-cran-sp', ['-e', 'library(gstat)']))(
+    'live Rscript run of idw-cv.R',
+    () => {
+      const r = spawnSync('Rscript', ['tests/fixtures/gstat/idw-cv.R'], { cwd: ROOT, encoding: 'utf8' });
+      expect(r.status, r.stderr).toBe(0);
+      expectSame(crossValidate(xy, z)!.table, parse(r.stdout));
+    },
+    300_000,
+  ); // R starts slowly on a busy machine
 });

@@ -16,10 +16,13 @@ const DIR = join(import.meta.dirname, '..', 'fixtures', 'gdal');
 
 function points(): { xy: Float64Array; z: Float64Array } {
   const lines = readFileSync(join(DIR, 'points.csv'), 'utf8').trim().split('\n').slice(1);
-  const xy = new Float64Array(lines.length * 2), z = new Float64Array(lines.length);
+  const xy = new Float64Array(lines.length * 2),
+    z = new Float64Array(lines.length);
   lines.forEach((l, i) => {
     const [x, y, v] = l.split(',').map(Number);
-    xy[2 * i] = x; xy[2 * i + 1] = y; z[i] = v;
+    xy[2 * i] = x;
+    xy[2 * i + 1] = y;
+    z[i] = v;
   });
   return { xy, z };
 }
@@ -29,7 +32,8 @@ const GRID = { xmin: 500000, ymax: 5700800, cell: 20, cols: 50, rows: 40 };
 
 function compare(ref: Float64Array, ours: Float64Array, nodata?: number): number {
   expect(ours.length).toBe(ref.length);
-  let worst = 0, checked = 0;
+  let worst = 0,
+    checked = 0;
   for (let i = 0; i < ref.length; i++) {
     if (Number.isNaN(ref[i])) {
       expect(nodata, 'GDAL wrote NODATA where none was expected').toBeDefined();
@@ -37,7 +41,10 @@ function compare(ref: Float64Array, ours: Float64Array, nodata?: number): number
       continue;
     }
     const rel = Math.abs(ours[i] - ref[i]) / Math.max(Math.abs(ref[i]), 1e-300);
-    if (!(rel <= 1e-9)) throw new Error(`cell ${i} (row ${Math.floor(i / GRID.cols)}, col ${i % GRID.cols}): GDAL ${ref[i]}, tilth ${ours[i]}`);
+    if (!(rel <= 1e-9))
+      throw new Error(
+        `cell ${i} (row ${Math.floor(i / GRID.cols)}, col ${i % GRID.cols}): GDAL ${ref[i]}, tilth ${ours[i]}`,
+      );
     worst = Math.max(worst, rel);
     checked++;
   }
@@ -45,9 +52,24 @@ function compare(ref: Float64Array, ours: Float64Array, nodata?: number): number
 }
 
 const CASES: { file: string; algo: string; opts: IdwOptions; nodata?: number; env?: string[] }[] = [
-  { file: 'invdist.asc', algo: 'invdist:power=2:smoothing=0', opts: { power: 2, neighbours: Infinity }, env: ['--config', 'GDAL_USE_AVX', 'NO', '--config', 'GDAL_USE_SSE', 'NO'] },
-  { file: 'nn12.asc', algo: 'invdistnn:power=2:max_points=12:radius=300:nodata=-9999', opts: { power: 2, neighbours: 12, radius: 300 }, nodata: -9999 },
-  { file: 'nn8.asc', algo: 'invdistnn:power=1.5:max_points=8:radius=120:min_points=2:nodata=-9999', opts: { power: 1.5, neighbours: 8, radius: 120, minNeighbours: 2 }, nodata: -9999 },
+  {
+    file: 'invdist.asc',
+    algo: 'invdist:power=2:smoothing=0',
+    opts: { power: 2, neighbours: Infinity },
+    env: ['--config', 'GDAL_USE_AVX', 'NO', '--config', 'GDAL_USE_SSE', 'NO'],
+  },
+  {
+    file: 'nn12.asc',
+    algo: 'invdistnn:power=2:max_points=12:radius=300:nodata=-9999',
+    opts: { power: 2, neighbours: 12, radius: 300 },
+    nodata: -9999,
+  },
+  {
+    file: 'nn8.asc',
+    algo: 'invdistnn:power=1.5:max_points=8:radius=120:min_points=2:nodata=-9999',
+    opts: { power: 1.5, neighbours: 8, radius: 120, minNeighbours: 2 },
+    nodata: -9999,
+  },
 ];
 
 describe('IDW matches gdal_grid 3.6.2 fixtures (1e-9 relative, every cell)', () => {
@@ -55,7 +77,9 @@ describe('IDW matches gdal_grid 3.6.2 fixtures (1e-9 relative, every cell)', () 
   for (const c of CASES) {
     it(c.algo, () => {
       const ref = readAsc(readFileSync(join(DIR, c.file), 'utf8'));
-      expect([ref.grid.cols, ref.grid.rows, ref.grid.xmin, ref.grid.ymax, ref.grid.cell]).toEqual([50, 40, 500000, 5700800, 20]);
+      expect([ref.grid.cols, ref.grid.rows, ref.grid.xmin, ref.grid.ymax, ref.grid.cell]).toEqual([
+        50, 40, 500000, 5700800, 20,
+      ]);
       const ours = idwSurface(xy, z, GRID, c.opts);
       expect(compare(ref.values, ours, c.nodata)).toBeGreaterThan(1900);
     });
@@ -75,11 +99,43 @@ describe.skipIf(!requireTool('gdal_grid', 'gdal-bin'))('IDW matches a live gdal_
     it(`live ${c.algo}`, () => {
       const tmp = mkdtempSync(join(tmpdir(), 'tilth-gdal-'));
       try {
-        const tif = join(tmp, 'out.tif'), asc = join(tmp, 'out.asc');
-        const g = spawnSync('gdal_grid', [...(c.env ?? []), '-q', '-ot', 'Float64', '-of', 'GTiff', '-txe', '500000', '501000', '-tye', '5700800', '5700000',
-          '-outsize', '50', '40', '-zfield', 'z', '-l', 'points', '-a', c.algo, 'points.vrt', tif], { cwd: DIR, encoding: 'utf8' });
+        const tif = join(tmp, 'out.tif'),
+          asc = join(tmp, 'out.asc');
+        const g = spawnSync(
+          'gdal_grid',
+          [
+            ...(c.env ?? []),
+            '-q',
+            '-ot',
+            'Float64',
+            '-of',
+            'GTiff',
+            '-txe',
+            '500000',
+            '501000',
+            '-tye',
+            '5700800',
+            '5700000',
+            '-outsize',
+            '50',
+            '40',
+            '-zfield',
+            'z',
+            '-l',
+            'points',
+            '-a',
+            c.algo,
+            'points.vrt',
+            tif,
+          ],
+          { cwd: DIR, encoding: 'utf8' },
+        );
         expect(g.status, g.stderr).toBe(0);
-        const t = spawnSync('gdal_translate', ['-q', '-of', 'AAIGrid', '-co', 'SIGNIFICANT_DIGITS=17', tif, asc], { encoding: 'utf8' });
+        const t = spawnSync(
+          'gdal_translate',
+          ['-q', '-of', 'AAIGrid', '-co', 'SIGNIFICANT_DIGITS=17', tif, asc],
+          { encoding: 'utf8' },
+        );
         expect(t.status, t.stderr).toBe(0);
         const ref = readAsc(readFileSync(asc, 'utf8'));
         expect(compare(ref.values, idwSurface(xy, z, GRID, c.opts), c.nodata)).toBeGreaterThan(1900);

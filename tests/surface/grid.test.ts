@@ -11,11 +11,13 @@ import { orient } from '../../src/geo/field.js';
 import { isUserError } from '../../src/errors.js';
 import type { RingsPart } from '../../src/types.js';
 
-const OX = 512345.25, OY = 5678901.75; // UTM-sized offsets, like a real field
+const OX = 512345.25,
+  OY = 5678901.75; // UTM-sized offsets, like a real field
 
 /** A star-shaped (hence simple) ring around (cx, cy) from radii at sorted angles. */
 function star(cx: number, cy: number, radii: number[], ccw: boolean): Float64Array {
-  const n = radii.length, pts: number[] = [];
+  const n = radii.length,
+    pts: number[] = [];
   for (let i = 0; i < n; i++) {
     const a = (2 * Math.PI * i) / n;
     pts.push(cx + radii[i] * Math.cos(a), cy + radii[i] * Math.sin(a));
@@ -32,11 +34,13 @@ function toCoords(r: Float64Array): [number, number][] {
 
 function polyArea(mp: polyclip.Geom extends never ? never : number[][][][]): number {
   let a = 0;
-  for (const poly of mp) poly.forEach((ring, k) => {
-    let s = 0;
-    for (let i = 0; i + 1 < ring.length; i++) s += ring[i][0] * ring[i + 1][1] - ring[i + 1][0] * ring[i][1];
-    a += (k === 0 ? 1 : -1) * Math.abs(s / 2);
-  });
+  for (const poly of mp)
+    poly.forEach((ring, k) => {
+      let s = 0;
+      for (let i = 0; i + 1 < ring.length; i++)
+        s += ring[i][0] * ring[i + 1][1] - ring[i + 1][0] * ring[i][1];
+      a += (k === 0 ? 1 : -1) * Math.abs(s / 2);
+    });
   return a;
 }
 
@@ -51,24 +55,47 @@ describe('fieldGrid', () => {
     fc.assert(
       fc.property(fieldArb, ({ outer, hole, cell }) => {
         // coordinates relative to the offsets for the outside libraries (they work in plain numbers)
-        const ext = star(0, 0, outer, true), h = star(5, -3, hole, false);
-        const parts: RingsPart[] = [{ exterior: ext.map((v, i) => v + (i % 2 ? OY : OX)), holes: [h.map((v, i) => v + (i % 2 ? OY : OX))] }];
+        const ext = star(0, 0, outer, true),
+          h = star(5, -3, hole, false);
+        const parts: RingsPart[] = [
+          {
+            exterior: ext.map((v, i) => v + (i % 2 ? OY : OX)),
+            holes: [h.map((v, i) => v + (i % 2 ? OY : OX))],
+          },
+        ];
         const g = fieldGrid({ parts, name: 't' }, cell);
         const poly = turf.polygon([toCoords(ext), toCoords(h)]);
         const clipPoly: polyclip.Geom = [toCoords(ext), toCoords(h)];
         let total = 0;
-        for (let r = 0; r < g.rows; r++) for (let c = 0; c < g.cols; c++) {
-          const i = r * g.cols + c;
-          const x0 = g.xmin - OX + c * cell, y1 = g.ymax - OY - r * cell;
-          const inside = turf.booleanPointInPolygon([x0 + cell / 2, y1 - cell / 2], poly, { ignoreBoundary: false });
-          expect(g.mask[i], `cell ${c},${r} centre`).toBe(inside ? 1 : 0);
-          total += g.fraction[i] * cell * cell;
-          // polyclip on every partial cell and every 7th other cell (it is slow)
-          if (g.fraction[i] === 1 || g.fraction[i] === 0) { if (i % 7) continue; }
-          const sq: polyclip.Geom = [[[x0, y1 - cell], [x0 + cell, y1 - cell], [x0 + cell, y1], [x0, y1], [x0, y1 - cell]]];
-          const clipped = polyArea(polyclip.intersection(clipPoly, sq) as number[][][][]) / (cell * cell);
-          expect(Math.abs(g.fraction[i] - clipped), `cell ${c},${r} fraction ${g.fraction[i]} vs ${clipped}`).toBeLessThan(1e-6);
-        }
+        for (let r = 0; r < g.rows; r++)
+          for (let c = 0; c < g.cols; c++) {
+            const i = r * g.cols + c;
+            const x0 = g.xmin - OX + c * cell,
+              y1 = g.ymax - OY - r * cell;
+            const inside = turf.booleanPointInPolygon([x0 + cell / 2, y1 - cell / 2], poly, {
+              ignoreBoundary: false,
+            });
+            expect(g.mask[i], `cell ${c},${r} centre`).toBe(inside ? 1 : 0);
+            total += g.fraction[i] * cell * cell;
+            // polyclip on every partial cell and every 7th other cell (it is slow)
+            if (g.fraction[i] === 1 || g.fraction[i] === 0) {
+              if (i % 7) continue;
+            }
+            const sq: polyclip.Geom = [
+              [
+                [x0, y1 - cell],
+                [x0 + cell, y1 - cell],
+                [x0 + cell, y1],
+                [x0, y1],
+                [x0, y1 - cell],
+              ],
+            ];
+            const clipped = polyArea(polyclip.intersection(clipPoly, sq) as number[][][][]) / (cell * cell);
+            expect(
+              Math.abs(g.fraction[i] - clipped),
+              `cell ${c},${r} fraction ${g.fraction[i]} vs ${clipped}`,
+            ).toBeLessThan(1e-6);
+          }
         // planar area from the shoelace formula on the rings (surveyor's formula)
         const area = polyArea([[toCoords(ext), toCoords(h)]]);
         expect(Math.abs(total - area) / area).toBeLessThan(1e-6);
@@ -82,8 +109,16 @@ describe('fieldGrid', () => {
     const g = fieldGrid({ parts: [{ exterior: ext, holes: [] }], name: 't' }, 10);
     expect(g.xmin % 10).toBe(0);
     expect(g.ymax % 10).toBe(0);
-    let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
-    for (let i = 0; i < ext.length; i += 2) { x0 = Math.min(x0, ext[i]); x1 = Math.max(x1, ext[i]); y0 = Math.min(y0, ext[i + 1]); y1 = Math.max(y1, ext[i + 1]); }
+    let x0 = Infinity,
+      x1 = -Infinity,
+      y0 = Infinity,
+      y1 = -Infinity;
+    for (let i = 0; i < ext.length; i += 2) {
+      x0 = Math.min(x0, ext[i]);
+      x1 = Math.max(x1, ext[i]);
+      y0 = Math.min(y0, ext[i + 1]);
+      y1 = Math.max(y1, ext[i + 1]);
+    }
     expect(g.xmin).toBeLessThanOrEqual(x0);
     expect(g.xmin + g.cols * 10).toBeGreaterThanOrEqual(x1);
     expect(g.ymax).toBeGreaterThanOrEqual(y1);
@@ -96,7 +131,11 @@ describe('fieldGrid', () => {
     const s = 1609.344;
     const ext = orient(new Float64Array([OX, OY, OX + s, OY, OX + s, OY + s, OX, OY + s, OX, OY]), true);
     let err: unknown;
-    try { fieldGrid({ parts: [{ exterior: ext, holes: [] }], name: 'section' }, 0.2); } catch (e) { err = e; }
+    try {
+      fieldGrid({ parts: [{ exterior: ext, holes: [] }], name: 'section' }, 0.2);
+    } catch (e) {
+      err = e;
+    }
     expect(isUserError(err)).toBe(true);
     expect(String((err as Error).message)).toMatch(/more than the 50,000,000 allowed.*at least 0\.2\d* m/);
     // 1 m cells: 2.6 M cells, accepted
@@ -104,7 +143,10 @@ describe('fieldGrid', () => {
   });
 
   it('a field smaller than one cell gets one or a few partial cells and a warning', () => {
-    const ext = orient(new Float64Array([OX + 1, OY + 1, OX + 4, OY + 1, OX + 4, OY + 3, OX + 1, OY + 1]), true);
+    const ext = orient(
+      new Float64Array([OX + 1, OY + 1, OX + 4, OY + 1, OX + 4, OY + 3, OX + 1, OY + 1]),
+      true,
+    );
     const g = fieldGrid({ parts: [{ exterior: ext, holes: [] }], name: 'tiny' }, 10);
     let s = 0;
     for (const f of g.fraction) s += f;

@@ -20,19 +20,25 @@ const REL = 1e-6;
 
 export function readCsv(file: string): Record<string, number[]> {
   const lines = readFileSync(file, 'utf8').trim().split('\n');
-  const head = lines[0].split(",").map((h) => h.replace(/"/g, ""));
+  const head = lines[0].split(',').map((h) => h.replace(/"/g, ''));
   const cols: Record<string, number[]> = Object.fromEntries(head.map((h) => [h, []]));
   for (const l of lines.slice(1)) l.split(',').forEach((v, j) => cols[head[j]].push(Number(v)));
   return cols;
 }
 
-export function meta(dir = FIX): { models: Record<string, KrigingModel & { nmax: number }>; versions: Record<string, string> } {
+export function meta(dir = FIX): {
+  models: Record<string, KrigingModel & { nmax: number }>;
+  versions: Record<string, string>;
+} {
   return JSON.parse(readFileSync(join(dir, 'kriging-meta.json'), 'utf8'));
 }
 
 function xyOf(c: Record<string, number[]>): Float64Array {
   const xy = new Float64Array(c.x.length * 2);
-  c.x.forEach((x, i) => { xy[2 * i] = x; xy[2 * i + 1] = c.y[i]; });
+  c.x.forEach((x, i) => {
+    xy[2 * i] = x;
+    xy[2 * i + 1] = c.y[i];
+  });
   return xy;
 }
 
@@ -48,10 +54,17 @@ function simData(dir = FIX): { xy: Float64Array; z: Float64Array } {
 
 /** |a - b| <= rel * max(|b|, scale): relative, with the variable's scale guarding values near 0. */
 function close(a: number, b: number, scale: number, what: string) {
-  expect(Math.abs(a - b), `${what}: tilth ${a} vs gstat ${b}`).toBeLessThanOrEqual(REL * Math.max(Math.abs(b), scale));
+  expect(Math.abs(a - b), `${what}: tilth ${a} vs gstat ${b}`).toBeLessThanOrEqual(
+    REL * Math.max(Math.abs(b), scale),
+  );
 }
 
-function comparePoints(dir: string, file: string, data: { xy: Float64Array; z: Float64Array }, model: KrigingModel & { nmax: number }) {
+function comparePoints(
+  dir: string,
+  file: string,
+  data: { xy: Float64Array; z: Float64Array },
+  model: KrigingModel & { nmax: number },
+) {
   const ref = readCsv(join(dir, file));
   const r = krigingAtPoints(data.xy, data.z, xyOf(ref), model, { neighbours: model.nmax });
   const sill = model.nugget + model.psill;
@@ -62,7 +75,12 @@ function comparePoints(dir: string, file: string, data: { xy: Float64Array; z: F
   return ref.x.length;
 }
 
-function compareCv(dir: string, file: string, data: { xy: Float64Array; z: Float64Array }, model: KrigingModel & { nmax: number }) {
+function compareCv(
+  dir: string,
+  file: string,
+  data: { xy: Float64Array; z: Float64Array },
+  model: KrigingModel & { nmax: number },
+) {
   const ref = readCsv(join(dir, file));
   const cv = krigingCv(data.xy, data.z, model, model.nmax);
   const sill = model.nugget + model.psill;
@@ -78,7 +96,8 @@ function compareCv(dir: string, file: string, data: { xy: Float64Array; z: Float
 
 function all(dir: string) {
   const m = meta(dir).models;
-  const meuse = meuseData(), sim = simData(dir);
+  const meuse = meuseData(),
+    sim = simData(dir);
   expect(comparePoints(dir, 'krige-meuse-sph16.csv', meuse, m['meuse-sph16'])).toBeGreaterThan(700);
   compareCv(dir, 'krige-cv-meuse-sph16.csv', meuse, m['meuse-sph16']);
   for (const name of ['exp12', 'gau16', 'sph16']) {
@@ -101,7 +120,8 @@ describe('ordinary kriging matches R gstat krige / krige.cv to 1e-6 relative', (
     const grid = { xmin: 450000, ymax: 5770800, cell: 20, cols: 40, rows: 40 };
     const r = krigingSurface(sim.xy, sim.z, grid, m, { neighbours: m.nmax });
     for (let i = 0; i < ref.x.length; i++) {
-      const c = Math.round((ref.x[i] - 450010) / 20), row = Math.round((5770790 - ref.y[i]) / 20);
+      const c = Math.round((ref.x[i] - 450010) / 20),
+        row = Math.round((5770790 - ref.y[i]) / 20);
       close(r.values[row * 40 + c], ref.pred[i], 1e-3 * 68, `cell ${c},${row} pred`);
       close(r.variance[row * 40 + c], ref.var[i], 1e-6 * 68, `cell ${c},${row} var`);
     }
@@ -121,16 +141,23 @@ describe('ordinary kriging matches R gstat krige / krige.cv to 1e-6 relative', (
     }
   });
 
-  it.skipIf(!requireTool('Rscript', 'r-cran-gstat r-cran-sp', ['-e', 'library(gstat)']))('live Rscript run of kriging.R', () => {
-    const dir = mkdtempSync(join(tmpdir(), 'tilth-krige-'));
-    try {
-      const r = spawnSync('Rscript', ['tests/fixtures/gstat/kriging.R', dir], { cwd: ROOT, encoding: 'utf8' });
-      expect(r.status, r.stderr).toBe(0);
-      all(dir);
-    } finally {
-      rmSync(dir, { recursive: true, force: true });
-    }
-  }, 300_000); // R starts slowly on a busy machine
+  it.skipIf(!requireTool('Rscript', 'r-cran-gstat r-cran-sp', ['-e', 'library(gstat)']))(
+    'live Rscript run of kriging.R',
+    () => {
+      const dir = mkdtempSync(join(tmpdir(), 'tilth-krige-'));
+      try {
+        const r = spawnSync('Rscript', ['tests/fixtures/gstat/kriging.R', dir], {
+          cwd: ROOT,
+          encoding: 'utf8',
+        });
+        expect(r.status, r.stderr).toBe(0);
+        all(dir);
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+    },
+    300_000,
+  ); // R starts slowly on a busy machine
 });
 
 describe('chance below a threshold agrees with gstat conditional simulation', () => {
@@ -145,7 +172,10 @@ describe('chance below a threshold agrees with gstat conditional simulation', ()
       const nsim = ref.nsim[i];
       // binomial sampling error of the simulated share; 4 standard errors (+ one simulation) per location
       const se = Math.sqrt(Math.max(p * (1 - p), 1 / nsim) / nsim);
-      expect(Math.abs(p - ref.below20[i]), `location ${i}: tilth ${p} vs gstat share ${ref.below20[i]}`).toBeLessThanOrEqual(4 * se + 1 / nsim);
+      expect(
+        Math.abs(p - ref.below20[i]),
+        `location ${i}: tilth ${p} vs gstat share ${ref.below20[i]}`,
+      ).toBeLessThanOrEqual(4 * se + 1 / nsim);
       chi += (p - ref.below20[i]) ** 2 / (se * se);
     }
     // overall: the squared standardized differences add up like a chi-square with 40 degrees of freedom

@@ -7,7 +7,10 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { chanceBelow, chanceBelowAt, classProbabilities } from '../../src/surface/probability.js';
 
-const cellsArb = fc.array(fc.tuple(fc.double({ min: -50, max: 200, noNaN: true }), fc.double({ min: 0, max: 400, noNaN: true })), { minLength: 1, maxLength: 50 });
+const cellsArb = fc.array(
+  fc.tuple(fc.double({ min: -50, max: 200, noNaN: true }), fc.double({ min: 0, max: 400, noNaN: true })),
+  { minLength: 1, maxLength: 50 },
+);
 
 describe('chance maps', () => {
   it('handbook values of Phi: P(value < mean + 1 sd) = 0.841345, P(value < mean - 1.96 sd) = 0.024998', () => {
@@ -24,32 +27,58 @@ describe('chance maps', () => {
   });
 
   it('chance below is in [0, 1] and falls as the mean rises', () => {
-    fc.assert(fc.property(cellsArb, fc.double({ min: 1, max: 100, noNaN: true }), (cells, t) => {
-      const c = chanceBelow({ mean: cells.map((x) => x[0]), variance: cells.map((x) => x[1]), transform: 'none' }, t);
-      c.forEach((p) => { expect(p).toBeGreaterThanOrEqual(0); expect(p).toBeLessThanOrEqual(1); });
-      for (const [m, v] of cells) expect(chanceBelowAt(m + 1, v, t)).toBeLessThanOrEqual(chanceBelowAt(m, v, t));
-    }));
+    fc.assert(
+      fc.property(cellsArb, fc.double({ min: 1, max: 100, noNaN: true }), (cells, t) => {
+        const c = chanceBelow(
+          { mean: cells.map((x) => x[0]), variance: cells.map((x) => x[1]), transform: 'none' },
+          t,
+        );
+        c.forEach((p) => {
+          expect(p).toBeGreaterThanOrEqual(0);
+          expect(p).toBeLessThanOrEqual(1);
+        });
+        for (const [m, v] of cells)
+          expect(chanceBelowAt(m + 1, v, t)).toBeLessThanOrEqual(chanceBelowAt(m, v, t));
+      }),
+    );
   });
 
-  it('class probabilities are in [0, 1] and sum to 1; the expected chance lies between the classes\' chances', () => {
-    const classes = { names: ['very low', 'low', 'medium', 'high', 'very high'], below: [5, 10, 15, 20, null], chance: [0.9, 0.7, 0.5, 0.3, 0.1] };
-    fc.assert(fc.property(cellsArb, fc.boolean(), (cells, log) => {
-      const k = { mean: cells.map((x) => (log ? Math.log(Math.max(1e-3, x[0])) : x[0])), variance: cells.map((x) => (log ? x[1] / 400 : x[1])), transform: (log ? 'log' : 'none') as 'log' | 'none' };
-      const r = classProbabilities(k, classes);
-      for (let i = 0; i < cells.length; i++) {
-        let sum = 0;
-        for (const p of r.probability) { expect(p[i]).toBeGreaterThanOrEqual(0); expect(p[i]).toBeLessThanOrEqual(1); sum += p[i]; }
-        expect(Math.abs(sum - 1)).toBeLessThan(1e-6);
-        expect(r.expected[i]).toBeGreaterThanOrEqual(0.1 - 1e-6);
-        expect(r.expected[i]).toBeLessThanOrEqual(0.9 + 1e-6);
-        // the first class's probability is the chance below its limit
-        expect(r.probability[0][i]).toBeCloseTo(chanceBelowAt(k.mean[i], k.variance[i], 5, k.transform), 6);
-      }
-    }));
+  it("class probabilities are in [0, 1] and sum to 1; the expected chance lies between the classes' chances", () => {
+    const classes = {
+      names: ['very low', 'low', 'medium', 'high', 'very high'],
+      below: [5, 10, 15, 20, null],
+      chance: [0.9, 0.7, 0.5, 0.3, 0.1],
+    };
+    fc.assert(
+      fc.property(cellsArb, fc.boolean(), (cells, log) => {
+        const k = {
+          mean: cells.map((x) => (log ? Math.log(Math.max(1e-3, x[0])) : x[0])),
+          variance: cells.map((x) => (log ? x[1] / 400 : x[1])),
+          transform: (log ? 'log' : 'none') as 'log' | 'none',
+        };
+        const r = classProbabilities(k, classes);
+        for (let i = 0; i < cells.length; i++) {
+          let sum = 0;
+          for (const p of r.probability) {
+            expect(p[i]).toBeGreaterThanOrEqual(0);
+            expect(p[i]).toBeLessThanOrEqual(1);
+            sum += p[i];
+          }
+          expect(Math.abs(sum - 1)).toBeLessThan(1e-6);
+          expect(r.expected[i]).toBeGreaterThanOrEqual(0.1 - 1e-6);
+          expect(r.expected[i]).toBeLessThanOrEqual(0.9 + 1e-6);
+          // the first class's probability is the chance below its limit
+          expect(r.probability[0][i]).toBeCloseTo(chanceBelowAt(k.mean[i], k.variance[i], 5, k.transform), 6);
+        }
+      }),
+    );
   });
 
   it('no value where the mean is NaN (cells outside the field)', () => {
-    const r = classProbabilities({ mean: [NaN], variance: [NaN], transform: 'none' }, { names: ['a', 'b'], below: [10, null], chance: [1, 0] });
+    const r = classProbabilities(
+      { mean: [NaN], variance: [NaN], transform: 'none' },
+      { names: ['a', 'b'], below: [10, null], chance: [1, 0] },
+    );
     expect(r.expected[0]).toBeNaN();
     expect(chanceBelow({ mean: [NaN], variance: [1], transform: 'none' }, 3)[0]).toBeNaN();
   });

@@ -51,7 +51,17 @@ describe('units (published conversion values, source beside each)', () => {
 describe('library entry', () => {
   it('src/index.ts exports the pipeline (what dist/index.js bundles)', async () => {
     const lib = await import('../../src/index.js');
-    for (const name of ['prepareInputs', 'buildPrescription', 'decide', 'parsePlan', 'nutrientSurface', 'makeZones', 'writeShapefile', 'checkPrescription', 'renderReport']) {
+    for (const name of [
+      'prepareInputs',
+      'buildPrescription',
+      'decide',
+      'parsePlan',
+      'nutrientSurface',
+      'makeZones',
+      'writeShapefile',
+      'checkPrescription',
+      'renderReport',
+    ]) {
       expect(typeof (lib as Record<string, unknown>)[name], name).toBe('function');
     }
   });

@@ -8,17 +8,34 @@ import { readFileSync, mkdtempSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
 import { spawnSync } from 'node:child_process';
-import { semivariogram, fitModel, modelAt, type ModelKind, type FitMethod } from '../../src/variability/index.js';
+import {
+  semivariogram,
+  fitModel,
+  modelAt,
+  type ModelKind,
+  type FitMethod,
+} from '../../src/variability/index.js';
 import { requireTool } from '../helpers/tools.js';
 import { ROOT } from '../helpers/cli.js';
 
 const FIX = join(ROOT, 'tests', 'fixtures', 'gstat');
 const KIND: Record<string, ModelKind> = { Sph: 'spherical', Exp: 'exponential', Gau: 'gaussian' };
 
-interface GstatFit { model: string; fitMethod: number; nugget: number; psill: number; range: number; SSErr: number; singular: boolean; converged: boolean }
+interface GstatFit {
+  model: string;
+  fitMethod: number;
+  nugget: number;
+  psill: number;
+  range: number;
+  SSErr: number;
+  singular: boolean;
+  converged: boolean;
+}
 interface GstatRef {
   versions: { R: string; gstat: string; sp: string };
-  cutoff: number; width: number; bboxDiagonal: number;
+  cutoff: number;
+  width: number;
+  bboxDiagonal: number;
   start: { psill: number; range: number; nugget: number };
   variogram: { np: number[]; dist: number[]; gamma: number[] };
   fits: GstatFit[];
@@ -27,7 +44,11 @@ interface GstatRef {
 }
 
 function meuse(dir: string) {
-  const rows = readFileSync(join(dir, 'meuse.csv'), 'utf8').trim().split('\n').slice(1).map((l) => l.split(',').map(Number));
+  const rows = readFileSync(join(dir, 'meuse.csv'), 'utf8')
+    .trim()
+    .split('\n')
+    .slice(1)
+    .map((l) => l.split(',').map(Number));
   const xy = new Float64Array(rows.flatMap((r) => [r[0], r[1]]));
   const logZinc = rows.map((r) => Math.log(r[2]));
   return { xy, logZinc, n: rows.length };
@@ -60,7 +81,8 @@ function compare(ref: GstatRef, dir: string) {
     const st = m.start;
     expect(m.ok).toBe(true);
     if (f.converged && !(f.model === 'Gau' && f.fitMethod === 7)) {
-      if (f.nugget === 0) expect(m.nugget).toBe(0); // gstat fixed a negative nugget at 0
+      if (f.nugget === 0)
+        expect(m.nugget).toBe(0); // gstat fixed a negative nugget at 0
       else expect(rel(m.nugget, f.nugget), `${f.model} ${f.fitMethod} nugget`).toBeLessThan(0.02);
       expect(rel(m.psill, f.psill), `${f.model} ${f.fitMethod} psill`).toBeLessThan(0.02);
       expect(rel(m.range, f.range), `${f.model} ${f.fitMethod} range`).toBeLessThan(0.02);
@@ -71,9 +93,12 @@ function compare(ref: GstatRef, dir: string) {
       let sse = 0;
       for (let j = 0; j < ref.variogram.np.length; j++) {
         const h = ref.variogram.dist[j];
-        const s = st.nugget + st.psill * (modelAt({ kind: KIND[f.model], nugget: 0, psill: 1, range: st.range }, h));
+        const s =
+          st.nugget + st.psill * modelAt({ kind: KIND[f.model], nugget: 0, psill: 1, range: st.range }, h);
         const w = f.fitMethod === 7 ? ref.variogram.np[j] / (h * h) : ref.variogram.np[j] / (s * s);
-        const r = ref.variogram.gamma[j] - (f.nugget + f.psill * modelAt({ kind: KIND[f.model], nugget: 0, psill: 1, range: f.range }, h));
+        const r =
+          ref.variogram.gamma[j] -
+          (f.nugget + f.psill * modelAt({ kind: KIND[f.model], nugget: 0, psill: 1, range: f.range }, h));
         sse += w * r * r;
       }
       expect(rel(sse, f.SSErr), 'recomputed gstat SSErr').toBeLessThan(1e-6);
@@ -89,15 +114,22 @@ describe('semivariogram and fits agree with R gstat on Meuse log(zinc)', () => {
     compare(ref, FIX);
   });
 
-  it.skipIf(!requireTool('Rscript', 'r-cran-gstat r-cran-sp', ['-e', 'library(gstat); library(sp)']))('live: runs variogram.R with the installed R gstat', () => {
-    const dir = mkdtempSync(join(tmpdir(), 'tilth-gstat-'));
-    try {
-      const r = spawnSync('Rscript', [join(FIX, 'variogram.R'), dir], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
-      expect(r.status, r.stderr).toBe(0);
-      const ref = JSON.parse(readFileSync(join(dir, 'meuse-gstat.json'), 'utf8')) as GstatRef;
-      compare(ref, dir);
-    } finally {
-      rmSync(dir, { recursive: true, force: true });
-    }
-  });
+  it.skipIf(!requireTool('Rscript', 'r-cran-gstat r-cran-sp', ['-e', 'library(gstat); library(sp)']))(
+    'live: runs variogram.R with the installed R gstat',
+    () => {
+      const dir = mkdtempSync(join(tmpdir(), 'tilth-gstat-'));
+      try {
+        const r = spawnSync('Rscript', [join(FIX, 'variogram.R'), dir], {
+          cwd: ROOT,
+          encoding: 'utf8',
+          timeout: 120_000,
+        });
+        expect(r.status, r.stderr).toBe(0);
+        const ref = JSON.parse(readFileSync(join(dir, 'meuse-gstat.json'), 'utf8')) as GstatRef;
+        compare(ref, dir);
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+    },
+  );
 });

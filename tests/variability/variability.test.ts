@@ -6,9 +6,24 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
-  semivariogram, lagIndex, fitModel, fitModels, modelAt, unitVariogram, effectiveRange, spatialDependence,
-  areaShareBelow, sampleShareBelow, samplingAdvice, medianNearest, analyzeVariability, semivariogramSvg,
-  sampleMapSvg, niceTicks, defaultThreshold, type ModelKind,
+  semivariogram,
+  lagIndex,
+  fitModel,
+  fitModels,
+  modelAt,
+  unitVariogram,
+  effectiveRange,
+  spatialDependence,
+  areaShareBelow,
+  sampleShareBelow,
+  samplingAdvice,
+  medianNearest,
+  analyzeVariability,
+  semivariogramSvg,
+  sampleMapSvg,
+  niceTicks,
+  defaultThreshold,
+  type ModelKind,
 } from '../../src/variability/index.js';
 import { describe as describeStats } from '../../src/stats/describe.js';
 import type { Analyte, Field, Samples } from '../../src/types.js';
@@ -16,37 +31,63 @@ import type { Analyte, Field, Samples } from '../../src/types.js';
 /** Oracle: each pair tested against every lag interval (j w, (j+1) w], zero distance in lag 0, d > cutoff dropped. */
 function oracle(xy: number[], z: number[], cutoff: number, width: number) {
   const nLag = Math.floor(cutoff / width) + 1;
-  const np = new Array(nLag).fill(0), sd = new Array(nLag).fill(0), sg = new Array(nLag).fill(0);
-  for (let i = 0; i < z.length; i++) for (let j = i + 1; j < z.length; j++) {
-    const d = Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]);
-    if (d > cutoff) continue;
-    let lag = -1;
-    if (d === 0) lag = 0;
-    else for (let k = 0; k < nLag; k++) if (d > k * width && d <= (k + 1) * width) { lag = k; break; }
-    np[lag]++; sd[lag] += d; sg[lag] += (z[i] - z[j]) ** 2;
-  }
+  const np = new Array(nLag).fill(0),
+    sd = new Array(nLag).fill(0),
+    sg = new Array(nLag).fill(0);
+  for (let i = 0; i < z.length; i++)
+    for (let j = i + 1; j < z.length; j++) {
+      const d = Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]);
+      if (d > cutoff) continue;
+      let lag = -1;
+      if (d === 0) lag = 0;
+      else
+        for (let k = 0; k < nLag; k++)
+          if (d > k * width && d <= (k + 1) * width) {
+            lag = k;
+            break;
+          }
+      np[lag]++;
+      sd[lag] += d;
+      sg[lag] += (z[i] - z[j]) ** 2;
+    }
   const out = { np: [] as number[], dist: [] as number[], gamma: [] as number[] };
-  for (let k = 0; k < nLag; k++) if (np[k]) { out.np.push(np[k]); out.dist.push(sd[k] / np[k]); out.gamma.push(sg[k] / (2 * np[k])); }
+  for (let k = 0; k < nLag; k++)
+    if (np[k]) {
+      out.np.push(np[k]);
+      out.dist.push(sd[k] / np[k]);
+      out.gamma.push(sg[k] / (2 * np[k]));
+    }
   return out;
 }
 
 describe('semivariogram (gstat binning rules, src/sem.c of gstat 2.1.0)', () => {
   it('matches the brute-force oracle on random integer layouts (many distances on lag boundaries)', () => {
-    fc.assert(fc.property(
-      fc.array(fc.tuple(fc.integer({ min: 0, max: 12 }), fc.integer({ min: 0, max: 12 }), fc.double({ min: -50, max: 50, noNaN: true })), { minLength: 2, maxLength: 40 }),
-      fc.integer({ min: 1, max: 4 }),
-      (pts, w) => {
-        const xy = pts.flatMap((p) => [p[0] * 10, p[1] * 10]);
-        const z = pts.map((p) => p[2]);
-        const cutoff = 15 * w * 2; // integer width 2w: boundaries at even integers, hit by axis-aligned pairs
-        const v = semivariogram(new Float64Array(xy), z, { cutoff, width: 2 * w });
-        const o = oracle(xy, z, cutoff, 2 * w);
-        expect(v.np).toEqual(o.np);
-        for (let j = 0; j < o.np.length; j++) {
-          expect(v.dist[j]).toBeCloseTo(o.dist[j], 9);
-          expect(v.gamma[j]).toBeCloseTo(o.gamma[j], 9);
-        }
-      }), { numRuns: 150 });
+    fc.assert(
+      fc.property(
+        fc.array(
+          fc.tuple(
+            fc.integer({ min: 0, max: 12 }),
+            fc.integer({ min: 0, max: 12 }),
+            fc.double({ min: -50, max: 50, noNaN: true }),
+          ),
+          { minLength: 2, maxLength: 40 },
+        ),
+        fc.integer({ min: 1, max: 4 }),
+        (pts, w) => {
+          const xy = pts.flatMap((p) => [p[0] * 10, p[1] * 10]);
+          const z = pts.map((p) => p[2]);
+          const cutoff = 15 * w * 2; // integer width 2w: boundaries at even integers, hit by axis-aligned pairs
+          const v = semivariogram(new Float64Array(xy), z, { cutoff, width: 2 * w });
+          const o = oracle(xy, z, cutoff, 2 * w);
+          expect(v.np).toEqual(o.np);
+          for (let j = 0; j < o.np.length; j++) {
+            expect(v.dist[j]).toBeCloseTo(o.dist[j], 9);
+            expect(v.gamma[j]).toBeCloseTo(o.gamma[j], 9);
+          }
+        },
+      ),
+      { numRuns: 150 },
+    );
   });
 
   it('puts a distance on a lag boundary into the lower lag, 0 into lag 0, and keeps d == cutoff', () => {
@@ -68,19 +109,34 @@ describe('semivariogram (gstat binning rules, src/sem.c of gstat 2.1.0)', () => 
   });
 
   it('skips NaN values, is unchanged by adding a constant and scales with the square of a factor', () => {
-    fc.assert(fc.property(
-      fc.array(fc.tuple(fc.double({ min: 0, max: 1000, noNaN: true }), fc.double({ min: 0, max: 1000, noNaN: true }), fc.double({ min: 0, max: 100, noNaN: true })), { minLength: 3, maxLength: 30 }),
-      fc.double({ min: -100, max: 100, noNaN: true }), fc.double({ min: 0.1, max: 10, noNaN: true }),
-      (pts, c, k) => {
-        const xy = new Float64Array(pts.flatMap((p) => [p[0], p[1]]));
-        const z = pts.map((p) => p[2]);
-        const a = semivariogram(xy, z);
-        const b = semivariogram(xy, z.map((x) => k * x + c));
-        expect(b.np).toEqual(a.np);
-        for (let j = 0; j < a.np.length; j++) expect(b.gamma[j]).toBeCloseTo(k * k * a.gamma[j], 6);
-        const withNaN = semivariogram(new Float64Array([...xy, 5000, 5000]), [...z, NaN]);
-        expect(withNaN).toEqual(a);
-      }), { numRuns: 60 });
+    fc.assert(
+      fc.property(
+        fc.array(
+          fc.tuple(
+            fc.double({ min: 0, max: 1000, noNaN: true }),
+            fc.double({ min: 0, max: 1000, noNaN: true }),
+            fc.double({ min: 0, max: 100, noNaN: true }),
+          ),
+          { minLength: 3, maxLength: 30 },
+        ),
+        fc.double({ min: -100, max: 100, noNaN: true }),
+        fc.double({ min: 0.1, max: 10, noNaN: true }),
+        (pts, c, k) => {
+          const xy = new Float64Array(pts.flatMap((p) => [p[0], p[1]]));
+          const z = pts.map((p) => p[2]);
+          const a = semivariogram(xy, z);
+          const b = semivariogram(
+            xy,
+            z.map((x) => k * x + c),
+          );
+          expect(b.np).toEqual(a.np);
+          for (let j = 0; j < a.np.length; j++) expect(b.gamma[j]).toBeCloseTo(k * k * a.gamma[j], 6);
+          const withNaN = semivariogram(new Float64Array([...xy, 5000, 5000]), [...z, NaN]);
+          expect(withNaN).toEqual(a);
+        },
+      ),
+      { numRuns: 60 },
+    );
   });
 });
 
@@ -90,26 +146,35 @@ describe('models (gstat vgm() definitions) and WLS fits', () => {
     expect(unitVariogram('spherical', 50, 100)).toBeCloseTo(0.6875, 15);
     expect(unitVariogram('spherical', 150, 100)).toBe(1);
     // exponential at 3a and Gaussian at sqrt(3) a reach 1 - e^-3 = 95.0 % of the sill (the effective ranges)
-    expect(unitVariogram('exponential', effectiveRange('exponential', 100), 100)).toBeCloseTo(1 - Math.exp(-3), 15);
+    expect(unitVariogram('exponential', effectiveRange('exponential', 100), 100)).toBeCloseTo(
+      1 - Math.exp(-3),
+      15,
+    );
     expect(unitVariogram('gaussian', effectiveRange('gaussian', 100), 100)).toBeCloseTo(1 - Math.exp(-3), 15);
     expect(modelAt({ kind: 'spherical', nugget: 1, psill: 2, range: 10 }, 0)).toBe(0);
   });
 
   it('recovers nugget, partial sill and range from an exact model semivariogram (any weights)', () => {
-    fc.assert(fc.property(
-      fc.constantFrom<ModelKind>('spherical', 'exponential', 'gaussian'),
-      fc.double({ min: 0.05, max: 5, noNaN: true }), fc.double({ min: 0.5, max: 20, noNaN: true }),
-      fc.double({ min: 150, max: 600, noNaN: true }), fc.constantFrom(7, 2, 1, 6) as fc.Arbitrary<7 | 2 | 1 | 6>,
-      (kind, nugget, psill, range, method) => {
-        const dist = Array.from({ length: 15 }, (_, j) => 40 * (j + 0.6));
-        const np = dist.map((_, j) => 30 + 7 * j);
-        const gamma = dist.map((h) => nugget + psill * unitVariogram(kind, h, range));
-        const m = fitModel({ np, dist, gamma }, kind, { method });
-        expect(m.ok).toBe(true);
-        expect(m.nugget).toBeCloseTo(nugget, 4);
-        expect(m.psill / psill).toBeCloseTo(1, 4);
-        expect(m.range / range).toBeCloseTo(1, 4);
-      }), { numRuns: 60 });
+    fc.assert(
+      fc.property(
+        fc.constantFrom<ModelKind>('spherical', 'exponential', 'gaussian'),
+        fc.double({ min: 0.05, max: 5, noNaN: true }),
+        fc.double({ min: 0.5, max: 20, noNaN: true }),
+        fc.double({ min: 150, max: 600, noNaN: true }),
+        fc.constantFrom(7, 2, 1, 6) as fc.Arbitrary<7 | 2 | 1 | 6>,
+        (kind, nugget, psill, range, method) => {
+          const dist = Array.from({ length: 15 }, (_, j) => 40 * (j + 0.6));
+          const np = dist.map((_, j) => 30 + 7 * j);
+          const gamma = dist.map((h) => nugget + psill * unitVariogram(kind, h, range));
+          const m = fitModel({ np, dist, gamma }, kind, { method });
+          expect(m.ok).toBe(true);
+          expect(m.nugget).toBeCloseTo(nugget, 4);
+          expect(m.psill / psill).toBeCloseTo(1, 4);
+          expect(m.range / range).toBeCloseTo(1, 4);
+        },
+      ),
+      { numRuns: 60 },
+    );
   });
 
   it('names the generating model as the best fit and refuses fewer than three lags', () => {
@@ -170,15 +235,32 @@ describe('sampling advice (spacing under half the effective range: common practi
     const xy = grid(8, 100);
     expect(medianNearest(xy)).toBe(100);
     const areaM2 = 800 * 800;
-    const ok = samplingAdvice({ areaM2, xy, effectiveRange: 400, dependence: 'strong', firstLag: 100, noSill: false });
+    const ok = samplingAdvice({
+      areaM2,
+      xy,
+      effectiveRange: 400,
+      dependence: 'strong',
+      firstLag: 100,
+      noSill: false,
+    });
     expect(ok.spacing).toBeCloseTo(100, 9);
     expect(ok.acresPerSample).toBeCloseTo(10000 / 4046.8564224, 9); // 1 ha = 2.471 ac ([published] 1959 yard and pound agreement)
     expect(ok.verdict).toBe('adequate');
-    const sparse = samplingAdvice({ areaM2, xy, effectiveRange: 120, dependence: 'moderate', firstLag: 100, noSill: false });
+    const sparse = samplingAdvice({
+      areaM2,
+      xy,
+      effectiveRange: 120,
+      dependence: 'moderate',
+      firstLag: 100,
+      noSill: false,
+    });
     expect(sparse.verdict).toBe('too-sparse');
     expect(sparse.needed?.spacing).toBe(60);
     expect(sparse.needed?.samples).toBe(Math.ceil(areaM2 / 3600));
-    expect(samplingAdvice({ areaM2, xy, effectiveRange: 400, dependence: 'weak', firstLag: 100, noSill: false }).verdict).toBe('no-structure');
+    expect(
+      samplingAdvice({ areaM2, xy, effectiveRange: 400, dependence: 'weak', firstLag: 100, noSill: false })
+        .verdict,
+    ).toBe('no-structure');
   });
 });
 
@@ -187,26 +269,50 @@ function syntheticField(): { samples: Samples; field: Field } {
   const ids: string[] = [];
   const xy: number[] = [];
   const s: number[] = [];
-  for (let i = 0; i < 7; i++) for (let j = 0; j < 7; j++) {
-    const x = 500000 + 57 + i * 114, y = 5700000 + 57 + j * 114;
-    ids.push(`S${i * 7 + j + 1}`);
-    xy.push(x, y);
-    s.push(i >= 5 && j <= 1 ? 8 + i + j : 45 - 3 * i + 2 * Math.sin(i * 7.3 + j * 3.1));
-  }
+  for (let i = 0; i < 7; i++)
+    for (let j = 0; j < 7; j++) {
+      const x = 500000 + 57 + i * 114,
+        y = 5700000 + 57 + j * 114;
+      ids.push(`S${i * 7 + j + 1}`);
+      xy.push(x, y);
+      s.push(i >= 5 && j <= 1 ? 8 + i + j : 45 - 3 * i + 2 * Math.sin(i * 7.3 + j * 3.1));
+    }
   const n = ids.length;
   const nan = () => new Float64Array(n).fill(NaN);
   const zero = () => new Int8Array(n);
-  const values = { no3_n: nan(), p: nan(), k: nan(), so4_s: new Float64Array(s), om: nan(), ph: nan() } as Record<Analyte, Float64Array>;
-  const censored = { no3_n: zero(), p: zero(), k: zero(), so4_s: zero(), om: zero(), ph: zero() } as Record<Analyte, Int8Array>;
+  const values = {
+    no3_n: nan(),
+    p: nan(),
+    k: nan(),
+    so4_s: new Float64Array(s),
+    om: nan(),
+    ph: nan(),
+  } as Record<Analyte, Float64Array>;
+  const censored = { no3_n: zero(), p: zero(), k: zero(), so4_s: zero(), om: zero(), ph: zero() } as Record<
+    Analyte,
+    Int8Array
+  >;
   const samples: Samples = {
-    ids, lonlat: new Float64Array(2 * n), xy: new Float64Array(xy), values, censored, texture: ids.map(() => null),
-    zone: ids.map(() => null), pMethod: 'olsen', origin: ids.map((_, i) => `synthetic row ${i + 1}`),
+    ids,
+    lonlat: new Float64Array(2 * n),
+    xy: new Float64Array(xy),
+    values,
+    censored,
+    texture: ids.map(() => null),
+    zone: ids.map(() => null),
+    pMethod: 'olsen',
+    origin: ids.map((_, i) => `synthetic row ${i + 1}`),
   };
-  const ring = new Float64Array([500000, 5700000, 500800, 5700000, 500800, 5700800, 500000, 5700800, 500000, 5700000]);
+  const ring = new Float64Array([
+    500000, 5700000, 500800, 5700000, 500800, 5700800, 500000, 5700800, 500000, 5700000,
+  ]);
   const field: Field = {
-    name: 'synthetic', lonlat: [], parts: [{ exterior: ring, holes: [] }],
+    name: 'synthetic',
+    lonlat: [],
+    parts: [{ exterior: ring, holes: [] }],
     utm: { zone: 13, south: false, epsg: 32613, proj4: '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs' },
-    areaM2: 640000, bbox: [500000, 5700000, 500800, 5700800],
+    areaM2: 640000,
+    bbox: [500000, 5700000, 500800, 5700800],
   };
   return { samples, field };
 }
@@ -227,7 +333,12 @@ describe('analyzeVariability on sulphate-S', () => {
     expect(r.semivariogram.np.length).toBeGreaterThan(3);
     expect(r.sampling.text).toMatch(/ac per sample/);
     // a surface with half its area below the threshold
-    const r2 = analyzeVariability(samples, field, {}, { values: [5, 30, 10, 40], fraction: [1, 1, 1, 1], cell: 400 });
+    const r2 = analyzeVariability(
+      samples,
+      field,
+      {},
+      { values: [5, 30, 10, 40], fraction: [1, 1, 1, 1], cell: 400 },
+    );
     expect(r2.shareBelow?.area).toBe(0.5);
     expect(r2.shareBelow?.areaAc).toBeCloseTo(320000 / 4046.8564224, 9);
   });
@@ -244,12 +355,26 @@ describe('analyzeVariability on sulphate-S', () => {
   it('charts carry titles, axis labels with units, legends and the low-sample marks', () => {
     const { samples, field } = syntheticField();
     const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
-    const sv = semivariogramSvg({ semivariogram: r.semivariogram, fits: r.fits, best: r.best, label: r.label, unit: r.unit });
+    const sv = semivariogramSvg({
+      semivariogram: r.semivariogram,
+      fits: r.fits,
+      best: r.best,
+      label: r.label,
+      unit: r.unit,
+    });
     expect(sv).toMatch(/^<svg[^>]+xmlns="http:\/\/www.w3.org\/2000\/svg"/);
     expect(sv).toContain('distance between samples (m)');
     expect(sv).toContain('semivariance (lb S/ac)²');
     expect(sv).toContain('(best fit)');
-    const map = sampleMapSvg({ parts: field.parts, xy: samples.xy, values: samples.values.so4_s, ids: samples.ids, label: r.label, unit: r.unit, threshold: 20 });
+    const map = sampleMapSvg({
+      parts: field.parts,
+      xy: samples.xy,
+      values: samples.values.so4_s,
+      ids: samples.ids,
+      label: r.label,
+      unit: r.unit,
+      threshold: 20,
+    });
     expect((map.match(/r="12" fill="none" stroke="#e31a1c"/g) ?? []).length).toBe(4 + 1); // 4 low rings + legend ring
     for (const l of r.low) expect(map).toContain(`${l.id}: `);
     expect(niceTicks(0, 1597, 6, true)).toEqual([0, 500, 1000, 1500, 2000]);
@@ -272,14 +397,30 @@ describe('text and map with a surface', () => {
   it('zone-composite samples are flagged', () => {
     const { samples, field } = syntheticField();
     samples.zone = samples.ids.map((_, i) => (i < 20 ? 'a' : 'b'));
-    expect(analyzeVariability(samples, field).warnings.map((w) => w.code)).toContain('variability.zone-composites');
+    expect(analyzeVariability(samples, field).warnings.map((w) => w.code)).toContain(
+      'variability.zone-composites',
+    );
   });
 
   it('a surface row of equal colours becomes one rectangle; cells outside the mask are not drawn', () => {
-    const grid = { xmin: 0, ymax: 20, cell: 10, cols: 3, rows: 2, mask: new Uint8Array([1, 1, 1, 1, 1, 0]), fraction: new Float32Array(6).fill(1) };
+    const grid = {
+      xmin: 0,
+      ymax: 20,
+      cell: 10,
+      cols: 3,
+      rows: 2,
+      mask: new Uint8Array([1, 1, 1, 1, 1, 0]),
+      fraction: new Float32Array(6).fill(1),
+    };
     const svg = sampleMapSvg({
-      parts: [{ exterior: new Float64Array([0, 0, 30, 0, 30, 20, 0, 20, 0, 0]), holes: [] }], xy: new Float64Array([5, 5]), values: [1], ids: ['A'],
-      label: 'x', unit: 'u', threshold: null, surface: { grid, values: [1, 1, 1, 1, 9, 9] },
+      parts: [{ exterior: new Float64Array([0, 0, 30, 0, 30, 20, 0, 20, 0, 0]), holes: [] }],
+      xy: new Float64Array([5, 5]),
+      values: [1],
+      ids: ['A'],
+      label: 'x',
+      unit: 'u',
+      threshold: null,
+      surface: { grid, values: [1, 1, 1, 1, 9, 9] },
     });
     // row 0: one run of three equal cells; row 1: two runs (1 and 9), the masked cell skipped
     const g = svg.slice(svg.indexOf('<g opacity'), svg.indexOf('</g>'));
@@ -312,12 +453,17 @@ describe('report charts', () => {
     const { samples, field } = syntheticField();
     const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
     const charts = variabilityReportCharts(r, samples, field);
-    expect(charts.map((c) => c.title)).toEqual(['Semivariogram of sulphate-S (0-24 in)', 'sulphate-S (0-24 in): low spots']);
+    expect(charts.map((c) => c.title)).toEqual([
+      'Semivariogram of sulphate-S (0-24 in)',
+      'sulphate-S (0-24 in): low spots',
+    ]);
     expect(charts[1].caption).toContain('S36');
     const inp = demoInput();
     inp.charts = charts;
     const html = renderReport(inp);
-    const uris = [...html.matchAll(/src="data:image\/svg\+xml;base64,([^"]+)"/g)].map((m) => Buffer.from(m[1], 'base64').toString('utf8'));
+    const uris = [...html.matchAll(/src="data:image\/svg\+xml;base64,([^"]+)"/g)].map((m) =>
+      Buffer.from(m[1], 'base64').toString('utf8'),
+    );
     expect(uris).toContain(charts[0].svg);
     expect(uris).toContain(charts[1].svg);
   });

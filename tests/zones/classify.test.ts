@@ -1,14 +1,28 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { classify, classifyVectors, jenksUppers, kmeans1d, majorityFilter, minZoneAreaM2 } from '../../src/zones/index.js';
+import {
+  classify,
+  classifyVectors,
+  jenksUppers,
+  kmeans1d,
+  majorityFilter,
+  minZoneAreaM2,
+} from '../../src/zones/index.js';
 
 /** Brute-force natural breaks: every way to cut sorted values into k runs, least total squared deviation. */
 function bruteJenks(sorted: number[], k: number): number {
-  const ssd = (a: number[]) => { const m = a.reduce((s, x) => s + x, 0) / a.length; return a.reduce((s, x) => s + (x - m) ** 2, 0); };
+  const ssd = (a: number[]) => {
+    const m = a.reduce((s, x) => s + x, 0) / a.length;
+    return a.reduce((s, x) => s + (x - m) ** 2, 0);
+  };
   let best = Infinity;
   const rec = (start: number, left: number, acc: number) => {
-    if (left === 1) { best = Math.min(best, acc + ssd(sorted.slice(start))); return; }
-    for (let e = start + 1; e <= sorted.length - left + 1; e++) rec(e, left - 1, acc + ssd(sorted.slice(start, e)));
+    if (left === 1) {
+      best = Math.min(best, acc + ssd(sorted.slice(start)));
+      return;
+    }
+    for (let e = start + 1; e <= sorted.length - left + 1; e++)
+      rec(e, left - 1, acc + ssd(sorted.slice(start, e)));
   };
   rec(0, k, 0);
   return best;
@@ -16,22 +30,39 @@ function bruteJenks(sorted: number[], k: number): number {
 
 const totalSsd = (values: number[], classOf: Int16Array) => {
   const groups = new Map<number, number[]>();
-  values.forEach((v, i) => { const c = classOf[i]; if (!groups.has(c)) groups.set(c, []); groups.get(c)!.push(v); });
+  values.forEach((v, i) => {
+    const c = classOf[i];
+    if (!groups.has(c)) groups.set(c, []);
+    groups.get(c)!.push(v);
+  });
   let s = 0;
-  for (const g of groups.values()) { const m = g.reduce((a, b) => a + b, 0) / g.length; for (const x of g) s += (x - m) ** 2; }
+  for (const g of groups.values()) {
+    const m = g.reduce((a, b) => a + b, 0) / g.length;
+    for (const x of g) s += (x - m) ** 2;
+  }
   return s;
 };
 
 describe('classify', () => {
   it('natural breaks reach the least within-class squared deviation (brute-force oracle)', () => {
-    fc.assert(fc.property(fc.array(fc.integer({ min: 0, max: 200 }), { minLength: 4, maxLength: 11 }), fc.integer({ min: 2, max: 4 }), (ints, k) => {
-      const values = ints.map((x) => x / 2);
-      const c = classify(Float64Array.from(values), { method: 'jenks', classes: k, step: 0 });
-      const distinct = new Set(values).size;
-      const want = bruteJenks([...new Set(values)].sort((a, b) => a - b).flatMap((v) => values.filter((x) => x === v)), Math.min(k, distinct));
-      expect(c.count).toBeLessThanOrEqual(k);
-      expect(totalSsd(values, c.classOf)).toBeCloseTo(want, 6);
-    }), { numRuns: 150 });
+    fc.assert(
+      fc.property(
+        fc.array(fc.integer({ min: 0, max: 200 }), { minLength: 4, maxLength: 11 }),
+        fc.integer({ min: 2, max: 4 }),
+        (ints, k) => {
+          const values = ints.map((x) => x / 2);
+          const c = classify(Float64Array.from(values), { method: 'jenks', classes: k, step: 0 });
+          const distinct = new Set(values).size;
+          const want = bruteJenks(
+            [...new Set(values)].sort((a, b) => a - b).flatMap((v) => values.filter((x) => x === v)),
+            Math.min(k, distinct),
+          );
+          expect(c.count).toBeLessThanOrEqual(k);
+          expect(totalSsd(values, c.classOf)).toBeCloseTo(want, 6);
+        },
+      ),
+      { numRuns: 150 },
+    );
   });
 
   it('jenks on a textbook-style split: two tight groups go to two classes', () => {
@@ -49,28 +80,41 @@ describe('classify', () => {
   });
 
   it('quantile classes hold equal shares of the area (weights)', () => {
-    fc.assert(fc.property(fc.array(fc.double({ min: 0, max: 100, noNaN: true }), { minLength: 40, maxLength: 200 }), (arr) => {
-      const v = Float64Array.from(arr);
-      const c = classify(v, { method: 'quantile', classes: 4, step: 0 });
-      // every class but ties stays within 1/4 of the count plus the largest tie
-      const ties = Math.max(...[...new Set(arr)].map((x) => arr.filter((y) => y === x).length));
-      for (const w of c.weight) expect(w).toBeLessThanOrEqual(arr.length / 4 + ties + 1);
-      expect(c.weight.reduce((a, b) => a + b, 0)).toBe(arr.length);
-    }), { numRuns: 60 });
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: 0, max: 100, noNaN: true }), { minLength: 40, maxLength: 200 }),
+        (arr) => {
+          const v = Float64Array.from(arr);
+          const c = classify(v, { method: 'quantile', classes: 4, step: 0 });
+          // every class but ties stays within 1/4 of the count plus the largest tie
+          const ties = Math.max(...[...new Set(arr)].map((x) => arr.filter((y) => y === x).length));
+          for (const w of c.weight) expect(w).toBeLessThanOrEqual(arr.length / 4 + ties + 1);
+          expect(c.weight.reduce((a, b) => a + b, 0)).toBe(arr.length);
+        },
+      ),
+      { numRuns: 60 },
+    );
   });
 
   it('k-means: every value sits in the class of its nearest centre, and NaN stays unclassed', () => {
-    fc.assert(fc.property(fc.array(fc.integer({ min: 0, max: 1000 }), { minLength: 5, maxLength: 300 }), (ints) => {
-      const v = Float64Array.from([...ints, NaN]);
-      const c = classify(v, { method: 'kmeans', classes: 5, step: 0 });
-      expect(c.classOf[v.length - 1]).toBe(-1);
-      const cs = kmeans1d([...new Set(ints)].sort((a, b) => a - b), [...new Set(ints)].sort((a, b) => a - b).map((x) => ints.filter((y) => y === x).length), 5);
-      for (let i = 0; i < ints.length; i++) {
-        const d = Math.abs(ints[i] - c.mean[c.classOf[i]]);
-        for (const m of c.mean) expect(d).toBeLessThanOrEqual(Math.abs(ints[i] - m) + 1e-9);
-      }
-      expect(cs.length).toBeGreaterThanOrEqual(c.count);
-    }), { numRuns: 60 });
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: 0, max: 1000 }), { minLength: 5, maxLength: 300 }), (ints) => {
+        const v = Float64Array.from([...ints, NaN]);
+        const c = classify(v, { method: 'kmeans', classes: 5, step: 0 });
+        expect(c.classOf[v.length - 1]).toBe(-1);
+        const cs = kmeans1d(
+          [...new Set(ints)].sort((a, b) => a - b),
+          [...new Set(ints)].sort((a, b) => a - b).map((x) => ints.filter((y) => y === x).length),
+          5,
+        );
+        for (let i = 0; i < ints.length; i++) {
+          const d = Math.abs(ints[i] - c.mean[c.classOf[i]]);
+          for (const m of c.mean) expect(d).toBeLessThanOrEqual(Math.abs(ints[i] - m) + 1e-9);
+        }
+        expect(cs.length).toBeGreaterThanOrEqual(c.count);
+      }),
+      { numRuns: 60 },
+    );
   });
 
   it('representative values are rounded to the step, and the binned summary keeps large grids exact enough', () => {
@@ -86,24 +130,38 @@ describe('classify', () => {
 
 describe('classifyVectors (one zone set for several products)', () => {
   it('separates well-separated groups whatever the units, orders classes by need, and skips NaN', () => {
-    fc.assert(fc.property(fc.integer({ min: 1, max: 1e6 }), fc.double({ min: 0.01, max: 1000, noNaN: true }), (seed, scale) => {
-      // three groups in (N lb/ac, S lb/ac x scale): low, middle, high need; S in arbitrary units must not matter
-      let s = seed;
-      const rnd = () => { s = (s * 1664525 + 1013904223) >>> 0; return s / 2 ** 32; };
-      const n = 300, nRate = new Float64Array(n + 1), sRate = new Float64Array(n + 1), group: number[] = [];
-      for (let i = 0; i < n; i++) {
-        const g = i % 3;
-        group.push(g);
-        nRate[i] = [40, 80, 120][g] + 4 * rnd();
-        sRate[i] = ([5, 10, 15][g] + 0.5 * rnd()) * scale;
-      }
-      nRate[n] = NaN; sRate[n] = 10;
-      const vc = classifyVectors([nRate, sRate], { classes: 3, steps: [5, 0] });
-      expect(vc.classOf[n]).toBe(-1);
-      expect(vc.count).toBe(3);
-      for (let i = 0; i < n; i++) expect(vc.classOf[i]).toBe(group[i]);
-      expect(vc.value.map((v) => v[0])).toEqual([40, 80, 120]); // means 42, 82, 122 rounded to 5
-    }), { numRuns: 40 });
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 1e6 }),
+        fc.double({ min: 0.01, max: 1000, noNaN: true }),
+        (seed, scale) => {
+          // three groups in (N lb/ac, S lb/ac x scale): low, middle, high need; S in arbitrary units must not matter
+          let s = seed;
+          const rnd = () => {
+            s = (s * 1664525 + 1013904223) >>> 0;
+            return s / 2 ** 32;
+          };
+          const n = 300,
+            nRate = new Float64Array(n + 1),
+            sRate = new Float64Array(n + 1),
+            group: number[] = [];
+          for (let i = 0; i < n; i++) {
+            const g = i % 3;
+            group.push(g);
+            nRate[i] = [40, 80, 120][g] + 4 * rnd();
+            sRate[i] = ([5, 10, 15][g] + 0.5 * rnd()) * scale;
+          }
+          nRate[n] = NaN;
+          sRate[n] = 10;
+          const vc = classifyVectors([nRate, sRate], { classes: 3, steps: [5, 0] });
+          expect(vc.classOf[n]).toBe(-1);
+          expect(vc.count).toBe(3);
+          for (let i = 0; i < n; i++) expect(vc.classOf[i]).toBe(group[i]);
+          expect(vc.value.map((v) => v[0])).toEqual([40, 80, 120]); // means 42, 82, 122 rounded to 5
+        },
+      ),
+      { numRuns: 40 },
+    );
   });
 });
 
@@ -117,7 +175,8 @@ describe('cleaning helpers', () => {
   });
 
   it('majority filter removes a lone cell and keeps a uniform raster', () => {
-    const cols = 5, rows = 5;
+    const cols = 5,
+      rows = 5;
     const a = new Int16Array(25).fill(1);
     a[12] = 3;
     const f = majorityFilter(a, cols, rows, 1);

@@ -8,64 +8,115 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import * as turf from '@turf/turf';
 import * as polyclip from 'polyclip-ts';
-import { arcsToParts, labelComponents, ringsVertexCount, robust, simplifyArcs, traceZones, zoneArcs } from '../../src/zones/index.js';
+import {
+  arcsToParts,
+  labelComponents,
+  ringsVertexCount,
+  robust,
+  simplifyArcs,
+  traceZones,
+  zoneArcs,
+} from '../../src/zones/index.js';
 import { partsArea } from '../../src/geo/area.js';
 import type { RingsPart } from '../../src/types.js';
 
-const geom = (parts: RingsPart[]) => parts.map((p) => [p.exterior, ...p.holes].map((r) => { const o: [number, number][] = []; for (let i = 0; i < r.length; i += 2) o.push([r[i], r[i + 1]]); return o; }));
-const area = (g: [number, number][][][]) => g.reduce((s, poly) => s + poly.reduce((t, r, k) => { let a = 0; for (let i = 0; i + 1 < r.length; i++) a += r[i][0] * r[i + 1][1] - r[i + 1][0] * r[i][1]; return t + (k === 0 ? 1 : -1) * Math.abs(a / 2); }, 0), 0);
+const geom = (parts: RingsPart[]) =>
+  parts.map((p) =>
+    [p.exterior, ...p.holes].map((r) => {
+      const o: [number, number][] = [];
+      for (let i = 0; i < r.length; i += 2) o.push([r[i], r[i + 1]]);
+      return o;
+    }),
+  );
+const area = (g: [number, number][][][]) =>
+  g.reduce(
+    (s, poly) =>
+      s +
+      poly.reduce((t, r, k) => {
+        let a = 0;
+        for (let i = 0; i + 1 < r.length; i++) a += r[i][0] * r[i + 1][1] - r[i + 1][0] * r[i][1];
+        return t + (k === 0 ? 1 : -1) * Math.abs(a / 2);
+      }, 0),
+    0,
+  );
 
 /** A class raster: smooth waves (long borders) plus a share of noise (speckle, corner contacts, islands). */
 function raster(cols: number, rows: number, seed: number, k: number, noise: number): Int16Array {
   let s = seed >>> 0;
-  const rnd = () => { s = (s * 1664525 + 1013904223) >>> 0; return s / 4294967296; };
-  const f1 = 0.05 + rnd() * 0.4, f2 = 0.05 + rnd() * 0.4, ph = rnd() * 6;
+  const rnd = () => {
+    s = (s * 1664525 + 1013904223) >>> 0;
+    return s / 4294967296;
+  };
+  const f1 = 0.05 + rnd() * 0.4,
+    f2 = 0.05 + rnd() * 0.4,
+    ph = rnd() * 6;
   const out = new Int16Array(cols * rows);
-  for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) {
-    const v = (Math.sin(c * f1 + ph) * Math.cos(r * f2) + 1) / 2;
-    out[r * cols + c] = rnd() < noise ? Math.floor(rnd() * k) : Math.min(k - 1, Math.floor(v * k));
-  }
+  for (let r = 0; r < rows; r++)
+    for (let c = 0; c < cols; c++) {
+      const v = (Math.sin(c * f1 + ph) * Math.cos(r * f2) + 1) / 2;
+      out[r * cols + c] = rnd() < noise ? Math.floor(rnd() * k) : Math.min(k - 1, Math.floor(v * k));
+    }
   return out;
 }
 
 describe('simplifying shared arcs', () => {
   it('keeps a planar partition: valid zones, union = the raster, areas add up, vertices within the tolerance', () => {
-    fc.assert(fc.property(fc.integer({ min: 3, max: 40 }), fc.integer({ min: 3, max: 40 }), fc.integer({ min: 1, max: 1e6 }), fc.integer({ min: 2, max: 4 }),
-      fc.constantFrom(0, 0.02, 0.2), fc.constantFrom(1, 1.5, 2.5, 4), (cols, rows, seed, k, noise, tol) => {
-        const { label, count } = labelComponents(raster(cols, rows, seed, k, noise), cols, rows);
-        const frame = { xmin: 0, ymax: 0, cell: 1, cols, rows };
-        const a = zoneArcs(label, count, frame);
-        // the staircase rebuilt from the arcs is the tracer's output
-        const stair = arcsToParts(a, simplifyArcs(a, 0), frame), traced = traceZones(label, count, frame);
-        for (let z = 0; z < count; z++) expect(partsArea(stair[z])).toBeCloseTo(partsArea(traced[z]), 9);
-        const smooth = simplifyArcs(a, tol);
-        expect(ringsVertexCount(a, smooth)).toBeLessThanOrEqual(ringsVertexCount(a, simplifyArcs(a, 0)));
-        const parts = arcsToParts(a, smooth, frame);
-        let sum = 0;
-        for (let z = 0; z < count; z++) {
-          expect(parts[z].length).toBeGreaterThan(0);
-          for (const poly of geom(parts[z])) expect(turf.booleanValid(turf.polygon(poly))).toBe(true);
-          sum += partsArea(parts[z]);
-        }
-        expect(sum).toBeCloseTo(cols * rows, 6);
-        const uni = robust(() => polyclip.union(geom(parts[0]) as polyclip.Geom, ...parts.slice(1).map((p) => geom(p) as polyclip.Geom))) as [number, number][][][];
-        expect(area(uni)).toBeCloseTo(cols * rows, 6);
-        // every staircase corner lies within the tolerance of its smoothed arc (distance to the nearest segment)
-        const W = cols + 1, xy = (key: number) => [key % W, Math.floor(key / W)];
-        a.arcs.forEach((orig, q) => {
-          const segs = smooth[q];
-          for (const key of orig) {
-            const [px, py] = xy(key);
-            let best = Infinity;
-            for (let t = 0; t + 1 < segs.length; t++) {
-              const [ax, ay] = xy(segs[t]), [bx, by] = xy(segs[t + 1]);
-              const dx = bx - ax, dy = by - ay, L = dx * dx + dy * dy;
-              const u = L > 0 ? Math.max(0, Math.min(1, ((px - ax) * dx + (py - ay) * dy) / L)) : 0;
-              best = Math.min(best, Math.hypot(ax + u * dx - px, ay + u * dy - py));
-            }
-            if (segs.length > 1) expect(best).toBeLessThanOrEqual(tol + 1e-9);
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 3, max: 40 }),
+        fc.integer({ min: 3, max: 40 }),
+        fc.integer({ min: 1, max: 1e6 }),
+        fc.integer({ min: 2, max: 4 }),
+        fc.constantFrom(0, 0.02, 0.2),
+        fc.constantFrom(1, 1.5, 2.5, 4),
+        (cols, rows, seed, k, noise, tol) => {
+          const { label, count } = labelComponents(raster(cols, rows, seed, k, noise), cols, rows);
+          const frame = { xmin: 0, ymax: 0, cell: 1, cols, rows };
+          const a = zoneArcs(label, count, frame);
+          // the staircase rebuilt from the arcs is the tracer's output
+          const stair = arcsToParts(a, simplifyArcs(a, 0), frame),
+            traced = traceZones(label, count, frame);
+          for (let z = 0; z < count; z++) expect(partsArea(stair[z])).toBeCloseTo(partsArea(traced[z]), 9);
+          const smooth = simplifyArcs(a, tol);
+          expect(ringsVertexCount(a, smooth)).toBeLessThanOrEqual(ringsVertexCount(a, simplifyArcs(a, 0)));
+          const parts = arcsToParts(a, smooth, frame);
+          let sum = 0;
+          for (let z = 0; z < count; z++) {
+            expect(parts[z].length).toBeGreaterThan(0);
+            for (const poly of geom(parts[z])) expect(turf.booleanValid(turf.polygon(poly))).toBe(true);
+            sum += partsArea(parts[z]);
           }
-        });
-      }), { numRuns: 120 });
+          expect(sum).toBeCloseTo(cols * rows, 6);
+          const uni = robust(() =>
+            polyclip.union(
+              geom(parts[0]) as polyclip.Geom,
+              ...parts.slice(1).map((p) => geom(p) as polyclip.Geom),
+            ),
+          ) as [number, number][][][];
+          expect(area(uni)).toBeCloseTo(cols * rows, 6);
+          // every staircase corner lies within the tolerance of its smoothed arc (distance to the nearest segment)
+          const W = cols + 1,
+            xy = (key: number) => [key % W, Math.floor(key / W)];
+          a.arcs.forEach((orig, q) => {
+            const segs = smooth[q];
+            for (const key of orig) {
+              const [px, py] = xy(key);
+              let best = Infinity;
+              for (let t = 0; t + 1 < segs.length; t++) {
+                const [ax, ay] = xy(segs[t]),
+                  [bx, by] = xy(segs[t + 1]);
+                const dx = bx - ax,
+                  dy = by - ay,
+                  L = dx * dx + dy * dy;
+                const u = L > 0 ? Math.max(0, Math.min(1, ((px - ax) * dx + (py - ay) * dy) / L)) : 0;
+                best = Math.min(best, Math.hypot(ax + u * dx - px, ay + u * dy - py));
+              }
+              if (segs.length > 1) expect(best).toBeLessThanOrEqual(tol + 1e-9);
+            }
+          });
+        },
+      ),
+      { numRuns: 120 },
+    );
   });
 });

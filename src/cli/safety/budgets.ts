@@ -23,19 +23,24 @@ const fmt = (n: number) => n.toLocaleString('en-US');
  * @example checkBuildCells(field.bbox, 0.5) // throws for a 800 m x 800 m field: 2,560,000 ... fits? no, see docs
  */
 export function checkBuildCells(bbox: readonly number[], cell: number, budget = BUILD_MAX_CELLS): void {
-  const w = bbox[2]! - bbox[0]!, h = bbox[3]! - bbox[1]!;
+  const w = bbox[2]! - bbox[0]!,
+    h = bbox[3]! - bbox[1]!;
   const cells = Math.ceil(w / cell) * Math.ceil(h / cell);
   if (cells <= budget) return;
   const fits = Math.ceil(Math.sqrt((w * h) / budget) * 10 + 1) / 10;
   throw new UserError(
     `the boundary spans ${(w / 1000).toFixed(2)} km x ${(h / 1000).toFixed(2)} km; ${cell} m cells make ${fmt(cells)} cells, more than the ${fmt(budget)} a build works on. ` +
-    `Fix: give --cell ${fits} or larger${w > 10_000 || h > 10_000 ? ', and check the boundary: are parts of it far apart (another field in the file)?' : ''}.`);
+      `Fix: give --cell ${fits} or larger${w > 10_000 || h > 10_000 ? ', and check the boundary: are parts of it far apart (another field in the file)?' : ''}.`,
+  );
 }
 
 /** Vertices of all rings of all parts. */
 export function vertexCount(parts: readonly RingsPart[]): number {
   let n = 0;
-  for (const p of parts) { n += p.exterior.length / 2; for (const h of p.holes) n += h.length / 2; }
+  for (const p of parts) {
+    n += p.exterior.length / 2;
+    for (const h of p.holes) n += h.length / 2;
+  }
   return n;
 }
 
@@ -43,10 +48,17 @@ export function vertexCount(parts: readonly RingsPart[]): number {
  * Refuses a boundary with more than {@link MAX_BOUNDARY_VERTICES} vertices, with the command that simplifies it.
  * @example checkBoundaryVertices(field, 'boundary.shp')
  */
-export function checkBoundaryVertices(field: Pick<Field, 'parts'>, file: string, budget = MAX_BOUNDARY_VERTICES): void {
+export function checkBoundaryVertices(
+  field: Pick<Field, 'parts'>,
+  file: string,
+  budget = MAX_BOUNDARY_VERTICES,
+): void {
   const n = vertexCount(field.parts);
   if (n <= budget) return;
-  throw new UserError(`${file}: the boundary has ${fmt(n)} vertices, more than the ${fmt(budget)} tilth works with. Fix: simplify it to about 0.2 m, e.g. \`ogr2ogr -simplify 0.2 simple.shp ${file}\` (GDAL) in a projected system, and pass the simplified file.`, { file });
+  throw new UserError(
+    `${file}: the boundary has ${fmt(n)} vertices, more than the ${fmt(budget)} tilth works with. Fix: simplify it to about 0.2 m, e.g. \`ogr2ogr -simplify 0.2 simple.shp ${file}\` (GDAL) in a projected system, and pass the simplified file.`,
+    { file },
+  );
 }
 
 /**
@@ -56,13 +68,26 @@ export function checkBoundaryVertices(field: Pick<Field, 'parts'>, file: string,
  */
 export function checkLags(xy: Float64Array, cutoff: number | undefined, width: number | undefined): void {
   const n = xy.length / 2;
-  if ((n * (n - 1)) / 2 > MAX_PAIRS) throw new UserError(`${fmt(n)} samples make ${fmt(Math.round((n * (n - 1)) / 2))} pairs, more than the ${fmt(MAX_PAIRS)} a semivariogram compares. Fix: use a subset of the samples.`);
+  if ((n * (n - 1)) / 2 > MAX_PAIRS)
+    throw new UserError(
+      `${fmt(n)} samples make ${fmt(Math.round((n * (n - 1)) / 2))} pairs, more than the ${fmt(MAX_PAIRS)} a semivariogram compares. Fix: use a subset of the samples.`,
+    );
   if (width === undefined) return;
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (let i = 0; i < n; i++) { x0 = Math.min(x0, xy[2 * i]!); x1 = Math.max(x1, xy[2 * i]!); y0 = Math.min(y0, xy[2 * i + 1]!); y1 = Math.max(y1, xy[2 * i + 1]!); }
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
+  for (let i = 0; i < n; i++) {
+    x0 = Math.min(x0, xy[2 * i]!);
+    x1 = Math.max(x1, xy[2 * i]!);
+    y0 = Math.min(y0, xy[2 * i + 1]!);
+    y1 = Math.max(y1, xy[2 * i + 1]!);
+  }
   const c = cutoff ?? Math.hypot(x1 - x0, y1 - y0) / 3;
   if (c / width > MAX_LAGS) {
-    throw new UserError(`option --width ${width}: ${c.toFixed(0)} m of cutoff in lags of ${width} m make ${fmt(Math.floor(c / width) + 1)} lags, more than ${fmt(MAX_LAGS)}. Fix: give --width ${Math.ceil((c / MAX_LAGS) * 100) / 100} or more (the default is cutoff / 15).`);
+    throw new UserError(
+      `option --width ${width}: ${c.toFixed(0)} m of cutoff in lags of ${width} m make ${fmt(Math.floor(c / width) + 1)} lags, more than ${fmt(MAX_LAGS)}. Fix: give --width ${Math.ceil((c / MAX_LAGS) * 100) / 100} or more (the default is cutoff / 15).`,
+    );
   }
 }
 
@@ -70,9 +95,16 @@ export function checkLags(xy: Float64Array, cutoff: number | undefined, width: n
  * Options that contradict each other are usage errors.
  * @example checkOrder('--min', 300, '--max', 10) // throws
  */
-export function checkOrder(loName: string, lo: number | undefined, hiName: string, hi: number | undefined): void {
+export function checkOrder(
+  loName: string,
+  lo: number | undefined,
+  hiName: string,
+  hi: number | undefined,
+): void {
   if (lo !== undefined && hi !== undefined && lo > hi) {
-    throw new UserError(`options ${loName} ${lo} and ${hiName} ${hi} contradict each other (${loName} is above ${hiName}). Fix: swap them, or correct one.`);
+    throw new UserError(
+      `options ${loName} ${lo} and ${hiName} ${hi} contradict each other (${loName} is above ${hiName}). Fix: swap them, or correct one.`,
+    );
   }
 }
 
@@ -80,14 +112,27 @@ export function checkOrder(loName: string, lo: number | undefined, hiName: strin
  * Boundary parts (1-based) farther than `maxM` from every sample: the samples say nothing about them.
  * @example farParts(field.parts, samples.xy) // [2] when part 2 is another field 800 km away
  */
-export function farParts(parts: readonly RingsPart[], xy: Float64Array, maxM = MAX_UNSAMPLED_DISTANCE_M): number[] {
+export function farParts(
+  parts: readonly RingsPart[],
+  xy: Float64Array,
+  maxM = MAX_UNSAMPLED_DISTANCE_M,
+): number[] {
   const far: number[] = [];
   parts.forEach((p, k) => {
-    let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-    for (let i = 0; i < p.exterior.length; i += 2) { x0 = Math.min(x0, p.exterior[i]!); x1 = Math.max(x1, p.exterior[i]!); y0 = Math.min(y0, p.exterior[i + 1]!); y1 = Math.max(y1, p.exterior[i + 1]!); }
+    let x0 = Infinity,
+      y0 = Infinity,
+      x1 = -Infinity,
+      y1 = -Infinity;
+    for (let i = 0; i < p.exterior.length; i += 2) {
+      x0 = Math.min(x0, p.exterior[i]!);
+      x1 = Math.max(x1, p.exterior[i]!);
+      y0 = Math.min(y0, p.exterior[i + 1]!);
+      y1 = Math.max(y1, p.exterior[i + 1]!);
+    }
     let near = false;
     for (let i = 0; i < xy.length && !near; i += 2) {
-      const dx = Math.max(x0 - xy[i]!, 0, xy[i]! - x1), dy = Math.max(y0 - xy[i + 1]!, 0, xy[i + 1]! - y1);
+      const dx = Math.max(x0 - xy[i]!, 0, xy[i]! - x1),
+        dy = Math.max(y0 - xy[i + 1]!, 0, xy[i + 1]! - y1);
       near = Math.hypot(dx, dy) <= maxM;
     }
     if (!near) far.push(k + 1);

@@ -18,7 +18,10 @@ let counter = 0;
 
 /** A fresh temporary path beside `target` for the new output or the set-aside old one. */
 export function tempPath(target: string, kind: 'new' | 'old'): string {
-  return join(dirname(target), `.tilth-${kind}-${nameKey(target)}-${process.pid}-${Date.now().toString(36)}${counter++}`);
+  return join(
+    dirname(target),
+    `.tilth-${kind}-${nameKey(target)}-${process.pid}-${Date.now().toString(36)}${counter++}`,
+  );
 }
 
 function alive(pid: number): boolean {
@@ -59,14 +62,21 @@ export function recoverLeftovers(target: string): string[] {
   const notes: string[] = [];
   const mine = found.filter((f) => {
     const ok = ownership(f.path).ours;
-    if (!ok) notes.push(`left alone ${f.path}: it looks like an interrupted tilth output but holds files tilth did not write; look at it and remove it yourself`);
+    if (!ok)
+      notes.push(
+        `left alone ${f.path}: it looks like an interrupted tilth output but holds files tilth did not write; look at it and remove it yourself`,
+      );
     return ok;
   });
   if (!existsSync(target)) {
-    const complete = mine.find((f) => f.kind === 'new' && readMarker(f.path)?.state === 'complete') ?? mine.find((f) => f.kind === 'old');
+    const complete =
+      mine.find((f) => f.kind === 'new' && readMarker(f.path)?.state === 'complete') ??
+      mine.find((f) => f.kind === 'old');
     if (complete) {
       renameSync(complete.path, target);
-      notes.push(`restored ${target} from ${complete.kind === 'new' ? 'the complete new output' : 'the previous output'} of an interrupted replace`);
+      notes.push(
+        `restored ${target} from ${complete.kind === 'new' ? 'the complete new output' : 'the previous output'} of an interrupted replace`,
+      );
       mine.splice(mine.indexOf(complete), 1);
     }
   }

@@ -28,7 +28,8 @@ export interface OutputDirOptions {
   say?: (line: string) => void;
 }
 
-const toOptions = (o: boolean | OutputDirOptions | undefined): OutputDirOptions => (typeof o === 'object' ? o : { force: !!o });
+const toOptions = (o: boolean | OutputDirOptions | undefined): OutputDirOptions =>
+  typeof o === 'object' ? o : { force: !!o };
 
 function statOrUndefined(path: string, shown: string): Stats | undefined {
   try {
@@ -36,7 +37,10 @@ function statOrUndefined(path: string, shown: string): Stats | undefined {
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     if (code === 'ENOENT') return undefined;
-    throw new UserError(`cannot look at the output "${shown}" (${fsReason(e)}). Fix: choose another location for --out.`, { file: shown });
+    throw new UserError(
+      `cannot look at the output "${shown}" (${fsReason(e)}). Fix: choose another location for --out.`,
+      { file: shown },
+    );
   }
 }
 
@@ -46,35 +50,59 @@ function statOrUndefined(path: string, shown: string): Stats | undefined {
  * @returns the resolved output path and whether it exists
  * @example checkOutputDir('rx', { force: true, inputs: ['samples.csv'] })
  */
-export function checkOutputDir(dir: string, opts: boolean | OutputDirOptions = {}): { target: string; exists: boolean } {
+export function checkOutputDir(
+  dir: string,
+  opts: boolean | OutputDirOptions = {},
+): { target: string; exists: boolean } {
   const { force, inputs } = toOptions(opts);
   if (dir.trim() === '') throw new UserError('--out is empty. Fix: give a folder name, e.g. --out rx-out.');
   const target = resolveOutputPath(dir);
   refuseProtectedFolder(target, dir, inputs);
   const st = statOrUndefined(target, dir);
   if (!st) return { target, exists: false };
-  if (!st.isDirectory()) throw new UserError(`output "${dir}" is a file, not a folder. Fix: give --out a folder path (it will be created).`, { file: dir });
+  if (!st.isDirectory())
+    throw new UserError(
+      `output "${dir}" is a file, not a folder. Fix: give --out a folder path (it will be created).`,
+      { file: dir },
+    );
   let own;
   try {
     own = ownership(target);
   } catch (e) {
-    throw new UserError(`cannot look inside the output folder "${dir}" (${fsReason(e)}). Fix: choose another folder for --out.`, { file: dir });
+    throw new UserError(
+      `cannot look inside the output folder "${dir}" (${fsReason(e)}). Fix: choose another folder for --out.`,
+      { file: dir },
+    );
   }
   if (own.empty) return { target, exists: true };
   if (!own.ours) {
-    const list = own.tooBig ? 'more files than an output folder holds' : own.foreign.slice(0, 5).join(', ') + (own.foreign.length > 5 ? ` and ${own.foreign.length - 5} more` : '');
+    const list = own.tooBig
+      ? 'more files than an output folder holds'
+      : own.foreign.slice(0, 5).join(', ') +
+        (own.foreign.length > 5 ? ` and ${own.foreign.length - 5} more` : '');
     throw new UserError(
       `output folder "${dir}" holds files tilth did not write (${list}); tilth replaces only an empty folder or one it wrote itself. ` +
-      'Fix: give --out a new folder, or move those files out of it first.', { file: dir });
+        'Fix: give --out a new folder, or move those files out of it first.',
+      { file: dir },
+    );
   }
-  if (!force) throw new UserError(`output folder "${dir}" is not empty (it holds an earlier tilth output). Fix: add --force to replace it, or choose a new folder.`, { file: dir });
+  if (!force)
+    throw new UserError(
+      `output folder "${dir}" is not empty (it holds an earlier tilth output). Fix: add --force to replace it, or choose a new folder.`,
+      { file: dir },
+    );
   return { target, exists: true };
 }
 
 /** Writes every file and the marker into a fresh temporary folder beside the target. */
 function writeTemp(target: string, files: Map<string, string | Uint8Array>): string {
   for (const rel of files.keys()) {
-    if (isAbsolute(rel) || rel.split(/[\\/]/).some((s) => s === '..' || s === '' || s === '.') || rel === MARKER) throw new Error(`bad output path ${rel}`);
+    if (
+      isAbsolute(rel) ||
+      rel.split(/[\\/]/).some((s) => s === '..' || s === '' || s === '.') ||
+      rel === MARKER
+    )
+      throw new Error(`bad output path ${rel}`);
   }
   const tmp = tempPath(target, 'new');
   mkdirSync(tmp);
@@ -105,7 +133,9 @@ function swapIn(tmp: string, target: string, exists: boolean, say: (s: string) =
   try {
     removeOwnFolder(old);
   } catch (e) {
-    say(`warning: the new output is in place, but the previous one, set aside as ${old}, could not be deleted (${fsReason(e)}); delete it yourself.`);
+    say(
+      `warning: the new output is in place, but the previous one, set aside as ${old}, could not be deleted (${fsReason(e)}); delete it yourself.`,
+    );
   }
 }
 
@@ -117,7 +147,11 @@ function swapIn(tmp: string, target: string, exists: boolean, say: (s: string) =
  * @param opts `force` to replace an earlier tilth output; `inputs` to refuse a folder holding one (default none)
  * @example writeOutputDir('rx', new Map([['zones.csv', csv]]), { force: true, inputs: ['samples.csv'] })
  */
-export function writeOutputDir(dir: string, files: Map<string, string | Uint8Array>, opts: boolean | OutputDirOptions = {}): void {
+export function writeOutputDir(
+  dir: string,
+  files: Map<string, string | Uint8Array>,
+  opts: boolean | OutputDirOptions = {},
+): void {
   const o = toOptions(opts);
   const say = o.say ?? ((s: string) => process.stderr.write(s + '\n'));
   let target = resolveOutputPath(dir);
@@ -126,7 +160,10 @@ export function writeOutputDir(dir: string, files: Map<string, string | Uint8Arr
     for (const note of recoverLeftovers(target)) say(`tilth: ${note}`);
   } catch (e) {
     if (!isFsUserProblem(e)) throw e;
-    throw new UserError(`cannot create the folder "${dirname(target)}" for --out "${dir}" (${fsReason(e)}). Fix: choose a writable location for --out; nothing was written.`, { file: dir });
+    throw new UserError(
+      `cannot create the folder "${dirname(target)}" for --out "${dir}" (${fsReason(e)}). Fix: choose a writable location for --out; nothing was written.`,
+      { file: dir },
+    );
   }
   const checked = checkOutputDir(dir, o);
   target = checked.target;
@@ -137,6 +174,9 @@ export function writeOutputDir(dir: string, files: Map<string, string | Uint8Arr
   } catch (e) {
     if (tmp) rmSync(tmp, { recursive: true, force: true });
     if (isUserError(e) || !isFsUserProblem(e)) throw e;
-    throw new UserError(`cannot write the output folder "${dir}" (${fsReason(e)}). Fix: choose a writable location for --out; nothing was written${checked.exists ? ' and the existing folder is unchanged' : ''}.`, { file: dir });
+    throw new UserError(
+      `cannot write the output folder "${dir}" (${fsReason(e)}). Fix: choose a writable location for --out; nothing was written${checked.exists ? ' and the existing folder is unchanged' : ''}.`,
+      { file: dir },
+    );
   }
 }

@@ -3,7 +3,16 @@
  * never over an input (or a file of an input shapefile set), never over an existing file tilth did not write
  * unless `--force`, through a symbolic link rather than over it, to a temporary name and then renamed.
  */
-import { mkdirSync, openSync, readSync, closeSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import {
+  mkdirSync,
+  openSync,
+  readSync,
+  closeSync,
+  renameSync,
+  rmSync,
+  statSync,
+  writeFileSync,
+} from 'node:fs';
 import { dirname, join } from 'node:path';
 import { UserError } from '../../errors.js';
 import { fsReason, isFsUserProblem } from './errno.js';
@@ -47,10 +56,18 @@ export function checkOutputFile(path: string, opts: OutputFileOptions = {}): str
     st = statSync(target);
   } catch (e) {
     if ((e as NodeJS.ErrnoException).code === 'ENOENT') return target;
-    throw new UserError(`cannot look at the output "${path}" (${fsReason(e)}). Fix: choose another location for ${flag}.`, { file: path });
+    throw new UserError(
+      `cannot look at the output "${path}" (${fsReason(e)}). Fix: choose another location for ${flag}.`,
+      { file: path },
+    );
   }
-  if (st.isDirectory()) throw new UserError(`output "${path}" is a folder. Fix: give ${flag} a file name.`, { file: path });
-  if (!st.isFile()) throw new UserError(`output "${path}" is not a regular file (a device or pipe?). Fix: give ${flag} a file name.`, { file: path });
+  if (st.isDirectory())
+    throw new UserError(`output "${path}" is a folder. Fix: give ${flag} a file name.`, { file: path });
+  if (!st.isFile())
+    throw new UserError(
+      `output "${path}" is not a regular file (a device or pipe?). Fix: give ${flag} a file name.`,
+      { file: path },
+    );
   if (opts.force) return target;
   let mine = false;
   try {
@@ -58,7 +75,11 @@ export function checkOutputFile(path: string, opts: OutputFileOptions = {}): str
   } catch {
     mine = false;
   }
-  if (!mine) throw new UserError(`output "${path}" already exists and tilth did not write it. Fix: choose another name, or add --force to replace it.`, { file: path });
+  if (!mine)
+    throw new UserError(
+      `output "${path}" already exists and tilth did not write it. Fix: choose another name, or add --force to replace it.`,
+      { file: path },
+    );
   return target;
 }
 
@@ -83,15 +104,25 @@ export function writeFileAtomic(path: string, data: string | Uint8Array, shown =
     mkdirSync(dir, { recursive: true });
   } catch (e) {
     if (!isFsUserProblem(e)) throw e;
-    throw new UserError(`cannot create the output folder "${dir}" (${fsReason(e)}). Fix: choose a writable location; nothing was written.`, { file: shown });
+    throw new UserError(
+      `cannot create the output folder "${dir}" (${fsReason(e)}). Fix: choose a writable location; nothing was written.`,
+      { file: shown },
+    );
   }
   const tmp = join(dir, `.tilth-${process.pid}-${Date.now().toString(36)}.tmp`);
   try {
     writeFileSync(tmp, data);
     renameSync(tmp, target);
   } catch (e) {
-    try { rmSync(tmp, { force: true }); } catch { /* the message below says what happened */ }
+    try {
+      rmSync(tmp, { force: true });
+    } catch {
+      /* the message below says what happened */
+    }
     if (!isFsUserProblem(e)) throw e;
-    throw new UserError(`cannot write "${shown}" (${fsReason(e)}). Fix: choose a writable location; nothing was written.`, { file: shown });
+    throw new UserError(
+      `cannot write "${shown}" (${fsReason(e)}). Fix: choose a writable location; nothing was written.`,
+      { file: shown },
+    );
   }
 }

@@ -33,7 +33,12 @@ export function markerText(files: Iterable<string>, state: Marker['state']): str
 export function readMarker(dir: string): Marker | null {
   try {
     const m = JSON.parse(readFileSync(join(dir, MARKER), 'utf8')) as Partial<Marker>;
-    if (typeof m.tilth !== 'string' || !Array.isArray(m.files) || !m.files.every((f) => typeof f === 'string')) return null;
+    if (
+      typeof m.tilth !== 'string' ||
+      !Array.isArray(m.files) ||
+      !m.files.every((f) => typeof f === 'string')
+    )
+      return null;
     if (m.state !== 'writing' && m.state !== 'complete') return null;
     return m as Marker;
   } catch {
@@ -61,12 +66,24 @@ export function listFiles(dir: string): string[] | null {
 
 /** File names an earlier tilth (without the marker) wrote in a build or variability folder. */
 const LEGACY = [
-  /^prescription(-[^/]+)?\.geojson$/, /^zones\.csv$/, /^summary\.json$/, /^report\.html$/, /^report-data\.json$/,
-  /^shapefiles\/[^/]+\.(shp|shx|dbf|prj|cpg|zip|txt)$/, /^[a-z0-9_]+-(semivariogram|map)\.svg$/, /^variability\.json$/,
+  /^prescription(-[^/]+)?\.geojson$/,
+  /^zones\.csv$/,
+  /^summary\.json$/,
+  /^report\.html$/,
+  /^report-data\.json$/,
+  /^shapefiles\/[^/]+\.(shp|shx|dbf|prj|cpg|zip|txt)$/,
+  /^[a-z0-9_]+-(semivariogram|map)\.svg$/,
+  /^variability\.json$/,
 ];
 
 function legacyOwned(dir: string, files: string[]): boolean {
-  const read = (f: string) => { try { return JSON.parse(readFileSync(join(dir, f), 'utf8')) as Record<string, unknown>; } catch { return null; } };
+  const read = (f: string) => {
+    try {
+      return JSON.parse(readFileSync(join(dir, f), 'utf8')) as Record<string, unknown>;
+    } catch {
+      return null;
+    }
+  };
   let proof = false;
   if (files.includes('summary.json')) {
     const s = read('summary.json');
@@ -98,7 +115,8 @@ export interface Ownership {
 export function ownership(dir: string): Ownership {
   const files = listFiles(dir);
   if (files === null) return { ours: false, empty: false, foreign: [], tooBig: true };
-  if (files.length === 0 && readdirSync(dir).length === 0) return { ours: true, empty: true, foreign: [], tooBig: false };
+  if (files.length === 0 && readdirSync(dir).length === 0)
+    return { ours: true, empty: true, foreign: [], tooBig: false };
   const marker = readMarker(dir);
   if (marker) {
     const listed = new Set([...marker.files, MARKER]);
@@ -106,7 +124,12 @@ export function ownership(dir: string): Ownership {
     return { ours: foreign.length === 0, empty: false, foreign, tooBig: false };
   }
   if (legacyOwned(dir, files)) return { ours: true, empty: false, foreign: [], tooBig: false };
-  return { ours: false, empty: false, foreign: files.length ? files : ['(empty sub-folders)'], tooBig: false };
+  return {
+    ours: false,
+    empty: false,
+    foreign: files.length ? files : ['(empty sub-folders)'],
+    tooBig: false,
+  };
 }
 
 /**
@@ -115,6 +138,7 @@ export function ownership(dir: string): Ownership {
  * @example removeOwnFolder('/fields/.tilth-old-3f2a9c0d1e-4242-lq0')
  */
 export function removeOwnFolder(dir: string): void {
-  for (const name of readdirSync(dir)) if (name !== MARKER) rmSync(join(dir, name), { recursive: true, force: true });
+  for (const name of readdirSync(dir))
+    if (name !== MARKER) rmSync(join(dir, name), { recursive: true, force: true });
   rmSync(dir, { recursive: true, force: true });
 }

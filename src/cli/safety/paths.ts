@@ -27,7 +27,10 @@ export function resolveOutputPath(path: string): string {
     if (!st.isSymbolicLink()) return realParent(p);
     p = resolve(dirname(p), readlinkSync(p));
   }
-  throw new UserError(`output "${path}" is a chain of more than ${MAX_LINKS} symbolic links (or a loop). Fix: give --out a real folder.`, { file: path });
+  throw new UserError(
+    `output "${path}" is a chain of more than ${MAX_LINKS} symbolic links (or a loop). Fix: give --out a real folder.`,
+    { file: path },
+  );
 }
 
 /** The path with its parent folder's links resolved as far as the parent exists. */
@@ -68,19 +71,31 @@ export function isInside(inner: string, outer: string): boolean {
  */
 export function refuseProtectedFolder(target: string, shown: string, inputs: readonly string[] = []): void {
   const fix = 'Fix: give --out a new folder of its own, e.g. --out rx-out.';
-  if (dirname(target) === target) throw new UserError(`--out "${shown}" is the root folder /; tilth never writes its outputs there. ${fix}`, { file: shown });
+  if (dirname(target) === target)
+    throw new UserError(
+      `--out "${shown}" is the root folder /; tilth never writes its outputs there. ${fix}`,
+      { file: shown },
+    );
   const cwd = realOrResolved(process.cwd());
   if (isInside(cwd, target)) {
     const what = cwd === target ? 'the current folder' : `a folder above the current folder (${cwd})`;
-    throw new UserError(`--out "${shown}" is ${what}; replacing it would delete your own files. ${fix}`, { file: shown });
+    throw new UserError(`--out "${shown}" is ${what}; replacing it would delete your own files. ${fix}`, {
+      file: shown,
+    });
   }
   const home = realOrResolved(homedir());
   if (isInside(home, target)) {
-    throw new UserError(`--out "${shown}" is ${home === target ? 'your home folder' : `a folder above your home folder (${home})`}. ${fix}`, { file: shown });
+    throw new UserError(
+      `--out "${shown}" is ${home === target ? 'your home folder' : `a folder above your home folder (${home})`}. ${fix}`,
+      { file: shown },
+    );
   }
   for (const input of inputs) {
     if (isInside(realOrResolved(input), target)) {
-      throw new UserError(`--out "${shown}" holds the input file "${input}"; replacing the folder would delete it. ${fix}`, { file: shown });
+      throw new UserError(
+        `--out "${shown}" holds the input file "${input}"; replacing the folder would delete it. ${fix}`,
+        { file: shown },
+      );
     }
   }
 }
@@ -96,9 +111,13 @@ export function refuseInputFile(target: string, shown: string, inputs: readonly 
   for (const input of inputs) {
     const real = realOrResolved(input);
     const same = [real];
-    if (/\.shp$/i.test(real)) for (const ext of SIDECARS) same.push(real.slice(0, -4) + ext, real.slice(0, -4) + ext.toUpperCase());
+    if (/\.shp$/i.test(real))
+      for (const ext of SIDECARS) same.push(real.slice(0, -4) + ext, real.slice(0, -4) + ext.toUpperCase());
     if (same.some((p) => p.toLowerCase() === target.toLowerCase() && dirname(p) === dirname(target))) {
-      throw new UserError(`output "${shown}" is the input file "${input}"${real === target ? '' : ' (or a file of its shapefile set)'}; writing it would destroy the input. Fix: choose another output name.`, { file: shown });
+      throw new UserError(
+        `output "${shown}" is the input file "${input}"${real === target ? '' : ' (or a file of its shapefile set)'}; writing it would destroy the input. Fix: choose another output name.`,
+        { file: shown },
+      );
     }
   }
 }

@@ -24,7 +24,14 @@ export const PLAUSIBLE: Record<Analyte, { min: number; max: number; unit: string
 /** Modified Kelowna P reads higher than Olsen: up to 300 ppm. */
 export const PLAUSIBLE_P_KELOWNA_MAX = 300;
 
-const NAMES: Record<Analyte, string> = { no3_n: 'nitrate-N', p: 'P', k: 'K', so4_s: 'sulphate-S', om: 'organic matter', ph: 'pH' };
+const NAMES: Record<Analyte, string> = {
+  no3_n: 'nitrate-N',
+  p: 'P',
+  k: 'K',
+  so4_s: 'sulphate-S',
+  om: 'organic matter',
+  ph: 'pH',
+};
 
 /**
  * Values outside {@link PLAUSIBLE}, one message each (at most `limit`), naming the sample, its row and the fix.
@@ -41,7 +48,9 @@ export function implausibleValues(s: Samples, limit = 5): string[] {
     for (let i = 0; i < v.length && out.length < limit; i++) {
       const x = v[i]!;
       if (Number.isNaN(x) || (x >= r.min && x <= max)) continue;
-      out.push(`${s.origin[i] ?? `sample ${i + 1}`}, sample "${s.ids[i]}": ${NAMES[a]} ${x} ${unit} is outside the plausible ${r.min}-${max} (common practice); a typing or unit error? Fix: correct the value, or leave the cell empty if it was not tested.`);
+      out.push(
+        `${s.origin[i] ?? `sample ${i + 1}`}, sample "${s.ids[i]}": ${NAMES[a]} ${x} ${unit} is outside the plausible ${r.min}-${max} (common practice); a typing or unit error? Fix: correct the value, or leave the cell empty if it was not tested.`,
+      );
     }
   }
   return out;
@@ -63,7 +72,8 @@ export const OUTLIER_Z = 5;
 
 /** Also required: a factor of {@link OUTLIER_FACTOR} from the neighbours' median (pH: 1.5 units), so natural hot spots (saline sulphate, a manure strip) pass. */
 export const OUTLIER_FACTOR = 3;
-const farOff = (a: Analyte, v: number, med: number) => (a === 'ph' ? Math.abs(v - med) > 1.5 : v > OUTLIER_FACTOR * med || v * OUTLIER_FACTOR < med);
+const farOff = (a: Analyte, v: number, med: number) =>
+  a === 'ph' ? Math.abs(v - med) > 1.5 : v > OUTLIER_FACTOR * med || v * OUTLIER_FACTOR < med;
 
 /**
  * A robust neighbour test: each value's residual from the median of its {@link OUTLIER_NEIGHBOURS} nearest
@@ -104,10 +114,19 @@ export function neighbourOutliers(s: Samples, file: string): Warning[] {
     const scale = 1.4826 * median(abs);
     if (!(scale > 0)) continue;
     const named: string[] = [];
-    for (let i = 0; i < n; i++) if (Math.abs(res[i]!) / scale > OUTLIER_Z && farOff(a, v[i]!, v[i]! - res[i]!)) named.push(`"${s.ids[i]}" (${raw[i]}, neighbours' median ${Math.round((v[i]! - res[i]!) * 100) / 100})`);
+    for (let i = 0; i < n; i++)
+      if (Math.abs(res[i]!) / scale > OUTLIER_Z && farOff(a, v[i]!, v[i]! - res[i]!))
+        named.push(
+          `"${s.ids[i]}" (${raw[i]}, neighbours' median ${Math.round((v[i]! - res[i]!) * 100) / 100})`,
+        );
     if (named.length) {
-      warnings.push({ code: 'neighbour-outlier', file, field: a, where: named.join('; '),
-        message: `${file}: ${NAMES[a]} of sample${named.length > 1 ? 's' : ''} ${named.slice(0, 5).join(', ')}${named.length > 5 ? ` and ${named.length - 5} more` : ''} differ${named.length > 1 ? '' : 's'} from ${named.length > 1 ? 'their' : 'its'} ${OUTLIER_NEIGHBOURS} nearest samples by more than ${OUTLIER_Z} robust standard deviations (neighbour outlier test); it is kept. Check the lab report and the bag labels; if it is wrong, correct or remove it.` });
+      warnings.push({
+        code: 'neighbour-outlier',
+        file,
+        field: a,
+        where: named.join('; '),
+        message: `${file}: ${NAMES[a]} of sample${named.length > 1 ? 's' : ''} ${named.slice(0, 5).join(', ')}${named.length > 5 ? ` and ${named.length - 5} more` : ''} differ${named.length > 1 ? '' : 's'} from ${named.length > 1 ? 'their' : 'its'} ${OUTLIER_NEIGHBOURS} nearest samples by more than ${OUTLIER_Z} robust standard deviations (neighbour outlier test); it is kept. Check the lab report and the bag labels; if it is wrong, correct or remove it.`,
+      });
     }
   }
   return warnings;

@@ -11,7 +11,14 @@ import { implausibleValues, neighbourOutliers } from './plausible.js';
 /** Samples all within this distance of each other count as one place: 1 m (GPS error of a sampling probe). */
 export const ONE_PLACE_M = 1;
 
-const NAMES: Record<string, string> = { no3_n: 'nitrate-N', p: 'P', k: 'K', so4_s: 'sulphate-S', om: 'organic matter', ph: 'pH' };
+const NAMES: Record<string, string> = {
+  no3_n: 'nitrate-N',
+  p: 'P',
+  k: 'K',
+  so4_s: 'sulphate-S',
+  om: 'organic matter',
+  ph: 'pH',
+};
 const SOIL_NUTRIENTS: Analyte[] = ['no3_n', 'p', 'k', 'so4_s'];
 
 /** Soil values a plan's strategy reads (a strategy of `none`, or P by removal, reads none). */
@@ -33,28 +40,53 @@ const usable = (v: Float64Array) => v.some((x) => Number.isFinite(x));
  *   (inspect: at least one soil nutrient)
  * @example readinessProblems(inputs, plan, 'samples.csv') // ['samples.csv: no usable K value, and the plan's K strategy needs one ...']
  */
-export function readinessProblems(inputs: FieldInputs, need: Plan | Analyte | null, samplesFile = 'the samples file'): string[] {
+export function readinessProblems(
+  inputs: FieldInputs,
+  need: Plan | Analyte | null,
+  samplesFile = 'the samples file',
+): string[] {
   const out: string[] = [];
   const v = inputs.samples.values;
   if (typeof need === 'string') {
-    if (!v[need] || !usable(v[need])) out.push(`${samplesFile}: no usable ${NAMES[need] ?? need} value (no such column was recognised, or every value is empty). Fix: check the header row (see \`tilth inspect\`), or map the column with --columns.`);
+    if (!v[need] || !usable(v[need]))
+      out.push(
+        `${samplesFile}: no usable ${NAMES[need] ?? need} value (no such column was recognised, or every value is empty). Fix: check the header row (see \`tilth inspect\`), or map the column with --columns.`,
+      );
   } else if (!SOIL_NUTRIENTS.some((a) => v[a] && usable(v[a]))) {
-    out.push(`${samplesFile}: no usable nitrate-N, P, K or sulphate-S value (no nutrient column was recognised, or every value is empty). Fix: check the header row (see \`tilth inspect\`), or map the columns with --columns.`);
+    out.push(
+      `${samplesFile}: no usable nitrate-N, P, K or sulphate-S value (no nutrient column was recognised, or every value is empty). Fix: check the header row (see \`tilth inspect\`), or map the columns with --columns.`,
+    );
   } else if (need) {
     for (const a of nutrientsNeeded(need)) {
-      if (!v[a] || !usable(v[a])) out.push(`${samplesFile}: no usable ${NAMES[a]} value, and the plan's ${NAMES[a]} strategy needs one. Fix: add the ${NAMES[a]} results, or set strategy.${a === 'no3_n' ? 'n' : a === 'so4_s' ? 's' : a}.method to none in the plan.`);
+      if (!v[a] || !usable(v[a]))
+        out.push(
+          `${samplesFile}: no usable ${NAMES[a]} value, and the plan's ${NAMES[a]} strategy needs one. Fix: add the ${NAMES[a]} results, or set strategy.${a === 'no3_n' ? 'n' : a === 'so4_s' ? 's' : a}.method to none in the plan.`,
+        );
     }
   }
   out.push(...implausibleValues(inputs.samples));
   const xy = inputs.samples.xy;
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (let i = 0; i < xy.length; i += 2) { x0 = Math.min(x0, xy[i]!); x1 = Math.max(x1, xy[i]!); y0 = Math.min(y0, xy[i + 1]!); y1 = Math.max(y1, xy[i + 1]!); }
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
+  for (let i = 0; i < xy.length; i += 2) {
+    x0 = Math.min(x0, xy[i]!);
+    x1 = Math.max(x1, xy[i]!);
+    y0 = Math.min(y0, xy[i + 1]!);
+    y1 = Math.max(y1, xy[i + 1]!);
+  }
   if (xy.length >= 4 && !inputs.zones && Math.hypot(x1 - x0, y1 - y0) <= ONE_PLACE_M) {
-    out.push(`${samplesFile}: all ${xy.length / 2} samples lie within ${ONE_PLACE_M} m of one place; they cannot show how the field varies. Fix: check the coordinates (copied from one row?).`);
+    out.push(
+      `${samplesFile}: all ${xy.length / 2} samples lie within ${ONE_PLACE_M} m of one place; they cannot show how the field varies. Fix: check the coordinates (copied from one row?).`,
+    );
   }
   if (!inputs.zones) {
     const far = farParts(inputs.field.parts, xy);
-    if (far.length) out.push(`boundary part${far.length > 1 ? 's' : ''} ${far.join(', ')} of ${inputs.field.parts.length} lie${far.length > 1 ? '' : 's'} more than ${MAX_UNSAMPLED_DISTANCE_M} m from every sample; the samples say nothing about ${far.length > 1 ? 'them' : 'it'}. Fix: give the boundary of the sampled field only, or add samples there.`);
+    if (far.length)
+      out.push(
+        `boundary part${far.length > 1 ? 's' : ''} ${far.join(', ')} of ${inputs.field.parts.length} lie${far.length > 1 ? '' : 's'} more than ${MAX_UNSAMPLED_DISTANCE_M} m from every sample; the samples say nothing about ${far.length > 1 ? 'them' : 'it'}. Fix: give the boundary of the sampled field only, or add samples there.`,
+      );
   }
   return out;
 }

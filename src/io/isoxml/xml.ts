@@ -15,7 +15,11 @@ export interface XmlElement {
 }
 
 /** Shorthand for building an element; attributes that are undefined are left out. */
-export function el(tag: string, attrs: Record<string, string | number | undefined>, children: XmlElement[] = []): XmlElement {
+export function el(
+  tag: string,
+  attrs: Record<string, string | number | undefined>,
+  children: XmlElement[] = [],
+): XmlElement {
   const a: Record<string, string> = {};
   for (const [k, v] of Object.entries(attrs)) if (v !== undefined) a[k] = String(v);
   return { tag, attrs: a, children };
@@ -43,7 +47,14 @@ export function writeXml(root: XmlElement): string {
     attrs: Object.fromEntries(Object.entries(e.attrs).map(([k, v]) => [k, clean(v)])),
     children: e.children.map(sanitize),
   });
-  const b = new XMLBuilder({ preserveOrder: true, ignoreAttributes: false, attributeNamePrefix: '', format: true, indentBy: ' ', suppressEmptyNode: true });
+  const b = new XMLBuilder({
+    preserveOrder: true,
+    ignoreAttributes: false,
+    attributeNamePrefix: '',
+    format: true,
+    indentBy: ' ',
+    suppressEmptyNode: true,
+  });
   const decl = { '?xml': [], ':@': { version: '1.0', encoding: 'UTF-8' } };
   return (b.build([decl, toOrdered(sanitize(root))]) as string).replace(/^\s+/, '') + '\n';
 }
@@ -57,7 +68,10 @@ function decodeValue(v: string, label: string, where: string): string {
       const code = name[1] === 'x' ? parseInt(name.slice(2), 16) : parseInt(name.slice(1), 10);
       if (code > 0 && code <= 0x10ffff) return String.fromCodePoint(code);
     } else if (name in PREDEFINED) return PREDEFINED[name];
-    throw new UserError(`${label}: ${where} uses the entity "${m}", which is not defined; task data uses only the five predefined XML entities. Fix: write the character itself (UTF-8), or export the task data again.`, { file: label, where, value: m });
+    throw new UserError(
+      `${label}: ${where} uses the entity "${m}", which is not defined; task data uses only the five predefined XML entities. Fix: write the character itself (UTF-8), or export the task data again.`,
+      { file: label, where, value: m },
+    );
   });
 }
 
@@ -67,7 +81,8 @@ function fromOrdered(node: Ordered, label: string, path: string): XmlElement | n
   const where = path ? `${path} > ${tag}` : tag;
   const raw = (node[':@'] ?? {}) as Record<string, unknown>;
   const attrs: Record<string, string> = {};
-  for (const [k, v] of Object.entries(raw)) attrs[k] = decodeValue(String(v), label, `element ${where} attribute ${k}`);
+  for (const [k, v] of Object.entries(raw))
+    attrs[k] = decodeValue(String(v), label, `element ${where} attribute ${k}`);
   const kids = (node[tag] ?? []) as Ordered[];
   const children: XmlElement[] = [];
   for (const k of kids) {
@@ -91,21 +106,45 @@ export function parseXml(text: string, label: string): XmlElement {
   const dt = /<!DOCTYPE|<!ENTITY/i.exec(body);
   if (dt) {
     const line = body.slice(0, dt.index).split('\n').length;
-    throw new UserError(`${label} line ${line}: has a DOCTYPE or ENTITY declaration; task data never needs one and tilth does not read documents that declare entities (they can point at other files or expand without end). Fix: export the task data again from the program that made it, without a DOCTYPE.`, { file: label, where: `line ${line}` });
+    throw new UserError(
+      `${label} line ${line}: has a DOCTYPE or ENTITY declaration; task data never needs one and tilth does not read documents that declare entities (they can point at other files or expand without end). Fix: export the task data again from the program that made it, without a DOCTYPE.`,
+      { file: label, where: `line ${line}` },
+    );
   }
   const rootTag = /<([A-Za-z_][\w.-]*)/.exec(body.replace(/<\?[\s\S]*?\?>/g, ''))?.[1];
-  const closed = rootTag !== undefined && (new RegExp(`</${rootTag}\\s*>\\s*$`).test(body) || /^\s*(<\?[\s\S]*?\?>\s*)?<[^<>]*\/>\s*$/.test(body));
+  const closed =
+    rootTag !== undefined &&
+    (new RegExp(`</${rootTag}\\s*>\\s*$`).test(body) || /^\s*(<\?[\s\S]*?\?>\s*)?<[^<>]*\/>\s*$/.test(body));
   if (rootTag && !closed) {
     const lines = body.trimEnd().split('\n').length;
-    throw new UserError(`${label} line ${lines}: not well-formed XML: the file ends before its root element ${rootTag} is closed (</${rootTag}> is missing): it is cut short. Fix: copy the file again from its source, or export the task data again.`, { file: label, where: rootTag });
+    throw new UserError(
+      `${label} line ${lines}: not well-formed XML: the file ends before its root element ${rootTag} is closed (</${rootTag}> is missing): it is cut short. Fix: copy the file again from its source, or export the task data again.`,
+      { file: label, where: rootTag },
+    );
   }
   const v = XMLValidator.validate(body, { allowBooleanAttributes: false });
   if (v !== true) {
-    throw new UserError(`${label} line ${v.err.line}, column ${v.err.col}: not well-formed XML: ${v.err.msg}. Fix: copy the file again from its source, or export the task data again.`, { file: label, where: `line ${v.err.line}` });
+    throw new UserError(
+      `${label} line ${v.err.line}, column ${v.err.col}: not well-formed XML: ${v.err.msg}. Fix: copy the file again from its source, or export the task data again.`,
+      { file: label, where: `line ${v.err.line}` },
+    );
   }
-  const p = new XMLParser({ preserveOrder: true, ignoreAttributes: false, attributeNamePrefix: '', processEntities: false, htmlEntities: false, parseAttributeValue: false, parseTagValue: false, trimValues: true });
+  const p = new XMLParser({
+    preserveOrder: true,
+    ignoreAttributes: false,
+    attributeNamePrefix: '',
+    processEntities: false,
+    htmlEntities: false,
+    parseAttributeValue: false,
+    parseTagValue: false,
+    trimValues: true,
+  });
   const nodes = p.parse(body) as Ordered[];
   const roots = nodes.map((n) => fromOrdered(n, label, '')).filter((e): e is XmlElement => e !== null);
-  if (roots.length !== 1) throw new UserError(`${label}: expected one root element, found ${roots.length}. Fix: give a TASKDATA.XML file.`, { file: label });
+  if (roots.length !== 1)
+    throw new UserError(
+      `${label}: expected one root element, found ${roots.length}. Fix: give a TASKDATA.XML file.`,
+      { file: label },
+    );
   return roots[0];
 }

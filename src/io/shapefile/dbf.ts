@@ -23,7 +23,8 @@ export function formatNumber(v: number | null | undefined, width: number, decima
   if (v === null || v === undefined || !Number.isFinite(v)) return ' '.repeat(width);
   let s = v.toFixed(decimals);
   if (s === '-0' || /^-0\.0*$/.test(s)) s = s.slice(1);
-  if (s.length > width) throw new RangeError(`dbf: ${v} needs ${s.length} characters, more than the column width ${width}`);
+  if (s.length > width)
+    throw new RangeError(`dbf: ${v} needs ${s.length} characters, more than the column width ${width}`);
   return s.padStart(width, ' ');
 }
 
@@ -47,14 +48,25 @@ function textBytes(s: string, width: number): Uint8Array {
 export function validateFields(fields: readonly DbfField[]): void {
   const seen = new Set<string>();
   for (const f of fields) {
-    if (!/^[A-Za-z][A-Za-z0-9_]{0,9}$/.test(f.name)) throw new RangeError(`dbf: column name "${f.name}" is not 1-10 ASCII letters, digits or _ starting with a letter`);
+    if (!/^[A-Za-z][A-Za-z0-9_]{0,9}$/.test(f.name))
+      throw new RangeError(
+        `dbf: column name "${f.name}" is not 1-10 ASCII letters, digits or _ starting with a letter`,
+      );
     const key = f.name.toUpperCase();
     if (seen.has(key)) throw new RangeError(`dbf: column name "${f.name}" is used twice`);
     seen.add(key);
-    if (f.type === 'N' && (f.width < 1 || f.width > 20 || f.decimals < 0 || f.decimals > 15 || (f.decimals > 0 && f.decimals > f.width - 2))) {
+    if (
+      f.type === 'N' &&
+      (f.width < 1 ||
+        f.width > 20 ||
+        f.decimals < 0 ||
+        f.decimals > 15 ||
+        (f.decimals > 0 && f.decimals > f.width - 2))
+    ) {
       throw new RangeError(`dbf: numeric column "${f.name}" has width ${f.width} and ${f.decimals} decimals`);
     }
-    if (f.type === 'C' && (f.width < 1 || f.width > 254 || f.decimals !== 0)) throw new RangeError(`dbf: text column "${f.name}" has width ${f.width}`);
+    if (f.type === 'C' && (f.width < 1 || f.width > 254 || f.decimals !== 0))
+      throw new RangeError(`dbf: text column "${f.name}" has width ${f.width}`);
   }
 }
 
@@ -66,7 +78,11 @@ export function validateFields(fields: readonly DbfField[]): void {
  * @param date the "last update" date in the header (default: today, UTC); pass one for byte-stable output
  * @example encodeDbf([{ name: 'zone', type: 'N', width: 4, decimals: 0 }], [[1], [2]], new Date('2026-04-01'))
  */
-export function encodeDbf(fields: readonly DbfField[], rows: readonly (readonly (string | number | null)[])[], date: Date = new Date()): Uint8Array {
+export function encodeDbf(
+  fields: readonly DbfField[],
+  rows: readonly (readonly (string | number | null)[])[],
+  date: Date = new Date(),
+): Uint8Array {
   validateFields(fields);
   const headerLen = 32 + 32 * fields.length + 1;
   const recLen = 1 + fields.reduce((s, f) => s + f.width, 0);
@@ -89,12 +105,16 @@ export function encodeDbf(fields: readonly DbfField[], rows: readonly (readonly 
   out[headerLen - 1] = 0x0d;
   let p = headerLen;
   rows.forEach((row, r) => {
-    if (row.length !== fields.length) throw new RangeError(`dbf: row ${r + 1} has ${row.length} values for ${fields.length} columns`);
+    if (row.length !== fields.length)
+      throw new RangeError(`dbf: row ${r + 1} has ${row.length} values for ${fields.length} columns`);
     out[p++] = 0x20; // not deleted
     fields.forEach((f, i) => {
       const val = row[i];
       if (f.type === 'N') {
-        if (val !== null && typeof val !== 'number') throw new RangeError(`dbf: row ${r + 1} column "${f.name}" is numeric but got ${JSON.stringify(val)}`);
+        if (val !== null && typeof val !== 'number')
+          throw new RangeError(
+            `dbf: row ${r + 1} column "${f.name}" is numeric but got ${JSON.stringify(val)}`,
+          );
         out.set(enc.encode(formatNumber(val, f.width, f.decimals)), p);
       } else {
         out.set(textBytes(val === null ? '' : String(val), f.width), p);
@@ -121,7 +141,9 @@ export interface DbfHeader {
 export function inspectDbf(bytes: Uint8Array): DbfHeader | string {
   if (bytes.length < 33) return `it has ${bytes.length} bytes, too few for a dBASE header`;
   const v = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const records = v.getUint32(4, true), headerLength = v.getUint16(8, true), recordLength = v.getUint16(10, true);
+  const records = v.getUint32(4, true),
+    headerLength = v.getUint16(8, true),
+    recordLength = v.getUint16(10, true);
   const fields: DbfField[] = [];
   const dec = new TextDecoder('latin1');
   for (let d = 32; d + 32 <= headerLength && bytes[d] !== 0x0d; d += 32) {
@@ -135,6 +157,7 @@ export function inspectDbf(bytes: Uint8Array): DbfHeader | string {
     });
   }
   const need = headerLength + records * recordLength;
-  if (bytes.length < need) return `its header declares ${records} records of ${recordLength} bytes (${need} bytes) but the file has ${bytes.length} (the file is truncated)`;
+  if (bytes.length < need)
+    return `its header declares ${records} records of ${recordLength} bytes (${need} bytes) but the file has ${bytes.length} (the file is truncated)`;
   return { records, headerLength, recordLength, fields };
 }

@@ -41,13 +41,21 @@ function writeHeader(v: DataView, lengthWords: number, bbox: [number, number, nu
  * @example
  * const { shp, shx } = encodePolygons([[new Float64Array([0,0, 0,1, 1,1, 1,0, 0,0])]]);
  */
-export function encodePolygons(polygons: ShpPolygon[]): { shp: Uint8Array; shx: Uint8Array; bbox: [number, number, number, number] } {
+export function encodePolygons(polygons: ShpPolygon[]): {
+  shp: Uint8Array;
+  shx: Uint8Array;
+  bbox: [number, number, number, number];
+} {
   let total = HEADER;
   for (const p of polygons) total += 8 + contentBytes(p);
   const shp = new Uint8Array(total);
   const shx = new Uint8Array(HEADER + 8 * polygons.length);
-  const sv = new DataView(shp.buffer), xv = new DataView(shx.buffer);
-  let fx0 = Infinity, fy0 = Infinity, fx1 = -Infinity, fy1 = -Infinity;
+  const sv = new DataView(shp.buffer),
+    xv = new DataView(shx.buffer);
+  let fx0 = Infinity,
+    fy0 = Infinity,
+    fx1 = -Infinity,
+    fy1 = -Infinity;
   let off = HEADER;
   polygons.forEach((rings, i) => {
     const len = contentBytes(rings);
@@ -57,14 +65,18 @@ export function encodePolygons(polygons: ShpPolygon[]): { shp: Uint8Array; shx: 
     sv.setInt32(off + 4, len / 2, false);
     const c = off + 8;
     const bb = ringsBbox(rings);
-    fx0 = Math.min(fx0, bb[0]); fy0 = Math.min(fy0, bb[1]); fx1 = Math.max(fx1, bb[2]); fy1 = Math.max(fy1, bb[3]);
+    fx0 = Math.min(fx0, bb[0]);
+    fy0 = Math.min(fy0, bb[1]);
+    fx1 = Math.max(fx1, bb[2]);
+    fy1 = Math.max(fy1, bb[3]);
     sv.setInt32(c, SHAPE_POLYGON, true);
     for (let k = 0; k < 4; k++) sv.setFloat64(c + 4 + 8 * k, bb[k], true);
     sv.setInt32(c + 36, rings.length, true);
     let npts = 0;
     for (const r of rings) npts += r.length >> 1;
     sv.setInt32(c + 40, npts, true);
-    let start = 0, p = c + 44;
+    let start = 0,
+      p = c + 44;
     for (const r of rings) {
       sv.setInt32(p, start, true);
       p += 4;
@@ -101,26 +113,34 @@ export function inspectShp(bytes: Uint8Array): ShpLayout | string {
   if (v.getInt32(0, false) !== FILE_CODE) return `its first 4 bytes are not the shapefile code 9994`;
   const declared = v.getInt32(24, false) * 2;
   if (declared !== bytes.length) {
-    return `its header says ${declared} bytes but the file has ${bytes.length}` + (declared > bytes.length ? ' (the file is truncated)' : '');
+    return (
+      `its header says ${declared} bytes but the file has ${bytes.length}` +
+      (declared > bytes.length ? ' (the file is truncated)' : '')
+    );
   }
   const shapeType = v.getInt32(32, true);
   const rings: Float64Array[][] = [];
-  let off = HEADER, n = 0;
+  let off = HEADER,
+    n = 0;
   while (off < bytes.length) {
     if (off + 8 > bytes.length) return `record ${n + 1} header is cut off at byte ${off}`;
     const len = v.getInt32(off + 4, false) * 2;
-    if (len < 4 || off + 8 + len > bytes.length) return `record ${n + 1} at byte ${off} claims ${len} bytes of content, past the end of the file (the file is truncated)`;
+    if (len < 4 || off + 8 + len > bytes.length)
+      return `record ${n + 1} at byte ${off} claims ${len} bytes of content, past the end of the file (the file is truncated)`;
     const c = off + 8;
     const t = v.getInt32(c, true);
     const recRings: Float64Array[] = [];
     if ((t === 5 || t === 3) && len >= 44) {
-      const np = v.getInt32(c + 36, true), nq = v.getInt32(c + 40, true);
-      if (np < 0 || nq < 0 || 44 + 4 * np + 16 * nq > len) return `record ${n + 1} declares ${np} rings and ${nq} points, more than its ${len} bytes hold`;
+      const np = v.getInt32(c + 36, true),
+        nq = v.getInt32(c + 40, true);
+      if (np < 0 || nq < 0 || 44 + 4 * np + 16 * nq > len)
+        return `record ${n + 1} declares ${np} rings and ${nq} points, more than its ${len} bytes hold`;
       const starts: number[] = [];
       for (let k = 0; k < np; k++) starts.push(v.getInt32(c + 44 + 4 * k, true));
       const p0 = c + 44 + 4 * np;
       for (let k = 0; k < np; k++) {
-        const a = starts[k], b = k + 1 < np ? starts[k + 1] : nq;
+        const a = starts[k],
+          b = k + 1 < np ? starts[k + 1] : nq;
         if (a < 0 || b > nq || b < a) return `record ${n + 1} ring ${k + 1} has a bad start index ${a}`;
         const r = new Float64Array(2 * (b - a));
         for (let q = 0; q < r.length; q++) r[q] = v.getFloat64(p0 + 8 * (2 * a + q), true);

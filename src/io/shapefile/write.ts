@@ -54,7 +54,14 @@ export interface ShapefileOptions {
  */
 export function resolveColumns(specs: readonly ColumnSpec[]): ResolvedColumn[] {
   const names = shortFieldNames(specs.map((s) => s.name ?? s.key));
-  return specs.map((s, i) => ({ name: names[i], type: s.type, width: s.width, decimals: s.type === 'N' ? (s.decimals ?? 0) : 0, key: s.key, description: s.description ?? '' }));
+  return specs.map((s, i) => ({
+    name: names[i],
+    type: s.type,
+    width: s.width,
+    decimals: s.type === 'N' ? (s.decimals ?? 0) : 0,
+    key: s.key,
+    description: s.description ?? '',
+  }));
 }
 
 /** The base file name the writer uses for `name` (8.3 upper case when asked). */
@@ -67,7 +74,9 @@ function polygonsOf(f: Feature, i: number): number[][][][] {
   const g = f.geometry;
   if (g?.type === 'Polygon') return [(g as Polygon).coordinates];
   if (g?.type === 'MultiPolygon') return (g as MultiPolygon).coordinates;
-  throw new RangeError(`writeShapefile: feature ${i + 1} has geometry ${g ? g.type : 'null'}; only Polygon and MultiPolygon are written`);
+  throw new RangeError(
+    `writeShapefile: feature ${i + 1} has geometry ${g ? g.type : 'null'}; only Polygon and MultiPolygon are written`,
+  );
 }
 
 /** Closes a flat ring and orients it: clockwise (cw = true) or counter-clockwise. */
@@ -77,7 +86,8 @@ function shpRing(flat: number[], cw: boolean): Float64Array {
   const r = new Float64Array(closed ? flat : [...flat, flat[0], flat[1]]);
   const a = ringArea(r);
   if (a === 0 || a < 0 === cw) return r;
-  const m = r.length >> 1, out = new Float64Array(r.length);
+  const m = r.length >> 1,
+    out = new Float64Array(r.length);
   for (let k = 0; k < m; k++) {
     out[2 * k] = r[2 * (m - 1 - k)];
     out[2 * k + 1] = r[2 * (m - 1 - k) + 1];
@@ -100,16 +110,28 @@ function shpRing(flat: number[], cw: boolean): Float64Array {
  * const files = writeShapefile(fc.features, [{ key: 'zone_id', type: 'N', width: 4 }], { name: 'zones', crs: 'utm' });
  * // { 'zones.shp': ..., 'zones.shx': ..., 'zones.dbf': ..., 'zones.prj': ..., 'zones.cpg': ..., 'zones.columns.csv': ... }
  */
-export function writeShapefile(features: readonly Feature[], columns: readonly ColumnSpec[], opts: ShapefileOptions): Record<string, Uint8Array> {
+export function writeShapefile(
+  features: readonly Feature[],
+  columns: readonly ColumnSpec[],
+  opts: ShapefileOptions,
+): Record<string, Uint8Array> {
   const lonlatPolys = features.map((f, i) => polygonsOf(f, i));
   let utm: UtmZone | null = null;
   if (opts.crs === 'utm') {
     utm = opts.utm ?? null;
     if (!utm) {
-      let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
-      for (const polys of lonlatPolys) for (const poly of polys) for (const [x, y] of poly[0]) {
-        x0 = Math.min(x0, x); x1 = Math.max(x1, x); y0 = Math.min(y0, y); y1 = Math.max(y1, y);
-      }
+      let x0 = Infinity,
+        x1 = -Infinity,
+        y0 = Infinity,
+        y1 = -Infinity;
+      for (const polys of lonlatPolys)
+        for (const poly of polys)
+          for (const [x, y] of poly[0]) {
+            x0 = Math.min(x0, x);
+            x1 = Math.max(x1, x);
+            y0 = Math.min(y0, y);
+            y1 = Math.max(y1, y);
+          }
       utm = utmZoneFor((x0 + x1) / 2, (y0 + y1) / 2);
     }
   }
@@ -119,7 +141,10 @@ export function writeShapefile(features: readonly Feature[], columns: readonly C
     for (const poly of polys) {
       poly.forEach((ring, k) => {
         const flat = ring.flatMap((pt) => [pt[0], pt[1]]);
-        if (ring.length < 3 || flat.some((v) => !Number.isFinite(v))) throw new RangeError(`writeShapefile: feature ${i + 1} has a ring with fewer than 3 points or a non-number coordinate`);
+        if (ring.length < 3 || flat.some((v) => !Number.isFinite(v)))
+          throw new RangeError(
+            `writeShapefile: feature ${i + 1} has a ring with fewer than 3 points or a non-number coordinate`,
+          );
         const xy = proj ? Array.from(proj.forward(flat)) : flat;
         rings.push(shpRing(xy, k === 0));
       });
@@ -127,16 +152,22 @@ export function writeShapefile(features: readonly Feature[], columns: readonly C
     return rings;
   });
   const cols = resolveColumns(columns);
-  const rows = features.map((f) => cols.map((c) => {
-    const v = f.properties?.[c.key];
-    if (v === undefined || v === null) return null;
-    return c.type === 'N' ? (typeof v === 'number' ? v : Number.NaN) : String(v);
-  }));
+  const rows = features.map((f) =>
+    cols.map((c) => {
+      const v = f.properties?.[c.key];
+      if (v === undefined || v === null) return null;
+      return c.type === 'N' ? (typeof v === 'number' ? v : Number.NaN) : String(v);
+    }),
+  );
   const { shp, shx } = encodePolygons(shpPolys);
   const base = baseFileName(opts.name, opts.shortFileName);
   const ext = (e: string) => `${base}.${opts.shortFileName ? e.toUpperCase() : e}`;
   const enc = new TextEncoder();
-  const list = ['column,property,type,width,decimals,description', ...cols.map((c) => [c.name, c.key, c.type, c.width, c.decimals, c.description].map(csvCell).join(','))].join('\n') + '\n';
+  const list =
+    [
+      'column,property,type,width,decimals,description',
+      ...cols.map((c) => [c.name, c.key, c.type, c.width, c.decimals, c.description].map(csvCell).join(',')),
+    ].join('\n') + '\n';
   return {
     [ext('shp')]: shp,
     [ext('shx')]: shx,
