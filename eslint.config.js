@@ -36,8 +36,6 @@ const TO_SPLIT = [
   'src/prescription/zoneDesign.ts', // designZoneSets
   'src/report/maps.ts', // buildMaps
   'src/surface/knn.ts', // nearest
-  'src/validate/inputs.ts', // prepareInputs
-  'src/validate/sampleValues.ts', // readSampleValues
   'src/variability/charts.ts', // semivariogramSvg, sampleMapSvg
   'src/variability/index.ts', // analyzeVariability
   'src/variability/text.ts', // variabilityText
@@ -56,7 +54,6 @@ const TO_SHORTEN = [
   'src/zones/classify.ts',
   'src/zones/index.ts',
   'tests/agronomy/rates.test.ts',
-  'tests/io/labs.test.ts',
   'tests/io/shapefile-writer.test.ts',
   'tests/report/render.test.ts',
   'tests/variability/variability.test.ts',

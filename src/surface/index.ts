@@ -44,7 +44,6 @@ export {
   type NutrientSurfaceOptions,
   type SurfaceMethod,
 } from './nutrientSurface.js';
-export { visitCellNeighbours, type CellVisitor } from './cellNeighbours.js';
 export {
   krigingSurface,
   covariance,
