@@ -8,7 +8,8 @@
  */
 import { soilFlagsById } from '../agronomy/soilFlags.js';
 import { UserError, type Warning } from '../errors.js';
-import { decide, type Decision } from '../agronomy/decide.js';
+import { decide } from '../agronomy/decide.js';
+import type { Decision } from '../agronomy/decision.js';
 import type { SoilValues } from '../agronomy/interpret.js';
 import type { Plan } from '../agronomy/plan.js';
 import { NUTRIENTS, type Nutrient, type Placement, type Tables } from '../agronomy/tables.js';

@@ -3,7 +3,8 @@
  * rounded to the machine step) differs by at least the plan's minimum rate difference, and by more than the
  * soil maps' own error moves that rate. See docs/zones.md, "Zones worth a boundary".
  */
-import { decide, type Decision } from '../agronomy/decide.js';
+import { decide } from '../agronomy/decide.js';
+import type { Decision } from '../agronomy/decision.js';
 import type { SoilValues } from '../agronomy/interpret.js';
 import type { Plan } from '../agronomy/plan.js';
 import { TEXTURES, type Placement, type Tables } from '../agronomy/tables.js';
