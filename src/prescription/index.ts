@@ -20,6 +20,7 @@ import { vertexCount } from '../zones/arcs.js';
 import type { Analyte, FieldInputs, Grid, RingsPart, Texture } from '../types.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import { cellTargets } from './cellTargets.js';
+import { unsampledSplit, withUnsampledZones } from './unsampled.js';
 import {
   designZoneSets,
   minZoneArea,
@@ -160,6 +161,16 @@ export function buildPrescription(
   tables: Tables,
   opts: BuildOptions = {},
 ): Prescription {
+  // boundary parts no sample speaks for get the plan's unsampled_parts rates (./unsampled.ts)
+  const split = unsampledSplit(inputs, plan);
+  if (split)
+    return withUnsampledZones(
+      split,
+      plan,
+      tables,
+      (i) => buildPrescription(i, plan, tables, opts),
+      productTotals,
+    );
   const { samples, field } = inputs;
   const warnings: Warning[] = [...inputs.warnings];
   const progress = opts.onProgress ?? (() => {});
@@ -440,6 +451,7 @@ export function usedPairs(set: ZoneSetResult): { product: string; placement: Pla
   return [...seen.values()].sort((a, b) => order(a) - order(b));
 }
 
+/** Product totals of the zone sets (total product, area-weighted mean, min and max rate, area applied). */
 function productTotals(sets: ZoneSetResult[], plan: Plan): ProductTotal[] {
   const out: ProductTotal[] = [];
   for (const set of sets) {
