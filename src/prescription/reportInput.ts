@@ -124,7 +124,7 @@ function reportZoneSets(rx: Prescription): ReportZoneSet[] {
       id: String(z.id),
       parts: z.parts,
       areaM2: z.areaM2,
-      class: set.name === 'sampled' ? null : z.rateClass - 1,
+      class: set.name === 'sampled' || z.rateClass < 1 ? null : z.rateClass - 1, // 0: unsampled parts (unsampled.ts)
       soilMeans: { no3_n: z.soil.no3_n, p: z.soil.p, k: z.soil.k, so4_s: z.soil.so4_s, om: z.soil.om },
       targets: Object.fromEntries(
         (['n', 'p2o5', 'k2o', 's'] as const).map((n) => [
