@@ -37,8 +37,6 @@ const TO_SHORTEN = [
   'src/surface/nutrientSurface.ts',
   'src/zones/classify.ts',
   'src/zones/index.ts',
-  'tests/agronomy/rates.test.ts',
-  'tests/io/shapefile-writer.test.ts',
 ];
 
 export default tseslint.config(
