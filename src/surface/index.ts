@@ -38,7 +38,6 @@ export {
   nutrientSurfaces,
   analyteFromName,
   kName,
-  ANALYTE_LABEL,
   SURFACE_METHODS,
   type NutrientSurface,
   type NutrientSurfaceOptions,
