@@ -17,6 +17,7 @@ import {
   type SurfaceForShare,
 } from './lowSpots.js';
 import { NUTRIENT_LABEL, NUTRIENT_UNIT, defaultThreshold, type Threshold } from './thresholds.js';
+import type { ChanceSummary } from './chanceMap.js';
 
 export * from './semivariogram.js';
 export * from './models.js';
@@ -32,6 +33,8 @@ export * from './text.js';
 export * from './report-charts.js';
 export * from './chance.js';
 export * from './lowSpots.js';
+export * from './chanceMap.js';
+export * from './chanceChart.js';
 
 /** Lags with fewer pairs than this are flagged (common practice). */
 export const MIN_PAIRS = 30;
@@ -73,6 +76,8 @@ export interface VariabilityReport {
   sampling: SamplingAdvice;
   low: LowSample[];
   sulphur: SulphurFindings | null;
+  /** the chance below the threshold from kriging (chanceMap.ts), when the caller made one (the CLI does) */
+  chance?: ChanceSummary;
   warnings: Warning[];
 }
 
