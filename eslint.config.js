@@ -54,7 +54,6 @@ const TO_SHORTEN = [
   'src/agronomy/tables/defaults.ts',
   'src/prescription/index.ts',
   'src/report/maps.ts',
-  'src/surface/nutrientSurface.ts',
   'src/variability/charts.ts',
   'src/zones/classify.ts',
   'src/zones/index.ts',
