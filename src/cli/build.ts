@@ -23,6 +23,7 @@ import {
   writeOutputDir,
 } from './util.js';
 import { createTerminal, type Task, type Terminal } from './progress.js';
+import { addThreadsOption, surfaceThreads } from './threads.js';
 
 export interface BuildFlags {
   samples: string;
@@ -40,10 +41,12 @@ export interface BuildFlags {
   pMethod?: 'olsen' | 'kelowna';
   assumeWgs84?: boolean;
   quiet?: boolean;
+  /** --threads (default: the machine's cores) */
+  threads?: string;
 }
 
 export function register(program: Command): void {
-  addInputOptions(program.command('build'))
+  addThreadsOption(addInputOptions(program.command('build')))
     .description(
       'Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.',
     )
@@ -120,12 +123,13 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   const tables = tablesFromOption(o.tables);
   const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
   const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
+  const threads = surfaceThreads(o.threads);
   hooks.say('reading and checking the inputs ...');
   const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
   if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
   refuseUnfit(inputs, plan, o.samples, o.boundary);
   checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
-  const rx = buildPrescription(inputs, plan, tables, { cell, onProgress: hooks.onProgress });
+  const rx = buildPrescription(inputs, plan, tables, { cell, threads, onProgress: hooks.onProgress });
   hooks.stepDone();
   const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const)
     .filter((k) => o[k])

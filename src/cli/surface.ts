@@ -23,6 +23,7 @@ import { chanceSpec } from '../variability/chance.js';
 import type { PMethod } from '../types.js';
 import { tablesFromOption } from './plan.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
+import { addThreadsOption, surfaceThreads } from './threads.js';
 import { checkOutputFile, info, numberOption, out, printWarnings, writeOutputFile } from './util.js';
 
 /** An Esri ASCII grid starts with its ncols line; a .prj tilth writes is a projected WKT. */
@@ -30,7 +31,7 @@ const ASC_OURS = (h: string) => /^\s*ncols\s/i.test(h);
 const PRJ_OURS = (h: string) => /^PROJCS\["WGS_1984_UTM_Zone_\d+[NS]"/.test(h);
 
 export function register(program: Command): void {
-  addInputOptions(program.command('surface'))
+  addThreadsOption(addInputOptions(program.command('surface')))
     .description(
       "Map one soil-test nutrient over the field by inverse-distance weighting (power and neighbours chosen by cross-validation unless given) or ordinary kriging, and write an Esri ASCII grid (.asc with .prj) in the field's UTM zone.",
     )
@@ -115,6 +116,7 @@ export function register(program: Command): void {
         integer: true,
       })!;
       const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
+      const threads = surfaceThreads(o.threads);
       if (!/\.asc$/i.test(o.out))
         throw new UserError(
           `--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`,
@@ -144,6 +146,7 @@ export function register(program: Command): void {
         minNeighbours,
         method: method as SurfaceMethod,
         kriging: { neighbours: kNeighbours, log: Boolean(o.log) },
+        threads,
       });
       const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
       writeOutputFile(o.out, formatAsc(grid, s.values, { decimals }), { ...fileOpts, ours: ASC_OURS });

@@ -14,6 +14,7 @@ import type { Plan } from '../agronomy/plan.js';
 import { NUTRIENTS, type Nutrient, type Placement, type Tables } from '../agronomy/tables.js';
 import { fieldGrid } from '../surface/grid.js';
 import { nutrientSurfaces, type NutrientSurface } from '../surface/nutrientSurface.js';
+import type { SurfaceThreads } from '../surface/parallel.js';
 import { zonesFromSampleZones } from '../zones/index.js';
 import { vertexCount } from '../zones/arcs.js';
 import type { Analyte, FieldInputs, Grid, RingsPart, Texture } from '../types.js';
@@ -37,6 +38,8 @@ export interface BuildOptions {
   cell?: number;
   /** progress for long steps: step name and share of it done, 0..1 (a new name starts a new step) */
   onProgress?: (step: string, done: number) => void;
+  /** worker threads for the surfaces' per-cell work (default none; src/surface/parallel.ts) */
+  threads?: SurfaceThreads;
 }
 
 /** One zone of one zone set, with its decision. */
@@ -191,6 +194,7 @@ export function buildPrescription(
   const surfaceOpts = {
     method: plan.surface.method,
     kriging: { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours },
+    threads: opts.threads,
   };
   const made = nutrientSurfaces(samples, present, grid, inputs.zones, surfaceOpts, (d) =>
     progress('surfaces (cross-validation and interpolation)', d),
