@@ -3,7 +3,7 @@ import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
 import { buildPrescription, defaultCell, type Prescription } from '../prescription/index.js';
 import { checkBuildCells, checkBoundaryVertices } from './safety/budgets.js';
-import { addOutlierWarnings, readinessProblems } from './safety/readiness.js';
+import { readinessProblems } from './safety/readiness.js';
 import { UserError } from '../errors.js';
 import type { FieldInputs } from '../types.js';
 import type { Plan } from '../agronomy/index.js';
@@ -38,6 +38,8 @@ export interface BuildFlags {
   columns?: string;
   depthFactor?: string;
   dropOutside?: boolean;
+  /** keep | drop (default: the plan's soil_test.outliers) */
+  outliers?: string;
   pMethod?: 'olsen' | 'kelowna';
   assumeWgs84?: boolean;
   quiet?: boolean;
@@ -125,7 +127,10 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
   const threads = surfaceThreads(o.threads);
   hooks.say('reading and checking the inputs ...');
-  const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
+  const io = inputOptionsFrom(o as unknown as Record<string, unknown>);
+  if (io.outliers === undefined && plan.soil_test.outliers === 'drop')
+    Object.assign(io, { outliers: 'drop', outliersFrom: 'plan' });
+  const inputs = await loadInputs(io);
   if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
   refuseUnfit(inputs, plan, o.samples, o.boundary);
   checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
@@ -176,5 +181,4 @@ function refuseUnfit(inputs: FieldInputs, plan: Plan, samplesFile: string, bound
   const problems = readinessProblems(inputs, plan, samplesFile);
   if (problems.length)
     throw new UserError(`cannot make a prescription from these inputs:\n  ${problems.join('\n  ')}`);
-  addOutlierWarnings(inputs, samplesFile);
 }

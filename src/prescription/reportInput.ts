@@ -14,7 +14,8 @@ import type {
   ReportZoneSet,
 } from '../report/types.js';
 import type { FieldInputs } from '../types.js';
-import { productRate, usedPairs, nutrientName, type Prescription } from './index.js';
+import { productRate, usedPairs, nutrientName } from './totals.js';
+import type { Prescription } from './types.js';
 import type { Provenance } from './outputs.js';
 
 const NUTRIENT_INFO: Record<string, Omit<ReportNutrient, 'key'>> = {

@@ -4,7 +4,7 @@
  * record of why the zone count came out as it did. See docs/zones.md.
  */
 import type { Warning } from '../errors.js';
-import type { Decision } from '../agronomy/decide.js';
+import type { Decision } from '../agronomy/decision.js';
 import type { Plan } from '../agronomy/plan.js';
 import { NUTRIENTS, TEXTURES, type Nutrient, type Tables } from '../agronomy/tables.js';
 import { pointInParts } from '../geo/area.js';

@@ -4,7 +4,7 @@
  * search radius); a cell centre within 1e-13 m^2 squared distance of a sample takes that sample's value
  * (the rule GDAL's gdal_grid uses), so there is never a division by zero.
  */
-import type { GridShape } from './cellNeighbours.js';
+import type { GridShape } from './neighbours.js';
 import { IdwBands, type IdwJob } from './idwBands.js';
 import type { SurfacePool } from './parallel.js';
 

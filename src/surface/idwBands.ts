@@ -4,7 +4,7 @@
  * cell's value depends only on its neighbour list (exact, see knn.ts) and the surface's values, so the
  * result is the same bit for bit however the bands are shared out (parallel.ts).
  */
-import type { GridShape } from './cellNeighbours.js';
+import type { GridShape } from './neighbours.js';
 import { neighbourSearch, type NeighbourBand, type NeighbourSearch } from './neighbours.js';
 
 /** Squared distance under which a cell centre counts as on a sample (GDAL's threshold). */

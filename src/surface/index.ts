@@ -47,7 +47,6 @@ export {
   type NutrientSurfaceOptions,
   type SurfaceMethod,
 } from './nutrientSurface.js';
-export { visitCellNeighbours, type CellVisitor } from './cellNeighbours.js';
 export {
   krigingSurface,
   covariance,

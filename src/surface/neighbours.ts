@@ -1,5 +1,6 @@
 /**
- * One k-nearest search shared by every surface (and every cross-validation) built from the same sample
+ * One k-nearest search shared by every surface (IDW and ordinary kriging, and every cross-validation) built
+ * from the same sample
  * sites. A cell's neighbours are kept as sample indices and squared distances in ascending (distance,
  * index) order, so the first k' of a k-list are exactly the k'-nearest: one search with the largest k any
  * surface needs serves them all, with the same answer as separate searches.
@@ -9,8 +10,11 @@
  * small enough to keep. {@link sampleNeighbours} answers the leave-one-out question for the samples.
  * See docs/surface.md ("One neighbour search") for the method.
  */
+import type { Grid } from '../types.js';
 import { buildBuckets, KnnGroup, type Buckets } from './knn.js';
-import type { GridShape } from './cellNeighbours.js';
+
+/** The geometry of a north-up grid (see Grid in src/types.ts). */
+export type GridShape = Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>;
 
 /**
  * Neighbours of the searched cells of one band of grid rows. Reused between bands: copy what you keep.
@@ -28,7 +32,7 @@ export interface NeighbourBand {
   cells: Int32Array;
   /** neighbours found per cell (k, or fewer within the radius) */
   found: Int32Array;
-  /** sample indices, k slots per cell, ascending by (squared distance, index) */
+  /** sample indices, k slots per cell, ascending by (squared distance, index) unless `sorted: false` */
   idx: Int32Array;
   /** squared distances (m^2) matching idx */
   d2: Float64Array;
@@ -40,6 +44,12 @@ export interface NeighbourOptions {
   radius?: number;
   /** cells to search: where[i] > 0 (default: every cell) */
   where?: ArrayLike<number>;
+  /**
+   * neighbours in ascending (squared distance, index) order (default true); false leaves each cell's k nearest
+   * in the order the selection leaves them (kriging: its system needs no order, and sorting every cell's list
+   * costs about a third of its time on a large grid)
+   */
+  sorted?: boolean;
 }
 
 /** How the grid is cut into blocks of S x S cells with matching sample buckets. */
@@ -130,10 +140,11 @@ export interface NeighbourSearch {
 
 /**
  * The k nearest samples of the searched cell centres of `grid`, band by band (the bands of
- * {@link forEachNeighbourBand}); each band's answer is exact and does not depend on which bands were
- * searched before it, so threads can share the bands out. Null when there are no samples or k < 1.
+ * {@link forEachNeighbourBand}). With `sorted` (the default) each band's answer is exact and does not depend
+ * on which bands were searched before it, so threads can share the bands out; unsorted lists hold the same
+ * neighbours in an order that can depend on the bands searched before. Null when there are no samples or k < 1.
  *
- * @param opts radius Infinity, where: every cell
+ * @param opts radius Infinity, where: every cell, sorted true
  * @example const s = neighbourSearch(xy, grid, 12)!; const b = s.newBand(); for (let i = 0; i < s.bands; i++) s.search(i, b)
  */
 export function neighbourSearch(
@@ -154,6 +165,7 @@ class BandSearch implements NeighbourSearch {
   private readonly L: Layout;
   private readonly g: KnnGroup;
   private readonly where: ArrayLike<number> | undefined;
+  private readonly sorted: boolean;
 
   constructor(
     xy: Float64Array,
@@ -163,6 +175,7 @@ class BandSearch implements NeighbourSearch {
   ) {
     const radius = opts.radius ?? Infinity;
     this.where = opts.where;
+    this.sorted = opts.sorted ?? true;
     this.L = layout(xy, grid, k, radius);
     this.g = new KnnGroup(this.L.buckets, k, radius * radius);
     this.bands = this.L.brows;
@@ -187,7 +200,7 @@ class BandSearch implements NeighbourSearch {
   }
 
   search(br: number, band: NeighbourBand): number {
-    const { L, g, where, k } = this,
+    const { L, g, where, k, sorted } = this,
       { cols, rows, cell } = this.grid;
     const { cells, found, idx, d2 } = band,
       gd = g.d2,
@@ -210,7 +223,7 @@ class BandSearch implements NeighbourSearch {
           const c = fwd ? t : c1 - 1 - (t - c0);
           const i = r * cols + c;
           if (where && !(where[i] > 0)) continue;
-          const f = g.nearest((c + 0.5) * cell, qy, -1, true);
+          const f = g.nearest((c + 0.5) * cell, qy, -1, sorted);
           cells[m] = i;
           found[m] = f;
           const o = m * k;
@@ -239,7 +252,7 @@ class BandSearch implements NeighbourSearch {
  * @param xy sample positions x0 y0 x1 y1 ... (metres, the grid's frame)
  * @param grid grid geometry (north-up, row-major)
  * @param k neighbours per cell (the largest any consumer needs)
- * @param opts radius Infinity, where: every cell
+ * @param opts radius Infinity, where: every cell, sorted true
  * @param onBand called once per band that has searched cells, top band first
  * @example forEachNeighbourBand(xy, grid, 16, { where: grid.fraction }, (b) => { for (let t = 0; t < b.count; t++) use(b.cells[t], b.idx[t * b.k]) })
  */

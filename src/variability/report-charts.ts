@@ -5,7 +5,8 @@
 import type { ReportChart } from '../report/types.js';
 import type { Field, Grid, Samples } from '../types.js';
 import { analyzeVariability, type VariabilityReport } from './index.js';
-import { sampleMapSvg, semivariogramSvg } from './charts.js';
+import { sampleMapSvg } from './sampleMap.js';
+import { semivariogramSvg } from './semivariogramChart.js';
 
 /**
  * The semivariogram and low-spot map of one study, with captions that carry the findings.
