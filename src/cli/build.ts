@@ -2,6 +2,7 @@
 import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
 import { buildPrescription, defaultCell, type Prescription } from '../prescription/index.js';
+import { gridBbox } from '../prescription/unsampled.js';
 import { checkBuildCells, checkBoundaryVertices } from './safety/budgets.js';
 import { readinessProblems } from './safety/readiness.js';
 import { UserError } from '../errors.js';
@@ -133,7 +134,8 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   const inputs = await loadInputs(io);
   if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
   refuseUnfit(inputs, plan, o.samples, o.boundary);
-  checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
+  // the grid covers the sampled parts (unsampled_parts), the whole boundary must still fit it (task data grids)
+  checkBuildCells(inputs.field.bbox, cell ?? defaultCell(gridBbox(inputs, plan)));
   const rx = buildPrescription(inputs, plan, tables, { cell, threads, onProgress: hooks.onProgress });
   hooks.stepDone();
   const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const)

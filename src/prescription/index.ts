@@ -18,6 +18,7 @@ import type { Analyte, FieldInputs, Grid } from '../types.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import { cellTargets } from './cellTargets.js';
 import { productTotals } from './totals.js';
+import { unsampledSplit, withUnsampledZones } from './unsampled.js';
 import type { BuildOptions, Prescription, ZoneSetResult } from './types.js';
 import { minZoneArea } from './zoneDesign.js';
 import {
@@ -58,6 +59,16 @@ export function buildPrescription(
   tables: Tables,
   opts: BuildOptions = {},
 ): Prescription {
+  // boundary parts no sample speaks for get the plan's unsampled_parts rates (./unsampled.ts)
+  const split = unsampledSplit(inputs, plan);
+  if (split)
+    return withUnsampledZones(
+      split,
+      plan,
+      tables,
+      (i) => buildPrescription(i, plan, tables, opts),
+      productTotals,
+    );
   const { samples, field } = inputs;
   const warnings: Warning[] = [...inputs.warnings];
   const progress = opts.onProgress ?? (() => {});

@@ -87,11 +87,13 @@ export function readinessProblems(
       `${samplesFile}: all ${xy.length / 2} samples lie within ${ONE_PLACE_M} m of one place; they cannot show how the field varies. Fix: check the coordinates (copied from one row?).`,
     );
   }
-  if (!inputs.zones) {
+  // a build whose plan names rates for unsampled parts goes ahead knowingly (src/prescription/unsampled.ts)
+  const planned = need !== null && typeof need === 'object' && need.unsampled_parts !== null;
+  if (!inputs.zones && !planned) {
     const far = farParts(inputs.field.parts, xy);
     if (far.length)
       out.push(
-        `boundary part${far.length > 1 ? 's' : ''} ${far.join(', ')} of ${inputs.field.parts.length} lie${far.length > 1 ? '' : 's'} more than ${MAX_UNSAMPLED_DISTANCE_M} m from every sample; the samples say nothing about ${far.length > 1 ? 'them' : 'it'}. Fix: give the boundary of the sampled field only, or add samples there.`,
+        `boundary part${far.length > 1 ? 's' : ''} ${far.join(', ')} of ${inputs.field.parts.length} lie${far.length > 1 ? '' : 's'} more than ${MAX_UNSAMPLED_DISTANCE_M} m from every sample; the samples say nothing about ${far.length > 1 ? 'them' : 'it'}. Fix: give the boundary of the sampled field only, or add samples there${need !== null && typeof need === 'object' ? '; or, to apply a rate there knowingly, set the plan key unsampled_parts (none, a rate, or { product: rate })' : ''}.`,
       );
   }
   return out;
