@@ -36,8 +36,6 @@ const TO_SPLIT = [
 const TO_SHORTEN = [
   'src/zones/classify.ts',
   'src/zones/index.ts',
-  'tests/agronomy/rates.test.ts',
-  'tests/io/shapefile-writer.test.ts',
 ];
 
 export default tseslint.config(
