@@ -8,7 +8,7 @@ import type { FieldInputs } from '../types.js';
 import { zipFiles } from '../io/zip.js';
 import { renderReport, serializeReportInput } from '../report/index.js';
 import { buildSulphurChance, buildSulphurCharts } from '../variability/index.js';
-import type { Prescription } from './index.js';
+import type { Prescription } from './types.js';
 import {
   geojsonName,
   prescriptionGeojson,
