@@ -17,7 +17,8 @@ import {
   zonesCsv,
   type Provenance,
 } from './outputs.js';
-import { coarsen, displayFactor, reportInput } from './reportInput.js';
+import { reportInput } from './reportInput.js';
+import { coarsen, displayFactor } from './reportMaps.js';
 import { prescriptionFiles } from './shapefiles.js';
 import { prescriptionTaskDataFiles } from './taskdata.js';
 
