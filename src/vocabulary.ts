@@ -3,7 +3,7 @@
  *
  * - **analyte = soil test, nutrient = N/P2O5/K2O/S.** An analyte is a soil test value: nitrate-N, P, K,
  *   sulphate-S, organic matter, pH (`Analyte`, src/types.ts), in its canonical unit (ppm, lb/ac, %). A nutrient
- *   is what a fertilizer supplies and a rate is given in: N, P2O5, K2O, S (`Nutrient`, src/agronomy/tables.ts).
+ *   is what a fertilizer supplies and a rate is given in: N, P2O5, K2O, S (`Nutrient`, below).
  *   A surface is an analyte map; a target is a nutrient rate. Old names that mix the two (`nutrientSurface`,
  *   the `--nutrient` flag naming an analyte) are kept where they are public, and new code follows this rule.
  * - Every analyte, nutrient and placement name a person reads comes from the maps below (`ANALYTE_NAME`,
@@ -19,10 +19,14 @@
  * - Unit conversion factors live only in src/units/; machine settings with a unit (`8mph`, `18m`) are read there
  *   too (`parseSpeed`, `parseLength`).
  */
-import type { Nutrient, Placement } from './agronomy/tables.js';
 import { ANALYTES, type Analyte } from './types.js';
 
-export { PLACEMENTS, NUTRIENTS, type Placement, type Nutrient } from './agronomy/tables.js';
+/** Where a product goes: in the seed row, a side or mid-row band, or broadcast. */
+export const PLACEMENTS = ['seed_row', 'side_band', 'mid_row_band', 'broadcast'] as const;
+export type Placement = (typeof PLACEMENTS)[number];
+/** The nutrients a product supplies, as the tables name them (N, P2O5, K2O, S). */
+export const NUTRIENTS = ['n', 'p2o5', 'k2o', 's'] as const;
+export type Nutrient = (typeof NUTRIENTS)[number];
 
 /** One analyte's words. */
 export interface AnalyteTerms {

@@ -24,6 +24,7 @@ import {
   writeOutputDir,
 } from './util.js';
 import { createTerminal, type Task, type Terminal } from './progress.js';
+import { addThreadsOption, surfaceThreads } from './threads.js';
 
 export interface BuildFlags {
   samples: string;
@@ -43,10 +44,12 @@ export interface BuildFlags {
   pMethod?: 'olsen' | 'kelowna';
   assumeWgs84?: boolean;
   quiet?: boolean;
+  /** --threads (default: the machine's cores) */
+  threads?: string;
 }
 
 export function register(program: Command): void {
-  addInputOptions(program.command('build'))
+  addThreadsOption(addInputOptions(program.command('build')))
     .description(
       'Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.',
     )
@@ -123,6 +126,7 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   const tables = tablesFromOption(o.tables);
   const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
   const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
+  const threads = surfaceThreads(o.threads);
   hooks.say('reading and checking the inputs ...');
   const io = inputOptionsFrom(o as unknown as Record<string, unknown>);
   if (io.outliers === undefined && plan.soil_test.outliers === 'drop')
@@ -132,7 +136,7 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   refuseUnfit(inputs, plan, o.samples, o.boundary);
   // the grid covers the sampled parts (unsampled_parts), the whole boundary must still fit it (task data grids)
   checkBuildCells(inputs.field.bbox, cell ?? defaultCell(gridBbox(inputs, plan)));
-  const rx = buildPrescription(inputs, plan, tables, { cell, onProgress: hooks.onProgress });
+  const rx = buildPrescription(inputs, plan, tables, { cell, threads, onProgress: hooks.onProgress });
   hooks.stepDone();
   const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const)
     .filter((k) => o[k])

@@ -23,6 +23,7 @@ import {
 } from '../surface/surfaceOutput.js';
 import { tablesFromOption } from './plan.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
+import { addThreadsOption, surfaceThreads } from './threads.js';
 import { checkOutputFile, info, numberOption, out, printWarnings, writeOutputFile } from './util.js';
 
 /** An Esri ASCII grid starts with its ncols line; a .prj tilth writes is a projected WKT. */
@@ -30,7 +31,7 @@ const ASC_OURS = (h: string) => /^\s*ncols\s/i.test(h);
 const PRJ_OURS = (h: string) => /^PROJCS\["WGS_1984_UTM_Zone_\d+[NS]"/.test(h);
 
 export function register(program: Command): void {
-  addInputOptions(program.command('surface'))
+  addThreadsOption(addInputOptions(program.command('surface')))
     .description(
       "Map one soil-test nutrient over the field by inverse-distance weighting (power and neighbours chosen by cross-validation unless given) or ordinary kriging, and write an Esri ASCII grid (.asc with .prj) in the field's UTM zone.",
     )
@@ -105,6 +106,7 @@ interface SurfaceFlags {
   radius?: string;
   minNeighbours?: string;
   decimals?: string;
+  threads?: string;
   force?: boolean;
   json?: boolean;
   samples: string;
@@ -142,12 +144,24 @@ function surfaceSettings(o: SurfaceFlags) {
     integer: true,
   })!;
   const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
+  const threads = surfaceThreads(o.threads);
   if (!/\.asc$/i.test(o.out))
     throw new UserError(
       `--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`,
       { file: o.out },
     );
-  return { analyte, cell, power, neighbours, radius, minNeighbours, method, kNeighbours, decimals } as const;
+  return {
+    analyte,
+    cell,
+    power,
+    neighbours,
+    radius,
+    minNeighbours,
+    method,
+    kNeighbours,
+    decimals,
+    threads,
+  } as const;
 }
 
 async function runSurface(o: SurfaceFlags): Promise<void> {
@@ -177,6 +191,7 @@ async function runSurface(o: SurfaceFlags): Promise<void> {
     minNeighbours,
     method: set.method as SurfaceMethod,
     kriging: { neighbours: set.kNeighbours, log: Boolean(o.log) },
+    threads: set.threads,
   });
   const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
   writeOutputFile(o.out, formatAsc(grid, s.values, { decimals: set.decimals }), {

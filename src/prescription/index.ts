@@ -13,6 +13,7 @@ import type { Plan } from '../agronomy/plan.js';
 import type { Tables } from '../agronomy/tables.js';
 import { fieldGrid } from '../surface/grid.js';
 import { nutrientSurfaces, type NutrientSurface } from '../surface/nutrientSurface.js';
+import type { SurfaceThreads } from '../surface/parallel.js';
 import type { Analyte, FieldInputs, Grid } from '../types.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
 import { cellTargets } from './cellTargets.js';
@@ -76,7 +77,7 @@ export function buildPrescription(
   const inside = samplesInside(inputs, grid);
 
   // 1. surfaces
-  const { surfaces, byAnalyte } = buildSurfaces(inputs, plan, grid, progress, warnings);
+  const { surfaces, byAnalyte } = buildSurfaces(inputs, plan, grid, progress, warnings, opts.threads);
 
   // 2. per-cell targets
   const tg = cellTargets(byAnalyte, grid.fraction, plan, tables);
@@ -151,6 +152,7 @@ function buildSurfaces(
   grid: Grid,
   progress: (step: string, done: number) => void,
   warnings: Warning[],
+  threads?: SurfaceThreads,
 ): { surfaces: NutrientSurface[]; byAnalyte: Partial<Record<Analyte, Float64Array>> } {
   const { samples } = inputs;
   const surfaces: NutrientSurface[] = [];
@@ -161,6 +163,7 @@ function buildSurfaces(
   const surfaceOpts = {
     method: plan.surface.method,
     kriging: { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours },
+    threads,
   };
   const made = nutrientSurfaces(samples, present, grid, inputs.zones, surfaceOpts, (d) =>
     progress('surfaces (cross-validation and interpolation)', d),

@@ -5,6 +5,7 @@ import type { SoilValues } from '../agronomy/interpret.js';
 import type { Plan } from '../agronomy/plan.js';
 import type { Nutrient, Placement } from '../agronomy/tables.js';
 import type { NutrientSurface } from '../surface/nutrientSurface.js';
+import type { SurfaceThreads } from '../surface/parallel.js';
 import type { FieldInputs, Grid, RingsPart } from '../types.js';
 import type { ZoneDesign } from './zoneDesign.js';
 
@@ -13,6 +14,8 @@ export interface BuildOptions {
   cell?: number;
   /** progress for long steps: step name and share of it done, 0..1 (a new name starts a new step) */
   onProgress?: (step: string, done: number) => void;
+  /** worker threads for the surfaces' per-cell work (default none; src/surface/parallel.ts) */
+  threads?: SurfaceThreads;
 }
 
 /** One zone of one zone set, with its decision. */

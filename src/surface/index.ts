@@ -13,14 +13,17 @@ export {
 } from './idw.js';
 export {
   forEachNeighbourBand,
+  neighbourSearch,
   cellNeighbours,
   sampleNeighbours,
   type NeighbourBand,
+  type NeighbourSearch,
   type NeighbourOptions,
   type CellNeighbours,
   type SampleNeighbours,
 } from './neighbours.js';
 export { buildBuckets, KnnGroup, type Buckets } from './knn.js';
+export { SurfacePool, PARALLEL_MIN_CELLS, type SurfaceThreads } from './parallel.js';
 export {
   crossValidate,
   crossValidateMany,

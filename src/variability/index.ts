@@ -18,6 +18,7 @@ import {
 } from './lowSpots.js';
 import { ANALYTE_DEPTH_LABEL, ANALYTE_UNIT } from '../vocabulary.js';
 import { defaultThreshold, type Threshold } from './thresholds.js';
+import type { ChanceSummary } from './chanceMap.js';
 
 export * from './semivariogram.js';
 export * from './models.js';
@@ -33,6 +34,8 @@ export * from './text.js';
 export * from './report-charts.js';
 export * from './chance.js';
 export * from './lowSpots.js';
+export * from './chanceMap.js';
+export * from './chanceChart.js';
 
 /** Lags with fewer pairs than this are flagged (common practice). */
 export const MIN_PAIRS = 30;
@@ -74,6 +77,8 @@ export interface VariabilityReport {
   sampling: SamplingAdvice;
   low: LowSample[];
   sulphur: SulphurFindings | null;
+  /** the chance below the threshold from kriging (chanceMap.ts), when the caller made one (the CLI does) */
+  chance?: ChanceSummary;
   warnings: Warning[];
 }
 
