@@ -10,7 +10,7 @@ import { nutrientPoints } from '../surface/prepare.js';
 import { krigeGrid, krigingCandidate, type KrigingInfo } from '../surface/krigingChoice.js';
 import { chanceBelow, type KrigedCells } from '../surface/probability.js';
 import type { FitOptions } from './fit.js';
-import { NUTRIENT_LABEL } from './thresholds.js';
+import { ANALYTE_DEPTH_LABEL } from '../vocabulary.js';
 export { CHANCE_BREAKS, chanceClass, chanceClassLabels, chanceColours } from '../report/chanceClasses.js';
 
 /**
@@ -141,7 +141,7 @@ export function krigedCells(
     };
   if (s?.method === 'zones' || samples.zone.some((z) => z !== null))
     return { refused: 'zone-composite samples each stand for a whole zone; kriging needs point samples' };
-  const label = NUTRIENT_LABEL[analyte];
+  const label = ANALYTE_DEPTH_LABEL[analyte];
   const pts = nutrientPoints(samples.xy, samples.values[analyte], samples.ids, label);
   const info =
     s?.kriging && (s.kriging.model || s.kriging.refused)
