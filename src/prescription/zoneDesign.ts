@@ -14,6 +14,7 @@ import { classify, classifyVectors, type Classes } from '../zones/classify.js';
 import { makeZones, type ZoneSet } from '../zones/index.js';
 import type { Analyte, FieldInputs, Grid } from '../types.js';
 import { M2_PER_AC, M_PER_FT, m2ToAc, mphToMs } from '../units/index.js';
+import { NUTRIENT_NAME, PLACEMENT_NAME } from '../vocabulary.js';
 import { rateJudge, type ApartReason, type ZoneProfile } from './rateJudge.js';
 
 /** How a zone set's zones came about. */
@@ -132,7 +133,7 @@ function setSpecs(d: DesignInputs): SetSpec[] {
         : new Int16Array(grid.cols * grid.rows).map((_, i) => (grid.fraction[i] > 0 ? 0 : -1));
     specs.push({
       name: 'shared',
-      drivenBy: `k-means on the standardized ${varying.map(nutrientLabel).join(', ') || 'targets (all uniform)'} targets`,
+      drivenBy: `k-means on the standardized ${varying.map((n) => NUTRIENT_NAME[n]).join(', ') || 'targets (all uniform)'} targets`,
       products: allProducts,
       input: { classOf },
     });
@@ -143,7 +144,7 @@ function setSpecs(d: DesignInputs): SetSpec[] {
     for (const [n, prods] of byNutrient)
       specs.push({
         name: n,
-        drivenBy: `${nutrientLabel(n)} target (${plan.zoning.method}, up to ${plan.zoning.classes} classes)`,
+        drivenBy: `${NUTRIENT_NAME[n]} target (${plan.zoning.method}, up to ${plan.zoning.classes} classes)`,
         products: prods,
         input: tg[n],
       });
@@ -285,8 +286,6 @@ function varies(v: Float64Array, w: ArrayLike<number>): boolean {
   return hi - lo > 1e-9;
 }
 
-const nutrientLabel = (n: Nutrient): string => ({ n: 'N', p2o5: 'P2O5', k2o: 'K2O', s: 'S' })[n];
-
 /**
  * Merges neighbouring 1-D classes whose area-weighted mean values differ by less than `pct` % of the overall
  * mean: a rate step that small is not worth a zone boundary (tilth default 5 %, no published source; set
@@ -352,13 +351,6 @@ export function numberRateClasses(
   for (const z of zones) z.rateClass = order.indexOf(sig(z.decision)) + 1;
 }
 
-const PLACEMENT_SHORT: Record<string, string> = {
-  seed_row: 'seed row',
-  side_band: 'side band',
-  mid_row_band: 'mid-row band',
-  broadcast: 'broadcast',
-};
-
 /**
  * What keeps two neighbouring zones apart, for people.
  * @example apartText({ product: 'urea', placement: 'side_band', a: 206, b: 250, diff: 44, min: 21, range: [191, 221] }, 'lb/ac')
@@ -372,7 +364,7 @@ export function apartText(w: ApartReason | null, unit: string): string {
     w.range[0] === w.range[1]
       ? `the soil maps' error does not move the firmer rate (${f(w.range[0])})`
       : `outside ${f(w.range[0])}-${f(w.range[1])} where the soil maps' error moves it`;
-  return `${w.product} ${PLACEMENT_SHORT[w.placement] ?? w.placement} ${f(w.a)} vs ${f(w.b)} ${unit}: differs by ${f(w.diff)} (minimum ${f(w.min)}), ${range}`;
+  return `${w.product} ${PLACEMENT_NAME[w.placement] ?? w.placement} ${f(w.a)} vs ${f(w.b)} ${unit}: differs by ${f(w.diff)} (minimum ${f(w.min)}), ${range}`;
 }
 
 /**
