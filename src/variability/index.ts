@@ -36,6 +36,7 @@ export * from './chance.js';
 export * from './lowSpots.js';
 export * from './chanceMap.js';
 export * from './chanceChart.js';
+export * from './responseChance.js';
 
 /** Lags with fewer pairs than this are flagged (common practice). */
 export const MIN_PAIRS = 30;
