@@ -24,6 +24,10 @@ import {
   sampleMapSvg,
   semivariogramSvg,
   variabilityText,
+  chanceBelowMap,
+  chanceMapSvg,
+  chanceSummary,
+  type ChanceMap,
   type FitMethod,
   type Threshold,
   type VariabilityReport,
@@ -83,8 +87,23 @@ export function register(program: Command): void {
         : undefined,
     );
     report.warnings.push(...(surf?.warnings ?? []));
+    const chance =
+      surf && report.threshold
+        ? chanceBelowMap(
+            inputs.samples,
+            nutrient,
+            surf.grid,
+            { ...report.threshold, unit: report.unit },
+            {
+              log: o.log,
+              fit: study.fit,
+            },
+          )
+        : null;
+    if (chance) report.chance = chanceSummary(chance);
     const warnings = [...inputs.warnings, ...report.warnings];
-    if (o.out) writeCharts(o.out, report, inputs, surf, warnings, { force: Boolean(o.force), inputFiles });
+    if (o.out)
+      writeCharts(o.out, report, inputs, surf, chance, warnings, { force: Boolean(o.force), inputFiles });
     if (o.json) {
       out(toJson({ ...report, warnings }));
       printWarnings(inputs.warnings);
@@ -117,10 +136,10 @@ function declareOptions(cmd: Command): Command {
     )
     .option(
       '--cell <metres>',
-      'cell size of the interpolated surface (IDW, power and neighbours by cross-validation, as `tilth surface`) used for the share of area below the threshold and the map',
+      'cell size of the interpolated surface (IDW, power and neighbours by cross-validation, as `tilth surface`) used for the share of area below the threshold and the map, and of the chance map (ordinary kriging)',
       '10',
     )
-    .option('--no-surface', 'skip the interpolated surface (samples only)')
+    .option('--no-surface', 'skip the interpolated surface and the chance map (samples only)')
     .option(
       '--fit-method <n>',
       'model fit weights: 7 = N_j/h_j^2 (default, as gstat), 2 = N_j/gamma(h_j)^2 (Cressie)',
@@ -134,7 +153,7 @@ function declareOptions(cmd: Command): Command {
     .option('--width <m>', 'lag width, metres (default cutoff / 15)')
     .option(
       '--out <dir>',
-      'write a folder with the charts (<nutrient>-semivariogram.svg, <nutrient>-map.svg) and variability.json',
+      'write a folder with the charts (<nutrient>-semivariogram.svg, <nutrient>-map.svg, and with a threshold <nutrient>-chance-below-<threshold>.svg: the chance below it from kriging, or why there is none) and variability.json',
     )
     .option('--force', 'replace an earlier tilth --out folder (never one holding other files)')
     .option('--json', 'print JSON for scripts')
@@ -147,7 +166,9 @@ Example:
 
 Defaults, all editable: threshold as above (sources in docs/variability.md); S floor 10 lb S/ac; model weights N_j/h_j^2;
 a lag with fewer than 30 pairs is flagged (common practice); sampling is judged against half the effective range
-(common practice). Dependence classes: Cambardella et al. 1994.
+(common practice). Dependence classes: Cambardella et al. 1994. The chance below the threshold comes from ordinary
+kriging (the surface stage's model, 16 neighbours) and assumes a Gaussian error with the kriging variance (docs/surface.md);
+without 30 samples, or with a pure-nugget or trending semivariogram, kriging is refused and the text says why.
 
 ${CAUTION}`,
     );
@@ -233,6 +254,7 @@ function writeCharts(
   report: VariabilityReport,
   inputs: FieldInputs,
   surf: StudySurface | undefined,
+  chance: ChanceMap | null,
   warnings: Warning[],
   opts: { force: boolean; inputFiles: string[] },
 ): void {
@@ -261,6 +283,18 @@ function writeCharts(
     [`${stem}-map.svg`, map],
     ['variability.json', toJson({ ...report, warnings }) + '\n'],
   ]);
+  if (chance && surf)
+    files.set(
+      `${stem}-chance-below-${chance.threshold}.svg`,
+      chanceMapSvg({
+        parts: inputs.field.parts,
+        xy: inputs.samples.xy,
+        values: inputs.samples.values[report.nutrient],
+        label: report.label,
+        grid: surf.grid,
+        map: chance,
+      }),
+    );
   writeOutputDir(dir, files, { force: opts.force, inputs: opts.inputFiles });
   info(`wrote ${dir}/: ${[...files.keys()].join(', ')}`);
 }

@@ -25,7 +25,7 @@ import { partsArea, partsBbox } from '../geo/area.js';
 import type { Field, FieldInputs } from '../types.js';
 import { kghaToLbac, lbacToKgha, m2ToAc, m2ToHa } from '../units/index.js';
 import { farParts, MAX_UNSAMPLED_DISTANCE_M } from '../validate/coverage.js';
-import type { Prescription, PrescriptionZone } from './index.js';
+import type { Prescription, PrescriptionZone } from './types.js';
 
 /** The field split into the parts the samples speak for and those they do not. */
 export interface UnsampledSplit {

@@ -1,12 +1,24 @@
 /**
  * The report's maps, each an inline SVG with legend, scale bar and north arrow (see frame.ts):
- * sample locations, one surface per nutrient with its samples' values, response-probability classes,
+ * sample locations, one surface per nutrient with its samples' values (and beside it the chance below the
+ * nutrient's low threshold, or why there is none), response-probability classes,
  * one rate map per zone set and product placement, and where the seed-row and other limits bind.
  * Building blocks: mapParts.ts (rasters, boundary, samples) and zoneParts.ts (zone outlines and labels).
  */
 import { classColours, NEUTRAL, QUALITATIVE, rateColours } from './colour.js';
-import { fmt } from './escape.js';
-import { type Frame, type LegendItem, geoGroup, legend, makeFrame, mapSvg, partsBbox } from './frame.js';
+import { CHANCE_BREAKS, chanceClassLabels, chanceColours } from './chanceClasses.js';
+import { esc, fmt } from './escape.js';
+import {
+  type Frame,
+  type LegendItem,
+  geoGroup,
+  legend,
+  makeFrame,
+  mapSvg,
+  partsBbox,
+  px,
+  py,
+} from './frame.js';
 import {
   boundary,
   breakLabels,
@@ -18,7 +30,7 @@ import {
 } from './mapParts.js';
 import { trueNorthOnGrid } from './north.js';
 import { areaLabel } from './tables.js';
-import type { ReportInput, ReportNutrient, ReportZone, ReportZoneSet } from './types.js';
+import type { ReportChanceMap, ReportInput, ReportNutrient, ReportZone, ReportZoneSet } from './types.js';
 import { zonePolys } from './zoneParts.js';
 
 export { BoxIndex, breakLabels, classify, dilateClasses } from './mapParts.js';
@@ -27,7 +39,7 @@ export { labelPoint, zoneDefs } from './zoneParts.js';
 /** One drawn map. */
 export interface ReportMap {
   id: string;
-  kind: 'samples' | 'surface' | 'response' | 'rate' | 'binding';
+  kind: 'samples' | 'surface' | 'chance' | 'response' | 'rate' | 'binding';
   title: string;
   caption: string;
   svg: string;
@@ -74,7 +86,13 @@ export function buildMaps(input: ReportInput): ReportMap[] {
     },
   };
   samplesMap(ctx);
-  for (const s of input.surfaces) surfaceMap(ctx, s);
+  // a chance map right after its nutrient's surface (the mean map), the others after the surfaces
+  const chance = input.chance ?? [];
+  for (const s of input.surfaces) {
+    surfaceMap(ctx, s);
+    for (const c of chance) if (c.nutrient === s.nutrient) chanceMap(ctx, c);
+  }
+  for (const c of chance) if (!input.surfaces.some((s) => s.nutrient === c.nutrient)) chanceMap(ctx, c);
   for (const r of input.response) responseMap(ctx, r);
   input.zoneSets.forEach((set, si) => {
     for (const pp of productPlacements(set)) rateMap(ctx, set, si, pp);
@@ -133,6 +151,78 @@ function surfaceMap(ctx: MapContext, s: ReportInput['surfaces'][number]): void {
       notes: s.raster.notes,
     },
   );
+}
+
+/** 2b. The chance a nutrient is below its low threshold, in % classes; or, without one, why there is none. */
+function chanceMap(ctx: MapContext, c: ReportChanceMap): void {
+  const { input, f } = ctx;
+  const parts = input.field.parts;
+  const n = ctx.nutLabel(c.nutrient);
+  const below = `below ${fmt(c.threshold, n.decimals ?? 0)} ${c.unit}`;
+  const colours = chanceColours();
+  const labels = chanceClassLabels();
+  const rr = c.raster;
+  const body = rr
+    ? (id: string) =>
+        geoGroup(f) +
+        clipDef(f, parts, `${id}-clip`) +
+        rasterImage(f, rr, classify(rr.values, CHANCE_BREAKS), colours, `${id}-clip`) +
+        '</g>' +
+        boundary(f, parts) +
+        samplePoints(f, input, () => null)
+    : () => boundary(f, parts) + samplePoints(f, input, () => null) + noteBox(f, input, c.refused ?? '');
+  ctx.add(
+    'chance',
+    `${n.label}: chance ${below}`,
+    rr
+      ? `From ${c.method}.${c.summary ? ` ${c.summary}` : ''} ${ctx.utmNote}`
+      : `No chance map of ${n.label}: ${c.refused}. ${ctx.utmNote}`,
+    body,
+    {
+      items: [
+        ...(rr ? labels.map((l, i) => ({ fill: colours[i]!, label: l })) : []),
+        { fill: 'point', label: 'Soil sample' },
+        { fill: 'line', label: 'Field boundary' },
+      ],
+      title: `% chance ${below}`,
+      notes: rr ? [c.assumption, ...(rr.notes ?? [])] : [`No chance map: ${c.refused}.`],
+    },
+  );
+}
+
+/** A note in a box in the middle of the field (in pixels), e.g. why a map could not be made. */
+function noteBox(f: Frame, input: ReportInput, text: string): string {
+  const [x0, y0, x1, y1] = partsBbox(input.field.parts);
+  const cx = px(f, (x0 + x1) / 2),
+    cy = py(f, (y0 + y1) / 2);
+  const lines = wrapLines(`${text.charAt(0).toUpperCase()}${text.slice(1)}.`, 60);
+  const w = 460,
+    h = 38 + 17 * lines.length;
+  return (
+    `<g class="note"><rect x="${(cx - w / 2).toFixed(1)}" y="${(cy - h / 2).toFixed(1)}" width="${w}" height="${h}" rx="6" fill="#fff" fill-opacity="0.94" stroke="#b10026" stroke-width="2"/>` +
+    `<text x="${cx.toFixed(1)}" y="${(cy - h / 2 + 24).toFixed(1)}" text-anchor="middle" font-size="16" font-weight="700" fill="#b10026">No chance map</text>` +
+    lines
+      .map(
+        (l, i) =>
+          `<text x="${cx.toFixed(1)}" y="${(cy - h / 2 + 44 + 17 * i).toFixed(1)}" text-anchor="middle" font-size="13">${esc(l)}</text>`,
+      )
+      .join('') +
+    '</g>'
+  );
+}
+
+/** Words wrapped into lines of at most `max` characters. */
+function wrapLines(text: string, max: number): string[] {
+  const out: string[] = [];
+  let cur = '';
+  for (const w of text.split(/\s+/).filter(Boolean)) {
+    if (cur && cur.length + 1 + w.length > max) {
+      out.push(cur);
+      cur = w;
+    } else cur = cur ? `${cur} ${w}` : w;
+  }
+  if (cur) out.push(cur);
+  return out;
 }
 
 /** 3. Response-probability classes of a nutrient, per cell or per zone. */

@@ -1,7 +1,7 @@
 /**
  * What the variability study's hand-written SVG charts share (no chart library: small, fixed layouts; see
  * docs/variability.md): text escaping, nice axis ticks, number formats and the viridis colour map. The charts
- * are semivariogramChart.ts, sampleMap.ts and chanceMap.ts; each returns a complete, standalone SVG document.
+ * are semivariogramChart.ts, sampleMap.ts and chanceChart.ts; each returns a complete, standalone SVG document.
  */
 
 /** The charts' font attribute. */
@@ -65,4 +65,21 @@ export function viridis(t: number): string {
   const f = x - i;
   const c = a[i].map((v, k) => Math.round(v + (a[i + 1][k] - v) * f));
   return `rgb(${c[0]},${c[1]},${c[2]})`;
+}
+
+/**
+ * Words wrapped into lines of at most `max` characters (a longer word gets a line of its own).
+ * @example wrapWords('a b c', 3) // ['a b', 'c']
+ */
+export function wrapWords(text: string, max: number): string[] {
+  const lines: string[] = [];
+  let cur = '';
+  for (const w of text.split(/\s+/).filter(Boolean)) {
+    if (cur && cur.length + 1 + w.length > max) {
+      lines.push(cur);
+      cur = w;
+    } else cur = cur ? `${cur} ${w}` : w;
+  }
+  if (cur) lines.push(cur);
+  return lines;
 }

@@ -23,7 +23,8 @@ export interface MapFrame {
 }
 
 /**
- * Fits the boundary (and the samples with a value) into a W x H drawing, leaving the margins free.
+ * Fits the boundary (and the samples with a value) into a W x H drawing, leaving the margins free (`top`
+ * px above the map for the title lines, default 60).
  * @example const f = mapFrame(field.parts, samples.xy, samples.values.so4_s, 860, 640)
  */
 export function mapFrame(
@@ -32,8 +33,9 @@ export function mapFrame(
   values: ArrayLike<number>,
   W: number,
   H: number,
+  top = 60,
 ): MapFrame {
-  const m = { l: 96, r: 236, t: 60, b: 56 };
+  const m = { l: 96, r: 236, t: top, b: 56 };
   let xmin = Infinity,
     ymin = Infinity,
     xmax = -Infinity,
@@ -74,8 +76,9 @@ export function svgOpen(f: MapFrame): string {
 /**
  * A gridded surface drawn at display resolution: cells under 1.5 px are shown coarser by a whole factor, each
  * coarse cell the value of the fine cell at its centre (nearest); cells are put into classes by `bin` (-1: not
- * drawn) and equal classes in a row merged into one rectangle (small files). Returns the SVG group and a note
- * such as ", drawn at 10 m cells" ('' at full resolution).
+ * drawn) and equal classes in a row merged into one rectangle (small files). Without `clip` only cells whose
+ * centre is inside the field are drawn; with it every cell with a value, clipped to the boundary (no notches at
+ * the edge). Returns the SVG group and a note such as ", drawn at 10 m cells" ('' at full resolution).
  * @param bin class of a value, or -1 for none
  * @param fill colour of a class
  * @example rasterSvg(f, grid, values, (v) => Math.round(v * 47), (b) => viridis(b / 47), 0.75)
@@ -87,6 +90,7 @@ export function rasterSvg(
   bin: (v: number) => number,
   fill: (b: number) => string,
   opacity: number,
+  clip?: { id: string; parts: RingsPart[] },
 ): { svg: string[]; drawnNote: string } {
   const k = Math.max(1, Math.ceil(1.5 / (g.cell * f.scale)));
   const drawnNote = k > 1 ? `, drawn at ${k * g.cell} m cells` : '';
@@ -94,9 +98,16 @@ export function rasterSvg(
     rows = Math.ceil(g.rows / k);
   const at = (r: number, c: number) =>
     Math.min(g.rows - 1, r * k + (k >> 1)) * g.cols + Math.min(g.cols - 1, c * k + (k >> 1));
-  const classOf = (i: number) => (g.mask[i] && Number.isFinite(vals[i]) ? bin(vals[i]) : -1);
+  // clipped: every cell with a value (partly inside too), cut at the boundary; else cells whose centre is inside
+  const shown = (i: number) => (clip ? true : g.mask[i] === 1) && Number.isFinite(vals[i]);
+  const classOf = (i: number) => (shown(i) ? bin(vals[i]) : -1);
   // opacity on the group, so the slight overlaps that hide seams do not darken
-  const o = [`<g opacity="${opacity}" shape-rendering="crispEdges">`];
+  const o = clip
+    ? [
+        `<defs><clipPath id="${clip.id}"><path clip-rule="evenodd" d="${ringsPath(f, clip.parts)}"/></clipPath></defs>`,
+        `<g opacity="${opacity}" shape-rendering="crispEdges" clip-path="url(#${clip.id})">`,
+      ]
+    : [`<g opacity="${opacity}" shape-rendering="crispEdges">`];
   for (let r = 0; r < rows; r++) {
     let c = 0;
     while (c < cols) {
@@ -119,8 +130,8 @@ export function rasterSvg(
   return { svg: o, drawnNote };
 }
 
-/** The field boundary (holes even-odd), filled pale when nothing is drawn beneath it. */
-export function boundarySvg(f: MapFrame, parts: RingsPart[], filled: boolean): string {
+/** The path data of the parts' rings, in pixels. */
+function ringsPath(f: MapFrame, parts: RingsPart[]): string {
   let d = '';
   for (const p of parts)
     for (const ring of [p.exterior, ...p.holes]) {
@@ -128,7 +139,12 @@ export function boundarySvg(f: MapFrame, parts: RingsPart[], filled: boolean): s
         d += `${i ? 'L' : 'M'}${f.sx(ring[i]).toFixed(1)} ${f.sy(ring[i + 1]).toFixed(1)}`;
       d += 'Z';
     }
-  return `<path d="${d}" fill="${filled ? '#f4f1e8' : 'none'}" fill-rule="evenodd" stroke="#222" stroke-width="2"/>`;
+  return d;
+}
+
+/** The field boundary (holes even-odd), filled pale when nothing is drawn beneath it. */
+export function boundarySvg(f: MapFrame, parts: RingsPart[], filled: boolean): string {
+  return `<path d="${ringsPath(f, parts)}" fill="${filled ? '#f4f1e8' : 'none'}" fill-rule="evenodd" stroke="#222" stroke-width="2"/>`;
 }
 
 /** A scale bar bottom left: a nice length about a quarter of the map width. */

@@ -39,6 +39,7 @@ export function variabilityText(r: VariabilityReport): string {
   L.push(wrap(r.sampling.text, '  '));
   L.push('');
   lowSpotLines(L, r);
+  chanceLines(L, r);
   sulphurLines(L, r);
   for (const w of r.warnings) L.push(wrap(`warning: ${w.message}`, ''));
   return L.join('\n') + '\n';
@@ -129,6 +130,30 @@ function lowSpotLines(L: string[], r: VariabilityReport): void {
     L.push(
       `  ${pad(l.id, 10)} ${lpad(f(l.value), 7)} ${r.unit}${l.censored < 0 ? ' (below detection; half the limit used)' : l.censored > 0 ? ' (above range)' : ''}   lat ${f(l.lat, 6)} lon ${f(l.lon, 6)}  (UTM ${f(l.x, 0)} E, ${f(l.y, 0)} N)`,
     );
+  L.push('');
+}
+
+/** The chance below the threshold from kriging: how it was made and what it says, or why there is none. */
+function chanceLines(L: string[], r: VariabilityReport): void {
+  const c = r.chance;
+  if (!c) return;
+  const below = `${c.inclusive ? 'at or below' : 'below'} ${c.threshold} ${r.unit}`;
+  if (c.refused) {
+    L.push(wrap(`Chance ${below}: no map: ${c.refused}.`, '  '));
+    L.push('');
+    return;
+  }
+  L.push(`Chance ${below} (from kriging; Gaussian assumption)`);
+  const msse = c.msse !== null && Number.isFinite(c.msse) ? `; leave-one-out MSSE ${f(c.msse, 2)}` : '';
+  L.push(wrap(`  ${c.method}${msse}`, '    '));
+  if (c.expectedShare !== null && c.shareLikely)
+    L.push(
+      wrap(
+        `  expected share of the field ${below}: ${f(100 * c.expectedShare, 0)} % (${f(c.expectedAc ?? NaN)} ac); at least 50 % likely on ${f(100 * c.shareLikely.p50, 0)} % of the field, at least 90 % likely on ${f(100 * c.shareLikely.p90, 0)} %`,
+        '    ',
+      ),
+    );
+  L.push(wrap(`  ${c.assumption}`, '    '));
   L.push('');
 }
 

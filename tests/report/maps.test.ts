@@ -5,9 +5,10 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { booleanPointInPolygon, polygon, point } from '@turf/turf';
-import { renderReport } from '../../src/report/index.js';
+import { parseReportInput, renderReport, serializeReportInput } from '../../src/report/index.js';
 import { makeFrame } from '../../src/report/frame.js';
-import { breakLabels, classify, dilateClasses, labelPoint } from '../../src/report/maps.js';
+import { breakLabels, buildMaps, classify, dilateClasses, labelPoint } from '../../src/report/maps.js';
+import { chanceClassLabels } from '../../src/report/chanceClasses.js';
 import { demoInput, demoInputAt } from '../helpers/report-fixture.js';
 
 describe('maps', () => {
@@ -158,5 +159,62 @@ describe('maps', () => {
     expect(f.h).toBeLessThanOrEqual(700);
     expect((432005 - f.x0) * f.k).toBeLessThanOrEqual(f.w);
     expect((f.y0 - 5741600) * f.k).toBeLessThanOrEqual(f.h);
+  });
+
+  it("a chance map follows its nutrient's surface: % classes and the assumption; without one, the reason in its place", () => {
+    const inp = demoInput();
+    const surf = inp.surfaces.find((x) => x.nutrient === 'so4_s')!;
+    const values = Float64Array.from(surf.raster.values as ArrayLike<number>, (v) =>
+      Number.isFinite(v) ? Math.min(1, Math.max(0, (30 - v) / 20)) : NaN,
+    );
+    const assumption = 'Assumes the true value in each cell is Gaussian (test).';
+    inp.chance = [
+      {
+        nutrient: 'so4_s',
+        threshold: 20,
+        unit: 'lb/ac',
+        raster: { grid: surf.raster.grid, values },
+        method: 'ordinary kriging, spherical (test)',
+        assumption,
+        summary: 'Expected 31 % of the field below 20 lb/ac.',
+      },
+    ];
+    const maps = buildMaps(inp);
+    const kinds = maps.map((m) => m.kind);
+    const at = kinds.indexOf('chance');
+    expect(maps[at - 1]!.title).toContain('Sulphate-S');
+    expect(maps[at - 1]!.kind).toBe('surface');
+    const m = maps[at]!;
+    expect(m.title).toBe('Sulphate-S 0-24 in: chance below 20 lb/ac');
+    for (const l of chanceClassLabels()) expect(m.svg).toContain(l);
+    expect(m.svg).toContain('<image class="raster"');
+    expect(m.svg).toContain('Gaussian');
+    expect(m.caption).toContain('Expected 31 %');
+    expect(m.caption).toMatch(/^From ordinary kriging/);
+    // round trip through report-data.json keeps the chance map
+    const back = parseReportInput(serializeReportInput(inp));
+    expect(back.chance![0]!.raster!.values.length).toBe(values.length);
+    expect(back.chance![0]!.assumption).toBe(assumption);
+
+    inp.chance = [
+      {
+        nutrient: 'so4_s',
+        threshold: 20,
+        unit: 'lb/ac',
+        refused: 'ordinary kriging is refused: only 12 samples; kriging needs at least 30',
+        method: 'ordinary kriging (refused)',
+        assumption,
+      },
+    ];
+    const none = buildMaps(inp).find((x) => x.kind === 'chance')!;
+    expect(none.svg).not.toContain('<image class="raster"');
+    expect(none.svg).toContain('No chance map');
+    expect(none.svg).toContain('only 12 samples');
+    expect(none.caption).toContain('No chance map of Sulphate-S 0-24 in: ordinary kriging is refused');
+    // files from before chance maps existed still read
+    delete inp.chance;
+    expect(buildMaps(parseReportInput(serializeReportInput(inp))).some((x) => x.kind === 'chance')).toBe(
+      false,
+    );
   });
 });
