@@ -25,7 +25,6 @@ const node = Object.fromEntries(
  * warnings until then). Take a file off this list when it is split; never add one.
  */
 const TO_SPLIT = [
-  'src/surface/knn.ts', // nearest
   'src/zones/arcs.ts', // zoneArcs
   'src/zones/classify.ts', // classifyVectors
   'src/zones/clean.ts', // mergeSmallZones
