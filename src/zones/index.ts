@@ -298,9 +298,12 @@ function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, jud
 }
 
 /**
- * Zone polygons from a zone raster (`cellArea`: each zone's area from its cells, m2): arcs simplified to `tol` cells (0 = staircase), rings rebuilt, zones near
- * the boundary clipped to it. A zone that simplification would take under `minAreaM2` although its cells
- * reach it keeps its staircase borders (simplification is redone with them fixed).
+ * Zone polygons from a zone raster (`cellArea`: each zone's area from its cells, m2): arcs simplified to `tol`
+ * cells (0 = staircase), rings rebuilt, zones near the boundary clipped to it. The arcs are simplified as a
+ * partition of the raster's cells, and the field boundary cuts through edge cells, so a shortcut can move the
+ * in-field part of a zone along the edge into its neighbour; a zone that smoothing takes below half its own area,
+ * or below `minAreaM2` although its cells reach it, keeps its staircase borders (simplification is redone with
+ * them fixed; after three rounds every border keeps its staircase).
  */
 function zonePolygons(
   grid: Grid,
@@ -318,20 +321,18 @@ function zonePolygons(
   const scale = planarField > 0 ? field.areaM2 / planarField : 1;
   const keep = new Uint8Array(count);
   for (let attempt = 0; ; attempt++) {
-    const smooth = tol > 0 ? simplifyArcs(arcs, tol) : staircase;
+    const smoothing = tol > 0 && attempt < 3;
+    const smooth = smoothing ? simplifyArcs(arcs, tol) : staircase;
     const traced = arcsToParts(arcs, smooth, grid);
     const parts = traced.map((p, z) => (needsClip[z] ? clipParts(p, field.parts, grid.xmin, grid.ymax) : p));
-    let redo = false;
-    for (let z = 0; z < count; z++) {
-      if (keep[z] || tol <= 0 || cellArea[z] < minAreaM2 || partsArea(parts[z]) >= minAreaM2 * (1 - 1e-9))
-        continue;
+    const shrunk = smoothing ? shrunkZones(parts, cellArea, minAreaM2, keep) : [];
+    for (const z of shrunk) {
       keep[z] = 1;
-      redo = true;
       arcs.arcs.forEach((_, k) => {
         if (arcs.left[k] === z || arcs.right[k] === z) arcs.fixed[k] = true;
       });
     }
-    if (!redo || attempt >= 3) {
+    if (shrunk.length === 0) {
       const vertices = {
         traced: ringsVertexCount(arcs, staircase),
         simplified: ringsVertexCount(arcs, smooth),
@@ -340,6 +341,26 @@ function zonePolygons(
       return { parts, vertices, scale };
     }
   }
+}
+
+/**
+ * Zones (not yet kept as staircases) whose smoothed, clipped polygons fall below half their area from cells
+ * (tilth's rule: a zone that gives up more than half of itself to its neighbours is no longer where its cells
+ * are), or below `minAreaM2` although their cells reach it.
+ */
+function shrunkZones(
+  parts: RingsPart[][],
+  cellArea: Float64Array,
+  minAreaM2: number,
+  keep: Uint8Array,
+): number[] {
+  const out: number[] = [];
+  for (let z = 0; z < parts.length; z++) {
+    if (keep[z]) continue;
+    const floor = Math.max(cellArea[z] >= minAreaM2 ? minAreaM2 : 0, cellArea[z] / 2);
+    if (partsArea(parts[z]) < floor * (1 - 1e-9)) out.push(z);
+  }
+  return out;
 }
 
 /** Zones with a cell within `reach` cells of one the boundary crosses, or of a cell outside: these are clipped. */
