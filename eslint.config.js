@@ -42,10 +42,6 @@ const TO_SPLIT = [
   'src/variability/charts.ts', // semivariogramSvg, sampleMapSvg
   'src/variability/index.ts', // analyzeVariability
   'src/variability/text.ts', // variabilityText
-  'src/zones/arcs.ts', // zoneArcs
-  'src/zones/classify.ts', // classifyVectors
-  'src/zones/clean.ts', // mergeSmallZones
-  'src/zones/index.ts', // makeZones
 ];
 
 /** Files still over 400 lines since the whole code base went through Prettier; same rule: split, never add. */
@@ -56,8 +52,6 @@ const TO_SHORTEN = [
   'src/report/maps.ts',
   'src/surface/nutrientSurface.ts',
   'src/variability/charts.ts',
-  'src/zones/classify.ts',
-  'src/zones/index.ts',
   'tests/agronomy/rates.test.ts',
   'tests/io/labs.test.ts',
   'tests/io/shapefile-writer.test.ts',
