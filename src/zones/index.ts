@@ -285,6 +285,8 @@ function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, jud
     judge,
     'scan',
   );
+  // each zone's own area, taken before mergeGraph pools areas into its rate classes' roots (in place)
+  const ownArea = Float64Array.from(m.graph.areaM2);
   const g = mergeGraph(m.graph, judge, true);
   // touching merged zones of one rate class become one zone
   const parent = Int32Array.from({ length: m.count }, (_, k) => k);
@@ -331,7 +333,7 @@ function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, jud
   }
   pairs.sort((p, q) => p.a - q.a || p.b - q.b);
   const areaM2 = new Float64Array(n);
-  for (let z = 0; z < m.count; z++) areaM2[final[z]] += m.graph.areaM2[z];
+  for (let z = 0; z < m.count; z++) areaM2[final[z]] += ownArea[z];
   return {
     label,
     count: n,
