@@ -5,9 +5,19 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
+import { isMainThread, workerData } from 'node:worker_threads';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const dist = join(root, 'dist', 'tilth.mjs');
+
+if (!isMainThread && workerData?.tilthSurfaceWorker) {
+  // a surface worker started by the CLI running from the sources (src/cli/threads.ts): the worker through tsx
+  const { register } = await import('tsx/esm/api');
+  register();
+  await import(pathToFileURL(join(root, 'src', 'surface', 'worker.ts')).href);
+} else {
+  await main();
+}
 
 function newest(dir) {
   let t = 0;
@@ -19,15 +29,17 @@ function newest(dir) {
   return t;
 }
 
-const useDist =
-  existsSync(dist) &&
-  process.env.TILTH_FROM_SOURCE !== '1' &&
-  statSync(dist).mtimeMs >= Math.max(newest(join(root, 'src')), newest(join(root, 'tables')));
+async function main() {
+  const useDist =
+    existsSync(dist) &&
+    process.env.TILTH_FROM_SOURCE !== '1' &&
+    statSync(dist).mtimeMs >= Math.max(newest(join(root, 'src')), newest(join(root, 'tables')));
 
-if (useDist) {
-  await import(pathToFileURL(dist).href);
-} else {
-  const { register } = await import('tsx/esm/api');
-  register();
-  await import(pathToFileURL(join(root, 'src', 'cli', 'main.ts')).href);
+  if (useDist) {
+    await import(pathToFileURL(dist).href);
+  } else {
+    const { register } = await import('tsx/esm/api');
+    register();
+    await import(pathToFileURL(join(root, 'src', 'cli', 'main.ts')).href);
+  }
 }

@@ -14,6 +14,7 @@
 //   --nn: also time gdal_grid invdistnn:power=2:max_points=12 on the section (takes many minutes)
 //   --keep: keep the temporary folder with the synthetic inputs and outputs, and print its path
 //   TILTH_BENCH_CLI=dist/x.mjs: time that entry point instead of bin/tilth.js (experiments)
+//   TILTH_BENCH_ARGS="--threads 1": extra arguments for every tilth build
 import { execFileSync, spawn, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
@@ -39,6 +40,8 @@ execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root
 const TILTH = process.env.TILTH_BENCH_CLI
   ? join(root, process.env.TILTH_BENCH_CLI)
   : join(root, 'bin', 'tilth.js');
+// TILTH_BENCH_ARGS="--threads 1": extra arguments for every tilth build
+const EXTRA = (process.env.TILTH_BENCH_ARGS ?? '').split(/\s+/).filter(Boolean);
 
 const med = (a) => (a.length ? [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)] : NaN);
 
@@ -71,7 +74,10 @@ function stages(argv) {
     const t0 = process.hrtime.bigint();
     const at = () => Number(process.hrtime.bigint() - t0) / 1e9;
     const marks = [];
-    const child = spawn(process.execPath, [TILTH, ...argv], { cwd: root, stdio: ['ignore', 'pipe', 'pipe'] });
+    const child = spawn(process.execPath, [TILTH, ...argv, ...EXTRA], {
+      cwd: root,
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
     let buf = '';
     child.stdout.resume();
     child.stderr.on('data', (d) => {
@@ -136,7 +142,7 @@ try {
     '--cell',
     '2',
   ];
-  const tq = measure(process.execPath, [TILTH, ...qArgs], RUNS, root, [0, 1]);
+  const tq = measure(process.execPath, [TILTH, ...qArgs, ...EXTRA], RUNS, root, [0, 1]);
   results.push({ name: 'quarter (demo, 2 m cells)', ...tq });
   const sq = await stages(qArgs);
 
@@ -156,7 +162,7 @@ try {
     '--cell',
     '1',
   ];
-  const ts = measure(process.execPath, [TILTH, ...sArgs], SECTION_RUNS, root, [0, 1]);
+  const ts = measure(process.execPath, [TILTH, ...sArgs, ...EXTRA], SECTION_RUNS, root, [0, 1]);
   results.push({ name: `section (synthetic, 1 m cells, ${N_SAMPLES} samples)`, ...ts });
   const ss = await stages(sArgs);
 

@@ -1,8 +1,10 @@
 // Surface benchmark: the whole `tilth surface` process (start, read, project, index, interpolate,
 // write) on seeded data, against gdal_grid on the same points and grid when it is installed.
 // Medians of several runs; peak memory from /usr/bin/time -v (max resident set size).
-// Usage: node scripts/bench-surface.mjs [--runs 5] [--nn] [--only-kriging]   (--nn also times gdal_grid invdistnn on the
-// largest cases, which takes minutes)
+// Usage: node scripts/bench-surface.mjs [--runs 5] [--nn] [--only-kriging] [--no-kriging]   (--nn also times gdal_grid
+// invdistnn on the largest cases, which takes minutes)
+//   TILTH_BENCH_CLI=path: time that entry point instead of bin/tilth.js (e.g. an older bundle kept for comparison)
+//   TILTH_BENCH_ARGS="--threads 1": extra arguments for every tilth run
 import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
@@ -15,6 +17,11 @@ const args = process.argv.slice(2);
 const RUNS = Number(args[args.indexOf('--runs') + 1]) || 5;
 const NN_ALL = args.includes('--nn');
 const ONLY_KRIGING = args.includes('--only-kriging'); // skip the IDW / gdal_grid table
+const NO_KRIGING = args.includes('--no-kriging'); // skip the kriging / IDW table
+const TILTH = process.env.TILTH_BENCH_CLI
+  ? join(root, process.env.TILTH_BENCH_CLI)
+  : join(root, 'bin', 'tilth.js');
+const EXTRA = (process.env.TILTH_BENCH_ARGS ?? '').split(/\s+/).filter(Boolean);
 const TIME = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
 const HAS_GDAL = spawnSync('gdal_grid', ['--version'], { stdio: 'ignore' }).status === 0;
 
@@ -128,9 +135,11 @@ const CASES = [
 ];
 
 console.log(
-  `machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; ${RUNS} runs per figure (median wall, max peak RSS)`,
+  `machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; ${RUNS} runs per figure (median wall, max peak RSS); load average at start ${loadavg()
+    .map((x) => x.toFixed(2))
+    .join(', ')}`,
 );
-console.log('tilth: tilth surface --power 2 --neighbours 12 (whole process, bundled CLI)');
+console.log(`tilth: ${TILTH} ${EXTRA.join(' ')} surface --power 2 --neighbours 12 (whole process)`);
 if (HAS_GDAL)
   console.log(
     'gdal_grid 3.6: invdist:power=2:smoothing=0 (all points) and invdistnn:power=2:max_points=12 on the same points and grid',
@@ -150,8 +159,9 @@ for (const c of ONLY_KRIGING ? [] : CASES) {
     makeCase(dir, c.n, side, 1000 + c.n);
     const out = join(dir, 'p.asc');
     const tilthArgs = [
-      join(root, 'bin', 'tilth.js'),
+      TILTH,
       'surface',
+      ...EXTRA,
       '--samples',
       join(dir, 'samples.geojson'),
       '--boundary',
@@ -249,17 +259,20 @@ console.log(
   '| samples | grid | IDW wall | IDW MB | kriging wall | kriging MB | kriging / IDW (wall) | load average (1 min) before, after |',
 );
 console.log('|---:|---|---:|---:|---:|---:|---:|---|');
-for (const c of [
-  { n: 640, cells: 800, cell: 5 },
-  { n: 5000, cells: 800, cell: 5 },
-]) {
+for (const c of NO_KRIGING
+  ? []
+  : [
+      { n: 640, cells: 800, cell: 5 },
+      { n: 5000, cells: 800, cell: 5 },
+    ]) {
   const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-'));
   try {
     const side = c.cells * c.cell;
     makeCase(dir, c.n, side, 2000 + c.n, true);
     const common = [
-      join(root, 'bin', 'tilth.js'),
+      TILTH,
       'surface',
+      ...EXTRA,
       '--samples',
       join(dir, 'samples.geojson'),
       '--boundary',
@@ -311,3 +324,8 @@ for (const c of [
     rmSync(dir, { recursive: true, force: true });
   }
 }
+console.log(
+  `\nload average at end ${loadavg()
+    .map((x) => x.toFixed(2))
+    .join(', ')}`,
+);

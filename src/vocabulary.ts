@@ -3,7 +3,7 @@
  *
  * - **analyte** = a soil test value: nitrate-N, P, K, sulphate-S, organic matter, pH (`Analyte`, src/types.ts).
  *   **nutrient** = what a fertilizer supplies and a rate is given in: N, P2O5, K2O, S (`Nutrient`,
- *   src/agronomy/tables.ts). A surface is an analyte map; a target is a nutrient rate. Old names that mix the
+ *   below; the tables use it). A surface is an analyte map; a target is a nutrient rate. Old names that mix the
  *   two (`nutrientSurface`, `NUTRIENT_LABEL` for analytes) are kept where they are public, and new code follows
  *   this rule.
  * - **placement** = where a product goes: seed_row, side_band, mid_row_band, broadcast (`PLACEMENTS`).
@@ -17,7 +17,12 @@
  */
 import type { Analyte } from './types.js';
 
-export { PLACEMENTS, NUTRIENTS, type Placement, type Nutrient } from './agronomy/tables.js';
+/** Where a product goes: in the seed row, a side or mid-row band, or broadcast. */
+export const PLACEMENTS = ['seed_row', 'side_band', 'mid_row_band', 'broadcast'] as const;
+export type Placement = (typeof PLACEMENTS)[number];
+/** The nutrients a product supplies, as the tables name them (N, P2O5, K2O, S). */
+export const NUTRIENTS = ['n', 'p2o5', 'k2o', 's'] as const;
+export type Nutrient = (typeof NUTRIENTS)[number];
 
 /** Each analyte's words: short name, sampled depth and canonical unit (the values in `Samples`). */
 export const ANALYTE_TERMS: Readonly<Record<Analyte, { short: string; depth: string; unit: string }>> = {

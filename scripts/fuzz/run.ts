@@ -9,6 +9,7 @@ import { fork, type ChildProcess } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { ensureBomb, targetOf } from './targets.js';
+import { ensureTaskData } from './taskdata.js';
 
 interface Reply {
   seed: number;
@@ -135,6 +136,7 @@ async function main() {
   const counts: Counts = {};
   const bad: Reply[] = [];
   if (!o.only || o.only.includes('zip-bomb')) ensureBomb();
+  if (!o.only || o.only.includes('check-taskdata')) await ensureTaskData();
   let done = 0,
     slowest = 0,
     peakRss = 0;

@@ -13,6 +13,7 @@ import { inspectInputs } from '../../src/stats/inspect.js';
 import { fieldGrid, nutrientSurface } from '../../src/surface/index.js';
 import { many, mutateBytes, mutateJson, mutateText } from './mutate.js';
 import { rng, type Rng } from './rng.js';
+import { taskDataRun } from './taskdata.js';
 
 const ROOT = join(import.meta.dirname, '..', '..');
 const Q = join(ROOT, 'sample-fields', 'quarter');
@@ -190,6 +191,13 @@ export const TARGETS: Target[] = [
       const z = many(r, zipSync(files), mutateBytes);
       const layer = await readLayer({ 'b.zip': z }, 'b.zip');
       return { outcome: checkPrescription(layer).ok ? 'accepted' : 'failed' };
+    },
+  },
+  {
+    name: 'check-taskdata',
+    weight: 3,
+    async run(r) {
+      return taskDataRun(r);
     },
   },
   {

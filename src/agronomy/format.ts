@@ -2,7 +2,7 @@
  * A Decision as text for people (the CLI prints it; the report may reuse it).
  */
 import { lbacToKgha } from '../units/index.js';
-import type { Decision } from './decide.js';
+import type { Decision } from './decision.js';
 import { NUTRIENTS, type Nutrient } from './tables.js';
 
 const NAME: Record<Nutrient, string> = { n: 'N', p2o5: 'P2O5', k2o: 'K2O', s: 'S' };

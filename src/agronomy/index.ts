@@ -1,13 +1,13 @@
 /** The rate engine: pure agronomy, no spatial code. See docs/method.md, "Rate engine". */
+export { decide } from './decide.js';
 export {
-  decide,
   type Decision,
   type Rate,
   type ProductRate,
   type PlacementResult,
   type NutrientResult,
   type Economics,
-} from './decide.js';
+} from './decision.js';
 export {
   interpret,
   pClass,

@@ -39,6 +39,8 @@ export const planSchema = z
         nitrate_sampled: z.enum(['spring', 'fall']).default('spring'),
         /** modified Kelowna reads this many times Olsen; scales the Olsen class bounds where no published Kelowna bound exists */
         kelowna_factor: z.number().min(1).max(2).default(1.3),
+        /** values the neighbour outlier test flags: keep them in the maps (named in a warning) or drop them from interpolation; --outliers wins */
+        outliers: z.enum(['keep', 'drop']).default('keep'),
       })
       .strict()
       .prefault({}),
@@ -131,6 +133,22 @@ export const planSchema = z
             });
         });
       }),
+    /**
+     * Boundary parts farther than the unsampled distance (1 000 m) from every sample: null = refuse the build;
+     * "none" = no product there; a rate (one-product plans); or per product a rate or { rate, placement }, in the
+     * plan's units. The parts that get it are named in the output.
+     */
+    unsampled_parts: z
+      .union([
+        z.literal('none'),
+        z.number().min(0),
+        z.record(
+          z.string(),
+          z.union([z.number().min(0), z.object({ rate: z.number().min(0), placement }).strict()]),
+        ),
+      ])
+      .nullable()
+      .default(null),
     machine: z
       .object({
         swath_width_ft: z.number().positive().default(60),

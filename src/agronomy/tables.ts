@@ -6,6 +6,7 @@ import { parse as parseYaml, stringify as stringifyYaml } from 'yaml';
 import { z } from 'zod';
 import { UserError } from '../errors.js';
 import { DEFAULT_TABLES } from './tables/defaults.js';
+import { PLACEMENTS, NUTRIENTS, type Placement, type Nutrient } from '../vocabulary.js';
 
 /** Where a value comes from: `[published] <publication>`, `common practice...`, `from memory...`, `missing...`, or the user's own note. */
 const source = z.string().min(3);
@@ -13,10 +14,8 @@ const num = (min = 0) => z.object({ value: z.number().min(min), source });
 const bool = z.object({ value: z.boolean(), source });
 const prob = z.object({ value: z.number().min(0).max(1), source });
 
-export const PLACEMENTS = ['seed_row', 'side_band', 'mid_row_band', 'broadcast'] as const;
-export type Placement = (typeof PLACEMENTS)[number];
-export const NUTRIENTS = ['n', 'p2o5', 'k2o', 's'] as const;
-export type Nutrient = (typeof NUTRIENTS)[number];
+// defined with the shared vocabulary, which every command loads without zod and yaml
+export { PLACEMENTS, NUTRIENTS, type Placement, type Nutrient };
 export const TEXTURES = ['light', 'medium', 'heavy'] as const;
 
 /** A seed-placed P2O5 guideline "as MAP": the value and the drill configuration it was stated for. */

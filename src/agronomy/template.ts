@@ -124,6 +124,7 @@ soil_test:
   p_method: olsen             # olsen | kelowna (modified Kelowna reads higher; never mix methods)
   nitrate_sampled: spring     # spring | fall: when the nitrate samples were taken; used as read (a fall sample is never reduced)
   kelowna_factor: 1.3         # modified Kelowna reads about this many times Olsen (common practice: 10-50 % higher); scales the P class bounds where none is published
+  outliers: keep              # keep | drop: values far from their 6 nearest samples (neighbour outlier test) stay in the maps, named in a warning, or are left out of interpolation (--outliers wins)
 
 credits:                      # N credits added to soil nitrate 0-24 in
   organic_matter: false       # true: ${tables.soil.om_n_lb_per_pct.value} lb N per 1 % OM x ${tables.soil.om_n_available.value} available
@@ -142,6 +143,9 @@ implement:
 
 ${seedRowSection(crop, tables)}
 ${productsSection(tables, units)}
+
+unsampled_parts: null         # boundary parts more than 1000 m from every sample: null = refuse the build; none = no product there;
+                              # or rates in ${units}: { urea: 80, map: { rate: 40, placement: side_band } } (default placement: the first outside the seed row)
 
 machine:
   swath_width_ft: 60

@@ -22,85 +22,86 @@ import { polysArea, ringCentroid, type Poly } from './shape.js';
  * @example checkBoundary(ctx)
  */
 export function checkBoundary(ctx: CheckContext): void {
-  if (!ctx.opts.boundary) {
-    ctx.add('outside', 'skip', 'no --boundary given');
-    ctx.add('gaps', 'skip', 'no --boundary given');
-  } else {
-    const bl = ctx.opts.boundary;
-    const bp = usableFeatures(bl.features).problems.findIndex(Boolean);
-    if (bp >= 0)
+  const bl = ctx.opts.boundary;
+  if (!bl) return skipBoth(ctx, 'no --boundary given');
+  const bp = usableFeatures(bl.features).problems.findIndex(Boolean);
+  if (bp >= 0)
+    throw new UserError(
+      `${bl.label} feature ${bp + 1}: ${usableFeatures([bl.features[bp]!]).problems[0]}. Fix: export the field boundary again.`,
+      { file: bl.label, where: `feature ${bp + 1}` },
+    );
+  const bframe = frameOf(bl);
+  if (!ctx.work || bframe.kind === 'planar')
+    return skipBoth(ctx, 'the prescription or the boundary has no known coordinate system');
+  if (!ctx.covered) return skipBoth(ctx, 'the zones could not be merged (see overlap)');
+  try {
+    const cov = ctx.covered;
+    const bpolys = toMetres(bl.features, bframe, ctx.work, ctx.origin)
+      .filter((m): m is Poly[] => !!m)
+      .flat();
+    if (!bpolys.length)
       throw new UserError(
-        `${bl.label} feature ${bp + 1}: ${usableFeatures([bl.features[bp]!]).problems[0]}. Fix: export the field boundary again.`,
-        { file: bl.label, where: `feature ${bp + 1}` },
+        `${bl.label}: holds no polygon to use as the field boundary. Fix: give the field's boundary polygon.`,
+        { file: bl.label },
       );
-    const bframe = frameOf(bl);
-    if (!ctx.work || bframe.kind === 'planar') {
-      ctx.add('outside', 'skip', 'the prescription or the boundary has no known coordinate system');
-      ctx.add('gaps', 'skip', 'the prescription or the boundary has no known coordinate system');
-    } else if (!ctx.covered) {
-      ctx.add('outside', 'skip', 'the zones could not be merged (see overlap)');
-      ctx.add('gaps', 'skip', 'the zones could not be merged (see overlap)');
-    } else
-      try {
-        const cov = ctx.covered;
-        const bpolys = toMetres(bl.features, bframe, ctx.work, ctx.origin)
-          .filter((m): m is Poly[] => !!m)
-          .flat();
-        if (!bpolys.length)
-          throw new UserError(
-            `${bl.label}: holds no polygon to use as the field boundary. Fix: give the field's boundary polygon.`,
-            { file: bl.label },
-          );
-        const boundary = clip.union(bpolys[0] as clip.Geom, ...(bpolys.slice(1) as clip.Geom[])) as Poly[];
-        const out: string[] = [],
-          outZones: string[] = [];
-        const outsideTotal = cov.length
-          ? polysArea(clip.difference(cov as clip.Geom, boundary as clip.Geom) as Poly[])
-          : 0;
-        if (outsideTotal >= SLIVER_M2)
-          ctx.usable.forEach((m, i) => {
-            if (!m) return;
-            const a = ctx.significant(
-              clip.difference(m as clip.Geom, boundary as clip.Geom) as Poly[],
-              ctx.scale,
-            );
-            if (a >= SLIVER_M2) {
-              out.push(`${ctx.names[i]} (${fmt(a)} m2)`);
-              outZones.push(ctx.names[i]);
-            }
-          });
-        if (out.length) ctx.add('outside', 'fail', `parts outside the boundary: ${list(out, 8)}`, outZones);
-        else ctx.add('outside', 'pass', 'every zone lies inside the boundary');
-        const gaps = (
-          cov.length ? clip.difference(boundary as clip.Geom, cov as clip.Geom) : boundary
-        ) as Poly[];
-        const pieces = gaps
-          .map((p) => ({ p, a: polysArea([p]) / ctx.scale }))
-          .filter((g) => g.a >= SLIVER_M2 && ctx.significant([g.p], ctx.scale) > 0)
-          .sort((a, b) => b.a - a.a);
-        if (pieces.length) {
-          const where = pieces.slice(0, 5).map(({ p, a }) => {
-            const [cx, cy] = ringCentroid(p[0]);
-            const [lon, lat] = ctx.work!.toLonLat(cx + ctx.origin[0], cy + ctx.origin[1]);
-            const near = ctx.usable
-              .map((m, i) => (m && boxesMeet(ctx.boxes[i]!, bbox([p])) ? ctx.names[i] : ''))
-              .filter(Boolean);
-            return `${fmt(a)} m2 near lat ${lat.toFixed(6)}, lon ${lon.toFixed(6)}${near.length ? ` (beside ${list(near, 4)})` : ''}`;
-          });
-          const total = pieces.reduce((s, g) => s + g.a, 0);
-          const near = new Set<string>();
-          for (const { p } of pieces)
-            ctx.usable.forEach((m, i) => m && boxesMeet(ctx.boxes[i]!, bbox([p])) && near.add(ctx.names[i]));
-          ctx.add(
-            'gaps',
-            'fail',
-            `${pieces.length} part${pieces.length > 1 ? 's' : ''} of the field (${fmt(total)} m2, ${fmt(m2ToAc(total), 3)} ac) ${pieces.length > 1 ? 'lie' : 'lies'} in no zone and get the terminal's default rate: ${where.join('; ')}`,
-            [...near],
-          );
-        } else ctx.add('gaps', 'pass', 'the zones cover the whole field');
-      } catch (e) {
-        if (!ctx.lines.some((l) => l.check === 'outside')) overlayFailed(ctx, 'outside', e, isUserError);
-        overlayFailed(ctx, 'gaps', e, isUserError);
-      }
+    const boundary = clip.union(bpolys[0] as clip.Geom, ...(bpolys.slice(1) as clip.Geom[])) as Poly[];
+    addOutside(ctx, cov, boundary);
+    addGaps(ctx, cov, boundary);
+  } catch (e) {
+    if (!ctx.lines.some((l) => l.check === 'outside')) overlayFailed(ctx, 'outside', e, isUserError);
+    overlayFailed(ctx, 'gaps', e, isUserError);
   }
+}
+
+function skipBoth(ctx: CheckContext, why: string): void {
+  ctx.add('outside', 'skip', why);
+  ctx.add('gaps', 'skip', why);
+}
+
+/** `outside`: the zones' parts beyond the boundary, by zone (slivers left out). */
+function addOutside(ctx: CheckContext, cov: Poly[], boundary: Poly[]): void {
+  const out: string[] = [],
+    outZones: string[] = [];
+  const outsideTotal = cov.length
+    ? polysArea(clip.difference(cov as clip.Geom, boundary as clip.Geom) as Poly[])
+    : 0;
+  if (outsideTotal >= SLIVER_M2)
+    ctx.usable.forEach((m, i) => {
+      if (!m) return;
+      const a = ctx.significant(clip.difference(m as clip.Geom, boundary as clip.Geom) as Poly[], ctx.scale);
+      if (a >= SLIVER_M2) {
+        out.push(`${ctx.names[i]} (${fmt(a)} m2)`);
+        outZones.push(ctx.names[i]);
+      }
+    });
+  if (out.length) ctx.add('outside', 'fail', `parts outside the boundary: ${list(out, 8)}`, outZones);
+  else ctx.add('outside', 'pass', 'every zone lies inside the boundary');
+}
+
+/** `gaps`: the parts of the field in no zone, largest first, each with where it lies and the zones beside it. */
+function addGaps(ctx: CheckContext, cov: Poly[], boundary: Poly[]): void {
+  const gaps = (cov.length ? clip.difference(boundary as clip.Geom, cov as clip.Geom) : boundary) as Poly[];
+  const pieces = gaps
+    .map((p) => ({ p, a: polysArea([p]) / ctx.scale }))
+    .filter((g) => g.a >= SLIVER_M2 && ctx.significant([g.p], ctx.scale) > 0)
+    .sort((a, b) => b.a - a.a);
+  if (!pieces.length) return ctx.add('gaps', 'pass', 'the zones cover the whole field');
+  const beside = (p: Poly) =>
+    ctx.usable.map((m, i) => (m && boxesMeet(ctx.boxes[i]!, bbox([p])) ? ctx.names[i] : '')).filter(Boolean);
+  const where = pieces.slice(0, 5).map(({ p, a }) => {
+    const [cx, cy] = ringCentroid(p[0]);
+    const [lon, lat] = ctx.work!.toLonLat(cx + ctx.origin[0], cy + ctx.origin[1]);
+    const near = beside(p);
+    return `${fmt(a)} m2 near lat ${lat.toFixed(6)}, lon ${lon.toFixed(6)}${near.length ? ` (beside ${list(near, 4)})` : ''}`;
+  });
+  const total = pieces.reduce((s, g) => s + g.a, 0);
+  const near = new Set<string>();
+  for (const { p } of pieces)
+    ctx.usable.forEach((m, i) => m && boxesMeet(ctx.boxes[i]!, bbox([p])) && near.add(ctx.names[i]));
+  ctx.add(
+    'gaps',
+    'fail',
+    `${pieces.length} part${pieces.length > 1 ? 's' : ''} of the field (${fmt(total)} m2, ${fmt(m2ToAc(total), 3)} ac) ${pieces.length > 1 ? 'lie' : 'lies'} in no zone and get the terminal's default rate: ${where.join('; ')}`,
+    [...near],
+  );
 }

@@ -18,7 +18,7 @@ import {
   type TaskData,
 } from '../io/isoxml/index.js';
 import { rasterizeLonLat } from '../geo/rasterize.js';
-import { readZip } from '../io/zip.js';
+import { readZip, TASKDATA_ZIP_LIMITS } from '../io/zip.js';
 import { traceZones } from '../zones/trace.js';
 import { mgm2ToKgha, mm3m2ToLha } from '../units/index.js';
 import type { CheckLayer } from './layer.js';
@@ -227,7 +227,7 @@ export const isTaskDataXml = (name: string): boolean => /(^|[/\\])taskdata\.xml$
  */
 export function layersFromTaskDataFiles(files: Record<string, Uint8Array>, main: string): CheckLayer[] {
   if (/\.zip$/i.test(main)) {
-    const entries = readZip(files[main], main);
+    const entries = readZip(files[main], main, TASKDATA_ZIP_LIMITS);
     const xmls = Object.keys(entries).filter(isTaskDataXml);
     if (xmls.length !== 1)
       throw new UserError(

@@ -31,7 +31,9 @@ export interface FieldResult {
 export async function buildField(job: FieldJob): Promise<FieldResult> {
   const t0 = performance.now();
   try {
-    const o = await runBuild({ ...job.flags, quiet: true }, { say() {}, onProgress() {}, stepDone() {} });
+    // the batch already keeps every core busy with fields: no surface threads inside a field
+    const flags = { ...job.flags, quiet: true, threads: '1' };
+    const o = await runBuild(flags, { say() {}, onProgress() {}, stepDone() {} });
     const outcome = {
       totals: o.totals,
       infeasible: o.infeasible,

@@ -2,8 +2,9 @@
 import type { Command } from 'commander';
 import { parsePlan } from '../agronomy/index.js';
 import { buildPrescription, defaultCell, type Prescription } from '../prescription/index.js';
+import { gridBbox } from '../prescription/unsampled.js';
 import { checkBuildCells, checkBoundaryVertices } from './safety/budgets.js';
-import { addOutlierWarnings, readinessProblems } from './safety/readiness.js';
+import { readinessProblems } from './safety/readiness.js';
 import { UserError } from '../errors.js';
 import type { FieldInputs } from '../types.js';
 import type { Plan } from '../agronomy/index.js';
@@ -23,6 +24,7 @@ import {
   writeOutputDir,
 } from './util.js';
 import { createTerminal, type Task, type Terminal } from './progress.js';
+import { addThreadsOption, surfaceThreads } from './threads.js';
 
 export interface BuildFlags {
   samples: string;
@@ -37,13 +39,17 @@ export interface BuildFlags {
   columns?: string;
   depthFactor?: string;
   dropOutside?: boolean;
+  /** keep | drop (default: the plan's soil_test.outliers) */
+  outliers?: string;
   pMethod?: 'olsen' | 'kelowna';
   assumeWgs84?: boolean;
   quiet?: boolean;
+  /** --threads (default: the machine's cores) */
+  threads?: string;
 }
 
 export function register(program: Command): void {
-  addInputOptions(program.command('build'))
+  addThreadsOption(addInputOptions(program.command('build')))
     .description(
       'Build a variable-rate prescription: nutrient maps, management zones, seed-row-safe product rates, files for the controller.',
     )
@@ -120,12 +126,17 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   const tables = tablesFromOption(o.tables);
   const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
   const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
+  const threads = surfaceThreads(o.threads);
   hooks.say('reading and checking the inputs ...');
-  const inputs = await loadInputs(inputOptionsFrom(o as unknown as Record<string, unknown>));
+  const io = inputOptionsFrom(o as unknown as Record<string, unknown>);
+  if (io.outliers === undefined && plan.soil_test.outliers === 'drop')
+    Object.assign(io, { outliers: 'drop', outliersFrom: 'plan' });
+  const inputs = await loadInputs(io);
   if (plan.field && !inputs.field.name) inputs.field.name = plan.field;
   refuseUnfit(inputs, plan, o.samples, o.boundary);
-  checkBuildCells(inputs.field.bbox, cell ?? defaultCell(inputs.field.bbox));
-  const rx = buildPrescription(inputs, plan, tables, { cell, onProgress: hooks.onProgress });
+  // the grid covers the sampled parts (unsampled_parts), the whole boundary must still fit it (task data grids)
+  checkBuildCells(inputs.field.bbox, cell ?? defaultCell(gridBbox(inputs, plan)));
+  const rx = buildPrescription(inputs, plan, tables, { cell, threads, onProgress: hooks.onProgress });
   hooks.stepDone();
   const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const)
     .filter((k) => o[k])
@@ -172,5 +183,4 @@ function refuseUnfit(inputs: FieldInputs, plan: Plan, samplesFile: string, bound
   const problems = readinessProblems(inputs, plan, samplesFile);
   if (problems.length)
     throw new UserError(`cannot make a prescription from these inputs:\n  ${problems.join('\n  ')}`);
-  addOutlierWarnings(inputs, samplesFile);
 }

@@ -10,7 +10,7 @@ import {
   type CheckReport,
 } from '../check/index.js';
 import { isTaskDataXml, layersFromTaskDataFiles } from '../check/taskdata.js';
-import { readZip } from '../io/zip.js';
+import { readZip, TASKDATA_ZIP_LIMITS } from '../io/zip.js';
 import { numberOption, out, readInput } from './util.js';
 import { checkOrder } from './safety/budgets.js';
 
@@ -62,7 +62,7 @@ function loadTaskData(path: string): CheckLayer[] | null {
   }
   if (/\.zip$/i.test(path)) {
     const bytes = readInput(path, 'prescription');
-    if (!Object.keys(readZip(bytes, path)).some(isTaskDataXml)) return null;
+    if (!Object.keys(readZip(bytes, path, TASKDATA_ZIP_LIMITS)).some(isTaskDataXml)) return null;
     return layersFromTaskDataFiles({ [path]: bytes }, path);
   }
   return null;

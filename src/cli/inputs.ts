@@ -14,6 +14,8 @@ import type { Command } from 'commander';
 import { UserError } from '../errors.js';
 import { numberOption, readInput } from './util.js';
 import { formatReading } from '../validate/reading.js';
+import type { OutlierMode } from './safety/plausible.js';
+import { applyOutlierTest, type OutlierSource } from './safety/readiness.js';
 
 export interface InputOptions {
   /** samples file: .geojson/.json, .csv (lab style), .shp (with .dbf/.prj/.cpg beside), or .zip */
@@ -38,6 +40,10 @@ export interface InputOptions {
   sheet?: string;
   /** print the column reading on stderr */
   verbose?: boolean;
+  /** values the neighbour outlier test flags: keep them in the maps (default) or drop them from interpolation */
+  outliers?: OutlierMode;
+  /** where `outliers` came from, for the message (default: the option when set) */
+  outliersFrom?: OutlierSource;
 }
 
 /**
@@ -60,9 +66,10 @@ export function readInputFile(path: string, what: string): InputFile {
 }
 
 /**
- * Reads, validates and projects the inputs. Throws UserError for anything the user must fix.
- * Defaults: no depth factor (0-6 in only is an error), samples outside the boundary kept with a warning,
- * shapefiles without .prj refused, P method from the file (else an error).
+ * Reads, validates and projects the inputs, then runs the neighbour outlier test (src/cli/safety/readiness.ts
+ * applyOutlierTest: warnings, and with `outliers: 'drop'` the flagged values left out). Throws UserError for
+ * anything the user must fix. Defaults: no depth factor (0-6 in only is an error), samples outside the boundary
+ * kept with a warning, shapefiles without .prj refused, P method from the file (else an error), outliers kept.
  * @example const inp = await loadInputs({ samples: 'sample-fields/quarter/samples.csv', boundary: 'sample-fields/quarter/boundary.geojson' });
  */
 export async function loadInputs(opts: InputOptions): Promise<FieldInputs> {
@@ -84,6 +91,8 @@ export async function loadInputs(opts: InputOptions): Promise<FieldInputs> {
     pMethod: opts.pMethod,
     crs: opts.crs,
   });
+  const from = opts.outliers === undefined ? 'default' : (opts.outliersFrom ?? 'option');
+  applyOutlierTest(inputs, opts.samples, opts.outliers ?? 'keep', from);
   if (opts.verbose && inputs.reading)
     process.stderr.write(`${formatReading(inputs.reading, `columns of ${opts.samples}`)}\n`);
   return inputs;
@@ -91,7 +100,7 @@ export async function loadInputs(opts: InputOptions): Promise<FieldInputs> {
 
 /**
  * Adds the input options every command that loads a field shares: --samples and --boundary (required),
- * --zones, --columns, --p-method, --depth-factor, --drop-outside, --assume-wgs84. Pair with inputOptionsFrom.
+ * --zones, --columns, --p-method, --depth-factor, --drop-outside, --outliers, --assume-wgs84. Pair with inputOptionsFrom.
  * @example addInputOptions(program.command('surface')).action((o) => { const inp = await loadInputs(inputOptionsFrom(o)); ... })
  */
 export function addInputOptions(cmd: Command): Command {
@@ -116,6 +125,10 @@ export function addInputOptions(cmd: Command): Command {
     )
     .option('--drop-outside', 'leave out samples outside the boundary (default: keep them and warn)')
     .option(
+      '--outliers <keep|drop>',
+      "values far from their 6 nearest samples (neighbour outlier test, named in a warning): keep them in the maps, or drop them from interpolation (the dropped sample ids are listed in the warnings, summary and report); default keep, or the plan's soil_test.outliers for build",
+    )
+    .option(
       '--assume-wgs84',
       'read a shapefile that has no .prj as WGS 84 longitude/latitude (default: refuse)',
     );
@@ -135,6 +148,15 @@ export function inputOptionsFrom(o: Record<string, unknown>): InputOptions {
       );
     pMethod = m;
   }
+  let outliers: OutlierMode | undefined;
+  if (o.outliers !== undefined) {
+    const m = String(o.outliers).toLowerCase();
+    if (m !== 'keep' && m !== 'drop')
+      throw new UserError(
+        `option --outliers: "${o.outliers}" is not keep or drop. Fix: give --outliers keep (the default) or --outliers drop.`,
+      );
+    outliers = m;
+  }
   return {
     samples: String(o.samples),
     boundary: String(o.boundary),
@@ -147,5 +169,6 @@ export function inputOptionsFrom(o: Record<string, unknown>): InputOptions {
     crs: o.crs === undefined ? undefined : String(o.crs),
     sheet: o.sheet === undefined ? undefined : String(o.sheet),
     verbose: Boolean(o.verbose),
+    outliers,
   };
 }

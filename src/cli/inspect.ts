@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { info, out, printWarnings } from './util.js';
-import { addOutlierWarnings, readinessProblems } from './safety/readiness.js';
+import { readinessProblems } from './safety/readiness.js';
 import { inspectInputs, formatInspection } from '../stats/inspect.js';
 import { formatReading } from '../validate/reading.js';
 
@@ -22,7 +22,6 @@ export function register(program: Command): void {
     )
     .action(async (o) => {
       const inputs = await loadInputs(inputOptionsFrom(o));
-      addOutlierWarnings(inputs, o.samples);
       const r = inspectInputs(inputs);
       const problems = readinessProblems(inputs, null, o.samples);
       if (o.json)

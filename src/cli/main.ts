@@ -5,19 +5,34 @@
 import { isMainThread, workerData } from 'node:worker_threads';
 import { Command, CommanderError } from 'commander';
 import { isUserError } from '../errors.js';
-import { CAUTION } from './util.js';
 import { installStdioGuards, terminalSafe } from './safety/stdio.js';
 import { VERSION } from '../version.js';
-import * as inspect from './inspect.js';
-import * as variability from './variability.js';
-import * as surface from './surface.js';
-import * as plan from './plan.js';
-import * as rates from './rates.js';
-import * as tables from './tables.js';
-import * as build from './build.js';
-import * as check from './check.js';
-import * as report from './report.js';
-import * as batch from './batch.js';
+
+/**
+ * Every command, in the order of `tilth --help`, loaded with import() only when it runs: `tilth surface`
+ * never loads the report, the shapefile writer or the product solver, and `tilth --version` loads none
+ * (docs/performance.md, "Start-up").
+ */
+const COMMANDS: Record<string, () => Promise<{ register(program: Command): void }>> = {
+  inspect: () => import('./inspect.js'),
+  surface: () => import('./surface.js'),
+  check: () => import('./check.js'),
+  report: () => import('./report.js'),
+  plan: () => import('./plan.js'),
+  rates: () => import('./rates.js'),
+  tables: () => import('./tables.js'),
+  build: () => import('./build.js'),
+  batch: () => import('./batch.js'),
+  variability: () => import('./variability.js'),
+};
+
+/** The commands to register for these arguments: the one named, none for --version, else all (help, typos). */
+function commandsFor(argv: string[]): string[] {
+  const first = argv.find((a) => !a.startsWith('-'));
+  if (first !== undefined && Object.hasOwn(COMMANDS, first)) return [first];
+  if (first === undefined && argv.length > 0 && argv.every((a) => a === '-V' || a === '--version')) return [];
+  return Object.keys(COMMANDS);
+}
 
 if (!isMainThread && (workerData as { tilthBatchWorker?: boolean } | null)?.tilthBatchWorker) {
   // a worker of `tilth batch` (src/cli/batchPool.ts): serve field builds instead of parsing arguments
@@ -31,13 +46,13 @@ if (!isMainThread && (workerData as { tilthBatchWorker?: boolean } | null)?.tilt
     .description('Variable-rate fertilizer prescriptions from soil-test samples and a field boundary.')
     .version(VERSION)
     .showHelpAfterError()
-    .addHelpText('after', `\n${CAUTION}`)
     .exitOverride();
 
-  for (const cmd of [inspect, surface, check, report, plan, rates, tables, build, batch, variability])
-    cmd.register(program);
-
   try {
+    const names = commandsFor(process.argv.slice(2));
+    // the caution comes with the tables' vocabulary (zod, yaml): not loaded for --version
+    if (names.length) program.addHelpText('after', `\n${(await import('../vocabulary.js')).CAUTION}`);
+    for (const name of names) (await COMMANDS[name]()).register(program);
     await program.parseAsync(process.argv);
   } catch (e) {
     if (e instanceof CommanderError) {

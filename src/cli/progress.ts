@@ -70,15 +70,69 @@ const REDRAW_MS = 80;
 export function createTerminal(opts: TerminalOptions = {}): Terminal {
   const stream = opts.stream ?? process.stderr;
   const env = opts.env ?? process.env;
-  const now = opts.now ?? (() => performance.now());
   const quiet = !!opts.quiet;
   const tty = !!stream.isTTY;
   const color = tty && !(env.NO_COLOR !== undefined && env.NO_COLOR !== '') && env.TERM !== 'dumb';
+  const paint = painter(color);
+  const out: Out = {
+    stream,
+    now: opts.now ?? (() => performance.now()),
+    quiet,
+    tty,
+    color,
+    paint,
+    live: false,
+    write(s) {
+      if (out.live) stream.write('\r\x1b[2K');
+      out.live = false;
+      stream.write(s.endsWith('\n') ? s : s + '\n');
+    },
+  };
+  return {
+    tty,
+    color,
+    quiet,
+    paint,
+    task: (label, total = 0) => startTask(out, label, total),
+    line(text) {
+      if (!quiet) out.write(terminalSafe(text));
+    },
+    warn(text) {
+      out.write(`${paint.yellow('warning:')} ${terminalSafe(text)}`);
+    },
+    summary(title, rows) {
+      if (quiet) return;
+      const w = Math.max(0, ...rows.map(([k]) => k.length));
+      out.write(
+        [
+          paint.bold(terminalSafe(title)),
+          ...rows.map(([k, v]) => `  ${terminalSafe(k).padEnd(w)}  ${paint.cyan(terminalSafe(v))}`),
+        ].join('\n'),
+      );
+    },
+  };
+}
+
+/** What the terminal's parts share: the stream, the settings, and whether a bar is drawn on the current line. */
+interface Out {
+  stream: TermStream;
+  now: () => number;
+  quiet: boolean;
+  tty: boolean;
+  color: boolean;
+  paint: Terminal['paint'];
+  /** a bar is drawn on the current line */
+  live: boolean;
+  /** clears a drawn bar, then writes one line */
+  write(s: string): void;
+}
+
+function painter(color: boolean): Terminal['paint'] {
   const sgr =
     (open: number, close: number): Paint =>
     (s) =>
       color ? `\x1b[${open}m${s}\x1b[${close}m` : s;
-  const paint = {
+  return {
     bold: sgr(1, 22),
     dim: sgr(2, 22),
     green: sgr(32, 39),
@@ -86,84 +140,54 @@ export function createTerminal(opts: TerminalOptions = {}): Terminal {
     red: sgr(31, 39),
     cyan: sgr(36, 39),
   };
-  let live = false; // a bar is drawn on the current line
-  const clearLive = (): void => {
-    if (live) stream.write('\r\x1b[2K');
-    live = false;
-  };
-  const write = (s: string): void => {
-    clearLive();
-    stream.write(s.endsWith('\n') ? s : s + '\n');
-  };
-  const secs = (ms: number): string => (ms < 1000 ? `${Math.round(ms)} ms` : `${(ms / 1000).toFixed(1)} s`);
+}
 
+const secs = (ms: number): string => (ms < 1000 ? `${Math.round(ms)} ms` : `${(ms / 1000).toFixed(1)} s`);
+
+/** One step: a bar redrawn at most every REDRAW_MS on a TTY, then a ticked (or plain) line with the time. */
+function startTask(out: Out, label: string, total: number): Task {
+  const { stream, now, quiet, tty, color, paint } = out;
+  const t0 = now();
+  let last = -Infinity;
+  let doneN = 0;
+  let tot = total;
+  let ended = false;
+  const draw = (force: boolean): void => {
+    if (quiet || !tty || ended) return;
+    const t = now();
+    if (!force && t - last < REDRAW_MS) return;
+    last = t;
+    const frac = tot > 0 ? Math.min(1, doneN / tot) : 0;
+    const full = Math.round(frac * BAR);
+    const bar =
+      tot > 0
+        ? `[${'#'.repeat(full)}${'-'.repeat(BAR - full)}] ${String(Math.round(frac * 100)).padStart(3)}%`
+        : '...';
+    const text = `${label} ${bar} ${paint.dim(secs(t - t0))}`;
+    stream.write(`\r\x1b[2K${text.slice(0, Math.max(20, (stream.columns ?? 80) - 1) + (color ? 20 : 0))}`);
+    out.live = true;
+  };
+  const update = (d: number, t?: number): void => {
+    doneN = d;
+    if (t !== undefined) tot = t;
+    draw(false);
+  };
+  draw(true);
+  const end = (ok: boolean, note?: string): void => {
+    if (ended) return;
+    ended = true;
+    if (quiet) return;
+    const mark = ok ? paint.green(tty ? '✓' : 'done') : paint.red(tty ? '✗' : 'failed');
+    out.write(
+      tty
+        ? `${mark} ${label} ${paint.dim(`(${secs(now() - t0)})`)}${note ? ` ${note}` : ''}`
+        : `${label}: ${mark} in ${secs(now() - t0)}${note ? `; ${note}` : ''}`,
+    );
+  };
   return {
-    tty,
-    color,
-    quiet,
-    paint,
-    task(label, total = 0) {
-      const t0 = now();
-      let last = -Infinity;
-      let doneN = 0;
-      let tot = total;
-      let ended = false;
-      const draw = (force: boolean): void => {
-        if (quiet || !tty || ended) return;
-        const t = now();
-        if (!force && t - last < REDRAW_MS) return;
-        last = t;
-        const frac = tot > 0 ? Math.min(1, doneN / tot) : 0;
-        const full = Math.round(frac * BAR);
-        const bar =
-          tot > 0
-            ? `[${'#'.repeat(full)}${'-'.repeat(BAR - full)}] ${String(Math.round(frac * 100)).padStart(3)}%`
-            : '...';
-        const text = `${label} ${bar} ${paint.dim(secs(t - t0))}`;
-        stream.write(
-          `\r\x1b[2K${text.slice(0, Math.max(20, (stream.columns ?? 80) - 1) + (color ? 20 : 0))}`,
-        );
-        live = true;
-      };
-      const update = (d: number, t?: number): void => {
-        doneN = d;
-        if (t !== undefined) tot = t;
-        draw(false);
-      };
-      draw(true);
-      const end = (ok: boolean, note?: string): void => {
-        if (ended) return;
-        ended = true;
-        if (quiet) return;
-        const mark = ok ? paint.green(tty ? '✓' : 'done') : paint.red(tty ? '✗' : 'failed');
-        write(
-          tty
-            ? `${mark} ${label} ${paint.dim(`(${secs(now() - t0)})`)}${note ? ` ${note}` : ''}`
-            : `${label}: ${mark} in ${secs(now() - t0)}${note ? `; ${note}` : ''}`,
-        );
-      };
-      return {
-        update,
-        onProgress: (d: number, t: number) => update(d, t),
-        done: (n) => end(true, n),
-        fail: (n) => end(false, n),
-      };
-    },
-    line(text) {
-      if (!quiet) write(terminalSafe(text));
-    },
-    warn(text) {
-      write(`${paint.yellow('warning:')} ${terminalSafe(text)}`);
-    },
-    summary(title, rows) {
-      if (quiet) return;
-      const w = Math.max(0, ...rows.map(([k]) => k.length));
-      write(
-        [
-          paint.bold(terminalSafe(title)),
-          ...rows.map(([k, v]) => `  ${terminalSafe(k).padEnd(w)}  ${paint.cyan(terminalSafe(v))}`),
-        ].join('\n'),
-      );
-    },
+    update,
+    onProgress: (d: number, t: number) => update(d, t),
+    done: (n) => end(true, n),
+    fail: (n) => end(false, n),
   };
 }

@@ -7,22 +7,23 @@ import { prjText } from '../geo/crs.js';
 import { UserError } from '../errors.js';
 import {
   analyteFromName,
-  ANALYTE_LABEL,
-  chanceBelow,
-  classProbabilities,
   fieldGrid,
   formatAsc,
   gridWarnings,
-  kName,
   nutrientSurface,
   SURFACE_METHODS,
-  type NutrientSurface,
   type SurfaceMethod,
 } from '../surface/index.js';
-import { chanceSpec } from '../variability/chance.js';
-import type { PMethod } from '../types.js';
+import {
+  chanceDecimals,
+  chanceGrids,
+  cvText,
+  surfaceDoneText,
+  surfaceJson,
+} from '../surface/surfaceOutput.js';
 import { tablesFromOption } from './plan.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
+import { addThreadsOption, surfaceThreads } from './threads.js';
 import { checkOutputFile, info, numberOption, out, printWarnings, writeOutputFile } from './util.js';
 
 /** An Esri ASCII grid starts with its ncols line; a .prj tilth writes is a projected WKT. */
@@ -30,7 +31,7 @@ const ASC_OURS = (h: string) => /^\s*ncols\s/i.test(h);
 const PRJ_OURS = (h: string) => /^PROJCS\["WGS_1984_UTM_Zone_\d+[NS]"/.test(h);
 
 export function register(program: Command): void {
-  addInputOptions(program.command('surface'))
+  addThreadsOption(addInputOptions(program.command('surface')))
     .description(
       "Map one soil-test nutrient over the field by inverse-distance weighting (power and neighbours chosen by cross-validation unless given) or ordinary kriging, and write an Esri ASCII grid (.asc with .prj) in the field's UTM zone.",
     )
@@ -85,194 +86,133 @@ export function register(program: Command): void {
         'Values are in canonical units: nitrate-N and sulphate-S lb/ac 0-24 in, P and K ppm, OM %, pH.\n' +
         'Cells whose area is partly inside the field get values (so zones cover the field); others are NODATA (-9999).',
     )
-    .action(async (o) => {
-      const analyte = analyteFromName(o.nutrient);
-      const cell = numberOption('--cell', o.cell, { min: 0.1, max: 1000 })!;
-      const power = o.power === 'auto' ? 'auto' : numberOption('--power', o.power, { min: 0.1, max: 10 })!;
-      const nb = String(o.neighbours).toLowerCase();
-      const neighbours =
-        nb === 'auto'
-          ? 'auto'
-          : nb === 'all'
-            ? Infinity
-            : numberOption('--neighbours', o.neighbours, { min: 1, max: 100_000, integer: true })!;
-      const radius = numberOption('--radius', o.radius, { min: 0.01, max: 1e6 });
-      const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, {
-        min: 1,
-        max: 100_000,
-        integer: true,
-      });
-      if (typeof neighbours === 'number')
-        checkOrder('--min-neighbours', minNeighbours, '--neighbours', neighbours);
-      const method = String(o.method).toLowerCase();
-      if (!SURFACE_METHODS.includes(method as SurfaceMethod))
-        throw new UserError(
-          `option --method: "${o.method}" is not a method. Fix: give idw, kriging or auto.`,
-          { value: o.method },
-        );
-      const kNeighbours = numberOption('--kriging-neighbours', o.krigingNeighbours, {
-        min: 1,
-        integer: true,
-      })!;
-      const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
-      if (!/\.asc$/i.test(o.out))
-        throw new UserError(
-          `--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`,
-          { file: o.out },
-        );
-      const inputFiles = [o.samples, o.boundary, o.zones].filter((f): f is string => !!f);
-      const prjPath = o.out.replace(/\.asc$/i, '.prj');
-      const shpBeside = /\.asc$/i.test(o.out) && existsSync(o.out.replace(/\.asc$/i, '.shp'));
-      const prjOurs = (h: string) => !shpBeside && PRJ_OURS(h); // a .prj beside a .shp belongs to that shapefile
-      const fileOpts = { inputs: inputFiles, force: Boolean(o.force) };
-      checkOutputFile(o.out, { ...fileOpts, ours: ASC_OURS });
-      checkOutputFile(prjPath, { ...fileOpts, ours: prjOurs });
-      const inputs = await loadInputs(inputOptionsFrom(o));
-      checkBoundaryVertices(inputs.field, o.boundary);
-      const problems = readinessProblems(inputs, analyte, o.samples);
-      if (problems.length) throw new UserError(`cannot map these inputs:\n  ${problems.join('\n  ')}`);
-      if (minNeighbours !== undefined && minNeighbours > inputs.samples.ids.length) {
-        throw new UserError(
-          `option --min-neighbours ${minNeighbours}: the samples file has ${inputs.samples.ids.length} samples, so every cell would be empty. Fix: give --min-neighbours ${Math.min(3, inputs.samples.ids.length)} or leave it out.`,
-        );
-      }
-      const grid = fieldGrid(inputs.field, cell);
-      const s = nutrientSurface(inputs.samples, analyte, grid, inputs.zones, {
-        power,
-        neighbours,
-        radius,
-        minNeighbours,
-        method: method as SurfaceMethod,
-        kriging: { neighbours: kNeighbours, log: Boolean(o.log) },
-      });
-      const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
-      writeOutputFile(o.out, formatAsc(grid, s.values, { decimals }), { ...fileOpts, ours: ASC_OURS });
-      writeOutputFile(prjPath, prjText(inputs.field.utm), { ...fileOpts, ours: prjOurs });
-      const extra = o.chanceMaps
-        ? chanceGrids(s, o, inputs.samples.pMethod, warnings)
-        : new Map<string, ArrayLike<number>>();
-      for (const [suffix, values] of extra) {
-        const file = o.out.replace(/\.asc$/i, `-${suffix}.asc`);
-        writeOutputFile(
-          file,
-          formatAsc(grid, values as Float64Array, {
-            decimals: suffix === 'variance' ? decimals : Math.max(decimals ?? 3, 4),
-          }),
-          { ...fileOpts, ours: ASC_OURS },
-        );
-        if (!o.json) info(`wrote ${file}`);
-      }
-      if (o.json) {
-        out(
-          JSON.stringify(
-            summary(s, o.out, inputs.field.utm.epsg, warnings),
-            (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? (Number.isNaN(v) ? null : 'all') : v),
-            2,
-          ),
-        );
-      } else {
-        printWarnings(warnings);
-        if (s.cv) out(cvText(s));
-        info(`${ANALYTE_LABEL[analyte]}: ${s.choice}.`);
-        info(
-          `wrote ${o.out} (${grid.cols} x ${grid.rows} cells of ${cell} m, EPSG:${inputs.field.utm.epsg}) and its .prj; values ${round(s.min)} to ${round(s.max)} from ${s.samplesUsed} samples.`,
-        );
-      }
-    });
+    .action(runSurface);
 }
 
-/** The chance grids (and the kriging variance) of a kriged surface, by file suffix; a warning when there is no kriging. */
-function chanceGrids(
-  s: NutrientSurface,
-  o: { crop: string; tables?: string },
-  pMethod: PMethod,
-  warnings: { code: string; message: string }[],
-): Map<string, ArrayLike<number>> {
-  const grids = new Map<string, ArrayLike<number>>();
-  if (!s.krigedMean || !s.variance || !s.kriging) {
-    warnings.push({
-      code: 'surface.no-chance-maps',
-      message: `${ANALYTE_LABEL[s.analyte]}: no chance maps: they need the kriging variance, and this surface is ${s.method}. Use --method kriging (or auto when kriging wins).`,
+/** The command's options, as commander gives them. */
+interface SurfaceFlags {
+  [flag: string]: unknown;
+  nutrient: string;
+  out: string;
+  cell: string;
+  method: string;
+  krigingNeighbours: string;
+  log?: boolean;
+  chanceMaps?: boolean;
+  crop: string;
+  tables?: string;
+  power: string;
+  neighbours: string;
+  radius?: string;
+  minNeighbours?: string;
+  decimals?: string;
+  threads?: string;
+  force?: boolean;
+  json?: boolean;
+  samples: string;
+  boundary: string;
+  zones?: string;
+}
+
+/** The flags checked and turned into numbers (exit 2 naming the flag when one is not usable). */
+function surfaceSettings(o: SurfaceFlags) {
+  const analyte = analyteFromName(o.nutrient);
+  const cell = numberOption('--cell', o.cell, { min: 0.1, max: 1000 })!;
+  const power = o.power === 'auto' ? 'auto' : numberOption('--power', o.power, { min: 0.1, max: 10 })!;
+  const nb = String(o.neighbours).toLowerCase();
+  const neighbours =
+    nb === 'auto'
+      ? 'auto'
+      : nb === 'all'
+        ? Infinity
+        : numberOption('--neighbours', o.neighbours, { min: 1, max: 100_000, integer: true })!;
+  const radius = numberOption('--radius', o.radius, { min: 0.01, max: 1e6 });
+  const minNeighbours = numberOption('--min-neighbours', o.minNeighbours, {
+    min: 1,
+    max: 100_000,
+    integer: true,
+  });
+  if (typeof neighbours === 'number')
+    checkOrder('--min-neighbours', minNeighbours, '--neighbours', neighbours);
+  const method = String(o.method).toLowerCase();
+  if (!SURFACE_METHODS.includes(method as SurfaceMethod))
+    throw new UserError(`option --method: "${o.method}" is not a method. Fix: give idw, kriging or auto.`, {
+      value: o.method,
     });
-    return grids;
-  }
-  const tables = tablesFromOption(o.tables);
-  const crop = tables.crops[o.crop];
-  if (!crop)
+  const kNeighbours = numberOption('--kriging-neighbours', o.krigingNeighbours, {
+    min: 1,
+    integer: true,
+  })!;
+  const decimals = numberOption('--decimals', o.decimals, { min: 0, max: 12, integer: true });
+  const threads = surfaceThreads(o.threads);
+  if (!/\.asc$/i.test(o.out))
     throw new UserError(
-      `option --crop: "${o.crop}" is not in the tables. Fix: give one of ${Object.keys(tables.crops).join(', ')}.`,
-      { value: o.crop },
+      `--out "${o.out}": the output is an Esri ASCII grid. Fix: give a file name ending in .asc.`,
+      { file: o.out },
     );
-  const cells = { mean: s.krigedMean, variance: s.variance, transform: s.kriging.transform };
-  grids.set('variance', s.variance);
-  const spec = chanceSpec(s.analyte, crop, tables, pMethod);
-  if (spec.kind === 'below') grids.set(`chance-below-${spec.threshold}`, chanceBelow(cells, spec.threshold));
-  if (spec.kind === 'classes') {
-    const r = classProbabilities(cells, spec.classes);
-    grids.set('response-chance', r.expected);
-    spec.classes.names.forEach((name, c) =>
-      grids.set(`class-${name.replace(/[^A-Za-z0-9]+/g, '-')}`, r.probability[c]),
-    );
-  }
-  return grids;
-}
-
-function summary(s: NutrientSurface, file: string, epsg: number, warnings: unknown[]) {
-  const g = s.grid;
   return {
-    nutrient: s.analyte,
-    unit: ANALYTE_LABEL[s.analyte],
-    file,
-    epsg,
-    grid: { xmin: g.xmin, ymax: g.ymax, cell: g.cell, cols: g.cols, rows: g.rows },
-    method: s.method,
-    power: s.power,
-    neighbours: s.neighbours,
-    choice: s.choice,
-    samplesUsed: s.samplesUsed,
-    min: s.min,
-    max: s.max,
-    crossValidation:
-      s.cv?.table.map((r) => ({ ...r, method: r.method ?? 'idw', chosen: r === s.cv!.best })) ?? null,
-    kriging: s.kriging
-      ? {
-          model: s.kriging.model,
-          refused: s.kriging.refused,
-          transform: s.kriging.transform,
-          neighbours: s.kriging.neighbours,
-          modelText: s.kriging.modelText,
-          modelSource: s.kriging.modelSource,
-        }
-      : null,
-    warnings,
-  };
+    analyte,
+    cell,
+    power,
+    neighbours,
+    radius,
+    minNeighbours,
+    method,
+    kNeighbours,
+    decimals,
+    threads,
+  } as const;
 }
 
-/** The cross-validation table as aligned text, the chosen row marked with "*" (MSSE for kriging). */
-export function cvText(s: NutrientSurface): string {
-  if (!s.cv) return `${ANALYTE_LABEL[s.analyte]}: no cross-validation table (${s.choice}).`;
-  const lines = [
-    `leave-one-out cross-validation, ${ANALYTE_LABEL[s.analyte]} (${s.samplesUsed} samples)`,
-    '  method    power  neighbours        RMSE         MAE        bias     n        MSSE',
-  ];
-  for (const r of s.cv.table) {
-    const mark = r === s.cv.best ? '*' : ' ';
-    const krig = r.method === 'kriging';
-    lines.push(
-      `${mark} ${(krig ? 'kriging' : 'idw').padEnd(7)}  ${(krig ? '-' : String(r.power)).padStart(5)}  ${kName(r.neighbours).padStart(10)}  ${f(r.rmse)}  ${f(r.mae)}  ${f(r.bias)}  ${String(r.n).padStart(4)}  ${krig ? f(r.msse ?? NaN) : ''}`.trimEnd(),
+async function runSurface(o: SurfaceFlags): Promise<void> {
+  const set = surfaceSettings(o);
+  const inputFiles = [o.samples, o.boundary, o.zones].filter((f): f is string => !!f);
+  const prjPath = o.out.replace(/\.asc$/i, '.prj');
+  const shpBeside = /\.asc$/i.test(o.out) && existsSync(o.out.replace(/\.asc$/i, '.shp'));
+  const prjOurs = (h: string) => !shpBeside && PRJ_OURS(h); // a .prj beside a .shp belongs to that shapefile
+  const fileOpts = { inputs: inputFiles, force: Boolean(o.force) };
+  checkOutputFile(o.out, { ...fileOpts, ours: ASC_OURS });
+  checkOutputFile(prjPath, { ...fileOpts, ours: prjOurs });
+  const inputs = await loadInputs(inputOptionsFrom(o));
+  checkBoundaryVertices(inputs.field, o.boundary);
+  const problems = readinessProblems(inputs, set.analyte, o.samples);
+  if (problems.length) throw new UserError(`cannot map these inputs:\n  ${problems.join('\n  ')}`);
+  const { minNeighbours } = set;
+  if (minNeighbours !== undefined && minNeighbours > inputs.samples.ids.length) {
+    throw new UserError(
+      `option --min-neighbours ${minNeighbours}: the samples file has ${inputs.samples.ids.length} samples, so every cell would be empty. Fix: give --min-neighbours ${Math.min(3, inputs.samples.ids.length)} or leave it out.`,
     );
   }
-  if (s.kriging?.model)
-    lines.push(
-      `  kriging model: ${s.kriging.modelText}; ${s.kriging.modelSource}. MSSE = mean(error^2 / kriging variance), near 1 when the variances fit.`,
-    );
-  return lines.join('\n');
-}
-
-function f(v: number): string {
-  return (Number.isFinite(v) ? v.toPrecision(5) : 'n/a').padStart(10);
-}
-
-function round(v: number): number {
-  return Math.round(v * 1000) / 1000;
+  const grid = fieldGrid(inputs.field, set.cell);
+  const s = nutrientSurface(inputs.samples, set.analyte, grid, inputs.zones, {
+    power: set.power,
+    neighbours: set.neighbours,
+    radius: set.radius,
+    minNeighbours,
+    method: set.method as SurfaceMethod,
+    kriging: { neighbours: set.kNeighbours, log: Boolean(o.log) },
+    threads: set.threads,
+  });
+  const warnings = [...inputs.warnings, ...gridWarnings(grid, inputs.field.name), ...s.warnings];
+  writeOutputFile(o.out, formatAsc(grid, s.values, { decimals: set.decimals }), {
+    ...fileOpts,
+    ours: ASC_OURS,
+  });
+  writeOutputFile(prjPath, prjText(inputs.field.utm), { ...fileOpts, ours: prjOurs });
+  const extra = o.chanceMaps
+    ? chanceGrids(s, o.crop, () => tablesFromOption(o.tables), inputs.samples.pMethod, warnings)
+    : new Map<string, ArrayLike<number>>();
+  for (const [suffix, values] of extra) {
+    const file = o.out.replace(/\.asc$/i, `-${suffix}.asc`);
+    const decimals = chanceDecimals(suffix, set.decimals);
+    writeOutputFile(file, formatAsc(grid, values as Float64Array, { decimals }), {
+      ...fileOpts,
+      ours: ASC_OURS,
+    });
+    if (!o.json) info(`wrote ${file}`);
+  }
+  if (o.json) return out(surfaceJson(s, o.out, inputs.field.utm.epsg, warnings));
+  printWarnings(warnings);
+  if (s.cv) out(cvText(s));
+  for (const line of surfaceDoneText(s, o.out, set.cell, inputs.field.utm.epsg)) info(line);
 }

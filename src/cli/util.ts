@@ -5,6 +5,7 @@
 import { readFileSync, statSync } from 'node:fs';
 import { UserError, type Warning } from '../errors.js';
 import { terminalSafe } from './safety/stdio.js';
+import { checkInputSize } from './safety/sizes.js';
 
 // output writing lives in ./safety/ (never lose a user's files); re-exported for the commands
 export { checkOutputDir, writeOutputDir, type OutputDirOptions } from './safety/outdir.js';
@@ -15,7 +16,7 @@ export {
   type OutputFileOptions,
 } from './safety/outfile.js';
 
-/** Reads a whole file; a missing or unreadable file is a UserError naming it and the fix. */
+/** Reads a whole file; a missing or unreadable file, or one over its kind's size limit (./safety/sizes.ts), is a UserError naming it and the fix. */
 export function readInput(path: string, what: string): Buffer {
   let st;
   try {
@@ -30,6 +31,7 @@ export function readInput(path: string, what: string): Buffer {
     throw new UserError(`${what} "${path}" is a folder, not a file. Fix: name the file inside it.`, {
       file: path,
     });
+  checkInputSize(path, st.size, what);
   try {
     return readFileSync(path);
   } catch (e) {

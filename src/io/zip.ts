@@ -48,6 +48,13 @@ export const ZIP_MAX_ENTRIES = 10_000;
  * {@link ZIP_RATIO_FLOOR_BYTES} are unpacked, so tiny files of repeated bytes pass.
  */
 export const ZIP_MAX_RATIO = 200;
+/**
+ * Limits for ISO 11783-10 task data archives: unpacked : packed up to 1 100, above deflate's maximum (about 1032),
+ * so the ratio refuses no deflated archive. A grid file (GRDnnnnn.bin) of equal rates over a large area is a run
+ * of one 4-byte value, which deflate packs near its maximum (tilth's own task data of a field with a distant
+ * part did); what bounds memory and time here is the total, 256 MiB, checked from the headers and while unpacking.
+ */
+export const TASKDATA_ZIP_LIMITS: ZipLimits = { maxRatio: 1_100 };
 /** Unpacked size under which the ratio is not judged: 1 MiB. */
 export const ZIP_RATIO_FLOOR_BYTES = 1024 * 1024;
 /** Packed bytes fed to the inflater at a time, so one step unpacks at most about 4 MiB before the limits are checked. */

@@ -6,7 +6,7 @@
 import { parse } from 'yaml';
 import { z } from 'zod';
 import { UserError } from '../errors.js';
-import type { ProductTotal } from './index.js';
+import type { ProductTotal } from './types.js';
 
 /** One field of a farm file, paths as written (relative to the farm file's folder). */
 export interface FarmField {

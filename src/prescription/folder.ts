@@ -7,8 +7,8 @@ import type { Tables } from '../agronomy/index.js';
 import type { FieldInputs } from '../types.js';
 import { zipFiles } from '../io/zip.js';
 import { renderReport, serializeReportInput } from '../report/index.js';
-import { buildSulphurCharts } from '../variability/index.js';
-import type { Prescription } from './index.js';
+import { buildSulphurChance, buildSulphurCharts } from '../variability/index.js';
+import type { Prescription } from './types.js';
 import {
   geojsonName,
   prescriptionGeojson,
@@ -18,6 +18,7 @@ import {
   type Provenance,
 } from './outputs.js';
 import { reportInput } from './reportInput.js';
+import { coarsen, displayFactor } from './reportMaps.js';
 import { prescriptionFiles } from './shapefiles.js';
 import { prescriptionTaskDataFiles } from './taskdata.js';
 
@@ -109,6 +110,17 @@ export function prescriptionFolder(
       : undefined,
   );
   const ri = reportInput(rx, inputs, tables, opts.provenance, { tablesEdited: opts.tablesEdited, charts });
+  // beside the S surface: the chance S is below the crop's low level, from kriging (or why there is none)
+  const factor = displayFactor(rx.grid);
+  const chance = buildSulphurChance(
+    inputs.samples,
+    rx.grid,
+    tables.crops[plan.crop],
+    sSurf,
+    { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours },
+    { ...coarsen(rx.grid, factor), factor },
+  );
+  if (chance) ri.chance = [chance];
   files.set('report-data.json', serializeReportInput(ri));
   files.set('report.html', renderReport(ri));
   return { files, summary };

@@ -6,7 +6,8 @@ import { csvCell } from '../io/csv-escape.js';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import type { Placement } from '../agronomy/tables.js';
 import { NUTRIENTS } from '../agronomy/tables.js';
-import { productRate, usedPairs, nutrientName, type Prescription, type ZoneSetResult } from './index.js';
+import { productRate, usedPairs, nutrientName } from './totals.js';
+import type { Prescription, ZoneSetResult } from './types.js';
 import { apartText, designLines, type ZoneDesign } from './zoneDesign.js';
 
 const unitTag = (u: string) => (u === 'kg/ha' ? 'kgha' : 'lbac');

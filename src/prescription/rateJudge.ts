@@ -3,7 +3,8 @@
  * rounded to the machine step) differs by at least the plan's minimum rate difference, and by more than the
  * soil maps' own error moves that rate. See docs/zones.md, "Zones worth a boundary".
  */
-import { decide, type Decision } from '../agronomy/decide.js';
+import { decide } from '../agronomy/decide.js';
+import type { Decision } from '../agronomy/decision.js';
 import type { SoilValues } from '../agronomy/interpret.js';
 import type { Plan } from '../agronomy/plan.js';
 import { TEXTURES, type Placement, type Tables } from '../agronomy/tables.js';
@@ -61,56 +62,10 @@ const key = (product: string, placement: Placement) => `${product}|${placement}`
  */
 export function rateJudge(o: RateJudgeOptions): RateJudge {
   const minDifference = new Map<string, number>();
-  const soilOf = (means: Float64Array): SoilValues => {
-    const soil: SoilValues = { no3_n: NaN, p: NaN, k: NaN, so4_s: NaN, om: NaN, pMethod: o.pMethod };
-    o.analytes.forEach((a, l) => {
-      (soil as unknown as Record<string, number>)[a] = means[l];
-    });
-    if (o.textures) {
-      let best = -1,
-        bw = 0;
-      TEXTURES.forEach((_, t) => {
-        const w = means[o.analytes.length + t];
-        if (w > bw) {
-          bw = w;
-          best = t;
-        }
-      });
-      soil.texture = best >= 0 ? TEXTURES[best] : null;
-    }
-    return soil;
-  };
-  const ratesOf = (d: Decision): Map<string, number> => {
-    const m = new Map<string, number>();
-    for (const p of d.placements)
-      for (const q of p.products)
-        if (o.products.includes(q.product)) m.set(key(q.product, p.placement), q.rate.value);
-    return m;
-  };
   const judge: RateJudge = {
     layers: o.layers,
     minDifference,
-    profile(means) {
-      const soil = soilOf(means);
-      const decision = decide(soil, o.plan, o.tables);
-      const rates = ratesOf(decision);
-      const lo = new Map(rates),
-        hi = new Map(rates);
-      for (const a of o.analytes) {
-        const e = o.rmse[a],
-          v = (soil as unknown as Record<string, number>)[a];
-        if (!(e! > 0) || !Number.isFinite(v)) continue;
-        for (const moved of [v - e!, v + e!]) {
-          const r = ratesOf(decide({ ...soil, [a]: Math.max(0, moved) }, o.plan, o.tables));
-          for (const k of new Set([...rates.keys(), ...r.keys()])) {
-            const x = r.get(k) ?? 0;
-            lo.set(k, Math.min(lo.get(k) ?? 0, x));
-            hi.set(k, Math.max(hi.get(k) ?? 0, x));
-          }
-        }
-      }
-      return { soil, decision, rates, lo, hi };
-    },
+    profile: (means) => zoneProfile(means, o),
     prepare(profiles, areas) {
       if (minDifference.size > 0) return;
       const total = areas.reduce((s, a) => s + a, 0);
@@ -122,38 +77,94 @@ export function rateJudge(o: RateJudgeOptions): RateJudge {
         minDifference.set(k, minRateDifference(o.plan, product, mean));
       }
     },
-    compare(a, b) {
-      let why: ApartReason | null = null,
-        score = 0,
-        best = -1;
-      for (const k of new Set([...a.rates.keys(), ...b.rates.keys()])) {
-        const ra = a.rates.get(k) ?? 0,
-          rb = b.rates.get(k) ?? 0,
-          diff = Math.abs(ra - rb);
-        const min = minDifference.get(k) ?? minRateDifference(o.plan, k.split('|')[0], 0);
-        const ratio = min > 0 ? diff / min : diff > 0 ? Infinity : 0;
-        score = Math.max(score, ratio);
-        const outA = rb < (a.lo.get(k) ?? 0) || rb > (a.hi.get(k) ?? 0),
-          outB = ra < (b.lo.get(k) ?? 0) || ra > (b.hi.get(k) ?? 0);
-        if (diff > 0 && diff >= min && (outA || outB) && ratio > best) {
-          best = ratio;
-          const firm = outA ? a : b;
-          const [product, placement] = k.split('|') as [string, Placement];
-          why = {
-            product,
-            placement,
-            a: ra,
-            b: rb,
-            diff,
-            min,
-            range: [firm.lo.get(k) ?? 0, firm.hi.get(k) ?? 0],
-          };
-        }
-      }
-      return { apart: why !== null, score, why };
-    },
+    compare: (a, b) => compareProfiles(a, b, minDifference, o.plan),
   };
   return judge;
+}
+
+/** Mean layer values -> soil values: analytes in order, then the texture with the largest share. */
+function soilOf(means: Float64Array, o: RateJudgeOptions): SoilValues {
+  const soil: SoilValues = { no3_n: NaN, p: NaN, k: NaN, so4_s: NaN, om: NaN, pMethod: o.pMethod };
+  o.analytes.forEach((a, l) => {
+    (soil as unknown as Record<string, number>)[a] = means[l];
+  });
+  if (o.textures) {
+    let best = -1,
+      bw = 0;
+    TEXTURES.forEach((_, t) => {
+      const w = means[o.analytes.length + t];
+      if (w > bw) {
+        bw = w;
+        best = t;
+      }
+    });
+    soil.texture = best >= 0 ? TEXTURES[best] : null;
+  }
+  return soil;
+}
+
+/** The counted products' rates of a decision, by "product|placement". */
+function ratesOf(d: Decision, products: string[]): Map<string, number> {
+  const m = new Map<string, number>();
+  for (const p of d.placements)
+    for (const q of p.products)
+      if (products.includes(q.product)) m.set(key(q.product, p.placement), q.rate.value);
+  return m;
+}
+
+/** A zone's decision, and its rates' range when each soil value moves by its leave-one-out RMSE. */
+function zoneProfile(means: Float64Array, o: RateJudgeOptions): ZoneProfile {
+  const soil = soilOf(means, o);
+  const decision = decide(soil, o.plan, o.tables);
+  const rates = ratesOf(decision, o.products);
+  const lo = new Map(rates),
+    hi = new Map(rates);
+  for (const a of o.analytes) {
+    const e = o.rmse[a],
+      v = (soil as unknown as Record<string, number>)[a];
+    if (!(e! > 0) || !Number.isFinite(v)) continue;
+    for (const moved of [v - e!, v + e!]) {
+      const r = ratesOf(decide({ ...soil, [a]: Math.max(0, moved) }, o.plan, o.tables), o.products);
+      for (const k of new Set([...rates.keys(), ...r.keys()])) {
+        const x = r.get(k) ?? 0;
+        lo.set(k, Math.min(lo.get(k) ?? 0, x));
+        hi.set(k, Math.max(hi.get(k) ?? 0, x));
+      }
+    }
+  }
+  return { soil, decision, rates, lo, hi };
+}
+
+/** Two zones stay apart when a rate differs by the minimum and lies outside the other's error range. */
+function compareProfiles(a: ZoneProfile, b: ZoneProfile, minDifference: Map<string, number>, plan: Plan) {
+  let why: ApartReason | null = null,
+    score = 0,
+    best = -1;
+  for (const k of new Set([...a.rates.keys(), ...b.rates.keys()])) {
+    const ra = a.rates.get(k) ?? 0,
+      rb = b.rates.get(k) ?? 0,
+      diff = Math.abs(ra - rb);
+    const min = minDifference.get(k) ?? minRateDifference(plan, k.split('|')[0], 0);
+    const ratio = min > 0 ? diff / min : diff > 0 ? Infinity : 0;
+    score = Math.max(score, ratio);
+    const outA = rb < (a.lo.get(k) ?? 0) || rb > (a.hi.get(k) ?? 0),
+      outB = ra < (b.lo.get(k) ?? 0) || ra > (b.hi.get(k) ?? 0);
+    if (diff > 0 && diff >= min && (outA || outB) && ratio > best) {
+      best = ratio;
+      const firm = outA ? a : b;
+      const [product, placement] = k.split('|') as [string, Placement];
+      why = {
+        product,
+        placement,
+        a: ra,
+        b: rb,
+        diff,
+        min,
+        range: [firm.lo.get(k) ?? 0, firm.hi.get(k) ?? 0],
+      };
+    }
+  }
+  return { apart: why !== null, score, why };
 }
 
 /**

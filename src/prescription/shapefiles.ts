@@ -8,7 +8,7 @@ import { writeShapefile, resolveColumns, baseFileName, type ColumnSpec } from '.
 import { shortFileNames } from '../io/shapefile/names.js';
 import { zipFiles } from '../io/zip.js';
 import { groundAreaM2 } from '../geo/ground-area.js';
-import { m2ToAc, m2ToHa } from '../units/index.js';
+import { acToHa, m2ToAc, m2ToHa } from '../units/index.js';
 import { VERSION } from '../version.js';
 
 /** Rate units a prescription may carry, and the short form used in column names. */
@@ -193,12 +193,6 @@ export function prescriptionFiles(
   const prefix = opts.prefix ?? 'rx';
   const feats = fc.features as Feature<Polygon | MultiPolygon>[];
   if (!feats.length) throw new RangeError('prescriptionFiles: the prescription has no zones');
-  const rateOf = (f: Feature, product: string, placement: string): number => {
-    const r = ((f.properties as RxZoneProperties | null)?.rates ?? []).find(
-      (x) => x.product === product && x.placement === placement,
-    );
-    return r ? r.rate : 0;
-  };
   const pairs = productPlacements(feats);
   const plans = setPlans(pairs, opts.layout, prefix);
   // unique set names (long and 8.3)
@@ -211,7 +205,7 @@ export function prescriptionFiles(
     groundAreaM2(f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.coordinates),
   );
   const zoneIds = feats.map((f) => (f.properties as RxZoneProperties).zone_id);
-  const idsNumeric = zoneIds.every((z) => typeof z === 'number' && Number.isInteger(z) && z >= 0);
+  const zones: Zones = { feats, areasM2, zoneIds };
   const files: Record<string, Uint8Array> = {};
   const columns: RateColumn[] = [];
   const date = opts.date ?? new Date();
@@ -219,56 +213,8 @@ export function prescriptionFiles(
 
   plans.forEach((plan, si) => {
     const set = setNames[si];
-    const rows = feats.map((f, i) => {
-      const props: Record<string, unknown> = {
-        zone_id: zoneIds[i],
-        area_ac: m2ToAc(areasM2[i]),
-        area_ha: m2ToHa(areasM2[i]),
-      };
-      for (const c of plan.cols) props[c.key] = rateOf(f, c.product, c.placement);
-      return { type: 'Feature', properties: props, geometry: f.geometry } as Feature;
-    });
-    const specs: ColumnSpec[] = [
-      idsNumeric
-        ? {
-            key: 'zone_id',
-            type: 'N',
-            width: numberWidth(zoneIds as number[], 0),
-            description: 'zone number',
-          }
-        : { key: 'zone_id', type: 'C', width: 20, description: 'zone name' },
-      {
-        key: 'area_ac',
-        type: 'N',
-        width: numberWidth(
-          rows.map((r) => r.properties!.area_ac as number),
-          2,
-        ),
-        decimals: 2,
-        description: 'zone ground area, acres (WGS 84 ellipsoid)',
-      },
-      {
-        key: 'area_ha',
-        type: 'N',
-        width: numberWidth(
-          rows.map((r) => r.properties!.area_ha as number),
-          2,
-        ),
-        decimals: 2,
-        description: 'zone ground area, hectares',
-      },
-      ...plan.cols.map((c): ColumnSpec => ({
-        key: c.key,
-        name: c.column,
-        type: 'N',
-        decimals: decimalsFor(c.unit),
-        width: numberWidth(
-          rows.map((r) => r.properties![c.key] as number),
-          decimalsFor(c.unit),
-        ),
-        description: `${c.product}, ${c.placement}, ${c.unit} of product`,
-      })),
-    ];
+    const rows = setRows(zones, plan);
+    const specs = columnSpecs(zones, plan, rows);
     const written = resolveColumns(specs);
     const setFiles = writeShapefile(rows, specs, {
       name: set,
@@ -277,23 +223,7 @@ export function prescriptionFiles(
       shortFileName: opts.shortFileNames,
       date,
     });
-    const rateCols: RateColumn[] = plan.cols.map((c, k) => {
-      const vals = rows.map((r) => r.properties![c.key] as number);
-      return {
-        set,
-        column: written[3 + k].name,
-        product: c.product,
-        placement: c.placement,
-        unit: c.unit,
-        min: Math.min(...vals),
-        max: Math.max(...vals),
-        total: vals.reduce(
-          (s, v, i) =>
-            s + v * (c.unit === 'lb/ac' || c.unit === 'US gal/ac' ? m2ToAc(areasM2[i]) : m2ToHa(areasM2[i])),
-          0,
-        ),
-      };
-    });
+    const rateCols = rateColumns(set, plan, rows, written, areasM2);
     columns.push(...rateCols);
     const note = noteText(set, rateCols, opts, feats.length, areasM2, date);
     const noteName = opts.shortFileNames ? `${set}.TXT` : `${set}.note.txt`;
@@ -302,6 +232,106 @@ export function prescriptionFiles(
     files[opts.shortFileNames ? `${set}.ZIP` : `${set}.zip`] = zipFiles(setFiles);
   });
   return { files, columns };
+}
+
+/** The zones as every set writes them: features, ground areas (m2) and ids. */
+interface Zones {
+  feats: Feature<Polygon | MultiPolygon>[];
+  areasM2: number[];
+  zoneIds: (number | string)[];
+}
+
+function rateOf(f: Feature, product: string, placement: string): number {
+  const r = ((f.properties as RxZoneProperties | null)?.rates ?? []).find(
+    (x) => x.product === product && x.placement === placement,
+  );
+  return r ? r.rate : 0;
+}
+
+/** One row per zone: id, ground area in ac and ha, and the set's rates (0 where the zone has none). */
+function setRows(z: Zones, plan: SetPlan): Feature[] {
+  return z.feats.map((f, i) => {
+    const props: Record<string, unknown> = {
+      zone_id: z.zoneIds[i],
+      area_ac: m2ToAc(z.areasM2[i]),
+      area_ha: m2ToHa(z.areasM2[i]),
+    };
+    for (const c of plan.cols) props[c.key] = rateOf(f, c.product, c.placement);
+    return { type: 'Feature', properties: props, geometry: f.geometry } as Feature;
+  });
+}
+
+/** The .dbf columns of a set: zone id (number or text), areas, then one rate column per product. */
+function columnSpecs(z: Zones, plan: SetPlan, rows: Feature[]): ColumnSpec[] {
+  const idsNumeric = z.zoneIds.every((id) => typeof id === 'number' && Number.isInteger(id) && id >= 0);
+  return [
+    idsNumeric
+      ? {
+          key: 'zone_id',
+          type: 'N',
+          width: numberWidth(z.zoneIds as number[], 0),
+          description: 'zone number',
+        }
+      : { key: 'zone_id', type: 'C', width: 20, description: 'zone name' },
+    {
+      key: 'area_ac',
+      type: 'N',
+      width: numberWidth(
+        rows.map((r) => r.properties!.area_ac as number),
+        2,
+      ),
+      decimals: 2,
+      description: 'zone ground area, acres (WGS 84 ellipsoid)',
+    },
+    {
+      key: 'area_ha',
+      type: 'N',
+      width: numberWidth(
+        rows.map((r) => r.properties!.area_ha as number),
+        2,
+      ),
+      decimals: 2,
+      description: 'zone ground area, hectares',
+    },
+    ...plan.cols.map((c): ColumnSpec => ({
+      key: c.key,
+      name: c.column,
+      type: 'N',
+      decimals: decimalsFor(c.unit),
+      width: numberWidth(
+        rows.map((r) => r.properties![c.key] as number),
+        decimalsFor(c.unit),
+      ),
+      description: `${c.product}, ${c.placement}, ${c.unit} of product`,
+    })),
+  ];
+}
+
+/** Each rate column as written (its final name), with its range and the product total over the zones. */
+function rateColumns(
+  set: string,
+  plan: SetPlan,
+  rows: Feature[],
+  written: ReturnType<typeof resolveColumns>,
+  areasM2: number[],
+): RateColumn[] {
+  return plan.cols.map((c, k) => {
+    const vals = rows.map((r) => r.properties![c.key] as number);
+    return {
+      set,
+      column: written[3 + k].name,
+      product: c.product,
+      placement: c.placement,
+      unit: c.unit,
+      min: Math.min(...vals),
+      max: Math.max(...vals),
+      total: vals.reduce(
+        (s, v, i) =>
+          s + v * (c.unit === 'lb/ac' || c.unit === 'US gal/ac' ? m2ToAc(areasM2[i]) : m2ToHa(areasM2[i])),
+        0,
+      ),
+    };
+  });
 }
 
 function noteText(
@@ -317,7 +347,7 @@ function noteText(
     `Prescription file set "${set}"${opts.title ? ` for ${opts.title}` : ''}`,
     `Written by tilth ${VERSION} on ${date.toISOString().slice(0, 10)}.`,
     '',
-    `Zones: ${zones}, ${acres.toFixed(2)} ac (${(acres * 0.40468564224).toFixed(2)} ha) in all.`,
+    `Zones: ${zones}, ${acres.toFixed(2)} ac (${acToHa(acres).toFixed(2)} ha) in all.`,
     `Coordinates: ${opts.crs === 'utm' ? 'WGS 84 / UTM metres (see the .prj)' : 'WGS 84 longitude/latitude, EPSG:4326'}.`,
     `Layout: ${opts.layout === 'per_placement' ? 'one file set per placement, one rate column per product' : 'one file set per product, one rate column'}.`,
     '',

@@ -33,7 +33,8 @@ import {
   kghaToLbac,
 } from '../units/index.js';
 import { VERSION } from '../version.js';
-import { productRate, usedPairs, type Prescription, type ZoneSetResult } from './index.js';
+import { productRate, usedPairs } from './totals.js';
+import type { Prescription, ZoneSetResult } from './types.js';
 
 /** Options of {@link prescriptionTaskData}. */
 export interface TaskDataOptions {

@@ -4,7 +4,7 @@
  * record of why the zone count came out as it did. See docs/zones.md.
  */
 import type { Warning } from '../errors.js';
-import type { Decision } from '../agronomy/decide.js';
+import type { Decision } from '../agronomy/decision.js';
 import type { Plan } from '../agronomy/plan.js';
 import { NUTRIENTS, TEXTURES, type Nutrient, type Tables } from '../agronomy/tables.js';
 import { pointInParts } from '../geo/area.js';
@@ -13,7 +13,7 @@ import { forEachNeighbourBand } from '../surface/neighbours.js';
 import { classify, classifyVectors, type Classes } from '../zones/classify.js';
 import { makeZones, type ZoneSet } from '../zones/index.js';
 import type { Analyte, FieldInputs, Grid } from '../types.js';
-import { M_PER_FT, m2ToAc, mphToMs } from '../units/index.js';
+import { M2_PER_AC, M_PER_FT, m2ToAc, mphToMs } from '../units/index.js';
 import { rateJudge, type ApartReason, type ZoneProfile } from './rateJudge.js';
 
 /** How a zone set's zones came about. */
@@ -54,7 +54,7 @@ export function minZoneArea(plan: Plan, fieldAreaM2: number, gridSamples: number
   const perSampleM2 = gridSamples > 0 ? fieldAreaM2 / gridSamples : 0;
   const fromPlan = plan.zoning.min_zone_ac !== 'auto';
   const usedM2 = fromPlan
-    ? (plan.zoning.min_zone_ac as number) * 4046.8564224
+    ? (plan.zoning.min_zone_ac as number) * M2_PER_AC
     : Math.max(machineM2, perSampleM2);
   return { machineM2, perSampleM2, gridSamples, usedM2, fromPlan };
 }
@@ -95,15 +95,32 @@ export interface DesignedSet {
  * @example const sets = designZoneSets({ inputs, plan, tables, grid, targets, surfaces, analytes, layers, minArea, mainNutrient });
  */
 export function designZoneSets(d: DesignInputs): { sets: DesignedSet[]; warnings: Warning[] } {
-  const { plan, grid, targets: tg } = d;
   const warnings: Warning[] = [];
+  const rmse: Partial<Record<Analyte, number>> = {};
+  for (const s of d.surfaces) if (s.cv) rmse[s.analyte] = s.cv.best.rmse;
+  const textures = textureLayers(d.inputs, d.grid);
+  const sets = setSpecs(d).map((spec) => designSet(d, spec, rmse, textures, warnings));
+  if (d.minArea.fromPlan && d.minArea.usedM2 < d.minArea.perSampleM2) {
+    warnings.push({
+      code: 'zones.min-area-below-sample',
+      message: `zoning.min_zone_ac ${m2ToAc(d.minArea.usedM2).toFixed(2)} ac is below the area one grid sample stands for (${m2ToAc(d.minArea.perSampleM2).toFixed(2)} ac = field area / ${d.minArea.gridSamples} samples): smaller zones rest on one sample or none. Fix: use min_zone_ac: auto unless you have reason to trust the map at that scale.`,
+    });
+  }
+  return { sets, warnings };
+}
+
+/** What one zone set is drawn from: class ids (shared, k-means) or one target to classify (per product). */
+interface SetSpec {
+  name: string;
+  drivenBy: string;
+  products: string[];
+  input: Float64Array | { classOf: Int16Array };
+}
+
+function setSpecs(d: DesignInputs): SetSpec[] {
+  const { plan, grid, targets: tg } = d;
   const allProducts = plan.products.map((p) => p.product);
-  const specs: {
-    name: string;
-    drivenBy: string;
-    products: string[];
-    input: Float64Array | { classOf: Int16Array };
-  }[] = [];
+  const specs: SetSpec[] = [];
   if (plan.zoning.zone_sets === 'shared') {
     const varying = NUTRIENTS.filter((n) => varies(tg[n], grid.fraction));
     const classOf =
@@ -131,70 +148,70 @@ export function designZoneSets(d: DesignInputs): { sets: DesignedSet[]; warnings
         input: tg[n],
       });
   }
-  const rmse: Partial<Record<Analyte, number>> = {};
-  for (const s of d.surfaces) if (s.cv) rmse[s.analyte] = s.cv.best.rmse;
-  const textures = textureLayers(d.inputs, grid);
-  const sets = specs.map((spec) => {
-    let input = spec.input,
-      breaks: number[] | null = null;
-    if (input instanceof Float64Array) {
-      const c = mergeCloseClasses(
-        classify(input, {
-          method: plan.zoning.method,
-          classes: plan.zoning.classes,
-          weights: grid.fraction,
-          step: 0,
-        }),
-        plan.zoning.min_class_difference_pct,
-      );
-      input = { classOf: c.classOf };
-      breaks = c.breaks;
-    }
-    const judge = rateJudge({
-      plan,
-      tables: d.tables,
-      products: spec.products,
-      layers: [...d.layers, ...(textures ?? [])],
-      analytes: d.analytes,
-      textures: !!textures,
-      rmse,
-      pMethod: d.inputs.samples.pMethod,
-    });
-    const zs = makeZones(grid, input, d.inputs.field, {
-      majorityIterations: plan.zoning.smoothing_passes,
-      minAreaM2: d.minArea.usedM2,
-      judge,
-      simplifyCells: plan.zoning.simplify_cells,
-    });
-    warnings.push(...zs.warnings);
-    const minDifference = Object.fromEntries(judge.minDifference);
-    const pairs = zs.pairs.map((p) => ({ a: p.a + 1, b: p.b + 1, why: orientWhy(p.why, zs.profiles![p.a]) }));
-    const design: ZoneDesign = {
-      minArea: d.minArea,
-      minDifference,
-      rmse,
-      counts: zs.counts,
-      vertices: zs.vertices,
-      pairs,
-      why: whyText(zs.counts, d.minArea),
-    };
-    return {
-      name: spec.name,
-      drivenBy: spec.drivenBy,
-      products: spec.products,
-      breaks,
-      zones: zs,
-      samples: samplesInZones(d.inputs, zs),
-      design,
-    };
-  });
-  if (d.minArea.fromPlan && d.minArea.usedM2 < d.minArea.perSampleM2) {
-    warnings.push({
-      code: 'zones.min-area-below-sample',
-      message: `zoning.min_zone_ac ${m2ToAc(d.minArea.usedM2).toFixed(2)} ac is below the area one grid sample stands for (${m2ToAc(d.minArea.perSampleM2).toFixed(2)} ac = field area / ${d.minArea.gridSamples} samples): smaller zones rest on one sample or none. Fix: use min_zone_ac: auto unless you have reason to trust the map at that scale.`,
-    });
+  return specs;
+}
+
+/** One zone set: classes (merged when close), zones made and merged by the rate judge, and their record. */
+function designSet(
+  d: DesignInputs,
+  spec: SetSpec,
+  rmse: Partial<Record<Analyte, number>>,
+  textures: Uint8Array[] | null,
+  warnings: Warning[],
+): DesignedSet {
+  const { plan, grid } = d;
+  let input = spec.input,
+    breaks: number[] | null = null;
+  if (input instanceof Float64Array) {
+    const c = mergeCloseClasses(
+      classify(input, {
+        method: plan.zoning.method,
+        classes: plan.zoning.classes,
+        weights: grid.fraction,
+        step: 0,
+      }),
+      plan.zoning.min_class_difference_pct,
+    );
+    input = { classOf: c.classOf };
+    breaks = c.breaks;
   }
-  return { sets, warnings };
+  const judge = rateJudge({
+    plan,
+    tables: d.tables,
+    products: spec.products,
+    layers: [...d.layers, ...(textures ?? [])],
+    analytes: d.analytes,
+    textures: !!textures,
+    rmse,
+    pMethod: d.inputs.samples.pMethod,
+  });
+  const zs = makeZones(grid, input, d.inputs.field, {
+    majorityIterations: plan.zoning.smoothing_passes,
+    minAreaM2: d.minArea.usedM2,
+    judge,
+    simplifyCells: plan.zoning.simplify_cells,
+  });
+  warnings.push(...zs.warnings);
+  const minDifference = Object.fromEntries(judge.minDifference);
+  const pairs = zs.pairs.map((p) => ({ a: p.a + 1, b: p.b + 1, why: orientWhy(p.why, zs.profiles![p.a]) }));
+  const design: ZoneDesign = {
+    minArea: d.minArea,
+    minDifference,
+    rmse,
+    counts: zs.counts,
+    vertices: zs.vertices,
+    pairs,
+    why: whyText(zs.counts, d.minArea),
+  };
+  return {
+    name: spec.name,
+    drivenBy: spec.drivenBy,
+    products: spec.products,
+    breaks,
+    zones: zs,
+    samples: samplesInZones(d.inputs, zs),
+    design,
+  };
 }
 
 function whyText(c: ZoneSet['counts'], m: MinZoneArea): string {

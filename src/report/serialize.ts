@@ -113,6 +113,20 @@ const schema = z.object({
       source: str.optional(),
     }),
   ),
+  chance: z
+    .array(
+      z.object({
+        nutrient: str,
+        threshold: z.number(),
+        unit: str,
+        raster: raster.optional(),
+        refused: str.optional(),
+        method: str,
+        assumption: str,
+        summary: str.optional(),
+      }),
+    )
+    .optional(),
   zoneSets: z.array(
     z.object({
       name: str,

@@ -109,6 +109,28 @@ export interface ReportResponseMap {
   source?: string;
 }
 
+/**
+ * The chance that a nutrient is below its low threshold, per cell, from kriging's mean and variance under a
+ * stated Gaussian assumption (drawn beside the nutrient's surface map); or, when kriging was refused, why there
+ * is no such map (the report then shows the reason in its place).
+ */
+export interface ReportChanceMap {
+  nutrient: string;
+  /** "low" is below this value, in `unit` */
+  threshold: number;
+  unit: string;
+  /** chance 0..1 per cell (NaN = no value); absent when `refused` */
+  raster?: ReportRaster;
+  /** why there is no map (e.g. kriging refused: too few samples, pure nugget) */
+  refused?: string;
+  /** how the chance was made, for the caption: "ordinary kriging, spherical, nugget ..." */
+  method: string;
+  /** the assumption, stated in the legend */
+  assumption: string;
+  /** what it says for the field as a whole, for the caption (expected share below ...) */
+  summary?: string;
+}
+
 /** A product rate of one zone. */
 export interface ReportRate {
   product: string;
@@ -213,6 +235,8 @@ export interface ReportInput {
   samples: ReportSamples;
   surfaces: ReportSurface[];
   response: ReportResponseMap[];
+  /** chance-below-threshold maps (sulphate-S from the build); absent in files from older versions */
+  chance?: ReportChanceMap[];
   zoneSets: ReportZoneSet[];
   totals: ReportTotal[];
   crossValidation: ReportCvRow[];

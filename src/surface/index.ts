@@ -13,14 +13,17 @@ export {
 } from './idw.js';
 export {
   forEachNeighbourBand,
+  neighbourSearch,
   cellNeighbours,
   sampleNeighbours,
   type NeighbourBand,
+  type NeighbourSearch,
   type NeighbourOptions,
   type CellNeighbours,
   type SampleNeighbours,
 } from './neighbours.js';
 export { buildBuckets, KnnGroup, type Buckets } from './knn.js';
+export { SurfacePool, PARALLEL_MIN_CELLS, type SurfaceThreads } from './parallel.js';
 export {
   crossValidate,
   crossValidateMany,
@@ -44,7 +47,6 @@ export {
   type NutrientSurfaceOptions,
   type SurfaceMethod,
 } from './nutrientSurface.js';
-export { visitCellNeighbours, type CellVisitor } from './cellNeighbours.js';
 export {
   krigingSurface,
   covariance,

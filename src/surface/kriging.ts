@@ -13,7 +13,7 @@
  * per cell).
  */
 import type { ModelKind } from '../variability/models.js';
-import { visitCellNeighbours, type GridShape } from './cellNeighbours.js';
+import { forEachNeighbourBand, type GridShape } from './neighbours.js';
 import { COINCIDENT_D2 } from './idw.js';
 
 /** A semivariogram model in gstat's parameterisation: gamma(h) = nugget + psill * unit(h / range), h > 0. */
@@ -127,17 +127,25 @@ export class OkSolver {
   }
 
   /**
-   * Makes the m samples idx[0..m) the current neighbourhood (positions xy relative to (ox, oy), values z).
+   * Makes the m samples idx[off..off + m) the current neighbourhood (positions xy relative to (ox, oy), values z).
    * Returns false when their covariance matrix is not positive definite (coincident samples without
    * nugget, or a Gaussian model on samples much closer than its range).
    */
-  load(xy: Float64Array, ox: number, oy: number, z: ArrayLike<number>, idx: Int32Array, m: number): boolean {
+  load(
+    xy: Float64Array,
+    ox: number,
+    oy: number,
+    z: ArrayLike<number>,
+    idx: Int32Array,
+    m: number,
+    off = 0,
+  ): boolean {
     const { mark, members, sizes, kmax } = this;
     const stamp = ++this.stamp;
     let h1 = 0,
       h2 = 0;
     for (let t = 0; t < m; t++) {
-      const j = idx[t];
+      const j = idx[off + t];
       mark[j] = stamp;
       h1 = (h1 + Math.imul(j + 1, 0x9e3779b1)) | 0;
       h2 = (h2 + Math.imul((j + 1) ^ 0x5bd1e995, 0x85ebca6b)) | 0;
@@ -156,9 +164,9 @@ export class OkSolver {
     this.keys[slot] = key;
     this.map.set(key, slot);
     sizes[slot] = m;
-    for (let t = 0; t < m; t++) members[slot * kmax + t] = idx[t];
+    for (let t = 0; t < m; t++) members[slot * kmax + t] = idx[off + t];
     this.cur = slot;
-    this.ok[slot] = this.factorise(slot, xy, ox, oy, z, idx, m) ? 1 : 0;
+    this.ok[slot] = this.factorise(slot, xy, ox, oy, z, idx, m, off) ? 1 : 0;
     return this.ok[slot] === 1;
   }
 
@@ -179,6 +187,7 @@ export class OkSolver {
     z: ArrayLike<number>,
     idx: Int32Array,
     m: number,
+    off: number,
   ): boolean {
     this.factorisations++;
     const { pool, model, sill, kmax } = this;
@@ -188,8 +197,8 @@ export class OkSolver {
       vo = yo + kmax,
       go = vo + kmax;
     for (let t = 0; t < m; t++) {
-      pool[xo + t] = xy[2 * idx[t]] - ox;
-      pool[yo + t] = xy[2 * idx[t] + 1] - oy;
+      pool[xo + t] = xy[2 * idx[off + t]] - ox;
+      pool[yo + t] = xy[2 * idx[off + t] + 1] - oy;
     }
     for (let i = 0; i < m; i++) {
       const r = o + i * m;
@@ -218,7 +227,7 @@ export class OkSolver {
     for (let i = 0; i < m; i++) {
       const ri = o + i * m;
       let sv = 1,
-        sg = z[idx[i]];
+        sg = z[idx[off + i]];
       for (let t = 0; t < i; t++) {
         sv -= pool[ri + t] * pool[vo + t];
         sg -= pool[ri + t] * pool[go + t];
@@ -320,23 +329,31 @@ export function krigingSurface(
   if (n === 0 || k < 1) return res;
   const solver = new OkSolver(model, k, n);
   const { xmin, ymax, cell, cols } = grid;
-  visitCellNeighbours(xy, grid, k, Infinity, opts.where ?? grid.fraction, (i, found, d2, idx) => {
-    let hit = -1;
-    for (let t = 0; t < found; t++) if (d2[t] < COINCIDENT_D2 && (hit < 0 || idx[t] < idx[hit])) hit = t;
-    if (hit >= 0) {
-      values[i] = z[idx[hit]];
-      variance[i] = 0;
-      if (lagrange) lagrange[i] = 0;
-      return;
+  const search = { where: opts.where ?? grid.fraction, sorted: false };
+  forEachNeighbourBand(xy, grid, k, search, (b) => {
+    for (let t = 0; t < b.count; t++) {
+      const i = b.cells[t],
+        found = b.found[t],
+        o = t * b.k;
+      // a cell on a sample takes its value (the lowest index when several coincide)
+      let hit = -1;
+      for (let j = o; j < o + found; j++)
+        if (b.d2[j] < COINCIDENT_D2 && (hit < 0 || b.idx[j] < hit)) hit = b.idx[j];
+      if (hit >= 0) {
+        values[i] = z[hit];
+        variance[i] = 0;
+        if (lagrange) lagrange[i] = 0;
+        continue;
+      }
+      if (!solver.load(xy, xmin, ymax, z, b.idx, found, o)) {
+        res.singular++;
+        continue;
+      }
+      solver.predict(((i % cols) + 0.5) * cell, -(Math.floor(i / cols) + 0.5) * cell);
+      values[i] = solver.mean;
+      variance[i] = solver.variance;
+      if (lagrange) lagrange[i] = solver.mu;
     }
-    if (!solver.load(xy, xmin, ymax, z, idx, found)) {
-      res.singular++;
-      return;
-    }
-    solver.predict(((i % cols) + 0.5) * cell, -(Math.floor(i / cols) + 0.5) * cell);
-    values[i] = solver.mean;
-    variance[i] = solver.variance;
-    if (lagrange) lagrange[i] = solver.mu;
   });
   res.factorisations = solver.factorisations;
   return res;

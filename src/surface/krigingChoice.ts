@@ -6,7 +6,7 @@
  * multiplier of C w + mu 1 = c0, the negative of Cressie's m); see docs/surface.md.
  */
 import type { CvRow } from './crossValidate.js';
-import type { GridShape } from './cellNeighbours.js';
+import type { GridShape } from './neighbours.js';
 import { krigingSurface, type KrigingModel } from './kriging.js';
 import { krigingCv } from './krigingCv.js';
 import { chooseVariogram, modelText, type VariogramChoice } from './variogram.js';

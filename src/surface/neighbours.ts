@@ -1,5 +1,6 @@
 /**
- * One k-nearest search shared by every surface (and every cross-validation) built from the same sample
+ * One k-nearest search shared by every surface (IDW and ordinary kriging, and every cross-validation) built
+ * from the same sample
  * sites. A cell's neighbours are kept as sample indices and squared distances in ascending (distance,
  * index) order, so the first k' of a k-list are exactly the k'-nearest: one search with the largest k any
  * surface needs serves them all, with the same answer as separate searches.
@@ -9,8 +10,11 @@
  * small enough to keep. {@link sampleNeighbours} answers the leave-one-out question for the samples.
  * See docs/surface.md ("One neighbour search") for the method.
  */
+import type { Grid } from '../types.js';
 import { buildBuckets, KnnGroup, type Buckets } from './knn.js';
-import type { GridShape } from './cellNeighbours.js';
+
+/** The geometry of a north-up grid (see Grid in src/types.ts). */
+export type GridShape = Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>;
 
 /**
  * Neighbours of the searched cells of one band of grid rows. Reused between bands: copy what you keep.
@@ -28,7 +32,7 @@ export interface NeighbourBand {
   cells: Int32Array;
   /** neighbours found per cell (k, or fewer within the radius) */
   found: Int32Array;
-  /** sample indices, k slots per cell, ascending by (squared distance, index) */
+  /** sample indices, k slots per cell, ascending by (squared distance, index) unless `sorted: false` */
   idx: Int32Array;
   /** squared distances (m^2) matching idx */
   d2: Float64Array;
@@ -40,6 +44,12 @@ export interface NeighbourOptions {
   radius?: number;
   /** cells to search: where[i] > 0 (default: every cell) */
   where?: ArrayLike<number>;
+  /**
+   * neighbours in ascending (squared distance, index) order (default true); false leaves each cell's k nearest
+   * in the order the selection leaves them (kriging: its system needs no order, and sorting every cell's list
+   * costs about a third of its time on a large grid)
+   */
+  sorted?: boolean;
 }
 
 /** How the grid is cut into blocks of S x S cells with matching sample buckets. */
@@ -113,48 +123,88 @@ function anyWhere(
 }
 
 /**
- * Streams the k nearest samples of every searched cell centre of `grid`, one band of rows at a time
- * (bands are a few tens of rows; the band object and its arrays are reused, so copy what you keep).
- * Exact: bucketed candidate sets per block of cells with a proof per query (see knn.ts); equal distances
- * go to the lower sample index. k is clamped to the number of samples; nothing is called when there are none.
- *
- * @param xy sample positions x0 y0 x1 y1 ... (metres, the grid's frame)
- * @param grid grid geometry (north-up, row-major)
- * @param k neighbours per cell (the largest any consumer needs)
- * @param opts radius Infinity, where: every cell
- * @param onBand called once per band that has searched cells, top band first
- * @example forEachNeighbourBand(xy, grid, 16, { where: grid.fraction }, (b) => { for (let t = 0; t < b.count; t++) use(b.cells[t], b.idx[t * b.k]) })
+ * A k-nearest search over the cells of a grid, one band of rows at a time, in any order (see
+ * {@link neighbourSearch}). One instance per thread: it holds the search state.
  */
-export function forEachNeighbourBand(
+export interface NeighbourSearch {
+  /** bands of `rowsPerBand` grid rows (the last one may be shorter) */
+  readonly bands: number;
+  readonly rowsPerBand: number;
+  /** neighbour slots per cell */
+  readonly k: number;
+  /** a band object with room for any band of this search (reuse it) */
+  newBand(): NeighbourBand;
+  /** fills `band` with band `i`'s searched cells and returns how many there are (0: none searched) */
+  search(i: number, band: NeighbourBand): number;
+}
+
+/**
+ * The k nearest samples of the searched cell centres of `grid`, band by band (the bands of
+ * {@link forEachNeighbourBand}). With `sorted` (the default) each band's answer is exact and does not depend
+ * on which bands were searched before it, so threads can share the bands out; unsorted lists hold the same
+ * neighbours in an order that can depend on the bands searched before. Null when there are no samples or k < 1.
+ *
+ * @param opts radius Infinity, where: every cell, sorted true
+ * @example const s = neighbourSearch(xy, grid, 12)!; const b = s.newBand(); for (let i = 0; i < s.bands; i++) s.search(i, b)
+ */
+export function neighbourSearch(
   xy: Float64Array,
   grid: GridShape,
   k: number,
-  opts: NeighbourOptions,
-  onBand: (band: NeighbourBand) => void,
-): void {
+  opts: NeighbourOptions = {},
+): NeighbourSearch | null {
   const n = xy.length >> 1;
   k = Math.min(Math.floor(k), n);
-  if (n === 0 || !(k >= 1)) return;
-  const radius = opts.radius ?? Infinity,
-    where = opts.where;
-  const { cols, rows, cell } = grid;
-  const L = layout(xy, grid, k, radius);
-  const g = new KnnGroup(L.buckets, k, radius * radius);
-  const per = L.S * cols;
-  const band: NeighbourBand = {
-    r0: 0,
-    r1: 0,
-    k,
-    count: 0,
-    cells: new Int32Array(per),
-    found: new Int32Array(per),
-    idx: new Int32Array(per * k),
-    d2: new Float64Array(per * k),
-  };
-  const { cells, found, idx, d2 } = band,
-    gd = g.d2,
-    gi = g.idx;
-  for (let br = 0; br < L.brows; br++) {
+  if (n === 0 || !(k >= 1)) return null;
+  return new BandSearch(xy, grid, k, opts);
+}
+
+class BandSearch implements NeighbourSearch {
+  readonly bands: number;
+  readonly rowsPerBand: number;
+  private readonly L: Layout;
+  private readonly g: KnnGroup;
+  private readonly where: ArrayLike<number> | undefined;
+  private readonly sorted: boolean;
+
+  constructor(
+    xy: Float64Array,
+    private readonly grid: GridShape,
+    readonly k: number,
+    opts: NeighbourOptions,
+  ) {
+    const radius = opts.radius ?? Infinity;
+    this.where = opts.where;
+    this.sorted = opts.sorted ?? true;
+    this.L = layout(xy, grid, k, radius);
+    this.g = new KnnGroup(this.L.buckets, k, radius * radius);
+    this.bands = this.L.brows;
+    this.rowsPerBand = this.L.S;
+  }
+
+  newBand(): NeighbourBand {
+    const per = this.L.S * this.grid.cols,
+      k = this.k;
+    const cells = new Int32Array(per),
+      found = new Int32Array(per);
+    return {
+      r0: 0,
+      r1: 0,
+      k,
+      count: 0,
+      cells,
+      found,
+      idx: new Int32Array(per * k),
+      d2: new Float64Array(per * k),
+    };
+  }
+
+  search(br: number, band: NeighbourBand): number {
+    const { L, g, where, k, sorted } = this,
+      { cols, rows, cell } = this.grid;
+    const { cells, found, idx, d2 } = band,
+      gd = g.d2,
+      gi = g.idx;
     const by = L.ny - 1 - L.ayT - br;
     const r0 = br * L.S,
       r1 = Math.min(rows, r0 + L.S);
@@ -173,7 +223,7 @@ export function forEachNeighbourBand(
           const c = fwd ? t : c1 - 1 - (t - c0);
           const i = r * cols + c;
           if (where && !(where[i] > 0)) continue;
-          const f = g.nearest((c + 0.5) * cell, qy, -1, true);
+          const f = g.nearest((c + 0.5) * cell, qy, -1, sorted);
           cells[m] = i;
           found[m] = f;
           const o = m * k;
@@ -185,12 +235,38 @@ export function forEachNeighbourBand(
         }
       }
     }
-    if (m === 0) continue;
     band.r0 = r0;
     band.r1 = r1;
+    band.k = k;
     band.count = m;
-    onBand(band);
+    return m;
   }
+}
+
+/**
+ * Streams the k nearest samples of every searched cell centre of `grid`, one band of rows at a time
+ * (bands are a few tens of rows; the band object and its arrays are reused, so copy what you keep).
+ * Exact: bucketed candidate sets per block of cells with a proof per query (see knn.ts); equal distances
+ * go to the lower sample index. k is clamped to the number of samples; nothing is called when there are none.
+ *
+ * @param xy sample positions x0 y0 x1 y1 ... (metres, the grid's frame)
+ * @param grid grid geometry (north-up, row-major)
+ * @param k neighbours per cell (the largest any consumer needs)
+ * @param opts radius Infinity, where: every cell, sorted true
+ * @param onBand called once per band that has searched cells, top band first
+ * @example forEachNeighbourBand(xy, grid, 16, { where: grid.fraction }, (b) => { for (let t = 0; t < b.count; t++) use(b.cells[t], b.idx[t * b.k]) })
+ */
+export function forEachNeighbourBand(
+  xy: Float64Array,
+  grid: GridShape,
+  k: number,
+  opts: NeighbourOptions,
+  onBand: (band: NeighbourBand) => void,
+): void {
+  const s = neighbourSearch(xy, grid, k, opts);
+  if (!s) return;
+  const band = s.newBand();
+  for (let i = 0; i < s.bands; i++) if (s.search(i, band) > 0) onBand(band);
 }
 
 /** Every searched cell's neighbours at once (see {@link cellNeighbours}). */

@@ -4,16 +4,14 @@
  */
 import { UserError, type Warning } from '../errors.js';
 import type { Analyte, Grid, SampleZones, Samples } from '../types.js';
-import {
-  crossValidateMany,
-  DEFAULT_NEIGHBOURS,
-  DEFAULT_POWERS,
-  type CvResult,
-  type CvRow,
-} from './crossValidate.js';
+import type { CvResult } from './crossValidate.js';
 import { idwSurfaces } from './idw.js';
+import { chooseIdw, fmt, kName, type IdwChoice } from './idwChoice.js';
+import { SurfacePool, type SurfaceThreads } from './parallel.js';
 import { nutrientPoints, type NutrientPoints } from './prepare.js';
 import { zoneSurface } from './zoneSurface.js';
+
+export { kName } from './idwChoice.js';
 import { krigeGrid, krigingCandidate, type KrigingChoiceOptions, type KrigingInfo } from './krigingChoice.js';
 
 /** Label with the canonical unit (src/types.ts), for messages and tables. */
@@ -62,13 +60,6 @@ export function analyteFromName(name: string): Analyte {
   return a;
 }
 
-/**
- * Above this many samples "all" is left out of the automatic neighbour choice; a warning says so. Its
- * leave-one-out costs samples^2 / 2 pairs x powers x nutrients, and its map cells x samples; with this many
- * samples a few nearest predict the left-out ones better anyway (docs/surface.md, "Cross-validation cost").
- */
-export const ALL_CV_LIMIT = 2000;
-
 /** Options for {@link nutrientSurface}. */
 export interface NutrientSurfaceOptions {
   /** IDW power, or 'auto' = lowest cross-validation RMSE among `powers` (default 'auto'); a number is the only candidate */
@@ -90,6 +81,8 @@ export interface NutrientSurfaceOptions {
   method?: SurfaceMethod;
   /** kriging: neighbours 16, log false, model fitted by the variability stage */
   kriging?: KrigingChoiceOptions;
+  /** worker threads for the IDW maps' per-cell work (default none: this thread; parallel.ts) */
+  threads?: SurfaceThreads;
 }
 
 /** How a surface is interpolated: see {@link NutrientSurfaceOptions.method}. */
@@ -100,7 +93,7 @@ export const SURFACE_METHODS: readonly SurfaceMethod[] = ['auto', 'idw', 'krigin
 export interface NutrientSurface {
   analyte: Analyte;
   grid: Grid;
-  /** row-major north-up values where grid.fraction > 0, NaN elsewhere */
+  /** row-major north-up values where grid.fraction > 0, NaN elsewhere (on a SharedArrayBuffer when made by threads) */
   values: Float64Array;
   method: 'idw' | 'kriging' | 'zones' | 'single-sample';
   /** power used (idw); NaN otherwise */
@@ -181,12 +174,25 @@ export function nutrientSurfaces(
     else groups.push([r]);
   });
   let done = analytes.length - groups.reduce((s, g) => s + g.length, 0);
-  for (const g of groups) {
-    interpolate(g, grid, opts, out, () => onProgress((done + g.length / 2) / analytes.length));
-    done += g.length;
-    onProgress(done / analytes.length);
+  // workers start now, so they load while cross-validation runs here
+  const pool =
+    groups.length && opts.method !== 'kriging' ? SurfacePool.start(opts.threads, searched(grid)) : null;
+  try {
+    for (const g of groups) {
+      interpolate(g, grid, opts, out, pool, () => onProgress((done + g.length / 2) / analytes.length));
+      done += g.length;
+      onProgress(done / analytes.length);
+    }
+  } finally {
+    pool?.close();
   }
   return out;
+}
+
+function searched(grid: Grid): number {
+  let m = 0;
+  for (let i = 0; i < grid.fraction.length; i++) if (grid.fraction[i] > 0) m++;
+  return m;
 }
 
 /** A nutrient waiting for interpolation: its points and the result fields known so far. */
@@ -278,8 +284,6 @@ function prepare(
   return { slot, label, pts, base };
 }
 
-type IdwChoice = { cv: CvResult | null; power: number; neighbours: number; choice: string };
-
 /**
  * Nutrients at the same sites: IDW cross-validation shared, kriging considered per nutrient, then the IDW
  * maps from one shared search per cell.
@@ -289,6 +293,7 @@ function interpolate(
   grid: Grid,
   opts: NutrientSurfaceOptions,
   out: NutrientSurface[],
+  pool: SurfacePool | null,
   halfway: () => void,
 ): void {
   const { xy } = group[0].pts;
@@ -306,7 +311,7 @@ function interpolate(
     xy,
     idwLeft.map(({ p, idw }) => ({ z: p.pts.z, power: idw.power, neighbours: idw.neighbours })),
     grid,
-    { radius: opts.radius, minNeighbours: opts.minNeighbours },
+    { radius: opts.radius, minNeighbours: opts.minNeighbours, pool },
   );
   idwLeft.forEach(({ p, idw, kriging }, i) => {
     const v = values[i],
@@ -399,87 +404,6 @@ function krigeOrNot(
   return { idw: { ...idw!, cv, choice }, kriging };
 }
 
-/**
- * IDW power and neighbours for nutrients at the same sites: by one shared cross-validation ('auto') or as
- * given; per nutrient the table and the sentence for people.
- */
-function chooseIdw(group: Pending[], opts: NutrientSurfaceOptions): IdwChoice[] {
-  const n = group[0].pts.z.length;
-  const fixedP = typeof opts.power === 'number' ? opts.power : null;
-  const fixedK = typeof opts.neighbours === 'number' ? opts.neighbours : null;
-  let choices = opts.neighbourChoices ?? DEFAULT_NEIGHBOURS;
-  if (fixedK === null && n > ALL_CV_LIMIT && choices.some((k) => !Number.isFinite(k))) {
-    // leave-one-out with every sample costs n^2 distance pairs, and its map cells x samples: too slow for dense data
-    choices = choices.filter((k) => Number.isFinite(k));
-    for (const p of group)
-      p.base.warnings.push({
-        code: 'surface.cv-all-skipped',
-        message: `${p.label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (its cost grows with the square of the sample count; give --neighbours all to use it).`,
-        field: p.label,
-      });
-  }
-  // a fixed value is the only candidate on its axis: with both given, the table is the one row that says
-  // how well the given pair predicts left-out samples (cheap), not a search
-  const cvs =
-    opts.skipCv && fixedP !== null && fixedK !== null
-      ? group.map(() => null)
-      : crossValidateMany(
-          group[0].pts.xy,
-          group.map((p) => p.pts.z),
-          {
-            powers: fixedP !== null ? [fixedP] : (opts.powers ?? DEFAULT_POWERS),
-            neighbours: fixedK !== null ? [fixedK] : choices,
-            radius: opts.radius,
-            minNeighbours: opts.minNeighbours,
-          },
-        );
-  return group.map((p, i) => idwFromCv(cvs[i], fixedP, fixedK, n, p));
-}
-
-/** Power and neighbours from one nutrient's table (restricted to the given values), and why. */
-function idwFromCv(
-  cv: CvResult | null,
-  fixedP: number | null,
-  fixedK: number | null,
-  n: number,
-  p: Pending,
-): IdwChoice {
-  let power = fixedP ?? 2,
-    neighbours = fixedK ?? 12;
-  if (!cv) {
-    if (n < 3)
-      p.base.warnings.push({
-        code: 'surface.few-samples',
-        message: `${p.label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`,
-        field: p.label,
-      });
-    const choice =
-      n < 3
-        ? `power ${power} and ${kName(neighbours)} neighbours (fewer than 3 samples: no cross-validation)`
-        : `power ${power} and ${kName(neighbours)} neighbours as given (cross-validation skipped)`;
-    return { cv, power, neighbours, choice };
-  }
-  const rows = cv.table.filter(
-    (r) => (fixedP === null || r.power === fixedP) && (fixedK === null || r.neighbours === fixedK),
-  );
-  let best: CvRow = rows[0];
-  for (const r of rows) if (r.rmse < best.rmse || Number.isNaN(best.rmse)) best = r;
-  power = best.power;
-  neighbours = best.neighbours;
-  const what =
-    fixedP === null && fixedK === null
-      ? 'power and neighbours'
-      : fixedP === null
-        ? 'power'
-        : fixedK === null
-          ? 'neighbours'
-          : '';
-  const choice = what
-    ? `${what} chosen by leave-one-out cross-validation: lowest RMSE ${fmt(best.rmse)} at power ${power}, ${kName(neighbours)} neighbours`
-    : `power ${power} and ${kName(neighbours)} neighbours as given (leave-one-out RMSE ${fmt(best.rmse)}; use --power auto --neighbours auto to compare others)`;
-  return { cv: { table: cv.table, best }, power, neighbours, choice };
-}
-
 /** Zone-composite samples: each zone painted with its (averaged) sample value. */
 function zoneValues(
   pts: NutrientPoints,
@@ -518,13 +442,4 @@ function zoneValues(
   });
   const r = zoneSurface(grid, zs, label);
   return { values: r.values, warnings: [...warnings, ...r.warnings] };
-}
-
-/** "all" for Infinity, else the count. */
-export function kName(k: number): string {
-  return Number.isFinite(k) ? String(k) : 'all';
-}
-
-function fmt(v: number): string {
-  return Number.isFinite(v) ? String(Number(v.toPrecision(4))) : 'n/a';
 }

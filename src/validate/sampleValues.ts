@@ -64,76 +64,31 @@ const LIME: Record<string, LimeRating> = {
   vh: 'high',
 };
 
+/** What reading the cells gathers across samples, for the checks and warnings after. */
+interface CellTally {
+  bad: { where: string; column: string; value: unknown; id: string }[];
+  /** columns read without a unit (ppm or dS/m assumed) */
+  assumed: Set<string>;
+  /** per column, the first unit printed in a cell, and where */
+  cellUnits: Map<string, { unit: ValueUnit; where: string }>;
+}
+
 /**
  * Reads all soil values of all samples.
  * @example readSampleValues({ table, ids, groups, soilCols, recDepth, depthCol: undefined, opts: {}, warnings: [] }).values.p
  */
 export function readSampleValues(inp: ValueInput): ValueArrays {
-  const { table, ids, groups, soilCols, recDepth, opts, warnings } = inp;
-  const n = ids.length;
-  const out: ValueArrays = {
-    values: {} as ValueArrays['values'],
-    censored: {} as ValueArrays['censored'],
-    extra: {} as ValueArrays['extra'],
-    limeRating: new Array(n).fill(null),
-    refused: new Map(),
-  };
-  for (const a of ANALYTES) {
-    out.values[a] = new Float64Array(n).fill(NaN);
-    out.censored[a] = new Int8Array(n);
-  }
-  for (const e of EXTRA_VALUES) out.extra[e] = new Float64Array(n).fill(NaN);
-  checkUnitsStated(table, soilCols);
-  const bad: { where: string; column: string; value: unknown; id: string }[] = [];
-  const assumed = new Set<string>();
-  const cellUnits = new Map<string, { unit: ValueUnit; where: string }>();
-  const factorUsed: Partial<Record<SoilValue, string[]>> = {};
+  const { table, ids, groups, opts, warnings } = inp;
+  const out = emptyValues(ids.length);
+  checkUnitsStated(table, inp.soilCols);
+  const tally: CellTally = { bad: [], assumed: new Set(), cellUnits: new Map() };
   const all = ids.map((id, s) => {
     const layers: Partial<Record<SoilValue, Layer[]>> = {};
-    for (const i of groups.get(id)!) {
-      const r = table.records[i];
-      for (const c of soilCols) {
-        const raw = r.props[c.name] ?? null;
-        if (c.role === 'carbonate' && typeof raw === 'string' && LIME[raw.trim().toLowerCase()]) {
-          out.limeRating[s] ??= LIME[raw.trim().toLowerCase()];
-          continue;
-        }
-        if (typeof raw === 'string' && NOT_TESTED.test(raw.trim())) {
-          refuse(out, c.name, r.where, raw);
-          continue;
-        }
-        const v = parseLabValue(raw);
-        if (v === null) continue;
-        if (v === 'bad') {
-          bad.push({ where: r.where, column: c.name, value: raw, id });
-          continue;
-        }
-        const ctx: LayerContext = { file: table.file, id, record: r, column: c };
-        checkRange(v, raw, ctx);
-        const d = recDepth[i] ?? c.depth ?? defaultDepth(c, r.where, table.file);
-        const unit = cellUnit(v.unit, c, cellUnits, ctx) ?? c.unit;
-        if (!unit && (c.role === 'p' || c.role === 'k')) assumed.add(c.name);
-        if (!unit && c.role === 'ec') assumed.add(c.name);
-        const list = (layers[c.role] ??= []);
-        const dup = list.find((l) => l.top === d[0] && l.bottom === d[1]);
-        if (dup) {
-          throw new UserError(
-            `${table.file}: sample id "${id}" has ${SOIL_NAMES[c.role]} for ${d[0]}-${d[1]} in twice (${dup.where} and ${r.where}). Fix: sample ids must be unique; give each sample its own id, or remove the repeated row.`,
-            { file: table.file, where: r.where, value: id },
-          );
-        }
-        list.push({
-          top: d[0],
-          bottom: d[1],
-          value: toCanonical(v, unit, d, ctx),
-          censor: v.censor,
-          where: r.where,
-        });
-      }
-    }
+    for (const i of groups.get(id)!) readRecord(inp, i, id, s, layers, out, tally);
     return layers;
   });
-  if (bad.length) throw badValues(table.file, bad);
+  if (tally.bad.length) throw badValues(table.file, tally.bad);
+  const factorUsed: Partial<Record<SoilValue, string[]>> = {};
   all.forEach((layers, s) => {
     for (const [role, list] of Object.entries(layers) as [SoilValue, Layer[]][]) {
       const m = mergeLayers(list, role, ids[s], table.file, opts.depthFactor);
@@ -146,8 +101,76 @@ export function readSampleValues(inp: ValueInput): ValueArrays {
       if (m[2]) (factorUsed[role] ??= []).push(ids[s]);
     }
   });
-  noteWarnings(table.file, factorUsed, assumed, soilCols, opts.depthFactor, warnings);
+  noteWarnings(table.file, factorUsed, tally.assumed, inp.soilCols, opts.depthFactor, warnings);
   return out;
+}
+
+/** Every value NaN (not tested), nothing censored, no lime rating, nothing refused. */
+function emptyValues(n: number): ValueArrays {
+  const out: ValueArrays = {
+    values: {} as ValueArrays['values'],
+    censored: {} as ValueArrays['censored'],
+    extra: {} as ValueArrays['extra'],
+    limeRating: new Array(n).fill(null),
+    refused: new Map(),
+  };
+  for (const a of ANALYTES) {
+    out.values[a] = new Float64Array(n).fill(NaN);
+    out.censored[a] = new Int8Array(n);
+  }
+  for (const e of EXTRA_VALUES) out.extra[e] = new Float64Array(n).fill(NaN);
+  return out;
+}
+
+/** The soil cells of record `i` (sample `id`, index `s`) as layers; lime ratings, not-tested marks and bad cells aside. */
+function readRecord(
+  inp: ValueInput,
+  i: number,
+  id: string,
+  s: number,
+  layers: Partial<Record<SoilValue, Layer[]>>,
+  out: ValueArrays,
+  tally: CellTally,
+): void {
+  const { table, recDepth } = inp;
+  const r = table.records[i];
+  for (const c of inp.soilCols) {
+    const raw = r.props[c.name] ?? null;
+    if (c.role === 'carbonate' && typeof raw === 'string' && LIME[raw.trim().toLowerCase()]) {
+      out.limeRating[s] ??= LIME[raw.trim().toLowerCase()];
+      continue;
+    }
+    if (typeof raw === 'string' && NOT_TESTED.test(raw.trim())) {
+      refuse(out, c.name, r.where, raw);
+      continue;
+    }
+    const v = parseLabValue(raw);
+    if (v === null) continue;
+    if (v === 'bad') {
+      tally.bad.push({ where: r.where, column: c.name, value: raw, id });
+      continue;
+    }
+    const ctx: LayerContext = { file: table.file, id, record: r, column: c };
+    checkRange(v, raw, ctx);
+    const d = recDepth[i] ?? c.depth ?? defaultDepth(c, r.where, table.file);
+    const unit = cellUnit(v.unit, c, tally.cellUnits, ctx) ?? c.unit;
+    if (!unit && (c.role === 'p' || c.role === 'k' || c.role === 'ec')) tally.assumed.add(c.name);
+    const list = (layers[c.role] ??= []);
+    const dup = list.find((l) => l.top === d[0] && l.bottom === d[1]);
+    if (dup) {
+      throw new UserError(
+        `${table.file}: sample id "${id}" has ${SOIL_NAMES[c.role]} for ${d[0]}-${d[1]} in twice (${dup.where} and ${r.where}). Fix: sample ids must be unique; give each sample its own id, or remove the repeated row.`,
+        { file: table.file, where: r.where, value: id },
+      );
+    }
+    list.push({
+      top: d[0],
+      bottom: d[1],
+      value: toCanonical(v, unit, d, ctx),
+      censor: v.censor,
+      where: r.where,
+    });
+  }
 }
 
 /** Nitrate and sulphate need a stated unit (ppm and lb/ac differ by 2-6 times): refused with every column to map. */

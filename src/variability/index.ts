@@ -2,21 +2,22 @@
  * Within-field variability of one nutrient: statistics, the empirical semivariogram and fitted models, spatial
  * dependence, sampling advice and the low spots (with the sulphate-S statements). Pure: no files, no printing.
  */
-import type { Analyte, Field, Samples, Warning } from '../types.js';
+import type { Analyte, Field, PMethod, Samples, Warning } from '../types.js';
 import { describe, type Description } from '../stats/describe.js';
 import { semivariogram, type Semivariogram } from './semivariogram.js';
 import { fitModels, type FitOptions, type FittedModel } from './fit.js';
 import { spatialDependence, type Dependence } from './dependence.js';
 import { samplingAdvice, type SamplingAdvice } from './sampling.js';
-import { areaShareBelow, sampleShareBelow } from './area-share.js';
 import {
-  NUTRIENT_LABEL,
-  NUTRIENT_UNIT,
-  defaultThreshold,
-  S_FLOOR_DEFAULT,
-  S_MARGINAL_UPPER,
-  type Threshold,
-} from './thresholds.js';
+  lowSpots,
+  sulphurFindings,
+  type LowSample,
+  type ShareBelow,
+  type SulphurFindings,
+  type SurfaceForShare,
+} from './lowSpots.js';
+import { NUTRIENT_LABEL, NUTRIENT_UNIT, defaultThreshold, type Threshold } from './thresholds.js';
+import type { ChanceSummary } from './chanceMap.js';
 
 export * from './semivariogram.js';
 export * from './models.js';
@@ -26,9 +27,14 @@ export * from './sampling.js';
 export * from './area-share.js';
 export * from './thresholds.js';
 export * from './charts.js';
+export * from './semivariogramChart.js';
+export * from './sampleMap.js';
 export * from './text.js';
 export * from './report-charts.js';
 export * from './chance.js';
+export * from './lowSpots.js';
+export * from './chanceMap.js';
+export * from './chanceChart.js';
 
 /** Lags with fewer pairs than this are flagged (common practice). */
 export const MIN_PAIRS = 30;
@@ -52,44 +58,6 @@ export interface VariabilityOptions {
   fit?: FitOptions;
 }
 
-/** An interpolated surface of the nutrient over the field (from the surface stage): cell values and in-field fractions. */
-export interface SurfaceForShare {
-  values: ArrayLike<number>;
-  fraction: ArrayLike<number>;
-  /** cell size, metres */
-  cell: number;
-  /** how the surface was made, for people (e.g. "IDW power 2, 12 neighbours, chosen by cross-validation") */
-  note?: string;
-}
-
-export interface LowSample {
-  id: string;
-  value: number;
-  /** -1 when the lab reported below detection */
-  censored: number;
-  lon: number;
-  lat: number;
-  x: number;
-  y: number;
-}
-
-export interface SulphurFindings {
-  /** the sentence every S result carries */
-  notLowIsUncertain: string;
-  /** mean of the samples: what one composite of equal cores would read, lb S/ac */
-  compositeMean: number;
-  compositeReadsNotLow: boolean;
-  /** true when the composite would read not low while samples (or the map) show low ground */
-  compositeHidesLow: boolean;
-  compositeText: string;
-  /** samples from the threshold up to 30 lb S/ac: the band where canola may still respond */
-  marginal: LowSample[];
-  marginalUpper: number;
-  /** lb S/ac applied regardless of the test */
-  floor: number;
-  floorText: string;
-}
-
 export interface VariabilityReport {
   nutrient: Analyte;
   label: string;
@@ -97,7 +65,7 @@ export interface VariabilityReport {
   stats: Description & { censoredBelow: number; censoredAbove: number };
   threshold: Threshold | null;
   /** share below the threshold: of the samples, and of the interpolated area when a surface was given */
-  shareBelow: { samples: number; area: number | null; areaAc: number | null; surface: string | null } | null;
+  shareBelow: ShareBelow | null;
   transform: 'none' | 'log';
   semivariogram: Semivariogram;
   /** lag numbers holding fewer than 30 pairs */
@@ -108,13 +76,10 @@ export interface VariabilityReport {
   sampling: SamplingAdvice;
   low: LowSample[];
   sulphur: SulphurFindings | null;
+  /** the chance below the threshold from kriging (chanceMap.ts), when the caller made one (the CLI does) */
+  chance?: ChanceSummary;
   warnings: Warning[];
 }
-
-const NOT_LOW_UNCERTAIN =
-  'A sulphate-S test that is low is reliable; one that is not low says little. The test has a large error and ' +
-  'fields vary greatly between hilltops, slopes and depressions, so a composite can hide deficient ground ' +
-  '(Manitoba Agriculture, Soil Fertility Guide, Sulphur; common practice).';
 
 /**
  * Studies the within-field variability of one nutrient.
@@ -139,41 +104,9 @@ export function analyzeVariability(
   const cens = samples.censored[nutrient];
   const warnings: Warning[] = [];
   const stats = describe(values);
-  let censoredBelow = 0;
-  let censoredAbove = 0;
-  for (let i = 0; i < values.length; i++) {
-    if (!Number.isFinite(values[i])) continue;
-    if (cens[i] < 0) censoredBelow++;
-    else if (cens[i] > 0) censoredAbove++;
-  }
-
-  const threshold: Threshold | null =
-    opts.threshold === null
-      ? null
-      : typeof opts.threshold === 'number'
-        ? { value: opts.threshold, unit: NUTRIENT_UNIT[nutrient], source: 'set by the user' }
-        : opts.threshold !== undefined
-          ? opts.threshold
-          : defaultThreshold(nutrient, samples.pMethod);
-
-  // semivariogram on the tested samples
+  const threshold = thresholdOf(opts.threshold, nutrient, samples.pMethod);
   const transform = opts.transform ?? 'none';
-  const z = new Float64Array(values.length);
-  for (let i = 0; i < values.length; i++) {
-    const v = values[i];
-    z[i] = transform === 'log' ? (v > 0 ? Math.log(v) : NaN) : v;
-  }
-  if (transform === 'log') {
-    let dropped = 0;
-    for (let i = 0; i < values.length; i++)
-      if (Number.isFinite(values[i]) && !Number.isFinite(z[i])) dropped++;
-    if (dropped)
-      warnings.push({
-        code: 'variability.log-nonpositive',
-        message: `${dropped} ${nutrient} value(s) are 0 or negative and have no logarithm; they are left out of the semivariogram.`,
-        field: nutrient,
-      });
-  }
+  const z = transformed(values, transform, nutrient, warnings);
   if (samples.zone.some((k) => k !== null)) {
     warnings.push({
       code: 'variability.zone-composites',
@@ -182,29 +115,124 @@ export function analyzeVariability(
       field: nutrient,
     });
   }
+  const { sv, fewPairLags, xyUsed } = studySemivariogram(samples.xy, z, opts, nutrient, warnings);
+  const { fits, best, dependence } = studyFits(sv, opts.fit, nutrient, warnings);
+  const noSill = !best && fits.some((f) => f.ok && f.rangeAtLimit);
+  const sampling = samplingAdvice({
+    areaM2: field.areaM2,
+    xy: xyUsed,
+    effectiveRange: best ? best.effectiveRange : NaN,
+    dependence: dependence?.class ?? null,
+    firstLag: sv.dist[0] ?? NaN,
+    noSill,
+  });
+  const spots = threshold ? lowSpots(samples, values, cens, threshold, surface) : null;
+  const low = spots?.low ?? [];
+  const sulphur =
+    nutrient === 'so4_s'
+      ? sulphurFindings({
+          samples,
+          values,
+          cens,
+          stats,
+          threshold,
+          low,
+          areaShare: spots?.shareBelow.area ?? null,
+          floor: opts.sFloor,
+          floorSource: opts.sFloorSource,
+        })
+      : null;
+  return {
+    nutrient,
+    label: NUTRIENT_LABEL[nutrient],
+    unit: NUTRIENT_UNIT[nutrient],
+    stats: { ...stats, ...censoredCounts(values, cens) },
+    threshold,
+    shareBelow: spots?.shareBelow ?? null,
+    transform,
+    semivariogram: sv,
+    fewPairLags,
+    fits,
+    best,
+    dependence,
+    sampling,
+    low,
+    sulphur,
+    warnings,
+  };
+}
+
+/** Results reported below detection and above range among the tested samples. */
+function censoredCounts(
+  values: ArrayLike<number>,
+  cens: ArrayLike<number>,
+): { censoredBelow: number; censoredAbove: number } {
+  let censoredBelow = 0;
+  let censoredAbove = 0;
+  for (let i = 0; i < values.length; i++) {
+    if (!Number.isFinite(values[i])) continue;
+    if (cens[i] < 0) censoredBelow++;
+    else if (cens[i] > 0) censoredAbove++;
+  }
+  return { censoredBelow, censoredAbove };
+}
+
+/** The threshold asked for: a number (set by the user), a Threshold, null (none) or the nutrient's default. */
+function thresholdOf(
+  t: VariabilityOptions['threshold'],
+  nutrient: Analyte,
+  pMethod: PMethod,
+): Threshold | null {
+  if (t === null) return null;
+  if (typeof t === 'number') return { value: t, unit: NUTRIENT_UNIT[nutrient], source: 'set by the user' };
+  return t ?? defaultThreshold(nutrient, pMethod);
+}
+
+/** The values the semivariogram is of: as given, or their natural logarithm (NaN, with a warning, for <= 0). */
+function transformed(
+  values: ArrayLike<number>,
+  transform: 'none' | 'log',
+  nutrient: Analyte,
+  warnings: Warning[],
+): Float64Array {
+  const z = new Float64Array(values.length);
+  let dropped = 0;
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i];
+    z[i] = transform === 'log' ? (v > 0 ? Math.log(v) : NaN) : v;
+    if (Number.isFinite(v) && !Number.isFinite(z[i])) dropped++;
+  }
+  if (dropped)
+    warnings.push({
+      code: 'variability.log-nonpositive',
+      message: `${dropped} ${nutrient} value(s) are 0 or negative and have no logarithm; they are left out of the semivariogram.`,
+      field: nutrient,
+    });
+  return z;
+}
+
+/** The empirical semivariogram of the tested samples (none under 4), its lags with few pairs, the positions used. */
+function studySemivariogram(
+  xy: Float64Array,
+  z: Float64Array,
+  opts: VariabilityOptions,
+  nutrient: Analyte,
+  warnings: Warning[],
+): { sv: Semivariogram; fewPairLags: number[]; xyUsed: number[] } {
   const xyUsed: number[] = [];
-  for (let i = 0; i < values.length; i++)
-    if (Number.isFinite(z[i])) xyUsed.push(samples.xy[2 * i], samples.xy[2 * i + 1]);
-  if (xyUsed.length / 2 < 2) {
+  for (let i = 0; i < z.length; i++) if (Number.isFinite(z[i])) xyUsed.push(xy[2 * i], xy[2 * i + 1]);
+  const n = xyUsed.length / 2;
+  if (n < 2) {
     warnings.push({
       code: 'variability.too-few',
-      message: `only ${xyUsed.length / 2} sample(s) have a ${nutrient} value: no semivariogram can be computed.`,
+      message: `only ${n} sample(s) have a ${nutrient} value: no semivariogram can be computed.`,
       field: nutrient,
     });
   }
-  const sv =
-    xyUsed.length >= 4
-      ? semivariogram(samples.xy, z, { cutoff: opts.cutoff, width: opts.width })
-      : {
-          cutoff: NaN,
-          width: NaN,
-          bboxDiagonal: NaN,
-          n: xyUsed.length / 2,
-          lag: [],
-          np: [],
-          dist: [],
-          gamma: [],
-        };
+  const sv: Semivariogram =
+    n >= 2
+      ? semivariogram(xy, z, { cutoff: opts.cutoff, width: opts.width })
+      : { cutoff: NaN, width: NaN, bboxDiagonal: NaN, n, lag: [], np: [], dist: [], gamma: [] };
   const fewPairLags = sv.lag.filter((_, j) => sv.np[j] < MIN_PAIRS);
   if (fewPairLags.length) {
     warnings.push({
@@ -213,7 +241,17 @@ export function analyzeVariability(
       field: nutrient,
     });
   }
-  const { fits, best } = sv.lag.length ? fitModels(sv, opts.fit) : { fits: [], best: null };
+  return { sv, fewPairLags, xyUsed };
+}
+
+/** The model fits, the best one and its spatial dependence; warnings when none fits or its range is beyond the data. */
+function studyFits(
+  sv: Semivariogram,
+  fit: FitOptions | undefined,
+  nutrient: Analyte,
+  warnings: Warning[],
+): { fits: FittedModel[]; best: FittedModel | null; dependence: Dependence | null } {
+  const { fits, best } = sv.lag.length ? fitModels(sv, fit) : { fits: [], best: null };
   const dependence = best ? spatialDependence(best.nugget, best.psill) : null;
   if (!best)
     warnings.push({
@@ -228,105 +266,5 @@ export function analyzeVariability(
       field: nutrient,
     });
   }
-  const noSill = !best && fits.some((f) => f.ok && f.rangeAtLimit);
-  const sampling = samplingAdvice({
-    areaM2: field.areaM2,
-    xy: xyUsed,
-    effectiveRange: best ? best.effectiveRange : NaN,
-    dependence: dependence?.class ?? null,
-    firstLag: sv.dist[0] ?? NaN,
-    noSill,
-  });
-
-  const sampleAt = (i: number): LowSample => ({
-    id: samples.ids[i],
-    value: values[i],
-    censored: cens[i],
-    lon: samples.lonlat[2 * i],
-    lat: samples.lonlat[2 * i + 1],
-    x: samples.xy[2 * i],
-    y: samples.xy[2 * i + 1],
-  });
-  const low: LowSample[] = [];
-  let shareBelow: VariabilityReport['shareBelow'] = null;
-  let areaShare: number | null = null;
-  if (threshold) {
-    const inc = Boolean(threshold.inclusive);
-    for (let i = 0; i < values.length; i++)
-      if (
-        Number.isFinite(values[i]) &&
-        (values[i] < threshold.value || (inc && values[i] === threshold.value))
-      )
-        low.push(sampleAt(i));
-    low.sort((a, b) => a.value - b.value);
-    let areaAc: number | null = null;
-    if (surface) {
-      const a = areaShareBelow(surface.values, surface.fraction, threshold.value, inc);
-      areaShare = a.share;
-      areaAc = (a.belowCells * surface.cell * surface.cell) / 4046.8564224;
-    }
-    shareBelow = {
-      samples: sampleShareBelow(values, threshold.value, inc),
-      area: areaShare,
-      areaAc,
-      surface: surface ? (surface.note ?? 'interpolated surface') : null,
-    };
-  }
-
-  let sulphur: SulphurFindings | null = null;
-  if (nutrient === 'so4_s') {
-    const floor = opts.sFloor ?? S_FLOOR_DEFAULT;
-    const marginal: LowSample[] = [];
-    const lowValue = threshold?.value ?? NaN;
-    if (threshold && lowValue < S_MARGINAL_UPPER) {
-      for (let i = 0; i < values.length; i++)
-        if (values[i] >= lowValue && values[i] < S_MARGINAL_UPPER) marginal.push(sampleAt(i));
-      marginal.sort((a, b) => a.value - b.value);
-    }
-    const mean = stats.mean;
-    const readsNotLow = threshold ? mean >= lowValue : true;
-    const lowArea = areaShare !== null && areaShare > 0;
-    const hides = readsNotLow && (low.length > 0 || lowArea);
-    const n = stats.n;
-    const compositeText = !threshold
-      ? `A single composite of these ${n} samples would read about ${mean.toFixed(1)} lb S/ac (their mean).`
-      : hides
-        ? `A single composite of these ${n} samples would read about ${mean.toFixed(1)} lb S/ac, not low (threshold ${lowValue} lb S/ac), while ${low.length} of ${n} samples${areaShare !== null ? ` and ${(100 * areaShare).toFixed(0)} % of the mapped area` : ''} are low: the composite would hide the deficient ground.`
-        : readsNotLow
-          ? `A single composite of these ${n} samples would read about ${mean.toFixed(1)} lb S/ac, not low, and no sample is below ${lowValue} lb S/ac; that is still no proof that no part of the field is low.`
-          : `A single composite of these ${n} samples would read about ${mean.toFixed(1)} lb S/ac, which is low (below ${lowValue} lb S/ac).`;
-    sulphur = {
-      notLowIsUncertain: NOT_LOW_UNCERTAIN,
-      compositeMean: mean,
-      compositeReadsNotLow: readsNotLow,
-      compositeHidesLow: hides,
-      compositeText,
-      marginal,
-      marginalUpper: S_MARGINAL_UPPER,
-      floor,
-      floorText:
-        floor <= 0
-          ? `The plan applies no sulphate-S floor (${opts.sFloorSource ?? 'set to 0'}); since a not-low result is uncertain, S on the low spots above rests on the test alone.`
-          : `Whatever the test, the plan applies at least ${floor} lb S/ac as sulphate on every acre (${opts.sFloorSource ?? 'canola default 10 lb S/ac, common practice; Canola Encyclopedia: 10-20 lb S/ac whatever the test'}).`,
-    };
-  }
-
-  return {
-    nutrient,
-    label: NUTRIENT_LABEL[nutrient],
-    unit: NUTRIENT_UNIT[nutrient],
-    stats: { ...stats, censoredBelow, censoredAbove },
-    threshold,
-    shareBelow,
-    transform,
-    semivariogram: sv,
-    fewPairLags,
-    fits,
-    best,
-    dependence,
-    sampling,
-    low,
-    sulphur,
-    warnings,
-  };
+  return { fits, best, dependence };
 }

@@ -2,10 +2,12 @@
  * The variability charts as report entries (src/report's `ReportChart`: title, complete SVG, caption), so the
  * build's report shows the same pictures `tilth variability --out` writes.
  */
-import type { ReportChart } from '../report/types.js';
+import type { ReportChanceMap, ReportChart, ReportGrid } from '../report/types.js';
 import type { Field, Grid, Samples } from '../types.js';
+import { chanceBelowMap, chanceSentence, type KrigedSurface } from './chanceMap.js';
 import { analyzeVariability, type VariabilityReport } from './index.js';
-import { sampleMapSvg, semivariogramSvg } from './charts.js';
+import { sampleMapSvg } from './sampleMap.js';
+import { semivariogramSvg } from './semivariogramChart.js';
 
 /**
  * The semivariogram and low-spot map of one study, with captions that carry the findings.
@@ -118,4 +120,60 @@ export function buildSulphurCharts(
         }
       : undefined,
   );
+}
+
+/** How the report shows a grid: coarsened by a whole factor for display (src/prescription/reportInput.ts). */
+export interface ReportView {
+  grid: ReportGrid;
+  pick: (v: ArrayLike<number>) => ArrayLike<number>;
+  /** the display factor (1: full resolution) */
+  factor: number;
+}
+
+/**
+ * The sulphate-S chance map a build's report shows beside the S surface: the chance below the crop's low level
+ * (`s_low_below_lb`, 20 lb S/ac for canola without a crop entry) from the build's kriging when its S surface is
+ * kriged, else from ordinary kriging with the plan's settings; with the reason when kriging is refused. Null when
+ * no sample has S.
+ * @example ri.chance = [buildSulphurChance(inputs.samples, rx.grid, tables.crops[plan.crop], sSurface, { log: false, neighbours: 16 }, view)!]
+ */
+export function buildSulphurChance(
+  samples: Samples,
+  grid: Grid,
+  crop: CropSulphurEntries | undefined,
+  surface: KrigedSurface | undefined,
+  settings: { log: boolean; neighbours: number },
+  view: ReportView,
+): ReportChanceMap | null {
+  if (!Array.from(samples.values.so4_s).some(Number.isFinite)) return null;
+  const t = { value: crop?.s_low_below_lb.value ?? 20, unit: 'lb S/ac' };
+  const m = chanceBelowMap(samples, 'so4_s', grid, t, { ...settings, surface });
+  const base = {
+    nutrient: 'so4_s',
+    threshold: t.value,
+    unit: t.unit,
+    method: m.method,
+    assumption: m.assumption,
+  };
+  if (!m.chance) return { ...base, refused: m.refused ?? 'no kriging' };
+  const g = view.grid;
+  const msse =
+    m.msse !== null && Number.isFinite(m.msse)
+      ? ` Leave-one-out MSSE ${m.msse.toFixed(2)} (near 1: variances fit the errors).`
+      : '';
+  const notes =
+    view.factor > 1
+      ? [
+          `Shown at ${view.grid.cell} m cells for display: each takes the chance of the ${grid.cell} m cell at its centre (nearest).`,
+        ]
+      : undefined;
+  return {
+    ...base,
+    raster: {
+      grid: { xmin: g.xmin, ymax: g.ymax, cell: g.cell, cols: g.cols, rows: g.rows },
+      values: view.pick(m.chance),
+      notes,
+    },
+    summary: `${chanceSentence(m)}${msse}${surface && surface.method !== 'kriging' ? ' The S surface map before this one is not kriged: between samples they can differ.' : ''}`,
+  };
 }

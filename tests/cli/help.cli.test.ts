@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { tilth } from '../helpers/cli.js';
+import { VERSION } from '../../src/version.js';
 
 // The guide's rule: every command has --help with an example; the top-level help shows the cautions.
 const COMMANDS = [
@@ -28,6 +29,17 @@ describe('tilth --help', () => {
       expect(r.code, c).toBe(0);
       expect(r.stdout, c).toMatch(/Example/i);
     }
+  });
+  it('--version prints the version alone; `help <command>` and a mistyped command still work (commands load on demand)', () => {
+    const v = tilth(['--version']);
+    expect(v.code).toBe(0);
+    expect(v.stdout.trim()).toBe(VERSION);
+    const h = tilth(['help', 'surface']);
+    expect(h.code).toBe(0);
+    expect(h.stdout).toMatch(/--threads <n>.*default: the machine's cores/s);
+    const typo = tilth(['biuld']);
+    expect(typo.code).toBe(2);
+    expect(typo.stderr).toMatch(/unknown command 'biuld'[\s\S]*Did you mean build\?/);
   });
   it('an unknown option is a user error (exit 2), not a crash', () => {
     const r = tilth(['build', '--no-such-option']);

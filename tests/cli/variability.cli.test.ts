@@ -57,6 +57,10 @@ describe('tilth variability on the demo quarter (invented data: plumbing, not ag
     expect(r.stdout).toContain('not low says little');
     // the share of the interpolated area below the threshold, from the surface stage's IDW
     expect(r.stdout).toMatch(/\d+ % of the mapped area/);
+    // beside it, the chance below the threshold from kriging, with its assumption
+    expect(r.stdout).toContain('Chance below 20 lb S/ac (from kriging; Gaussian assumption)');
+    expect(r.stdout).toMatch(/expected share of the field below 20 lb S\/ac: \d+ %/);
+    expect(r.stdout).toContain('Gaussian with the kriging mean and variance');
   });
 
   it('--json agrees with the samples file: every listed low sample is below the threshold', () => {
@@ -75,6 +79,12 @@ describe('tilth variability on the demo quarter (invented data: plumbing, not ag
     const ns = JSON.parse(tilth([...args, '--json', '--no-surface']).stdout);
     expect(ns.shareBelow.area).toBeNull();
     expect(ns.shareBelow.samples).toBe(j.shareBelow.samples);
+    expect(j.chance.refused).toBeNull();
+    expect(j.chance.method).toMatch(/^ordinary kriging, (spherical|exponential|gaussian)/);
+    expect(j.chance.expectedShare).toBeGreaterThan(0);
+    expect(j.chance.expectedShare).toBeLessThan(1);
+    expect(j.chance.shareLikely.p90).toBeLessThanOrEqual(j.chance.shareLikely.p50);
+    expect(ns.chance).toBeUndefined();
   });
 
   it('--out writes the charts and JSON as one folder; they render in Chromium', () => {
@@ -85,6 +95,7 @@ describe('tilth variability on the demo quarter (invented data: plumbing, not ag
       expect(r.code, r.stderr).toBe(0);
       expect(readdirSync(outDir).sort()).toEqual([
         '.tilth-output.json',
+        'so4_s-chance-below-20.svg',
         'so4_s-map.svg',
         'so4_s-semivariogram.svg',
         'variability.json',
@@ -92,7 +103,7 @@ describe('tilth variability on the demo quarter (invented data: plumbing, not ag
       // a second run into the same, now non-empty folder is refused without --force
       expect(tilth([...args, '--out', outDir]).code).toBe(2);
       if (requireTool('chromium', 'chromium')) {
-        for (const f of ['so4_s-map.svg']) {
+        for (const f of ['so4_s-map.svg', 'so4_s-chance-below-20.svg']) {
           const png = join(dir, f + '.png');
           spawnSync(
             'chromium',
@@ -174,6 +185,40 @@ describe('tilth build report carries the sulphate-S variability charts', () => {
       expect(html).toContain('<h3>Semivariogram of sulphate-S (0-24 in)</h3>');
       expect(html).toContain('<h3>sulphate-S (0-24 in): low spots</h3>');
       expect(html).toMatch(/spatial dependence (strong|moderate|weak)/);
+      // the chance map beside the S surface (the plan's surfaces are IDW: kriged for the chance map alone)
+      expect(html).toContain('<h3>Sulphate-S 0-24 in: chance below 20 lb S/ac</h3>');
+      expect(html).toContain('data-kind="chance"');
+      expect(html).toContain('The S surface map before this one is not kriged');
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
+
+describe('tilth variability says why there is no chance map', () => {
+  it('20 samples: kriging is refused; the text, the JSON and the chart say so', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'tilth-var-few-'));
+    try {
+      const fc = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/samples.geojson'), 'utf8'));
+      fc.features = fc.features.slice(0, 20);
+      writeFileSync(join(dir, 'few.geojson'), JSON.stringify(fc));
+      const args = [
+        'variability',
+        '--samples',
+        join(dir, 'few.geojson'),
+        '--boundary',
+        'sample-fields/quarter/boundary.geojson',
+      ];
+      const r = tilth([...args, '--out', join(dir, 'out')]);
+      expect(r.code, r.stderr).toBe(0);
+      expect(r.stdout).toMatch(
+        /Chance below 20 lb S\/ac: no map: ordinary kriging is refused: only 20 samples/,
+      );
+      const svg = readFileSync(join(dir, 'out', 'so4_s-chance-below-20.svg'), 'utf8');
+      expect(svg).toContain('No chance map');
+      const j = JSON.parse(readFileSync(join(dir, 'out', 'variability.json'), 'utf8'));
+      expect(j.chance.refused).toMatch(/only 20 samples/);
+      expect(j.chance.expectedShare).toBeNull();
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }

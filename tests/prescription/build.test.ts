@@ -105,7 +105,7 @@ describe('buildPrescription on the demo quarter', () => {
 
 describe('report rasters of very fine grids are shown coarser', () => {
   it('coarsen keeps the value at each coarse cell centre (nearest), factor 1 is the identity', async () => {
-    const { coarsen } = await import('../../src/prescription/reportInput.js');
+    const { coarsen } = await import('../../src/prescription/reportMaps.js');
     const g = { xmin: 100, ymax: 500, cell: 1, cols: 7, rows: 5 };
     const v = Float64Array.from({ length: 35 }, (_, i) => i);
     expect(coarsen(g, 1).pick(v)).toBe(v);

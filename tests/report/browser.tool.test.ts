@@ -161,7 +161,11 @@ describe.skipIf(!have)('report in Chromium', () => {
         }),
       ),
     );
-    expect(sizes.length).toBe(input.surfaces.length + input.response.filter((r) => r.raster).length);
+    expect(sizes.length).toBe(
+      input.surfaces.length +
+        input.response.filter((r) => r.raster).length +
+        (input.chance ?? []).filter((c) => c.raster).length,
+    );
     expect(sizes[0]).toEqual([input.surfaces[0]!.raster.grid.cols, input.surfaces[0]!.raster.grid.rows]);
     await page.screenshot({ path: join(ART, 'report-demo.png'), fullPage: true });
     await page

@@ -4,7 +4,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { implausibleValues, neighbourOutliers } from '../../src/cli/safety/plausible.js';
-import type { Samples } from '../../src/types.js';
+import { applyOutlierTest } from '../../src/cli/safety/readiness.js';
+import type { FieldInputs, Samples } from '../../src/types.js';
 
 /** A 5 x 5 grid of samples 100 m apart with P values `p` (others empty). */
 function grid(p: number[], pMethod: 'olsen' | 'kelowna' = 'olsen'): Samples {
@@ -20,6 +21,7 @@ function grid(p: number[], pMethod: 'olsen' | 'kelowna' = 'olsen'): Samples {
     xy,
     lonlat: new Float64Array(2 * n),
     values: { p: Float64Array.from(p), no3_n: nan(), k: nan(), so4_s: nan(), om: nan(), ph: nan() },
+    censored: { p: new Int8Array(n), no3_n: new Int8Array(n), k: new Int8Array(n) },
     pMethod,
     origin: p.map((_, i) => `s.csv row ${i + 4}`),
   } as unknown as Samples;
@@ -68,5 +70,64 @@ describe('neighbour outliers', () => {
     const v = [...smooth];
     v[12] = 40;
     expect(neighbourOutliers(grid(v), 's.csv')).toEqual([]);
+  });
+});
+
+describe('keep or drop flagged values', () => {
+  const withOutlier = () => {
+    const v = [...smooth];
+    v[12] = 180;
+    return v;
+  };
+  const inputs = (p: number[], zones: unknown = null) =>
+    ({ samples: grid(p), zones, warnings: [] }) as unknown as FieldInputs;
+
+  it('keep (the default): the value stays, the warning names it and says how to drop it', () => {
+    const inp = inputs(withOutlier());
+    applyOutlierTest(inp, 's.csv');
+    expect(inp.samples.values.p[12]).toBe(180);
+    expect(inp.warnings).toHaveLength(1);
+    expect(inp.warnings[0]!.message).toMatch(
+      /"S13" \(180.*it is kept \(the default; --outliers drop or plan key soil_test\.outliers: drop/,
+    );
+  });
+
+  it('drop: only the flagged value becomes "not tested"; the warning lists the dropped id and the choice', () => {
+    const inp = inputs(withOutlier());
+    inp.samples.values.k[12] = 300;
+    inp.samples.censored.p[12] = 1;
+    applyOutlierTest(inp, 's.csv', 'drop', 'option');
+    expect(Number.isNaN(inp.samples.values.p[12])).toBe(true);
+    expect(inp.samples.censored.p[12]).toBe(0);
+    expect(inp.samples.values.k[12]).toBe(300); // the sample stays for other nutrients
+    expect(inp.samples.ids).toHaveLength(25);
+    expect([...inp.samples.values.p].filter(Number.isNaN)).toHaveLength(1);
+    expect(inp.warnings[0]!.where).toMatch(/^"S13" \(180, neighbours' median/);
+    expect(inp.warnings[0]!.message).toMatch(/dropped from the maps \(--outliers drop\).*Dropped: S13\./);
+    const plan = inputs(withOutlier());
+    applyOutlierTest(plan, 's.csv', 'drop', 'plan');
+    expect(plan.warnings[0]!.message).toMatch(/dropped from the maps \(plan key soil_test\.outliers: drop\)/);
+  });
+
+  it('drop is not applied to zone composites, nor while a value is implausible; the warning says why', () => {
+    const z = inputs(withOutlier(), { keys: [] });
+    applyOutlierTest(z, 's.csv', 'drop', 'option');
+    expect(z.samples.values.p[12]).toBe(180);
+    expect(z.warnings[0]!.message).toMatch(/kept \(--outliers drop does not apply to zone-composite samples/);
+    const v = withOutlier();
+    v[0] = 1e300;
+    const bad = inputs(v);
+    applyOutlierTest(bad, 's.csv', 'drop', 'option');
+    expect(bad.samples.values.p[12]).toBe(180);
+    expect(bad.warnings[0]!.message).toMatch(
+      /waits until the values outside the plausible ranges are corrected/,
+    );
+  });
+
+  it('nothing flagged: no warning and nothing dropped, whatever the mode', () => {
+    const inp = inputs([...smooth]);
+    applyOutlierTest(inp, 's.csv', 'drop', 'option');
+    expect(inp.warnings).toEqual([]);
+    expect([...inp.samples.values.p]).toEqual(smooth);
   });
 });

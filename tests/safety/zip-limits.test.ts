@@ -4,7 +4,10 @@
  */
 import { zipSync } from 'fflate';
 import { describe, expect, it } from 'vitest';
-import { readZip, ZIP_MAX_RATIO } from '../../src/io/zip.js';
+import { readZip, TASKDATA_ZIP_LIMITS, zipFiles, ZIP_MAX_RATIO } from '../../src/io/zip.js';
+import { layersFromTaskDataFiles } from '../../src/check/taskdata.js';
+import { encodeInt32LE, taskDataFiles } from '../../src/io/isoxml/index.js';
+import { sample } from '../helpers/taskdata.js';
 import { shapefileInZip } from '../../src/io/inputs.js';
 import { lyingSizes } from '../../scripts/fuzz/targets.js';
 
@@ -57,5 +60,24 @@ describe('readZip limits', () => {
   it('the shapefile input reader goes through the same limits', () => {
     const z = lyingSizes(zipSync({ 'samples.shp': zeros(20 * 1024 * 1024) }, { level: 9 }));
     expect(() => shapefileInZip(z, 'samples.zip')).toThrow(/zip bomb/);
+  });
+  it('task data: a grid of equal rates packs near the deflate limit and is read; the total still bounds it', () => {
+    // one rate over 512 x 512 cells: 1 MiB of one repeated 4-byte value, which deflate packs about 1000 times
+    const td = sample(true);
+    Object.assign(td.tasks[0]!.grid!, {
+      cols: 512,
+      rows: 512,
+      data: encodeInt32LE(new Int32Array(512 * 512).fill(100)),
+    });
+    const files = taskDataFiles(td);
+    const z = zipFiles(Object.fromEntries(Object.entries(files).map(([k, v]) => [`TASKDATA/${k}`, v])));
+    expect(() => readZip(z, 'taskdata.zip')).toThrow(/zip bomb/); // the default 200 would refuse tilth's own file
+    expect(Object.keys(readZip(z, 'taskdata.zip', TASKDATA_ZIP_LIMITS))).toContain('TASKDATA/GRD00001.bin');
+    expect(layersFromTaskDataFiles({ 'taskdata.zip': z }, 'taskdata.zip')).toHaveLength(1);
+    // a bomb whose headers lie is stopped by the total while unpacking (limit lowered for the test)
+    const bomb = lyingSizes(zipSync({ 'TASKDATA/TASKDATA.XML': zeros(20 * 1024 * 1024) }, { level: 9 }));
+    expect(() => readZip(bomb, 't.zip', { ...TASKDATA_ZIP_LIMITS, maxTotalBytes: 4 * 1024 * 1024 })).toThrow(
+      /unpacks to more than 4 MiB/,
+    );
   });
 });

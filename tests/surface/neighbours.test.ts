@@ -79,6 +79,25 @@ describe('cellNeighbours (shared k-nearest per cell)', () => {
     );
   });
 
+  it('sorted: false (kriging) finds the same neighbours, only not in order', () => {
+    fc.assert(
+      fc.property(caseArb, (c) => {
+        const { xy, grid } = setup(c.n, c.seed, c.cols, c.rows, c.cell);
+        const a = cellNeighbours(xy, grid, c.k, { radius: c.radius });
+        const b = cellNeighbours(xy, grid, c.k, { radius: c.radius, sorted: false });
+        expect([...b.found]).toEqual([...a.found]);
+        for (let i = 0; i < c.cols * c.rows; i++) {
+          const pairs = (nb: typeof a) =>
+            [...nb.idx.subarray(i * nb.k, i * nb.k + nb.found[i])]
+              .map((j, t) => [nb.d2[i * nb.k + t], j])
+              .sort((p, q) => p[0] - q[0] || p[1] - q[1]);
+          expect(pairs(b)).toEqual(pairs(a));
+        }
+      }),
+      { numRuns: 40, seed: 22 },
+    );
+  });
+
   it('searches only where asked (found 0 elsewhere)', () => {
     const { xy, grid } = setup(40, 3, 6, 5, 10);
     const where = new Float32Array(30);

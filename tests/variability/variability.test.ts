@@ -1,7 +1,7 @@
 /**
  * Variability stage: semivariogram binning against a brute-force oracle written from gstat's documented rules,
- * fit recovery of models defined as in gstat's vgm(), Cambardella classes, statistics, sampling advice, the
- * sulphate-S findings and the charts.
+ * fit recovery of models defined as in gstat's vgm(), Cambardella classes, statistics and sampling advice.
+ * The study as a whole (low spots, sulphate-S findings, text, charts) is in study.test.ts.
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
@@ -18,15 +18,9 @@ import {
   sampleShareBelow,
   samplingAdvice,
   medianNearest,
-  analyzeVariability,
-  semivariogramSvg,
-  sampleMapSvg,
-  niceTicks,
-  defaultThreshold,
   type ModelKind,
 } from '../../src/variability/index.js';
 import { describe as describeStats } from '../../src/stats/describe.js';
-import type { Analyte, Field, Samples } from '../../src/types.js';
 
 /** Oracle: each pair tested against every lag interval (j w, (j+1) w], zero distance in lag 0, d > cutoff dropped. */
 function oracle(xy: number[], z: number[], cutoff: number, width: number) {
@@ -261,210 +255,5 @@ describe('sampling advice (spacing under half the effective range: common practi
       samplingAdvice({ areaM2, xy, effectiveRange: 400, dependence: 'weak', firstLag: 100, noSill: false })
         .verdict,
     ).toBe('no-structure');
-  });
-});
-
-/** A synthetic field: 800 m square, 7 x 7 samples, sulphate high on the west, low patch in the south-east. */
-function syntheticField(): { samples: Samples; field: Field } {
-  const ids: string[] = [];
-  const xy: number[] = [];
-  const s: number[] = [];
-  for (let i = 0; i < 7; i++)
-    for (let j = 0; j < 7; j++) {
-      const x = 500000 + 57 + i * 114,
-        y = 5700000 + 57 + j * 114;
-      ids.push(`S${i * 7 + j + 1}`);
-      xy.push(x, y);
-      s.push(i >= 5 && j <= 1 ? 8 + i + j : 45 - 3 * i + 2 * Math.sin(i * 7.3 + j * 3.1));
-    }
-  const n = ids.length;
-  const nan = () => new Float64Array(n).fill(NaN);
-  const zero = () => new Int8Array(n);
-  const values = {
-    no3_n: nan(),
-    p: nan(),
-    k: nan(),
-    so4_s: new Float64Array(s),
-    om: nan(),
-    ph: nan(),
-  } as Record<Analyte, Float64Array>;
-  const censored = { no3_n: zero(), p: zero(), k: zero(), so4_s: zero(), om: zero(), ph: zero() } as Record<
-    Analyte,
-    Int8Array
-  >;
-  const samples: Samples = {
-    ids,
-    lonlat: new Float64Array(2 * n),
-    xy: new Float64Array(xy),
-    values,
-    censored,
-    texture: ids.map(() => null),
-    zone: ids.map(() => null),
-    pMethod: 'olsen',
-    origin: ids.map((_, i) => `synthetic row ${i + 1}`),
-  };
-  const ring = new Float64Array([
-    500000, 5700000, 500800, 5700000, 500800, 5700800, 500000, 5700800, 500000, 5700000,
-  ]);
-  const field: Field = {
-    name: 'synthetic',
-    lonlat: [],
-    parts: [{ exterior: ring, holes: [] }],
-    utm: { zone: 13, south: false, epsg: 32613, proj4: '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs' },
-    areaM2: 640000,
-    bbox: [500000, 5700000, 500800, 5700800],
-  };
-  return { samples, field };
-}
-
-describe('analyzeVariability on sulphate-S', () => {
-  it('lists the low samples, says a composite hides them, states the floor', () => {
-    const { samples, field } = syntheticField();
-    const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
-    // default threshold: 20 lb S/ac ([published] Canola Encyclopedia, responses below 20-30 lb/ac)
-    expect(r.threshold?.value).toBe(20);
-    expect(defaultThreshold('so4_s')?.source).toMatch(/Canola Encyclopedia/);
-    expect(r.low.map((l) => l.id).sort()).toEqual(['S36', 'S37', 'S43', 'S44']);
-    expect(r.shareBelow?.samples).toBeCloseTo(4 / 49, 12);
-    expect(r.sulphur?.compositeReadsNotLow).toBe(true);
-    expect(r.sulphur?.compositeHidesLow).toBe(true);
-    expect(r.sulphur?.notLowIsUncertain).toMatch(/not low says little/);
-    expect(r.sulphur?.floor).toBe(10); // common practice: about 10 lb S/ac for canola regardless of test
-    expect(r.semivariogram.np.length).toBeGreaterThan(3);
-    expect(r.sampling.text).toMatch(/ac per sample/);
-    // a surface with half its area below the threshold
-    const r2 = analyzeVariability(
-      samples,
-      field,
-      {},
-      { values: [5, 30, 10, 40], fraction: [1, 1, 1, 1], cell: 400 },
-    );
-    expect(r2.shareBelow?.area).toBe(0.5);
-    expect(r2.shareBelow?.areaAc).toBeCloseTo(320000 / 4046.8564224, 9);
-  });
-
-  it('no S statements for other nutrients; no threshold for nitrate', () => {
-    const { samples, field } = syntheticField();
-    samples.values.no3_n = samples.values.so4_s;
-    const r = analyzeVariability(samples, field, { nutrient: 'no3_n' });
-    expect(r.sulphur).toBeNull();
-    expect(r.threshold).toBeNull();
-    expect(r.low).toEqual([]);
-  });
-
-  it('charts carry titles, axis labels with units, legends and the low-sample marks', () => {
-    const { samples, field } = syntheticField();
-    const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
-    const sv = semivariogramSvg({
-      semivariogram: r.semivariogram,
-      fits: r.fits,
-      best: r.best,
-      label: r.label,
-      unit: r.unit,
-    });
-    expect(sv).toMatch(/^<svg[^>]+xmlns="http:\/\/www.w3.org\/2000\/svg"/);
-    expect(sv).toContain('distance between samples (m)');
-    expect(sv).toContain('semivariance (lb S/ac)²');
-    expect(sv).toContain('(best fit)');
-    const map = sampleMapSvg({
-      parts: field.parts,
-      xy: samples.xy,
-      values: samples.values.so4_s,
-      ids: samples.ids,
-      label: r.label,
-      unit: r.unit,
-      threshold: 20,
-    });
-    expect((map.match(/r="12" fill="none" stroke="#e31a1c"/g) ?? []).length).toBe(4 + 1); // 4 low rings + legend ring
-    for (const l of r.low) expect(map).toContain(`${l.id}: `);
-    expect(niceTicks(0, 1597, 6, true)).toEqual([0, 500, 1000, 1500, 2000]);
-  });
-});
-
-describe('text and map with a surface', () => {
-  it('the text names the dependence class with its source, the sampling verdict and the S statements', async () => {
-    const { variabilityText } = await import('../../src/variability/index.js');
-    const { samples, field } = syntheticField();
-    const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
-    const t = variabilityText(r);
-    expect(t).toContain('Cambardella et al. 1994');
-    expect(t).toContain('ac per sample');
-    expect(t).toContain('S36');
-    expect(t).toContain('not low says little');
-    expect(t).toContain('at least 10 lb S/ac');
-  });
-
-  it('zone-composite samples are flagged', () => {
-    const { samples, field } = syntheticField();
-    samples.zone = samples.ids.map((_, i) => (i < 20 ? 'a' : 'b'));
-    expect(analyzeVariability(samples, field).warnings.map((w) => w.code)).toContain(
-      'variability.zone-composites',
-    );
-  });
-
-  it('a surface row of equal colours becomes one rectangle; cells outside the mask are not drawn', () => {
-    const grid = {
-      xmin: 0,
-      ymax: 20,
-      cell: 10,
-      cols: 3,
-      rows: 2,
-      mask: new Uint8Array([1, 1, 1, 1, 1, 0]),
-      fraction: new Float32Array(6).fill(1),
-    };
-    const svg = sampleMapSvg({
-      parts: [{ exterior: new Float64Array([0, 0, 30, 0, 30, 20, 0, 20, 0, 0]), holes: [] }],
-      xy: new Float64Array([5, 5]),
-      values: [1],
-      ids: ['A'],
-      label: 'x',
-      unit: 'u',
-      threshold: null,
-      surface: { grid, values: [1, 1, 1, 1, 9, 9] },
-    });
-    // row 0: one run of three equal cells; row 1: two runs (1 and 9), the masked cell skipped
-    const g = svg.slice(svg.indexOf('<g opacity'), svg.indexOf('</g>'));
-    expect((g.match(/<rect /g) ?? []).length).toBe(3);
-  });
-});
-
-describe('thresholds', () => {
-  it('P "low" is <= 10 ppm Olsen, <= 17 ppm modified Kelowna ([published] Canola Encyclopedia), so 10 itself counts', () => {
-    expect(defaultThreshold('p', 'olsen')).toMatchObject({ value: 10, inclusive: true });
-    expect(defaultThreshold('p', 'kelowna')).toMatchObject({ value: 17, inclusive: true });
-    expect(defaultThreshold('k')?.value).toBe(125); // common practice
-    expect(defaultThreshold('no3_n')).toBeNull();
-    const { samples, field } = syntheticField();
-    samples.values.p = new Float64Array(samples.ids.length).fill(30);
-    samples.values.p[3] = 10;
-    samples.values.p[4] = 10.5;
-    const r = analyzeVariability(samples, field, { nutrient: 'p' });
-    expect(r.low.map((l) => l.id)).toEqual(['S4']);
-    expect(sampleShareBelow([10, 11], 10, true)).toBe(0.5);
-    expect(areaShareBelow([10, 11], [1, 1], 10, true).share).toBe(0.5);
-  });
-});
-
-describe('report charts', () => {
-  it('the report embeds the variability charts (the same SVG) with captions carrying the findings', async () => {
-    const { variabilityReportCharts } = await import('../../src/variability/index.js');
-    const { renderReport } = await import('../../src/report/index.js');
-    const { demoInput } = await import('../helpers/report-fixture.js');
-    const { samples, field } = syntheticField();
-    const r = analyzeVariability(samples, field, { nutrient: 'so4_s' });
-    const charts = variabilityReportCharts(r, samples, field);
-    expect(charts.map((c) => c.title)).toEqual([
-      'Semivariogram of sulphate-S (0-24 in)',
-      'sulphate-S (0-24 in): low spots',
-    ]);
-    expect(charts[1].caption).toContain('S36');
-    const inp = demoInput();
-    inp.charts = charts;
-    const html = renderReport(inp);
-    const uris = [...html.matchAll(/src="data:image\/svg\+xml;base64,([^"]+)"/g)].map((m) =>
-      Buffer.from(m[1], 'base64').toString('utf8'),
-    );
-    expect(uris).toContain(charts[0].svg);
-    expect(uris).toContain(charts[1].svg);
   });
 });

@@ -13,8 +13,8 @@ export const MAX_BOUNDARY_VERTICES = 100_000;
 export const MAX_LAGS = 1_000;
 /** Sample pairs a semivariogram compares: 50 million (about 10 000 samples). */
 export const MAX_PAIRS = 50_000_000;
-/** A boundary part farther than this from every sample gets no rates from the samples: 1 000 m (common practice: grid samples are 1-5 ac apart, 60-140 m). */
-export const MAX_UNSAMPLED_DISTANCE_M = 1_000;
+// the unsampled distance and its test live in the library (the build honours the plan's unsampled_parts)
+export { farParts, MAX_UNSAMPLED_DISTANCE_M } from '../../validate/coverage.js';
 
 const fmt = (n: number) => n.toLocaleString('en-US');
 
@@ -106,36 +106,4 @@ export function checkOrder(
       `options ${loName} ${lo} and ${hiName} ${hi} contradict each other (${loName} is above ${hiName}). Fix: swap them, or correct one.`,
     );
   }
-}
-
-/**
- * Boundary parts (1-based) farther than `maxM` from every sample: the samples say nothing about them.
- * @example farParts(field.parts, samples.xy) // [2] when part 2 is another field 800 km away
- */
-export function farParts(
-  parts: readonly RingsPart[],
-  xy: Float64Array,
-  maxM = MAX_UNSAMPLED_DISTANCE_M,
-): number[] {
-  const far: number[] = [];
-  parts.forEach((p, k) => {
-    let x0 = Infinity,
-      y0 = Infinity,
-      x1 = -Infinity,
-      y1 = -Infinity;
-    for (let i = 0; i < p.exterior.length; i += 2) {
-      x0 = Math.min(x0, p.exterior[i]!);
-      x1 = Math.max(x1, p.exterior[i]!);
-      y0 = Math.min(y0, p.exterior[i + 1]!);
-      y1 = Math.max(y1, p.exterior[i + 1]!);
-    }
-    let near = false;
-    for (let i = 0; i < xy.length && !near; i += 2) {
-      const dx = Math.max(x0 - xy[i]!, 0, xy[i]! - x1),
-        dy = Math.max(y0 - xy[i + 1]!, 0, xy[i + 1]! - y1);
-      near = Math.hypot(dx, dy) <= maxM;
-    }
-    if (!near) far.push(k + 1);
-  });
-  return far;
 }

@@ -75,19 +75,20 @@ export const OUTLIER_FACTOR = 3;
 const farOff = (a: Analyte, v: number, med: number) =>
   a === 'ph' ? Math.abs(v - med) > 1.5 : v > OUTLIER_FACTOR * med || v * OUTLIER_FACTOR < med;
 
-/**
- * A robust neighbour test: each value's residual from the median of its {@link OUTLIER_NEIGHBOURS} nearest
- * samples, scaled by 1.4826 x the median absolute residual of the field (the MAD, a standard deviation for
- * normal data; Iglewicz & Hoaglin 1993 use 3.5 on the modified z, tilth names only beyond {@link OUTLIER_Z}).
- * @returns warnings with code `neighbour-outlier`, one per analyte with outliers
- * @example neighbourOutliers(samples, 'samples.csv')
- */
-export function neighbourOutliers(s: Samples, file: string): Warning[] {
-  const n = s.ids.length;
-  if (n < OUTLIER_NEIGHBOURS + 2 || n > OUTLIER_MAX_SAMPLES) return [];
-  const xy = s.xy;
-  // the nearest others of each sample: a few more than needed from the shared bucketed search (linear, not
-  // every pair), then ordered by Math.hypot, ties to the lower index, as a sort of every distance would
+/** The values of one analyte that the neighbour test flags: sample indices and their neighbours' medians. */
+export interface OutlierFinding {
+  analyte: Analyte;
+  index: number[];
+  neighbourMedian: number[];
+}
+
+/** What to do with flagged values: keep them in the maps (the default) or leave them out of interpolation. */
+export type OutlierMode = 'keep' | 'drop';
+
+/** The nearest others of each sample (at most {@link OUTLIER_NEIGHBOURS}), by Math.hypot, ties to the lower index. */
+function nearestOthers(xy: Float64Array, n: number): number[][] {
+  // a few more than needed from the shared bucketed search (linear, not every pair), then ordered as a sort of
+  // every distance would order them
   const near = sampleNeighbours(xy, OUTLIER_NEIGHBOURS + 4);
   const nb: number[][] = [];
   for (let i = 0; i < n; i++) {
@@ -99,11 +100,24 @@ export function neighbourOutliers(s: Samples, file: string): Warning[] {
     d.sort((a, b) => a[0] - b[0] || a[1] - b[1]);
     nb.push(d.slice(0, OUTLIER_NEIGHBOURS).map((x) => x[1]));
   }
-  const warnings: Warning[] = [];
+  return nb;
+}
+
+/**
+ * A robust neighbour test: each value's residual from the median of its {@link OUTLIER_NEIGHBOURS} nearest
+ * samples, scaled by 1.4826 x the median absolute residual of the field (the MAD, a standard deviation for
+ * normal data; Iglewicz & Hoaglin 1993 use 3.5 on the modified z, tilth flags only beyond {@link OUTLIER_Z}).
+ * @returns one finding per analyte with flagged values (none for fewer than 8 or more than 5 000 samples)
+ * @example findNeighbourOutliers(samples).map((f) => f.analyte) // ['p']
+ */
+export function findNeighbourOutliers(s: Samples): OutlierFinding[] {
+  const n = s.ids.length;
+  if (n < OUTLIER_NEIGHBOURS + 2 || n > OUTLIER_MAX_SAMPLES) return [];
+  const nb = nearestOthers(s.xy, n);
+  const found: OutlierFinding[] = [];
   for (const a of ['no3_n', 'p', 'k', 'so4_s', 'om', 'ph'] as Analyte[]) {
-    const raw = s.values[a];
-    if (!raw) continue;
-    const v = raw;
+    const v = s.values[a];
+    if (!v) continue;
     const res = new Float64Array(n).fill(NaN);
     for (let i = 0; i < n; i++) {
       const around = nb[i]!.map((j) => v[j]!).filter((x) => !Number.isNaN(x));
@@ -113,21 +127,67 @@ export function neighbourOutliers(s: Samples, file: string): Warning[] {
     if (abs.length < OUTLIER_NEIGHBOURS) continue;
     const scale = 1.4826 * median(abs);
     if (!(scale > 0)) continue;
-    const named: string[] = [];
+    const f: OutlierFinding = { analyte: a, index: [], neighbourMedian: [] };
     for (let i = 0; i < n; i++)
-      if (Math.abs(res[i]!) / scale > OUTLIER_Z && farOff(a, v[i]!, v[i]! - res[i]!))
-        named.push(
-          `"${s.ids[i]}" (${raw[i]}, neighbours' median ${Math.round((v[i]! - res[i]!) * 100) / 100})`,
-        );
-    if (named.length) {
-      warnings.push({
-        code: 'neighbour-outlier',
-        file,
-        field: a,
-        where: named.join('; '),
-        message: `${file}: ${NAMES[a]} of sample${named.length > 1 ? 's' : ''} ${named.slice(0, 5).join(', ')}${named.length > 5 ? ` and ${named.length - 5} more` : ''} differ${named.length > 1 ? '' : 's'} from ${named.length > 1 ? 'their' : 'its'} ${OUTLIER_NEIGHBOURS} nearest samples by more than ${OUTLIER_Z} robust standard deviations (neighbour outlier test); it is kept. Check the lab report and the bag labels; if it is wrong, correct or remove it.`,
-      });
-    }
+      if (Math.abs(res[i]!) / scale > OUTLIER_Z && farOff(a, v[i]!, v[i]! - res[i]!)) {
+        f.index.push(i);
+        f.neighbourMedian.push(v[i]! - res[i]!);
+      }
+    if (f.index.length) found.push(f);
   }
-  return warnings;
+  return found;
+}
+
+/** Sample ids named in full in a message about dropped values; the rest are counted. */
+const NAMED_DROPPED = 50;
+
+/**
+ * The neighbour test's warnings (code `neighbour-outlier`), one per analyte with flagged values, saying whether
+ * the values were kept (the default) or dropped from interpolation, why, and how to choose the other.
+ * @param mode what was done with them (default keep)
+ * @param why where that choice came from, for the message (default: "the default" for keep, "--outliers drop")
+ * @example neighbourOutliers(samples, 'samples.csv') // [{ code: 'neighbour-outlier', message: '... kept (the default; ...' }]
+ */
+export function neighbourOutliers(
+  s: Samples,
+  file: string,
+  mode: OutlierMode = 'keep',
+  why = mode === 'keep' ? 'the default' : '--outliers drop',
+  found: OutlierFinding[] = findNeighbourOutliers(s),
+): Warning[] {
+  return found.map((f) => {
+    const k = f.index.length;
+    const show = mode === 'drop' ? NAMED_DROPPED : 5;
+    const named = f.index.map(
+      (i, t) =>
+        `"${s.ids[i]}" (${s.values[f.analyte][i]}, neighbours' median ${Math.round(f.neighbourMedian[t]! * 100) / 100})`,
+    );
+    const list = `${named.slice(0, show).join(', ')}${k > show ? ` and ${k - show} more` : ''}`;
+    const test = `differ${k > 1 ? '' : 's'} from ${k > 1 ? 'their' : 'its'} ${OUTLIER_NEIGHBOURS} nearest samples by more than ${OUTLIER_Z} robust standard deviations (neighbour outlier test)`;
+    const ids = f.index.map((i) => s.ids[i]);
+    const tail =
+      mode === 'drop'
+        ? `; dropped from the maps (${why}): the value${k > 1 ? 's are' : ' is'} left out of interpolation, the sample${k > 1 ? 's' : ''} kept for other nutrients. Dropped: ${ids.slice(0, NAMED_DROPPED).join(', ')}${k > NAMED_DROPPED ? ` and ${k - NAMED_DROPPED} more` : ''}. Check the lab report and the bag labels.`
+        : `; ${k > 1 ? 'they are' : 'it is'} kept (${why}; --outliers drop or plan key soil_test.outliers: drop leaves flagged values out of the maps). Check the lab report and the bag labels; if ${k > 1 ? 'one is' : 'it is'} wrong, correct or remove it.`;
+    return {
+      code: 'neighbour-outlier',
+      file,
+      field: f.analyte,
+      where: named.join('; '),
+      message: `${file}: ${NAMES[f.analyte]} of sample${k > 1 ? 's' : ''} ${list} ${test}${tail}`,
+    };
+  });
+}
+
+/**
+ * Leaves flagged values out: each becomes "not tested" (NaN, not censored) for its analyte only; the sample and
+ * its other values stay. Changes `s` in place.
+ * @example dropOutlierValues(samples, findNeighbourOutliers(samples))
+ */
+export function dropOutlierValues(s: Samples, found: readonly OutlierFinding[]): void {
+  for (const f of found)
+    for (const i of f.index) {
+      s.values[f.analyte][i] = NaN;
+      if (s.censored[f.analyte]) s.censored[f.analyte][i] = 0;
+    }
 }

@@ -6,7 +6,13 @@
 import type { Plan } from '../../agronomy/index.js';
 import type { Analyte, FieldInputs } from '../../types.js';
 import { farParts, MAX_UNSAMPLED_DISTANCE_M } from './budgets.js';
-import { implausibleValues, neighbourOutliers } from './plausible.js';
+import {
+  dropOutlierValues,
+  findNeighbourOutliers,
+  implausibleValues,
+  neighbourOutliers,
+  type OutlierMode,
+} from './plausible.js';
 
 /** Samples all within this distance of each other count as one place: 1 m (GPS error of a sampling probe). */
 export const ONE_PLACE_M = 1;
@@ -81,21 +87,51 @@ export function readinessProblems(
       `${samplesFile}: all ${xy.length / 2} samples lie within ${ONE_PLACE_M} m of one place; they cannot show how the field varies. Fix: check the coordinates (copied from one row?).`,
     );
   }
-  if (!inputs.zones) {
+  // a build whose plan names rates for unsampled parts goes ahead knowingly (src/prescription/unsampled.ts)
+  const planned = need !== null && typeof need === 'object' && need.unsampled_parts !== null;
+  if (!inputs.zones && !planned) {
     const far = farParts(inputs.field.parts, xy);
     if (far.length)
       out.push(
-        `boundary part${far.length > 1 ? 's' : ''} ${far.join(', ')} of ${inputs.field.parts.length} lie${far.length > 1 ? '' : 's'} more than ${MAX_UNSAMPLED_DISTANCE_M} m from every sample; the samples say nothing about ${far.length > 1 ? 'them' : 'it'}. Fix: give the boundary of the sampled field only, or add samples there.`,
+        `boundary part${far.length > 1 ? 's' : ''} ${far.join(', ')} of ${inputs.field.parts.length} lie${far.length > 1 ? '' : 's'} more than ${MAX_UNSAMPLED_DISTANCE_M} m from every sample; the samples say nothing about ${far.length > 1 ? 'them' : 'it'}. Fix: give the boundary of the sampled field only, or add samples there${need !== null && typeof need === 'object' ? '; or, to apply a rate there knowingly, set the plan key unsampled_parts (none, a rate, or { product: rate })' : ''}.`,
       );
   }
   return out;
 }
 
+/** Where the outlier mode came from: the default, the --outliers option, or the plan key soil_test.outliers. */
+export type OutlierSource = 'default' | 'option' | 'plan';
+
 /**
- * Adds the neighbour outlier warnings (src/cli/safety/plausible.ts) to the inputs' warnings, so they reach every
- * output built from them (summary, report) and the terminal.
- * @example addOutlierWarnings(inputs, 'samples.csv')
+ * The neighbour outlier test (src/cli/safety/plausible.ts) on loaded inputs: its warnings join the inputs'
+ * warnings, so they reach every output built from them (summary, report) and the terminal; with `mode` drop the
+ * flagged values are also left out of interpolation (made "not tested" for their analyte). Values are never
+ * dropped when some value is implausible (the command refuses those, naming them) or for zone-composite samples
+ * (each composite is its zone's only value): the warning then says they are kept and why.
+ * @param mode default keep; `source` says where the mode came from
+ * @example applyOutlierTest(inputs, 'samples.csv', 'drop', 'option')
  */
-export function addOutlierWarnings(inputs: FieldInputs, samplesFile: string): void {
-  inputs.warnings.push(...neighbourOutliers(inputs.samples, samplesFile));
+export function applyOutlierTest(
+  inputs: FieldInputs,
+  samplesFile: string,
+  mode: OutlierMode = 'keep',
+  source: OutlierSource = 'default',
+): void {
+  const s = inputs.samples;
+  const found = findNeighbourOutliers(s);
+  if (!found.length) return;
+  const asked =
+    source === 'default'
+      ? 'the default'
+      : source === 'option'
+        ? `--outliers ${mode}`
+        : `plan key soil_test.outliers: ${mode}`;
+  let why = asked;
+  if (mode === 'drop' && inputs.zones)
+    why = `${asked} does not apply to zone-composite samples: each is its zone's only value`;
+  else if (mode === 'drop' && implausibleValues(s, 1).length)
+    why = `${asked} waits until the values outside the plausible ranges are corrected`;
+  const drop = mode === 'drop' && why === asked;
+  inputs.warnings.push(...neighbourOutliers(s, samplesFile, drop ? 'drop' : 'keep', why, found));
+  if (drop) dropOutlierValues(s, found);
 }

@@ -144,7 +144,10 @@ export async function readShapefile(files: ShapefileBytes, label: string): Promi
   const encoding = encodingFromCpg(cpg);
   // loaded only when a shapefile is read: the package and its text-encoding polyfill cost about 0.1 s of
   // start-up for every command otherwise (docs/performance.md)
-  const shapefile = await import('shapefile');
+  // a CommonJS package: its exports are the namespace's default everywhere (Node, tsx, the split bundle, where
+  // they are not also copied onto the namespace)
+  const mod = await import('shapefile');
+  const shapefile = mod.default ?? mod;
   let fc;
   try {
     fc = await shapefile.read(toArrayBuffer(files.shp), files.dbf ? toArrayBuffer(files.dbf) : undefined, {
