@@ -144,26 +144,50 @@ function alignClosed(stored: number[], mine: number[]): void {
 
 /**
  * Each zone's polygons from its rings of (possibly simplified) arcs: nodes where a ring runs straight on are
- * dropped, counter-clockwise rings are exteriors and clockwise rings holes, each hole going to the
- * exterior that contains it. Coordinates in metres.
+ * dropped (except where another ring of the zone touches it), counter-clockwise rings are exteriors and
+ * clockwise rings holes, each hole going to the exterior that contains it. Coordinates in metres.
  * @param arcs node keys per arc (`a.arcs`, or simplifyArcs(a, tol))
  * @example const parts = arcsToParts(a, simplifyArcs(a, 1), grid); parts[0][0].exterior
  */
 export function arcsToParts(a: ZoneArcs, arcs: number[][], f: RasterFrame): RingsPart[][] {
-  return a.rings.map((rings) =>
-    ringsToParts(rings.map((refs) => keysToRing(ringKeys(refs, arcs, a.W), a.W, f))),
-  );
+  return a.rings.map((rings) => {
+    const touch = touchNodes(rings, arcs);
+    return ringsToParts(rings.map((refs) => keysToRing(ringKeys(refs, arcs, a.W, touch), a.W, f)));
+  });
+}
+
+/**
+ * Nodes where two rings of one zone touch (a hole touching its exterior, two parts touching at a corner): arc
+ * ends that start arcs in more than one of the zone's rings; null for a zone of one ring. Such a node stays a
+ * vertex of every ring through it even where smoothing made a ring run straight on there, so the rings touch
+ * at a shared vertex: a touch at a point inside another ring's edge turns, once the coordinates are rounded
+ * and clipped, into a crossing (GEOS: self-intersection).
+ */
+function touchNodes(rings: number[][], arcs: number[][]): Set<number> | null {
+  if (rings.length < 2) return null;
+  const ringOf = new Map<number, number>();
+  const out = new Set<number>();
+  rings.forEach((refs, r) => {
+    for (const ref of refs) {
+      const arc = arcs[Math.abs(ref) - 1];
+      const node = ref > 0 ? arc[0] : arc[arc.length - 1];
+      const seen = ringOf.get(node);
+      if (seen === undefined) ringOf.set(node, r);
+      else if (seen !== r) out.add(node);
+    }
+  });
+  return out;
 }
 
 /** A ring's vertex keys from its arcs (closed, first not repeated), without nodes where it runs straight on. */
-function ringKeys(refs: number[], arcs: number[][], W: number): number[] {
+function ringKeys(refs: number[], arcs: number[][], W: number, keep: Set<number> | null): number[] {
   const keys: number[] = [];
   for (const ref of refs) {
     const arc = arcs[Math.abs(ref) - 1];
     const n = arc.length;
     for (let t = 0; t + 1 < n; t++) keys.push(ref > 0 ? arc[t] : arc[n - 1 - t]);
   }
-  return straightDropped(keys, W);
+  return straightDropped(keys, W, keep);
 }
 
 /**
@@ -172,12 +196,15 @@ function ringKeys(refs: number[], arcs: number[][], W: number): number[] {
  */
 export function ringsVertexCount(a: ZoneArcs, arcs: number[][]): number {
   let n = 0;
-  for (const rings of a.rings) for (const refs of rings) n += ringKeys(refs, arcs, a.W).length;
+  for (const rings of a.rings) {
+    const touch = touchNodes(rings, arcs);
+    for (const refs of rings) n += ringKeys(refs, arcs, a.W, touch).length;
+  }
   return n;
 }
 
-/** Vertices of a node ring (closed, no repeat) where the ring does not run straight on. */
-function straightDropped(keys: number[], W: number): number[] {
+/** Vertices of a node ring (closed, no repeat) where the ring does not run straight on, and the nodes in `keep`. */
+function straightDropped(keys: number[], W: number, keep: Set<number> | null): number[] {
   const n = keys.length;
   if (n < 4) return keys;
   const out: number[] = [];
@@ -193,7 +220,7 @@ function straightDropped(keys: number[], W: number): number[] {
       cx = c - jc * W;
     const cross = (bx - ax) * (jc - jb) - (jb - ja) * (cx - bx);
     const dot = (bx - ax) * (cx - bx) + (jb - ja) * (jc - jb);
-    if (cross === 0 && dot > 0) continue;
+    if (cross === 0 && dot > 0 && !keep?.has(b)) continue;
     out.push(b);
   }
   return out;

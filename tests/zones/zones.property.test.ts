@@ -262,6 +262,32 @@ describe('makeZones invariants (fast-check)', () => {
     );
   });
 
+  it('regression: a hole touching its exterior keeps the touch as a vertex of both rings (3-cell tolerance)', () => {
+    // counterexample from seed 429 (shrunk greedily, turf booleanValid as the oracle): a small zone inside zone 1
+    // touches zone 1's exterior at a junction node; smoothing made the exterior run straight through that node,
+    // the node was dropped as a straight-on vertex, and after clipping the hole's vertex sat a hair outside the
+    // exterior's edge (GEOS: self-intersection at 171.4, 212.3)
+    checkZones(
+      {
+        outer: [
+          0.55, 0.55, 0.8359548432705255, 0.9787698501137609, 0.5911474971712468, 0.7357710485492489, 0.55,
+          0.55, 0.9999999999999992,
+        ],
+        hole: undefined,
+        second: false,
+        cell: 7.3,
+        seed: 574453,
+        classes: 3,
+        method: 'equal',
+        minArea: 0,
+        iters: 0,
+        simplify: 3,
+        minDiff: undefined,
+      },
+      Array.from({ length: 20 }, (_, i) => [(i % 5) / 4, Math.floor(i / 5) / 3] as [number, number]),
+    );
+  });
+
   it('tracing random noise rasters (many corner-only contacts) gives valid zones with the cell-count area', () => {
     fc.assert(
       fc.property(
