@@ -12,6 +12,15 @@
 export * from './types.js';
 export { UserError, isUserError, type Warning } from './errors.js';
 export * as units from './units/index.js';
+export {
+  ANALYTE_TERMS,
+  ANALYTE_NAME,
+  ANALYTE_LABEL,
+  NUTRIENT_NAME,
+  PLACEMENT_NAME,
+  CAUTION,
+  type AnalyteTerms,
+} from './vocabulary.js';
 export { VERSION } from './version.js';
 export { prepareInputs } from './validate/inputs.js';
 export { readInputs, type InputFiles, type RawInputs } from './io/inputs.js';

@@ -1,11 +1,14 @@
 /**
  * tilth's words, written down once. Read this before naming anything.
  *
- * - **analyte** = a soil test value: nitrate-N, P, K, sulphate-S, organic matter, pH (`Analyte`, src/types.ts).
- *   **nutrient** = what a fertilizer supplies and a rate is given in: N, P2O5, K2O, S (`Nutrient`,
- *   below; the tables use it). A surface is an analyte map; a target is a nutrient rate. Old names that mix the
- *   two (`nutrientSurface`, `NUTRIENT_LABEL` for analytes) are kept where they are public, and new code follows
- *   this rule.
+ * - **analyte = soil test, nutrient = N/P2O5/K2O/S.** An analyte is a soil test value: nitrate-N, P, K,
+ *   sulphate-S, organic matter, pH (`Analyte`, src/types.ts), in its canonical unit (ppm, lb/ac, %). A nutrient
+ *   is what a fertilizer supplies and a rate is given in: N, P2O5, K2O, S (`Nutrient`, below).
+ *   A surface is an analyte map; a target is a nutrient rate. Old names that mix the two (`nutrientSurface`,
+ *   the `--nutrient` flag naming an analyte) are kept where they are public, and new code follows this rule.
+ * - Every analyte, nutrient and placement name a person reads comes from the maps below (`ANALYTE_NAME`,
+ *   `ANALYTE_LABEL`, `ANALYTE_DEPTH_LABEL`, `ANALYTE_SAMPLED`, `ANALYTE_UNIT`, `NUTRIENT_NAME`,
+ *   `PLACEMENT_NAME`); never write a local map of them.
  * - **placement** = where a product goes: seed_row, side_band, mid_row_band, broadcast (`PLACEMENTS`).
  * - **rate column** = `<product stem>_<unit>` with unit lbac, kgha, galac or lha (src/prescription/shapefiles.ts
  *   `RX_UNITS`; `tilth check` finds rate columns by the same suffixes).
@@ -13,9 +16,10 @@
  *   `same-place`, `few-samples` (`Warning.code`, src/errors.ts).
  * - **grid** = the one grid geometry: cell size, north-west corner (`xmin`, `ymax`), `cols` x `rows`, row-major,
  *   north-up (`Grid`, src/types.ts); every per-cell array has this layout.
- * - Unit conversion factors live only in src/units/.
+ * - Unit conversion factors live only in src/units/; machine settings with a unit (`8mph`, `18m`) are read there
+ *   too (`parseSpeed`, `parseLength`).
  */
-import type { Analyte } from './types.js';
+import { ANALYTES, type Analyte } from './types.js';
 
 /** Where a product goes: in the seed row, a side or mid-row band, or broadcast. */
 export const PLACEMENTS = ['seed_row', 'side_band', 'mid_row_band', 'broadcast'] as const;
@@ -24,14 +28,71 @@ export type Placement = (typeof PLACEMENTS)[number];
 export const NUTRIENTS = ['n', 'p2o5', 'k2o', 's'] as const;
 export type Nutrient = (typeof NUTRIENTS)[number];
 
-/** Each analyte's words: short name, sampled depth and canonical unit (the values in `Samples`). */
-export const ANALYTE_TERMS: Readonly<Record<Analyte, { short: string; depth: string; unit: string }>> = {
-  no3_n: { short: 'nitrate-N', depth: '0-24 in', unit: 'lb/ac' },
-  p: { short: 'P', depth: '0-6 in', unit: 'ppm' },
-  k: { short: 'K', depth: '0-6 in', unit: 'ppm' },
-  so4_s: { short: 'sulphate-S', depth: '0-24 in', unit: 'lb/ac' },
-  om: { short: 'organic matter', depth: '0-6 in', unit: '%' },
-  ph: { short: 'pH', depth: '0-6 in', unit: '' },
+/** One analyte's words. */
+export interface AnalyteTerms {
+  /** in messages and tables: "P", "sulphate-S" */
+  short: string;
+  /** written out: "phosphorus", "sulphate-S" */
+  name: string;
+  /** the depth sampled */
+  depth: string;
+  /** the canonical unit of the values in `Samples` ('' for pH) */
+  unit: string;
+  /** the unit naming the element, for charts: "lb S/ac" ("pH" for pH) */
+  amount: string;
+}
+
+/** Each analyte's words: the one table every label below is made from. */
+export const ANALYTE_TERMS: Readonly<Record<Analyte, AnalyteTerms>> = {
+  no3_n: { short: 'nitrate-N', name: 'nitrate-N', depth: '0-24 in', unit: 'lb/ac', amount: 'lb N/ac' },
+  p: { short: 'P', name: 'phosphorus', depth: '0-6 in', unit: 'ppm', amount: 'ppm' },
+  k: { short: 'K', name: 'potassium', depth: '0-6 in', unit: 'ppm', amount: 'ppm' },
+  so4_s: { short: 'sulphate-S', name: 'sulphate-S', depth: '0-24 in', unit: 'lb/ac', amount: 'lb S/ac' },
+  om: { short: 'organic matter', name: 'organic matter', depth: '0-6 in', unit: '%', amount: '%' },
+  ph: { short: 'pH', name: 'pH', depth: '0-6 in', unit: '', amount: 'pH' },
+};
+
+/** The topsoil depth most analytes are sampled at; labels name a depth only when it differs. */
+const TOPSOIL = '0-6 in';
+
+function byAnalyte(word: (t: AnalyteTerms, a: Analyte) => string): Readonly<Record<Analyte, string>> {
+  return Object.fromEntries(ANALYTES.map((a) => [a, word(ANALYTE_TERMS[a], a)])) as Record<Analyte, string>;
+}
+
+/** Short name, for messages. @example ANALYTE_NAME.so4_s // 'sulphate-S' */
+export const ANALYTE_NAME = byAnalyte((t) => t.short);
+
+/**
+ * Short name with the canonical unit, and the depth where it is not the topsoil's, for maps and tables.
+ * @example ANALYTE_LABEL.no3_n // 'nitrate-N (lb/ac, 0-24 in)'; ANALYTE_LABEL.p // 'P (ppm)'
+ */
+export const ANALYTE_LABEL = byAnalyte((t) =>
+  t.unit ? `${t.short} (${t.unit}${t.depth === TOPSOIL ? '' : `, ${t.depth}`})` : t.short,
+);
+
+/** Full name with the depth sampled, for charts. @example ANALYTE_DEPTH_LABEL.p // 'phosphorus (0-6 in)' */
+export const ANALYTE_DEPTH_LABEL = byAnalyte((t) => `${t.name} (${t.depth})`);
+
+/**
+ * Short name with the depth sampled (organic matter and pH without), for tables of soil tests.
+ * @example ANALYTE_SAMPLED.no3_n // 'nitrate-N 0-24 in'; ANALYTE_SAMPLED.om // 'organic matter'
+ */
+export const ANALYTE_SAMPLED = byAnalyte((t, a) =>
+  a === 'om' || a === 'ph' ? t.short : `${t.short} ${t.depth}`,
+);
+
+/** The unit naming the element. @example ANALYTE_UNIT.so4_s // 'lb S/ac' */
+export const ANALYTE_UNIT = byAnalyte((t) => t.amount);
+
+/** Nutrient names as people write them. @example NUTRIENT_NAME.p2o5 // 'P2O5' */
+export const NUTRIENT_NAME: Readonly<Record<Nutrient, string>> = { n: 'N', p2o5: 'P2O5', k2o: 'K2O', s: 'S' };
+
+/** Placement names as people write them. @example PLACEMENT_NAME.mid_row_band // 'mid-row band' */
+export const PLACEMENT_NAME: Readonly<Record<Placement, string>> = {
+  seed_row: 'seed row',
+  side_band: 'side band',
+  mid_row_band: 'mid-row band',
+  broadcast: 'broadcast',
 };
 
 /**

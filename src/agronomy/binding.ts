@@ -3,7 +3,8 @@
  * cannot be met, which nutrient could not and why. Wording for the decision's `binding` and `infeasible` lists.
  */
 import { lbacToKgha, type RateUnit } from '../units/index.js';
-import { EPS, NUTRIENT_NAME, r1, zero } from './decision.js';
+import { NUTRIENT_NAME } from '../vocabulary.js';
+import { EPS, r1, zero } from './decision.js';
 import type { Plan } from './plan.js';
 import type { SeedRowLimits } from './seedrow.js';
 import { solveProducts, type ProductOption, type SolveResult } from './solve.js';

@@ -80,8 +80,6 @@ export interface Decision {
   warnings: Warning[];
 }
 
-/** Nutrient names as messages write them. */
-export const NUTRIENT_NAME: Record<Nutrient, string> = { n: 'N', p2o5: 'P2O5', k2o: 'K2O', s: 'S' };
 /** lb/ac below which a rate or a slack counts as zero. */
 export const EPS = 1e-6;
 /** One decimal, for messages. */

@@ -4,7 +4,8 @@
  * seed and N above its target (after).
  */
 import type { Warning } from '../errors.js';
-import { EPS, NUTRIENT_NAME, r1, type Economics, type PlacementResult } from './decision.js';
+import { NUTRIENT_NAME } from '../vocabulary.js';
+import { EPS, r1, type Economics, type PlacementResult } from './decision.js';
 import { pClassTable, type Interpretation } from './interpret.js';
 import type { Plan } from './plan.js';
 import type { SeedRowLimits } from './seedrow.js';

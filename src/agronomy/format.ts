@@ -2,10 +2,10 @@
  * A Decision as text for people (the CLI prints it; the report may reuse it).
  */
 import { lbacToKgha } from '../units/index.js';
+import { NUTRIENT_NAME as NAME } from '../vocabulary.js';
 import type { Decision } from './decision.js';
-import { NUTRIENTS, type Nutrient } from './tables.js';
+import { NUTRIENTS } from './tables.js';
 
-const NAME: Record<Nutrient, string> = { n: 'N', p2o5: 'P2O5', k2o: 'K2O', s: 'S' };
 const f1 = (v: number) => (Number.isFinite(v) ? (Math.round(v * 10) / 10).toFixed(1) : '-');
 const pct = (v: number) => (Number.isFinite(v) ? `${Math.round(v * 100)} %` : '-');
 

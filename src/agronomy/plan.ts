@@ -175,6 +175,8 @@ export const planSchema = z
         smoothing_passes: z.number().int().min(0).max(10).default(2),
         min_zone_ac: z.union([z.literal('auto'), z.number().positive()]).default('auto'),
         zone_sets: z.enum(['per_product', 'shared']).default('per_product'),
+        /** what classes are drawn from: the nutrient targets (default), or for P2O5 and K2O the expected chance of a yield response to P and K (kriging class probabilities x the classes' response chances; docs/zones.md) */
+        basis: z.enum(['targets', 'response_chance']).default('targets'),
         /** per_product sets: neighbouring classes whose mean targets differ by less than this % of the field's mean target are merged (tilth default, no published source) */
         min_class_difference_pct: z.number().min(0).max(100).default(5),
         /** neighbouring zones stay apart only if some product rate differs by at least this (plan units): auto = the larger of the product's step and min_rate_difference_pct % of its field mean; a number for every product, or per product */

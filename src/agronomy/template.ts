@@ -163,6 +163,7 @@ zoning:
   smoothing_passes: 2
   min_zone_ac: auto           # auto = the larger of swath x distance travelled during a rate change and the field area per grid sample; or acres (lower it knowingly)
   zone_sets: per_product      # per_product | shared
+  basis: targets              # targets | response_chance (P2O5, K2O: expected chance of a yield response from kriging; docs/zones.md)
   min_class_difference_pct: 5 # per_product: merge classes whose targets differ by less than this % of the mean (tilth default)
   min_rate_difference: auto   # auto | a rate | { product: rate }: neighbouring zones stay apart only if a product rate differs by at least this and by more than the soil maps' error moves it
   min_rate_difference_pct: 10 # auto: the larger of the product's step and this % of its field mean rate (tilth default)

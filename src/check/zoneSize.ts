@@ -1,6 +1,7 @@
 /** Check `zone_size`: every zone is long (and wide) enough to reach its rate at the travel speed. */
 import { DEFAULT_TRANSITION_S, fmt, list, type CheckContext } from './context.js';
 import { hullExtent, polysArea } from './shape.js';
+import { kmhToMs } from '../units/index.js';
 
 /**
  * Adds the `zone_size` line (skipped without `opts.speedKmh`): a rate change takes transitionS seconds, so a
@@ -11,7 +12,7 @@ export function checkZoneSize(ctx: CheckContext): void {
   if (ctx.opts.speedKmh === undefined) ctx.add('zone_size', 'skip', 'no --speed given');
   else {
     const t = ctx.opts.transitionS ?? DEFAULT_TRANSITION_S;
-    const d = (ctx.opts.speedKmh / 3.6) * t;
+    const d = kmhToMs(ctx.opts.speedKmh) * t;
     const tooShort: string[] = [],
       narrow: string[] = [],
       tiny: string[] = [];

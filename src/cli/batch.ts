@@ -3,7 +3,7 @@ import { availableParallelism } from 'node:os';
 import { dirname, isAbsolute, join } from 'node:path';
 import type { Command } from 'commander';
 import { farmTotals, parseFarm, type FarmField } from '../prescription/farm.js';
-import { M2_PER_AC, m2ToHa } from '../units/index.js';
+import { kgToTonnes, M2_PER_AC, m2ToHa } from '../units/index.js';
 import type { BuildFlags } from './build.js';
 import { runPool } from './batchPool.js';
 import type { FieldJob, FieldResult } from './batchWorker.js';
@@ -126,7 +126,7 @@ export function farmSummary(fields: FarmField[], results: FieldResult[]) {
     placement: t.placement,
     total_lb: round(t.totalLb, 0),
     total_kg: round(t.totalKg, 0),
-    total_tonnes: round(t.totalKg / 1000, 3),
+    total_tonnes: round(kgToTonnes(t.totalKg), 3),
     applied_ac: round(t.appliedAc, 2),
     fields: t.fields,
   }));

@@ -8,7 +8,7 @@ import { readinessProblems } from './safety/readiness.js';
 import { UserError } from '../errors.js';
 import type { FieldInputs } from '../types.js';
 import type { Plan } from '../agronomy/index.js';
-import { prescriptionFolder, type PrescriptionFolder } from '../prescription/folder.js';
+import type { PrescriptionFolder } from '../prescription/folder.js';
 import { provenance } from '../prescription/provenance.js';
 import { summaryText } from '../prescription/outputs.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
@@ -141,6 +141,8 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const)
     .filter((k) => o[k])
     .map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
+  // the writers (report, shapefiles, task data) load only now: the first progress lines come sooner
+  const { prescriptionFolder } = await import('../prescription/folder.js');
   const { files, summary } = prescriptionFolder(rx, inputs, tables, {
     provenance: provenance(named),
     tablesEdited: !!o.tables,

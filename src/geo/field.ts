@@ -12,7 +12,7 @@ import { orient, partsArea, partsBbox } from './area.js';
  *
  * @param lonlat MultiPolygon coordinates, rings closed; validated beforehand (src/validate)
  * @param name field name for messages and outputs
- * @example const f = projectField(mp, 'Home quarter'); f.areaM2 / 4046.86 // acres
+ * @example const f = projectField(mp, 'Home quarter'); m2ToAc(f.areaM2) // acres
  */
 export function projectField(lonlat: number[][][][], name = 'field'): Field & { projector: Projector } {
   let lx0 = Infinity,

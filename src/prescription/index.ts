@@ -30,7 +30,7 @@ import {
 } from './zoneSets.js';
 
 export { mergeCloseClasses } from './zoneDesign.js';
-export { nutrientName, productRate, usedPairs } from './totals.js';
+export { productRate, usedPairs } from './totals.js';
 export type { BuildOptions, Prescription, PrescriptionZone, ProductTotal, ZoneSetResult } from './types.js';
 
 /** A cell size giving about 200 cells across the field's longer side, rounded to 1, 2, 5, 10 or 20 m. */

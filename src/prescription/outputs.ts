@@ -6,9 +6,11 @@ import { csvCell } from '../io/csv-escape.js';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import type { Placement } from '../agronomy/tables.js';
 import { NUTRIENTS } from '../agronomy/tables.js';
-import { productRate, usedPairs, nutrientName } from './totals.js';
+import { productRate, usedPairs } from './totals.js';
+import { NUTRIENT_NAME } from '../vocabulary.js';
 import type { Prescription, ZoneSetResult } from './types.js';
 import { apartText, designLines, type ZoneDesign } from './zoneDesign.js';
+import { kgToTonnes, m2ToAc } from '../units/index.js';
 
 const unitTag = (u: string) => (u === 'kg/ha' ? 'kgha' : 'lbac');
 const round = (v: number, d: number) => (Number.isFinite(v) ? Number(v.toFixed(d)) : null);
@@ -169,7 +171,7 @@ export function summaryObject(rx: Prescription, prov: Provenance): unknown {
       driven_by: s.drivenBy,
       products: s.products,
       zones: s.zones.length,
-      min_zone_ac: round(s.minZoneAreaM2 / 4046.8564224, 3),
+      min_zone_ac: round(m2ToAc(s.minZoneAreaM2), 3),
       file: geojsonName(rx, s),
       breaks_lbac: s.breaks?.map((b) => round(b, 2)) ?? null,
       design: s.design ? designObject(s.design) : null,
@@ -181,7 +183,7 @@ export function summaryObject(rx: Prescription, prov: Provenance): unknown {
       placement: t.placement,
       total_lb: round(t.totalLb, 0),
       total_kg: round(t.totalKg, 0),
-      total_tonnes: round(t.totalKg / 1000, 3),
+      total_tonnes: round(kgToTonnes(t.totalKg), 3),
       mean_rate: round(t.meanRate, 1),
       min_rate: round(t.minRate, 1),
       max_rate: round(t.maxRate, 1),
@@ -216,7 +218,7 @@ export function summaryText(rx: Prescription): string {
   );
   for (const t of rx.totals) {
     lines.push(
-      `${pad(t.label.slice(0, 22), 22)} ${pad(t.placement, 13)} ${lpad(t.totalLb.toFixed(0), 9)} ${lpad((t.totalKg / 1000).toFixed(2), 8)} ${lpad(t.meanRate.toFixed(1), 7)} ${lpad(t.minRate.toFixed(0), 6)} ${lpad(t.maxRate.toFixed(0), 6)}`,
+      `${pad(t.label.slice(0, 22), 22)} ${pad(t.placement, 13)} ${lpad(t.totalLb.toFixed(0), 9)} ${lpad(kgToTonnes(t.totalKg).toFixed(2), 8)} ${lpad(t.meanRate.toFixed(1), 7)} ${lpad(t.minRate.toFixed(0), 6)} ${lpad(t.maxRate.toFixed(0), 6)}`,
     );
   }
   if (rx.totals.length === 0) lines.push('(no product is applied anywhere)');
@@ -224,7 +226,7 @@ export function summaryText(rx: Prescription): string {
   for (const set of rx.zoneSets) {
     lines.push(`zone set ${set.name}:`);
     lines.push(
-      `  ${lpad('zone', 4)} ${lpad('class', 5)} ${lpad('ac', 7)}  ${NUTRIENTS.map((n) => lpad(nutrientName(n), 6)).join(' ')}  rates (${u})  binding limit`,
+      `  ${lpad('zone', 4)} ${lpad('class', 5)} ${lpad('ac', 7)}  ${NUTRIENTS.map((n) => lpad(NUTRIENT_NAME[n], 6)).join(' ')}  rates (${u})  binding limit`,
     );
     for (const z of set.zones) {
       const rates = usedPairs(set)
@@ -285,9 +287,9 @@ function designObject(d: ZoneDesign): unknown {
       zones: d.counts.zones,
     },
     min_zone_area: {
-      used_ac: round(m.usedM2 / 4046.8564224, 3),
-      machine_ac: round(m.machineM2 / 4046.8564224, 3),
-      per_sample_ac: round(m.perSampleM2 / 4046.8564224, 3),
+      used_ac: round(m2ToAc(m.usedM2), 3),
+      machine_ac: round(m2ToAc(m.machineM2), 3),
+      per_sample_ac: round(m2ToAc(m.perSampleM2), 3),
       grid_samples: m.gridSamples,
       from_plan: m.fromPlan,
     },

@@ -7,27 +7,27 @@ import type { Warning } from '../errors.js';
 import { pClassTable } from '../agronomy/interpret.js';
 import type { Tables } from '../agronomy/tables.js';
 import type { ReportChart, ReportInput, ReportNutrient, ReportZoneSet } from '../report/types.js';
-import type { FieldInputs } from '../types.js';
+import type { Analyte, FieldInputs } from '../types.js';
 import { reportSurfaces, reportView, responseMaps } from './reportMaps.js';
 import { tablesUsed } from './reportTables.js';
-import { productRate, usedPairs, nutrientName } from './totals.js';
+import { productRate, usedPairs } from './totals.js';
+import { ANALYTE_SAMPLED, ANALYTE_TERMS, NUTRIENT_NAME, PLACEMENT_NAME } from '../vocabulary.js';
 import type { Prescription } from './types.js';
 import type { Provenance } from './outputs.js';
+import { kgToTonnes } from '../units/index.js';
 
-const NUTRIENT_INFO: Record<string, Omit<ReportNutrient, 'key'>> = {
-  no3_n: { label: 'Nitrate-N 0-24 in', unit: 'lb/ac', decimals: 0 },
-  p: { label: 'P 0-6 in', unit: 'ppm', decimals: 1 },
-  k: { label: 'K 0-6 in', unit: 'ppm', decimals: 0 },
-  so4_s: { label: 'Sulphate-S 0-24 in', unit: 'lb/ac', decimals: 0 },
-  om: { label: 'Organic matter', unit: '%', decimals: 1 },
-};
-const PLACEMENT_NAME: Record<string, string> = {
-  seed_row: 'seed row',
-  side_band: 'side band',
-  mid_row_band: 'mid-row band',
-  broadcast: 'broadcast',
-};
+/** Decimals the report shows each soil test with. */
+const DECIMALS: Partial<Record<Analyte, number>> = { no3_n: 0, p: 1, k: 0, so4_s: 0, om: 1 };
 
+/** A soil test's label, unit and decimals in the report: "Nitrate-N 0-24 in", lb/ac (src/vocabulary.ts). */
+function nutrientInfo(a: Analyte): Omit<ReportNutrient, 'key'> {
+  const label = ANALYTE_SAMPLED[a];
+  return {
+    label: label[0].toUpperCase() + label.slice(1),
+    unit: ANALYTE_TERMS[a].unit,
+    decimals: DECIMALS[a]!,
+  };
+}
 /** The cautions printed in every report. */
 export const REPORT_CAUTIONS = [
   'Too much fertilizer with the seed injures or kills seedlings. Seed-row limits here assume the implement, row spacing and seedbed moisture declared in the plan; lower them in dry seedbeds.',
@@ -53,11 +53,11 @@ export function reportInput(
   const pMethod = inputs.samples.pMethod;
   const nutrients: ReportNutrient[] = rx.surfaces.map((s) => ({
     key: s.analyte,
-    ...NUTRIENT_INFO[s.analyte],
+    ...nutrientInfo(s.analyte),
     label:
       s.analyte === 'p'
         ? `${pMethod === 'olsen' ? 'Olsen' : 'modified Kelowna'} P 0-6 in`
-        : NUTRIENT_INFO[s.analyte].label,
+        : nutrientInfo(s.analyte).label,
   }));
   const kFactor = plan.soil_test.kelowna_factor;
   const pClasses = pClassTable(pMethod, tables, kFactor);
@@ -128,7 +128,7 @@ function reportZoneSets(rx: Prescription): ReportZoneSet[] {
       soilMeans: { no3_n: z.soil.no3_n, p: z.soil.p, k: z.soil.k, so4_s: z.soil.so4_s, om: z.soil.om },
       targets: Object.fromEntries(
         (['n', 'p2o5', 'k2o', 's'] as const).map((n) => [
-          nutrientName(n),
+          NUTRIENT_NAME[n],
           z.decision.nutrients[n].target.value,
         ]),
       ),
@@ -170,7 +170,7 @@ function reportTotals(rx: Prescription): ReportInput['totals'] {
     placement: PLACEMENT_NAME[t.placement],
     total: plan.units === 'kg/ha' ? t.totalKg : t.totalLb,
     totalUnit: plan.units === 'kg/ha' ? 'kg' : 'lb',
-    packaging: `${(t.totalKg / 1000).toFixed(2)} t${rx.zoneSets.length > 1 ? ` (zone set ${t.zoneSet})` : ''}`,
+    packaging: `${kgToTonnes(t.totalKg).toFixed(2)} t${rx.zoneSets.length > 1 ? ` (zone set ${t.zoneSet})` : ''}`,
     meanRate: t.meanRate,
     minRate: t.minRate,
     maxRate: t.maxRate,

@@ -35,6 +35,7 @@ import {
 import { VERSION } from '../version.js';
 import { productRate, usedPairs } from './totals.js';
 import type { Prescription, ZoneSetResult } from './types.js';
+import { PLACEMENT_NAME } from '../vocabulary.js';
 
 /** Options of {@link prescriptionTaskData}. */
 export interface TaskDataOptions {
@@ -46,12 +47,6 @@ export interface TaskDataOptions {
   gridCellM?: number;
 }
 
-const PLACEMENT_NAME: Record<Placement, string> = {
-  seed_row: 'seed row',
-  side_band: 'side band',
-  mid_row_band: 'mid-row band',
-  broadcast: 'broadcast',
-};
 /** Treatment zone codes are one byte; 255 is reserved. */
 const MAX_CODE = 254;
 

@@ -1,7 +1,7 @@
 /** Product rates per zone and product totals over a zone set: what ordering, loading and the outputs read. */
 import type { Decision } from '../agronomy/decision.js';
 import type { Plan } from '../agronomy/plan.js';
-import type { Nutrient, Placement } from '../agronomy/tables.js';
+import type { Placement } from '../agronomy/tables.js';
 import { KG_PER_LB } from '../units/index.js';
 import type { ProductTotal, ZoneSetResult } from './types.js';
 
@@ -69,8 +69,4 @@ export function productTotals(sets: ZoneSetResult[], plan: Plan): ProductTotal[]
     }
   }
   return out;
-}
-
-export function nutrientName(n: Nutrient): string {
-  return { n: 'N', p2o5: 'P2O5', k2o: 'K2O', s: 'S' }[n];
 }

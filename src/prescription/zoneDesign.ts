@@ -14,7 +14,13 @@ import { classify, classifyVectors, type Classes } from '../zones/classify.js';
 import { makeZones, type ZoneSet } from '../zones/index.js';
 import type { Analyte, FieldInputs, Grid } from '../types.js';
 import { M2_PER_AC, M_PER_FT, m2ToAc, mphToMs } from '../units/index.js';
+import { NUTRIENT_NAME, PLACEMENT_NAME } from '../vocabulary.js';
 import { rateJudge, type ApartReason, type ZoneProfile } from './rateJudge.js';
+import {
+  responseChanceBasis,
+  type ResponseChanceBasis,
+  type ResponseNutrient,
+} from '../variability/responseChance.js';
 
 /** How a zone set's zones came about. */
 export interface ZoneDesign {
@@ -99,7 +105,9 @@ export function designZoneSets(d: DesignInputs): { sets: DesignedSet[]; warnings
   const rmse: Partial<Record<Analyte, number>> = {};
   for (const s of d.surfaces) if (s.cv) rmse[s.analyte] = s.cv.best.rmse;
   const textures = textureLayers(d.inputs, d.grid);
-  const sets = setSpecs(d).map((spec) => designSet(d, spec, rmse, textures, warnings));
+  const basis = zoningBasis(d);
+  warnings.push(...basis.warnings);
+  const sets = setSpecs(d, basis).map((spec) => designSet(d, spec, rmse, textures, warnings));
   if (d.minArea.fromPlan && d.minArea.usedM2 < d.minArea.perSampleM2) {
     warnings.push({
       code: 'zones.min-area-below-sample',
@@ -115,10 +123,16 @@ interface SetSpec {
   drivenBy: string;
   products: string[];
   input: Float64Array | { classOf: Int16Array };
+  /** drawn from the expected response chance (zoning.basis): no target breaks for the legend */
+  chance?: boolean;
 }
 
-function setSpecs(d: DesignInputs): SetSpec[] {
-  const { plan, grid, targets: tg } = d;
+function setSpecs(d: DesignInputs, basis: ResponseChanceBasis): SetSpec[] {
+  const { plan, grid } = d;
+  // zoning.basis response_chance: P2O5 and K2O classes from the expected chance of a response (src/variability)
+  const tg = { ...d.targets };
+  for (const [n, l] of Object.entries(basis.layers)) tg[n as Nutrient] = l.values;
+  const what = (n: Nutrient) => basis.layers[n as ResponseNutrient]?.label ?? `${NUTRIENT_NAME[n]} target`;
   const allProducts = plan.products.map((p) => p.product);
   const specs: SetSpec[] = [];
   if (plan.zoning.zone_sets === 'shared') {
@@ -132,7 +146,7 @@ function setSpecs(d: DesignInputs): SetSpec[] {
         : new Int16Array(grid.cols * grid.rows).map((_, i) => (grid.fraction[i] > 0 ? 0 : -1));
     specs.push({
       name: 'shared',
-      drivenBy: `k-means on the standardized ${varying.map(nutrientLabel).join(', ') || 'targets (all uniform)'} targets`,
+      drivenBy: `k-means on the standardized ${varying.map(what).join(', ') || 'targets (all uniform)'}`,
       products: allProducts,
       input: { classOf },
     });
@@ -143,9 +157,10 @@ function setSpecs(d: DesignInputs): SetSpec[] {
     for (const [n, prods] of byNutrient)
       specs.push({
         name: n,
-        drivenBy: `${nutrientLabel(n)} target (${plan.zoning.method}, up to ${plan.zoning.classes} classes)`,
+        drivenBy: `${what(n)} (${plan.zoning.method}, up to ${plan.zoning.classes} classes)`,
         products: prods,
         input: tg[n],
+        chance: n in basis.layers,
       });
   }
   return specs;
@@ -173,7 +188,7 @@ function designSet(
       plan.zoning.min_class_difference_pct,
     );
     input = { classOf: c.classOf };
-    breaks = c.breaks;
+    breaks = spec.chance ? null : c.breaks;
   }
   const judge = rateJudge({
     plan,
@@ -212,6 +227,27 @@ function designSet(
     samples: samplesInZones(d.inputs, zs),
     design,
   };
+}
+
+/** The expected response chance layers when the plan asks to zone on them (zoning.basis), else none. */
+function zoningBasis(d: DesignInputs): ResponseChanceBasis {
+  const crop = d.tables.crops[d.plan.crop];
+  if (d.plan.zoning.basis !== 'response_chance' || !crop) return { layers: {}, warnings: [] };
+  const drivers =
+    d.plan.zoning.zone_sets === 'shared' ? NUTRIENTS : d.plan.products.map((p) => d.mainNutrient(p.product));
+  return responseChanceBasis(
+    {
+      samples: d.inputs.samples,
+      grid: d.grid,
+      surfaces: d.surfaces,
+      crop,
+      tables: d.tables,
+      log: d.plan.surface.log,
+      neighbours: d.plan.surface.kriging_neighbours,
+      kelownaFactor: d.plan.soil_test.kelowna_factor,
+    },
+    drivers,
+  );
 }
 
 function whyText(c: ZoneSet['counts'], m: MinZoneArea): string {
@@ -285,8 +321,6 @@ function varies(v: Float64Array, w: ArrayLike<number>): boolean {
   return hi - lo > 1e-9;
 }
 
-const nutrientLabel = (n: Nutrient): string => ({ n: 'N', p2o5: 'P2O5', k2o: 'K2O', s: 'S' })[n];
-
 /**
  * Merges neighbouring 1-D classes whose area-weighted mean values differ by less than `pct` % of the overall
  * mean: a rate step that small is not worth a zone boundary (tilth default 5 %, no published source; set
@@ -352,13 +386,6 @@ export function numberRateClasses(
   for (const z of zones) z.rateClass = order.indexOf(sig(z.decision)) + 1;
 }
 
-const PLACEMENT_SHORT: Record<string, string> = {
-  seed_row: 'seed row',
-  side_band: 'side band',
-  mid_row_band: 'mid-row band',
-  broadcast: 'broadcast',
-};
-
 /**
  * What keeps two neighbouring zones apart, for people.
  * @example apartText({ product: 'urea', placement: 'side_band', a: 206, b: 250, diff: 44, min: 21, range: [191, 221] }, 'lb/ac')
@@ -372,7 +399,7 @@ export function apartText(w: ApartReason | null, unit: string): string {
     w.range[0] === w.range[1]
       ? `the soil maps' error does not move the firmer rate (${f(w.range[0])})`
       : `outside ${f(w.range[0])}-${f(w.range[1])} where the soil maps' error moves it`;
-  return `${w.product} ${PLACEMENT_SHORT[w.placement] ?? w.placement} ${f(w.a)} vs ${f(w.b)} ${unit}: differs by ${f(w.diff)} (minimum ${f(w.min)}), ${range}`;
+  return `${w.product} ${PLACEMENT_NAME[w.placement] ?? w.placement} ${f(w.a)} vs ${f(w.b)} ${unit}: differs by ${f(w.diff)} (minimum ${f(w.min)}), ${range}`;
 }
 
 /**

@@ -2,7 +2,7 @@
  * The summary `tilth inspect` prints: field area, UTM zone, sample count and density, and per analyte
  * n / min / median / max / mean / CV with censored counts. Pure; the CLI prints it.
  */
-import { ANALYTE_TERMS } from '../vocabulary.js';
+import { ANALYTE_SAMPLED, ANALYTE_TERMS } from '../vocabulary.js';
 import type { Warning } from '../errors.js';
 import { ANALYTES, type Analyte, type FieldInputs } from '../types.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
@@ -10,11 +10,8 @@ import { describe, type Description } from './describe.js';
 import { HIGH_PH, SALINE_EC_DSM, SLIGHTLY_SALINE_EC_DSM, soilFlagsById } from '../agronomy/soilFlags.js';
 
 /** The inspect table's analyte names and units (src/vocabulary.ts; organic matter and pH without a depth). */
-export const ANALYTE_LABELS: Record<Analyte, { name: string; unit: string }> = Object.fromEntries(
-  Object.entries(ANALYTE_TERMS).map(([a, t]) => [
-    a,
-    { name: a === 'om' || a === 'ph' ? t.short : `${t.short} ${t.depth}`, unit: t.unit },
-  ]),
+const ANALYTE_LABELS: Record<Analyte, { name: string; unit: string }> = Object.fromEntries(
+  ANALYTES.map((a) => [a, { name: ANALYTE_SAMPLED[a], unit: ANALYTE_TERMS[a].unit }]),
 ) as Record<Analyte, { name: string; unit: string }>;
 
 export interface Inspection {

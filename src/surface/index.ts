@@ -41,7 +41,6 @@ export {
   nutrientSurfaces,
   analyteFromName,
   kName,
-  ANALYTE_LABEL,
   SURFACE_METHODS,
   type NutrientSurface,
   type NutrientSurfaceOptions,

@@ -176,44 +176,8 @@ export class KnnGroup {
     this.px = qx;
     this.py = qy;
     for (;;) {
-      if (this.sd.length < this.count) {
-        this.sd = new Float64Array(this.cx.length);
-        this.si2 = new Int32Array(this.cx.length);
-      }
-      const { cx, ci, sd, si2 } = this;
-      const m = this.count;
-      // squared y distances are shared by every query on one row (grid cells): computed once per row
-      if (qy !== this.rowQy || this.rowGen !== this.gen) {
-        if (this.rdy.length < this.cx.length) this.rdy = new Float64Array(this.cx.length);
-        const cy = this.cy,
-          rdy = this.rdy;
-        for (let j = 0; j < m; j++) {
-          const dy = cy[j] - qy;
-          rdy[j] = dy * dy;
-        }
-        this.rowQy = qy;
-        this.rowGen = this.gen;
-      }
-      const rdy = this.rdy;
-      let c = 0;
-      for (let j = 0; j < m; j++) {
-        const dx = cx[j] - qx;
-        const dd = dx * dx + rdy[j];
-        if (dd <= bound) {
-          sd[c] = dd;
-          si2[c] = ci[j];
-          c++;
-        }
-      }
-      if (skip >= 0) {
-        for (let t = 0; t < c; t++)
-          if (si2[t] === skip) {
-            c--;
-            sd[t] = sd[c];
-            si2[t] = si2[c];
-            break;
-          }
-      }
+      const c = this.within(qx, qy, bound, skip);
+      const { sd, si2 } = this;
       if (c < k && bound < maxD2) {
         bound = maxD2;
         continue;
@@ -252,6 +216,51 @@ export class KnnGroup {
       this.expansions++;
       this.gather(this.bxa - 1, this.bxb + 1, this.bya - 1, this.byb + 1);
     }
+  }
+
+  /**
+   * Gathered candidates within squared distance `bound` of (qx, qy), less original index `skip`, into
+   * sd / si2 (unordered); returns how many. Squared y distances are shared by every query on one row
+   * (grid cells): computed once per row.
+   */
+  private within(qx: number, qy: number, bound: number, skip: number): number {
+    if (this.sd.length < this.count) {
+      this.sd = new Float64Array(this.cx.length);
+      this.si2 = new Int32Array(this.cx.length);
+    }
+    const { cx, ci, sd, si2 } = this;
+    const m = this.count;
+    if (qy !== this.rowQy || this.rowGen !== this.gen) {
+      if (this.rdy.length < this.cx.length) this.rdy = new Float64Array(this.cx.length);
+      const cy = this.cy,
+        rdy = this.rdy;
+      for (let j = 0; j < m; j++) {
+        const dy = cy[j] - qy;
+        rdy[j] = dy * dy;
+      }
+      this.rowQy = qy;
+      this.rowGen = this.gen;
+    }
+    const rdy = this.rdy;
+    let c = 0;
+    for (let j = 0; j < m; j++) {
+      const dx = cx[j] - qx;
+      const dd = dx * dx + rdy[j];
+      if (dd <= bound) {
+        sd[c] = dd;
+        si2[c] = ci[j];
+        c++;
+      }
+    }
+    if (skip >= 0)
+      for (let t = 0; t < c; t++)
+        if (si2[t] === skip) {
+          c--;
+          sd[t] = sd[c];
+          si2[t] = si2[c];
+          break;
+        }
+    return c;
   }
 
   /**

@@ -13,16 +13,7 @@ import { zoneSurface } from './zoneSurface.js';
 
 export { kName } from './idwChoice.js';
 import { krigeGrid, krigingCandidate, type KrigingChoiceOptions, type KrigingInfo } from './krigingChoice.js';
-
-/** Label with the canonical unit (src/types.ts), for messages and tables. */
-export const ANALYTE_LABEL: Record<Analyte, string> = {
-  no3_n: 'nitrate-N (lb/ac, 0-24 in)',
-  p: 'P (ppm)',
-  k: 'K (ppm)',
-  so4_s: 'sulphate-S (lb/ac, 0-24 in)',
-  om: 'organic matter (%)',
-  ph: 'pH',
-};
+import { ANALYTE_LABEL } from '../vocabulary.js';
 
 const NAMES: Record<string, Analyte> = {
   no3_n: 'no3_n',

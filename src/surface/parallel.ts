@@ -15,7 +15,10 @@ import { IdwBands, type IdwJob } from './idwBands.js';
 
 /** Worker threads for {@link nutrientSurfaces} (and {@link SurfacePool.start}). */
 export interface SurfaceThreads {
-  /** threads sharing the per-cell work, the calling one included (1: no worker is started) */
+  /**
+   * threads sharing the per-cell work, the calling one included (1: no worker is started); at most one per
+   * `minCells / 2` searched cells are used
+   */
   threads: number;
   /** starts one worker thread running the surface worker entry (dist/surface-worker.mjs, src/surface/worker.ts) */
   startWorker: () => Worker;
@@ -106,9 +109,12 @@ export class SurfacePool {
    * @example const pool = SurfacePool.start({ threads: 2, startWorker }, 640_000); try { ... } finally { pool?.close() }
    */
   static start(threads: SurfaceThreads | undefined, cells: number): SurfacePool | null {
-    if (!threads || !(Math.floor(threads.threads) > 1)) return null;
-    if (cells < (threads.minCells ?? PARALLEL_MIN_CELLS)) return null;
-    return new SurfacePool({ ...threads, threads: Math.floor(threads.threads) });
+    if (!threads) return null;
+    const min = threads.minCells ?? PARALLEL_MIN_CELLS;
+    // at least min / 2 cells per thread: a 64-core machine starts 2 workers for a small field, not 63
+    const n = Math.min(Math.floor(threads.threads), min > 0 ? Math.floor(cells / (min / 2)) : Infinity);
+    if (!(n > 1) || cells < min) return null;
+    return new SurfacePool({ ...threads, threads: n });
   }
 
   /**

@@ -5,7 +5,8 @@
  *   P(value < t) = Phi((t' - mean) / sd),   t' = t, or ln t on the log scale,
  * class probabilities are differences of that at the class limits, and the expected response chance is the sum
  * of class probability x the class's response chance. Where the variance is 0 (a cell on a sample) the value is
- * certain and the chance is 0 or 1. Docs: docs/surface.md, "Maps of how sure the soil test is".
+ * certain and the chance is 0 or 1 (a value exactly at a limit is not below it, as in the rate engine's
+ * classes). Docs: docs/surface.md, "Maps of how sure the soil test is".
  */
 import normalCdf from '@stdlib/stats-base-dists-normal-cdf';
 
@@ -25,6 +26,14 @@ export interface ResponseClasses {
   chance: number[];
 }
 
+/**
+ * P(value < t) for a Gaussian with this mean and sd. With sd 0 (a cell on a sample) the value is certain and
+ * "below" is strict, as the rate engine's half-open classes: a value exactly at t is not below it.
+ */
+function below(t: number, mean: number, sd: number): number {
+  return sd > 0 ? normalCdf(t, mean, sd) : mean < t ? 1 : 0;
+}
+
 /** The threshold on the kriged scale: ln t for log kriging (-Infinity for t <= 0). */
 function scaled(t: number, transform: 'none' | 'log'): number {
   if (transform === 'none') return t;
@@ -42,7 +51,7 @@ export function chanceBelowAt(
   transform: 'none' | 'log' = 'none',
 ): number {
   if (!Number.isFinite(mean) || !(variance >= 0)) return NaN;
-  return normalCdf(scaled(threshold, transform), mean, Math.sqrt(variance));
+  return below(scaled(threshold, transform), mean, Math.sqrt(variance));
 }
 
 /**
@@ -85,7 +94,7 @@ export function classProbabilities(
     let prev = 0,
       e = 0;
     for (let c = 0; c < C; c++) {
-      const cum = limits[c] === Infinity ? 1 : normalCdf(limits[c], m, sd);
+      const cum = limits[c] === Infinity ? 1 : below(limits[c], m, sd);
       const p = Math.max(0, cum - prev);
       probability[c][i] = p;
       e += p * classes.chance[c];

@@ -7,7 +7,8 @@ import type { Tables } from '../agronomy/tables.js';
 import { UserError, type Warning } from '../errors.js';
 import type { PMethod } from '../types.js';
 import { chanceSpec } from '../variability/chance.js';
-import { ANALYTE_LABEL, kName, type NutrientSurface } from './nutrientSurface.js';
+import { ANALYTE_LABEL } from '../vocabulary.js';
+import { kName, type NutrientSurface } from './nutrientSurface.js';
 import { chanceBelow, classProbabilities } from './probability.js';
 
 /**

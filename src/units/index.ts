@@ -36,6 +36,11 @@ export const pFromP2o5 = (p2o5: number): number => p2o5 / P_TO_P2O5;
 export const k2oFromK = (k: number): number => k * K_TO_K2O;
 export const kFromK2o = (k2o: number): number => k2o / K_TO_K2O;
 
+/** kg per tonne (metric ton), SI. */
+export const KG_PER_TONNE = 1000;
+/** kg to tonnes. @example kgToTonnes(2500) // 2.5 */
+export const kgToTonnes = (kg: number): number => kg / KG_PER_TONNE;
+
 export const lbacToKgha = (v: number): number => v * LBAC_TO_KGHA;
 export const kghaToLbac = (v: number): number => v / LBAC_TO_KGHA;
 export const acToHa = (v: number): number => v * HA_PER_AC;
@@ -91,6 +96,8 @@ export const mToFt = (m: number): number => m / M_PER_FT;
 export const M_PER_MI = 1609.344;
 /** Miles per hour to metres per second. */
 export const mphToMs = (mph: number): number => (mph * M_PER_MI) / 3600;
+/** Kilometres per hour to metres per second (1 km/h = 1000 m / 3600 s). @example kmhToMs(18) // 5 */
+export const kmhToMs = (kmh: number): number => kmh / 3.6;
 
 /**
  * ISO 11783-10 process data units. DDI 6 (setpoint mass per area) counts mg/m2 and DDI 1 (setpoint

@@ -13,6 +13,7 @@ import { checkPartsMetres, checkPolygonsLonLat } from './boundary.js';
 import { checkPositions, placeSamples, samePlaceWarning } from './positions.js';
 import { sampleZones } from './sampleZones.js';
 import { soilFlagWarnings } from '../agronomy/soilFlags.js';
+import { m2ToAc } from '../units/index.js';
 
 export interface PrepareOptions {
   /** CSV column map "id=Sample ID,lat=Latitude,..." */
@@ -119,7 +120,7 @@ function enoughSamples(
         message: `only ${k} sample(s) have ${a}; too few to map it.`,
       });
   }
-  const acres = areaM2 / 4046.8564224;
+  const acres = m2ToAc(areaM2);
   if (s.ids.length < 10)
     warnings.push({
       code: 'few-samples',

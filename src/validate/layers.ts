@@ -8,6 +8,7 @@ import { kghaToLbac, kMeqToPpm, lbacToPpm, ppmToLbac, uscmToDsm } from '../units
 import { UNIT_LABEL, type ColumnInfo, type SoilValue, type ValueUnit } from '../io/columns.js';
 import type { RawRecord } from '../io/records.js';
 import type { LabValue } from './values.js';
+import { ANALYTE_NAME } from '../vocabulary.js';
 
 export interface Layer {
   top: number;
@@ -18,12 +19,7 @@ export interface Layer {
 }
 
 export const SOIL_NAMES: Record<SoilValue, string> = {
-  no3_n: 'nitrate-N',
-  p: 'P',
-  k: 'K',
-  so4_s: 'sulphate-S',
-  om: 'organic matter',
-  ph: 'pH',
+  ...ANALYTE_NAME,
   ec: 'soluble salts (EC)',
   carbonate: 'carbonate (free lime)',
 };

@@ -4,12 +4,11 @@
  * beside them, and the column reading for people. Positions are not yet projected or checked against the boundary
  * (src/validate/inputs.ts does that).
  */
-import { ANALYTE_TERMS } from '../vocabulary.js';
+import { ANALYTE_NAME } from '../vocabulary.js';
 import { UserError, type Warning } from '../errors.js';
 import {
   ANALYTES,
   EXTRA_VALUES,
-  type Analyte,
   type ColumnReading,
   type LimeRating,
   type PMethod,
@@ -41,11 +40,6 @@ export interface SampleOptions {
 
 /** Samples before projection (xy is filled by src/validate/inputs.ts). */
 export type SamplesLonLat = Omit<Samples, 'xy'>;
-
-/** Short analyte names for messages (src/vocabulary.ts). */
-export const ANALYTE_NAMES: Record<Analyte, string> = Object.fromEntries(
-  Object.entries(ANALYTE_TERMS).map(([a, t]) => [a, t.short]),
-) as Record<Analyte, string>;
 
 const TEXTURES: Record<string, Texture> = {
   light: 'light',
@@ -273,7 +267,7 @@ function missingWarnings(
         code: 'missing-nutrient',
         file,
         field: a,
-        message: `${file}: no ${ANALYTE_NAMES[a]} column was found; ${ANALYTE_NAMES[a]} is treated as not tested.`,
+        message: `${file}: no ${ANALYTE_NAME[a]} column was found; ${ANALYTE_NAME[a]} is treated as not tested.`,
       });
       continue;
     }
@@ -283,7 +277,7 @@ function missingWarnings(
         code: 'missing-value',
         file,
         field: a,
-        message: `${file}: ${miss.length} sample(s) have no ${ANALYTE_NAMES[a]} value (${abbrev(miss)}).`,
+        message: `${file}: ${miss.length} sample(s) have no ${ANALYTE_NAME[a]} value (${abbrev(miss)}).`,
       });
   }
 }

@@ -22,6 +22,8 @@ export type ChanceSpec =
  * @param crop the crop's table entry (thresholds, K class group)
  * @param tables the tables (P classes and their response chances)
  * @param pMethod the samples' P method (default 'olsen')
+ * @param kelownaFactor modified Kelowna: Olsen class bounds without a published Kelowna bound are multiplied by
+ *   this (plan key soil_test.kelowna_factor; default 1.3)
  * @example chanceSpec('so4_s', tables.crops.canola!, tables) // { kind: 'below', threshold: 20, ... }
  */
 export function chanceSpec(
@@ -29,9 +31,10 @@ export function chanceSpec(
   crop: CropTable,
   tables: Tables,
   pMethod: PMethod = 'olsen',
+  kelownaFactor?: number,
 ): ChanceSpec {
   if (analyte === 'p') {
-    const rows = pClassTable(pMethod, tables);
+    const rows = pClassTable(pMethod, tables, kelownaFactor);
     return {
       kind: 'classes',
       classes: {

@@ -10,8 +10,8 @@ import { nutrientPoints } from '../surface/prepare.js';
 import { krigeGrid, krigingCandidate, type KrigingInfo } from '../surface/krigingChoice.js';
 import { chanceBelow, type KrigedCells } from '../surface/probability.js';
 import type { FitOptions } from './fit.js';
-import { NUTRIENT_LABEL } from './thresholds.js';
-export { CHANCE_BREAKS, chanceClass, chanceClassLabels, chanceColours } from '../report/chanceClasses.js';
+import { ANALYTE_DEPTH_LABEL } from '../vocabulary.js';
+export { chanceClass, chanceClassLabels, chanceColours } from '../report/chanceClasses.js';
 
 /**
  * The assumption every chance map states, one legend line (docs/surface.md gives the rest: the fitted model's
@@ -119,8 +119,12 @@ export function chanceBelowMap(
   };
 }
 
-/** Kriging mean and variance: the surface's own, or kriged here with the surface's model or a fitted one. */
-function krigedCells(
+/**
+ * Kriging mean and variance of a nutrient on the grid: the surface's own when it is kriged, else kriged here with
+ * the surface stage's model (or its refusal), else with a model fitted here; or why there is none.
+ * @example const k = krigedCells(samples, 'p', grid, { surface }); 'refused' in k ? k.refused : k.cells.variance
+ */
+export function krigedCells(
   samples: Pick<Samples, 'xy' | 'values' | 'ids' | 'zone'>,
   analyte: Analyte,
   grid: Grid,
@@ -137,7 +141,7 @@ function krigedCells(
     };
   if (s?.method === 'zones' || samples.zone.some((z) => z !== null))
     return { refused: 'zone-composite samples each stand for a whole zone; kriging needs point samples' };
-  const label = NUTRIENT_LABEL[analyte];
+  const label = ANALYTE_DEPTH_LABEL[analyte];
   const pts = nutrientPoints(samples.xy, samples.values[analyte], samples.ids, label);
   const info =
     s?.kriging && (s.kriging.model || s.kriging.refused)

@@ -16,7 +16,8 @@ import {
   type SulphurFindings,
   type SurfaceForShare,
 } from './lowSpots.js';
-import { NUTRIENT_LABEL, NUTRIENT_UNIT, defaultThreshold, type Threshold } from './thresholds.js';
+import { ANALYTE_DEPTH_LABEL, ANALYTE_UNIT } from '../vocabulary.js';
+import { defaultThreshold, type Threshold } from './thresholds.js';
 import type { ChanceSummary } from './chanceMap.js';
 
 export * from './semivariogram.js';
@@ -35,6 +36,7 @@ export * from './chance.js';
 export * from './lowSpots.js';
 export * from './chanceMap.js';
 export * from './chanceChart.js';
+export * from './responseChance.js';
 
 /** Lags with fewer pairs than this are flagged (common practice). */
 export const MIN_PAIRS = 30;
@@ -144,8 +146,8 @@ export function analyzeVariability(
       : null;
   return {
     nutrient,
-    label: NUTRIENT_LABEL[nutrient],
-    unit: NUTRIENT_UNIT[nutrient],
+    label: ANALYTE_DEPTH_LABEL[nutrient],
+    unit: ANALYTE_UNIT[nutrient],
     stats: { ...stats, ...censoredCounts(values, cens) },
     threshold,
     shareBelow: spots?.shareBelow ?? null,
@@ -184,7 +186,7 @@ function thresholdOf(
   pMethod: PMethod,
 ): Threshold | null {
   if (t === null) return null;
-  if (typeof t === 'number') return { value: t, unit: NUTRIENT_UNIT[nutrient], source: 'set by the user' };
+  if (typeof t === 'number') return { value: t, unit: ANALYTE_UNIT[nutrient], source: 'set by the user' };
   return t ?? defaultThreshold(nutrient, pMethod);
 }
 

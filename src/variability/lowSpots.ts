@@ -7,6 +7,7 @@ import type { Samples } from '../types.js';
 import type { Description } from '../stats/describe.js';
 import { areaShareBelow, sampleShareBelow } from './area-share.js';
 import { S_FLOOR_DEFAULT, S_MARGINAL_UPPER, type Threshold } from './thresholds.js';
+import { M2_PER_AC } from '../units/index.js';
 
 export interface LowSample {
   id: string;
@@ -58,8 +59,6 @@ const NOT_LOW_UNCERTAIN =
   'A sulphate-S test that is low is reliable; one that is not low says little. The test has a large error and ' +
   'fields vary greatly between hilltops, slopes and depressions, so a composite can hide deficient ground ' +
   '(Manitoba Agriculture, Soil Fertility Guide, Sulphur; common practice).';
-
-const M2_PER_AC = 4046.8564224;
 
 /**
  * Samples below the threshold (at it too when inclusive), lowest first, and the shares below it.

@@ -6,7 +6,7 @@
  * that of a square grid with the same density, sqrt(A / n); the median nearest-neighbour distance is reported
  * beside it for irregular layouts.
  */
-import { m2ToAc } from '../units/index.js';
+import { M2_PER_AC, m2ToAc } from '../units/index.js';
 import type { DependenceClass } from './dependence.js';
 import { sampleNeighbours } from '../surface/neighbours.js';
 
@@ -97,7 +97,7 @@ export function samplingAdvice(s: SamplingInput): SamplingAdvice {
   }
   if (!Number.isFinite(halfRange) || s.dependence === 'weak') {
     // 1 ac grids find boundaries that 4-5 ac grids miss: [published] Franzen, NDSU SF-1176-2 (1999)
-    const target = Math.sqrt(4046.8564224); // a 1 ac grid cell
+    const target = Math.sqrt(M2_PER_AC); // a 1 ac grid cell
     return {
       n,
       acresPerSample,
@@ -106,7 +106,7 @@ export function samplingAdvice(s: SamplingInput): SamplingAdvice {
       halfRange,
       verdict: 'no-structure',
       needed: acresPerSample > 1 ? resolve(target) : null,
-      text: `${base} The samples show little or no spatial structure at this spacing (${s.dependence === 'weak' ? 'nugget over 75 % of the sill' : 'no model could be fitted'}): either the field is uniform at this scale, or the pattern is finer than ${fmt(Math.max(spacing, s.firstLag))} m. A map from these samples is little better than the field mean.${acresPerSample > 1 ? ' To find out, sample about 1 per acre (' + Math.ceil(s.areaM2 / 4046.8564224) + ' samples; NDSU SF-1176-2: 1 ac grids find fertility boundaries that 4-5 ac grids miss).' : ''}`,
+      text: `${base} The samples show little or no spatial structure at this spacing (${s.dependence === 'weak' ? 'nugget over 75 % of the sill' : 'no model could be fitted'}): either the field is uniform at this scale, or the pattern is finer than ${fmt(Math.max(spacing, s.firstLag))} m. A map from these samples is little better than the field mean.${acresPerSample > 1 ? ' To find out, sample about 1 per acre (' + Math.ceil(m2ToAc(s.areaM2)) + ' samples; NDSU SF-1176-2: 1 ac grids find fertility boundaries that 4-5 ac grids miss).' : ''}`,
     };
   }
   if (spacing <= halfRange) {

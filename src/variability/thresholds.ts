@@ -59,23 +59,3 @@ export const S_MARGINAL_UPPER = 30;
 /** Default sulphate-S floor for canola, lb S/ac, applied regardless of the soil test (common practice;
  * [published] Canola Encyclopedia: 10-20 lb S/ac whatever the test). */
 export const S_FLOOR_DEFAULT = 10;
-
-/** Units of each analyte's canonical value (src/types.ts). */
-export const NUTRIENT_UNIT: Readonly<Record<Analyte, string>> = {
-  no3_n: 'lb N/ac',
-  p: 'ppm',
-  k: 'ppm',
-  so4_s: 'lb S/ac',
-  om: '%',
-  ph: 'pH',
-};
-
-/** People's names of the analytes. */
-export const NUTRIENT_LABEL: Readonly<Record<Analyte, string>> = {
-  no3_n: 'nitrate-N (0-24 in)',
-  p: 'phosphorus (0-6 in)',
-  k: 'potassium (0-6 in)',
-  so4_s: 'sulphate-S (0-24 in)',
-  om: 'organic matter (0-6 in)',
-  ph: 'pH (0-6 in)',
-};

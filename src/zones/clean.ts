@@ -3,7 +3,7 @@
  * minimum area into the neighbour sharing the longest border. Rasters are row-major, north-up,
  * Int16Array classes with -1 = no class.
  */
-import { M2_PER_AC } from '../units/index.js';
+import { kmhToMs, M2_PER_AC } from '../units/index.js';
 
 /**
  * Smallest zone an applicator can follow, m2: swath width x the distance travelled during one rate
@@ -23,7 +23,7 @@ export function minZoneAreaM2(opts: {
   const { swathM, speedKmh } = opts;
   if (!(swathM > 0) || !(speedKmh > 0))
     throw new RangeError(`swath (${swathM} m) and speed (${speedKmh} km/h) must be positive`);
-  const travel = (speedKmh / 3.6) * (opts.changeSeconds ?? 4);
+  const travel = kmhToMs(speedKmh) * (opts.changeSeconds ?? 4);
   return Math.max(swathM * travel, (opts.floorAc ?? 0.5) * M2_PER_AC);
 }
 

@@ -28,6 +28,7 @@ describe('plan', () => {
           smoothing_passes: 2,
           min_zone_ac: 'auto',
           zone_sets: 'per_product',
+          basis: 'targets',
           min_class_difference_pct: 5,
           min_rate_difference: 'auto',
           min_rate_difference_pct: 10,

@@ -8,7 +8,7 @@ import { Worker } from 'node:worker_threads';
 import { afterEach, describe, expect, it } from 'vitest';
 import { idwSurfaces, type IdwSpec } from '../../src/surface/idw.js';
 import { nutrientSurfaces } from '../../src/surface/nutrientSurface.js';
-import { SurfacePool, type SurfaceThreads } from '../../src/surface/parallel.js';
+import { PARALLEL_MIN_CELLS, SurfacePool, type SurfaceThreads } from '../../src/surface/parallel.js';
 import { fieldGrid } from '../../src/surface/grid.js';
 import { orient } from '../../src/geo/field.js';
 import { startSurfaceWorker } from '../../src/cli/threads.js';
@@ -115,11 +115,16 @@ describe('surface worker threads', () => {
     expect(counts.slice(1)).toEqual([0, 0]);
   });
 
-  it('no pool for one thread or a small grid (below PARALLEL_MIN_CELLS)', () => {
-    const t = { threads: 4, startWorker: startSurfaceWorker };
+  it('no pool for one thread or a small grid (below PARALLEL_MIN_CELLS); at most one thread per half of it', () => {
+    let started = 0;
+    const t = { threads: 64, startWorker: () => (started++, startSurfaceWorker()) };
     expect(SurfacePool.start({ ...t, threads: 1 }, 10_000_000)).toBeNull();
-    expect(SurfacePool.start(t, 1000)).toBeNull();
+    expect(SurfacePool.start(t, PARALLEL_MIN_CELLS - 1)).toBeNull();
     expect(SurfacePool.start(undefined, 10_000_000)).toBeNull();
+    expect(started).toBe(0);
+    const p = SurfacePool.start(t, 2 * PARALLEL_MIN_CELLS)!; // room for 4 threads: 3 workers
+    pools.push(p);
+    expect(started).toBe(3);
   });
 });
 

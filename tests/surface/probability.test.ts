@@ -22,7 +22,14 @@ describe('chance maps', () => {
 
   it('variance 0 (a cell on a sample): the chance is 0 or 1', () => {
     expect(chanceBelowAt(19.9, 0, 20)).toBe(1);
-    expect(chanceBelowAt(20, 0, 20)).toBe(1); // with sd 0 the value 20 counts as below 20 here; classes use differences, see below
+    expect(chanceBelowAt(20, 0, 20)).toBe(0); // a certain 20 is not below 20, as in the rate engine's classes
+    // and a certain value on a class limit is in the upper class ([limit, next limit), as src/agronomy classes)
+    const r = classProbabilities(
+      { mean: [10], variance: [0], transform: 'none' },
+      { names: ['low', 'medium', 'high'], below: [10, 20, null], chance: [0.75, 0.5, 0.2] },
+    );
+    expect(r.probability.map((p) => p[0])).toEqual([0, 1, 0]);
+    expect(r.expected[0]).toBe(0.5);
     expect(chanceBelowAt(20.1, 0, 20)).toBe(0);
   });
 

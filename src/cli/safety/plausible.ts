@@ -6,6 +6,7 @@
 import type { Warning } from '../../errors.js';
 import type { Analyte, Samples } from '../../types.js';
 import { sampleNeighbours } from '../../surface/neighbours.js';
+import { ANALYTE_NAME } from '../../vocabulary.js';
 
 /**
  * Plausible ranges in tilth's canonical units (common practice, prairie soil tests: values beyond these come
@@ -24,15 +25,6 @@ export const PLAUSIBLE: Record<Analyte, { min: number; max: number; unit: string
 /** Modified Kelowna P reads higher than Olsen: up to 300 ppm. */
 export const PLAUSIBLE_P_KELOWNA_MAX = 300;
 
-const NAMES: Record<Analyte, string> = {
-  no3_n: 'nitrate-N',
-  p: 'P',
-  k: 'K',
-  so4_s: 'sulphate-S',
-  om: 'organic matter',
-  ph: 'pH',
-};
-
 /**
  * Values outside {@link PLAUSIBLE}, one message each (at most `limit`), naming the sample, its row and the fix.
  * @example implausibleValues(samples) // ['samples.csv rows 12-13, sample "HQ-06": P 1500 ppm (Olsen) is outside 0-200 ...']
@@ -49,7 +41,7 @@ export function implausibleValues(s: Samples, limit = 5): string[] {
       const x = v[i]!;
       if (Number.isNaN(x) || (x >= r.min && x <= max)) continue;
       out.push(
-        `${s.origin[i] ?? `sample ${i + 1}`}, sample "${s.ids[i]}": ${NAMES[a]} ${x} ${unit} is outside the plausible ${r.min}-${max} (common practice); a typing or unit error? Fix: correct the value, or leave the cell empty if it was not tested.`,
+        `${s.origin[i] ?? `sample ${i + 1}`}, sample "${s.ids[i]}": ${ANALYTE_NAME[a]} ${x} ${unit} is outside the plausible ${r.min}-${max} (common practice); a typing or unit error? Fix: correct the value, or leave the cell empty if it was not tested.`,
       );
     }
   }
@@ -174,7 +166,7 @@ export function neighbourOutliers(
       file,
       field: f.analyte,
       where: named.join('; '),
-      message: `${file}: ${NAMES[f.analyte]} of sample${k > 1 ? 's' : ''} ${list} ${test}${tail}`,
+      message: `${file}: ${ANALYTE_NAME[f.analyte]} of sample${k > 1 ? 's' : ''} ${list} ${test}${tail}`,
     };
   });
 }

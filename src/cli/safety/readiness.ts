@@ -13,18 +13,11 @@ import {
   neighbourOutliers,
   type OutlierMode,
 } from './plausible.js';
+import { ANALYTE_NAME } from '../../vocabulary.js';
 
 /** Samples all within this distance of each other count as one place: 1 m (GPS error of a sampling probe). */
 export const ONE_PLACE_M = 1;
 
-const NAMES: Record<string, string> = {
-  no3_n: 'nitrate-N',
-  p: 'P',
-  k: 'K',
-  so4_s: 'sulphate-S',
-  om: 'organic matter',
-  ph: 'pH',
-};
 const SOIL_NUTRIENTS: Analyte[] = ['no3_n', 'p', 'k', 'so4_s'];
 
 /** Soil values a plan's strategy reads (a strategy of `none`, or P by removal, reads none). */
@@ -56,7 +49,7 @@ export function readinessProblems(
   if (typeof need === 'string') {
     if (!v[need] || !usable(v[need]))
       out.push(
-        `${samplesFile}: no usable ${NAMES[need] ?? need} value (no such column was recognised, or every value is empty). Fix: check the header row (see \`tilth inspect\`), or map the column with --columns.`,
+        `${samplesFile}: no usable ${(ANALYTE_NAME as Record<string, string>)[need] ?? need} value (no such column was recognised, or every value is empty). Fix: check the header row (see \`tilth inspect\`), or map the column with --columns.`,
       );
   } else if (!SOIL_NUTRIENTS.some((a) => v[a] && usable(v[a]))) {
     out.push(
@@ -66,7 +59,7 @@ export function readinessProblems(
     for (const a of nutrientsNeeded(need)) {
       if (!v[a] || !usable(v[a]))
         out.push(
-          `${samplesFile}: no usable ${NAMES[a]} value, and the plan's ${NAMES[a]} strategy needs one. Fix: add the ${NAMES[a]} results, or set strategy.${a === 'no3_n' ? 'n' : a === 'so4_s' ? 's' : a}.method to none in the plan.`,
+          `${samplesFile}: no usable ${ANALYTE_NAME[a]} value, and the plan's ${ANALYTE_NAME[a]} strategy needs one. Fix: add the ${ANALYTE_NAME[a]} results, or set strategy.${a === 'no3_n' ? 'n' : a === 'so4_s' ? 's' : a}.method to none in the plan.`,
         );
     }
   }
