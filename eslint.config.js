@@ -20,23 +20,6 @@ const node = Object.fromEntries(
   ].map((g) => [g, 'readonly']),
 );
 
-/**
- * Functions still longer than 80 lines, to be split into named steps (each file's long functions are reported as
- * warnings until then). Take a file off this list when it is split; never add one.
- */
-const TO_SPLIT = [
-  'src/zones/arcs.ts', // zoneArcs
-  'src/zones/classify.ts', // classifyVectors
-  'src/zones/clean.ts', // mergeSmallZones
-  'src/zones/index.ts', // makeZones
-];
-
-/** Files still over 400 lines since the whole code base went through Prettier; same rule: split, never add. */
-const TO_SHORTEN = [
-  'src/zones/classify.ts',
-  'src/zones/index.ts',
-];
-
 export default tseslint.config(
   { ignores: ['dist/', 'node_modules/', 'out/', 'coverage/', 'test-artifacts/', 'bench-results/', '.tmp/'] },
   js.configs.recommended,
@@ -54,14 +37,6 @@ export default tseslint.config(
       // `let x = null` before branches that all assign it is this code base's style for readable flow
       'no-useless-assignment': 'off',
     },
-  },
-  {
-    files: TO_SPLIT,
-    rules: { 'max-lines-per-function': ['warn', { max: 80, skipBlankLines: true, skipComments: true }] },
-  },
-  {
-    files: TO_SHORTEN,
-    rules: { 'max-lines': ['warn', { max: 400, skipBlankLines: true, skipComments: true }] },
   },
   // jsts ships no types
   { files: ['src/zones/clip.ts'], rules: { '@typescript-eslint/no-explicit-any': 'off' } },

@@ -5,6 +5,7 @@
 import { parse as parseYaml } from 'yaml';
 import { z } from 'zod';
 import { UserError } from '../errors.js';
+import { parseLength, parseSpeed, type Length, type Speed } from '../units/index.js';
 import { PLACEMENTS, type Tables } from './tables.js';
 
 const placement = z.enum(PLACEMENTS);
@@ -24,6 +25,64 @@ const productChoice = z
     step: z.number().min(0).default(1),
   })
   .strict();
+
+/** The machine section as written in a plan. */
+interface MachineInput {
+  swath_width?: string | number;
+  speed?: string | number;
+  swath_width_ft?: number;
+  speed_mph?: number;
+  rate_change_s: number;
+}
+
+/** The machine section read: swath and speed with the unit they were given in, and where they came from. */
+export interface MachineSettings {
+  swath: Length;
+  speed: Speed;
+  /** seconds the controller takes to change rate */
+  rate_change_s: number;
+  /** the plan key each came from, or "default" */
+  swathFrom: 'swath_width' | 'swath_width_ft' | 'default';
+  speedFrom: 'speed' | 'speed_mph' | 'default';
+}
+
+type Issues = { addIssue(i: { code: 'custom'; message: string; path: string[]; input: unknown }): void };
+
+/**
+ * Reads the plan's machine settings: `swath_width` ("60 ft", "18 m") and `speed` ("5 mph", "8 km/h") with their
+ * units, or the older `swath_width_ft` and `speed_mph` numbers; one of each at most. Defaults 60 ft and 5 mph.
+ * @example machineSettings({ speed: '13 km/h', rate_change_s: 4 }, ctx).speed // { value: 13, unit: 'km/h' }
+ */
+function machineSettings(m: MachineInput, ctx: Issues): MachineSettings {
+  const issue = (key: string, message: string) =>
+    ctx.addIssue({
+      code: 'custom',
+      message,
+      path: [key],
+      input: (m as unknown as Record<string, unknown>)[key],
+    });
+  let swath: Length = { value: 60, unit: 'ft' },
+    speed: Speed = { value: 5, unit: 'mph' };
+  let swathFrom: MachineSettings['swathFrom'] = 'default',
+    speedFrom: MachineSettings['speedFrom'] = 'default';
+  if (m.swath_width !== undefined && m.swath_width_ft !== undefined)
+    issue('swath_width', 'swath_width_ft gives the swath too; keep one (swath_width with its unit)');
+  else if (m.swath_width !== undefined) {
+    const l = parseLength(m.swath_width);
+    if (l && l.value > 0) [swath, swathFrom] = [l, 'swath_width'];
+    else issue('swath_width', 'give the swath width with its unit, e.g. 60 ft or 18 m');
+  } else if (m.swath_width_ft !== undefined)
+    [swath, swathFrom] = [{ value: m.swath_width_ft, unit: 'ft' }, 'swath_width_ft'];
+  if (m.speed !== undefined && m.speed_mph !== undefined)
+    issue('speed', 'speed_mph gives the speed too; keep one (speed with its unit)');
+  else if (m.speed !== undefined) {
+    const s = parseSpeed(m.speed);
+    if (s && s.value > 0) [speed, speedFrom] = [s, 'speed'];
+    else issue('speed', 'give the travel speed with its unit, e.g. 5 mph or 8 km/h');
+  } else if (m.speed_mph !== undefined)
+    [speed, speedFrom] = [{ value: m.speed_mph, unit: 'mph' }, 'speed_mph'];
+  return { swath, speed, rate_change_s: m.rate_change_s, swathFrom, speedFrom };
+}
 
 export const planSchema = z
   .object({
@@ -149,14 +208,21 @@ export const planSchema = z
       ])
       .nullable()
       .default(null),
+    /**
+     * The machine: swath and speed with their units ("60 ft" or "18 m", "5 mph" or "8 km/h"; default 60 ft and
+     * 5 mph), or the older keys swath_width_ft and speed_mph; read into `swath` and `speed` (see machineSettings).
+     */
     machine: z
       .object({
-        swath_width_ft: z.number().positive().default(60),
-        speed_mph: z.number().positive().default(5),
+        swath_width: z.union([z.string(), z.number()]).optional(),
+        speed: z.union([z.string(), z.number()]).optional(),
+        swath_width_ft: z.number().positive().optional(),
+        speed_mph: z.number().positive().optional(),
         rate_change_s: z.number().min(0).default(4),
       })
       .strict()
-      .prefault({}),
+      .prefault({})
+      .transform(machineSettings),
     /** how each nutrient's soil-test surface is interpolated (docs/surface.md) */
     surface: z
       .object({

@@ -147,9 +147,9 @@ ${productsSection(tables, units)}
 unsampled_parts: null         # boundary parts more than 1000 m from every sample: null = refuse the build; none = no product there;
                               # or rates in ${units}: { urea: 80, map: { rate: 40, placement: side_band } } (default placement: the first outside the seed row)
 
-machine:
-  swath_width_ft: 60
-  speed_mph: 5
+machine:                      # each with its unit; older plans' swath_width_ft and speed_mph are still read
+  swath_width: 60 ft          # ft or m, e.g. 18 m
+  speed: 5 mph                # mph or km/h, e.g. 8 km/h
   rate_change_s: 4            # seconds the controller takes to change rate
 
 surface:

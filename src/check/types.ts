@@ -1,4 +1,5 @@
 /** The report of `tilth check` and its options. */
+import type { Length, Speed } from '../units/index.js';
 import type { CheckLayer } from './layer.js';
 
 export type CheckStatus = 'pass' | 'warn' | 'fail' | 'skip';
@@ -42,9 +43,13 @@ export interface CheckOptions {
   min?: number;
   /** machine's highest rate */
   max?: number;
-  /** travel speed, km/h: enables the zone size check */
+  /** travel speed with its unit (`parseSpeed`): enables the zone size check; the report names it as given */
+  speed?: Speed;
+  /** swath width with its unit (`parseLength`): adds "zone smaller than one rate change x swath" to the size check */
+  swath?: Length;
+  /** travel speed, km/h, when `speed` is not given */
   speedKmh?: number;
-  /** swath width, m: adds "zone smaller than one rate change x swath" to the size check */
+  /** swath width, m, when `swath` is not given */
   swathM?: number;
   /** seconds to reach a new rate (default {@link DEFAULT_TRANSITION_S}) */
   transitionS?: number;

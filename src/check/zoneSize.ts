@@ -1,18 +1,24 @@
 /** Check `zone_size`: every zone is long (and wide) enough to reach its rate at the travel speed. */
 import { DEFAULT_TRANSITION_S, fmt, list, type CheckContext } from './context.js';
 import { hullExtent, polysArea } from './shape.js';
-import { kmhToMs } from '../units/index.js';
+import { lengthM, quantityText, speedMs, type Length, type Speed } from '../units/index.js';
 
 /**
- * Adds the `zone_size` line (skipped without `opts.speedKmh`): a rate change takes transitionS seconds, so a
- * zone shorter than speed x transition never reaches its rate.
+ * Adds the `zone_size` line (skipped without a speed): a rate change takes transitionS seconds, so a zone shorter
+ * than speed x transition never reaches its rate. Speed and swath are named as given (mph and ft with km/h and m).
  * @example checkZoneSize(ctx)
  */
 export function checkZoneSize(ctx: CheckContext): void {
-  if (ctx.opts.speedKmh === undefined) ctx.add('zone_size', 'skip', 'no --speed given');
+  const o = ctx.opts;
+  const speed: Speed | undefined =
+    o.speed ?? (o.speedKmh === undefined ? undefined : { value: o.speedKmh, unit: 'km/h' });
+  const swath: Length | undefined =
+    o.swath ?? (o.swathM === undefined ? undefined : { value: o.swathM, unit: 'm' });
+  if (speed === undefined) ctx.add('zone_size', 'skip', 'no --speed given');
   else {
     const t = ctx.opts.transitionS ?? DEFAULT_TRANSITION_S;
-    const d = kmhToMs(ctx.opts.speedKmh) * t;
+    const d = speedMs(speed) * t;
+    const swathM = swath && lengthM(swath);
     const tooShort: string[] = [],
       narrow: string[] = [],
       tiny: string[] = [];
@@ -25,7 +31,7 @@ export function checkZoneSize(ctx: CheckContext): void {
           tooShort.push(`${ctx.names[i]} (${fmt(diameter)} m)`);
           return;
         }
-        if (ctx.opts.swathM !== undefined && a < d * ctx.opts.swathM) {
+        if (swathM !== undefined && a < d * swathM) {
           tiny.push(`${ctx.names[i]} (${fmt(a)} m2)`);
           return;
         }
@@ -35,11 +41,11 @@ export function checkZoneSize(ctx: CheckContext): void {
         }
       }
     });
-    const head = `at ${ctx.opts.speedKmh} km/h a rate change takes ${t} s = ${fmt(d)} m`;
+    const head = `at ${quantityText(speed)} a rate change takes ${t} s = ${fmt(d)} m`;
     if (tooShort.length || tiny.length) {
       const parts = [
         tooShort.length ? `no part longer than that: ${list(tooShort)}` : '',
-        tiny.length ? `smaller than ${fmt(d)} m x ${ctx.opts.swathM} m swath: ${list(tiny)}` : '',
+        tiny.length ? `smaller than ${fmt(d)} m x ${quantityText(swath!)} swath: ${list(tiny)}` : '',
       ].filter(Boolean);
       ctx.add(
         'zone_size',

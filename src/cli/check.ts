@@ -11,7 +11,7 @@ import {
 } from '../check/index.js';
 import { isTaskDataXml, layersFromTaskDataFiles } from '../check/taskdata.js';
 import { readZip, TASKDATA_ZIP_LIMITS } from '../io/zip.js';
-import { numberOption, out, readInput } from './util.js';
+import { lengthOption, numberOption, out, readInput, speedOption } from './util.js';
 import { checkOrder } from './safety/budgets.js';
 
 /** Reads FILE and, for a .shp, the files of its set beside it (same base name, any letter case). */
@@ -92,8 +92,14 @@ export function register(program: Command): void {
     )
     .option('--min <rate>', "machine's lowest rate above 0 (0 = off always passes); no default")
     .option('--max <rate>', "machine's highest rate; no default")
-    .option('--speed <kmh>', 'travel speed, km/h: flags zones too short to reach their rate; no default')
-    .option('--swath <m>', 'swath width, m: also flags zones smaller than one rate change x swath')
+    .option(
+      '--speed <speed>',
+      'travel speed with its unit, e.g. 13km/h or 8mph (a plain number is km/h): flags zones too short to reach their rate; no default',
+    )
+    .option(
+      '--swath <width>',
+      'swath width with its unit, e.g. 18m or 60ft (a plain number is m): also flags zones smaller than one rate change x swath',
+    )
     .option(
       '--transition <s>',
       `seconds the controller needs to reach a new rate (common practice 3-5 s)`,
@@ -103,7 +109,7 @@ export function register(program: Command): void {
     .option('--json', 'print the report as JSON for scripts')
     .addHelpText(
       'after',
-      '\nExamples:\n  tilth check out/shapefiles/rx_side_band.zip --boundary boundary.geojson --min 40 --max 250 --speed 12\n' +
+      '\nExamples:\n  tilth check out/shapefiles/rx_side_band.zip --boundary boundary.geojson --min 40 --max 250 --speed 8mph --swath 60ft\n' +
         '  tilth check rx.shp --rate-field N_RATE --strict --json\n' +
         '  tilth check out/taskdata.zip --boundary boundary.geojson --max 250   (task data: one report per task and product, rates in kg/ha or L/ha)',
     )
@@ -111,8 +117,8 @@ export function register(program: Command): void {
       const min = numberOption('--min', o.min, { min: 0 });
       const max = numberOption('--max', o.max, { min: 0 });
       checkOrder('--min', min, '--max', max);
-      const speedKmh = numberOption('--speed', o.speed, { min: 0.1, max: 100 });
-      const swathM = numberOption('--swath', o.swath, { min: 0.1, max: 200 });
+      const speed = speedOption('--speed', o.speed, [0.1, 100]);
+      const swath = lengthOption('--swath', o.swath, [0.1, 200]);
       const transitionS = numberOption('--transition', o.transition, { min: 0, max: 60 });
       const taskLayers = loadTaskData(file);
       const layers = taskLayers ?? [await loadLayer(file, 'prescription')];
@@ -123,8 +129,8 @@ export function register(program: Command): void {
           rateField: o.rateField,
           min,
           max,
-          speedKmh,
-          swathM,
+          speed,
+          swath,
           transitionS,
           strict: !!o.strict,
         }),

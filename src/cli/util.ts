@@ -8,13 +8,9 @@ import { terminalSafe } from './safety/stdio.js';
 import { checkInputSize } from './safety/sizes.js';
 
 // output writing lives in ./safety/ (never lose a user's files); re-exported for the commands
-export { checkOutputDir, writeOutputDir, type OutputDirOptions } from './safety/outdir.js';
-export {
-  checkOutputFile,
-  writeFileAtomic,
-  writeOutputFile,
-  type OutputFileOptions,
-} from './safety/outfile.js';
+export { checkOutputDir, writeOutputDir } from './safety/outdir.js';
+export { checkOutputFile, writeOutputFile } from './safety/outfile.js';
+import { lengthM, parseLength, parseSpeed, speedKmh, type Length, type Speed } from '../units/index.js';
 
 /** Reads a whole file; a missing or unreadable file, or one over its kind's size limit (./safety/sizes.ts), is a UserError naming it and the fix. */
 export function readInput(path: string, what: string): Buffer {
@@ -84,6 +80,46 @@ export function numberOption(
     );
   }
   return v;
+}
+
+/**
+ * Parses a speed option with its unit ("8mph", "13km/h"; a plain number is km/h) or throws a UserError naming
+ * the option; `range` is in km/h.
+ * @example speedOption('--speed', '8mph', [0.1, 100]) // { value: 8, unit: 'mph' }
+ */
+export function speedOption(
+  name: string,
+  value: string | undefined,
+  range: [number, number],
+): Speed | undefined {
+  if (value === undefined) return undefined;
+  const s = parseSpeed(value, 'km/h');
+  const kmh = s && speedKmh(s);
+  if (!s || !(kmh! >= range[0] && kmh! <= range[1]))
+    throw new UserError(
+      `option ${name}: "${value}" is not a speed from ${range[0]} to ${range[1]} km/h. Fix: give it with its unit, e.g. ${name} 13km/h or ${name} 8mph (a plain number is km/h).`,
+    );
+  return s;
+}
+
+/**
+ * Parses a length option with its unit ("60ft", "18m"; a plain number is metres) or throws a UserError naming
+ * the option; `range` is in metres.
+ * @example lengthOption('--swath', '60ft', [0.1, 200]) // { value: 60, unit: 'ft' }
+ */
+export function lengthOption(
+  name: string,
+  value: string | undefined,
+  range: [number, number],
+): Length | undefined {
+  if (value === undefined) return undefined;
+  const l = parseLength(value, 'm');
+  const m = l && lengthM(l);
+  if (!l || !(m! >= range[0] && m! <= range[1]))
+    throw new UserError(
+      `option ${name}: "${value}" is not a length from ${range[0]} to ${range[1]} m. Fix: give it with its unit, e.g. ${name} 18m or ${name} 60ft (a plain number is metres).`,
+    );
+  return l;
 }
 
 /** The caution every command's help shows (src/vocabulary.ts). */

@@ -289,6 +289,7 @@ function designObject(d: ZoneDesign): unknown {
     min_zone_area: {
       used_ac: round(m2ToAc(m.usedM2), 3),
       machine_ac: round(m2ToAc(m.machineM2), 3),
+      machine: { swath: m.machine.swath, speed: m.machine.speed, rate_change_s: m.machine.rateChangeS },
       per_sample_ac: round(m2ToAc(m.perSampleM2), 3),
       grid_samples: m.gridSamples,
       from_plan: m.fromPlan,

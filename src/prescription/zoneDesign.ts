@@ -13,7 +13,7 @@ import { forEachNeighbourBand } from '../surface/neighbours.js';
 import { classify, classifyVectors, type Classes } from '../zones/classify.js';
 import { makeZones, type ZoneSet } from '../zones/index.js';
 import type { Analyte, FieldInputs, Grid } from '../types.js';
-import { M2_PER_AC, M_PER_FT, m2ToAc, mphToMs } from '../units/index.js';
+import { lengthM, M2_PER_AC, m2ToAc, quantityText, speedMs } from '../units/index.js';
 import { NUTRIENT_NAME, PLACEMENT_NAME } from '../vocabulary.js';
 import { rateJudge, type ApartReason, type ZoneProfile } from './rateJudge.js';
 import {
@@ -41,6 +41,8 @@ export interface ZoneDesign {
 export interface MinZoneArea {
   /** swath x distance travelled while the controller changes rate */
   machineM2: number;
+  /** the machine settings that area comes from, as the plan gave them: swath, speed, seconds to change rate */
+  machine: { swath: string; speed: string; rateChangeS: number };
   /** field area / grid samples inside the field (0 when no sample is inside) */
   perSampleM2: number;
   gridSamples: number;
@@ -55,14 +57,18 @@ export interface MinZoneArea {
  * @example minZoneArea(plan, 627000, 62).usedM2 // 10113 m2 (2.5 ac): one sample per 2.5 ac
  */
 export function minZoneArea(plan: Plan, fieldAreaM2: number, gridSamples: number): MinZoneArea {
-  const machineM2 =
-    plan.machine.swath_width_ft * M_PER_FT * mphToMs(plan.machine.speed_mph) * plan.machine.rate_change_s;
+  const machineM2 = lengthM(plan.machine.swath) * speedMs(plan.machine.speed) * plan.machine.rate_change_s;
   const perSampleM2 = gridSamples > 0 ? fieldAreaM2 / gridSamples : 0;
   const fromPlan = plan.zoning.min_zone_ac !== 'auto';
   const usedM2 = fromPlan
     ? (plan.zoning.min_zone_ac as number) * M2_PER_AC
     : Math.max(machineM2, perSampleM2);
-  return { machineM2, perSampleM2, gridSamples, usedM2, fromPlan };
+  const machine = {
+    swath: quantityText(plan.machine.swath, false),
+    speed: quantityText(plan.machine.speed, false),
+    rateChangeS: plan.machine.rate_change_s,
+  };
+  return { machineM2, machine, perSampleM2, gridSamples, usedM2, fromPlan };
 }
 
 export interface DesignInputs {
@@ -412,8 +418,8 @@ export function designLines(d: ZoneDesign, unit: string): string[] {
   const lines = [`  why: ${d.why}`];
   lines.push(
     m.fromPlan
-      ? `  minimum zone area ${ac(m.usedM2)} from plan key zoning.min_zone_ac (machine ${ac(m.machineM2)}, one grid sample's area ${ac(m.perSampleM2)})`
-      : `  minimum zone area ${ac(m.usedM2)}: the larger of the machine's ${ac(m.machineM2)} (swath x distance travelled during a rate change) and one grid sample's area ${ac(m.perSampleM2)} (field / ${m.gridSamples} samples)`,
+      ? `  minimum zone area ${ac(m.usedM2)} from plan key zoning.min_zone_ac (machine ${ac(m.machineM2)} at ${m.machine.swath} x ${m.machine.speed} x ${m.machine.rateChangeS} s, one grid sample's area ${ac(m.perSampleM2)})`
+      : `  minimum zone area ${ac(m.usedM2)}: the larger of the machine's ${ac(m.machineM2)} (swath x distance travelled during a rate change: ${m.machine.swath} x ${m.machine.speed} x ${m.machine.rateChangeS} s) and one grid sample's area ${ac(m.perSampleM2)} (field / ${m.gridSamples} samples)`,
   );
   lines.push(
     `  minimum rate differences (${unit}): ${

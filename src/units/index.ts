@@ -120,3 +120,89 @@ export const kgPerLToMgPerL = (v: number): number => v * 1e6;
 export const L_PER_US_GAL = 3.785411784;
 /** L/ha to US gal/ac. @example lhaToGalac(93.54) // ~10 */
 export const lhaToGalac = (v: number): number => (v / L_PER_US_GAL) * HA_PER_AC;
+
+/** Speed units tilth reads: kilometres or (international) miles per hour. */
+export type SpeedUnit = 'km/h' | 'mph';
+/** Length units tilth reads for a swath: metres or (international) feet. */
+export type LengthUnit = 'm' | 'ft';
+/** A speed as given, with its unit (convert with {@link speedMs}). */
+export interface Speed {
+  value: number;
+  unit: SpeedUnit;
+}
+/** A length as given, with its unit (convert with {@link lengthM}). */
+export interface Length {
+  value: number;
+  unit: LengthUnit;
+}
+
+const SPEED_NAMES: Record<string, SpeedUnit> = {
+  'km/h': 'km/h',
+  kmh: 'km/h',
+  kph: 'km/h',
+  'km/hr': 'km/h',
+  mph: 'mph',
+  'mi/h': 'mph',
+};
+const LENGTH_NAMES: Record<string, LengthUnit> = {
+  m: 'm',
+  metre: 'm',
+  metres: 'm',
+  meter: 'm',
+  meters: 'm',
+  ft: 'ft',
+  feet: 'ft',
+  foot: 'ft',
+};
+
+/** "8mph", "8 mph", "13 km/h", or a plain number in `plain`; undefined when it is none of these. */
+function parseQuantity<U extends string>(
+  text: string | number,
+  names: Record<string, U>,
+  plain: U | undefined,
+): { value: number; unit: U } | undefined {
+  if (typeof text === 'number')
+    return plain && Number.isFinite(text) ? { value: text, unit: plain } : undefined;
+  const m = /^\s*([0-9]+(?:\.[0-9]*)?|\.[0-9]+)\s*([A-Za-z/]*)\s*$/.exec(text);
+  if (!m) return undefined;
+  const value = Number(m[1]);
+  const unit = m[2] ? names[m[2].toLowerCase()] : plain;
+  return unit && Number.isFinite(value) ? { value, unit } : undefined;
+}
+
+/**
+ * Reads a speed with its unit: "8mph", "8 mph", "13km/h", "13 kph". A plain number (or number text) is in
+ * `plain`; without `plain` a unit is required. Undefined when the text is not a speed.
+ * @example parseSpeed('8mph') // { value: 8, unit: 'mph' }; parseSpeed('12', 'km/h') // { value: 12, unit: 'km/h' }
+ */
+export function parseSpeed(text: string | number, plain?: SpeedUnit): Speed | undefined {
+  return parseQuantity(text, SPEED_NAMES, plain);
+}
+
+/**
+ * Reads a length with its unit: "60ft", "60 ft", "18m", "18 metres". A plain number (or number text) is in
+ * `plain`; without `plain` a unit is required. Undefined when the text is not a length.
+ * @example parseLength('60ft') // { value: 60, unit: 'ft' }; parseLength('18', 'm') // { value: 18, unit: 'm' }
+ */
+export function parseLength(text: string | number, plain?: LengthUnit): Length | undefined {
+  return parseQuantity(text, LENGTH_NAMES, plain);
+}
+
+/** A speed in m/s. @example speedMs({ value: 18, unit: 'km/h' }) // 5 */
+export const speedMs = (s: Speed): number => (s.unit === 'mph' ? mphToMs(s.value) : kmhToMs(s.value));
+/** A speed in km/h. @example speedKmh({ value: 5, unit: 'mph' }) // 8.04672 */
+export const speedKmh = (s: Speed): number => (s.unit === 'mph' ? (s.value * M_PER_MI) / 1000 : s.value);
+/** A length in metres. @example lengthM({ value: 60, unit: 'ft' }) // 18.288 */
+export const lengthM = (l: Length): number => (l.unit === 'ft' ? l.value * M_PER_FT : l.value);
+
+/**
+ * A speed or length as given, with the metric value beside one given in mph or ft.
+ * @example quantityText({ value: 8, unit: 'mph' }) // '8 mph (12.9 km/h)'; quantityText({ value: 18, unit: 'm' }) // '18 m'
+ */
+export function quantityText(q: Speed | Length, metric = true): string {
+  const given = `${q.value} ${q.unit}`;
+  if (!metric || q.unit === 'km/h' || q.unit === 'm') return given;
+  return q.unit === 'mph'
+    ? `${given} (${speedKmh(q as Speed).toFixed(1)} km/h)`
+    : `${given} (${lengthM(q as Length).toFixed(1)} m)`;
+}

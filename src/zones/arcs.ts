@@ -5,16 +5,7 @@
  * no gap or overlap can open between them. Nodes are grid corners, keyed `j * W + i` (W = cols + 1).
  */
 import type { RingsPart } from '../types.js';
-import { pointInRing, ringArea } from '../geo/area.js';
-import type { RasterFrame } from './trace.js';
-
-// directions: 0 east, 1 north, 2 west, 3 south (j counts rows downwards); cell ahead-left / ahead-right
-const DI = [1, 0, -1, 0],
-  DJ = [0, -1, 0, 1];
-const LCX = [0, -1, -1, 0],
-  LCY = [-1, -1, 0, 0];
-const RCX = [0, 0, -1, -1],
-  RCY = [0, -1, -1, 0];
+import { keysToRing, ringsToParts, walkRings, type RasterFrame } from './trace.js';
 
 /** The arcs of a zone raster and each zone's rings as arcs. */
 export interface ZoneArcs {
@@ -40,9 +31,33 @@ export interface ZoneArcs {
  * @example const a = zoneArcs(merged.zone, merged.count, grid); a.rings[0][0] // [1, -3, 4]
  */
 export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneArcs {
+  const W = f.cols + 1;
+  const out: ZoneArcs = {
+    W,
+    arcs: [],
+    fixed: [],
+    closed: [],
+    left: [],
+    right: [],
+    rings: Array.from({ length: count }, () => []),
+  };
+  const nodes = nodeTests(zone, f);
+  const register = arcRegister(out, W * (f.rows + 1), nodes.rightOf);
+  for (const [z, loop] of walkRings(zone, count, f, false)) {
+    const js: number[] = [];
+    for (let t = 0; t < loop.length; t++) if (nodes.isJunction(loop[t])) js.push(t);
+    out.rings[z].push(js.length === 0 ? closedRing(out, loop, z, register) : cutRing(loop, js, z, register));
+  }
+  return out;
+}
+
+/** Adds an arc walked by zone z (or finds it, walked the other way by the neighbour); returns its reference. */
+type Register = (nodes: number[], closed: boolean, z: number) => number;
+
+/** What the zones around a grid node (key j * W + i) are: whether it is a junction, the zone right of an edge. */
+function nodeTests(zone: Int32Array, f: RasterFrame) {
   const { cols, rows } = f;
-  const W = cols + 1,
-    V = W * (rows + 1);
+  const W = cols + 1;
   const lab = (c: number, r: number) => (c < 0 || r < 0 || c >= cols || r >= rows ? -1 : zone[r * cols + c]);
   const isJunction = (key: number): boolean => {
     const j = Math.floor(key / W),
@@ -68,19 +83,18 @@ export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneA
     if (j1 < j0) return lab(i0, j1);
     return lab(i0 - 1, j0);
   };
-  const out: ZoneArcs = {
-    W,
-    arcs: [],
-    fixed: [],
-    closed: [],
-    left: [],
-    right: [],
-    rings: Array.from({ length: count }, () => []),
-  };
+  return { isJunction, rightOf };
+}
+
+/**
+ * The arc store of `out`: an open arc is found again by its end edges, a closed arc by its smallest node, so the
+ * neighbour that walks a border the other way gets the same arc (a negative reference).
+ */
+function arcRegister(out: ZoneArcs, V: number, rightOf: (p: number, q: number) => number): Register {
   const byEdge = new Map<number, number>(),
     byNode = new Map<number, number>();
   const ek = (a: number, b: number) => (a < b ? a * V + b : b * V + a);
-  const register = (nodes: number[], closed: boolean, z: number): number => {
+  return (nodes, closed, z) => {
     const n = nodes.length;
     const key = closed
       ? Math.min(...nodes)
@@ -97,30 +111,30 @@ export function zoneArcs(zone: Int32Array, count: number, f: RasterFrame): ZoneA
     out.right.push(right);
     return out.arcs.length;
   };
-  for (const [z, loop] of walkLoops(zone, count, f)) {
-    const m = loop.length;
-    const js: number[] = [];
-    for (let t = 0; t < m; t++) if (isJunction(loop[t])) js.push(t);
-    if (js.length === 0) {
-      let s = 0;
-      for (let t = 1; t < m; t++) if (loop[t] < loop[s]) s = t;
-      const nodes = [...loop.slice(s), ...loop.slice(0, s), loop[s]];
-      const ref = register(nodes, true, z);
-      if (ref < 0) alignClosed(out.arcs[-ref - 1], nodes);
-      out.rings[z].push([ref]);
-      continue;
-    }
-    const refs: number[] = [];
-    for (let q = 0; q < js.length; q++) {
-      const a = js[q],
-        b = q + 1 < js.length ? js[q + 1] : js[0] + m;
-      const nodes: number[] = [];
-      for (let t = a; t <= b; t++) nodes.push(loop[t % m]);
-      refs.push(register(nodes, false, z));
-    }
-    out.rings[z].push(refs);
+}
+
+/** A ring with no junction: one closed arc, started at its smallest node. */
+function closedRing(out: ZoneArcs, loop: number[], z: number, register: Register): number[] {
+  let s = 0;
+  for (let t = 1; t < loop.length; t++) if (loop[t] < loop[s]) s = t;
+  const nodes = [...loop.slice(s), ...loop.slice(0, s), loop[s]];
+  const ref = register(nodes, true, z);
+  if (ref < 0) alignClosed(out.arcs[-ref - 1], nodes);
+  return [ref];
+}
+
+/** A ring cut at its junctions (positions `js` in the loop) into arcs, as arc references. */
+function cutRing(loop: number[], js: number[], z: number, register: Register): number[] {
+  const m = loop.length;
+  const refs: number[] = [];
+  for (let q = 0; q < js.length; q++) {
+    const a = js[q],
+      b = q + 1 < js.length ? js[q + 1] : js[0] + m;
+    const nodes: number[] = [];
+    for (let t = a; t <= b; t++) nodes.push(loop[t % m]);
+    refs.push(register(nodes, false, z));
   }
-  return out;
+  return refs;
 }
 
 /** A closed arc met from the other side must start at the same node: checked, for safety. */
@@ -129,106 +143,51 @@ function alignClosed(stored: number[], mine: number[]): void {
 }
 
 /**
- * Every ring of every zone through every node (zone on the left), split where it comes back to a node
- * (two cells of the zone touching at a corner), as [zone, node keys] with the first node not repeated.
- */
-function walkLoops(zone: Int32Array, count: number, f: RasterFrame): [number, number[]][] {
-  const { cols, rows } = f;
-  const W = cols + 1;
-  const visited = new Uint8Array(W * (rows + 1));
-  const lab = (c: number, r: number) => (c < 0 || r < 0 || c >= cols || r >= rows ? -1 : zone[r * cols + c]);
-  const out: [number, number[]][] = [];
-  for (let r = 0; r < rows; r++) {
-    for (let c = 0; c < cols; c++) {
-      const L = zone[r * cols + c];
-      if (L < 0 || L >= count || lab(c, r - 1) === L || visited[r * W + c + 1]) continue;
-      const i0 = c + 1,
-        j0 = r,
-        d0 = 2;
-      let i = i0,
-        j = j0,
-        d = d0,
-        saddles = 0;
-      const nodes: number[] = [];
-      for (;;) {
-        if (d === 2) visited[j * W + i] = 1;
-        i += DI[d];
-        j += DJ[d];
-        nodes.push(j * W + i);
-        const la = lab(i + LCX[d], j + LCY[d]);
-        if (la !== L) {
-          if (lab(i + RCX[d], j + RCY[d]) === L) saddles++;
-          d = (d + 1) & 3;
-        } else if (lab(i + RCX[d], j + RCY[d]) === L) d = (d + 3) & 3;
-        if (i === i0 && j === j0 && d === d0) break;
-      }
-      for (const loop of saddles > 0 ? splitAtRepeats(nodes) : [nodes]) out.push([L, loop]);
-    }
-  }
-  return out;
-}
-
-/** Splits a closed node sequence where it comes back to a node, into simple loops. */
-function splitAtRepeats(nodes: number[]): number[][] {
-  const loops: number[][] = [];
-  const path: number[] = [];
-  const pos = new Map<number, number>();
-  for (const v of nodes) {
-    const k = pos.get(v);
-    if (k !== undefined) {
-      loops.push(path.slice(k));
-      for (let t = k + 1; t < path.length; t++) pos.delete(path[t]);
-      path.length = k + 1;
-    } else {
-      pos.set(v, path.length);
-      path.push(v);
-    }
-  }
-  loops.push(path);
-  return loops.filter((l) => l.length >= 4);
-}
-
-/**
  * Each zone's polygons from its rings of (possibly simplified) arcs: nodes where a ring runs straight on are
- * dropped, counter-clockwise rings are exteriors and clockwise rings holes, each hole going to the
- * exterior that contains it. Coordinates in metres.
+ * dropped (except where another ring of the zone touches it), counter-clockwise rings are exteriors and
+ * clockwise rings holes, each hole going to the exterior that contains it. Coordinates in metres.
  * @param arcs node keys per arc (`a.arcs`, or simplifyArcs(a, tol))
  * @example const parts = arcsToParts(a, simplifyArcs(a, 1), grid); parts[0][0].exterior
  */
 export function arcsToParts(a: ZoneArcs, arcs: number[][], f: RasterFrame): RingsPart[][] {
-  const { W } = a;
   return a.rings.map((rings) => {
-    const shells: { ring: Float64Array; area: number; holes: Float64Array[] }[] = [];
-    const holes: Float64Array[] = [];
-    for (const refs of rings) {
-      const ring = keysToRing(ringKeys(refs, arcs, W), W, f);
-      const area = ringArea(ring);
-      if (area > 0) shells.push({ ring, area, holes: [] });
-      else if (area < 0) holes.push(ring);
-    }
-    if (shells.length === 1) shells[0].holes.push(...holes);
-    else {
-      shells.sort((p, q) => p.area - q.area);
-      for (const h of holes) {
-        const px = (h[0] + h[2]) / 2,
-          py = (h[1] + h[3]) / 2;
-        const s = shells.find((s) => pointInRing(s.ring, px, py));
-        (s ?? shells[shells.length - 1]).holes.push(h);
-      }
-    }
-    return shells.map((s) => ({ exterior: s.ring, holes: s.holes }));
+    const touch = touchNodes(rings, arcs);
+    return ringsToParts(rings.map((refs) => keysToRing(ringKeys(refs, arcs, a.W, touch), a.W, f)));
   });
 }
 
+/**
+ * Nodes where two rings of one zone touch (a hole touching its exterior, two parts touching at a corner): arc
+ * ends that start arcs in more than one of the zone's rings; null for a zone of one ring. Such a node stays a
+ * vertex of every ring through it even where smoothing made a ring run straight on there, so the rings touch
+ * at a shared vertex: a touch at a point inside another ring's edge turns, once the coordinates are rounded
+ * and clipped, into a crossing (GEOS: self-intersection).
+ */
+function touchNodes(rings: number[][], arcs: number[][]): Set<number> | null {
+  if (rings.length < 2) return null;
+  const ringOf = new Map<number, number>();
+  const out = new Set<number>();
+  rings.forEach((refs, r) => {
+    for (const ref of refs) {
+      const arc = arcs[Math.abs(ref) - 1];
+      const node = ref > 0 ? arc[0] : arc[arc.length - 1];
+      const seen = ringOf.get(node);
+      if (seen === undefined) ringOf.set(node, r);
+      else if (seen !== r) out.add(node);
+    }
+  });
+  return out;
+}
+
 /** A ring's vertex keys from its arcs (closed, first not repeated), without nodes where it runs straight on. */
-function ringKeys(refs: number[], arcs: number[][], W: number): number[] {
+function ringKeys(refs: number[], arcs: number[][], W: number, keep: Set<number> | null): number[] {
   const keys: number[] = [];
   for (const ref of refs) {
     const arc = arcs[Math.abs(ref) - 1];
     const n = arc.length;
     for (let t = 0; t + 1 < n; t++) keys.push(ref > 0 ? arc[t] : arc[n - 1 - t]);
   }
-  return straightDropped(keys, W);
+  return straightDropped(keys, W, keep);
 }
 
 /**
@@ -237,12 +196,15 @@ function ringKeys(refs: number[], arcs: number[][], W: number): number[] {
  */
 export function ringsVertexCount(a: ZoneArcs, arcs: number[][]): number {
   let n = 0;
-  for (const rings of a.rings) for (const refs of rings) n += ringKeys(refs, arcs, a.W).length;
+  for (const rings of a.rings) {
+    const touch = touchNodes(rings, arcs);
+    for (const refs of rings) n += ringKeys(refs, arcs, a.W, touch).length;
+  }
   return n;
 }
 
-/** Vertices of a node ring (closed, no repeat) where the ring does not run straight on. */
-function straightDropped(keys: number[], W: number): number[] {
+/** Vertices of a node ring (closed, no repeat) where the ring does not run straight on, and the nodes in `keep`. */
+function straightDropped(keys: number[], W: number, keep: Set<number> | null): number[] {
   const n = keys.length;
   if (n < 4) return keys;
   const out: number[] = [];
@@ -258,23 +220,9 @@ function straightDropped(keys: number[], W: number): number[] {
       cx = c - jc * W;
     const cross = (bx - ax) * (jc - jb) - (jb - ja) * (cx - bx);
     const dot = (bx - ax) * (cx - bx) + (jb - ja) * (jc - jb);
-    if (cross === 0 && dot > 0) continue;
+    if (cross === 0 && dot > 0 && !keep?.has(b)) continue;
     out.push(b);
   }
-  return out;
-}
-
-function keysToRing(keys: number[], W: number, f: RasterFrame): Float64Array {
-  const n = keys.length;
-  const out = new Float64Array(2 * n + 2);
-  for (let t = 0; t < n; t++) {
-    const j = Math.floor(keys[t] / W),
-      i = keys[t] - j * W;
-    out[2 * t] = f.xmin + i * f.cell;
-    out[2 * t + 1] = f.ymax - j * f.cell;
-  }
-  out[2 * n] = out[0];
-  out[2 * n + 1] = out[1];
   return out;
 }
 

@@ -7,6 +7,7 @@
  * counts only its inside share. Output classes are an Int16Array (-1 = no value), 0 = lowest class.
  */
 import { mulberry32 } from '../stats/random.js';
+import { jenksUppers, kmeans1d, summarize, type Summary } from './breaks.js';
 
 /** How the class breaks are chosen. */
 export type ClassMethod = 'equal' | 'quantile' | 'jenks' | 'kmeans';
@@ -44,189 +45,6 @@ export interface Classes {
   method: ClassMethod;
 }
 
-/** Weighted, sorted summary of the finite values: exact distinct values, or binned. */
-interface Summary {
-  v: Float64Array;
-  w: Float64Array;
-  hi: Float64Array;
-  min: number;
-  max: number;
-}
-
-function summarize(
-  values: ArrayLike<number>,
-  weights: ArrayLike<number> | undefined,
-  bins: number,
-): Summary | null {
-  let min = Infinity,
-    max = -Infinity;
-  const n = values.length;
-  for (let i = 0; i < n; i++) {
-    const x = values[i];
-    if (x === x && (weights === undefined || weights[i] > 0)) {
-      if (x < min) min = x;
-      if (x > max) max = x;
-    }
-  }
-  if (min === Infinity) return null;
-  // try exact distinct values first
-  const distinct = new Map<number, number>();
-  let exact = true;
-  for (let i = 0; i < n && exact; i++) {
-    const x = values[i];
-    if (x !== x) continue;
-    const wi = weights === undefined ? 1 : weights[i];
-    if (!(wi > 0)) continue;
-    distinct.set(x, (distinct.get(x) ?? 0) + wi);
-    if (distinct.size > bins) exact = false;
-  }
-  if (exact) {
-    const keys = [...distinct.keys()].sort((a, b) => a - b);
-    const v = Float64Array.from(keys),
-      w = Float64Array.from(keys, (k) => distinct.get(k)!);
-    return { v, w, hi: v, min, max };
-  }
-  const sw = new Float64Array(bins),
-    sv = new Float64Array(bins),
-    bh = new Float64Array(bins).fill(-Infinity);
-  const scale = bins / (max - min);
-  for (let i = 0; i < n; i++) {
-    const x = values[i];
-    if (x !== x) continue;
-    const wi = weights === undefined ? 1 : weights[i];
-    if (!(wi > 0)) continue;
-    const b = Math.min(bins - 1, Math.floor((x - min) * scale));
-    sw[b] += wi;
-    sv[b] += wi * x;
-    if (x > bh[b]) bh[b] = x;
-  }
-  let m = 0;
-  for (let b = 0; b < bins; b++) if (sw[b] > 0) m++;
-  const v = new Float64Array(m),
-    w = new Float64Array(m),
-    hi = new Float64Array(m);
-  for (let b = 0, j = 0; b < bins; b++)
-    if (sw[b] > 0) {
-      v[j] = sv[b] / sw[b];
-      w[j] = sw[b];
-      hi[j] = bh[b];
-      j++;
-    }
-  return { v, w, hi, min, max };
-}
-
-/**
- * Upper bounds (k - 1 of them) of natural-breaks classes on a weighted, sorted summary (values `v`,
- * weights `w`, largest raw value of each entry `hi`); O(k m log m).
- * @example jenksUppers([1, 2, 3, 10, 11, 12], [1, 1, 1, 1, 1, 1], [1, 2, 3, 10, 11, 12], 2) // [3]
- */
-export function jenksUppers(
-  v: ArrayLike<number>,
-  w: ArrayLike<number>,
-  hi: ArrayLike<number>,
-  k: number,
-): number[] {
-  const m = v.length;
-  if (k <= 1 || m <= 1) return [];
-  k = Math.min(k, m);
-  const W = new Float64Array(m + 1),
-    S = new Float64Array(m + 1),
-    Q = new Float64Array(m + 1);
-  for (let i = 0; i < m; i++) {
-    W[i + 1] = W[i] + w[i];
-    S[i + 1] = S[i] + w[i] * v[i];
-    Q[i + 1] = Q[i] + w[i] * v[i] * v[i];
-  }
-  // ssd of items a..b-1
-  const ssd = (a: number, b: number) => {
-    const ww = W[b] - W[a],
-      s = S[b] - S[a];
-    return Math.max(0, Q[b] - Q[a] - (s * s) / ww);
-  };
-  let prev = new Float64Array(m + 1);
-  for (let j = 1; j <= m; j++) prev[j] = ssd(0, j);
-  const back: Int32Array[] = [];
-  // Each row of the programme is filled by divide and conquer: the best split point is monotone in j for
-  // this cost (sum of squared deviations satisfies the quadrangle inequality), so O(m log m) per class.
-  for (let c = 2; c <= k; c++) {
-    const cur = new Float64Array(m + 1).fill(Infinity);
-    const bk = new Int32Array(m + 1);
-    const solve = (jlo: number, jhi: number, ilo: number, ihi: number) => {
-      if (jlo > jhi) return;
-      const j = (jlo + jhi) >> 1;
-      let best = Infinity,
-        arg = Math.max(c - 1, ilo);
-      for (let i = Math.max(c - 1, ilo); i <= Math.min(j - 1, ihi); i++) {
-        const t = prev[i] + ssd(i, j);
-        if (t < best) {
-          best = t;
-          arg = i;
-        }
-      }
-      cur[j] = best;
-      bk[j] = arg;
-      solve(jlo, j - 1, ilo, arg);
-      solve(j + 1, jhi, arg, ihi);
-    };
-    solve(c, m, c - 1, m - 1);
-    back.push(bk);
-    prev = cur;
-  }
-  const uppers: number[] = [];
-  let j = m;
-  for (let c = k; c >= 2; c--) {
-    const i = back[c - 2][j];
-    uppers.push(hi[i - 1]);
-    j = i;
-  }
-  return uppers.reverse();
-}
-
-/**
- * 1-D weighted k-means (Lloyd) on sorted values, started at weighted quantiles; returns sorted centres.
- * @example kmeans1d([1, 2, 3, 10, 11, 12], [1, 1, 1, 1, 1, 1], 2) // [2, 11]
- */
-export function kmeans1d(v: ArrayLike<number>, w: ArrayLike<number>, k: number, maxIter = 100): number[] {
-  const m = v.length;
-  k = Math.min(k, m);
-  let total = 0;
-  for (let i = 0; i < m; i++) total += w[i];
-  const c: number[] = [];
-  let acc = 0,
-    q = 0;
-  for (let i = 0; i < m && q < k; i++) {
-    acc += w[i];
-    while (q < k && acc >= ((q + 0.5) / k) * total) {
-      c.push(v[i]);
-      q++;
-    }
-  }
-  const centres = [...new Set(c)];
-  for (let it = 0; it < maxIter; it++) {
-    const sw = new Float64Array(centres.length),
-      sv = new Float64Array(centres.length);
-    let j = 0;
-    for (let i = 0; i < m; i++) {
-      while (j + 1 < centres.length && Math.abs(v[i] - centres[j + 1]) < Math.abs(v[i] - centres[j])) j++;
-      sw[j] += w[i];
-      sv[j] += w[i] * v[i];
-    }
-    let moved = false;
-    for (let t = 0; t < centres.length; t++) {
-      if (sw[t] > 0) {
-        const nc = sv[t] / sw[t];
-        if (nc !== centres[t]) {
-          moved = true;
-          centres[t] = nc;
-        }
-      }
-    }
-    centres.sort((a, b) => a - b);
-    if (!moved) break;
-  }
-  return centres;
-}
-
 function roundTo(x: number, step: number): number {
   if (!(step > 0)) return x;
   const r = Math.round(x / step) * step;
@@ -257,32 +75,7 @@ export function classify(values: ArrayLike<number>, opts: ClassifyOptions = {}):
   const classOf = new Int16Array(n).fill(-1);
   const s = summarize(values, weights, opts.summaryBins ?? 4096);
   if (!s) return { classOf, count: 0, breaks: [], mean: [], value: [], weight: [], method };
-  let uppers: number[];
-  if (method === 'equal') {
-    uppers = [];
-    for (let c = 1; c < k; c++) uppers.push(s.min + ((s.max - s.min) * c) / k);
-  } else if (method === 'quantile') {
-    let total = 0;
-    for (let i = 0; i < s.w.length; i++) total += s.w[i];
-    uppers = [];
-    let acc = 0,
-      q = 1;
-    for (let i = 0; i < s.v.length && q < k; i++) {
-      acc += s.w[i];
-      while (q < k && acc >= (q / k) * total - 1e-12 * total) {
-        uppers.push(s.hi[i]);
-        q++;
-      }
-    }
-  } else if (method === 'jenks') {
-    uppers = jenksUppers(s.v, s.w, s.hi, k);
-  } else if (method === 'kmeans') {
-    const cs = kmeans1d(s.v, s.w, k);
-    uppers = [];
-    for (let i = 0; i + 1 < cs.length; i++) uppers.push((cs[i] + cs[i + 1]) / 2);
-  } else {
-    throw new RangeError(`unknown class method "${String(method)}" (use equal, quantile, jenks or kmeans)`);
-  }
+  let uppers = classUppers(method, s, k);
   uppers = [...new Set(uppers.filter((u) => u >= s.min && u < s.max))].sort((a, b) => a - b);
   const bounds = [...uppers, Infinity];
   const raw = new Int16Array(n).fill(-1);
@@ -325,6 +118,34 @@ export function classify(values: ArrayLike<number>, opts: ClassifyOptions = {}):
   return { classOf, count: mean.length, breaks, mean, value, weight, method };
 }
 
+/** Upper class bounds (unsorted, possibly repeated or outside the range) by the chosen method. */
+function classUppers(method: ClassMethod, s: Summary, k: number): number[] {
+  const uppers: number[] = [];
+  if (method === 'equal') {
+    for (let c = 1; c < k; c++) uppers.push(s.min + ((s.max - s.min) * c) / k);
+  } else if (method === 'quantile') {
+    let total = 0;
+    for (let i = 0; i < s.w.length; i++) total += s.w[i];
+    let acc = 0,
+      q = 1;
+    for (let i = 0; i < s.v.length && q < k; i++) {
+      acc += s.w[i];
+      while (q < k && acc >= (q / k) * total - 1e-12 * total) {
+        uppers.push(s.hi[i]);
+        q++;
+      }
+    }
+  } else if (method === 'jenks') {
+    return jenksUppers(s.v, s.w, s.hi, k);
+  } else if (method === 'kmeans') {
+    const cs = kmeans1d(s.v, s.w, k);
+    for (let i = 0; i + 1 < cs.length; i++) uppers.push((cs[i] + cs[i + 1]) / 2);
+  } else {
+    throw new RangeError(`unknown class method "${String(method)}" (use equal, quantile, jenks or kmeans)`);
+  }
+  return uppers;
+}
+
 /** Classes of several driving values at once (one zone set for a multi-product pass). */
 export interface VectorClasses {
   classOf: Int16Array;
@@ -363,7 +184,37 @@ export function classifyVectors(
   const n = dims[0].length;
   const k = Math.max(1, Math.floor(opts.classes ?? 5));
   const weights = opts.weights;
-  // the cells with a weight and a value in every dimension, as one flat array (millions of cells)
+  const valid = validCells(dims, weights);
+  const classOf = new Int16Array(n).fill(-1);
+  if (valid.length === 0) return { classOf, count: 0, mean: [], value: [], weight: [] };
+  const z = standardized(dims, valid, weights);
+  const rnd = mulberry32(opts.seed ?? 1);
+  const m = Math.min(valid.length, opts.sample ?? 20000);
+  const sample: number[] = [];
+  if (m === valid.length) sample.push(...valid);
+  else for (let t = 0; t < m; t++) sample.push(valid[Math.floor(rnd() * valid.length)]);
+  const cent = kmeansPlusPlus(sample, z, d, k, rnd);
+  const nearest = (i: number) => {
+    let best = Infinity,
+      arg = 0;
+    for (let c = 0; c < cent.length; c++) {
+      let dd = 0;
+      for (let j = 0; j < d; j++) dd += (z(i, j) - cent[c][j]) ** 2;
+      if (dd < best) {
+        best = dd;
+        arg = c;
+      }
+    }
+    return arg;
+  };
+  lloyd(sample, z, d, cent, nearest, opts.maxIter ?? 50);
+  return vectorClasses(dims, valid, weights, cent, nearest, classOf, opts.steps);
+}
+
+/** The cells with a weight and a value in every dimension, as one flat array (millions of cells). */
+function validCells(dims: ArrayLike<number>[], weights: ArrayLike<number> | undefined): Int32Array {
+  const d = dims.length,
+    n = dims[0].length;
   const isValid = (i: number): boolean => {
     if (weights !== undefined && !(weights[i] > 0)) return false;
     for (let j = 0; j < d; j++) {
@@ -376,8 +227,18 @@ export function classifyVectors(
   for (let i = 0; i < n; i++) if (isValid(i)) nValid++;
   const valid = new Int32Array(nValid);
   for (let i = 0, t = 0; i < n; i++) if (isValid(i)) valid[t++] = i;
-  const classOf = new Int16Array(n).fill(-1);
-  if (valid.length === 0) return { classOf, count: 0, mean: [], value: [], weight: [] };
+  return valid;
+}
+
+type Standardized = (i: number, j: number) => number;
+
+/** z(i, j): cell i's value of dimension j, centred on its weighted mean and divided by its weighted sd. */
+function standardized(
+  dims: ArrayLike<number>[],
+  valid: Int32Array,
+  weights: ArrayLike<number> | undefined,
+): Standardized {
+  const d = dims.length;
   const mu = new Float64Array(d),
     sd = new Float64Array(d);
   let tw = 0;
@@ -395,13 +256,17 @@ export function classifyVectors(
     sd[j] = Math.sqrt(sd[j] / tw);
     if (!(sd[j] > 0)) sd[j] = 1;
   }
-  const z = (i: number, j: number) => (dims[j][i] - mu[j]) / sd[j];
-  const rnd = mulberry32(opts.seed ?? 1);
-  const m = Math.min(valid.length, opts.sample ?? 20000);
-  const sample: number[] = [];
-  if (m === valid.length) sample.push(...valid);
-  else for (let t = 0; t < m; t++) sample.push(valid[Math.floor(rnd() * valid.length)]);
-  // k-means++ start
+  return (i, j) => (dims[j][i] - mu[j]) / sd[j];
+}
+
+/** k-means++ start: the first centre at random, each next one drawn with probability by squared distance. */
+function kmeansPlusPlus(
+  sample: number[],
+  z: Standardized,
+  d: number,
+  k: number,
+  rnd: () => number,
+): Float64Array[] {
   const cent: Float64Array[] = [];
   const first = sample[Math.floor(rnd() * sample.length)];
   cent.push(Float64Array.from({ length: d }, (_, j) => z(first, j)));
@@ -427,20 +292,19 @@ export function classifyVectors(
     }
     cent.push(Float64Array.from({ length: d }, (_, j) => z(sample[pick], j)));
   }
-  const nearest = (i: number) => {
-    let best = Infinity,
-      arg = 0;
-    for (let c = 0; c < cent.length; c++) {
-      let dd = 0;
-      for (let j = 0; j < d; j++) dd += (z(i, j) - cent[c][j]) ** 2;
-      if (dd < best) {
-        best = dd;
-        arg = c;
-      }
-    }
-    return arg;
-  };
-  for (let it = 0; it < (opts.maxIter ?? 50); it++) {
+  return cent;
+}
+
+/** Lloyd iterations on the sample, moving `cent` in place until the centres move less than 1e-9 in all. */
+function lloyd(
+  sample: number[],
+  z: Standardized,
+  d: number,
+  cent: Float64Array[],
+  nearest: (i: number) => number,
+  maxIter: number,
+): void {
+  for (let it = 0; it < maxIter; it++) {
     const acc = cent.map(() => new Float64Array(d + 1));
     for (const i of sample) {
       const c = nearest(i);
@@ -458,6 +322,22 @@ export function classifyVectors(
     }
     if (moved < 1e-9) break;
   }
+}
+
+/**
+ * Every valid cell to its nearest centre, classes numbered by ascending sum of standardized centre coordinates,
+ * empty classes dropped; per class the area-weighted mean of each dimension and its value rounded to the step.
+ */
+function vectorClasses(
+  dims: ArrayLike<number>[],
+  valid: Int32Array,
+  weights: ArrayLike<number> | undefined,
+  cent: Float64Array[],
+  nearest: (i: number) => number,
+  classOf: Int16Array,
+  steps: number[] | undefined,
+): VectorClasses {
+  const d = dims.length;
   const order = cent.map((c, idx) => ({ idx, s: c.reduce((a, b) => a + b, 0) })).sort((a, b) => a.s - b.s);
   const rank = new Int16Array(cent.length);
   order.forEach((o, r) => (rank[o.idx] = r));
@@ -480,7 +360,7 @@ export function classifyVectors(
     remap[c] = mean.length;
     const mc = Array.from(sm[c], (x) => x / sw[c]);
     mean.push(mc);
-    value.push(mc.map((x, j) => roundTo(x, opts.steps?.[j] ?? 1)));
+    value.push(mc.map((x, j) => roundTo(x, steps?.[j] ?? 1)));
     weight.push(sw[c]);
   }
   for (const i of valid) classOf[i] = remap[classOf[i]];

@@ -244,18 +244,25 @@ export function mergeSmallZones(
   const area = new Float64Array(count);
   const cellA = cell * cell;
   for (let i = 0; i < label.length; i++) if (label[i] >= 0) area[label[i]] += fraction[i] * cellA;
-  const cls = Int16Array.from(classOfLabel);
-  const parent = new Int32Array(count);
-  for (let i = 0; i < count; i++) parent[i] = i;
-  const find = (x: number) => {
-    while (parent[x] !== x) {
-      parent[x] = parent[parent[x]];
-      x = parent[x];
-    }
-    return x;
-  };
-  // adjacency (border length in cell edges), kept only for pairs with at least one small zone: a zone at or
-  // above the minimum never has to choose a neighbour, and two large zones of one class are never adjacent
+  const adj = smallZoneBorders(label, cols, rows, area, minAreaM2);
+  const u = new ZoneUnion(Int16Array.from(classOfLabel), area, adj);
+  if (minAreaM2 > 0) mergeSmall(u, minAreaM2);
+  return relabel(label, u);
+}
+
+/**
+ * Border lengths (in cell edges) between touching zones, kept only for pairs with at least one zone under the
+ * minimum: a zone at or above the minimum never has to choose a neighbour, and two large zones of one class are
+ * never adjacent.
+ */
+function smallZoneBorders(
+  label: Int32Array,
+  cols: number,
+  rows: number,
+  area: Float64Array,
+  minAreaM2: number,
+): Map<number, number>[] {
+  const count = area.length;
   const isSmall = new Uint8Array(count);
   for (let z = 0; z < count; z++) if (area[z] < minAreaM2) isSmall[z] = 1;
   const adj: Map<number, number>[] = Array.from({ length: count }, () => new Map());
@@ -279,10 +286,34 @@ export function mergeSmallZones(
       }
     }
   }
-  const absorb = (into: number, from: number) => {
-    // into and from are roots
-    parent[from] = into;
-    area[into] += area[from];
+  return adj;
+}
+
+/** Zones being merged: union-find over zone ids, with each root's class, area and borders to other roots. */
+class ZoneUnion {
+  readonly parent: Int32Array;
+  constructor(
+    readonly cls: Int16Array,
+    readonly area: Float64Array,
+    readonly adj: Map<number, number>[],
+  ) {
+    this.parent = Int32Array.from({ length: area.length }, (_, i) => i);
+  }
+
+  find(x: number): number {
+    const parent = this.parent;
+    while (parent[x] !== x) {
+      parent[x] = parent[parent[x]];
+      x = parent[x];
+    }
+    return x;
+  }
+
+  /** Root `from` joins root `into`: area and borders move over. */
+  absorb(into: number, from: number): void {
+    const adj = this.adj;
+    this.parent[from] = into;
+    this.area[into] += this.area[from];
     for (const [nb, len] of adj[from]) {
       if (nb === into) {
         adj[into].delete(from);
@@ -294,55 +325,70 @@ export function mergeSmallZones(
       m.set(into, (m.get(into) ?? 0) + len);
     }
     adj[from].clear();
-  };
-  if (minAreaM2 > 0) {
-    for (let pass = 0; pass < 1000; pass++) {
-      const small: number[] = [];
-      for (let z = 0; z < count; z++)
-        if (parent[z] === z && area[z] < minAreaM2 && adj[z].size > 0) small.push(z);
-      if (small.length === 0) break;
-      small.sort((a, b) => area[a] - area[b] || a - b);
-      let merged = 0;
-      for (const z of small) {
-        if (parent[z] !== z || area[z] >= minAreaM2 || adj[z].size === 0) continue;
-        let best = -1,
-          bl = -1;
-        for (const [nb, len] of adj[z])
-          if (len > bl || (len === bl && nb < best)) {
-            bl = len;
-            best = nb;
-          }
-        const target = find(best);
-        absorb(target, z);
-        // join same-class zones the merge has connected
-        for (let again = true; again;) {
-          again = false;
-          for (const nb of [...adj[target].keys()])
-            if (cls[nb] === cls[target] && parent[nb] === nb) {
-              absorb(target, nb);
-              again = true;
-            }
-        }
-        merged++;
-      }
-      if (merged === 0) break;
-    }
   }
+
+  /** Zone z goes into the neighbour with the longest shared border (lowest id on a tie); returns that root. */
+  mergeIntoNeighbour(z: number): number {
+    let best = -1,
+      bl = -1;
+    for (const [nb, len] of this.adj[z])
+      if (len > bl || (len === bl && nb < best)) {
+        bl = len;
+        best = nb;
+      }
+    const target = this.find(best);
+    this.absorb(target, z);
+    // join same-class zones the merge has connected
+    for (let again = true; again;) {
+      again = false;
+      for (const nb of [...this.adj[target].keys()])
+        if (this.cls[nb] === this.cls[target] && this.parent[nb] === nb) {
+          this.absorb(target, nb);
+          again = true;
+        }
+    }
+    return target;
+  }
+}
+
+/** Merges zones under the minimum that have a neighbour, smallest first, pass after pass until none is left. */
+function mergeSmall(u: ZoneUnion, minAreaM2: number): void {
+  const { parent, area, adj } = u;
+  const count = area.length;
+  for (let pass = 0; pass < 1000; pass++) {
+    const small: number[] = [];
+    for (let z = 0; z < count; z++)
+      if (parent[z] === z && area[z] < minAreaM2 && adj[z].size > 0) small.push(z);
+    if (small.length === 0) break;
+    small.sort((a, b) => area[a] - area[b] || a - b);
+    let merged = 0;
+    for (const z of small) {
+      if (parent[z] !== z || area[z] >= minAreaM2 || adj[z].size === 0) continue;
+      u.mergeIntoNeighbour(z);
+      merged++;
+    }
+    if (merged === 0) break;
+  }
+}
+
+/** The merged zones numbered in order of their first label, per cell and with class and area per zone. */
+function relabel(label: Int32Array, u: ZoneUnion): Merged {
+  const count = u.area.length;
   const ids = new Int32Array(count).fill(-1);
   let nz = 0;
   const zoneCls: number[] = [],
     zoneArea: number[] = [];
   for (let z = 0; z < count; z++)
-    if (parent[z] === z) {
+    if (u.parent[z] === z) {
       ids[z] = nz++;
-      zoneCls.push(cls[z]);
-      zoneArea.push(area[z]);
+      zoneCls.push(u.cls[z]);
+      zoneArea.push(u.area[z]);
     }
   const zone = new Int32Array(label.length).fill(-1);
   const outCls = new Int16Array(label.length).fill(-1);
   for (let i = 0; i < label.length; i++) {
     if (label[i] < 0) continue;
-    const id = ids[find(label[i])];
+    const id = ids[u.find(label[i])];
     zone[i] = id;
     outCls[i] = zoneCls[id];
   }

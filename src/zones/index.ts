@@ -2,20 +2,17 @@
  * Management zones: rate classes -> cleaned class raster -> traced polygons clipped to the field.
  * Pure functions on flat typed arrays; see docs/zones.md for the method.
  */
-import * as polyclip from 'polyclip-ts';
-import type { Field, Grid, RingsPart, SampleZones, Warning } from '../types.js';
-import { orient, partsArea } from '../geo/area.js';
+import type { Field, Grid, RingsPart, Warning } from '../types.js';
+import { partsArea } from '../geo/area.js';
 import { projector as makeProjector, type Projector } from '../geo/utm.js';
 import { M2_PER_AC } from '../units/index.js';
-import { vertexCount } from './arcs.js';
 import { classify, type Classes, type ClassifyOptions } from './classify.js';
-import { fillUnclassed, majorityFilter, mergeSmallZones } from './clean.js';
-import { boundaryCells, clipParts, robust } from './clip.js';
-import { arcsToParts, ringsVertexCount, zoneArcs } from './arcs.js';
-import { simplifyArcs } from './simplify.js';
+import { fillUnclassed, majorityFilter, mergeSmallZones, type Merged } from './clean.js';
 import { mergeGraph, mergeRegions, type RegionJudge } from './regions.js';
+import { toLonLat, zonePolygons, type ZoneVertices } from './polygons.js';
 
-export { classify, classifyVectors, jenksUppers, kmeans1d } from './classify.js';
+export { classify, classifyVectors } from './classify.js';
+export { jenksUppers, kmeans1d } from './breaks.js';
 export type { Classes, ClassMethod, ClassifyOptions, VectorClasses } from './classify.js';
 export { fillUnclassed, labelComponents, majorityFilter, mergeSmallZones, minZoneAreaM2 } from './clean.js';
 export type { Merged } from './clean.js';
@@ -28,6 +25,10 @@ export { simplifyArcs } from './simplify.js';
 export { mergeGraph, mergeRegions, regionGraph } from './regions.js';
 export type { MergedRegions, RegionGraph, RegionJudge } from './regions.js';
 export type { RasterFrame } from './trace.js';
+export { toLonLat } from './polygons.js';
+export type { ZoneVertices } from './polygons.js';
+export { zonesFromSampleZones } from './composite.js';
+export type { SampledZone } from './composite.js';
 
 /** One management zone. */
 export interface Zone {
@@ -60,7 +61,7 @@ export interface ZoneSet<P = unknown, Why = string> {
     zones: number;
   };
   /** vertices of the zone rings before and after edge simplification (before clipping), and as returned */
-  vertices: { traced: number; simplified: number; clipped: number };
+  vertices: ZoneVertices;
   /** per cell: class after cleaning (-1 where the cell has no share of the field) */
   classOfCell: Int16Array;
   /** per cell: zone id (-1 where the cell has no share of the field) */
@@ -111,8 +112,77 @@ export function makeZones<P = unknown, Why = string>(
   field: Field,
   opts: MakeZonesOptions<P, Why> = {},
 ): ZoneSet<P, Why> {
-  const { cols, rows, cell } = grid;
-  const n = cols * rows;
+  const { raw, classes, warnings } = inputClasses(grid, input, opts);
+  let nClasses = 0;
+  for (let i = 0; i < raw.length; i++) if (raw[i] + 1 > nClasses) nClasses = raw[i] + 1;
+  const judge = opts.judge;
+  // 1. neighbouring classes whose rates do not differ enough become one class
+  const merged = judge && nClasses > 1 ? mergeClasses(raw, nClasses, grid, judge) : { raw, count: nClasses };
+  // 2. speckle, edge cells, small zones
+  const minAreaM2 = opts.minAreaM2 ?? 0.5 * M2_PER_AC;
+  const cleaned = cleanZones(merged.raw, grid, opts.majorityIterations ?? 1, minAreaM2);
+  // 3. neighbouring zones whose rates do not differ enough become one zone; then zones anywhere in the field
+  // whose rates do not differ enough form one rate class (one decision), and touching zones of a class join
+  const d: Design<P, Why> = judge
+    ? rateClassZones(cleaned.zone, cleaned.count, grid, judge)
+    : {
+        label: cleaned.zone,
+        count: cleaned.count,
+        classOfZone: cleaned.classOfZone,
+        areaM2: cleaned.areaM2,
+        profiles: null,
+        pairs: neighbourPairs(cleaned.zone, grid.cols, grid.rows),
+        zonesMerged: cleaned.count,
+        rateClasses: merged.count,
+      };
+  // 4. polygons: shared borders simplified once, then clipped to the exact boundary
+  const poly = zonePolygons(grid, field, d.label, d.count, d.areaM2, opts.simplifyCells ?? 1, minAreaM2);
+  const proj = opts.lonlat === false ? null : (opts.projector ?? makeProjector(field.utm));
+  const { zones, newId } = zonesOf(poly, d.classOfZone, proj);
+  return {
+    zones,
+    ...cellRasters(grid, d, newId),
+    classes,
+    minAreaM2,
+    warnings,
+    profiles: d.profiles ? d.profiles.filter((_, z) => newId[z] >= 0) : null,
+    pairs: d.pairs
+      .filter((p) => newId[p.a] >= 0 && newId[p.b] >= 0)
+      .map((p) => ({ ...p, a: newId[p.a], b: newId[p.b] })),
+    counts: {
+      classes: nClasses,
+      classesMerged: merged.count,
+      zonesCleaned: cleaned.count,
+      zonesMerged: d.zonesMerged,
+      rateClasses: d.rateClasses,
+      zones: zones.length,
+    },
+    vertices: poly.vertices,
+  };
+}
+
+/** The zones before polygons: a zone raster with each zone's class, area, profile and neighbour pairs. */
+interface Design<P, Why> {
+  label: Int32Array;
+  count: number;
+  classOfZone: Int16Array;
+  areaM2: Float64Array;
+  profiles: P[] | null;
+  pairs: ZoneSet<P, Why>['pairs'];
+  zonesMerged: number;
+  rateClasses: number;
+}
+
+/**
+ * The class per cell (-1 where the cell has no share of the field) from the caller's classes or by classifying
+ * the driving value, with a warning when cells inside the field have none.
+ */
+function inputClasses(
+  grid: Grid,
+  input: ArrayLike<number> | { classOf: Int16Array },
+  opts: ClassifyOptions,
+): { raw: Int16Array; classes: Classes | null; warnings: Warning[] } {
+  const n = grid.cols * grid.rows;
   const warnings: Warning[] = [];
   let classes: Classes | null = null;
   let raw: Int16Array;
@@ -131,51 +201,40 @@ export function makeZones<P = unknown, Why = string>(
       code: 'zones-cell-without-value',
       message: `${missing} cells inside the field have no driving value; they take the nearest zone's class.`,
     });
-  let nClasses = 0;
-  for (let i = 0; i < n; i++) if (raw[i] + 1 > nClasses) nClasses = raw[i] + 1;
-  const judge = opts.judge;
-  // 1. neighbouring classes whose rates do not differ enough become one class
-  let classesMerged = nClasses;
-  if (judge && nClasses > 1) {
-    const m = mergeRegions(raw, nClasses, cols, rows, grid.fraction, cell * cell, judge, 'label', true);
-    const next = new Int16Array(n);
-    for (let i = 0; i < n; i++) next[i] = raw[i] >= 0 ? m.of[raw[i]] : -1;
-    raw = next;
-    classesMerged = m.count;
-  }
-  // 2. speckle, edge cells, small zones
-  const smooth =
-    (opts.majorityIterations ?? 1) > 0 ? majorityFilter(raw, cols, rows, opts.majorityIterations ?? 1) : raw;
+  return { raw, classes, warnings };
+}
+
+/** Classes (every pair, wherever they lie) merged while the judge does not keep them apart. */
+function mergeClasses<P, Why>(
+  raw: Int16Array,
+  nClasses: number,
+  grid: Grid,
+  judge: RegionJudge<P, Why>,
+): { raw: Int16Array; count: number } {
+  const { cols, rows, cell } = grid;
+  const m = mergeRegions(raw, nClasses, cols, rows, grid.fraction, cell * cell, judge, 'label', true);
+  const next = new Int16Array(raw.length);
+  for (let i = 0; i < raw.length; i++) next[i] = raw[i] >= 0 ? m.of[raw[i]] : -1;
+  return { raw: next, count: m.count };
+}
+
+/** Majority filter (`iterations` passes, 0 = none), unclassed cells filled, zones under the minimum merged. */
+function cleanZones(raw: Int16Array, grid: Grid, iterations: number, minAreaM2: number): Merged {
+  const { cols, rows } = grid;
+  const smooth = iterations > 0 ? majorityFilter(raw, cols, rows, iterations) : raw;
   const filled = fillUnclassed(smooth, cols, rows);
-  const minAreaM2 = opts.minAreaM2 ?? 0.5 * M2_PER_AC;
-  const cleaned = mergeSmallZones(filled, cols, rows, grid.fraction, cell, minAreaM2);
-  // 3. neighbouring zones whose rates do not differ enough become one zone; then zones anywhere in the field
-  // whose rates do not differ enough form one rate class (one decision), and touching zones of a class join
-  let zoneLabel = cleaned.zone,
-    count = cleaned.count,
-    classOfZone = cleaned.classOfZone,
-    zoneArea = cleaned.areaM2;
-  let profiles: P[] | null = null;
-  let pairs: ZoneSet<P, Why>['pairs'] = [];
-  let zonesMerged = count,
-    rateClasses = classesMerged;
-  if (judge) {
-    const r = rateClassZones(cleaned.zone, cleaned.count, grid, judge);
-    zonesMerged = r.zonesMerged;
-    rateClasses = r.rateClasses;
-    zoneLabel = r.label;
-    count = r.count;
-    classOfZone = r.classOfZone;
-    profiles = r.profiles;
-    pairs = r.pairs;
-    zoneArea = r.areaM2;
-  } else pairs = neighbourPairs(zoneLabel, cols, rows);
-  // 4. polygons: shared borders simplified once, then clipped to the exact boundary
-  const poly = zonePolygons(grid, field, zoneLabel, count, zoneArea, opts.simplifyCells ?? 1, minAreaM2);
-  const proj = opts.lonlat === false ? null : (opts.projector ?? makeProjector(field.utm));
+  return mergeSmallZones(filled, cols, rows, grid.fraction, grid.cell, minAreaM2);
+}
+
+/** The zones that have polygons, numbered in order (`newId`: per zone of the design, its id or -1). */
+function zonesOf(
+  poly: { parts: RingsPart[][]; scale: number },
+  classOfZone: Int16Array,
+  proj: Projector | null,
+): { zones: Zone[]; newId: Int32Array } {
   const zones: Zone[] = [];
-  const newId = new Int32Array(count).fill(-1);
-  for (let z = 0; z < count; z++) {
+  const newId = new Int32Array(poly.parts.length).fill(-1);
+  for (let z = 0; z < poly.parts.length; z++) {
     const parts = poly.parts[z];
     if (parts.length === 0) continue;
     newId[z] = zones.length;
@@ -187,39 +246,27 @@ export function makeZones<P = unknown, Why = string>(
       areaM2: partsArea(parts) * poly.scale,
     });
   }
-  const vertices = poly.vertices;
+  return { zones, newId };
+}
+
+/** Per cell with a share of the field: its zone's id and class; and the number of classes present. */
+function cellRasters<P, Why>(
+  grid: Grid,
+  d: Design<P, Why>,
+  newId: Int32Array,
+): { classOfCell: Int16Array; zoneOfCell: Int32Array; classCount: number } {
+  const n = grid.cols * grid.rows;
   const zoneOfCell = new Int32Array(n).fill(-1);
   const classOfCell = new Int16Array(n).fill(-1);
   let classCount = 0;
   for (let i = 0; i < n; i++) {
-    const z = zoneLabel[i];
+    const z = d.label[i];
     if (z < 0 || !(grid.fraction[i] > 0) || newId[z] < 0) continue;
     zoneOfCell[i] = newId[z];
-    classOfCell[i] = classOfZone[z];
+    classOfCell[i] = d.classOfZone[z];
     if (classOfCell[i] + 1 > classCount) classCount = classOfCell[i] + 1;
   }
-  return {
-    zones,
-    classOfCell,
-    zoneOfCell,
-    classCount,
-    classes,
-    minAreaM2,
-    warnings,
-    profiles: profiles ? profiles.filter((_, z) => newId[z] >= 0) : null,
-    pairs: pairs
-      .filter((p) => newId[p.a] >= 0 && newId[p.b] >= 0)
-      .map((p) => ({ ...p, a: newId[p.a], b: newId[p.b] })),
-    counts: {
-      classes: nClasses,
-      classesMerged,
-      zonesCleaned: cleaned.count,
-      zonesMerged,
-      rateClasses,
-      zones: zones.length,
-    },
-    vertices,
-  };
+  return { classOfCell, zoneOfCell, classCount };
 }
 
 /**
@@ -238,6 +285,8 @@ function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, jud
     judge,
     'scan',
   );
+  // each zone's own area, taken before mergeGraph pools areas into its rate classes' roots (in place)
+  const ownArea = Float64Array.from(m.graph.areaM2);
   const g = mergeGraph(m.graph, judge, true);
   // touching merged zones of one rate class become one zone
   const parent = Int32Array.from({ length: m.count }, (_, k) => k);
@@ -284,7 +333,7 @@ function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, jud
   }
   pairs.sort((p, q) => p.a - q.a || p.b - q.b);
   const areaM2 = new Float64Array(n);
-  for (let z = 0; z < m.count; z++) areaM2[final[z]] += m.graph.areaM2[z];
+  for (let z = 0; z < m.count; z++) areaM2[final[z]] += ownArea[z];
   return {
     label,
     count: n,
@@ -295,77 +344,6 @@ function rateClassZones<P, Why>(zone: Int32Array, count: number, grid: Grid, jud
     rateClasses: k,
     areaM2,
   };
-}
-
-/**
- * Zone polygons from a zone raster (`cellArea`: each zone's area from its cells, m2): arcs simplified to `tol` cells (0 = staircase), rings rebuilt, zones near
- * the boundary clipped to it. A zone that simplification would take under `minAreaM2` although its cells
- * reach it keeps its staircase borders (simplification is redone with them fixed).
- */
-function zonePolygons(
-  grid: Grid,
-  field: Field,
-  label: Int32Array,
-  count: number,
-  cellArea: Float64Array,
-  tol: number,
-  minAreaM2: number,
-): { parts: RingsPart[][]; vertices: ZoneSet['vertices']; scale: number } {
-  const arcs = zoneArcs(label, count, grid);
-  const staircase = simplifyArcs(arcs, 0);
-  const needsClip = zonesNearBoundary(field, grid, label, count, Math.ceil(tol) + 1);
-  const planarField = partsArea(field.parts);
-  const scale = planarField > 0 ? field.areaM2 / planarField : 1;
-  const keep = new Uint8Array(count);
-  for (let attempt = 0; ; attempt++) {
-    const smooth = tol > 0 ? simplifyArcs(arcs, tol) : staircase;
-    const traced = arcsToParts(arcs, smooth, grid);
-    const parts = traced.map((p, z) => (needsClip[z] ? clipParts(p, field.parts, grid.xmin, grid.ymax) : p));
-    let redo = false;
-    for (let z = 0; z < count; z++) {
-      if (keep[z] || tol <= 0 || cellArea[z] < minAreaM2 || partsArea(parts[z]) >= minAreaM2 * (1 - 1e-9))
-        continue;
-      keep[z] = 1;
-      redo = true;
-      arcs.arcs.forEach((_, k) => {
-        if (arcs.left[k] === z || arcs.right[k] === z) arcs.fixed[k] = true;
-      });
-    }
-    if (!redo || attempt >= 3) {
-      const vertices = {
-        traced: ringsVertexCount(arcs, staircase),
-        simplified: ringsVertexCount(arcs, smooth),
-        clipped: parts.reduce((s, p) => s + vertexCount(p), 0),
-      };
-      return { parts, vertices, scale };
-    }
-  }
-}
-
-/** Zones with a cell within `reach` cells of one the boundary crosses, or of a cell outside: these are clipped. */
-function zonesNearBoundary(
-  field: Field,
-  grid: Grid,
-  label: Int32Array,
-  count: number,
-  reach: number,
-): Uint8Array {
-  const { cols, rows } = grid;
-  const band = boundaryCells(field.parts, grid);
-  const out = new Uint8Array(count);
-  for (let i = 0; i < label.length; i++) if (label[i] >= 0 && (!grid.mask[i] || band[i])) out[label[i]] = 1;
-  // smoothed borders move up to about `reach` cells: zones that near the boundary are clipped too
-  for (let r = 0; r < rows; r++)
-    for (let c = 0; c < cols; c++) {
-      if (!band[r * cols + c]) continue;
-      for (let rr = Math.max(0, r - reach); rr <= Math.min(rows - 1, r + reach); rr++) {
-        for (let cc = Math.max(0, c - reach); cc <= Math.min(cols - 1, c + reach); cc++) {
-          const z = label[rr * cols + cc];
-          if (z >= 0) out[z] = 1;
-        }
-      }
-    }
-  return out;
 }
 
 /** Pairs of zone ids that share a cell edge. */
@@ -400,107 +378,4 @@ function countMissing(raw: Int16Array, fraction: ArrayLike<number>): number {
   let k = 0;
   for (let i = 0; i < raw.length; i++) if (fraction[i] > 0 && raw[i] < 0) k++;
   return k;
-}
-
-/**
- * Polygon parts in metres to MultiPolygon lon/lat coordinates.
- * @example toLonLat(zone.parts, projector(field.utm)) // [[[[lon, lat], ...]]]
- */
-export function toLonLat(parts: RingsPart[], p: Projector): number[][][][] {
-  const ring = (r: Float64Array) => {
-    const ll = p.inverse(r);
-    const out: number[][] = [];
-    for (let i = 0; i + 1 < ll.length; i += 2) out.push([ll[i], ll[i + 1]]);
-    return out;
-  };
-  return parts.map((pt) => [ring(pt.exterior), ...pt.holes.map(ring)]);
-}
-
-/** A zone of a zone-composite field: the sampled zone polygon clipped to the boundary. */
-export interface SampledZone {
-  id: number;
-  /** the samples' zone key */
-  key: string;
-  parts: RingsPart[];
-  lonlat: number[][][][];
-  areaM2: number;
-}
-
-/**
- * Zones of a zone-composite field: each sampled zone polygon clipped to the field boundary. Where
- * sampled zones overlap, the overlap goes to the zone listed first (with a warning); field area that
- * no sampled zone covers is reported in a warning (it gets no rate).
- * @example const { zones, warnings } = zonesFromSampleZones(inputs.zones!, inputs.field);
- */
-export function zonesFromSampleZones(
-  sz: SampleZones,
-  field: Field,
-  opts: { projector?: Projector } = {},
-): { zones: SampledZone[]; warnings: Warning[] } {
-  const [ox, oy] = [field.bbox[0], field.bbox[3]];
-  const planarField = partsArea(field.parts);
-  const scale = planarField > 0 ? field.areaM2 / planarField : 1;
-  const proj = opts.projector ?? makeProjector(field.utm);
-  const warnings: Warning[] = [];
-  const zones: SampledZone[] = [];
-  const taken: RingsPart[][] = [];
-  for (let k = 0; k < sz.keys.length; k++) {
-    let parts = clipParts(sz.parts[k], field.parts, ox, oy);
-    if (taken.length > 0 && parts.length > 0) {
-      const before = partsArea(parts);
-      parts = differenceParts(parts, taken.flat(), ox, oy);
-      const lost = before - partsArea(parts);
-      if (lost > 1e-6 * Math.max(1, before)) {
-        warnings.push({
-          code: 'zones-sampled-overlap',
-          where: sz.keys[k],
-          message: `Sampled zone "${sz.keys[k]}" overlaps an earlier zone by ${((lost * scale) / M2_PER_AC).toFixed(2)} ac; the overlap stays with the earlier zone. Fix: correct the zone polygons so they do not overlap.`,
-        });
-      }
-    }
-    if (parts.length === 0) {
-      warnings.push({
-        code: 'zones-sampled-outside',
-        where: sz.keys[k],
-        message: `Sampled zone "${sz.keys[k]}" lies outside the field boundary; it is left out. Fix: check that the zone file belongs to this field.`,
-      });
-      continue;
-    }
-    taken.push(parts);
-    zones.push({
-      id: zones.length,
-      key: sz.keys[k],
-      parts,
-      lonlat: toLonLat(parts, proj),
-      areaM2: partsArea(parts) * scale,
-    });
-  }
-  const covered = zones.reduce((s, z) => s + z.areaM2, 0);
-  if (field.areaM2 - covered > 1e-4 * field.areaM2) {
-    warnings.push({
-      code: 'zones-sampled-gap',
-      message: `The sampled zones cover ${(covered / M2_PER_AC).toFixed(2)} of the field's ${(field.areaM2 / M2_PER_AC).toFixed(2)} ac; the rest gets no rate. Fix: extend the zone polygons to the boundary.`,
-    });
-  }
-  return { zones, warnings };
-}
-
-function differenceParts(a: RingsPart[], b: RingsPart[], ox: number, oy: number): RingsPart[] {
-  const g = (ps: RingsPart[]) =>
-    ps.map((p) =>
-      [p.exterior, ...p.holes].map((r) => {
-        const out: [number, number][] = [];
-        for (let i = 0; i + 1 < r.length; i += 2) out.push([r[i] - ox, r[i + 1] - oy]);
-        return out;
-      }),
-    );
-  const res = robust(
-    () => polyclip.difference(g(a) as polyclip.Geom, g(b) as polyclip.Geom) as [number, number][][][],
-  );
-  return res
-    .map((poly) => {
-      const rings = poly.map((r) => Float64Array.from(r.flatMap(([x, y]) => [x + ox, y + oy])));
-      return { exterior: rings[0], holes: rings.slice(1) };
-    })
-    .map((p) => ({ exterior: orient(p.exterior, true), holes: p.holes.map((h) => orient(h, false)) }));
 }

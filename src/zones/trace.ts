@@ -38,87 +38,84 @@ const RCX = [0, 0, -1, -1],
  * @example const parts = traceZones(merged.zone, merged.count, grid); parts[0][0].exterior
  */
 export function traceZones(zone: Int32Array, count: number, f: RasterFrame): RingsPart[][] {
-  const { cols, rows, xmin, ymax, cell } = f;
-  const W = cols + 1,
-    V = W * (rows + 1);
-  const visited = new Uint8Array(V); // only west-going edges (north sides of cells) start rings
+  const W = f.cols + 1;
+  const rings: Float64Array[][] = Array.from({ length: count }, () => []);
+  for (const [L, loop] of walkRings(zone, count, f, true)) rings[L].push(keysToRing(loop, W, f));
+  return rings.map(ringsToParts);
+}
+
+/**
+ * Every ring of every zone (zone on the left, 4-connected), as [zone, node keys j * W + i] with the first node
+ * not repeated; a ring that comes back to a node (two cells of the zone touching at a corner) is split there.
+ * Each ring starts at the east end of the north side of its first cell in raster order. With `cornersOnly`
+ * only the nodes where the ring turns are kept (traceZones); otherwise every node (zoneArcs cuts rings at
+ * junctions, which may lie on a straight run).
+ */
+export function walkRings(
+  zone: Int32Array,
+  count: number,
+  f: RasterFrame,
+  cornersOnly: boolean,
+): [number, number[]][] {
+  const { cols, rows } = f;
+  const W = cols + 1;
+  const visited = new Uint8Array(W * (rows + 1)); // only west-going edges (north sides of cells) start rings
   const lab = (c: number, r: number) => (c < 0 || r < 0 || c >= cols || r >= rows ? -1 : zone[r * cols + c]);
-  const rings: number[][][] = Array.from({ length: count }, () => []);
+  const out: [number, number[]][] = [];
   for (let r = 0; r < rows; r++) {
     for (let c = 0; c < cols; c++) {
       const L = zone[r * cols + c];
-      if (L < 0 || lab(c, r - 1) === L || visited[r * W + c + 1]) continue;
-      // trace from vertex (c+1, r) going west
+      if (L < 0 || L >= count || lab(c, r - 1) === L || visited[r * W + c + 1]) continue;
+      // walk from node (c+1, r) going west
       const i0 = c + 1,
         j0 = r,
         d0 = 2;
       let i = i0,
         j = j0,
-        d = d0;
-      const verts: number[] = []; // vertex keys j * W + i
-      let saddles = 0;
+        d = d0,
+        saddles = 0;
+      const keys: number[] = [];
       for (;;) {
         if (d === 2) visited[j * W + i] = 1;
         i += DI[d];
         j += DJ[d];
-        const la = lab(i + LCX[d], j + LCY[d]);
         let nd: number;
-        if (la !== L) {
+        if (lab(i + LCX[d], j + LCY[d]) !== L) {
           nd = (d + 1) & 3;
           if (lab(i + RCX[d], j + RCY[d]) === L) saddles++;
         } else if (lab(i + RCX[d], j + RCY[d]) !== L) nd = d;
         else nd = (d + 3) & 3;
-        if (nd !== d) verts.push(j * W + i);
+        if (!cornersOnly || nd !== d) keys.push(j * W + i);
         d = nd;
         if (i === i0 && j === j0 && d === d0) break;
       }
-      const loops = saddles > 0 ? splitLoops(verts, W) : [verts];
-      for (const loop of loops) rings[L].push(loop);
+      for (const loop of saddles > 0 ? splitRing(keys, W, cornersOnly) : [keys]) out.push([L, loop]);
     }
-  }
-  const out: RingsPart[][] = [];
-  for (let z = 0; z < count; z++) {
-    const shells: { ring: Float64Array; area: number; holes: Float64Array[] }[] = [];
-    const holes: Float64Array[] = [];
-    for (const loop of rings[z]) {
-      const ring = toRing(loop, W, xmin, ymax, cell);
-      const a = ringArea(ring);
-      if (a > 0) shells.push({ ring, area: a, holes: [] });
-      else if (a < 0) holes.push(ring);
-    }
-    if (shells.length === 1) shells[0].holes.push(...holes);
-    else {
-      shells.sort((a, b) => a.area - b.area);
-      for (const h of holes) {
-        const px = (h[0] + h[2]) / 2,
-          py = (h[1] + h[3]) / 2;
-        const s = shells.find((s) => pointInRing(s.ring, px, py));
-        (s ?? shells[shells.length - 1]).holes.push(h);
-      }
-    }
-    out.push(shells.map((s) => ({ exterior: s.ring, holes: s.holes })));
   }
   return out;
 }
 
-/** Splits a closed vertex sequence at repeated vertices into simple loops. */
-function splitLoops(verts: number[], W: number): number[][] {
+/**
+ * Splits a closed node sequence where it comes back to a node, into simple loops: corner loops lose the
+ * vertices left collinear by the split and keep 3 or more, loops of every node keep 4 or more.
+ */
+function splitRing(keys: number[], W: number, cornersOnly: boolean): number[][] {
   const loops: number[][] = [];
   const path: number[] = [];
   const pos = new Map<number, number>();
-  for (const v of verts) {
+  for (const v of keys) {
     const k = pos.get(v);
     if (k !== undefined) {
-      const loop = path.slice(k);
+      loops.push(path.slice(k));
       for (let t = k + 1; t < path.length; t++) pos.delete(path[t]);
       path.length = k + 1;
-      loops.push(loop);
     } else {
       pos.set(v, path.length);
       path.push(v);
     }
   }
   loops.push(path);
+  if (!cornersOnly) return loops.filter((l) => l.length >= 4);
   return loops.map((l) => dropCollinear(l, W)).filter((l) => l.length >= 3);
 }
 
@@ -143,18 +140,44 @@ function dropCollinear(keys: number[], W: number): number[] {
   return out;
 }
 
-function toRing(keys: number[], W: number, xmin: number, ymax: number, cell: number): Float64Array {
+/** A ring in metres (closed) from node keys j * W + i (first not repeated). */
+export function keysToRing(keys: number[], W: number, f: RasterFrame): Float64Array {
   const n = keys.length;
   const out = new Float64Array(2 * n + 2);
   for (let t = 0; t < n; t++) {
     const j = Math.floor(keys[t] / W),
       i = keys[t] - j * W;
-    out[2 * t] = xmin + i * cell;
-    out[2 * t + 1] = ymax - j * cell;
+    out[2 * t] = f.xmin + i * f.cell;
+    out[2 * t + 1] = f.ymax - j * f.cell;
   }
   out[2 * n] = out[0];
   out[2 * n + 1] = out[1];
   return out;
+}
+
+/**
+ * One zone's polygons from its rings (zone on the left): counter-clockwise rings are exteriors, clockwise rings
+ * holes, each hole going to the smallest exterior that contains it (rings of zero area are dropped).
+ */
+export function ringsToParts(rings: Float64Array[]): RingsPart[] {
+  const shells: { ring: Float64Array; area: number; holes: Float64Array[] }[] = [];
+  const holes: Float64Array[] = [];
+  for (const ring of rings) {
+    const area = ringArea(ring);
+    if (area > 0) shells.push({ ring, area, holes: [] });
+    else if (area < 0) holes.push(ring);
+  }
+  if (shells.length === 1) shells[0].holes.push(...holes);
+  else {
+    shells.sort((p, q) => p.area - q.area);
+    for (const h of holes) {
+      const px = (h[0] + h[2]) / 2,
+        py = (h[1] + h[3]) / 2;
+      const s = shells.find((s) => pointInRing(s.ring, px, py));
+      (s ?? shells[shells.length - 1]).holes.push(h);
+    }
+  }
+  return shells.map((s) => ({ exterior: s.ring, holes: s.holes }));
 }
 
 export { pointInRing };

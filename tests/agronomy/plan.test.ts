@@ -117,4 +117,32 @@ describe('plan', () => {
     m = msg(() => parsePlan('crop: [oops', 'p.yaml'));
     expect(m).toContain('not valid YAML');
   });
+
+  it('machine: swath and speed with their units; the older keys still read; both forms refused', () => {
+    const mach = (m: string) => parsePlan(MIN + 'machine:\n' + m, 'p.yaml', tables).machine;
+    // the defaults: 60 ft and 5 mph (the starter plan's values)
+    expect(parsePlan(MIN, 'p.yaml', tables).machine).toMatchObject({
+      swath: { value: 60, unit: 'ft' },
+      speed: { value: 5, unit: 'mph' },
+      rate_change_s: 4,
+      swathFrom: 'default',
+    });
+    expect(mach('  swath_width: 18 m\n  speed: 13 km/h\n')).toMatchObject({
+      swath: { value: 18, unit: 'm' },
+      speed: { value: 13, unit: 'km/h' },
+      swathFrom: 'swath_width',
+      speedFrom: 'speed',
+    });
+    expect(mach('  swath_width_ft: 90\n  speed_mph: 6\n')).toMatchObject({
+      swath: { value: 90, unit: 'ft' },
+      speed: { value: 6, unit: 'mph' },
+      swathFrom: 'swath_width_ft',
+    });
+    let m = msg(() => mach('  speed: 8\n'));
+    expect(m).toMatch(/key "machine.speed" is 8: give the travel speed with its unit, e.g. 5 mph or 8 km\/h/);
+    m = msg(() => mach('  swath_width: 20 yd\n'));
+    expect(m).toMatch(/key "machine.swath_width" is "20 yd": give the swath width with its unit/);
+    m = msg(() => mach('  speed: 8 mph\n  speed_mph: 8\n'));
+    expect(m).toMatch(/machine.speed.*speed_mph gives the speed too; keep one/);
+  });
 });

@@ -16,6 +16,7 @@ import { prescriptionFiles } from '../../src/prescription/shapefiles.js';
 import { hullExtent } from '../../src/check/shape.js';
 import { checkPrescription, type CheckReport } from '../../src/check/index.js';
 import { loadLayer } from '../../src/cli/check.js';
+import { lengthOption, speedOption } from '../../src/cli/util.js';
 import { isUserError } from '../../src/errors.js';
 
 const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
@@ -65,8 +66,8 @@ async function lib(args: string[]): Promise<{ code: number; report: CheckReport;
       rateField: o.rateField as string | undefined,
       min: num('min'),
       max: num('max'),
-      speedKmh: num('speed'),
-      swathM: num('swath'),
+      speed: speedOption('--speed', o.speed as string | undefined, [0.1, 100]),
+      swath: lengthOption('--swath', o.swath as string | undefined, [0.1, 200]),
       transitionS: num('transition'),
       strict: !!o.strict,
     });
@@ -193,6 +194,25 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     // one rate change x 30 m swath = 111.1 m x 30 m = 3333 m2 < 10 000 m2: passes the swath test
     ({ report } = await lib([fx('good.geojson'), '--speed', '12', '--swath', '30']));
     expect(line(report, 'zone_size')[0].status).toBe('pass');
+  });
+
+  it('takes speed and swath with their unit and names them as given', async () => {
+    // 8 mph = 12.874752 km/h (international mile, 1959); x 4 s = 14.3 m
+    let { report } = await lib([fx('good.geojson'), '--speed', '8mph', '--swath', '60ft']);
+    expect(line(report, 'zone_size')[0].message).toMatch(
+      /^at 8 mph \(12\.9 km\/h\) a rate change takes 4 s = 14\.3 m/,
+    );
+    // a plain number is km/h, as before
+    ({ report } = await lib([fx('good.geojson'), '--speed', '12']));
+    expect(line(report, 'zone_size')[0].message).toMatch(/^at 12 km\/h a rate change takes 4 s = 13\.3 m/);
+    // 100 km/h x 4 s = 111.1 m; x 400 ft (121.92 m) = 13 546 m2 > the 10 000 m2 island: too small for the swath
+    ({ report } = await lib([fx('good.geojson'), '--speed', '100km/h', '--swath', '400ft']));
+    expect(line(report, 'zone_size')[0].message).toMatch(/x 400 ft \(121\.9 m\) swath: zone 4/);
+    const bad = await lib([fx('good.geojson'), '--speed', '8 knots']);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(
+      /option --speed: "8 knots" is not a speed .* e\.g\. --speed 13km\/h or --speed 8mph/,
+    );
   });
 
   it('fails when the rate column cannot be told apart, and names the columns', async () => {

@@ -138,3 +138,29 @@ describe('mergeCloseClasses', () => {
     expect(mergeCloseClasses(c, 100).count).toBe(1);
   });
 });
+
+describe('machine settings with their unit', () => {
+  it('the same machine in metric or US units gives the same minimum zone area, named as given', async () => {
+    const { minZoneArea, designLines } = await import('../../src/prescription/zoneDesign.js');
+    const T = defaultTables();
+    const plan = (machine: string) =>
+      parsePlan(
+        `crop: canola\ntarget_yield_bu: 50\nproducts: [{ product: map }]\nmachine:\n${machine}`,
+        'p.yaml',
+        T,
+      );
+    const us = minZoneArea(plan('  swath_width: 60 ft\n  speed: 5 mph\n'), 627000, 62);
+    // 60 ft = 18.288 m and 5 mph = 8.04672 km/h exactly (international foot and mile, 1959)
+    const si = minZoneArea(plan('  swath_width: 18.288 m\n  speed: 8.04672 km/h\n'), 627000, 62);
+    const old = minZoneArea(plan('  swath_width_ft: 60\n  speed_mph: 5\n'), 627000, 62);
+    // 18.288 m x 2.2352 m/s x 4 s = 163.51 m2
+    expect(us.machineM2).toBeCloseTo(18.288 * 2.2352 * 4, 9);
+    expect(si.machineM2).toBeCloseTo(us.machineM2, 9);
+    expect(old.machineM2).toBe(us.machineM2);
+    expect(si.machine).toEqual({ swath: '18.288 m', speed: '8.04672 km/h', rateChangeS: 4 });
+    const design = { minArea: si, minDifference: {}, rmse: {}, counts: {}, vertices: {}, pairs: [], why: '' };
+    expect(designLines(design as any, 'lb/ac').join('\n')).toContain(
+      'during a rate change: 18.288 m x 8.04672 km/h x 4 s)',
+    );
+  });
+});

@@ -77,3 +77,43 @@ describe('library entry', () => {
     expect(u.kgPerLToMgPerL(1.28)).toBe(1_280_000);
   });
 });
+
+describe('machine settings with their unit (speed, swath)', () => {
+  it('reads the number with its unit; a plain number only where a unit is implied', () => {
+    expect(u.parseSpeed('8mph')).toEqual({ value: 8, unit: 'mph' });
+    expect(u.parseSpeed(' 13 km/h ')).toEqual({ value: 13, unit: 'km/h' });
+    expect(u.parseSpeed('13KPH')).toEqual({ value: 13, unit: 'km/h' });
+    expect(u.parseSpeed('12.5', 'km/h')).toEqual({ value: 12.5, unit: 'km/h' });
+    expect(u.parseSpeed(12, 'km/h')).toEqual({ value: 12, unit: 'km/h' });
+    expect(u.parseSpeed('12')).toBeUndefined(); // no unit and none implied
+    expect(u.parseSpeed(12)).toBeUndefined();
+    expect(u.parseSpeed('8 knots')).toBeUndefined();
+    expect(u.parseSpeed('-8mph')).toBeUndefined();
+    expect(u.parseSpeed('8 mph 2')).toBeUndefined();
+    expect(u.parseLength('60ft')).toEqual({ value: 60, unit: 'ft' });
+    expect(u.parseLength('18 m')).toEqual({ value: 18, unit: 'm' });
+    expect(u.parseLength('18 metres')).toEqual({ value: 18, unit: 'm' });
+    expect(u.parseLength('30', 'm')).toEqual({ value: 30, unit: 'm' });
+    expect(u.parseLength('60 yd')).toBeUndefined();
+  });
+
+  it('converts with the exact international mile and foot', () => {
+    // source: international yard and pound agreement (1959): 1 ft = 0.3048 m, 1 mi = 1609.344 m, both exact
+    expect(u.lengthM({ value: 60, unit: 'ft' })).toBeCloseTo(18.288, 12);
+    expect(u.lengthM({ value: 18, unit: 'm' })).toBe(18);
+    expect(u.speedKmh({ value: 5, unit: 'mph' })).toBeCloseTo(8.04672, 12);
+    expect(u.speedMs({ value: 5, unit: 'mph' })).toBeCloseTo(2.2352, 12);
+    // source: SI: 1 km/h = 1000 m / 3600 s
+    expect(u.speedMs({ value: 18, unit: 'km/h' })).toBeCloseTo(5, 12);
+    expect(u.kmhToMs(36)).toBeCloseTo(10, 12);
+    // source: SI: 1 t = 1000 kg
+    expect(u.kgToTonnes(2500)).toBe(2.5);
+  });
+
+  it('names a quantity as given, with km/h or m beside mph or ft', () => {
+    expect(u.quantityText({ value: 8, unit: 'mph' })).toBe('8 mph (12.9 km/h)');
+    expect(u.quantityText({ value: 60, unit: 'ft' })).toBe('60 ft (18.3 m)');
+    expect(u.quantityText({ value: 12, unit: 'km/h' })).toBe('12 km/h');
+    expect(u.quantityText({ value: 60, unit: 'ft' }, false)).toBe('60 ft');
+  });
+});

@@ -75,38 +75,45 @@ const fc = (zones: { lonlat: number[][][][] }[]) =>
 describe.skipIf(!requireTool('ogrinfo', 'gdal-bin'))(
   'zones open in GDAL ogrinfo and are valid (GEOS ST_IsValid)',
   () => {
-    it('raster zones from a noisy surface', () => {
-      const f = field();
-      const grid = gridFor(f, 4);
-      const v = new Float64Array(grid.cols * grid.rows);
-      let s = 7;
-      for (let i = 0; i < v.length; i++) {
-        s = (s * 1664525 + 1013904223) >>> 0;
-        const c = i % grid.cols,
-          r = Math.floor(i / grid.cols);
-        v[i] =
-          grid.fraction[i] > 0 ? 60 + 30 * Math.sin(c / 17) * Math.cos(r / 23) + 25 * (s / 2 ** 32) : NaN;
-      }
-      const zs = makeZones(grid, v, f, {
-        method: 'quantile',
-        classes: 5,
-        step: 5,
-        minAreaM2: 500,
-        majorityIterations: 1,
-        projector: f.projector,
-      });
-      expect(zs.zones.length).toBeGreaterThan(5);
-      const dir = mkdtempSync(join(tmpdir(), 'tilth-zones-'));
-      try {
-        const file = join(dir, 'zones.geojson');
-        writeFileSync(file, fc(zs.zones));
-        const [n, valid] = ogrValid(file);
-        expect(n).toBe(zs.zones.length);
-        expect(valid).toBe(n);
-      } finally {
-        rmSync(dir, { recursive: true, force: true });
-      }
-    });
+    it.each([
+      { simplifyCells: 1, minAreaM2: 500 },
+      { simplifyCells: 3, minAreaM2: 0 }, // wide smoothing, tiny zones along the edge kept
+    ])(
+      'raster zones from a noisy surface (edge tolerance $simplifyCells cell(s))',
+      ({ simplifyCells, minAreaM2 }) => {
+        const f = field();
+        const grid = gridFor(f, 4);
+        const v = new Float64Array(grid.cols * grid.rows);
+        let s = 7;
+        for (let i = 0; i < v.length; i++) {
+          s = (s * 1664525 + 1013904223) >>> 0;
+          const c = i % grid.cols,
+            r = Math.floor(i / grid.cols);
+          v[i] =
+            grid.fraction[i] > 0 ? 60 + 30 * Math.sin(c / 17) * Math.cos(r / 23) + 25 * (s / 2 ** 32) : NaN;
+        }
+        const zs = makeZones(grid, v, f, {
+          method: 'quantile',
+          classes: 5,
+          step: 5,
+          minAreaM2,
+          simplifyCells,
+          majorityIterations: 1,
+          projector: f.projector,
+        });
+        expect(zs.zones.length).toBeGreaterThan(5);
+        const dir = mkdtempSync(join(tmpdir(), 'tilth-zones-'));
+        try {
+          const file = join(dir, 'zones.geojson');
+          writeFileSync(file, fc(zs.zones));
+          const [n, valid] = ogrValid(file);
+          expect(n).toBe(zs.zones.length);
+          expect(valid).toBe(n);
+        } finally {
+          rmSync(dir, { recursive: true, force: true });
+        }
+      },
+    );
 
     it('traced noise rasters (many corner-only contacts, split rings, touching holes) are valid for GEOS', () => {
       const f = field();

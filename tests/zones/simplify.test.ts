@@ -11,6 +11,7 @@ import * as polyclip from 'polyclip-ts';
 import {
   arcsToParts,
   labelComponents,
+  makeZones,
   ringsVertexCount,
   robust,
   simplifyArcs,
@@ -19,6 +20,7 @@ import {
 } from '../../src/zones/index.js';
 import { partsArea } from '../../src/geo/area.js';
 import type { RingsPart } from '../../src/types.js';
+import { fieldFromParts, gridFor, ring, X0, Y0 } from './fixtures.js';
 
 const geom = (parts: RingsPart[]) =>
   parts.map((p) =>
@@ -118,5 +120,53 @@ describe('simplifying shared arcs', () => {
       ),
       { numRuns: 120 },
     );
+  });
+});
+
+describe('smoothing in makeZones', () => {
+  it('rate classes of several zones do not change the smoothing (each zone is judged by its own area)', () => {
+    // five wavy stripes, classes A B A B A: with a judge, the three A stripes form one rate class and the two B
+    // stripes another. Smoothing keeps a zone's staircase only if it would lose half its own area, so the zones
+    // must come out exactly as without a judge (a zone judged by its rate class's pooled area kept its staircase)
+    const W0 = 250,
+      H0 = 120,
+      cell = 2;
+    const field = fieldFromParts([
+      {
+        exterior: ring(
+          [
+            [X0, Y0],
+            [X0 + W0, Y0],
+            [X0 + W0, Y0 + H0],
+            [X0, Y0 + H0],
+          ],
+          true,
+        ),
+        holes: [],
+      },
+    ]);
+    const grid = gridFor(field, cell);
+    const classOf = new Int16Array(grid.cols * grid.rows);
+    const value = new Float64Array(grid.cols * grid.rows);
+    for (let r = 0; r < grid.rows; r++)
+      for (let c = 0; c < grid.cols; c++) {
+        const x = (c + 0.5) * cell + 9 * Math.sin((r * cell) / 11),
+          stripe = Math.max(0, Math.min(4, Math.floor(x / 50)));
+        classOf[r * grid.cols + c] = stripe % 2;
+        value[r * grid.cols + c] = stripe % 2 ? 50 : 10;
+      }
+    const judge = {
+      layers: [value],
+      profile: (m: Float64Array) => m[0],
+      compare: (a: number, b: number) => ({ apart: Math.abs(a - b) >= 5, score: Math.abs(a - b), why: null }),
+    };
+    const opts = { minAreaM2: 0, majorityIterations: 0, lonlat: false, simplifyCells: 2 };
+    const plain = makeZones(grid, { classOf }, field, opts);
+    const rated = makeZones(grid, { classOf }, field, { ...opts, judge });
+    expect(plain.zones.length).toBe(5);
+    expect(rated.counts.rateClasses).toBe(2);
+    expect(rated.vertices).toEqual(plain.vertices);
+    expect(rated.vertices.simplified).toBeLessThan(rated.vertices.traced / 2);
+    rated.zones.forEach((z, k) => expect(partsArea(z.parts)).toBeCloseTo(partsArea(plain.zones[k].parts), 6));
   });
 });
