@@ -21,12 +21,11 @@ import { checkBoundary } from './boundary.js';
 import { checkRateFields, checkRateRange, rateTotals } from './rates.js';
 import { checkZoneSize } from './zoneSize.js';
 
-export { readLayer, layerFromGeoJSON, type CheckLayer, type LayerField } from './layer.js';
+export { readLayer, layerFromGeoJSON, type CheckLayer } from './layer.js';
 
-export { SLIVER_M2, SLIVER_WIDTH_M } from './context.js';
 export { DEFAULT_TRANSITION_S } from './context.js';
 
-export type { CheckStatus, CheckLine, RateTotal, CheckReport, CheckOptions } from './types.js';
+export type { CheckReport, CheckOptions } from './types.js';
 import type { CheckLine, CheckOptions, CheckReport } from './types.js';
 
 /**

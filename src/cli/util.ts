@@ -8,13 +8,8 @@ import { terminalSafe } from './safety/stdio.js';
 import { checkInputSize } from './safety/sizes.js';
 
 // output writing lives in ./safety/ (never lose a user's files); re-exported for the commands
-export { checkOutputDir, writeOutputDir, type OutputDirOptions } from './safety/outdir.js';
-export {
-  checkOutputFile,
-  writeFileAtomic,
-  writeOutputFile,
-  type OutputFileOptions,
-} from './safety/outfile.js';
+export { checkOutputDir, writeOutputDir } from './safety/outdir.js';
+export { checkOutputFile, writeOutputFile } from './safety/outfile.js';
 import { lengthM, parseLength, parseSpeed, speedKmh, type Length, type Speed } from '../units/index.js';
 
 /** Reads a whole file; a missing or unreadable file, or one over its kind's size limit (./safety/sizes.ts), is a UserError naming it and the fix. */

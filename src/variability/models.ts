@@ -8,7 +8,6 @@
  */
 
 export type ModelKind = 'spherical' | 'exponential' | 'gaussian';
-export const MODEL_KINDS: readonly ModelKind[] = ['spherical', 'exponential', 'gaussian'];
 
 /** gstat's short names, for output that is compared with gstat */
 export const GSTAT_NAME: Readonly<Record<ModelKind, string>> = {

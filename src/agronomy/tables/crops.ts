@@ -1,5 +1,5 @@
 /** Default crop table: yield and removal per bushel, seed-row groups and limits per crop. See defaults.ts. */
-import type { TablesInput } from '../tables.js';
+import type { TablesInput } from './schema.js';
 
 const MB_SEED_P =
   '[published] Manitoba Agriculture, Safe Rates of Seed-Placed Phosphorus: maximum seed-placed P2O5 as MAP (the N in MAP within it allowed for), 1 in spread, 6-7 in rows (7 in taken), good moisture';

@@ -5,7 +5,7 @@
  * gives is `missing: true`: the program then asks the user (a plan key) instead of inventing one.
  * Users print these with `tilth tables`, edit them, and pass `--tables my-tables.yaml`.
  */
-import type { TablesInput } from '../tables.js';
+import type { TablesInput } from './schema.js';
 import { CROPS } from './crops.js';
 import { PRODUCTS } from './products.js';
 import { SEED_ROW } from './seedRow.js';

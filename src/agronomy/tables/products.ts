@@ -1,5 +1,5 @@
 /** Default N efficiency by timing and placement, placement efficiency, and the products. See defaults.ts. */
-import type { TablesInput } from '../tables.js';
+import type { TablesInput } from './schema.js';
 
 const IFA = '[published] International Fertilizer Association product tables';
 const PRICE = "from memory: placeholder price in $ per tonne; replace with your dealer's quote";

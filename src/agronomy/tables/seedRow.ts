@@ -1,5 +1,5 @@
 /** Default seed-row urea-N tables (by texture, spread and row spacing) and the dry-seedbed factor. See defaults.ts. */
-import type { TablesInput } from '../tables.js';
+import type { TablesInput } from './schema.js';
 
 const MB_SEED_N =
   '[published] Manitoba Agriculture, Guidelines for Safely Applying Fertilizer with Seed (urea-N, good-to-excellent seedbed moisture)';

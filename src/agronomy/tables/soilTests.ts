@@ -1,5 +1,5 @@
 /** Default soil-test tables: P and K classes and rates, yield gain by class, soil constants and N credits. See defaults.ts. */
-import type { TablesInput } from '../tables.js';
+import type { TablesInput } from './schema.js';
 
 const CANOLA_K =
   'from memory: canola K classes; canola responds to potash less than cereals, a response likely only well below the critical level (below about 75 ppm, [published] Canola Encyclopedia, Potassium Fertilizer Management; Canola Digest Science Edition 2014)';

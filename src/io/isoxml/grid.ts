@@ -21,20 +21,6 @@ export function gridBytes(g: Pick<IsoGrid, 'type' | 'cols' | 'rows'>, perCell: n
 }
 
 /**
- * The cell holding a point, or -1 outside the grid: index row * cols + col, row 0 the southern row.
- * @example gridCellAt({ south: 0, west: 0, cellNorth: 1, cellEast: 1, cols: 2, rows: 2 }, 1.5, 0.5) // 1
- */
-export function gridCellAt(
-  g: Pick<IsoGrid, 'south' | 'west' | 'cellNorth' | 'cellEast' | 'cols' | 'rows'>,
-  lon: number,
-  lat: number,
-): number {
-  const c = Math.floor((lon - g.west) / g.cellEast),
-    r = Math.floor((lat - g.south) / g.cellNorth);
-  return c >= 0 && r >= 0 && c < g.cols && r < g.rows ? r * g.cols + c : -1;
-}
-
-/**
  * A type-2 grid's values as int32 (cell-major: cell i's values at i * perCell ...), read little-endian.
  * @example decodeInt32LE(encodeInt32LE(Int32Array.of(7)))[0] // 7
  */

@@ -2,5 +2,4 @@
 export * from './model.js';
 export { taskDataXml, taskDataFiles } from './write.js';
 export { readTaskData } from './read.js';
-export { encodeInt32LE, decodeInt32LE, gridBytes, gridCellAt } from './grid.js';
-export { parseXml, writeXml, el, type XmlElement } from './xml.js';
+export { encodeInt32LE, decodeInt32LE } from './grid.js';
