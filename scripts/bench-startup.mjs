@@ -1,6 +1,6 @@
-// Start-up benchmark: `tilth --version` and a build of the demo quarter up to its first progress line,
-// as whole processes (wall from spawn, CPU = user + system from /usr/bin/time), plus bare `node -e 0` for
-// scale. Medians of several runs. Record the figures and the load average in docs/performance.md.
+// Start-up benchmark: `tilth --version`, `--help` of single commands and a build of the demo quarter up to its
+// first progress line, as whole processes (wall from spawn, CPU = user + system from /usr/bin/time), plus bare
+// `node -e 0` for scale. Medians of several runs. Record the figures and the load average in docs/performance.md.
 //
 // Usage: node scripts/bench-startup.mjs [--runs 7]
 //   TILTH_BENCH_CLI=path: time that entry point instead of bin/tilth.js (e.g. an older bundle)
@@ -69,6 +69,8 @@ try {
   };
   series('node -e 0', () => timed(['-e', '0']));
   series('tilth --version', () => timed([TILTH, '--version']));
+  for (const c of ['inspect', 'surface', 'build'])
+    series(`tilth ${c} --help (loads that command)`, () => timed([TILTH, c, '--help']));
   const build = ['build', '--samples', `${Q}/samples.csv`, '--boundary', `${Q}/boundary.geojson`];
   build.push('--plan', `${Q}/plan.yaml`, '--cell', '2', '--force', '--out', join(dir, 'out'));
   const first = [];

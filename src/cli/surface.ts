@@ -21,7 +21,6 @@ import {
   surfaceDoneText,
   surfaceJson,
 } from '../surface/surfaceOutput.js';
-import { tablesFromOption } from './plan.js';
 import { addInputOptions, inputOptionsFrom, loadInputs } from './inputs.js';
 import { addThreadsOption, surfaceThreads } from './threads.js';
 import { checkOutputFile, info, numberOption, out, printWarnings, writeOutputFile } from './util.js';
@@ -199,8 +198,10 @@ async function runSurface(o: SurfaceFlags): Promise<void> {
     ours: ASC_OURS,
   });
   writeOutputFile(prjPath, prjText(inputs.field.utm), { ...fileOpts, ours: prjOurs });
-  const extra = o.chanceMaps
-    ? chanceGrids(s, o.crop, () => tablesFromOption(o.tables), inputs.samples.pMethod, warnings)
+  // the tables (and their parser) load only for chance maps
+  const tablesFrom = o.chanceMaps ? (await import('./plan.js')).tablesFromOption : null;
+  const extra = tablesFrom
+    ? chanceGrids(s, o.crop, () => tablesFrom(o.tables), inputs.samples.pMethod, warnings)
     : new Map<string, ArrayLike<number>>();
   for (const [suffix, values] of extra) {
     const file = o.out.replace(/\.asc$/i, `-${suffix}.asc`);
