@@ -8,7 +8,7 @@
  *   the `--nutrient` flag naming an analyte) are kept where they are public, and new code follows this rule.
  * - Every analyte, nutrient and placement name a person reads comes from the maps below (`ANALYTE_NAME`,
  *   `ANALYTE_LABEL`, `ANALYTE_DEPTH_LABEL`, `ANALYTE_SAMPLED`, `ANALYTE_UNIT`, `NUTRIENT_NAME`,
- *   `PLACEMENT_NAME`); never write a local map of them.
+ *   `PLACEMENT_NAME`, `placementName`, `PLACEMENT_KIND_NAME`); never write a local map of them.
  * - **placement** = where a product goes: seed_row, side_band, mid_row_band, broadcast (`PLACEMENTS`).
  * - **rate column** = `<product stem>_<unit>` with unit lbac, kgha, galac or lha (src/prescription/shapefiles.ts
  *   `RX_UNITS`; `tilth check` finds rate columns by the same suffixes).
@@ -92,6 +92,33 @@ export const PLACEMENT_NAME: Readonly<Record<Placement, string>> = {
   seed_row: 'seed row',
   side_band: 'side band',
   mid_row_band: 'mid-row band',
+  broadcast: 'broadcast',
+};
+
+/** A placement's short tag in rate column names (`map_seed_lbac`) and zone tables. @example PLACEMENT_TAG.broadcast // 'bcast' */
+export const PLACEMENT_TAG: Readonly<Record<Placement, string>> = {
+  seed_row: 'seed',
+  side_band: 'band',
+  mid_row_band: 'midrow',
+  broadcast: 'bcast',
+};
+
+/**
+ * A placement's name for people, also for one read from a file that may name a placement tilth does not know
+ * (written with its underscores as spaces).
+ * @example placementName('side_band') // 'side band'; placementName('deep_band') // 'deep band'
+ */
+export function placementName(placement: string): string {
+  return PLACEMENT_NAME[placement as Placement] ?? placement.split('_').join(' ');
+}
+
+/** The kinds of placement the N relative efficiency table is given for: the seed row, any band, broadcast. */
+export const PLACEMENT_KINDS = ['seed_row', 'band', 'broadcast'] as const;
+export type PlacementKind = (typeof PLACEMENT_KINDS)[number];
+/** Placement kind names as people write them. @example PLACEMENT_KIND_NAME.seed_row // 'seed row' */
+export const PLACEMENT_KIND_NAME: Readonly<Record<PlacementKind, string>> = {
+  seed_row: 'seed row',
+  band: 'band',
   broadcast: 'broadcast',
 };
 

@@ -3,7 +3,7 @@
  * cannot be met, which nutrient could not and why. Wording for the decision's `binding` and `infeasible` lists.
  */
 import { lbacToKgha, type RateUnit } from '../units/index.js';
-import { NUTRIENT_NAME } from '../vocabulary.js';
+import { NUTRIENT_NAME, PLACEMENT_NAME } from '../vocabulary.js';
 import { EPS, r1, zero } from './decision.js';
 import type { Plan } from './plan.js';
 import type { SeedRowLimits } from './seedrow.js';
@@ -63,9 +63,9 @@ export function bindingLimits(
   }
   opts.forEach((o, i) => {
     if (res.rates[i]! > 0 && res.rates[i]! >= o.maxLb - EPS)
-      out.push(`machine maximum for ${o.label} in the ${o.placement.replace(/_/g, ' ')} (${o.max} ${unit})`);
+      out.push(`machine maximum for ${o.label} in the ${PLACEMENT_NAME[o.placement]} (${o.max} ${unit})`);
     if (o.minLb > 0 && res.rates[i]! > 0 && res.rates[i]! <= o.minLb + EPS)
-      out.push(`machine minimum for ${o.label} in the ${o.placement.replace(/_/g, ' ')} (${o.min} ${unit})`);
+      out.push(`machine minimum for ${o.label} in the ${PLACEMENT_NAME[o.placement]} (${o.min} ${unit})`);
   });
   return out;
 }
@@ -108,7 +108,7 @@ export function diagnose(
       out.push({
         nutrient: n,
         reason:
-          `at most ${r1(most)} lb ${name}/ac can be delivered, short of the target ${r1(need[n])} less the ${r1(tol * 100)} % tolerance: products carrying ${name} are allowed only in ${places.map((p) => p.replace(/_/g, ' ')).join(', ')}` +
+          `at most ${r1(most)} lb ${name}/ac can be delivered, short of the target ${r1(need[n])} less the ${r1(tol * 100)} % tolerance: products carrying ${name} are allowed only in ${places.map((p) => PLACEMENT_NAME[p]).join(', ')}` +
           (why.length ? `, where ${why.join(' and ')} bind${why.length > 1 ? '' : 's'}` : '') +
           (places.length === 1 && places[0] === 'seed_row'
             ? `. No product that carries ${name} is allowed outside the seed row. Fix: allow a band or broadcast placement for one of them.`

@@ -2,7 +2,7 @@
  * A Decision as text for people (the CLI prints it; the report may reuse it).
  */
 import { lbacToKgha } from '../units/index.js';
-import { NUTRIENT_NAME as NAME } from '../vocabulary.js';
+import { NUTRIENT_NAME as NAME, PLACEMENT_NAME } from '../vocabulary.js';
 import type { Decision } from './decision.js';
 import { NUTRIENTS } from './tables.js';
 
@@ -61,7 +61,7 @@ export function formatDecision(d: Decision): string {
     L.push('Products');
     if (d.placements.length === 0) L.push('  none');
     for (const p of d.placements) {
-      L.push(`  ${p.placement.replace(/_/g, ' ')}:`);
+      L.push(`  ${PLACEMENT_NAME[p.placement]}:`);
       for (const q of p.products) {
         const carried = NUTRIENTS.filter((n) => q.nutrients[n] > 0)
           .map((n) => `${f1(q.nutrients[n])} ${NAME[n]}`)

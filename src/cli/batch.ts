@@ -8,6 +8,7 @@ import type { BuildFlags } from './build.js';
 import { runPool } from './batchPool.js';
 import type { FieldJob, FieldResult } from './batchWorker.js';
 import { CAUTION, info, numberOption, out, readInput } from './util.js';
+import { PLACEMENT_NAME } from '../vocabulary.js';
 
 interface BatchFlags {
   workers?: string;
@@ -159,7 +160,7 @@ function farmText(s: ReturnType<typeof farmSummary>): string {
   if (!s.totals.length) lines.push('  (no product is applied on any field built)');
   for (const t of s.totals)
     lines.push(
-      `  ${t.label} (${t.placement.replace(/_/g, ' ')}): ${t.total_lb} lb = ${t.total_tonnes} t, ${t.applied_ac} ac on ${t.fields} field(s)`,
+      `  ${t.label} (${PLACEMENT_NAME[t.placement]}): ${t.total_lb} lb = ${t.total_tonnes} t, ${t.applied_ac} ac on ${t.fields} field(s)`,
     );
   return lines.join('\n');
 }

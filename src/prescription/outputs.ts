@@ -7,19 +7,13 @@ import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson'
 import type { Placement } from '../agronomy/tables.js';
 import { NUTRIENTS } from '../agronomy/tables.js';
 import { productRate, usedPairs } from './totals.js';
-import { NUTRIENT_NAME } from '../vocabulary.js';
+import { NUTRIENT_NAME, PLACEMENT_TAG } from '../vocabulary.js';
 import type { Prescription, ZoneSetResult } from './types.js';
 import { apartText, designLines, type ZoneDesign } from './zoneDesign.js';
 import { kgToTonnes, m2ToAc } from '../units/index.js';
 
 const unitTag = (u: string) => (u === 'kg/ha' ? 'kgha' : 'lbac');
 const round = (v: number, d: number) => (Number.isFinite(v) ? Number(v.toFixed(d)) : null);
-const PLACEMENT_TAG: Record<Placement, string> = {
-  seed_row: 'seed',
-  side_band: 'band',
-  mid_row_band: 'midrow',
-  broadcast: 'bcast',
-};
 
 /** Column name of a product rate: `<product>_<placement>_<unit>`, e.g. `map_seed_lbac`. */
 export function rateColumn(product: string, placement: Placement, unit: string): string {

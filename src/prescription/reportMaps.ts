@@ -25,13 +25,13 @@ export function displayFactor(g: { cols: number; rows: number }): number {
 /**
  * A grid coarsened by a whole factor for display: each new cell takes the value of the original cell at its
  * centre (nearest, so class rasters keep their classes). A 1 m grid on a section (2.6 million cells) is shown
- * at 4 m; the prescription itself is unchanged.
+ * at 4 m; the prescription itself is unchanged. `cells` lists the original cells shown (null at factor 1).
  */
 export function coarsen(
   g: { xmin: number; ymax: number; cell: number; cols: number; rows: number },
   factor: number,
 ) {
-  if (factor <= 1) return { grid: g, pick: (v: ArrayLike<number>) => v };
+  if (factor <= 1) return { grid: g, pick: (v: ArrayLike<number>) => v, cells: null };
   const cols = Math.ceil(g.cols / factor),
     rows = Math.ceil(g.rows / factor);
   const grid = { xmin: g.xmin, ymax: g.ymax, cell: g.cell * factor, cols, rows };
@@ -46,7 +46,7 @@ export function coarsen(
     for (let i = 0; i < idx.length; i++) out[i] = v[idx[i]];
     return out;
   };
-  return { grid, pick };
+  return { grid, pick, cells: idx };
 }
 
 /** The prescription's grid as the report shows it: coarsened when fine, with the note the legends carry. */

@@ -4,6 +4,7 @@ import type { Plan } from '../agronomy/plan.js';
 import type { CropTable, Tables } from '../agronomy/tables.js';
 import type { ReportTableUsed } from '../report/types.js';
 import type { PMethod } from '../types.js';
+import { PLACEMENT_KIND_NAME, PLACEMENT_KINDS } from '../vocabulary.js';
 
 function mark(source: string): string {
   if (source.startsWith('[published]')) return 'published';
@@ -37,10 +38,10 @@ export function tablesUsed(
     );
   const nEff = tables.n_relative_efficiency;
   for (const tm of ['spring', 'fall'] as const)
-    for (const pl of ['seed_row', 'band', 'broadcast'] as const) {
+    for (const pl of PLACEMENT_KINDS) {
       const cell = nEff[tm][pl];
       add(
-        `N relative efficiency, ${tm} ${pl.replace('_', ' ')}: ${'missing' in cell ? 'missing' : cell.value} (spring broadcast = 100; reference ${nEff.reference.timing} ${nEff.reference.placement})`,
+        `N relative efficiency, ${tm} ${PLACEMENT_KIND_NAME[pl]}: ${'missing' in cell ? 'missing' : cell.value} (spring broadcast = 100; reference ${nEff.reference.timing} ${PLACEMENT_KIND_NAME[nEff.reference.placement]})`,
         cell.source,
       );
     }

@@ -10,6 +10,7 @@ import { zipFiles } from '../io/zip.js';
 import { groundAreaM2 } from '../geo/ground-area.js';
 import { acToHa, m2ToAc, m2ToHa } from '../units/index.js';
 import { VERSION } from '../version.js';
+import { placementName } from '../vocabulary.js';
 
 /** Rate units a prescription may carry, and the short form used in column names. */
 export const RX_UNITS = { 'lb/ac': 'lbac', 'kg/ha': 'kgha', 'US gal/ac': 'galac', 'L/ha': 'lha' } as const;
@@ -354,7 +355,7 @@ function noteText(
     'Rate columns (rates are product, not nutrient; the unit is the end of the column name):',
     ...cols.map(
       (c) =>
-        `  ${c.column}: ${c.product}, placed ${c.placement.replace(/_/g, ' ')}, ${c.unit}; ${c.min.toFixed(decimalsFor(c.unit))} to ${c.max.toFixed(decimalsFor(c.unit))}; about ${c.total.toFixed(0)} ${TOTAL_UNIT[c.unit]} in all`,
+        `  ${c.column}: ${c.product}, placed ${placementName(c.placement)}, ${c.unit}; ${c.min.toFixed(decimalsFor(c.unit))} to ${c.max.toFixed(decimalsFor(c.unit))}; about ${c.total.toFixed(0)} ${TOTAL_UNIT[c.unit]} in all`,
     ),
     '',
     'Other columns: zone_id (zone), area_ac and area_ha (zone ground area). The .columns.csv (8.3: .CSV) lists every column.',

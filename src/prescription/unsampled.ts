@@ -26,6 +26,7 @@ import type { Field, FieldInputs } from '../types.js';
 import { kghaToLbac, lbacToKgha, m2ToAc, m2ToHa } from '../units/index.js';
 import { farParts, MAX_UNSAMPLED_DISTANCE_M } from '../validate/coverage.js';
 import type { Prescription, PrescriptionZone } from './types.js';
+import { PLACEMENT_NAME } from '../vocabulary.js';
 
 /** The field split into the parts the samples speak for and those they do not. */
 export interface UnsampledSplit {
@@ -239,7 +240,7 @@ export function unsampledDecision(plan: Plan, tables: Tables): Decision {
 /** "urea 80 lb/ac side band, map 40 lb/ac side band", or "no product". */
 function ratesText(d: Decision, unit: string): string {
   const list = d.placements.flatMap((p) =>
-    p.products.map((q) => `${q.product} ${r1(q.rate.value)} ${unit} ${p.placement.replace(/_/g, ' ')}`),
+    p.products.map((q) => `${q.product} ${r1(q.rate.value)} ${unit} ${PLACEMENT_NAME[p.placement]}`),
   );
   return list.length ? list.join(', ') : 'no product';
 }

@@ -68,6 +68,11 @@ export interface ChanceMapOptions {
   fit?: FitOptions;
   /** the nutrient's surface from the surface stage: its kriging (or its model, or its refusal) is used */
   surface?: KrigedSurface;
+  /**
+   * krige only these cells of `grid` (e.g. the cells a map coarsened for display shows), leaving the others NaN;
+   * the field shares are then estimated from them, each weighted by its own fraction (default: every field cell)
+   */
+  cells?: Int32Array | null;
 }
 
 /**
@@ -76,7 +81,8 @@ export interface ChanceMapOptions {
  * @param analyte the nutrient
  * @param grid the field grid (values where fraction > 0)
  * @param threshold "low" means below this value (unit: the nutrient's canonical unit)
- * @param opts log false, neighbours 16, fit method 7; `surface` reuses the surface stage's kriging
+ * @param opts log false, neighbours 16, fit method 7; `surface` reuses the surface stage's kriging; `cells`
+ *   (default all) krige only the listed cells: a 1 m section shown at 4 m takes a sixteenth of the time
  * @example const m = chanceBelowMap(inputs.samples, 'so4_s', fieldGrid(inputs.field, 10), { value: 20, unit: 'lb S/ac' }); m.refused ?? m.expectedShare
  */
 export function chanceBelowMap(
@@ -115,7 +121,7 @@ export function chanceBelowMap(
     method: k.method,
     transform: k.cells.transform,
     msse: k.msse,
-    ...summary(chance, grid),
+    ...summary(chance, grid, Boolean(opts.cells) && !k.whole),
   };
 }
 
@@ -129,7 +135,7 @@ export function krigedCells(
   analyte: Analyte,
   grid: Grid,
   opts: ChanceMapOptions,
-): { cells: KrigedCells; method: string; msse: number | null } | { refused: string } {
+): { cells: KrigedCells; method: string; msse: number | null; whole?: boolean } | { refused: string } {
   const s = opts.surface;
   const described = (info: KrigingInfo) =>
     `ordinary kriging, ${info.modelText}, ${info.neighbours} neighbours`;
@@ -138,6 +144,7 @@ export function krigedCells(
       cells: { mean: s.krigedMean, variance: s.variance, transform: s.kriging.transform },
       method: `${described(s.kriging)} (the surface's own)`,
       msse: s.kriging.cv?.msse ?? null,
+      whole: true,
     };
   if (s?.method === 'zones' || samples.zone.some((z) => z !== null))
     return { refused: 'zone-composite samples each stand for a whole zone; kriging needs point samples' };
@@ -149,7 +156,7 @@ export function krigedCells(
       : krigingCandidate(pts.xy, pts.z, { log: opts.log, neighbours: opts.neighbours, fit: opts.fit });
   if (!info.model || info.refused)
     return { refused: `ordinary kriging is refused: ${info.refused ?? 'no model'}` };
-  const g = krigeGrid(pts.xy, pts.z, grid, info);
+  const g = krigeGrid(pts.xy, pts.z, opts.cells ? onlyCells(grid, opts.cells) : grid, info);
   return {
     cells: { mean: g.mean, variance: g.variance, transform: info.transform },
     method: described(info),
@@ -157,10 +164,21 @@ export function krigedCells(
   };
 }
 
-/** Expected share below (area-weighted mean chance) and the shares at least 50 % and 90 % likely. */
+/** The grid with its fraction kept only at `cells` (kriging computes the cells with a fraction). */
+function onlyCells(grid: Grid, cells: Int32Array): Grid {
+  const fraction = new Float32Array(grid.fraction.length);
+  for (let j = 0; j < cells.length; j++) fraction[cells[j]] = grid.fraction[cells[j]];
+  return { ...grid, fraction };
+}
+
+/**
+ * Expected share below (area-weighted mean chance) and the shares at least 50 % and 90 % likely; `sampled`:
+ * the chance is known at some cells only, so the acres are the share times the whole field's area.
+ */
 function summary(
   chance: Float32Array,
   grid: Grid,
+  sampled = false,
 ): Pick<ChanceMap, 'expectedShare' | 'expectedAc' | 'shareLikely'> {
   let w = 0,
     e = 0,
@@ -175,9 +193,15 @@ function summary(
     if (chance[i] >= 0.9) p90 += f;
   }
   if (!(w > 0)) return { expectedShare: null, expectedAc: null, shareLikely: null };
+  let area = e; // the expected number of whole cells below
+  if (sampled) {
+    let all = 0;
+    for (let i = 0; i < grid.fraction.length; i++) if (grid.fraction[i] > 0) all += grid.fraction[i];
+    area = (e / w) * all;
+  }
   return {
     expectedShare: e / w,
-    expectedAc: (e * grid.cell * grid.cell) / M2_PER_AC,
+    expectedAc: (area * grid.cell * grid.cell) / M2_PER_AC,
     shareLikely: { p50: p50 / w, p90: p90 / w },
   };
 }

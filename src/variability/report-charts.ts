@@ -128,6 +128,8 @@ export interface ReportView {
   pick: (v: ArrayLike<number>) => ArrayLike<number>;
   /** the display factor (1: full resolution) */
   factor: number;
+  /** the original cells shown (null: all of them) */
+  cells: Int32Array | null;
 }
 
 /**
@@ -147,7 +149,8 @@ export function buildSulphurChance(
 ): ReportChanceMap | null {
   if (!Array.from(samples.values.so4_s).some(Number.isFinite)) return null;
   const t = { value: crop?.s_low_below_lb.value ?? 20, unit: 'lb S/ac' };
-  const m = chanceBelowMap(samples, 'so4_s', grid, t, { ...settings, surface });
+  // kriged only at the cells the map shows (a sixteenth of a 1 m section's cells at 4 m)
+  const m = chanceBelowMap(samples, 'so4_s', grid, t, { ...settings, surface, cells: view.cells });
   const base = {
     nutrient: 'so4_s',
     threshold: t.value,
@@ -164,7 +167,7 @@ export function buildSulphurChance(
   const notes =
     view.factor > 1
       ? [
-          `Shown at ${view.grid.cell} m cells for display: each takes the chance of the ${grid.cell} m cell at its centre (nearest).`,
+          `Shown at ${view.grid.cell} m cells for display: each takes the chance of the ${grid.cell} m cell at its centre (nearest)${view.cells && !(surface?.method === 'kriging' && surface.krigedMean) ? ', kriged at those cells only; the field shares below are estimated from them' : ''}.`,
         ]
       : undefined;
   return {

@@ -10,6 +10,7 @@ import type { Warning } from '../errors.js';
 import type { CropTable, Tables } from '../agronomy/tables.js';
 import type { Analyte, Grid, PMethod, Samples } from '../types.js';
 import { classProbabilities } from '../surface/probability.js';
+import { ANALYTE_NAME, NUTRIENT_NAME } from '../vocabulary.js';
 import { chanceSpec } from './chance.js';
 import { krigedCells, type ChanceMapOptions, type KrigedSurface } from './chanceMap.js';
 
@@ -17,7 +18,6 @@ import { krigedCells, type ChanceMapOptions, type KrigedSurface } from './chance
 export type ResponseNutrient = 'p2o5' | 'k2o';
 
 const ANALYTE: Record<ResponseNutrient, Analyte> = { p2o5: 'p', k2o: 'k' };
-const NAME: Record<ResponseNutrient, string> = { p2o5: 'P', k2o: 'K' };
 
 /** One nutrient's expected response chance per cell, and how it was made. */
 export interface ResponseChanceLayer {
@@ -66,7 +66,7 @@ export function responseChanceBasis(
     if ('refused' in layer)
       out.warnings.push({
         code: 'zones.response-chance-refused',
-        message: `zoning.basis is response_chance, but the ${NAME[n]} zones are drawn from the ${n.toUpperCase()} target: the expected chance of a response needs kriging of ${NAME[n]}, and ${layer.refused}. Fix: add samples, or use zoning.basis: targets.`,
+        message: `zoning.basis is response_chance, but the ${ANALYTE_NAME[ANALYTE[n]]} zones are drawn from the ${NUTRIENT_NAME[n]} target: the expected chance of a response needs kriging of ${ANALYTE_NAME[ANALYTE[n]]}, and ${layer.refused}. Fix: add samples, or use zoning.basis: targets.`,
         field: analyte,
       });
     else out.layers[n] = layer;
@@ -82,7 +82,7 @@ function responseLayer(
   const analyte = ANALYTE[n];
   const spec = chanceSpec(analyte, inp.crop, inp.tables, inp.samples.pMethod as PMethod, inp.kelownaFactor);
   if (spec.kind !== 'classes' || spec.classes.names.length === 0)
-    return { refused: `the tables hold no response classes for ${NAME[n]}` };
+    return { refused: `the tables hold no response classes for ${ANALYTE_NAME[ANALYTE[n]]}` };
   const opts: ChanceMapOptions = {
     log: inp.log,
     neighbours: inp.neighbours,
@@ -93,6 +93,6 @@ function responseLayer(
   const { expected } = classProbabilities(k.cells, spec.classes);
   return {
     values: Float64Array.from(expected),
-    label: `expected chance of a yield response to ${NAME[n]} (from ${k.method})`,
+    label: `expected chance of a yield response to ${ANALYTE_NAME[ANALYTE[n]]} (from ${k.method})`,
   };
 }

@@ -110,6 +110,29 @@ describe('chance below the threshold (synthetic S field, 49 samples)', () => {
     expect(m.expectedShare).toBeLessThan(0.3);
   });
 
+  it('kriged only at listed cells (a map shown coarser): those cells as in the whole map, the rest NaN, shares close', () => {
+    const fine = fieldGrid(field, 5);
+    const whole = chanceBelowMap(samples, 'so4_s', fine, { value: 20, unit: 'lb S/ac' });
+    // every 4th cell in each direction, as the report's display view picks them
+    const cells: number[] = [];
+    for (let r = 2; r < fine.rows; r += 4)
+      for (let c = 2; c < fine.cols; c += 4) cells.push(r * fine.cols + c);
+    const shown = new Int32Array(cells);
+    const some = chanceBelowMap(samples, 'so4_s', fine, { value: 20, unit: 'lb S/ac' }, { cells: shown });
+    const listed = new Set(cells);
+    let compared = 0;
+    for (let i = 0; i < fine.fraction.length; i++) {
+      if (listed.has(i) && fine.fraction[i] > 0) {
+        expect(some.chance![i]).toBeCloseTo(whole.chance![i], 6);
+        compared++;
+      } else expect(some.chance![i]).toBeNaN();
+    }
+    expect(compared).toBeGreaterThan(100);
+    // a sixteenth of the cells estimates the field's shares and acres closely (smooth map, 5 m cells)
+    expect(Math.abs(some.expectedShare! - whole.expectedShare!)).toBeLessThan(0.01);
+    expect(Math.abs(some.expectedAc! / whole.expectedAc! - 1)).toBeLessThan(0.05);
+  });
+
   it('a kriged surface is reused as it is: the chance is that of its own mean and variance', () => {
     const mean = new Float64Array(grid.fraction.length).fill(NaN),
       variance = new Float64Array(grid.fraction.length).fill(NaN);
