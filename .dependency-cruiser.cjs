@@ -1,6 +1,6 @@
 /**
  * Layer rules (docs/architecture.md, "Stages"): the rate engine knows no space, the readers and the geometry
- * kernel know no later stage, and nothing in the library reaches into the command line.
+ * kernel know no later stage, the map renderer (src/draw) knows no stage, and nothing in the library reaches into the command line.
  * Run by `npm run lint` (depcruise src --config .dependency-cruiser.cjs).
  */
 module.exports = {
@@ -14,10 +14,29 @@ module.exports = {
     },
     {
       name: 'io-geo-first',
-      comment: 'src/io (readers) and src/geo (geometry and CRS kernel) come first; they import no later stage.',
+      comment:
+        'src/io (readers) and src/geo (geometry and CRS kernel) come first; they import no later stage.',
       severity: 'error',
       from: { path: '^src/(io|geo)/' },
-      to: { path: '^src/(validate|stats|surface|agronomy|zones|prescription|report|variability|check|cli)/' },
+      to: {
+        path: '^src/(validate|stats|surface|agronomy|zones|prescription|report|variability|check|draw|cli)/',
+      },
+    },
+    {
+      name: 'draw-is-neutral',
+      comment:
+        'src/draw (the map renderer the report and the variability charts share) imports no pipeline stage: only geo, units and the shared types.',
+      severity: 'error',
+      from: { path: '^src/draw/' },
+      to: { path: '^src/', pathNot: '^src/(draw|geo|units)/|^src/types[.]ts$' },
+    },
+    {
+      name: 'variability-not-report-internals',
+      comment:
+        "src/variability draws with src/draw; of src/report it may use only the report's input types (report/types.ts).",
+      severity: 'error',
+      from: { path: '^src/variability/' },
+      to: { path: '^src/report/', pathNot: '^src/report/types[.]ts$' },
     },
     {
       name: 'nothing-imports-cli',

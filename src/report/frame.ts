@@ -5,7 +5,7 @@
  * (recorded in data-utm-origin); labels, scale bar and legend are drawn in pixels on top.
  */
 import { M_PER_FT, mToFt } from '../units/index.js';
-import { esc, fmt } from './escape.js';
+import { esc, fmt } from '../draw/escape.js';
 import type { ReportPart } from './types.js';
 
 /** Width of the map area, px (the legend goes under the map, so a portrait page holds both). */

@@ -2,9 +2,9 @@
  * Building blocks of the report's maps: classes of a raster and their labels, the raster as a clipped PNG
  * image, the field boundary, sample dots with labels placed clear of each other.
  */
-import { esc, fmt } from './escape.js';
+import { esc, fmt } from '../draw/escape.js';
 import { type Frame, geoGroup, partsPath, px, py } from './frame.js';
-import { pngDataUri } from './png.js';
+import { pngDataUri } from '../draw/png.js';
 import type { ReportInput, ReportNutrient, ReportPart, ReportRaster } from './types.js';
 
 /**

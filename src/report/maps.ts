@@ -5,9 +5,9 @@
  * one rate map per zone set and product placement, and where the seed-row and other limits bind.
  * Building blocks: mapParts.ts (rasters, boundary, samples) and zoneParts.ts (zone outlines and labels).
  */
-import { classColours, NEUTRAL, QUALITATIVE, rateColours } from './colour.js';
-import { CHANCE_BREAKS, chanceClassLabels, chanceColours } from './chanceClasses.js';
-import { esc, fmt } from './escape.js';
+import { classColours, NEUTRAL, QUALITATIVE, rateColours } from '../draw/colour.js';
+import { CHANCE_BREAKS, chanceClassLabels, chanceColours } from '../draw/chanceClasses.js';
+import { esc, fmt } from '../draw/escape.js';
 import {
   type Frame,
   type LegendItem,

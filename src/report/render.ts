@@ -3,9 +3,9 @@
  * no network) that a specialist can send to the farmer and the applicator and that prints on Letter or A4.
  */
 import { m2ToAc, m2ToHa } from '../units/index.js';
-import { esc, fmt } from './escape.js';
+import { esc, fmt } from '../draw/escape.js';
 import { buildMaps, zoneDefs } from './maps.js';
-import { base64 } from './png.js';
+import { base64 } from '../draw/png.js';
 import { REPORT_CSS } from './style.js';
 import { areaLabel, cvTable, tablesUsedTable, totalsTable, warningsList, zonesTables } from './tables.js';
 import type { ReportChart, ReportInput } from './types.js';

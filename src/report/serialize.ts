@@ -6,7 +6,7 @@
  */
 import { z } from 'zod';
 import { UserError } from '../errors.js';
-import { base64, fromBase64 } from './png.js';
+import { base64, fromBase64 } from '../draw/png.js';
 import { REPORT_SCHEMA, type ReportInput } from './types.js';
 
 /** Raster `values` typed arrays longer than this are written as base64 float32 (coordinates never are). */

@@ -3,7 +3,7 @@
  * Every string from the input is escaped; numbers are formatted for people (see escape.ts).
  */
 import { m2ToAc, m2ToHa } from '../units/index.js';
-import { esc, fmt } from './escape.js';
+import { esc, fmt } from '../draw/escape.js';
 import type { ReportInput, ReportZoneSet } from './types.js';
 
 /**

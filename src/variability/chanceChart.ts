@@ -5,7 +5,8 @@
  * field and the samples with the reason in its middle, never an empty picture. A complete standalone SVG.
  */
 import type { Grid, RingsPart } from '../types.js';
-import { esc, wrapWords } from './charts.js';
+import { esc } from '../draw/escape.js';
+import { wrapWords } from './charts.js';
 import {
   chanceClass,
   chanceClassLabels,

@@ -11,7 +11,7 @@ import { krigeGrid, krigingCandidate, type KrigingInfo } from '../surface/krigin
 import { chanceBelow, type KrigedCells } from '../surface/probability.js';
 import type { FitOptions } from './fit.js';
 import { ANALYTE_DEPTH_LABEL } from '../vocabulary.js';
-export { chanceClass, chanceClassLabels, chanceColours } from '../report/chanceClasses.js';
+export { chanceClass, chanceClassLabels, chanceColours } from '../draw/chanceClasses.js';
 
 /**
  * The assumption every chance map states, one legend line (docs/surface.md gives the rest: the fitted model's

@@ -1,16 +1,11 @@
 /**
  * What the variability study's hand-written SVG charts share (no chart library: small, fixed layouts; see
- * docs/variability.md): text escaping, nice axis ticks, number formats and the viridis colour map. The charts
+ * docs/variability.md): nice axis ticks, number formats and word wrapping (text escaping is src/draw/escape.ts, colours src/draw/colour.ts). The charts
  * are semivariogramChart.ts, sampleMap.ts and chanceChart.ts; each returns a complete, standalone SVG document.
  */
 
 /** The charts' font attribute. */
 export const FONT = 'font-family="DejaVu Sans, Arial, Helvetica, sans-serif"';
-
-/** Escapes text for SVG/XML. */
-export function esc(s: string): string {
-  return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
-}
 
 /**
  * "Nice" axis ticks (1, 2, 2.5, 5 x 10^k steps) inside [lo, hi], or, with `cover`, reaching just past both ends.
@@ -44,27 +39,6 @@ export function fmtNum(x: number): string {
 export function fmtTick(t: number, step: number): string {
   const d = step >= 1 ? 0 : Math.min(6, Math.ceil(-Math.log10(step) - 1e-9));
   return t.toFixed(d);
-}
-
-/** Viridis colour map (matplotlib's anchors, linearly interpolated) at t in 0..1. */
-export function viridis(t: number): string {
-  const a = [
-    [68, 1, 84],
-    [72, 40, 120],
-    [62, 74, 137],
-    [49, 104, 142],
-    [38, 130, 142],
-    [31, 158, 137],
-    [53, 183, 121],
-    [109, 205, 89],
-    [180, 222, 44],
-    [253, 231, 37],
-  ];
-  const x = Math.min(1, Math.max(0, Number.isFinite(t) ? t : 0)) * (a.length - 1);
-  const i = Math.min(a.length - 2, Math.floor(x));
-  const f = x - i;
-  const c = a[i].map((v, k) => Math.round(v + (a[i + 1][k] - v) * f));
-  return `rgb(${c[0]},${c[1]},${c[2]})`;
 }
 
 /**

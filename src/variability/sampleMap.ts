@@ -4,7 +4,11 @@
  * bar and a north arrow. A complete standalone SVG document as a string.
  */
 import type { Grid, RingsPart } from '../types.js';
-import { esc, fmtTick, niceTicks, viridis } from './charts.js';
+import { ramp } from '../draw/colour.js';
+import { esc } from '../draw/escape.js';
+import { fmtTick, niceTicks } from './charts.js';
+
+const viridis = (t: number): string => ramp('viridis', t);
 import {
   boundarySvg,
   mapFrame,

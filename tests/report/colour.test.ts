@@ -6,7 +6,7 @@ import {
   rateColours,
   textOn,
   type RampName,
-} from '../../src/report/colour.js';
+} from '../../src/draw/colour.js';
 
 /** CIE 1976 L* of an sRGB colour (sRGB transfer function IEC 61966-2-1; L* from CIE 15:2004). */
 function lightness(hex: string): number {
@@ -43,8 +43,66 @@ describe('colour ramps', () => {
       }
   });
 
-  it("viridis ends at matplotlib's published end colours #440154 and #fde725 (from memory)", () => {
+  it("viridis ends at matplotlib's published end colours #440154 and #fde725 (matplotlib _cm_listed.py _viridis_data, first and last rows)", () => {
     expect(classColours('viridis', 2)).toEqual(['#440154', '#fde725']);
+  });
+
+  const channelsOff = (hex: string, rgb: readonly number[]): number => {
+    const n = parseInt(hex.slice(1), 16);
+    return Math.max(...[(n >> 16) & 255, (n >> 8) & 255, n & 255].map((v, k) => Math.abs(v - rgb[k]!)));
+  };
+
+  it('viridis and magma match R viridisLite viridis(9) and magma(9) within 2 of 255 per channel (from memory)', () => {
+    // viridisLite interpolates matplotlib's 256-colour tables; d3 takes the nearest of the 256
+    const published: Record<'viridis' | 'magma', string[]> = {
+      viridis: [
+        '#440154',
+        '#472d7b',
+        '#3b528b',
+        '#2c728e',
+        '#21918c',
+        '#28ae80',
+        '#5ec962',
+        '#addc30',
+        '#fde725',
+      ],
+      magma: [
+        '#000004',
+        '#1d1147',
+        '#51127c',
+        '#822681',
+        '#b63679',
+        '#e65164',
+        '#fb8861',
+        '#fec287',
+        '#fcfdbf',
+      ],
+    };
+    for (const [name, hexes] of Object.entries(published) as ['viridis' | 'magma', string[]][])
+      hexes.forEach((h, i) =>
+        expect(channelsOff(h, rampRgb(name, i / 8)), `${name} ${i}/8`).toBeLessThanOrEqual(2),
+      );
+  });
+
+  it('cividis matches R viridisLite cividis(10) within 6 of 255 per channel, 13 near the dark end (from memory)', () => {
+    // d3's cividis is a polynomial fit to the published table: it strays most at the dark end
+    const published = [
+      '#00204d',
+      '#00336f',
+      '#39486b',
+      '#575c6d',
+      '#707173',
+      '#8a8779',
+      '#a69d75',
+      '#c4b56c',
+      '#e4cf5b',
+      '#ffea46',
+    ];
+    published.forEach((h, i) =>
+      expect(channelsOff(h, rampRgb('cividis', i / 9)), `cividis ${i}/9`).toBeLessThanOrEqual(
+        i === 1 ? 13 : 6,
+      ),
+    );
   });
 
   it('label text is black on light fills and white on dark (WCAG 2 contrast of at least 4.5:1)', () => {

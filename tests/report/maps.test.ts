@@ -8,7 +8,7 @@ import { booleanPointInPolygon, polygon, point } from '@turf/turf';
 import { parseReportInput, renderReport, serializeReportInput } from '../../src/report/index.js';
 import { makeFrame } from '../../src/report/frame.js';
 import { breakLabels, buildMaps, classify, dilateClasses, labelPoint } from '../../src/report/maps.js';
-import { chanceClassLabels } from '../../src/report/chanceClasses.js';
+import { chanceClassLabels } from '../../src/draw/chanceClasses.js';
 import { demoInput, demoInputAt } from '../helpers/report-fixture.js';
 
 describe('maps', () => {

@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { crc32 as nodeCrc32, inflateSync } from 'node:zlib';
 import { renderReport, serializeReportInput, parseReportInput } from '../../src/report/index.js';
-import { esc, fmt } from '../../src/report/escape.js';
-import { encodeIndexedPng, crc32 } from '../../src/report/png.js';
+import { esc, fmt } from '../../src/draw/escape.js';
+import { encodeIndexedPng, crc32 } from '../../src/draw/png.js';
 import { niceLength } from '../../src/report/frame.js';
 import { M_PER_FT } from '../../src/units/index.js';
 import { demoInput } from '../helpers/report-fixture.js';
@@ -266,7 +266,7 @@ describe('other shapes of input', () => {
 
 describe('base64 (RFC 4648)', () => {
   it('agrees with the web platform btoa over a binary string, and round-trips', async () => {
-    const { base64, fromBase64 } = await import('../../src/report/png.js');
+    const { base64, fromBase64 } = await import('../../src/draw/png.js');
     // source: btoa (WHATWG HTML, forgiving-base64 encode), an independent encoder
     for (const n of [0, 1, 2, 3, 4, 5, 1000, 70_001]) {
       const bytes = new Uint8Array(n).map((_, i) => (i * 7919 + n) & 255);

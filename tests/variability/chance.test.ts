@@ -115,7 +115,8 @@ describe('chance below the threshold (synthetic S field, 49 samples)', () => {
     const whole = chanceBelowMap(samples, 'so4_s', fine, { value: 20, unit: 'lb S/ac' });
     // every 4th cell in each direction, as the report's display view picks them
     const cells: number[] = [];
-    for (let r = 2; r < fine.rows; r += 4) for (let c = 2; c < fine.cols; c += 4) cells.push(r * fine.cols + c);
+    for (let r = 2; r < fine.rows; r += 4)
+      for (let c = 2; c < fine.cols; c += 4) cells.push(r * fine.cols + c);
     const shown = new Int32Array(cells);
     const some = chanceBelowMap(samples, 'so4_s', fine, { value: 20, unit: 'lb S/ac' }, { cells: shown });
     const listed = new Set(cells);

@@ -10,6 +10,7 @@ import {
 import * as polyclip from 'polyclip-ts';
 import { partsArea, ringArea } from '../../src/geo/area.js';
 import { fieldFromParts, gridFor, ring, X0, Y0 } from './fixtures.js';
+import { tierRuns } from '../helpers/runs.js';
 
 const starField = (radii: number[], holeR: number | null) => {
   const pts = radii.map((r, i) => {
@@ -59,7 +60,7 @@ describe('clipping to the boundary', () => {
           expect(Math.abs(total - field.areaM2)).toBeLessThan(1e-6 * field.areaM2);
         },
       ),
-      { numRuns: 6 },
+      { numRuns: tierRuns(6) },
     );
   });
 
@@ -111,7 +112,7 @@ describe('clipping to the boundary', () => {
             }
         },
       ),
-      { numRuns: 6 },
+      { numRuns: tierRuns(6) },
     );
   });
 });

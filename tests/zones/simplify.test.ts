@@ -21,6 +21,7 @@ import {
 import { partsArea } from '../../src/geo/area.js';
 import type { RingsPart } from '../../src/types.js';
 import { fieldFromParts, gridFor, ring, X0, Y0 } from './fixtures.js';
+import { tierRuns } from '../helpers/runs.js';
 
 const geom = (parts: RingsPart[]) =>
   parts.map((p) =>
@@ -118,7 +119,7 @@ describe('simplifying shared arcs', () => {
           });
         },
       ),
-      { numRuns: 120 },
+      { numRuns: tierRuns(120) },
     );
   });
 });

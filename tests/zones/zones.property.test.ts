@@ -12,6 +12,7 @@ import type { RingsPart } from '../../src/types.js';
 import { labelComponents, makeZones, pointInRing, robust, traceZones } from '../../src/zones/index.js';
 import { partsArea } from '../../src/geo/area.js';
 import { fieldFromParts, gridFor, ring, X0, Y0 } from './fixtures.js';
+import { tierRuns } from '../helpers/runs.js';
 
 const local = (parts: RingsPart[]) =>
   parts.map((p) =>
@@ -233,7 +234,7 @@ describe('makeZones invariants (fast-check)', () => {
         ),
         (a, pts) => checkZones(a, pts),
       ),
-      { numRuns: 15, seed: 20261202 },
+      { numRuns: tierRuns(15), seed: 20261202 },
     ); // fixed seed so CI is repeatable
   });
 
@@ -323,7 +324,7 @@ describe('makeZones invariants (fast-check)', () => {
           }
         },
       ),
-      { numRuns: 150 },
+      { numRuns: tierRuns(150) },
     );
   });
 });

@@ -1,42 +1,22 @@
 /**
- * Colour ramps for the report's maps: sequential, perceptually uniform and readable with colour-vision
+ * Colour ramps for every map and chart: sequential, perceptually uniform and readable with colour-vision
  * deficiency, because their lightness rises steadily from one end to the other.
  *
- * Anchor colours are nine evenly spaced samples of the viridis, magma and cividis colour maps
- * (viridis/magma: van der Walt and Smith for matplotlib, CC0; cividis: Nuñez, Anderton and Renslow 2018,
- * PLoS ONE 13(8)), as printed by R's viridisLite (from memory; tests/report/colour.test.ts checks that
- * CIE L* rises monotonically along each ramp). Between anchors we interpolate linearly in sRGB.
+ * The ramps come from d3-scale-chromatic: viridis and magma are matplotlib's 256-colour tables (van der Walt
+ * and Smith, CC0), cividis is d3's polynomial fit to the table of Nuñez, Anderton and Renslow 2018 (PLoS ONE
+ * 13(8)); tests/report/colour.test.ts compares them with the values R's viridisLite prints.
  *
  * Our own assignment: soil surfaces use viridis, response probability magma (darker = more likely to
  * respond), product rates cividis (lighter = more product), binding limits the Okabe-Ito qualitative set.
  */
+import { interpolateCividis, interpolateMagma, interpolateViridis } from 'd3-scale-chromatic';
 
 export type RampName = 'viridis' | 'magma' | 'cividis';
 
-const ANCHORS: Record<RampName, string[]> = {
-  viridis: [
-    '#440154',
-    '#472d7b',
-    '#3b528b',
-    '#2c728e',
-    '#21918c',
-    '#28ae80',
-    '#5ec962',
-    '#addc30',
-    '#fde725',
-  ],
-  magma: ['#000004', '#1d1147', '#51127c', '#822681', '#b63679', '#e65164', '#fb8861', '#fec287', '#fcfdbf'],
-  cividis: [
-    '#00204d',
-    '#00336f',
-    '#39486b',
-    '#575c6d',
-    '#707173',
-    '#8a8779',
-    '#a69d75',
-    '#c4b56c',
-    '#ffea46',
-  ],
+const RAMPS: Record<RampName, (t: number) => string> = {
+  viridis: interpolateViridis,
+  magma: interpolateMagma,
+  cividis: interpolateCividis,
 };
 
 /** Part of each ramp used, so that the darkest class is not black and the lightest not white. */
@@ -55,23 +35,30 @@ export const QUALITATIVE = ['#e69f00', '#56b4e9', '#009e73', '#f0e442', '#0072b2
 /** Grey for "no value" / "no limit binds". */
 export const NEUTRAL = '#d9d9d9';
 
-function hexToRgb(h: string): [number, number, number] {
-  const n = parseInt(h.slice(1), 16);
-  return [(n >> 16) & 255, (n >> 8) & 255, n & 255];
+/** "#rrggbb" or d3's "rgb(r, g, b)" to [r, g, b]. */
+function toRgb(c: string): [number, number, number] {
+  if (c.startsWith('#')) {
+    const n = parseInt(c.slice(1), 16);
+    return [(n >> 16) & 255, (n >> 8) & 255, n & 255];
+  }
+  const m = c.match(/\d+/g) ?? [];
+  return [Number(m[0] ?? 0), Number(m[1] ?? 0), Number(m[2] ?? 0)];
 }
 
 /**
- * The colour at t (0..1) of a ramp's full range, as [r, g, b] 0-255.
+ * The colour at t (0..1, clamped; NaN reads as 0) of a ramp's full range, as [r, g, b] 0-255.
  * @example rampRgb('viridis', 0) // [68, 1, 84]
  */
 export function rampRgb(name: RampName, t: number): [number, number, number] {
-  const a = ANCHORS[name];
-  const x = Math.min(1, Math.max(0, t)) * (a.length - 1);
-  const i = Math.min(a.length - 2, Math.floor(x));
-  const f = x - i;
-  const c0 = hexToRgb(a[i]!);
-  const c1 = hexToRgb(a[i + 1]!);
-  return [0, 1, 2].map((k) => Math.round(c0[k]! + (c1[k]! - c0[k]!) * f)) as [number, number, number];
+  return toRgb(RAMPS[name](Math.min(1, Math.max(0, Number.isFinite(t) ? t : 0))));
+}
+
+/**
+ * The colour at t (0..1) of a ramp's full range as "#rrggbb": the one ramp function every map and chart uses.
+ * @example ramp('viridis', 1) // '#fde725'
+ */
+export function ramp(name: RampName, t: number): string {
+  return rgbHex(rampRgb(name, t));
 }
 
 /** [r, g, b] to "#rrggbb". */
@@ -86,8 +73,8 @@ export function rgbHex(c: readonly number[]): string {
 export function classColours(name: RampName, n: number): string[] {
   const [lo, hi] = RANGE[name];
   if (n <= 0) return [];
-  if (n === 1) return [rgbHex(rampRgb(name, (lo + hi) / 2))];
-  return Array.from({ length: n }, (_, i) => rgbHex(rampRgb(name, lo + ((hi - lo) * i) / (n - 1))));
+  if (n === 1) return [ramp(name, (lo + hi) / 2)];
+  return Array.from({ length: n }, (_, i) => ramp(name, lo + ((hi - lo) * i) / (n - 1)));
 }
 
 /**
@@ -102,8 +89,8 @@ export function rateColours(name: RampName, rates: readonly number[], close = 0)
   const [lo, hi] = RANGE[name];
   const min = Math.min(...rates),
     span = Math.max(Math.max(...rates) - min, 4 * close);
-  if (rates.length === 1 || !(span > 0)) return rates.map(() => rgbHex(rampRgb(name, (lo + hi) / 2)));
-  return rates.map((v) => rgbHex(rampRgb(name, lo + ((hi - lo) * (v - min)) / span)));
+  if (rates.length === 1 || !(span > 0)) return rates.map(() => ramp(name, (lo + hi) / 2));
+  return rates.map((v) => ramp(name, lo + ((hi - lo) * (v - min)) / span));
 }
 
 /**
@@ -111,7 +98,7 @@ export function rateColours(name: RampName, rates: readonly number[], close = 0)
  * @example textOn('#fde725') // '#000'
  */
 export function textOn(fill: string): string {
-  const [r, g, b] = hexToRgb(fill).map((v) => {
+  const [r, g, b] = toRgb(fill).map((v) => {
     const c = v / 255;
     return c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4;
   }) as [number, number, number];
