@@ -3,8 +3,8 @@
  * RFC 4180 quoting, and terminal control sequences (ECMA-48 CSI / OSC) kept out of what is printed.
  */
 import { describe, expect, it } from 'vitest';
-import { csvCell } from '../../src/io/csv-escape.js';
-import { terminalSafe } from '../../src/cli/safety/stdio.js';
+import { csvCell } from '../../../src/io/csv-escape.js';
+import { terminalSafe } from '../../../src/cli/safety/stdio.js';
 
 describe('csvCell (OWASP CSV Injection; RFC 4180 quoting)', () => {
   it.each([
@@ -40,7 +40,7 @@ describe('terminalSafe (ECMA-48 control functions removed)', () => {
 
 describe('DBF text cells (dBASE: 0x1A ends the file; NUL and line breaks split text in readers)', () => {
   it('control characters in a text cell are written as spaces', async () => {
-    const { encodeDbf } = await import('../../src/io/shapefile/dbf.js');
+    const { encodeDbf } = await import('../../../src/io/shapefile/dbf.js');
     const dbf = encodeDbf(
       [{ name: 'zone', type: 'C', width: 20, decimals: 0 }],
       [['A\u001aB\u0000C\nD\u001b[2J']],

@@ -15,7 +15,7 @@ import {
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ROOT, tilth } from '../helpers/cli.js';
+import { ROOT, tilth } from '../../helpers/cli.js';
 
 const Q = join(ROOT, 'sample-fields', 'quarter');
 /** A temporary folder holding copies of the demo inputs (samples.csv, boundary.geojson, plan.yaml). */

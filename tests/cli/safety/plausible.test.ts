@@ -3,9 +3,9 @@
  * (residual from the neighbours' median over 1.4826 x MAD, the normal-consistent MAD: Iglewicz & Hoaglin 1993).
  */
 import { describe, expect, it } from 'vitest';
-import { implausibleValues, neighbourOutliers } from '../../src/cli/safety/plausible.js';
-import { applyOutlierTest } from '../../src/cli/safety/readiness.js';
-import type { FieldInputs, Samples } from '../../src/types.js';
+import { implausibleValues, neighbourOutliers } from '../../../src/cli/safety/plausible.js';
+import { applyOutlierTest } from '../../../src/cli/safety/readiness.js';
+import type { FieldInputs, Samples } from '../../../src/types.js';
 
 /** A 5 x 5 grid of samples 100 m apart with P values `p` (others empty). */
 function grid(p: number[], pMethod: 'olsen' | 'kelowna' = 'olsen'): Samples {

@@ -6,7 +6,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ROOT, tilth } from '../helpers/cli.js';
+import { ROOT, tilth } from '../../helpers/cli.js';
 
 const Q = join(ROOT, 'sample-fields', 'quarter');
 const tmp = () => mkdtempSync(join(tmpdir(), 'tilth-refuse-'));

@@ -2,7 +2,7 @@
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ROOT } from '../helpers/cli.js';
+import { ROOT } from '../../helpers/cli.js';
 
 describe('a closed stdout ends the command quietly', () => {
   it('tilth tables | (reader closes at once): no stack, no EPIPE message', () => {

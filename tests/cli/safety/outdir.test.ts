@@ -17,9 +17,9 @@ import {
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { checkOutputDir, writeOutputDir } from '../../src/cli/safety/outdir.js';
-import { MARKER, markerText, ownership } from '../../src/cli/safety/ownership.js';
-import { nameKey, recoverLeftovers } from '../../src/cli/safety/leftovers.js';
+import { checkOutputDir, writeOutputDir } from '../../../src/cli/safety/outdir.js';
+import { MARKER, markerText, ownership } from '../../../src/cli/safety/ownership.js';
+import { nameKey, recoverLeftovers } from '../../../src/cli/safety/leftovers.js';
 
 const files = (tag = 'A') =>
   new Map<string, string>([
@@ -250,10 +250,10 @@ describe('read-only places give true messages (run as user nobody; root may writ
       chmodSync(join(target, 'sub'), 0o555); // nobody cannot delete sub/b.txt
       chmodSync(target, 0o777);
       const script =
-        `import { writeOutputDir } from ${JSON.stringify(join(import.meta.dirname, '../../src/cli/safety/outdir.ts'))};\n` +
+        `import { writeOutputDir } from ${JSON.stringify(join(import.meta.dirname, '../../../src/cli/safety/outdir.ts'))};\n` +
         `writeOutputDir(${JSON.stringify(target)}, new Map([['a.txt', 'new']]), { force: true });`;
       writeFileSync(join(d, 's.mts'), script);
-      const tsx = join(import.meta.dirname, '../../node_modules/.bin/tsx');
+      const tsx = join(import.meta.dirname, '../../../node_modules/.bin/tsx');
       const r = spawnSync(tsx, [join(d, 's.mts')], {
         uid: 65534,
         gid: 65534,
@@ -277,12 +277,12 @@ describe('read-only places give true messages (run as user nobody; root may writ
       const d = tmp();
       chmodSync(d, 0o555);
       const script =
-        `import { writeOutputDir } from ${JSON.stringify(join(import.meta.dirname, '../../src/cli/safety/outdir.ts'))};\n` +
+        `import { writeOutputDir } from ${JSON.stringify(join(import.meta.dirname, '../../../src/cli/safety/outdir.ts'))};\n` +
         `try { writeOutputDir(${JSON.stringify(join(d, 'out'))}, new Map([['a.txt', 'x']])); } catch (e) { console.error(e.message); process.exit(2); }`;
       const sdir = tmp();
       chmodSync(sdir, 0o777);
       writeFileSync(join(sdir, 's.mts'), script);
-      const tsx = join(import.meta.dirname, '../../node_modules/.bin/tsx');
+      const tsx = join(import.meta.dirname, '../../../node_modules/.bin/tsx');
       const r = spawnSync(tsx, [join(sdir, 's.mts')], {
         uid: 65534,
         gid: 65534,

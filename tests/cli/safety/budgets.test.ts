@@ -11,13 +11,13 @@ import {
   checkOrder,
   farParts,
   MAX_LAGS,
-} from '../../src/cli/safety/budgets.js';
-import { nutrientsNeeded, readinessProblems } from '../../src/cli/safety/readiness.js';
-import { defaultTables, parsePlan } from '../../src/agronomy/index.js';
-import type { FieldInputs } from '../../src/types.js';
+} from '../../../src/cli/safety/budgets.js';
+import { nutrientsNeeded, readinessProblems } from '../../../src/cli/safety/readiness.js';
+import { defaultTables, parsePlan } from '../../../src/agronomy/index.js';
+import type { FieldInputs } from '../../../src/types.js';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { ROOT } from '../helpers/cli.js';
+import { ROOT } from '../../helpers/cli.js';
 
 const square = (x0: number, y0: number, s: number) => ({
   exterior: Float64Array.from([x0, y0, x0 + s, y0, x0 + s, y0 + s, x0, y0 + s, x0, y0]),

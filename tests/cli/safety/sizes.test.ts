@@ -7,9 +7,9 @@ import { mkdtempSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { readInput } from '../../src/cli/util.js';
-import { checkInputSize, SIZE_LIMITS, sizeLimitOf } from '../../src/cli/safety/sizes.js';
-import { isUserError } from '../../src/errors.js';
+import { readInput } from '../../../src/cli/util.js';
+import { checkInputSize, SIZE_LIMITS, sizeLimitOf } from '../../../src/cli/safety/sizes.js';
+import { isUserError } from '../../../src/errors.js';
 
 const MiB = 1024 * 1024;
 

@@ -7,7 +7,7 @@ import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ROOT } from '../helpers/cli.js';
+import { ROOT } from '../../helpers/cli.js';
 
 describe('seeded fuzz (small run)', () => {
   it('120 seeded runs over every reader and command stage: no crash, hang or wrongly accepted input', () => {
