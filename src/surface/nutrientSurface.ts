@@ -6,7 +6,7 @@ import { UserError, type Warning } from '../errors.js';
 import type { Analyte, Grid, SampleZones, Samples } from '../types.js';
 import type { CvResult } from './crossValidate.js';
 import { idwSurfaces } from './idw.js';
-import { chooseIdw, fmt, kName, type IdwChoice } from './idwChoice.js';
+import { chooseIdw, fmt, kName, type IdwChoice, type IdwChoiceOptions } from './idwChoice.js';
 import { SurfacePool, type SurfaceThreads } from './parallel.js';
 import { nutrientPoints, type NutrientPoints } from './prepare.js';
 import { zoneSurface } from './zoneSurface.js';
@@ -52,21 +52,7 @@ export function analyteFromName(name: string): Analyte {
 }
 
 /** Options for {@link nutrientSurface}. */
-export interface NutrientSurfaceOptions {
-  /** IDW power, or 'auto' = lowest cross-validation RMSE among `powers` (default 'auto'); a number is the only candidate */
-  power?: number | 'auto';
-  /** nearest samples used (Infinity = all), or 'auto' (default 'auto') */
-  neighbours?: number | 'auto';
-  /** candidate powers for 'auto' (default 1, 1.5, 2, 3) */
-  powers?: number[];
-  /** candidate neighbour counts for 'auto' (default 8, 12, 16, all) */
-  neighbourChoices?: number[];
-  /** search radius in metres (default none) */
-  radius?: number;
-  /** NaN where fewer samples lie within the radius (default 1) */
-  minNeighbours?: number;
-  /** skip cross-validation when power and neighbours are both given (default false: a one-row table for the given pair is made) */
-  skipCv?: boolean;
+export interface NutrientSurfaceOptions extends IdwChoiceOptions {
   /** 'idw' (default), 'kriging' (ordinary kriging; a UserError with the reason when the semivariogram cannot
    * carry it), or 'auto': the lowest leave-one-out RMSE of the IDW candidates and kriging */
   method?: SurfaceMethod;
