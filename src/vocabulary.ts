@@ -13,7 +13,8 @@
  * - **rate column** = `<product stem>_<unit>` with unit lbac, kgha, galac or lha (src/prescription/shapefiles.ts
  *   `RX_UNITS`; `tilth check` finds rate columns by the same suffixes).
  * - **warning code** = lower-case words joined by hyphens, naming the finding, not the fix: `outside-boundary`,
- *   `same-place`, `few-samples` (`Warning.code`, src/errors.ts).
+ *   `same-place`, `few-samples`; a stage after the input check puts its name first: `surface-few-samples`,
+ *   `variability-no-fit`, `soil-saline`, `zones-min-area-below-sample` (`Warning.code`, src/errors.ts).
  * - **grid** = the one grid geometry: cell size, north-west corner (`xmin`, `ymax`), `cols` x `rows`, row-major,
  *   north-up (`Grid`, src/types.ts); every per-cell array has this layout.
  * - Unit conversion factors live only in src/units/; machine settings with a unit (`8mph`, `18m`) are read there
@@ -123,10 +124,24 @@ export const PLACEMENT_KIND_NAME: Readonly<Record<PlacementKind, string>> = {
 };
 
 /**
- * The caution every command's help, the README and the report carry: seed-row injury, local guidelines, and a
- * licensed agronomist or certified crop adviser's check.
+ * The caution every command's help, the README, the report, the plan and tables files and the shapefile notes
+ * carry, in these words: seed-row injury, local guidelines, and a licensed agronomist or certified crop
+ * adviser's check. Never write another wording of it.
  */
 export const CAUTION =
   'Caution: tilth computes suggestions from soil tests and editable default tables. Too much fertilizer with the\n' +
   'seed injures or kills seedlings; wrong rates cost money and can pollute water. Follow local guidelines, and\n' +
   'have a licensed agronomist or certified crop adviser check every prescription before it is applied.';
+
+/**
+ * The caution as comment lines of a file (`# ` before each line), for the plan and tables files tilth writes.
+ * @example cautionComment().startsWith('# Caution: tilth computes') // true
+ */
+export function cautionComment(prefix = '# '): string {
+  return CAUTION.split('\n')
+    .map((l) => prefix + l)
+    .join('\n');
+}
+
+/** The caution as one paragraph, without its "Caution:" lead (for lists under a heading, e.g. the report's). */
+export const CAUTION_TEXT = CAUTION.replace(/^Caution: /, '').replace(/\n/g, ' ');

@@ -62,7 +62,7 @@ export function chooseIdw(group: Candidate[], opts: IdwChoiceOptions): IdwChoice
     choices = choices.filter((k) => Number.isFinite(k));
     for (const p of group)
       p.base.warnings.push({
-        code: 'surface.cv-all-skipped',
+        code: 'surface-cv-all-skipped',
         message: `${p.label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (its cost grows with the square of the sample count; give --neighbours all to use it).`,
         field: p.label,
       });
@@ -98,7 +98,7 @@ function idwFromCv(
   if (!cv) {
     if (n < 3)
       p.base.warnings.push({
-        code: 'surface.few-samples',
+        code: 'surface-few-samples',
         message: `${p.label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`,
         field: p.label,
       });

@@ -272,7 +272,7 @@ describe('the surface stage with kriging', () => {
     }
     const s = nutrientSurface(few, 'so4_s', grid, null, { method: 'auto' });
     expect(s.method).toBe('idw');
-    expect(s.warnings.map((w) => w.code)).toContain('surface.kriging-refused');
+    expect(s.warnings.map((w) => w.code)).toContain('surface-kriging-refused');
   });
 
   it('refuses a pure-nugget semivariogram (values unrelated to position)', () => {
