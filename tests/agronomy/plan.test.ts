@@ -1,19 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { defaultTables, parsePlan, planTemplate } from '../../src/agronomy/index.js';
-import { isUserError } from '../../src/errors.js';
+import { userErrorMessage as msg } from '../helpers/errors.js';
 
 const tables = defaultTables();
 const MIN = 'crop: canola\ntarget_yield_bu: 50\nproducts:\n  - product: map\n';
-
-function msg(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    expect(isUserError(e)).toBe(true);
-    return (e as Error).message;
-  }
-  throw new Error('expected a UserError');
-}
 
 describe('plan', () => {
   it('every crop starter plan parses as written, in both units', () => {

@@ -9,9 +9,9 @@ import { join } from 'node:path';
 import fc from 'fast-check';
 import { zipSync } from 'fflate';
 import geodesic from 'geographiclib-geodesic';
-import type { FeatureCollection } from 'geojson';
 import { writeShapefile } from '../../src/io/shapefile/index.js';
-import { BOUNDARY, checkCase, COLS, fx, good, K2, line, tempSets } from '../helpers/checkFixtures.js';
+import { BOUNDARY, checkCase, COLS, fieldRx, fx, good, K2, line } from '../helpers/checkFixtures.js';
+import { tempDir } from '../helpers/tempDir.js';
 import { prescriptionFiles } from '../../src/prescription/shapefiles.js';
 import { hullExtent } from '../../src/check/shape.js';
 import { checkPrescription, type CheckReport } from '../../src/check/index.js';
@@ -19,7 +19,7 @@ import { loadLayer } from '../../src/cli/check.js';
 import { lengthOption, speedOption } from '../../src/cli/util.js';
 import { isUserError } from '../../src/errors.js';
 
-const { save } = tempSets('tilth-check-');
+const { save } = tempDir('tilth-check-');
 /**
  * `tilth check ARGS --json`, but in this process (spawning the CLI costs seconds on a shared machine): reads the
  * files the way the command does (src/cli/check.ts loadLayer) and runs the library. Exit 0/1/2 as the CLI.
@@ -156,19 +156,7 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
 });
 
 describe("tilth check on tilth's own shapefile outputs", () => {
-  const rx: FeatureCollection = {
-    type: 'FeatureCollection',
-    features: good.features.map((f) => ({
-      ...f,
-      properties: {
-        zone_id: f.properties!.zone_id,
-        rates: [
-          { product: 'Urea 46-0-0', placement: 'side_band', rate: f.properties!.urea_lbac, unit: 'lb/ac' },
-          { product: 'MAP 11-52-0', placement: 'seed_row', rate: f.properties!.map_lbac, unit: 'lb/ac' },
-        ],
-      },
-    })),
-  };
+  const rx = fieldRx();
   for (const [layout, crs, short] of [
     ['per_placement', 'lonlat', false],
     ['per_product', 'utm', true],

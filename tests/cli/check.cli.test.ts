@@ -8,11 +8,12 @@ import { existsSync, unlinkSync } from 'node:fs';
 import { join } from 'node:path';
 import { zipSync } from 'fflate';
 import { tilth } from '../helpers/cli.js';
-import { BOUNDARY, checkCase, COLS, fx, good, K2, line, tempSets } from '../helpers/checkFixtures.js';
+import { BOUNDARY, checkCase, COLS, fx, good, K2, line } from '../helpers/checkFixtures.js';
+import { tempDir } from '../helpers/tempDir.js';
 import { writeShapefile } from '../../src/io/shapefile/index.js';
 import type { CheckReport } from '../../src/check/index.js';
 
-const { save } = tempSets('tilth-check-');
+const { save } = tempDir('tilth-check-');
 function json(args: string[]): { code: number; report: CheckReport; stderr: string } {
   const r = tilth(['check', ...args, '--json']);
   return {

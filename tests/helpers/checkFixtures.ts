@@ -1,11 +1,8 @@
 /**
  * The invented field of the `tilth check` tests (scripts/make-check-fixtures.ts): its files, the shapefile
- * columns its zones are written with, a temporary folder to write sets into, and the UTM scale its areas
- * are compared with.
+ * columns its zones are written with, the field as a prescription, and the UTM scale its areas are compared with.
  */
-import { afterAll, beforeAll } from 'vitest';
-import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import type { ColumnSpec } from '../../src/io/shapefile/index.js';
@@ -32,24 +29,26 @@ export const K2 = (0.9996 * (1 + (400400 - 500000) ** 2 / (2 * 6371000 ** 2))) *
 /** The lines of one check in a report. */
 export const line = (r: CheckReport, check: string) => r.lines.filter((l) => l.check === check);
 
+/** A rate of the field as a prescription: product, placement, rate, unit. */
+type Rate = { product: string; placement: string; rate: unknown; unit: string };
+
 /**
- * A temporary folder for the file's tests, removed after them; `save` writes a set of files into a sub-folder.
- * Call at the top of a test file.
+ * The field as tilth's prescription: per zone its id and rates, urea in the side band and MAP in the seed row
+ * (the field's urea_lbac and map_lbac), then `more` rates.
  */
-export function tempSets(prefix: string): {
-  save: (files: Record<string, Uint8Array>, sub: string) => string;
-} {
-  let dir = '';
-  beforeAll(() => {
-    dir = mkdtempSync(join(tmpdir(), prefix));
-  });
-  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+export function fieldRx(more: Rate[] = []): FeatureCollection {
   return {
-    save(files, sub) {
-      const d = join(dir, sub);
-      mkdirSync(d, { recursive: true });
-      for (const [k, v] of Object.entries(files)) writeFileSync(join(d, k), v);
-      return d;
-    },
+    type: 'FeatureCollection',
+    features: good.features.map((f) => ({
+      ...f,
+      properties: {
+        zone_id: f.properties!.zone_id,
+        rates: [
+          { product: 'Urea 46-0-0', placement: 'side_band', rate: f.properties!.urea_lbac, unit: 'lb/ac' },
+          { product: 'MAP 11-52-0', placement: 'seed_row', rate: f.properties!.map_lbac, unit: 'lb/ac' },
+          ...more,
+        ],
+      },
+    })),
   };
 }

@@ -34,3 +34,13 @@ export function requireTool(cmd: string, pkg: string, args: string[] = ['--versi
   console.warn(`SKIP: ${msg}`);
   return false;
 }
+
+/**
+ * The standard output of an outside program; throws with its standard error when it fails.
+ * @example sh('ogrinfo', ['-ro', '-al', '-so', 'rx.shp'])
+ */
+export function sh(cmd: string, args: string[]): string {
+  const r = spawnSync(cmd, args, { encoding: 'utf8' });
+  if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')}: ${r.stderr}`);
+  return r.stdout;
+}

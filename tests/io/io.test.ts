@@ -7,21 +7,11 @@ import { classifyHeader, parseColumnMap } from '../../src/io/columns.js';
 import { readGeoJsonPoints, readGeoJsonPolygons } from '../../src/io/geojson.js';
 import { parseLabValue } from '../../src/validate/values.js';
 import { buildSamples, parseDepth } from '../../src/validate/samples.js';
-import { isUserError } from '../../src/errors.js';
+import { userErrorMessage } from '../helpers/errors.js';
 import { ROOT } from '../helpers/cli.js';
 
 const read = (f: string) => readFileSync(join(ROOT, f), 'utf8');
-const userError = (f: () => unknown, re: RegExp) => {
-  try {
-    f();
-  } catch (e) {
-    expect(isUserError(e)).toBe(true);
-    expect((e as Error).message).toMatch(re);
-    return;
-  }
-  throw new Error('expected a UserError');
-};
-
+const userError = (f: () => unknown, re: RegExp) => expect(userErrorMessage(f)).toMatch(re);
 describe('CSV', () => {
   it('reads quoted cells, doubled quotes, embedded commas and line breaks, CRLF', () => {
     // source: RFC 4180, section 2 (rules 4-7)

@@ -9,20 +9,10 @@ import { sample, sq } from '../helpers/taskdata.js';
 import { parseXml, writeXml, el } from '../../src/io/isoxml/xml.js';
 import { layersFromTaskData, layersFromTaskDataFiles } from '../../src/check/taskdata.js';
 import { zipFiles } from '../../src/io/zip.js';
-import { isUserError } from '../../src/errors.js';
+import { userErrorMessage as userError } from '../helpers/errors.js';
 
 const xmlOf = (td: TaskData) => new TextDecoder().decode(taskDataFiles(td)['TASKDATA.XML']);
 const enc = (s: string) => new TextEncoder().encode(s);
-function userError(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    expect(isUserError(e)).toBe(true);
-    return (e as Error).message;
-  }
-  throw new Error('expected a UserError');
-}
-
 describe('readTaskData', () => {
   it('round-trips what the writer wrote (names with markup characters included)', () => {
     const td = sample();

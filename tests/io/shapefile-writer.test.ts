@@ -3,16 +3,14 @@
  * `ogrinfo` (Debian gdal-bin), and ring winding is checked from the .shp bytes (GDAL repairs rings when
  * reading and would hide a wrong order).
  */
-import { describe, expect, it, beforeAll, afterAll } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { describe, expect, it } from 'vitest';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { read as readShp } from 'shapefile';
 import { unzipSync } from 'fflate';
 import geodesic from 'geographiclib-geodesic';
-import type { Feature, FeatureCollection, MultiPolygon, Polygon } from 'geojson';
+import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import {
   writeShapefile,
   encodeDbf,
@@ -23,12 +21,10 @@ import {
 import { prjText, readPrj } from '../../src/geo/crs.js';
 import { zipFiles, readZip, isSafeEntryName } from '../../src/io/zip.js';
 import { utmZoneFor } from '../../src/geo/utm.js';
-import { requireTool } from '../helpers/tools.js';
+import { requireTool, sh } from '../helpers/tools.js';
+import { good } from '../helpers/checkFixtures.js';
+import { tempDir } from '../helpers/tempDir.js';
 
-const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
-const good = JSON.parse(readFileSync(join(FIX, 'good.geojson'), 'utf8')) as FeatureCollection<
-  Polygon | MultiPolygon
->;
 const DATE = new Date(Date.UTC(2026, 3, 1));
 const COLS: ColumnSpec[] = [
   { key: 'zone_id', type: 'N', width: 4 },
@@ -90,25 +86,7 @@ function geodesicArea(g: Polygon | MultiPolygon): number {
   return a;
 }
 
-function sh(cmd: string, args: string[]): string {
-  const r = spawnSync(cmd, args, { encoding: 'utf8' });
-  if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')}: ${r.stderr}`);
-  return r.stdout;
-}
-
-let dir = '';
-beforeAll(() => {
-  dir = mkdtempSync(join(tmpdir(), 'tilth-shp-'));
-});
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-function writeSet(files: Record<string, Uint8Array>, sub: string): string {
-  const d = join(dir, sub);
-  spawnSync('mkdir', ['-p', d]);
-  for (const [k, v] of Object.entries(files)) writeFileSync(join(d, k), v);
-  return d;
-}
-
+const { path, save: writeSet } = tempDir('tilth-shp-');
 describe('names', () => {
   it('dBASE column names: at most 10 characters, ASCII, unique ignoring case (dBASE III field descriptor: 11-byte name, NUL-ended)', () => {
     fc.assert(
@@ -177,7 +155,7 @@ describe('prj', () => {
   it.skipIf(!requireTool('ogr2ogr', 'gdal-bin'))(
     'matches the .prj GDAL 3.6.2 ogr2ogr writes for EPSG:4326, 32613, 32713 and 32631',
     () => {
-      const gj = join(dir, 'one.geojson');
+      const gj = path('one.geojson');
       writeFileSync(gj, JSON.stringify({ type: 'FeatureCollection', features: [good.features[0]] }));
       for (const [epsg, zone] of [
         [4326, null],
@@ -185,7 +163,7 @@ describe('prj', () => {
         [32713, utmZoneFor(-105, -30)],
         [32631, utmZoneFor(3, 45)],
       ] as const) {
-        const out = join(dir, `prj${epsg}.shp`);
+        const out = path(`prj${epsg}.shp`);
         sh('ogr2ogr', ['-t_srs', `EPSG:${epsg}`, out, gj]);
         expect(prjText(zone)).toBe(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'));
         expect(readPrj(prjText(zone)).epsg).toBe(epsg);
@@ -195,7 +173,7 @@ describe('prj', () => {
   it.skipIf(!requireTool('ogr2ogr', 'gdal-bin'))(
     'recognises the .prj GDAL 3.6.2 writes for NAD83 (EPSG:4269, 26913) and NAD83(CSRS) UTM 13N (EPSG:2957)',
     () => {
-      const gj = join(dir, 'one-nad.geojson');
+      const gj = path('one-nad.geojson');
       writeFileSync(gj, JSON.stringify({ type: 'FeatureCollection', features: [good.features[0]] }));
       const want: Record<number, object> = {
         4269: { kind: 'lonlat', datum: 'NAD83', epsg: 4269 },
@@ -203,7 +181,7 @@ describe('prj', () => {
         2957: { kind: 'utm', zone: 13, south: false, datum: 'NAD83(CSRS)' },
       };
       for (const epsg of [4269, 26913, 2957]) {
-        const out = join(dir, `nad${epsg}.shp`);
+        const out = path(`nad${epsg}.shp`);
         sh('ogr2ogr', ['-t_srs', `EPSG:${epsg}`, out, gj]);
         expect(readPrj(readFileSync(out.replace(/shp$/, 'prj'), 'utf8'))).toMatchObject(want[epsg]);
       }

@@ -12,7 +12,7 @@ import { shapefileInZip } from '../../src/io/inputs.js';
 import { readPrj } from '../../src/geo/crs.js';
 import { readGeoJsonPoints, readGeoJsonPolygons } from '../../src/io/geojson.js';
 import { buildSamples } from '../../src/validate/samples.js';
-import { isUserError } from '../../src/errors.js';
+import { rejectedUserError } from '../helpers/errors.js';
 import { ROOT } from '../helpers/cli.js';
 
 // Fixtures made by tests/fixtures/make-fixtures.sh with GDAL 3.6.2 ogr2ogr (the outside writer).
@@ -36,16 +36,7 @@ const quarterBoundary = readGeoJsonPolygons(
   'b',
 ).features[0].coordinates;
 
-async function rejectsUser(p: Promise<unknown>, re: RegExp) {
-  try {
-    await p;
-  } catch (e) {
-    expect(isUserError(e)).toBe(true);
-    expect((e as Error).message).toMatch(re);
-    return;
-  }
-  throw new Error('expected a UserError');
-}
+const rejectsUser = async (p: Promise<unknown>, re: RegExp) => expect(await rejectedUserError(p)).toMatch(re);
 
 describe('shapefile reader', () => {
   it('WGS 84 polygon written by ogr2ogr reads back to the GeoJSON it came from', async () => {

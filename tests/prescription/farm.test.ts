@@ -1,18 +1,8 @@
 /** Farm files and farm totals (src/prescription/farm.ts): the rules of the format and a sum checked by hand. */
 import { describe, expect, it } from 'vitest';
 import { farmTotals, parseFarm } from '../../src/prescription/farm.js';
-import { isUserError } from '../../src/errors.js';
+import { userErrorMessage as err } from '../helpers/errors.js';
 import type { ProductTotal } from '../../src/prescription/index.js';
-
-const err = (f: () => unknown): string => {
-  try {
-    f();
-  } catch (e) {
-    expect(isUserError(e)).toBe(true);
-    return (e as Error).message;
-  }
-  throw new Error('no error');
-};
 
 describe('parseFarm', () => {
   it('applies defaults, names fields by their out folder, keeps per-field keys', () => {

@@ -2,57 +2,21 @@
  * The prescription's shapefile sets for the controller (per placement, per product, 8.3 names): re-read by the
  * `shapefile` package (0.6.6) and by GDAL 3.6.2 `ogrinfo` (Debian gdal-bin).
  */
-import { describe, expect, it, beforeAll, afterAll } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { read as readShp } from 'shapefile';
 import { unzipSync } from 'fflate';
-import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import { prescriptionFiles } from '../../src/prescription/shapefiles.js';
-import { requireTool } from '../helpers/tools.js';
+import { requireTool, sh } from '../helpers/tools.js';
+import { fieldRx } from '../helpers/checkFixtures.js';
+import { tempDir } from '../helpers/tempDir.js';
 
-const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
-const good = JSON.parse(readFileSync(join(FIX, 'good.geojson'), 'utf8')) as FeatureCollection<
-  Polygon | MultiPolygon
->;
 const DATE = new Date(Date.UTC(2026, 3, 1));
 
-function sh(cmd: string, args: string[]): string {
-  const r = spawnSync(cmd, args, { encoding: 'utf8' });
-  if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')}: ${r.stderr}`);
-  return r.stdout;
-}
-
-let dir = '';
-beforeAll(() => {
-  dir = mkdtempSync(join(tmpdir(), 'tilth-shp-'));
-});
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-function writeSet(files: Record<string, Uint8Array>, sub: string): string {
-  const d = join(dir, sub);
-  spawnSync('mkdir', ['-p', d]);
-  for (const [k, v] of Object.entries(files)) writeFileSync(join(d, k), v);
-  return d;
-}
+const { save: writeSet } = tempDir('tilth-shp-');
 
 describe('prescriptionFiles (machine layouts)', () => {
-  const rx: FeatureCollection = {
-    type: 'FeatureCollection',
-    features: good.features.map((f) => ({
-      ...f,
-      properties: {
-        zone_id: f.properties!.zone_id,
-        rates: [
-          { product: 'Urea 46-0-0', placement: 'side_band', rate: f.properties!.urea_lbac, unit: 'lb/ac' },
-          { product: 'MAP 11-52-0', placement: 'seed_row', rate: f.properties!.map_lbac, unit: 'lb/ac' },
-          { product: 'Urea 46-0-0', placement: 'seed_row', rate: 10, unit: 'lb/ac' },
-        ],
-      },
-    })),
-  };
+  const rx = fieldRx([{ product: 'Urea 46-0-0', placement: 'seed_row', rate: 10, unit: 'lb/ac' }]);
 
   it('per_placement: one set per placement, one rate column per product, unit in the name, note and zip', async () => {
     const { files, columns } = prescriptionFiles(rx, {

@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { kinks, polygon } from '@turf/turf';
 import { findCrossing } from '../../src/validate/crossings.js';
 import { fieldInputs } from '../helpers/inputs.js';
+import { rejectedUserError } from '../helpers/errors.js';
 import { isUserError } from '../../src/errors.js';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -10,16 +11,8 @@ import { ROOT } from '../helpers/cli.js';
 
 const file = (name: string, t: string) => ({ name, bytes: new TextEncoder().encode(t) });
 const Q = (f: string) => file(f, readFileSync(join(ROOT, 'sample-fields/quarter', f), 'utf8'));
-const userError = async (f: () => Promise<unknown>, re: RegExp) => {
-  try {
-    await f();
-  } catch (e) {
-    expect(isUserError(e)).toBe(true);
-    expect((e as Error).message).toMatch(re);
-    return;
-  }
-  throw new Error('expected a UserError');
-};
+const userError = async (f: () => Promise<unknown>, re: RegExp) =>
+  expect(await rejectedUserError(f())).toMatch(re);
 
 describe('ring crossings', () => {
   it('bow-tie, clean square, a hole crossing its outer ring', async () => {
