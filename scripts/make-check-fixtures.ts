@@ -1,141 +1,150 @@
 /**
- * Writes the invented prescriptions in tests/fixtures/check/ (run: npx tsx scripts/make-check-fixtures.ts).
- * A fictional 800 m x 800 m field ("Coulee Bend West", not a real farm) in UTM zone 13N, zones laid out
- * in metres and converted to WGS 84 lon/lat with 8 decimals (about 1 mm):
- *
- *   y 800 +-----------+-----------+
- *         |           |  zone 2   |   zone 1: west half, with a hole (zone 4, 100 m x 100 m)
- *     600 |  zone 1   +-----------+   zone 2: MultiPolygon, two strips on the east side
- *         |   +--+    |  zone 3   |   zone 3: east middle
- *     300 |   |4 |    +-----------+
- *         |   +--+    |  zone 2   |
- *       0 +-----------+-----------+ x 800
- *
- * The broken copies each change one thing (see BROKEN below).
+ * Writes the invented fixtures of `tilth check` (run: npx tsx scripts/make-check-fixtures.ts):
+ * - tests/fixtures/check/good.geojson and boundary.geojson, the field many tests share (./check-fixtures/field.ts);
+ * - tests/check/fixtures/<check>/in/: per check a passing case and the defects the check exists for, each
+ *   changing one thing. A GeoJSON case carries the check's options as a foreign member `options` (the boundary
+ *   as a FeatureCollection, speed and swath as written on the command line); shapefile and task data cases are
+ *   folders of files (./check-fixtures/files.ts).
+ * The expected findings (tests/check/fixtures/<check>/out/) are written by `REGEN=1 npx vitest run
+ * tests/check/fixtures.test.ts`.
  */
-import { writeFileSync, mkdirSync } from 'node:fs';
+import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { projector, utmZoneFor } from '../src/geo/utm.js';
+import { boundary, fc, ll, rect, utm, zones } from './check-fixtures/field.js';
+import { shapefileCases, taskDataCases } from './check-fixtures/files.js';
 
-const OUT = join(import.meta.dirname, '..', 'tests', 'fixtures', 'check');
-const E0 = 400000,
-  N0 = 5780000; // UTM 13N, about 106.45 W, 52.16 N
-const p = projector(utmZoneFor(-105, 52));
-const ll = ([x, y]: number[]) => p.toLonLat(E0 + x, N0 + y).map((v) => Math.round(v * 1e8) / 1e8);
-/** rectangle ring in metres, counter-clockwise, with extra points on its edges */
-const rect = (x0: number, y0: number, x1: number, y1: number, extra: number[][] = []) => {
-  const pts = [
-    [x0, y0],
-    [x1, y0],
-    [x1, y1],
-    [x0, y1],
-  ];
-  // insert extra points on edges in CCW order
-  const onEdge = (q: number[], a: number[], b: number[]) =>
-    a[0] === b[0]
-      ? q[0] === a[0] && (q[1] - a[1]) * (q[1] - b[1]) < 0
-      : q[1] === a[1] && (q[0] - a[0]) * (q[0] - b[0]) < 0;
-  const ring: number[][] = [];
-  for (let i = 0; i < 4; i++) {
-    const a = pts[i],
-      b = pts[(i + 1) % 4];
-    ring.push(a);
-    const mids = extra
-      .filter((q) => onEdge(q, a, b))
-      .sort((u, v) => Math.hypot(u[0] - a[0], u[1] - a[1]) - Math.hypot(v[0] - a[0], v[1] - a[1]));
-    ring.push(...mids);
-  }
-  ring.push(pts[0]);
-  return ring;
+const ROOT = join(import.meta.dirname, '..', 'tests');
+const json = (obj: unknown) => JSON.stringify(obj) + '\n';
+const write = (path: string, text: string | Uint8Array) => {
+  mkdirSync(join(path, '..'), { recursive: true });
+  writeFileSync(path, text);
 };
-const toLL = (ring: number[][]) => ring.map(ll);
-const cw = (ring: number[][]) => [...ring].reverse();
 
-interface Z {
-  id: number;
-  polys: number[][][][];
-  urea: number | string;
-  map: number;
-}
-function zones(
-  mod: Partial<Record<number, number[][][][]>> = {},
-  rates: Partial<Record<number, number | string>> = {},
-): Z[] {
-  const base: Z[] = [
-    {
-      id: 1,
-      polys: [
-        [
-          rect(0, 0, 400, 800, [
-            [400, 300],
-            [400, 600],
-          ]),
-          cw(rect(100, 300, 200, 400)),
-        ],
-      ],
-      urea: 110,
-      map: 60,
-    },
-    { id: 2, polys: [[rect(400, 0, 800, 300)], [rect(400, 600, 800, 800)]], urea: 145.5, map: 45 },
-    { id: 3, polys: [[rect(400, 300, 800, 600)]], urea: 90, map: 50 },
-    { id: 4, polys: [[rect(100, 300, 200, 400)]], urea: 170, map: 70 },
-  ];
-  return base.map((z) => ({ ...z, polys: mod[z.id] ?? z.polys, urea: rates[z.id] ?? z.urea }));
-}
-function fc(zs: Z[]) {
-  return {
-    type: 'FeatureCollection',
-    features: zs.map((z) => ({
-      type: 'Feature',
-      properties: { zone_id: z.id, urea_lbac: z.urea, map_lbac: z.map },
-      geometry:
-        z.polys.length === 1
-          ? { type: 'Polygon', coordinates: z.polys[0].map(toLL) }
-          : { type: 'MultiPolygon', coordinates: z.polys.map((poly) => poly.map(toLL)) },
-    })),
-  };
-}
+const SHARED = join(ROOT, 'fixtures', 'check');
+write(join(SHARED, 'boundary.geojson'), json(boundary()));
+write(join(SHARED, 'good.geojson'), json(fc(zones())));
 
-mkdirSync(OUT, { recursive: true });
-const w = (name: string, obj: unknown) => writeFileSync(join(OUT, name), JSON.stringify(obj) + '\n');
-const edgePts = [
-  [400, 0],
-  [800, 300],
-  [800, 600],
-  [400, 800],
-];
-w('boundary.geojson', {
-  type: 'FeatureCollection',
-  features: [
-    {
-      type: 'Feature',
-      properties: { name: 'Coulee Bend West (invented)' },
-      geometry: { type: 'Polygon', coordinates: [toLL(rect(0, 0, 800, 800, edgePts))] },
-    },
-  ],
+type Options = Record<string, unknown>;
+const good = fc(zones());
+const withOpts = (layer: object, options: Options = {}) =>
+  Object.keys(options).length ? { ...layer, options } : layer;
+const B = { boundary: boundary() };
+/** Web Mercator (EPSG:3857) from the field's lon/lat: x = R lon, y = R ln tan(pi/4 + lat/2), R = 6 378 137 m. */
+const mercator = (p: number[]) => {
+  const [lon, lat] = ll(p),
+    r = 6378137,
+    rad = Math.PI / 180;
+  return [r * lon * rad, r * Math.log(Math.tan(Math.PI / 4 + (lat * rad) / 2))].map(
+    (v) => Math.round(v * 1000) / 1000,
+  );
+};
+const named = (layer: object, name: string) => ({
+  ...layer,
+  crs: { type: 'name', properties: { name } },
 });
-w('good.geojson', fc(zones()));
-/** BROKEN: each file breaks one check, naming the zone */
-w('overlap.geojson', fc(zones({ 3: [[rect(400, 250, 800, 600)]] }))); // zone 3 reaches 50 m into zone 2
-w('gap.geojson', fc(zones({ 3: [[rect(400, 300, 800, 550)]] }))); // 400 m x 50 m strip in no zone, beside zones 2 and 3
-w('outside.geojson', fc(zones({ 2: [[rect(400, 0, 850, 300, [[800, 0]])], [rect(400, 600, 800, 800)]] }))); // zone 2 sticks 50 m out east
-w('bad-rate-text.geojson', fc(zones({}, { 3: '95 lb' }))); // rate written as text in zone 3
-w(
-  'self-crossing.geojson',
-  fc(
-    zones({
-      4: [
-        [
+
+/** check -> case -> the layer with its options */
+const GEOJSON: Record<string, Record<string, object>> = {
+  crs: {
+    'pass-wgs84': good,
+    'pass-utm-named': named(fc(zones(), utm), 'urn:ogc:def:crs:EPSG::32613'),
+    'fail-unknown-crs': named(fc(zones(), mercator), 'urn:ogc:def:crs:EPSG::3857'),
+    // UTM metres in a file that names no system: RFC 7946 reads it as lon/lat, which they cannot be
+    'fail-utm-as-lonlat': fc(zones(), utm),
+  },
+  coords: {
+    pass: good,
+    'fail-null-coordinate': zone4Corner((lon) => [lon, null]),
+    'fail-out-of-range': zone4Corner(() => [1e9, 52.16]),
+  },
+  geometry: {
+    pass: good,
+    // zone 4 is a bow tie
+    'fail-bow-tie': fc(
+      zones({
+        4: [
           [
-            [100, 300],
-            [200, 400],
-            [200, 300],
-            [100, 400],
-            [100, 300],
+            [
+              [100, 300],
+              [200, 400],
+              [200, 300],
+              [100, 400],
+              [100, 300],
+            ],
           ],
         ],
-      ],
-    }),
-  ),
-); // zone 4 is a bow tie
-console.log(`wrote fixtures to ${OUT}`);
+      }),
+    ),
+    // zone 4's ring closes after two points
+    'fail-short-ring': fc(
+      zones({
+        4: [
+          [
+            [
+              [100, 300],
+              [200, 300],
+              [100, 300],
+            ],
+          ],
+        ],
+      }),
+    ),
+  },
+  overlap: {
+    pass: good,
+    // zone 3 reaches 50 m into zone 2
+    'fail-overlap': fc(zones({ 3: [[rect(400, 250, 800, 600)]] })),
+  },
+  boundary: {
+    pass: withOpts(good, B),
+    'skip-no-boundary': good,
+    // a 400 m x 50 m strip in no zone, beside zones 2 and 3
+    'fail-gap': withOpts(fc(zones({ 3: [[rect(400, 300, 800, 550)]] })), B),
+    // zone 2 sticks 50 m out east
+    'fail-outside': withOpts(
+      fc(zones({ 2: [[rect(400, 0, 850, 300, [[800, 0]])], [rect(400, 600, 800, 800)]] })),
+      B,
+    ),
+  },
+  rates: {
+    pass: withOpts(good, { min: 40, max: 200 }),
+    // 90 in zone 3 below, 170 in zone 4 above
+    'fail-out-of-range': withOpts(good, { rateField: 'urea_lbac', min: 100, max: 150 }),
+    'fail-missing-rate': fc(zones({}, { 2: null })),
+    'fail-no-such-column': withOpts(good, { rateField: 'n_rate' }),
+    // rate written as text in zone 3
+    'refused-rate-text': fc(zones({}, { 3: '95 lb' })),
+  },
+  zoneSize: {
+    // 12 km/h x 4 s = 13.3 m: every zone is longer and wider
+    pass: withOpts(good, { speed: '12km/h', swath: '30m' }),
+    // 100 km/h x 4 s = 111.1 m: longer than the 100 m island (zone 4) is wide, shorter than its diagonal
+    'warn-narrow': withOpts(good, { speed: '100km/h' }),
+    // 60 km/h x 10 s = 166.7 m: longer than zone 4's diagonal (141 m)
+    'fail-too-short': withOpts(good, { speed: '60km/h', transitionS: 10 }),
+    // 100 km/h x 4 s x 400 ft = 13 546 m2, more than zone 4's 10 000 m2
+    'fail-smaller-than-swath': withOpts(good, { speed: '100km/h', swath: '400ft' }),
+  },
+};
+
+/** The field with zone 4's third corner replaced. */
+function zone4Corner(to: (lon: number, lat: number) => (number | null)[]) {
+  const layer = fc(zones());
+  const ring = layer.features[3].geometry.coordinates[0] as number[][];
+  (ring as (number | null)[][])[2] = to(ring[2][0], ring[2][1]);
+  return layer;
+}
+
+const CHECKS = join(ROOT, 'check', 'fixtures');
+for (const [check, cases] of Object.entries(GEOJSON)) {
+  rmSync(join(CHECKS, check, 'in'), { recursive: true, force: true });
+  for (const [name, layer] of Object.entries(cases))
+    write(join(CHECKS, check, 'in', `${name}.geojson`), json(layer));
+}
+rmSync(join(CHECKS, 'setfiles', 'in'), { recursive: true, force: true });
+for (const [name, files] of Object.entries(shapefileCases()))
+  for (const [file, bytes] of Object.entries(files)) write(join(CHECKS, 'setfiles', 'in', name, file), bytes);
+rmSync(join(CHECKS, 'taskdata', 'in'), { recursive: true, force: true });
+for (const [name, xml] of Object.entries(taskDataCases()))
+  write(join(CHECKS, 'taskdata', 'in', name, 'TASKDATA.XML'), xml);
+console.log(`wrote ${SHARED} and ${CHECKS}/*/in`);

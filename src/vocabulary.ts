@@ -13,7 +13,8 @@
  * - **rate column** = `<product stem>_<unit>` with unit lbac, kgha, galac or lha (src/prescription/shapefiles.ts
  *   `RX_UNITS`; `tilth check` finds rate columns by the same suffixes).
  * - **warning code** = lower-case words joined by hyphens, naming the finding, not the fix: `outside-boundary`,
- *   `same-place`, `few-samples` (`Warning.code`, src/errors.ts).
+ *   `same-place`, `few-samples`; a stage after the input check puts its name first: `surface-few-samples`,
+ *   `variability-no-fit`, `soil-saline`, `zones-min-area-below-sample` (`Warning.code`, src/errors.ts).
  * - **grid** = the one grid geometry: cell size, north-west corner (`xmin`, `ymax`), `cols` x `rows`, row-major,
  *   north-up (`Grid`, src/types.ts); every per-cell array has this layout.
  * - Unit conversion factors live only in src/units/; machine settings with a unit (`8mph`, `18m`) are read there

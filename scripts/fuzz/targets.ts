@@ -19,6 +19,7 @@ const ROOT = join(import.meta.dirname, '..', '..');
 const Q = join(ROOT, 'sample-fields', 'quarter');
 const SHP = join(ROOT, 'tests', 'fixtures', 'shp');
 const CHK = join(ROOT, 'tests', 'fixtures', 'check');
+const CASES = join(ROOT, 'tests', 'check', 'fixtures');
 const XLSX = ['29-xlsx-typed-cells.xlsx', '30-xlsx-second-sheet.xlsx', '31-xlsx-units-row-cm.xlsx'];
 const read = (p: string) => readFileSync(p);
 const text = (p: string) => readFileSync(p, 'utf8');
@@ -150,8 +151,13 @@ export const TARGETS: Target[] = [
     name: 'check-geojson',
     weight: 3,
     async run(r, dir) {
-      const name = r.pick(['good.geojson', 'gap.geojson', 'overlap.geojson', 'outside.geojson']);
-      const bytes = new TextEncoder().encode(many(r, text(join(CHK, name)), mutateJson));
+      const [name, path] = r.pick([
+        ['good.geojson', join(CHK, 'good.geojson')],
+        ['gap.geojson', join(CASES, 'boundary', 'in', 'fail-gap.geojson')],
+        ['overlap.geojson', join(CASES, 'overlap', 'in', 'fail-overlap.geojson')],
+        ['outside.geojson', join(CASES, 'boundary', 'in', 'fail-outside.geojson')],
+      ]);
+      const bytes = new TextEncoder().encode(many(r, text(path), mutateJson));
       const layer = await readLayer({ [name]: bytes }, name);
       const boundary = r.chance(0.5)
         ? await readLayer({ 'b.geojson': read(join(CHK, 'boundary.geojson')) }, 'b.geojson')

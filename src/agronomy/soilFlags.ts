@@ -50,7 +50,7 @@ export function soilFlagsById(
 
 /**
  * Warnings for saline and high-pH samples (carried into inspect, the report and summary.json).
- * @example soilFlagWarnings(samples, 'samples.csv').map((w) => w.code) // ['soil.saline', 'soil.high-ph']
+ * @example soilFlagWarnings(samples, 'samples.csv').map((w) => w.code) // ['soil-saline', 'soil-high-ph']
  */
 export function soilFlagWarnings(
   s: Pick<Samples, 'ids' | 'values' | 'extra' | 'limeRating' | 'ecMethod'>,
@@ -67,28 +67,28 @@ export function soilFlagWarnings(
   const method = s.ecMethod ? ` (${s.ecMethod})` : '';
   if (saline.length)
     w.push({
-      code: 'soil.saline',
+      code: 'soil-saline',
       file,
       field: 'ec',
       message: `${file}: ${saline.length} sample(s) are saline, EC${method} ${SALINE_EC_DSM} dS/m or more: ${list(saline)}. Rates are not changed for it; yields there may be limited by salt, not nutrients: check those areas with your agronomist.`,
     });
   if (slight.length)
     w.push({
-      code: 'soil.slightly-saline',
+      code: 'soil-slightly-saline',
       file,
       field: 'ec',
       message: `${file}: ${slight.length} sample(s) are slightly saline, EC${method} ${SLIGHTLY_SALINE_EC_DSM}-${SALINE_EC_DSM} dS/m: ${list(slight)}. Salt-sensitive crops may suffer there; rates are not changed for it.`,
     });
   if (high.length)
     w.push({
-      code: 'soil.high-ph',
+      code: 'soil-high-ph',
       file,
       field: 'ph',
       message: `${file}: ${high.length} sample(s) have pH ${HIGH_PH} or more (free lime likely, P less available): ${list(high)}. Rates are not changed for it unless the plan says so.`,
     });
   if (lime.length)
     w.push({
-      code: 'soil.free-lime',
+      code: 'soil-free-lime',
       file,
       field: 'carbonate',
       message: `${file}: ${lime.length} sample(s) have high free lime (carbonate ${HIGH_CARBONATE_PCT} % or more, or rated high): ${list(lime)}.`,

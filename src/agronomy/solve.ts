@@ -258,13 +258,10 @@ export function solveProducts(
   maximize?: Nutrient,
 ): SolveResult {
   const pb: Problem = { options, target, tolerance, limits, maximize };
-  const rates = new Float64Array(options.length);
-  const steps = new Float64Array(options.length);
   const x0 = solveLp(pb, new Array(options.length).fill(undefined));
-  if (!x0) return { status: 'infeasible', rates, steps, cost: NaN, solver: 'infeasible', shortfall: NaN };
+  if (!x0) return unsolved(options.length, 'infeasible');
   let x: Float64Array | null = null;
   let bestScore = Infinity;
-  let solver = 'optimal (LP and rounding dive)';
   for (const policy of DIVE_POLICIES) {
     const y = dive(pb, x0, policy);
     if (!y) continue;
@@ -275,23 +272,20 @@ export function solveProducts(
     }
   }
   if (x) x = dropTrickles(pb, x);
-  if (!x) {
-    const m = solveMip(pb);
-    if (m.status !== 'optimal')
-      return {
-        status: m.status === 'infeasible' ? 'infeasible' : 'error',
-        rates,
-        steps,
-        cost: NaN,
-        solver: m.status,
-        shortfall: NaN,
-      };
-    x = m.x;
-    solver = 'optimal (branch and bound)';
-  }
+  if (x) return answerOf(pb, x, 'optimal (LP and rounding dive)');
+  const m = solveMip(pb);
+  return m.status === 'optimal'
+    ? answerOf(pb, m.x, 'optimal (branch and bound)')
+    : unsolved(options.length, m.status);
+}
+
+/** A settled answer: rates in whole machine steps (below 1e-9 lb/ac: 0) and their cost. */
+function answerOf(pb: Problem, x: ArrayLike<number>, solver: string): SolveResult {
+  const rates = new Float64Array(pb.options.length);
+  const steps = new Float64Array(pb.options.length);
   let cost = 0;
-  options.forEach((o, i) => {
-    let v = x![i]! <= 1e-9 ? 0 : x![i]!;
+  pb.options.forEach((o, i) => {
+    let v = x[i]! <= 1e-9 ? 0 : x[i]!;
     if (o.stepLb > 0) {
       steps[i] = Math.round(v / o.stepLb);
       v = steps[i]! * o.stepLb;
@@ -299,13 +293,19 @@ export function solveProducts(
     rates[i] = v;
     cost += v * o.pricePerLb;
   });
+  const shortfall = pb.maximize ? 0 : shortfallOf(pb.options, rates, pb.target);
+  return { status: 'optimal', rates, steps, cost, solver, shortfall };
+}
+
+/** No answer: the solver's status ('infeasible', or an error), no rates. */
+function unsolved(n: number, status: string): SolveResult {
   return {
-    status: 'optimal',
-    rates,
-    steps,
-    cost,
-    solver,
-    shortfall: maximize ? 0 : shortfallOf(options, rates, target),
+    status: status === 'infeasible' ? 'infeasible' : 'error',
+    rates: new Float64Array(n),
+    steps: new Float64Array(n),
+    cost: NaN,
+    solver: status,
+    shortfall: NaN,
   };
 }
 
@@ -423,33 +423,7 @@ export function solveProductsExact(
 ): SolveResult {
   const pb: Problem = { options, target, tolerance, limits, maximize: undefined };
   const m = solveMip(pb, maxIterations);
-  const rates = new Float64Array(options.length);
-  const steps = new Float64Array(options.length);
-  if (m.status !== 'optimal')
-    return {
-      status: m.status === 'infeasible' ? 'infeasible' : 'error',
-      rates,
-      steps,
-      cost: NaN,
-      solver: m.status,
-      shortfall: NaN,
-    };
-  let cost = 0;
-  options.forEach((o, i) => {
-    let v = m.x[i]! <= 1e-9 ? 0 : m.x[i]!;
-    if (o.stepLb > 0) {
-      steps[i] = Math.round(v / o.stepLb);
-      v = steps[i]! * o.stepLb;
-    }
-    rates[i] = v;
-    cost += v * o.pricePerLb;
-  });
-  return {
-    status: 'optimal',
-    rates,
-    steps,
-    cost,
-    solver: 'optimal (branch and bound)',
-    shortfall: shortfallOf(options, rates, target),
-  };
+  return m.status === 'optimal'
+    ? answerOf(pb, m.x, 'optimal (branch and bound)')
+    : unsolved(options.length, m.status);
 }

@@ -19,7 +19,9 @@ import { polysArea, ringCentroid, type Poly } from './shape.js';
 /**
  * Adds the `outside` and `gaps` lines (skipped without `opts.boundary`). Throws UserError for a boundary that
  * cannot be used.
- * @example checkBoundary(ctx)
+ * @example
+ * checkBoundary(ctx); // a 400 m x 50 m strip in no zone:
+ * ctx.lines.at(-1) // { check: 'gaps', status: 'fail', message: '1 part of the field (20011.1 m2, 4.945 ac) ...', zones: ['zone 1', 'zone 2', 'zone 3'] }
  */
 export function checkBoundary(ctx: CheckContext): void {
   const bl = ctx.opts.boundary;

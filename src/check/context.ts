@@ -2,9 +2,10 @@
  * What every check of `tilth check` shares: the layer, the options, zone names, the working metres frame and
  * the report lines being written. Built once by checkPrescription (./index.ts); each check is one file.
  */
-import type { Feature, MultiPolygon, Polygon } from 'geojson';
+import type { Feature, MultiPolygon, Polygon, Position } from 'geojson';
 import { utmZone } from '../geo/crs.js';
-import { projector, type Projector } from '../geo/utm.js';
+import { exteriorsBbox } from '../geo/area.js';
+import { arealScale, projector, utmZoneFor, type Projector } from '../geo/utm.js';
 import type { CheckLayer } from './layer.js';
 import { significantArea, type Poly } from './shape.js';
 import type { CheckLine, CheckOptions, CheckStatus } from './types.js';
@@ -63,34 +64,22 @@ export const fmt = (v: number, d = 1) => v.toFixed(d);
 export const list = (z: string[], max = 12) =>
   z.length <= max ? z.join(', ') : `${z.slice(0, max).join(', ')} and ${z.length - max} more`;
 
+/** A feature's polygons (a Polygon as one), or null when it is no polygon. */
+function polygonsOf(f: Feature): Position[][][] | null {
+  const g = f.geometry as Polygon | MultiPolygon | null;
+  if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) return null;
+  return g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
+}
+
 export function lonlatLike(features: Feature[]): boolean {
-  for (const f of features) {
-    const g = f.geometry as Polygon | MultiPolygon | null;
-    if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) continue;
-    const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
-    for (const p of polys)
+  for (const f of features)
+    for (const p of polygonsOf(f) ?? [])
       for (const r of p) for (const pt of r) if (Math.abs(pt[0]) > 180 || Math.abs(pt[1]) > 90) return false;
-  }
   return true;
 }
 
 export function bboxOf(features: Feature[]): [number, number, number, number] {
-  let x0 = Infinity,
-    y0 = Infinity,
-    x1 = -Infinity,
-    y1 = -Infinity;
-  for (const f of features) {
-    const g = f.geometry as Polygon | MultiPolygon | null;
-    if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) continue;
-    for (const p of g.type === 'Polygon' ? [g.coordinates] : g.coordinates)
-      for (const pt of p[0] ?? []) {
-        x0 = Math.min(x0, pt[0]);
-        x1 = Math.max(x1, pt[0]);
-        y0 = Math.min(y0, pt[1]);
-        y1 = Math.max(y1, pt[1]);
-      }
-  }
-  return [x0, y0, x1, y1];
+  return exteriorsBbox(features.flatMap((f) => polygonsOf(f) ?? []));
 }
 
 /** How a layer's coordinates become working metres. */
@@ -115,9 +104,8 @@ export function toMetres(
     Math.round((p[1] - oy) * 1e4) / 1e4,
   ];
   return features.map((f) => {
-    const g = f.geometry as Polygon | MultiPolygon | null;
-    if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) return null;
-    const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
+    const polys = polygonsOf(f);
+    if (!polys) return null;
     return polys.map((p) =>
       p.map((r) =>
         r.map((pt): [number, number] => {
@@ -154,20 +142,7 @@ export function zoneNames(layer: CheckLayer): string[] {
   });
 }
 
-export function bbox(polys: Poly[]): [number, number, number, number] {
-  let x0 = Infinity,
-    y0 = Infinity,
-    x1 = -Infinity,
-    y1 = -Infinity;
-  for (const p of polys)
-    for (const [x, y] of p[0] ?? []) {
-      x0 = Math.min(x0, x);
-      x1 = Math.max(x1, x);
-      y0 = Math.min(y0, y);
-      y1 = Math.max(y1, y);
-    }
-  return [x0, y0, x1, y1];
-}
+export const bbox = (polys: Poly[]) => exteriorsBbox(polys);
 export const boxesMeet = (a: number[], b: number[]) =>
   a[0] <= b[2] && b[0] <= a[2] && a[1] <= b[3] && b[1] <= a[3];
 
@@ -184,4 +159,32 @@ export function overlayFailed(
     'warn',
     `not computed: the polygon overlay failed (${(e as Error).message.slice(0, 120)}); inspect the zones in a GIS`,
   );
+}
+
+/**
+ * The working frame: a UTM projection (the layer's own, or the zone of its centre for lon/lat), the areal scale
+ * at the centre and a local origin; planar (file units as metres) when the system is unknown.
+ * @example const { work, scale, origin } = workingFrame(layer, frameOf(layer))
+ */
+export function workingFrame(
+  layer: CheckLayer,
+  frame: Frame,
+): { work: Projector | null; scale: number; origin: [number, number] } {
+  const [bx0, by0, bx1, by1] = bboxOf(layer.features);
+  let work: Projector | null = null;
+  let scale = 1;
+  let origin: [number, number] = Number.isFinite(bx0) ? [(bx0 + bx1) / 2, (by0 + by1) / 2] : [0, 0];
+  if (frame.kind !== 'planar' && Number.isFinite(bx0)) {
+    if (frame.kind === 'utm') {
+      work = frame.utmProj;
+      const [clon, clat] = work!.toLonLat(origin[0], origin[1]);
+      scale = arealScale(work!, clon, clat);
+    } else if (lonlatLike(layer.features)) {
+      const [clon, clat] = origin;
+      work = projector(utmZoneFor(clon, clat));
+      scale = arealScale(work, clon, clat);
+      origin = work.toMetres(clon, clat);
+    }
+  }
+  return { work, scale, origin };
 }

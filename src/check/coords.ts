@@ -28,7 +28,7 @@ function positionProblem(p: unknown): string {
  * Why a Polygon or MultiPolygon's coordinates cannot be used, or '' when they can (other geometry types: '').
  * @example polygonCoordsProblem({ type: 'Polygon', coordinates: [[[0, 0], [1, null]]] }) // 'ring 1, point 2: coordinate ...'
  */
-export function polygonCoordsProblem(g: unknown): string {
+function polygonCoordsProblem(g: unknown): string {
   const geom = g as { type?: unknown; coordinates?: unknown } | null;
   if (!geom || (geom.type !== 'Polygon' && geom.type !== 'MultiPolygon')) return '';
   const polys = geom.type === 'Polygon' ? [geom.coordinates] : geom.coordinates;

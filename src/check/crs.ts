@@ -1,12 +1,12 @@
-/** Check `crs`: the layer's coordinate system is known and its coordinates fit it; and the working metres. */
+/** Check `crs`: the layer's coordinate system is known and its coordinates fit it. */
 import { UserError } from '../errors.js';
-import { arealScale, projector, utmZoneFor, type Projector } from '../geo/utm.js';
-import { bboxOf, lonlatLike, type CheckContext, type Frame } from './context.js';
-import type { CheckLayer } from './layer.js';
+import { lonlatLike, type CheckContext } from './context.js';
 
 /**
  * Adds the `crs` line. Throws UserError for a layer without a coordinate system when `strict`.
- * @example checkCrs(ctx)
+ * @example
+ * checkCrs(ctx); // a GeoJSON naming EPSG:3857 (tests/check/fixtures/crs/in/fail-unknown-crs.geojson):
+ * ctx.lines.at(-1) // { check: 'crs', status: 'fail', message: 'coordinate system not recognised (urn:ogc:def:crs:EPSG::3857); ...', zones: [] }
  */
 export function checkCrs(ctx: CheckContext): void {
   if (!ctx.layer.crs) {
@@ -49,32 +49,4 @@ export function checkCrs(ctx: CheckContext): void {
         : '';
     ctx.add('crs', ctx.layer.crs.datum === 'WGS84' ? 'pass' : 'warn', `${ctx.layer.crs.label}${nad}`);
   }
-}
-
-/**
- * The working frame: a UTM projection (the layer's own, or the zone of its centre for lon/lat), the areal scale
- * at the centre and a local origin; planar (file units as metres) when the system is unknown.
- * @example const { work, scale, origin } = workingFrame(layer, frameOf(layer))
- */
-export function workingFrame(
-  layer: CheckLayer,
-  frame: Frame,
-): { work: Projector | null; scale: number; origin: [number, number] } {
-  const [bx0, by0, bx1, by1] = bboxOf(layer.features);
-  let work: Projector | null = null;
-  let scale = 1;
-  let origin: [number, number] = Number.isFinite(bx0) ? [(bx0 + bx1) / 2, (by0 + by1) / 2] : [0, 0];
-  if (frame.kind !== 'planar' && Number.isFinite(bx0)) {
-    if (frame.kind === 'utm') {
-      work = frame.utmProj;
-      const [clon, clat] = work!.toLonLat(origin[0], origin[1]);
-      scale = arealScale(work!, clon, clat);
-    } else if (lonlatLike(layer.features)) {
-      const [clon, clat] = origin;
-      work = projector(utmZoneFor(clon, clat));
-      scale = arealScale(work, clon, clat);
-      origin = work.toMetres(clon, clat);
-    }
-  }
-  return { work, scale, origin };
 }

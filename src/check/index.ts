@@ -1,6 +1,8 @@
 /**
  * checkPrescription: will this prescription load and apply what the agronomist meant?
  * One line per check (pass / warn / fail / skip) with the zones involved. Pure: layers in, report out.
+ * Each check is one file here with one entry function that reads the shared context (./context.ts) and adds its
+ * lines; its passing and failing cases are tests/check/fixtures/<file>/ (README there).
  */
 import type { CheckLayer } from './layer.js';
 import { polysArea } from './shape.js';
@@ -11,14 +13,15 @@ import {
   significantWith,
   SLIVER_WIDTH_M,
   toMetres,
+  workingFrame,
   zoneNames,
   type CheckContext,
 } from './context.js';
-import { checkCrs, workingFrame } from './crs.js';
+import { checkCrs } from './crs.js';
 import { checkGeometry } from './geometry.js';
 import { checkOverlap } from './overlap.js';
 import { checkBoundary } from './boundary.js';
-import { checkRateFields, checkRateRange, rateTotals } from './rates.js';
+import { checkRates, rateTotals } from './rates.js';
 import { checkZoneSize } from './zoneSize.js';
 
 export { readLayer, layerFromGeoJSON, type CheckLayer } from './layer.js';
@@ -76,8 +79,7 @@ export function checkPrescription(rawLayer: CheckLayer, opts: CheckOptions = {})
   ctx.boxes = ctx.usable.map((m) => (m ? bbox(m) : null));
   checkOverlap(ctx);
   checkBoundary(ctx);
-  const { rateFields, rates } = checkRateFields(ctx);
-  checkRateRange(ctx, rateFields, rates);
+  const { rateFields, rates } = checkRates(ctx);
   checkZoneSize(ctx);
   const totals = rateTotals(ctx, rateFields, rates);
   return { file: layer.label, ok: !lines.some((l) => l.status === 'fail'), lines, totals };

@@ -9,7 +9,9 @@ import { polysArea, type Poly } from './shape.js';
 
 /**
  * Adds the `overlap` line and sets `ctx.covered`, the union of the usable zones.
- * @example checkOverlap(ctx); ctx.covered
+ * @example
+ * checkOverlap(ctx); // zone 3 reaching 50 m into zone 2:
+ * ctx.lines.at(-1) // { check: 'overlap', status: 'fail', message: 'zones overlap, ...: zone 2 & zone 3 (20011.1 m2)', zones: ['zone 2', 'zone 3'] }
  */
 export function checkOverlap(ctx: CheckContext): void {
   const ok = ctx.usable.filter((m): m is Poly[] => !!m);

@@ -6,11 +6,23 @@ import type { CheckOptions, CheckStatus, RateTotal } from './types.js';
 import type { CheckLayer } from './layer.js';
 
 /**
- * Adds the `rate_field` lines; returns the rate columns and their values per zone (null = blank). Throws
- * UserError for a rate written as text.
- * @example const { rateFields, rates } = checkRateFields(ctx)
+ * Adds the `rate_field` and `rate_range` lines; returns the rate columns and their values per zone (null =
+ * blank) for {@link rateTotals}, whose `total` lines close the report. Throws UserError for a rate written as text.
+ * @example
+ * const { rateFields, rates } = checkRates(ctx); // with { rateField: 'urea_lbac', min: 100, max: 150 }:
+ * ctx.lines.at(-1) // { check: 'rate_range', status: 'fail', message: '"urea_lbac" outside ... below: zone 3 (90); above: zone 4 (170)', zones: ['zone 3', 'zone 4'] }
  */
-export function checkRateFields(ctx: CheckContext): {
+export function checkRates(ctx: CheckContext): {
+  rateFields: string[];
+  rates: Record<string, (number | null)[]>;
+} {
+  const found = checkRateFields(ctx);
+  checkRateRange(ctx, found.rateFields, found.rates);
+  return found;
+}
+
+/** Adds the `rate_field` lines; returns the rate columns and their values per zone (null = blank). */
+function checkRateFields(ctx: CheckContext): {
   rateFields: string[];
   rates: Record<string, (number | null)[]>;
 } {
@@ -44,11 +56,8 @@ export function checkRateFields(ctx: CheckContext): {
   return { rateFields, rates };
 }
 
-/**
- * Adds the `rate_range` lines: rates above 0 below the machine's lowest, above its highest, or negative fail.
- * @example checkRateRange(ctx, rateFields, rates)
- */
-export function checkRateRange(
+/** Adds the `rate_range` lines: rates above 0 below the machine's lowest, above its highest, or negative fail. */
+function checkRateRange(
   ctx: CheckContext,
   rateFields: string[],
   rates: Record<string, (number | null)[]>,
@@ -84,7 +93,7 @@ export function checkRateRange(
 
 /**
  * Adds a `total` line per rate column and returns the totals (product = rate x ground area).
- * @example const totals = rateTotals(ctx, rateFields, rates)
+ * @example rateTotals(ctx, rateFields, rates) // [{ field: 'urea_lbac', unit: 'lb/ac', total: 18716.3, totalUnit: 'lb', areaAc: 158.24 }, ...]
  */
 export function rateTotals(
   ctx: CheckContext,

@@ -6,7 +6,9 @@ import { lengthM, quantityText, speedMs, type Length, type Speed } from '../unit
 /**
  * Adds the `zone_size` line (skipped without a speed): a rate change takes transitionS seconds, so a zone shorter
  * than speed x transition never reaches its rate. Speed and swath are named as given (mph and ft with km/h and m).
- * @example checkZoneSize(ctx)
+ * @example
+ * checkZoneSize(ctx); // with { speed: { value: 60, unit: 'km/h' }, transitionS: 10 }:
+ * ctx.lines.at(-1) // { check: 'zone_size', status: 'fail', message: 'at 60 km/h a rate change takes 10 s = 166.7 m; no part longer than that: zone 4 (141.4 m)', zones: ['zone 4'] }
  */
 export function checkZoneSize(ctx: CheckContext): void {
   const o = ctx.opts;

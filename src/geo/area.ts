@@ -65,6 +65,28 @@ export function ringsBbox(rings: Iterable<ArrayLike<number>>): [number, number, 
   return [x0, y0, x1, y1];
 }
 
+/**
+ * Bounding box of polygons' exterior rings as [x, y] points (GeoJSON coordinates): [xmin, ymin, xmax, ymax];
+ * Infinity and -Infinity when there is no point.
+ * @example exteriorsBbox([[[[0, 0], [4, 0], [4, 3], [0, 0]]]]) // [0, 0, 4, 3]
+ */
+export function exteriorsBbox(
+  polys: Iterable<readonly (readonly (readonly number[])[])[]>,
+): [number, number, number, number] {
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
+  for (const p of polys)
+    for (const pt of p[0] ?? []) {
+      x0 = Math.min(x0, pt[0]);
+      x1 = Math.max(x1, pt[0]);
+      y0 = Math.min(y0, pt[1]);
+      y1 = Math.max(y1, pt[1]);
+    }
+  return [x0, y0, x1, y1];
+}
+
 /** Bounding box of parts (their exterior rings): [xmin, ymin, xmax, ymax]. */
 export function partsBbox(parts: RingsPart[]): [number, number, number, number] {
   return ringsBbox(parts.map((p) => p.exterior));

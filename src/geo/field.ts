@@ -3,7 +3,7 @@
  */
 import type { Field, RingsPart } from '../types.js';
 import { arealScale, projector, utmZoneFor, type Projector } from './utm.js';
-import { orient, partsArea, partsBbox } from './area.js';
+import { exteriorsBbox, orient, partsArea, partsBbox } from './area.js';
 
 /**
  * Projects a boundary to the UTM zone of its centre, orients rings (exterior CCW, holes CW)
@@ -15,17 +15,7 @@ import { orient, partsArea, partsBbox } from './area.js';
  * @example const f = projectField(mp, 'Home quarter'); m2ToAc(f.areaM2) // acres
  */
 export function projectField(lonlat: number[][][][], name = 'field'): Field & { projector: Projector } {
-  let lx0 = Infinity,
-    lx1 = -Infinity,
-    ly0 = Infinity,
-    ly1 = -Infinity;
-  for (const poly of lonlat)
-    for (const [x, y] of poly[0]) {
-      lx0 = Math.min(lx0, x);
-      lx1 = Math.max(lx1, x);
-      ly0 = Math.min(ly0, y);
-      ly1 = Math.max(ly1, y);
-    }
+  const [lx0, ly0, lx1, ly1] = exteriorsBbox(lonlat);
   const clon = (lx0 + lx1) / 2,
     clat = (ly0 + ly1) / 2;
   const utm = utmZoneFor(clon, clat);

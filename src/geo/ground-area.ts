@@ -1,6 +1,6 @@
 /** Ground area of lon/lat polygons through the UTM projection (see projectField for the method). */
 import { arealScale, projector, utmZoneFor, type Projector } from './utm.js';
-import { ringArea } from './area.js';
+import { exteriorsBbox, ringArea } from './area.js';
 
 /**
  * Ground area on the WGS 84 ellipsoid, m2, of MultiPolygon coordinates in lon/lat (holes subtracted):
@@ -10,17 +10,7 @@ import { ringArea } from './area.js';
  * @example groundAreaM2([[[[-106,52],[-105.99,52],[-105.99,52.01],[-106,52]]]]) // ~381 996
  */
 export function groundAreaM2(polys: number[][][][], p?: Projector): number {
-  let x0 = Infinity,
-    x1 = -Infinity,
-    y0 = Infinity,
-    y1 = -Infinity;
-  for (const poly of polys)
-    for (const [x, y] of poly[0] ?? []) {
-      x0 = Math.min(x0, x);
-      x1 = Math.max(x1, x);
-      y0 = Math.min(y0, y);
-      y1 = Math.max(y1, y);
-    }
+  const [x0, y0, x1, y1] = exteriorsBbox(polys);
   if (!Number.isFinite(x0)) return 0;
   const cx = (x0 + x1) / 2,
     cy = (y0 + y1) / 2;

@@ -5,8 +5,10 @@
 
 /** A lon/lat grid: south-west corner, cell size in degrees, columns and rows (row 0 = south). */
 export interface LonLatFrame {
+  /** south-west corner of the south-west cell, degrees */
   south: number;
   west: number;
+  /** cell size, degrees */
   cellNorth: number;
   cellEast: number;
   cols: number;

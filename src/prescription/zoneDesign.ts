@@ -116,7 +116,7 @@ export function designZoneSets(d: DesignInputs): { sets: DesignedSet[]; warnings
   const sets = setSpecs(d, basis).map((spec) => designSet(d, spec, rmse, textures, warnings));
   if (d.minArea.fromPlan && d.minArea.usedM2 < d.minArea.perSampleM2) {
     warnings.push({
-      code: 'zones.min-area-below-sample',
+      code: 'zones-min-area-below-sample',
       message: `zoning.min_zone_ac ${m2ToAc(d.minArea.usedM2).toFixed(2)} ac is below the area one grid sample stands for (${m2ToAc(d.minArea.perSampleM2).toFixed(2)} ac = field area / ${d.minArea.gridSamples} samples): smaller zones rest on one sample or none. Fix: use min_zone_ac: auto unless you have reason to trust the map at that scale.`,
     });
   }

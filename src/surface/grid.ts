@@ -294,7 +294,7 @@ export function gridWarnings(grid: Grid, name: string): { code: string; message:
   if (s < 1) {
     return [
       {
-        code: 'surface.field-smaller-than-cell',
+        code: 'surface-field-smaller-than-cell',
         message: `field "${name}" (${Math.round(s * grid.cell * grid.cell)} m2) is smaller than one ${grid.cell} m cell; the map has ${grid.cols * grid.rows} cell(s). Fix: use a smaller --cell.`,
         field: 'cell',
       },

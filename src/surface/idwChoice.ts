@@ -23,14 +23,21 @@ export const ALL_CV_LIMIT = 2000;
 /** The IDW choice for one nutrient: its cross-validation table (null without one), power, neighbours, and why. */
 export type IdwChoice = { cv: CvResult | null; power: number; neighbours: number; choice: string };
 
-/** The options of nutrientSurface that the IDW choice reads (same meanings and defaults). */
-interface ChoiceOptions {
+/** The options of nutrientSurface that the IDW choice reads. */
+export interface IdwChoiceOptions {
+  /** IDW power, or 'auto' = lowest cross-validation RMSE among `powers` (default 'auto'); a number is the only candidate */
   power?: number | 'auto';
+  /** nearest samples used (Infinity = all), or 'auto' (default 'auto') */
   neighbours?: number | 'auto';
+  /** candidate powers for 'auto' (default 1, 1.5, 2, 3) */
   powers?: number[];
+  /** candidate neighbour counts for 'auto' (default 8, 12, 16, all) */
   neighbourChoices?: number[];
+  /** search radius in metres (default none) */
   radius?: number;
+  /** NaN where fewer samples lie within the radius (default 1) */
   minNeighbours?: number;
+  /** skip cross-validation when power and neighbours are both given (default false: a one-row table for the given pair is made) */
   skipCv?: boolean;
 }
 
@@ -45,7 +52,7 @@ interface Candidate {
  * IDW power and neighbours for nutrients at the same sites: by one shared cross-validation ('auto') or as
  * given; per nutrient the table and the sentence for people.
  */
-export function chooseIdw(group: Candidate[], opts: ChoiceOptions): IdwChoice[] {
+export function chooseIdw(group: Candidate[], opts: IdwChoiceOptions): IdwChoice[] {
   const n = group[0].pts.z.length;
   const fixedP = typeof opts.power === 'number' ? opts.power : null;
   const fixedK = typeof opts.neighbours === 'number' ? opts.neighbours : null;
@@ -55,7 +62,7 @@ export function chooseIdw(group: Candidate[], opts: ChoiceOptions): IdwChoice[] 
     choices = choices.filter((k) => Number.isFinite(k));
     for (const p of group)
       p.base.warnings.push({
-        code: 'surface.cv-all-skipped',
+        code: 'surface-cv-all-skipped',
         message: `${p.label}: ${n} samples; "all neighbours" is not among the cross-validation candidates above ${ALL_CV_LIMIT} samples (its cost grows with the square of the sample count; give --neighbours all to use it).`,
         field: p.label,
       });
@@ -91,7 +98,7 @@ function idwFromCv(
   if (!cv) {
     if (n < 3)
       p.base.warnings.push({
-        code: 'surface.few-samples',
+        code: 'surface-few-samples',
         message: `${p.label}: only ${n} samples; power ${power} and ${kName(neighbours)} neighbours are used without cross-validation.`,
         field: p.label,
       });

@@ -34,6 +34,11 @@ export interface KrigingOptions {
   where?: ArrayLike<number>;
   /** also return the Lagrange multiplier per cell (for the lognormal back-transform; default false) */
   lagrange?: boolean;
+  /**
+   * compute only these cells (ascending cell indices, e.g. the cells a coarser map shows); the result's arrays
+   * are then as long as `cells` and follow its order, which saves the memory of whole-grid arrays
+   */
+  cells?: Int32Array;
 }
 
 /** Kriging mean and variance per cell (row-major, north-up; NaN where not computed). */
@@ -322,17 +327,20 @@ export function krigingSurface(
   const n = xy.length >> 1;
   const k = Math.min(opts.neighbours ?? 16, n);
   const N = grid.cols * grid.rows;
-  const values = new Float64Array(N).fill(NaN);
-  const variance = new Float64Array(N).fill(NaN);
-  const lagrange = opts.lagrange ? new Float64Array(N).fill(NaN) : null;
+  const only = opts.cells ?? null;
+  const size = only ? only.length : N;
+  const values = new Float64Array(size).fill(NaN);
+  const variance = new Float64Array(size).fill(NaN);
+  const lagrange = opts.lagrange ? new Float64Array(size).fill(NaN) : null;
   const res: KrigingResult = { values, variance, lagrange, singular: 0, factorisations: 0 };
   if (n === 0 || k < 1) return res;
   const solver = new OkSolver(model, k, n);
   const { xmin, ymax, cell, cols } = grid;
-  const search = { where: opts.where ?? grid.fraction, sorted: false };
+  const search = { where: only ? cellMask(N, only) : (opts.where ?? grid.fraction), sorted: false };
   forEachNeighbourBand(xy, grid, k, search, (b) => {
     for (let t = 0; t < b.count; t++) {
-      const i = b.cells[t],
+      const cellIndex = b.cells[t],
+        i = only ? position(only, cellIndex) : cellIndex,
         found = b.found[t],
         o = t * b.k;
       // a cell on a sample takes its value (the lowest index when several coincide)
@@ -349,7 +357,7 @@ export function krigingSurface(
         res.singular++;
         continue;
       }
-      solver.predict(((i % cols) + 0.5) * cell, -(Math.floor(i / cols) + 0.5) * cell);
+      solver.predict(((cellIndex % cols) + 0.5) * cell, -(Math.floor(cellIndex / cols) + 0.5) * cell);
       values[i] = solver.mean;
       variance[i] = solver.variance;
       if (lagrange) lagrange[i] = solver.mu;
@@ -357,4 +365,23 @@ export function krigingSurface(
   });
   res.factorisations = solver.factorisations;
   return res;
+}
+
+/** A mask of N cells, 1 at `cells`. */
+function cellMask(N: number, cells: Int32Array): Uint8Array {
+  const m = new Uint8Array(N);
+  for (let j = 0; j < cells.length; j++) m[cells[j]] = 1;
+  return m;
+}
+
+/** Where cell `i` is in the ascending list `cells` (binary search; it is there). */
+function position(cells: Int32Array, i: number): number {
+  let lo = 0,
+    hi = cells.length - 1;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (cells[mid] < i) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
 }

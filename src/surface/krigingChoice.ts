@@ -123,7 +123,8 @@ export interface KrigedGrid {
 }
 
 /**
- * Kriges the samples onto the grid with a candidate's model.
+ * Kriges the samples onto the grid with a candidate's model; with `cells` (ascending) only those cells, the
+ * arrays then following `cells`.
  * @example const g = krigeGrid(pts.xy, pts.z, grid, info); g.variance[i]
  */
 export function krigeGrid(
@@ -131,11 +132,12 @@ export function krigeGrid(
   z: ArrayLike<number>,
   grid: GridShape & { fraction?: ArrayLike<number> },
   info: KrigingInfo,
+  cells?: Int32Array,
 ): KrigedGrid {
   if (!info.model) throw new Error('krigeGrid: no model (kriging was refused)');
   const log = info.transform === 'log';
   const zt = log ? Float64Array.from(z, Math.log) : z;
-  const r = krigingSurface(xy, zt, grid, info.model, { neighbours: info.neighbours, lagrange: log });
+  const r = krigingSurface(xy, zt, grid, info.model, { neighbours: info.neighbours, lagrange: log, cells });
   if (!log) return { values: r.values, mean: r.values, variance: r.variance, singular: r.singular };
   const values = new Float64Array(r.values.length).fill(NaN);
   const mu = r.lagrange!;

@@ -6,7 +6,7 @@ import { UserError, type Warning } from '../errors.js';
 import type { Analyte, Grid, SampleZones, Samples } from '../types.js';
 import type { CvResult } from './crossValidate.js';
 import { idwSurfaces } from './idw.js';
-import { chooseIdw, fmt, kName, type IdwChoice } from './idwChoice.js';
+import { chooseIdw, fmt, kName, type IdwChoice, type IdwChoiceOptions } from './idwChoice.js';
 import { SurfacePool, type SurfaceThreads } from './parallel.js';
 import { nutrientPoints, type NutrientPoints } from './prepare.js';
 import { zoneSurface } from './zoneSurface.js';
@@ -52,21 +52,7 @@ export function analyteFromName(name: string): Analyte {
 }
 
 /** Options for {@link nutrientSurface}. */
-export interface NutrientSurfaceOptions {
-  /** IDW power, or 'auto' = lowest cross-validation RMSE among `powers` (default 'auto'); a number is the only candidate */
-  power?: number | 'auto';
-  /** nearest samples used (Infinity = all), or 'auto' (default 'auto') */
-  neighbours?: number | 'auto';
-  /** candidate powers for 'auto' (default 1, 1.5, 2, 3) */
-  powers?: number[];
-  /** candidate neighbour counts for 'auto' (default 8, 12, 16, all) */
-  neighbourChoices?: number[];
-  /** search radius in metres (default none) */
-  radius?: number;
-  /** NaN where fewer samples lie within the radius (default 1) */
-  minNeighbours?: number;
-  /** skip cross-validation when power and neighbours are both given (default false: a one-row table for the given pair is made) */
-  skipCv?: boolean;
+export interface NutrientSurfaceOptions extends IdwChoiceOptions {
   /** 'idw' (default), 'kriging' (ordinary kriging; a UserError with the reason when the semivariogram cannot
    * carry it), or 'auto': the lowest leave-one-out RMSE of the IDW candidates and kriging */
   method?: SurfaceMethod;
@@ -226,7 +212,7 @@ function prepare(
   }
   if (n > 1 && min === max) {
     warnings.push({
-      code: 'surface.flat',
+      code: 'surface-flat',
       message: `${label}: all ${n} samples have the value ${min}; the map is flat.`,
       field: label,
     });
@@ -259,7 +245,7 @@ function prepare(
     const values = new Float64Array(grid.cols * grid.rows).fill(NaN);
     for (let i = 0; i < values.length; i++) if (grid.fraction[i] > 0) values[i] = pts.z[0];
     warnings.push({
-      code: 'surface.one-sample',
+      code: 'surface-one-sample',
       message: `${label}: only one sample (${pts.ids[0]}) has a value; the whole field takes it.`,
       field: label,
     });
@@ -311,7 +297,7 @@ function interpolate(
     for (let c = 0; c < v.length; c++) if (grid.fraction[c] > 0 && Number.isNaN(v[c])) empty++;
     if (empty) {
       p.base.warnings.push({
-        code: 'surface.cells-empty',
+        code: 'surface-cells-empty',
         message: `${label}: ${empty} field cell${empty > 1 ? 's have' : ' has'} fewer than ${opts.minNeighbours ?? 1} sample${(opts.minNeighbours ?? 1) > 1 ? 's' : ''} within the ${opts.radius} m search radius and no value. Fix: use a larger radius (--radius) or fewer minimum neighbours.`,
         field: label,
       });
@@ -357,7 +343,7 @@ function krigeOrNot(
     const g = krigeGrid(pts.xy, pts.z, grid, kriging);
     if (g.singular)
       warnings.push({
-        code: 'surface.kriging-singular',
+        code: 'surface-kriging-singular',
         message: `${label}: ${g.singular} cells have no value: their neighbours' covariance matrix is singular under the ${kriging.modelText} model.`,
         field: label,
       });
@@ -386,7 +372,7 @@ function krigeOrNot(
     } else if (kriging.refused) {
       choice = `IDW (ordinary kriging was not a candidate: ${kriging.refused}); ${choice}`;
       warnings.push({
-        code: 'surface.kriging-refused',
+        code: 'surface-kriging-refused',
         message: `${label}: ordinary kriging was not used: ${kriging.refused}.`,
         field: label,
       });
@@ -414,14 +400,14 @@ function zoneValues(
   for (const [k, vs] of byKey) {
     if (!zones.keys.includes(k))
       warnings.push({
-        code: 'surface.zone-unknown',
+        code: 'surface-zone-unknown',
         message: `${label}: samples keyed to zone "${k}" match no zone polygon and are not used.`,
         where: k,
         field: label,
       });
     if (vs.length > 1)
       warnings.push({
-        code: 'surface.zone-several',
+        code: 'surface-zone-several',
         message: `${label}: zone "${k}" has ${vs.length} samples (${vs.join(', ')}); their average is used.`,
         where: k,
         field: label,

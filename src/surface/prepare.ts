@@ -50,7 +50,7 @@ export function nutrientPoints(
   }
   if (missing.length) {
     warnings.push({
-      code: 'surface.value-missing',
+      code: 'surface-value-missing',
       message: `${label}: ${missing.length} sample${missing.length > 1 ? 's have' : ' has'} no value and ${missing.length > 1 ? 'are' : 'is'} skipped for this nutrient: ${list(missing)}.`,
       field: label,
       where: missing.join(', '),
@@ -82,7 +82,7 @@ export function nutrientPoints(
     out.zone.push(zone ? zone[g[0]] : null);
     if (g.length > 1 && hi > lo) {
       warnings.push({
-        code: 'surface.same-location',
+        code: 'surface-same-location',
         message: `${label}: samples ${gid.join(', ')} are at one location with different values (${g.map((i) => values[i]).join(', ')}); their average ${round(out.z[k])} is used.`,
         field: label,
         where: gid.join(', '),

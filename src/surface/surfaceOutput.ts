@@ -32,7 +32,7 @@ export function chanceGrids(
   const grids = new Map<string, ArrayLike<number>>();
   if (!s.krigedMean || !s.variance || !s.kriging) {
     warnings.push({
-      code: 'surface.no-chance-maps',
+      code: 'surface-no-chance-maps',
       message: `${ANALYTE_LABEL[s.analyte]}: no chance maps: they need the kriging variance, and this surface is ${s.method}. Use --method kriging (or auto when kriging wins).`,
     });
     return grids;

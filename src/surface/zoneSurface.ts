@@ -28,7 +28,7 @@ export function zoneSurface(
   const unused = zones.filter((z) => !Number.isFinite(z.value)).map((z) => z.key);
   if (unused.length) {
     warnings.push({
-      code: 'surface.zone-no-value',
+      code: 'surface-zone-no-value',
       message: `${label}: zone${unused.length > 1 ? 's' : ''} ${unused.join(', ')} ha${unused.length > 1 ? 've' : 's'} no sample value; their cells take the nearest zone's value.`,
       field: label,
       where: unused.join(', '),
@@ -68,7 +68,7 @@ export function zoneSurface(
   }
   if (orphans) {
     warnings.push({
-      code: 'surface.outside-zones',
+      code: 'surface-outside-zones',
       message: `${label}: ${orphans} field cell${orphans > 1 ? 's are' : ' is'} in no sample zone and take${orphans > 1 ? '' : 's'} the nearest zone's value. Check that the zone polygons cover the field.`,
       field: label,
     });

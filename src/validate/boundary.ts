@@ -6,7 +6,7 @@
 import { UserError, type Warning } from '../errors.js';
 import type { RawPolygons } from '../io/records.js';
 import type { RingsPart } from '../types.js';
-import { pointInRing, ringArea } from '../geo/area.js';
+import { pointInRing, ringArea, ringPerimeter } from '../geo/area.js';
 import { findCrossing } from './crossings.js';
 
 const ringName = (poly: number, ring: number, nPolys: number) =>
@@ -105,7 +105,7 @@ export function checkPartsMetres(parts: RingsPart[], where: string[], file: stri
     });
   });
   rings.forEach((r, k) => {
-    if (fanArea(r) < Math.max(1, 1e-4 * perimeter(r) ** 2)) {
+    if (fanArea(r) < Math.max(1, 1e-4 * ringPerimeter(r) ** 2)) {
       throw new UserError(
         `${file} ${names[k]}: the ring has no area (its points lie on one line, or it is a sliver far thinner than any field). Fix: draw the ${what} again.`,
         { file, where: names[k] },
@@ -149,10 +149,4 @@ function fanArea(r: Float64Array): number {
     a += Math.abs((r[2 * i] - r[0]) * (r[2 * i + 3] - r[1]) - (r[2 * i + 2] - r[0]) * (r[2 * i + 1] - r[1]));
   }
   return a / 2;
-}
-
-function perimeter(r: Float64Array): number {
-  let p = 0;
-  for (let i = 0; i + 3 < r.length; i += 2) p += Math.hypot(r[i + 2] - r[i], r[i + 3] - r[i + 1]);
-  return p;
 }

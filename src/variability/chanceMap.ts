@@ -112,7 +112,12 @@ export function chanceBelowMap(
       expectedAc: null,
       shareLikely: null,
     };
-  const chance = chanceBelow(k.cells, threshold.value);
+  let chance = chanceBelow(k.cells, threshold.value);
+  if (k.at) {
+    const all = new Float32Array(grid.fraction.length).fill(NaN);
+    k.at.forEach((i, j) => (all[i] = chance[j]));
+    chance = all;
+  }
   return {
     ...base,
     assumption: chanceAssumption(k.cells.transform),
@@ -121,7 +126,7 @@ export function chanceBelowMap(
     method: k.method,
     transform: k.cells.transform,
     msse: k.msse,
-    ...summary(chance, grid, Boolean(opts.cells) && !k.whole),
+    ...summary(chance, grid, Boolean(k.at)),
   };
 }
 
@@ -135,7 +140,7 @@ export function krigedCells(
   analyte: Analyte,
   grid: Grid,
   opts: ChanceMapOptions,
-): { cells: KrigedCells; method: string; msse: number | null; whole?: boolean } | { refused: string } {
+): { cells: KrigedCells; method: string; msse: number | null; at?: Int32Array } | { refused: string } {
   const s = opts.surface;
   const described = (info: KrigingInfo) =>
     `ordinary kriging, ${info.modelText}, ${info.neighbours} neighbours`;
@@ -144,7 +149,6 @@ export function krigedCells(
       cells: { mean: s.krigedMean, variance: s.variance, transform: s.kriging.transform },
       method: `${described(s.kriging)} (the surface's own)`,
       msse: s.kriging.cv?.msse ?? null,
-      whole: true,
     };
   if (s?.method === 'zones' || samples.zone.some((z) => z !== null))
     return { refused: 'zone-composite samples each stand for a whole zone; kriging needs point samples' };
@@ -156,19 +160,23 @@ export function krigedCells(
       : krigingCandidate(pts.xy, pts.z, { log: opts.log, neighbours: opts.neighbours, fit: opts.fit });
   if (!info.model || info.refused)
     return { refused: `ordinary kriging is refused: ${info.refused ?? 'no model'}` };
-  const g = krigeGrid(pts.xy, pts.z, opts.cells ? onlyCells(grid, opts.cells) : grid, info);
+  if (opts.cells) {
+    // only the listed field cells; the arrays follow `at`
+    const at = Int32Array.from(new Set(opts.cells.filter((i) => grid.fraction[i] > 0))).sort();
+    const g = krigeGrid(pts.xy, pts.z, grid, info, at);
+    return {
+      cells: { mean: g.mean, variance: g.variance, transform: info.transform },
+      method: described(info),
+      msse: info.cv?.msse ?? null,
+      at,
+    };
+  }
+  const g = krigeGrid(pts.xy, pts.z, grid, info);
   return {
     cells: { mean: g.mean, variance: g.variance, transform: info.transform },
     method: described(info),
     msse: info.cv?.msse ?? null,
   };
-}
-
-/** The grid with its fraction kept only at `cells` (kriging computes the cells with a fraction). */
-function onlyCells(grid: Grid, cells: Int32Array): Grid {
-  const fraction = new Float32Array(grid.fraction.length);
-  for (let j = 0; j < cells.length; j++) fraction[cells[j]] = grid.fraction[cells[j]];
-  return { ...grid, fraction };
 }
 
 /**

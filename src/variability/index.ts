@@ -111,7 +111,7 @@ export function analyzeVariability(
   const z = transformed(values, transform, nutrient, warnings);
   if (samples.zone.some((k) => k !== null)) {
     warnings.push({
-      code: 'variability.zone-composites',
+      code: 'variability-zone-composites',
       message:
         'these are zone-composite samples: each stands for a whole zone, not a point, so the semivariogram and the sampling advice describe the zone centres only. Grid or point samples are needed to measure variation within the zones.',
       field: nutrient,
@@ -206,7 +206,7 @@ function transformed(
   }
   if (dropped)
     warnings.push({
-      code: 'variability.log-nonpositive',
+      code: 'variability-log-nonpositive',
       message: `${dropped} ${nutrient} value(s) are 0 or negative and have no logarithm; they are left out of the semivariogram.`,
       field: nutrient,
     });
@@ -226,7 +226,7 @@ function studySemivariogram(
   const n = xyUsed.length / 2;
   if (n < 2) {
     warnings.push({
-      code: 'variability.too-few',
+      code: 'variability-too-few',
       message: `only ${n} sample(s) have a ${nutrient} value: no semivariogram can be computed.`,
       field: nutrient,
     });
@@ -238,7 +238,7 @@ function studySemivariogram(
   const fewPairLags = sv.lag.filter((_, j) => sv.np[j] < MIN_PAIRS);
   if (fewPairLags.length) {
     warnings.push({
-      code: 'variability.few-pairs',
+      code: 'variability-few-pairs',
       message: `${fewPairLags.length} of ${sv.lag.length} semivariogram lags hold fewer than ${MIN_PAIRS} pairs (common practice: at least ${MIN_PAIRS}); their semivariances are unreliable and the fitted model with them. Lags: ${fewPairLags.map((k) => k + 1).join(', ')}.`,
       field: nutrient,
     });
@@ -257,13 +257,13 @@ function studyFits(
   const dependence = best ? spatialDependence(best.nugget, best.psill) : null;
   if (!best)
     warnings.push({
-      code: 'variability.no-fit',
+      code: 'variability-no-fit',
       message: `no semivariogram model could be fitted to ${nutrient}: ${fits.find((f) => f.problem)?.problem ?? 'too few lags'}.`,
       field: nutrient,
     });
   else if (best.effectiveRange > sv.cutoff) {
     warnings.push({
-      code: 'variability.range-beyond-cutoff',
+      code: 'variability-range-beyond-cutoff',
       message: `the fitted effective range (${best.effectiveRange.toFixed(0)} m) is beyond the largest distance examined (${sv.cutoff.toFixed(0)} m): it is an extrapolation and uncertain.`,
       field: nutrient,
     });

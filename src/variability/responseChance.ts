@@ -49,7 +49,7 @@ export interface ResponseChanceInputs {
 
 /**
  * The expected response chance of P and K per cell, for the nutrients in `nutrients` that have samples; a warning
- * (code `zones.response-chance-refused`) names each one kriging cannot carry, whose zones then stay on the target.
+ * (code `zones-response-chance-refused`) names each one kriging cannot carry, whose zones then stay on the target.
  * @param nutrients the targets that drive zone sets (p2o5, k2o; others are ignored)
  * @example const b = responseChanceBasis({ samples, grid, surfaces, crop, tables }, ['p2o5']); b.layers.p2o5?.values
  */
@@ -65,7 +65,7 @@ export function responseChanceBasis(
     const layer = responseLayer(inp, n);
     if ('refused' in layer)
       out.warnings.push({
-        code: 'zones.response-chance-refused',
+        code: 'zones-response-chance-refused',
         message: `zoning.basis is response_chance, but the ${ANALYTE_NAME[ANALYTE[n]]} zones are drawn from the ${NUTRIENT_NAME[n]} target: the expected chance of a response needs kriging of ${ANALYTE_NAME[ANALYTE[n]]}, and ${layer.refused}. Fix: add samples, or use zoning.basis: targets.`,
         field: analyte,
       });

@@ -5,7 +5,7 @@
  * no gap or overlap can open between them. Nodes are grid corners, keyed `j * W + i` (W = cols + 1).
  */
 import type { RingsPart } from '../types.js';
-import { keysToRing, ringsToParts, walkRings, type RasterFrame } from './trace.js';
+import { keptVertices, keysToRing, ringsToParts, walkRings, type RasterFrame } from './trace.js';
 
 /** The arcs of a zone raster and each zone's rings as arcs. */
 export interface ZoneArcs {
@@ -205,25 +205,11 @@ export function ringsVertexCount(a: ZoneArcs, arcs: number[][]): number {
 
 /** Vertices of a node ring (closed, no repeat) where the ring does not run straight on, and the nodes in `keep`. */
 function straightDropped(keys: number[], W: number, keep: Set<number> | null): number[] {
-  const n = keys.length;
-  if (n < 4) return keys;
-  const out: number[] = [];
-  for (let t = 0; t < n; t++) {
-    const a = keys[(t + n - 1) % n],
-      b = keys[t],
-      c = keys[(t + 1) % n];
-    const ja = Math.floor(a / W),
-      jb = Math.floor(b / W),
-      jc = Math.floor(c / W);
-    const ax = a - ja * W,
-      bx = b - jb * W,
-      cx = c - jc * W;
+  return keptVertices(keys, W, (ax, ja, bx, jb, cx, jc, b) => {
     const cross = (bx - ax) * (jc - jb) - (jb - ja) * (cx - bx);
     const dot = (bx - ax) * (cx - bx) + (jb - ja) * (jc - jb);
-    if (cross === 0 && dot > 0 && !keep?.has(b)) continue;
-    out.push(b);
-  }
-  return out;
+    return cross === 0 && dot > 0 && !keep?.has(b);
+  });
 }
 
 /** Vertex count of polygon parts (closing vertices not counted). */

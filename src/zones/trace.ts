@@ -121,6 +121,23 @@ function splitRing(keys: number[], W: number, cornersOnly: boolean): number[][] 
 
 /** Drops vertices whose neighbours share their row or column (left where a loop was split off). */
 function dropCollinear(keys: number[], W: number): number[] {
+  return keptVertices(
+    keys,
+    W,
+    (ia, ja, ib, jb, ic, jc) => (ja === jb && jb === jc) || (ia === ib && ib === ic),
+  );
+}
+
+/**
+ * The vertices of a node ring (node keys j * W + i, closed, no repeat) that `drop` keeps, given the column i and
+ * row j of each vertex and of the vertices before and after it, and its key. Rings under 4 vertices stay whole.
+ * @example keptVertices(keys, W, (ia, ja, ib, jb, ic, jc) => ja === jb && jb === jc) // without the vertices inside a row
+ */
+export function keptVertices(
+  keys: number[],
+  W: number,
+  drop: (ia: number, ja: number, ib: number, jb: number, ic: number, jc: number, b: number) => boolean,
+): number[] {
   const n = keys.length;
   if (n < 4) return keys;
   const out: number[] = [];
@@ -131,11 +148,7 @@ function dropCollinear(keys: number[], W: number): number[] {
     const ja = Math.floor(a / W),
       jb = Math.floor(b / W),
       jc = Math.floor(c / W);
-    const ia = a - ja * W,
-      ib = b - jb * W,
-      ic = c - jc * W;
-    if ((ja === jb && jb === jc) || (ia === ib && ib === ic)) continue;
-    out.push(b);
+    if (!drop(a - ja * W, ja, b - jb * W, jb, c - jc * W, jc, b)) out.push(b);
   }
   return out;
 }

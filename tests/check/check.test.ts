@@ -1,17 +1,17 @@
 /**
  * `tilth check`: passes tilth's own outputs and the hand-made good prescription, fails each broken
- * fixture naming the zone, and refuses unreadable input with exit 2. Fixtures: tests/fixtures/check/
- * (invented field, written by scripts/make-check-fixtures.ts); binary broken sets are made here.
+ * fixture naming the zone, and refuses unreadable input with exit 2. Fixtures: tests/fixtures/check/ and
+ * tests/check/fixtures/ (invented field, written by scripts/make-check-fixtures.ts); binary broken sets are made
+ * here. Each check's pass and fail cases, compared with expected findings, are in fixtures.test.ts.
  */
-import { describe, expect, it, beforeAll, afterAll } from 'vitest';
-import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { zipSync } from 'fflate';
 import geodesic from 'geographiclib-geodesic';
-import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
-import { writeShapefile, type ColumnSpec } from '../../src/io/shapefile/index.js';
+import type { FeatureCollection } from 'geojson';
+import { writeShapefile } from '../../src/io/shapefile/index.js';
+import { BOUNDARY, checkCase, COLS, fx, good, K2, line, tempSets } from '../helpers/checkFixtures.js';
 import { prescriptionFiles } from '../../src/prescription/shapefiles.js';
 import { hullExtent } from '../../src/check/shape.js';
 import { checkPrescription, type CheckReport } from '../../src/check/index.js';
@@ -19,32 +19,7 @@ import { loadLayer } from '../../src/cli/check.js';
 import { lengthOption, speedOption } from '../../src/cli/util.js';
 import { isUserError } from '../../src/errors.js';
 
-const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
-const fx = (n: string) => join(FIX, n);
-const BOUNDARY = fx('boundary.geojson');
-const good = JSON.parse(readFileSync(fx('good.geojson'), 'utf8')) as FeatureCollection<
-  Polygon | MultiPolygon
->;
-const COLS: ColumnSpec[] = [
-  { key: 'zone_id', type: 'N', width: 4 },
-  { key: 'urea_lbac', type: 'N', width: 8, decimals: 1 },
-  { key: 'map_lbac', type: 'N', width: 8, decimals: 1 },
-];
-/** UTM areal scale k^2 at the fixture field (E about 400 400 m): k = k0 (1 + x^2 / 2R^2), Snyder 1987 eq. 8-11 to first order */
-const K2 = (0.9996 * (1 + (400400 - 500000) ** 2 / (2 * 6371000 ** 2))) ** 2;
-
-let dir = '';
-beforeAll(() => {
-  dir = mkdtempSync(join(tmpdir(), 'tilth-check-'));
-});
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-function save(files: Record<string, Uint8Array>, sub: string): string {
-  const d = join(dir, sub);
-  mkdirSync(d, { recursive: true });
-  for (const [k, v] of Object.entries(files)) writeFileSync(join(d, k), v);
-  return d;
-}
+const { save } = tempSets('tilth-check-');
 /**
  * `tilth check ARGS --json`, but in this process (spawning the CLI costs seconds on a shared machine): reads the
  * files the way the command does (src/cli/check.ts loadLayer) and runs the library. Exit 0/1/2 as the CLI.
@@ -77,7 +52,6 @@ async function lib(args: string[]): Promise<{ code: number; report: CheckReport;
     return { code: 2, report: undefined as unknown as CheckReport, stderr: `tilth: ${(e as Error).message}` };
   }
 }
-const line = (r: CheckReport, check: string) => r.lines.filter((l) => l.check === check);
 
 describe('hullExtent against brute force', () => {
   it('diameter = largest distance between any two points; width = smallest spread over every pair direction', async () => {
@@ -143,7 +117,7 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
   });
 
   it('fails a gap inside the boundary, naming the zones beside it (400 m x 50 m by construction)', async () => {
-    const { code, report } = await lib([fx('gap.geojson'), '--boundary', BOUNDARY]);
+    const { code, report } = await lib([checkCase('boundary', 'fail-gap'), '--boundary', BOUNDARY]);
     expect(code).toBe(1);
     const [l] = line(report, 'gaps');
     expect(l.status).toBe('fail');
@@ -153,47 +127,12 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
   });
 
   it('fails a zone reaching outside the boundary, naming it (50 m x 300 m by construction)', async () => {
-    const { code, report } = await lib([fx('outside.geojson'), '--boundary', BOUNDARY]);
+    const { code, report } = await lib([checkCase('boundary', 'fail-outside'), '--boundary', BOUNDARY]);
     expect(code).toBe(1);
     const [l] = line(report, 'outside');
     expect(l.zones).toEqual(['zone 2']);
     const a = Number(/\(([\d.]+) m2\)/.exec(l.message)![1]);
     expect(Math.abs(a - 15000 / K2) / (15000 / K2)).toBeLessThan(1e-3);
-  });
-
-  it('fails a self-crossing zone, naming it', async () => {
-    const { code, report } = await lib([fx('self-crossing.geojson')]);
-    expect(code).toBe(1);
-    const [l] = line(report, 'geometry');
-    expect(l.status).toBe('fail');
-    expect(l.zones).toEqual(['zone 4']);
-  });
-
-  it("fails rates outside the machine's range, naming the zones; 0 (off) passes", async () => {
-    const { code, report } = await lib([
-      fx('good.geojson'),
-      '--rate-field',
-      'urea_lbac',
-      '--min',
-      '100',
-      '--max',
-      '150',
-    ]);
-    expect(code).toBe(1);
-    const [l] = line(report, 'rate_range');
-    expect(l.zones.sort()).toEqual(['zone 3', 'zone 4']); // 90 below, 170 above
-  });
-
-  it('flags zones too small for the speed: 100 m x 100 m island (zone 4)', async () => {
-    // 100 km/h x 4 s = 111.1 m: longer than the island is wide (100 m), shorter than its diagonal (141 m) -> warn
-    let { report } = await lib([fx('good.geojson'), '--speed', '100']);
-    expect(line(report, 'zone_size')[0]).toMatchObject({ status: 'warn', zones: ['zone 4'] });
-    // 60 km/h x 10 s = 166.7 m: longer than the diagonal -> fail
-    ({ report } = await lib([fx('good.geojson'), '--speed', '60', '--transition', '10']));
-    expect(line(report, 'zone_size')[0]).toMatchObject({ status: 'fail', zones: ['zone 4'] });
-    // one rate change x 30 m swath = 111.1 m x 30 m = 3333 m2 < 10 000 m2: passes the swath test
-    ({ report } = await lib([fx('good.geojson'), '--speed', '12', '--swath', '30']));
-    expect(line(report, 'zone_size')[0].status).toBe('pass');
   });
 
   it('takes speed and swath with their unit and names them as given', async () => {
@@ -212,14 +151,6 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(bad.code).toBe(2);
     expect(bad.stderr).toMatch(
       /option --speed: "8 knots" is not a speed .* e\.g\. --speed 13km\/h or --speed 8mph/,
-    );
-  });
-
-  it('fails when the rate column cannot be told apart, and names the columns', async () => {
-    const { code, report } = await lib([fx('good.geojson'), '--rate-field', 'n_rate']);
-    expect(code).toBe(1);
-    expect(line(report, 'rate_field')[0].message).toMatch(
-      /no column "n_rate"; the columns are zone_id, urea_lbac, map_lbac/,
     );
   });
 });
@@ -277,14 +208,6 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
     const r = await lib([join(save(f, 'trunc'), 'rx.shp')]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/rx\.shp: not a readable shapefile: .*truncated/);
-  });
-
-  it('.dbf whose record count differs from the .shp', async () => {
-    const f = set();
-    f['rx.dbf'] = writeShapefile(good.features.slice(0, 3), COLS, { name: 'rx' })['rx.dbf'];
-    const r = await lib([join(save(f, 'dbfcount'), 'rx.shp')]);
-    expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/rx\.dbf: holds 3 records but rx\.shp holds 4 shapes/);
   });
 
   it('rate column of text in the .dbf, naming the zone', async () => {

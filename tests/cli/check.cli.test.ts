@@ -1,44 +1,18 @@
 /**
  * `tilth check` run as a command (the library parts are in tests/check/check.test.ts): passes tilth's own outputs and the hand-made good prescription, fails each broken
- * fixture naming the zone, and refuses unreadable input with exit 2. Fixtures: tests/fixtures/check/
- * (invented field, written by scripts/make-check-fixtures.ts); binary broken sets are made here.
+ * fixture naming the zone, and refuses unreadable input with exit 2. Fixtures: tests/fixtures/check/ and
+ * tests/check/fixtures/ (invented field, written by scripts/make-check-fixtures.ts); binary broken sets are made here.
  */
-import { describe, expect, it, beforeAll, afterAll } from 'vitest';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, unlinkSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { describe, expect, it } from 'vitest';
+import { existsSync, unlinkSync } from 'node:fs';
 import { join } from 'node:path';
 import { zipSync } from 'fflate';
-import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import { tilth } from '../helpers/cli.js';
-import { writeShapefile, type ColumnSpec } from '../../src/io/shapefile/index.js';
+import { BOUNDARY, checkCase, COLS, fx, good, K2, line, tempSets } from '../helpers/checkFixtures.js';
+import { writeShapefile } from '../../src/io/shapefile/index.js';
 import type { CheckReport } from '../../src/check/index.js';
 
-const FIX = join(import.meta.dirname, '..', 'fixtures', 'check');
-const fx = (n: string) => join(FIX, n);
-const BOUNDARY = fx('boundary.geojson');
-const good = JSON.parse(readFileSync(fx('good.geojson'), 'utf8')) as FeatureCollection<
-  Polygon | MultiPolygon
->;
-const COLS: ColumnSpec[] = [
-  { key: 'zone_id', type: 'N', width: 4 },
-  { key: 'urea_lbac', type: 'N', width: 8, decimals: 1 },
-  { key: 'map_lbac', type: 'N', width: 8, decimals: 1 },
-];
-/** UTM areal scale k^2 at the fixture field (E about 400 400 m): k = k0 (1 + x^2 / 2R^2), Snyder 1987 eq. 8-11 to first order */
-const K2 = (0.9996 * (1 + (400400 - 500000) ** 2 / (2 * 6371000 ** 2))) ** 2;
-
-let dir = '';
-beforeAll(() => {
-  dir = mkdtempSync(join(tmpdir(), 'tilth-check-'));
-});
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-function save(files: Record<string, Uint8Array>, sub: string): string {
-  const d = join(dir, sub);
-  mkdirSync(d, { recursive: true });
-  for (const [k, v] of Object.entries(files)) writeFileSync(join(d, k), v);
-  return d;
-}
+const { save } = tempSets('tilth-check-');
 function json(args: string[]): { code: number; report: CheckReport; stderr: string } {
   const r = tilth(['check', ...args, '--json']);
   return {
@@ -47,7 +21,6 @@ function json(args: string[]): { code: number; report: CheckReport; stderr: stri
     stderr: r.stderr,
   };
 }
-const line = (r: CheckReport, check: string) => r.lines.filter((l) => l.check === check);
 
 describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
   it('text output: one line per check, exit 0', async () => {
@@ -58,7 +31,7 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(r.stdout).toMatch(/result: nothing failed/);
   });
   it('fails overlapping zones, naming both (overlap 400 m x 50 m by construction)', async () => {
-    const { code, report } = json([fx('overlap.geojson'), '--boundary', BOUNDARY]);
+    const { code, report } = json([checkCase('overlap', 'fail-overlap'), '--boundary', BOUNDARY]);
     expect(code).toBe(1);
     const [l] = line(report, 'overlap');
     expect(l.status).toBe('fail');
@@ -67,7 +40,7 @@ describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
     expect(Math.abs(a - 20000 / K2) / (20000 / K2)).toBeLessThan(1e-3);
   });
   it('refuses a rate written as text, naming the zone and the value (exit 2)', async () => {
-    const r = tilth(['check', fx('bad-rate-text.geojson')]);
+    const r = tilth(['check', checkCase('rates', 'refused-rate-text')]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/zone 3, column "urea_lbac": "95 lb"/);
     expect(r.stderr).not.toMatch(/at .*\.ts:/); // no stack
@@ -98,7 +71,7 @@ describe('tilth check refuses unreadable shapefiles and zips (exit 2, nothing wr
     const r = tilth(['check', join(d, 'rx.zip')], { cwd: d });
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/entry "\.\.\/evil\.shp" points outside the folder/);
-    expect(existsSync(join(dir, 'slip', 'evil.shp'))).toBe(false);
+    expect(existsSync(join(d, '..', 'evil.shp'))).toBe(false);
     expect(existsSync(join(d, 'evil.shp'))).toBe(false);
   });
 });

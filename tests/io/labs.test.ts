@@ -184,7 +184,7 @@ describe('lab corpus: soluble salts and free lime', () => {
     expect(flags['PV-03']).toMatch(/^saline/);
     expect(flags['PV-05']).toBe('slightly saline');
     const codes = soilFlagWarnings(s, 'f.csv').map((w) => w.code);
-    expect(codes).toContain('soil.saline');
-    expect(codes).toContain('soil.slightly-saline');
+    expect(codes).toContain('soil-saline');
+    expect(codes).toContain('soil-slightly-saline');
   });
 });

@@ -133,7 +133,7 @@ describe('expected chance of a response per cell', () => {
       ['p2o5', 'n'],
     );
     expect(b.layers).toEqual({});
-    expect(b.warnings.map((w) => w.code)).toEqual(['zones.response-chance-refused']);
+    expect(b.warnings.map((w) => w.code)).toEqual(['zones-response-chance-refused']);
     expect(b.warnings[0]!.message).toMatch(/P zones are drawn from the P2O5 target.*only 12 samples/);
   });
 });

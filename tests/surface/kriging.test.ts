@@ -167,6 +167,35 @@ describe('ordinary kriging: properties against the textbook system', () => {
       { numRuns: 25 },
     );
   });
+
+  it('with `cells`, only those cells are computed, in their order, as in the whole grid', () => {
+    fc.assert(
+      fc.property(
+        modelArb,
+        samplesArb,
+        fc.integer({ min: 3, max: 20 }),
+        fc.integer({ min: 2, max: 5 }),
+        (m, s, k, f) => {
+          const model = m.kind === 'gaussian' ? { ...m, nugget: m.nugget + 0.01 * m.psill } : m;
+          const grid = { xmin: 0, ymax: 360, cell: 15, cols: 24, rows: 24 };
+          const whole = krigingSurface(Float64Array.from(s.xy), s.z, grid, model, { neighbours: k });
+          // every f-th cell each way, as a map shown f times coarser picks them
+          const list: number[] = [];
+          for (let r = f >> 1; r < 24; r += f) for (let c = f >> 1; c < 24; c += f) list.push(r * 24 + c);
+          const cells = Int32Array.from(list);
+          const some = krigingSurface(Float64Array.from(s.xy), s.z, grid, model, { neighbours: k, cells });
+          expect(some.values.length).toBe(cells.length);
+          cells.forEach((i, j) => {
+            expect(Math.abs(some.values[j] - whole.values[i])).toBeLessThan(1e-9 * 60);
+            expect(Math.abs(some.variance[j] - whole.variance[i])).toBeLessThan(
+              1e-9 * (model.nugget + model.psill),
+            );
+          });
+        },
+      ),
+      { numRuns: 15 },
+    );
+  });
 });
 
 const OX = 400000,
@@ -243,7 +272,7 @@ describe('the surface stage with kriging', () => {
     }
     const s = nutrientSurface(few, 'so4_s', grid, null, { method: 'auto' });
     expect(s.method).toBe('idw');
-    expect(s.warnings.map((w) => w.code)).toContain('surface.kriging-refused');
+    expect(s.warnings.map((w) => w.code)).toContain('surface-kriging-refused');
   });
 
   it('refuses a pure-nugget semivariogram (values unrelated to position)', () => {

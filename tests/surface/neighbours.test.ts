@@ -240,7 +240,7 @@ describe('neighbourOutliers (input safety) on the shared search', () => {
       { numRuns: 60, seed: 26 },
     );
   });
-  it('names the same planted outlier as before (tests/safety/plausible.test.ts has the hand-made cases)', () => {
+  it('names the same planted outlier as before (tests/cli/safety/plausible.test.ts has the hand-made cases)', () => {
     const n = 64,
       rnd = lcg(9);
     const xy = Float64Array.from(

@@ -77,7 +77,7 @@ describe('nutrientSurface', () => {
   it('all values equal: a flat map at that value, with a warning', () => {
     const s = nutrientSurface(samples(grid5x4.map(([x, y]) => [x, y, 17])), 'p', grid);
     for (let i = 0; i < s.values.length; i++) if (grid.fraction[i] > 0) expect(s.values[i]).toBe(17);
-    expect(s.warnings.map((w) => w.code)).toContain('surface.flat');
+    expect(s.warnings.map((w) => w.code)).toContain('surface-flat');
     expect(s.cv!.best.rmse).toBeLessThan(1e-12); // zero up to rounding
   });
 
@@ -89,7 +89,7 @@ describe('nutrientSurface', () => {
       [50, 250, 30],
     ];
     const s = nutrientSurface(samples(pts), 'p', grid, null, { power: 2, neighbours: Infinity });
-    const w = s.warnings.find((x) => x.code === 'surface.same-location')!;
+    const w = s.warnings.find((x) => x.code === 'surface-same-location')!;
     expect(w.message).toMatch(
       /S1, S2 are at one location with different values \(10, 20\); their average 15/,
     );
@@ -107,7 +107,7 @@ describe('nutrientSurface', () => {
     const pts: [number, number, number][] = grid5x4.map(([x, y], i) => [x, y, i % 4 === 1 ? NaN : i]);
     const s = nutrientSurface(samples(pts), 'p', grid);
     expect(s.samplesUsed).toBe(9);
-    expect(s.warnings.find((w) => w.code === 'surface.value-missing')!.message).toMatch(
+    expect(s.warnings.find((w) => w.code === 'surface-value-missing')!.message).toMatch(
       /3 samples have no value and are skipped for this nutrient: S2, S6, S10/,
     );
   });
@@ -159,7 +159,7 @@ describe('nutrientSurface', () => {
     for (let i = 0; i < 2001; i++)
       pts.push([(i % 50) * 8 + 0.5, Math.floor(i / 50) * 7.3 + 0.5, (i * 7919) % 97]);
     const s = nutrientSurface(samples(pts), 'p', fieldGrid(FIELD, 50), null, { power: 2 });
-    expect(s.warnings.map((w) => w.code)).toContain('surface.cv-all-skipped');
+    expect(s.warnings.map((w) => w.code)).toContain('surface-cv-all-skipped');
     expect(s.cv!.table.map((r) => r.neighbours)).toEqual([8, 12, 16]);
   });
 
@@ -184,7 +184,7 @@ describe('nutrientSurface', () => {
       }
     expect(empty).toBeGreaterThan(0);
     expect(empty).toBeLessThan(inField);
-    expect(s.warnings.find((w) => w.code === 'surface.cells-empty')!.message).toContain(
+    expect(s.warnings.find((w) => w.code === 'surface-cells-empty')!.message).toContain(
       `${empty} field cells have fewer than 1 sample within the 60 m search radius`,
     );
   });

@@ -102,7 +102,7 @@ describe('text and map with a surface', () => {
     const { samples, field } = syntheticField();
     samples.zone = samples.ids.map((_, i) => (i < 20 ? 'a' : 'b'));
     expect(analyzeVariability(samples, field).warnings.map((w) => w.code)).toContain(
-      'variability.zone-composites',
+      'variability-zone-composites',
     );
   });
 

@@ -4,6 +4,7 @@
  * rates knowledge. Coordinates are WGS 84 longitude/latitude pairs (x y, as everywhere in tilth); the
  * XML writes them as PNT C = north (latitude), D = east (longitude).
  */
+import type { LonLatFrame } from '../../geo/rasterize.js';
 
 /** A polygon (PLN): exterior and interior rings as flat lon/lat pairs, each ring closed. */
 export interface IsoPolygon {
@@ -38,16 +39,8 @@ export interface IsoZone {
  * A grid (GRD). Cells run west to east within a row and rows south to north. Type 1: one byte per
  * cell, a treatment zone code. Type 2: per cell one little-endian int32 per PDV of the zone `zoneCode`.
  */
-export interface IsoGrid {
+export interface IsoGrid extends LonLatFrame {
   type: 1 | 2;
-  /** south-west corner of the south-west cell, degrees */
-  south: number;
-  west: number;
-  /** cell size, degrees */
-  cellNorth: number;
-  cellEast: number;
-  cols: number;
-  rows: number;
   /** file name without extension, `GRD` + 5 digits */
   fileName: string;
   /** type 2: the treatment zone whose PDVs give the values' meaning */

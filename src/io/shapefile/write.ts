@@ -6,7 +6,7 @@ import { csvCell } from '../csv-escape.js';
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import type { UtmZone } from '../../types.js';
 import { projector, utmZoneFor } from '../../geo/utm.js';
-import { ringArea } from '../../geo/area.js';
+import { exteriorsBbox, ringArea } from '../../geo/area.js';
 import { encodePolygons, type ShpPolygon } from './shp.js';
 import { encodeDbf, type DbfField } from './dbf.js';
 import { prjText } from '../../geo/crs.js';
@@ -120,18 +120,7 @@ export function writeShapefile(
   if (opts.crs === 'utm') {
     utm = opts.utm ?? null;
     if (!utm) {
-      let x0 = Infinity,
-        x1 = -Infinity,
-        y0 = Infinity,
-        y1 = -Infinity;
-      for (const polys of lonlatPolys)
-        for (const poly of polys)
-          for (const [x, y] of poly[0]) {
-            x0 = Math.min(x0, x);
-            x1 = Math.max(x1, x);
-            y0 = Math.min(y0, y);
-            y1 = Math.max(y1, y);
-          }
+      const [x0, y0, x1, y1] = exteriorsBbox(lonlatPolys.flat());
       utm = utmZoneFor((x0 + x1) / 2, (y0 + y1) / 2);
     }
   }
