@@ -124,10 +124,24 @@ export const PLACEMENT_KIND_NAME: Readonly<Record<PlacementKind, string>> = {
 };
 
 /**
- * The caution every command's help, the README and the report carry: seed-row injury, local guidelines, and a
- * licensed agronomist or certified crop adviser's check.
+ * The caution every command's help, the README, the report, the plan and tables files and the shapefile notes
+ * carry, in these words: seed-row injury, local guidelines, and a licensed agronomist or certified crop
+ * adviser's check. Never write another wording of it.
  */
 export const CAUTION =
   'Caution: tilth computes suggestions from soil tests and editable default tables. Too much fertilizer with the\n' +
   'seed injures or kills seedlings; wrong rates cost money and can pollute water. Follow local guidelines, and\n' +
   'have a licensed agronomist or certified crop adviser check every prescription before it is applied.';
+
+/**
+ * The caution as comment lines of a file (`# ` before each line), for the plan and tables files tilth writes.
+ * @example cautionComment().startsWith('# Caution: tilth computes') // true
+ */
+export function cautionComment(prefix = '# '): string {
+  return CAUTION.split('\n')
+    .map((l) => prefix + l)
+    .join('\n');
+}
+
+/** The caution as one paragraph, without its "Caution:" lead (for lists under a heading, e.g. the report's). */
+export const CAUTION_TEXT = CAUTION.replace(/^Caution: /, '').replace(/\n/g, ' ');

@@ -2,6 +2,7 @@
  * Agronomy tables: the shipped defaults, and merging a user's edited file over them; the schema is in tables/schema.ts.
  * Pure: the caller reads the file; this module only parses text.
  */
+import { cautionComment } from '../vocabulary.js';
 import { parse as parseYaml, stringify as stringifyYaml } from 'yaml';
 import { UserError } from '../errors.js';
 import { DEFAULT_TABLES } from './tables/defaults.js';
@@ -167,7 +168,9 @@ export function tablesToYaml(t: Tables): string {
   return (
     '# tilth agronomy tables. Edit values and their "source"; pass this file with --tables.\n' +
     '# Sources: [published] <publication> / common practice / from memory / missing (not found: the plan must supply it).\n' +
-    '# These defaults are a starting point: have a licensed agronomist or certified crop adviser check them.\n' +
+    '# These defaults are a starting point, not a recommendation.\n' +
+    cautionComment() +
+    '\n' +
     stringifyYaml(t, { lineWidth: 0 })
   );
 }

@@ -11,7 +11,13 @@ import type { Analyte, FieldInputs } from '../types.js';
 import { reportSurfaces, reportView, responseMaps } from './reportMaps.js';
 import { tablesUsed } from './reportTables.js';
 import { productRate, usedPairs } from './totals.js';
-import { ANALYTE_SAMPLED, ANALYTE_TERMS, NUTRIENT_NAME, PLACEMENT_NAME } from '../vocabulary.js';
+import {
+  ANALYTE_SAMPLED,
+  ANALYTE_TERMS,
+  CAUTION_TEXT,
+  NUTRIENT_NAME,
+  PLACEMENT_NAME,
+} from '../vocabulary.js';
 import type { Prescription } from './types.js';
 import type { Provenance } from './outputs.js';
 import { kgToTonnes } from '../units/index.js';
@@ -31,8 +37,7 @@ function nutrientInfo(a: Analyte): Omit<ReportNutrient, 'key'> {
 /** The cautions printed in every report. */
 export const REPORT_CAUTIONS = [
   'Too much fertilizer with the seed injures or kills seedlings. Seed-row limits here assume the implement, row spacing and seedbed moisture declared in the plan; lower them in dry seedbeds.',
-  "Rates are suggestions computed from soil tests and editable default tables, not recommendations. Follow your province's or region's guidelines.",
-  'A licensed agronomist or certified crop adviser must check this prescription before it is applied. Wrong rates cost money and can pollute water.',
+  CAUTION_TEXT,
   'A sulphate-S test that is not low is uncertain: hilltops and slopes can be deficient where the average is not.',
 ];
 

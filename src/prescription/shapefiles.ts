@@ -10,7 +10,7 @@ import { zipFiles } from '../io/zip.js';
 import { groundAreaM2 } from '../geo/ground-area.js';
 import { acToHa, m2ToAc, m2ToHa } from '../units/index.js';
 import { VERSION } from '../version.js';
-import { placementName } from '../vocabulary.js';
+import { CAUTION, placementName } from '../vocabulary.js';
 
 /** Rate units a prescription may carry, and the short form used in column names. */
 export const RX_UNITS = { 'lb/ac': 'lbac', 'kg/ha': 'kgha', 'US gal/ac': 'galac', 'L/ha': 'lha' } as const;
@@ -361,9 +361,8 @@ function noteText(
     'Other columns: zone_id (zone), area_ac and area_ha (zone ground area). The .columns.csv (8.3: .CSV) lists every column.',
     'Outside every zone the controller applies its own default or off-field rate: set it on the terminal.',
     '',
-    'Caution: too much fertilizer with the seed injures or kills seedlings; wrong rates cost money and can pollute',
-    'water. Check the rates against local guidelines, and have a licensed agronomist or certified crop adviser',
-    'approve the prescription before it is applied. Run `tilth check` on these files before going to the field.',
+    ...CAUTION.split('\n'),
+    'Run `tilth check` on these files before going to the field.',
   ];
   return lines.join('\n') + '\n';
 }

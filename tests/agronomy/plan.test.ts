@@ -51,7 +51,8 @@ describe('plan', () => {
   it('the starter plan shows the cautions and every section', () => {
     const text = planTemplate('canola', tables);
     for (const k of [
-      'CAUTION',
+      '# Caution: tilth computes suggestions',
+      'injures or kills seedlings',
       'agronomist',
       'soil_test:',
       'credits:',
