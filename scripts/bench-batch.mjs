@@ -4,75 +4,34 @@
 // a build up to its first progress line. Record the ratios and the load average in docs/performance.md.
 //
 // Usage: node scripts/bench-batch.mjs [--fields 20] [--workers N]
-import { execFileSync, spawn, spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { availableParallelism, cpus, loadavg, tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { availableParallelism, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import {
+  buildBundle,
+  firstLine,
+  load,
+  machine,
+  numberArg,
+  QUARTER as Q,
+  QUARTER_INPUTS,
+  root,
+  timeRun,
+} from './bench-lib.mjs';
 
-const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-const args = process.argv.slice(2);
-const arg = (name, dflt) => (args.includes(name) ? Number(args[args.indexOf(name) + 1]) : dflt);
-const N = arg('--fields', 20);
-const WORKERS = arg('--workers', availableParallelism());
-const TIME = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
-execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
+const N = numberArg('--fields', 20);
+const WORKERS = numberArg('--workers', availableParallelism());
+buildBundle();
 const TILTH = join(root, 'bin', 'tilth.js');
-const Q = join(root, 'sample-fields', 'quarter');
-const load = () =>
-  loadavg()
-    .map((x) => x.toFixed(2))
-    .join(', ');
 
-/** Wall seconds, CPU seconds (user + system, children included) and peak RSS MB of one command. */
-function timed(argv, cwd) {
-  const t0 = process.hrtime.bigint();
-  const r = TIME
-    ? spawnSync(TIME, ['-v', process.execPath, ...argv], { cwd, encoding: 'utf8', maxBuffer: 1 << 26 })
-    : spawnSync(process.execPath, argv, { cwd, encoding: 'utf8', maxBuffer: 1 << 26 });
-  const wall = Number(process.hrtime.bigint() - t0) / 1e9;
-  if (r.status !== 0 && r.status !== 1)
-    throw new Error(`${argv.join(' ')} failed (${r.status}):\n${r.stderr}`);
-  const num = (re) => Number(re.exec(r.stderr ?? '')?.[1] ?? NaN);
-  return {
-    wall,
-    cpu: num(/User time \(seconds\): ([\d.]+)/) + num(/System time \(seconds\): ([\d.]+)/),
-    rss: num(/Maximum resident set size \(kbytes\): (\d+)/) / 1024,
-  };
-}
-
-/** Seconds from spawn to the first line on stderr (a build's first progress line). */
-function firstLine(argv) {
-  return new Promise((resolve, reject) => {
-    const t0 = process.hrtime.bigint();
-    const c = spawn(process.execPath, argv, { cwd: root, stdio: ['ignore', 'ignore', 'pipe'] });
-    let seen = null;
-    c.stderr.on('data', () => {
-      if (seen === null) seen = Number(process.hrtime.bigint() - t0) / 1e9;
-    });
-    c.on('error', reject);
-    c.on('close', () => resolve(seen));
-  });
-}
+/** Wall seconds, CPU seconds (user + system, children included) and peak RSS MB of `node ARGV` (exit 0 or 1). */
+const timed = (argv, cwd) => timeRun(process.execPath, argv, { cwd, ok: [0, 1] });
 
 const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-batch-'));
 try {
-  console.log(
-    `machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; load average at start ${load()}`,
-  );
+  console.log(`machine: ${machine()}; load average at start ${load()}`);
   const version = [0, 1, 2].map(() => timed([TILTH, '--version'], root)).sort((a, b) => a.wall - b.wall)[1];
-  const build = [
-    'build',
-    '--samples',
-    `${Q}/samples.csv`,
-    '--boundary',
-    `${Q}/boundary.geojson`,
-    '--plan',
-    `${Q}/plan.yaml`,
-    '--cell',
-    '2',
-    '--force',
-  ];
+  const build = ['build', ...QUARTER_INPUTS, '--cell', '2', '--force'];
   const first = (
     await Promise.all([0].map(() => firstLine([TILTH, ...build, '--out', join(dir, 'first')])))
   )[0];

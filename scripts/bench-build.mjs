@@ -15,58 +15,36 @@
 //   --keep: keep the temporary folder with the synthetic inputs and outputs, and print its path
 //   TILTH_BENCH_CLI=dist/x.mjs: time that entry point instead of bin/tilth.js (experiments)
 //   TILTH_BENCH_ARGS="--threads 1": extra arguments for every tilth build
-import { execFileSync, spawn, spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { cpus, loadavg, tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { spawn, spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { makeSection, N_SAMPLES, SIDE, X0, Y0 } from './bench-section.mjs';
+import {
+  buildBundle,
+  gdalGridFrame,
+  load,
+  machine,
+  measure,
+  QUARTER_INPUTS,
+  root,
+  TILTH,
+} from './bench-lib.mjs';
 
-const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const args = process.argv.slice(2);
 const QUICK = args.includes('--quick') || process.env.TILTH_BENCH_QUICK === '1';
 const RUNS = QUICK ? 1 : Number(args[args.indexOf('--runs') + 1]) || 5;
 const SECTION_RUNS = QUICK ? 1 : Math.min(RUNS, 3);
 const NN = args.includes('--nn');
 const KEEP = args.includes('--keep');
-const TIME = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
 const HAS_GDAL = ['gdal_grid', 'gdal_calc.py', 'gdal_polygonize.py'].every(
   (c) => !spawnSync(c, ['--help'], { stdio: 'ignore' }).error,
 );
 
-// the bundle is what `npx tilth` runs; make sure it is current
-execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
-// TILTH_BENCH_CLI=path: time another entry point (e.g. an experimental bundle) instead of bin/tilth.js
-const TILTH = process.env.TILTH_BENCH_CLI
-  ? join(root, process.env.TILTH_BENCH_CLI)
-  : join(root, 'bin', 'tilth.js');
+// the bundle is what `npx tilth` runs; make sure it is current (TILTH_BENCH_CLI=path times another entry point)
+buildBundle();
 // TILTH_BENCH_ARGS="--threads 1": extra arguments for every tilth build
 const EXTRA = (process.env.TILTH_BENCH_ARGS ?? '').split(/\s+/).filter(Boolean);
-
-const med = (a) => (a.length ? [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)] : NaN);
-
-/** Runs a command `runs` times; median wall and CPU seconds, max peak RSS (MB). Exit 1 (infeasible zones) is accepted for tilth. */
-function measure(cmd, argv, runs, cwd, okStatus = [0]) {
-  const walls = [],
-    rss = [],
-    cpu = [];
-  for (let r = 0; r < runs; r++) {
-    const t0 = process.hrtime.bigint();
-    const res = TIME
-      ? spawnSync(TIME, ['-v', cmd, ...argv], { cwd, encoding: 'utf8', maxBuffer: 1 << 28 })
-      : spawnSync(cmd, argv, { cwd, encoding: 'utf8', maxBuffer: 1 << 28 });
-    const wall = Number(process.hrtime.bigint() - t0) / 1e9;
-    if (!okStatus.includes(res.status))
-      throw new Error(`${cmd} ${argv.join(' ')} failed (${res.status}):\n${res.stderr}`);
-    walls.push(wall);
-    const m = /Maximum resident set size \(kbytes\): (\d+)/.exec(res.stderr ?? '');
-    if (m) rss.push(Number(m[1]) / 1024);
-    const u = /User time \(seconds\): ([\d.]+)/.exec(res.stderr ?? ''),
-      sy = /System time \(seconds\): ([\d.]+)/.exec(res.stderr ?? '');
-    if (u && sy) cpu.push(Number(u[1]) + Number(sy[1]));
-  }
-  return { wall: med(walls), cpu: med(cpu), rss: rss.length ? Math.max(...rss) : NaN, runs };
-}
 
 /** One run of `tilth build`, timing each stage from the progress lines it prints on stderr. */
 function stages(argv) {
@@ -111,14 +89,8 @@ function stages(argv) {
 
 const f3 = (x) => (Number.isFinite(x) ? x.toFixed(3) : 'n/a');
 const f0 = (x) => (Number.isFinite(x) ? x.toFixed(0) : 'n/a');
-const load = () =>
-  loadavg()
-    .map((x) => x.toFixed(2))
-    .join(', ');
 
-console.log(
-  `machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; load average at start ${load()}`,
-);
+console.log(`machine: ${machine()}; load average at start ${load()}`);
 console.log(
   `quarter: ${RUNS} runs, section: ${SECTION_RUNS} runs per figure (median wall, median CPU = user + system, max peak RSS)`,
 );
@@ -127,21 +99,7 @@ const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-build-'));
 const results = [];
 try {
   // 1. the demo quarter at 2 m cells
-  const q = 'sample-fields/quarter';
-  const qArgs = [
-    'build',
-    '--samples',
-    `${q}/samples.csv`,
-    '--boundary',
-    `${q}/boundary.geojson`,
-    '--plan',
-    `${q}/plan.yaml`,
-    '--out',
-    join(dir, 'rx-quarter'),
-    '--force',
-    '--cell',
-    '2',
-  ];
+  const qArgs = ['build', ...QUARTER_INPUTS, '--out', join(dir, 'rx-quarter'), '--force', '--cell', '2'];
   const tq = measure(process.execPath, [TILTH, ...qArgs, ...EXTRA], RUNS, root, [0, 1]);
   results.push({ name: 'quarter (demo, 2 m cells)', ...tq });
   const sq = await stages(qArgs);
@@ -170,26 +128,8 @@ try {
   let chain = null;
   if (HAS_GDAL) {
     const grid = [
-      '-q',
-      '-ot',
-      'Float32',
-      '-of',
-      'GTiff',
-      '-a_srs',
-      'EPSG:32613',
-      '-txe',
-      String(X0),
-      String(X0 + SIDE),
-      '-tye',
-      String(Y0 + SIDE),
-      String(Y0),
-      '-outsize',
-      String(SIDE),
-      String(SIDE),
-      '-zfield',
-      'z',
-      '-l',
-      'points',
+      ...['-q', '-ot', 'Float32', '-of', 'GTiff', '-a_srs', 'EPSG:32613'],
+      ...gdalGridFrame(X0, X0 + SIDE, Y0 + SIDE, Y0, SIDE, SIDE),
     ];
     const g1 = measure(
       'gdal_grid',

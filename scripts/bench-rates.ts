@@ -60,15 +60,9 @@ const problems = Array.from({ length: 300 }, () => {
   );
   return { p, soil: soils[Math.floor(rnd() * soils.length)]! };
 });
-let diveMs = 0,
-  exactMs = 0,
-  diveOk = 0,
-  exactOk = 0,
-  both = 0,
-  gapSum = 0,
-  gapMax = 0;
-for (const { p, soil } of problems) {
-  const d = decide(soil, p, T); // for the targets
+/** What the solver gets for one problem: the product options, the seed-row limits and the nutrient targets. */
+function solverInputs(p: (typeof problems)[number]['p'], soil: (typeof problems)[number]['soil']) {
+  const d = decide(soil, p, T);
   const opts = productOptions(p, T);
   const lim = seedRowLimits(T.crops[p.crop]!, p.crop, soil.texture, p, T);
   const target = {
@@ -77,6 +71,18 @@ for (const { p, soil } of problems) {
     k2o: d.nutrients.k2o.target.lbac,
     s: d.nutrients.s.target.lbac,
   };
+  return { opts, lim, target };
+}
+
+let diveMs = 0,
+  exactMs = 0,
+  diveOk = 0,
+  exactOk = 0,
+  both = 0,
+  gapSum = 0,
+  gapMax = 0;
+for (const { p, soil } of problems) {
+  const { opts, lim, target } = solverInputs(p, soil);
   t0 = performance.now();
   const a = solveProducts(opts, target, p.strategy.tolerance_pct / 100, lim);
   diveMs += performance.now() - t0;
@@ -105,15 +111,7 @@ if (process.env.SHOW_WORST) {
   let worst:
     { gap: number; a: unknown; b: unknown; opts: unknown; target: unknown; lim: unknown } | undefined;
   for (const { p, soil } of problems) {
-    const d = decide(soil, p, T);
-    const opts = productOptions(p, T);
-    const lim = seedRowLimits(T.crops[p.crop]!, p.crop, soil.texture, p, T);
-    const target = {
-      n: d.nutrients.n.target.lbac,
-      p2o5: d.nutrients.p2o5.target.lbac,
-      k2o: d.nutrients.k2o.target.lbac,
-      s: d.nutrients.s.target.lbac,
-    };
+    const { opts, lim, target } = solverInputs(p, soil);
     const a = solveProducts(opts, target, p.strategy.tolerance_pct / 100, lim);
     const b = solveProductsExact(opts, target, p.strategy.tolerance_pct / 100, lim, 30000);
     const gap = (a.cost + 1000 * a.shortfall - (b.cost + 1000 * b.shortfall)) / (b.cost + 1000 * b.shortfall);

@@ -3,23 +3,10 @@
 // `node scripts/bench-section.mjs DIR` writes boundary.geojson, samples.geojson, points.csv/.vrt and plan.yaml.
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
-import { dirname, join, resolve } from 'node:path';
+import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import proj4 from 'proj4';
-
-const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-
-// seeded PRNG (mulberry32)
-function rng(seed) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { root, rng, writePoints, writeSquareBoundary } from './bench-lib.mjs';
 
 const UTM = '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs';
 const toLonLat = proj4(UTM, 'EPSG:4326');
@@ -35,27 +22,7 @@ export const N_SAMPLES = 5000;
  */
 export function makeSection(dir, TILTH = join(root, 'bin', 'tilth.js')) {
   const rnd = rng(5000);
-  const e = 0.01; // corners just inside whole cells
-  const ring = [
-    [X0 + e, Y0 + e],
-    [X0 + SIDE - e, Y0 + e],
-    [X0 + SIDE - e, Y0 + SIDE - e],
-    [X0 + e, Y0 + SIDE - e],
-    [X0 + e, Y0 + e],
-  ].map(([x, y]) => toLonLat.forward([x, y]));
-  writeFileSync(
-    join(dir, 'boundary.geojson'),
-    JSON.stringify({
-      type: 'FeatureCollection',
-      features: [
-        {
-          type: 'Feature',
-          properties: { name: 'Bench section (invented)' },
-          geometry: { type: 'Polygon', coordinates: [ring] },
-        },
-      ],
-    }),
-  );
+  writeSquareBoundary(dir, toLonLat, X0, Y0, SIDE, 'Bench section (invented)');
   // smooth seeded "soil" waves plus sample noise, one set per analyte
   const waves = (k) =>
     Array.from({ length: 4 }, () => ({
@@ -103,11 +70,7 @@ export function makeSection(dir, TILTH = join(root, 'bin', 'tilth.js')) {
     join(dir, 'samples.geojson'),
     JSON.stringify({ type: 'FeatureCollection', name: 'Bench section samples (invented)', features: feats }),
   );
-  writeFileSync(join(dir, 'points.csv'), csv.join('\n') + '\n');
-  writeFileSync(
-    join(dir, 'points.vrt'),
-    `<OGRVRTDataSource><OGRVRTLayer name="points"><SrcDataSource>${join(dir, 'points.csv')}</SrcDataSource><SrcLayer>points</SrcLayer><GeometryType>wkbPoint</GeometryType><LayerSRS>EPSG:32613</LayerSRS><GeometryField encoding="PointFromColumns" x="x" y="y" z="z"/></OGRVRTLayer></OGRVRTDataSource>`,
-  );
+  writePoints(dir, csv, 'EPSG:32613');
   // the plan: tilth's own starter plan for canola; one shared zone set for the pass (as the demo quarter)
   const plan = execFileSync(process.execPath, [TILTH, 'plan', 'init', '--crop', 'canola'], {
     cwd: root,

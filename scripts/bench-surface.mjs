@@ -5,28 +5,34 @@
 // invdistnn on the largest cases, which takes minutes)
 //   TILTH_BENCH_CLI=path: time that entry point instead of bin/tilth.js (e.g. an older bundle kept for comparison)
 //   TILTH_BENCH_ARGS="--threads 1": extra arguments for every tilth run
-import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { cpus, loadavg, tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
 import proj4 from 'proj4';
+import {
+  buildBundle,
+  gdalGridFrame,
+  load,
+  machine,
+  measure,
+  med,
+  root,
+  TILTH,
+  writePoints,
+  writeSquareBoundary,
+} from './bench-lib.mjs';
 
-const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const args = process.argv.slice(2);
 const RUNS = Number(args[args.indexOf('--runs') + 1]) || 5;
 const NN_ALL = args.includes('--nn');
 const ONLY_KRIGING = args.includes('--only-kriging'); // skip the IDW / gdal_grid table
 const NO_KRIGING = args.includes('--no-kriging'); // skip the kriging / IDW table
-const TILTH = process.env.TILTH_BENCH_CLI
-  ? join(root, process.env.TILTH_BENCH_CLI)
-  : join(root, 'bin', 'tilth.js');
 const EXTRA = (process.env.TILTH_BENCH_ARGS ?? '').split(/\s+/).filter(Boolean);
-const TIME = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
 const HAS_GDAL = spawnSync('gdal_grid', ['--version'], { stdio: 'ignore' }).status === 0;
 
 // the bundle is what `npx tilth` runs; make sure it is current
-execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
+buildBundle();
 
 const UTM = '+proj=utm +zone=13 +datum=WGS84 +units=m +no_defs';
 const toLonLat = proj4(UTM, 'EPSG:4326');
@@ -41,27 +47,7 @@ function rng(seed) {
 /** Writes boundary, samples (GeoJSON, lon/lat) and the same points in UTM for gdal_grid. */
 function makeCase(dir, n, side, seed, structured = false) {
   const rnd = rng(seed);
-  const e = 0.01; // keep the corners just inside whole cells
-  const ring = [
-    [X0 + e, Y0 + e],
-    [X0 + side - e, Y0 + e],
-    [X0 + side - e, Y0 + side - e],
-    [X0 + e, Y0 + side - e],
-    [X0 + e, Y0 + e],
-  ].map(([x, y]) => toLonLat.forward([x, y]));
-  writeFileSync(
-    join(dir, 'boundary.geojson'),
-    JSON.stringify({
-      type: 'FeatureCollection',
-      features: [
-        {
-          type: 'Feature',
-          properties: { name: 'Bench field' },
-          geometry: { type: 'Polygon', coordinates: [ring] },
-        },
-      ],
-    }),
-  );
+  writeSquareBoundary(dir, toLonLat, X0, Y0, side, 'Bench field');
   const feats = [],
     csv = ['x,y,z'];
   // stratified random: one point in each of n strata of a m x m lattice (the input stage refuses two
@@ -93,35 +79,23 @@ function makeCase(dir, n, side, seed, structured = false) {
     csv.push(`${px},${py},${p}`);
   }
   writeFileSync(join(dir, 'samples.geojson'), JSON.stringify({ type: 'FeatureCollection', features: feats }));
-  writeFileSync(join(dir, 'points.csv'), csv.join('\n') + '\n');
-  writeFileSync(
-    join(dir, 'points.vrt'),
-    `<OGRVRTDataSource><OGRVRTLayer name="points"><SrcDataSource>${join(dir, 'points.csv')}</SrcDataSource><SrcLayer>points</SrcLayer><GeometryType>wkbPoint</GeometryType><GeometryField encoding="PointFromColumns" x="x" y="y" z="z"/></OGRVRTLayer></OGRVRTDataSource>`,
-  );
+  writePoints(dir, csv);
 }
 
-/** Runs a command `runs` times; median wall seconds and max peak RSS (MB). */
-function measure(cmd, argv, runs, cwd) {
-  const walls = [],
-    rss = [],
-    cpu = [];
-  for (let r = 0; r < runs; r++) {
-    const t0 = process.hrtime.bigint();
-    const res = TIME
-      ? spawnSync(TIME, ['-v', cmd, ...argv], { cwd, encoding: 'utf8' })
-      : spawnSync(cmd, argv, { cwd, encoding: 'utf8' });
-    const wall = Number(process.hrtime.bigint() - t0) / 1e9;
-    if (res.status !== 0) throw new Error(`${cmd} ${argv.join(' ')} failed (${res.status}):\n${res.stderr}`);
-    walls.push(wall);
-    const m = /Maximum resident set size \(kbytes\): (\d+)/.exec(res.stderr ?? '');
-    if (m) rss.push(Number(m[1]) / 1024);
-    const u = /User time \(seconds\): ([\d.]+)/.exec(res.stderr ?? ''),
-      sy = /System time \(seconds\): ([\d.]+)/.exec(res.stderr ?? '');
-    if (u && sy) cpu.push(Number(u[1]) + Number(sy[1]));
-  }
-  const med = (a) => (a.length ? [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)] : NaN);
-  return { wall: med(walls), cpu: med(cpu), rss: rss.length ? Math.max(...rss) : NaN };
-}
+/** `tilth surface` of P on the case in DIR at `cell` metres (the command's start, before its options). */
+const surfaceArgs = (dir, cell) => [
+  TILTH,
+  'surface',
+  ...EXTRA,
+  '--samples',
+  join(dir, 'samples.geojson'),
+  '--boundary',
+  join(dir, 'boundary.geojson'),
+  '--nutrient',
+  'p',
+  '--cell',
+  String(cell),
+];
 
 const CASES = [
   { n: 50, cells: 160, cell: 5 },
@@ -135,9 +109,7 @@ const CASES = [
 ];
 
 console.log(
-  `machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; ${RUNS} runs per figure (median wall, max peak RSS); load average at start ${loadavg()
-    .map((x) => x.toFixed(2))
-    .join(', ')}`,
+  `machine: ${machine()}; ${RUNS} runs per figure (median wall, max peak RSS); load average at start ${load()}`,
 );
 console.log(`tilth: ${TILTH} ${EXTRA.join(' ')} surface --power 2 --neighbours 12 (whole process)`);
 if (HAS_GDAL)
@@ -158,25 +130,7 @@ for (const c of ONLY_KRIGING ? [] : CASES) {
     const side = c.cells * c.cell;
     makeCase(dir, c.n, side, 1000 + c.n);
     const out = join(dir, 'p.asc');
-    const tilthArgs = [
-      TILTH,
-      'surface',
-      ...EXTRA,
-      '--samples',
-      join(dir, 'samples.geojson'),
-      '--boundary',
-      join(dir, 'boundary.geojson'),
-      '--nutrient',
-      'p',
-      '--cell',
-      String(c.cell),
-      '--power',
-      '2',
-      '--neighbours',
-      '12',
-      '--out',
-      out,
-    ];
+    const tilthArgs = [...surfaceArgs(dir, c.cell), '--power', '2', '--neighbours', '12', '--out', out];
     const t = measure(process.execPath, tilthArgs, RUNS, root);
     const head = readFileSync(out, 'utf8').slice(0, 300).split('\n');
     const h = Object.fromEntries(
@@ -192,24 +146,15 @@ for (const c of ONLY_KRIGING ? [] : CASES) {
       nr = '';
     if (HAS_GDAL) {
       const base = [
-        '-q',
-        '-ot',
-        'Float64',
-        '-of',
-        'GTiff',
-        '-txe',
-        String(h.xllcorner),
-        String(h.xllcorner + h.ncols * h.cellsize),
-        '-tye',
-        String(h.yllcorner + h.nrows * h.cellsize),
-        String(h.yllcorner),
-        '-outsize',
-        String(h.ncols),
-        String(h.nrows),
-        '-zfield',
-        'z',
-        '-l',
-        'points',
+        ...['-q', '-ot', 'Float64', '-of', 'GTiff'],
+        ...gdalGridFrame(
+          h.xllcorner,
+          h.xllcorner + h.ncols * h.cellsize,
+          h.yllcorner + h.nrows * h.cellsize,
+          h.yllcorner,
+          h.ncols,
+          h.nrows,
+        ),
       ];
       const g = measure(
         'gdal_grid',
@@ -269,19 +214,7 @@ for (const c of NO_KRIGING
   try {
     const side = c.cells * c.cell;
     makeCase(dir, c.n, side, 2000 + c.n, true);
-    const common = [
-      TILTH,
-      'surface',
-      ...EXTRA,
-      '--samples',
-      join(dir, 'samples.geojson'),
-      '--boundary',
-      join(dir, 'boundary.geojson'),
-      '--nutrient',
-      'p',
-      '--cell',
-      String(c.cell),
-    ];
+    const common = surfaceArgs(dir, c.cell);
     const idwArgs = [
       ...common,
       '--method',
@@ -315,7 +248,6 @@ for (const c of NO_KRIGING
       irss = Math.max(irss, a.rss || 0);
       krss = Math.max(krss, b.rss || 0);
     }
-    const med = (a) => [...a].sort((x, y) => x - y)[Math.floor(a.length / 2)];
     const ratios = iw.map((w, i) => kw[i] / w);
     console.log(
       `| ${c.n} | ${c.cells} x ${c.cells} | ${med(iw).toFixed(3)} | ${irss.toFixed(0)} | ${med(kw).toFixed(3)} | ${krss.toFixed(0)} | ${med(ratios).toFixed(2)} (median of ${RUNS} paired runs) | ${load0.toFixed(2)}, ${loadavg()[0].toFixed(2)} |`,
@@ -324,8 +256,4 @@ for (const c of NO_KRIGING
     rmSync(dir, { recursive: true, force: true });
   }
 }
-console.log(
-  `\nload average at end ${loadavg()
-    .map((x) => x.toFixed(2))
-    .join(', ')}`,
-);
+console.log(`\nload average at end ${load()}`);

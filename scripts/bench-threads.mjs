@@ -5,38 +5,19 @@
 //
 // Usage: node scripts/bench-threads.mjs [--pairs 5] [--threads N] [--build]
 //   --threads: the many-thread count (default: the machine's cores); --build: also pair whole builds
-import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { availableParallelism, cpus, loadavg, tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { availableParallelism, tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { makeSection } from './bench-section.mjs';
+import { buildBundle, load, machine, med, numberArg, root, timeRun } from './bench-lib.mjs';
 
-const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-const args = process.argv.slice(2);
-const arg = (name, dflt) => (args.includes(name) ? Number(args[args.indexOf(name) + 1]) : dflt);
-const PAIRS = arg('--pairs', 5);
-const MANY = arg('--threads', availableParallelism());
-const TIME = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
-execFileSync(process.execPath, [join(root, 'scripts', 'build.mjs')], { cwd: root, stdio: 'inherit' });
+const PAIRS = numberArg('--pairs', 5);
+const MANY = numberArg('--threads', availableParallelism());
+buildBundle();
 const TILTH = join(root, 'bin', 'tilth.js');
-const med = (a) => [...a].sort((x, y) => x - y)[a.length >> 1];
-const load = () =>
-  loadavg()
-    .map((x) => x.toFixed(2))
-    .join(', ');
 
 /** Wall and CPU seconds of one tilth run (exit 1, infeasible zones, is accepted for builds). */
-function timed(argv) {
-  const t0 = process.hrtime.bigint();
-  const r = TIME
-    ? spawnSync(TIME, ['-v', process.execPath, TILTH, ...argv], { cwd: root, encoding: 'utf8' })
-    : spawnSync(process.execPath, [TILTH, ...argv], { cwd: root, encoding: 'utf8' });
-  const wall = Number(process.hrtime.bigint() - t0) / 1e9;
-  if (r.status !== 0 && r.status !== 1) throw new Error(`tilth ${argv.join(' ')} failed:\n${r.stderr}`);
-  const num = (re) => Number(re.exec(r.stderr ?? '')?.[1] ?? NaN);
-  return { wall, cpu: num(/User time \(seconds\): ([\d.]+)/) + num(/System time \(seconds\): ([\d.]+)/) };
-}
+const timed = (argv) => timeRun(process.execPath, [TILTH, ...argv], { ok: [0, 1] });
 
 function pairs(label, argv) {
   const one = [],
@@ -55,9 +36,7 @@ function pairs(label, argv) {
 const dir = mkdtempSync(join(tmpdir(), 'tilth-bench-threads-'));
 try {
   makeSection(dir, TILTH);
-  console.log(
-    `machine: ${cpus().length} x ${cpus()[0]?.model ?? 'cpu'}; node ${process.version}; ${PAIRS} pairs; load average at start ${load()}`,
-  );
+  console.log(`machine: ${machine()}; ${PAIRS} pairs; load average at start ${load()}`);
   console.log(
     `\n| case | 1 thread wall s | CPU s | ${MANY} threads wall s | CPU s | paired wall ratio 1 / ${MANY} |`,
   );
@@ -74,7 +53,7 @@ try {
     ...inputs,
     ...['--nutrient', 'p', '--cell', '1', '--out', join(dir, 'p.asc'), '--force'],
   ]);
-  if (args.includes('--build'))
+  if (process.argv.includes('--build'))
     pairs('tilth build (five surfaces, zones, report), 1 m', [
       'build',
       ...inputs,

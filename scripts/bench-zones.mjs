@@ -4,10 +4,10 @@
 import { build } from 'esbuild';
 import { mkdirSync } from 'node:fs';
 import os from 'node:os';
-import { join, dirname } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { med, rng, root } from './bench-lib.mjs';
 
-const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const outDir = join(root, 'node_modules', '.cache', 'tilth-bench');
 mkdirSync(outDir, { recursive: true });
 const outfile = join(outDir, 'zones.mjs');
@@ -40,17 +40,6 @@ const { pointInParts, partsArea, partsBbox } = await import(
 const runs = Number(process.argv[2] ?? 5);
 const cell = Number(process.argv[3] ?? 1);
 
-// seeded PRNG (mulberry32)
-function rng(seed) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 const rnd = rng(640);
 
 // an invented section: 1609 m square, a wobbly east edge (72 vertices), a cut-off north-west corner, and a slough
@@ -140,9 +129,14 @@ for (let r = 0; r < rows; r++)
   }
 
 const minArea = Z.minZoneAreaM2({ swathM: 18.3, speedKmh: 9 });
-const median = (a) => {
-  const s = [...a].sort((x, y) => x - y);
-  return s[Math.floor(s.length / 2)];
+/** The zoning every makeZones step uses: Jenks, 5 classes, one majority pass, metres. */
+const ZONING = {
+  method: 'jenks',
+  classes: 5,
+  step: 5,
+  minAreaM2: minArea,
+  majorityIterations: 1,
+  lonlat: false,
 };
 const names = [
   'classify',
@@ -202,38 +196,9 @@ for (let k = 0; k < runs; k++) {
   const arcs = step('arcs', () => Z.zoneArcs(m.zone, m.count, grid));
   const smooth = step('simplify', () => Z.arcsToParts(arcs, Z.simplifyArcs(arcs, 1), grid));
   step('clip', () => smooth.map((p) => Z.clipParts(p, parts, xmin, ymax)));
-  step('staircase', () =>
-    Z.makeZones(grid, value, field, {
-      method: 'jenks',
-      classes: 5,
-      step: 5,
-      minAreaM2: minArea,
-      majorityIterations: 1,
-      lonlat: false,
-      simplifyCells: 0,
-    }),
-  );
-  last = step('makeZones', () =>
-    Z.makeZones(grid, value, field, {
-      method: 'jenks',
-      classes: 5,
-      step: 5,
-      minAreaM2: minArea,
-      majorityIterations: 1,
-      lonlat: false,
-    }),
-  );
-  design = step('design', () =>
-    Z.makeZones(grid, value, field, {
-      method: 'jenks',
-      classes: 5,
-      step: 5,
-      minAreaM2: minArea,
-      majorityIterations: 1,
-      lonlat: false,
-      judge: judge(),
-    }),
-  );
+  step('staircase', () => Z.makeZones(grid, value, field, { ...ZONING, simplifyCells: 0 }));
+  last = step('makeZones', () => Z.makeZones(grid, value, field, { ...ZONING }));
+  design = step('design', () => Z.makeZones(grid, value, field, { ...ZONING, judge: judge() }));
 }
 const verts = last.vertices.clipped;
 const area = last.zones.reduce((s, z) => s + z.areaM2, 0);
@@ -251,34 +216,21 @@ console.log(
       ' ',
     )} on ${os.cpus().length} CPUs (wall time suffers when the machine is shared; CPU time much less)`,
 );
+/** One row of the table: a step's median wall and CPU milliseconds. */
+const row = (label, k) => console.log(`| ${label} | ${med(t[k]).toFixed(0)} | ${med(cpu[k]).toFixed(0)} |`);
 console.log('| step | median wall ms | median CPU ms |\n|---|---|---|');
-console.log(
-  `| classify (jenks, 5, 4096-bin summary) | ${median(t.classify).toFixed(0)} | ${median(cpu.classify).toFixed(0)} |`,
-);
-console.log(
-  `| majority filter 3x3, 1 pass | ${median(t.majority).toFixed(0)} | ${median(cpu.majority).toFixed(0)} |`,
-);
-console.log(
-  `| fill + label + merge small zones | ${median(t.merge).toFixed(0)} | ${median(cpu.merge).toFixed(0)} |`,
-);
-console.log(
-  `| trace (all zones, unclipped, corners only) | ${median(t.trace).toFixed(0)} | ${median(cpu.trace).toFixed(0)} |`,
-);
-console.log(`| shared arcs (every node) | ${median(t.arcs).toFixed(0)} | ${median(cpu.arcs).toFixed(0)} |`);
-console.log(
-  `| simplify arcs (1 cell) and rebuild rings | ${median(t.simplify).toFixed(0)} | ${median(cpu.simplify).toFixed(0)} |`,
-);
-console.log(
-  `| clip every smoothed zone to the boundary (JTS overlay) | ${median(t.clip).toFixed(0)} | ${median(cpu.clip).toFixed(0)} |`,
-);
-console.log(
-  `| makeZones, staircase edges (simplifyCells 0), no judge | ${median(t.staircase).toFixed(0)} | ${median(cpu.staircase).toFixed(0)} |`,
-);
-console.log(
-  `| makeZones, default (edges smoothed to 1 cell), no judge | ${median(t.makeZones).toFixed(0)} | ${median(cpu.makeZones).toFixed(0)} |`,
-);
-console.log(
-  `| zone design: makeZones with a rate judge (classes and zones merged, rate classes) and smoothed edges | ${median(t.design).toFixed(0)} | ${median(cpu.design).toFixed(0)} |`,
+row('classify (jenks, 5, 4096-bin summary)', 'classify');
+row('majority filter 3x3, 1 pass', 'majority');
+row('fill + label + merge small zones', 'merge');
+row('trace (all zones, unclipped, corners only)', 'trace');
+row('shared arcs (every node)', 'arcs');
+row('simplify arcs (1 cell) and rebuild rings', 'simplify');
+row('clip every smoothed zone to the boundary (JTS overlay)', 'clip');
+row('makeZones, staircase edges (simplifyCells 0), no judge', 'staircase');
+row('makeZones, default (edges smoothed to 1 cell), no judge', 'makeZones');
+row(
+  'zone design: makeZones with a rate judge (classes and zones merged, rate classes) and smoothed edges',
+  'design',
 );
 console.log(
   `design result: ${design.zones.length} zones, ${design.counts.rateClasses} rate classes (${design.counts.classes} classes drawn, ${design.counts.classesMerged} kept; ${design.counts.zonesCleaned} zones after cleaning); vertices ${design.vertices.traced} staircase -> ${design.vertices.simplified} smoothed, ${design.vertices.clipped} clipped`,

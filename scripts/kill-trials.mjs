@@ -7,29 +7,16 @@ import { spawn, spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync, existsSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { numberArg, QUARTER_INPUTS, root } from './bench-lib.mjs';
 
-const arg = (name, def) => {
-  const i = process.argv.indexOf(name);
-  return i > 0 ? Number(process.argv[i + 1]) : def;
-};
-const trials = arg('--trials', 10);
-let seed = arg('--seed', 20261203) >>> 0;
+const trials = numberArg('--trials', 10);
+let seed = numberArg('--seed', 20261203) >>> 0;
 const rnd = () => ((seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0), seed / 2 ** 32);
-const q = 'sample-fields/quarter';
 const args = (out) => [
-  'bin/tilth.js',
+  join(root, 'bin', 'tilth.js'),
   'build',
-  '--samples',
-  `${q}/samples.csv`,
-  '--boundary',
-  `${q}/boundary.geojson`,
-  '--plan',
-  `${q}/plan.yaml`,
-  '--out',
-  out,
-  '--force',
-  '--threads',
-  '1',
+  ...QUARTER_INPUTS,
+  ...['--out', out, '--force', '--threads', '1'],
 ];
 const dir = mkdtempSync(join(tmpdir(), 'tilth-kill-'));
 const out = join(dir, 'rx');
