@@ -269,6 +269,7 @@ function writeCharts(
   });
   const map = sampleMapSvg({
     parts: inputs.field.parts,
+    utm: inputs.field.utm,
     xy: inputs.samples.xy,
     values: inputs.samples.values[report.nutrient],
     ids: inputs.samples.ids,
@@ -288,6 +289,7 @@ function writeCharts(
       `${stem}-chance-below-${chance.threshold}.svg`,
       chanceMapSvg({
         parts: inputs.field.parts,
+        utm: inputs.field.utm,
         xy: inputs.samples.xy,
         values: inputs.samples.values[report.nutrient],
         label: report.label,

@@ -32,6 +32,9 @@ const RANGE: Record<RampName, [number, number]> = {
  */
 export const QUALITATIVE = ['#e69f00', '#56b4e9', '#009e73', '#f0e442', '#0072b2', '#d55e00', '#cc79a7'];
 
+/** Red of low samples and of the threshold on a colour bar. */
+export const LOW_RED = '#e31a1c';
+
 /** Grey for "no value" / "no limit binds". */
 export const NEUTRAL = '#d9d9d9';
 

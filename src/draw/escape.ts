@@ -27,3 +27,26 @@ export function fmt(v: number | null | undefined, decimals = 0): string {
   const neg = v < 0 && Number(s) !== 0 ? '−' : '';
   return neg + grouped + (frac ? '.' + frac : '');
 }
+
+/**
+ * Words wrapped into lines of at most `width` characters, broken on spaces (a longer word is cut).
+ * @example wrapWords('a b c', 3) // ['a b', 'c']
+ */
+export function wrapWords(text: string, width: number): string[] {
+  const out: string[] = [];
+  let cur = '';
+  for (let w of text.split(/\s+/).filter(Boolean)) {
+    while (w.length > width) {
+      if (cur) out.push(cur);
+      cur = '';
+      out.push(w.slice(0, width));
+      w = w.slice(width);
+    }
+    if (cur && (cur + ' ' + w).length > width) {
+      out.push(cur);
+      cur = w;
+    } else cur = cur ? cur + ' ' + w : w;
+  }
+  if (cur) out.push(cur);
+  return out;
+}

@@ -5,36 +5,42 @@
  * one rate map per zone set and product placement, and where the seed-row and other limits bind.
  * Building blocks: mapParts.ts (rasters, boundary, samples) and zoneParts.ts (zone outlines and labels).
  */
-import { classColours, NEUTRAL, QUALITATIVE, rateColours } from '../draw/colour.js';
 import { CHANCE_BREAKS, chanceClassLabels, chanceColours } from '../draw/chanceClasses.js';
-import { esc, fmt } from '../draw/escape.js';
-import {
-  type Frame,
-  type LegendItem,
-  geoGroup,
-  legend,
-  makeFrame,
-  mapSvg,
-  partsBbox,
-  px,
-  py,
-} from './frame.js';
+import { classColours, NEUTRAL, QUALITATIVE, rateColours } from '../draw/colour.js';
+import { fmt } from '../draw/escape.js';
+import { type Frame, makeFrame, mapSvg, partsBbox } from '../draw/frame.js';
 import {
   boundary,
   breakLabels,
   classify,
-  clipDef,
-  rasterImage,
+  type MapSample,
+  noteBox,
+  rasterLayer,
   samplePoints,
-  valueLabel,
-} from './mapParts.js';
-import { trueNorthOnGrid } from './north.js';
+} from '../draw/layers.js';
+import { type LegendItem, legend } from '../draw/legend.js';
+import { trueNorthAtBox } from '../draw/north.js';
 import { areaLabel } from './tables.js';
 import type { ReportChanceMap, ReportInput, ReportNutrient, ReportZone, ReportZoneSet } from './types.js';
 import { zonePolys } from './zoneParts.js';
 
-export { BoxIndex, breakLabels, classify, dilateClasses } from './mapParts.js';
 export { labelPoint, zoneDefs } from './zoneParts.js';
+
+/** Legend entries of the sample symbol and the boundary. */
+const SAMPLE: LegendItem = { fill: '#fff', symbol: 'point', label: 'Soil sample' };
+const BOUNDARY: LegendItem = { fill: 'none', symbol: 'line', label: 'Field boundary' };
+
+/** The input's samples as map samples, labelled by `label(i)` (null: no label). */
+function samples(input: ReportInput, label: (i: number) => string | null): MapSample[] {
+  const { xy, ids } = input.samples;
+  return ids.map((_, i) => ({ x: xy[2 * i]!, y: xy[2 * i + 1]!, label: label(i) }));
+}
+
+/** A sample's lab value as its label: "<" below detection, ">" above range; null without a value. */
+function valueLabel(n: ReportNutrient, v: number, cens: number): string | null {
+  if (!Number.isFinite(v)) return null;
+  return (cens < 0 ? '<' : cens > 0 ? '>' : '') + fmt(v, n.decimals ?? 0);
+}
 
 /** One drawn map. */
 export interface ReportMap {
@@ -70,7 +76,7 @@ interface MapContext {
 export function buildMaps(input: ReportInput): ReportMap[] {
   const bbox = partsBbox(input.field.parts);
   const f = makeFrame(bbox);
-  const north = trueNorthOnGrid(input.utm, (bbox[0] + bbox[2]) / 2, (bbox[1] + bbox[3]) / 2);
+  const north = trueNorthAtBox(input.utm, bbox);
   const maps: ReportMap[] = [];
   const nut = new Map(input.nutrients.map((n) => [n.key, n]));
   const ctx: MapContext = {
@@ -81,7 +87,7 @@ export function buildMaps(input: ReportInput): ReportMap[] {
     add: (kind, title, caption, body, lg) => {
       const id = `map-${maps.length + 1}`;
       const l = legend(f, lg.title, lg.items, lg.notes ?? []);
-      const svg = mapSvg(f, id, kind, body(id), l, input.utm, title, north);
+      const svg = mapSvg(f, { id, kind, aria: title, utm: input.utm, trueNorthDeg: north }, body(id), l);
       maps.push({ id, kind, title, caption, svg, legendItems: lg.items.length });
     },
   };
@@ -108,11 +114,16 @@ function samplesMap(ctx: MapContext): void {
     'samples',
     'Soil sample locations',
     `${input.samples.ids.length} samples, labelled with their ids. ${ctx.utmNote}`,
-    () => boundary(f, input.field.parts) + samplePoints(f, input, (i) => input.samples.ids[i] ?? ''),
+    () =>
+      boundary(f, input.field.parts) +
+      samplePoints(
+        f,
+        samples(input, (i) => input.samples.ids[i] ?? ''),
+      ),
     {
       items: [
-        { fill: 'point', label: `Soil sample (${input.samples.ids.length}), labelled with its id` },
-        { fill: 'line', label: 'Field boundary' },
+        { ...SAMPLE, label: `Soil sample (${input.samples.ids.length}), labelled with its id` },
+        BOUNDARY,
       ],
       title: 'Samples',
     },
@@ -129,12 +140,12 @@ function surfaceMap(ctx: MapContext, s: ReportInput['surfaces'][number]): void {
   const vals = input.samples.values[s.nutrient];
   const cens = input.samples.censored?.[s.nutrient];
   const body = (id: string) =>
-    geoGroup(f) +
-    clipDef(f, parts, `${id}-clip`) +
-    rasterImage(f, s.raster, classify(s.raster.values, s.breaks), colours, `${id}-clip`) +
-    '</g>' +
+    rasterLayer(f, parts, s.raster.grid, classify(s.raster.values, s.breaks), colours, id).svg +
     boundary(f, parts) +
-    samplePoints(f, input, (i) => (vals ? valueLabel(n, vals[i]!, cens ? cens[i]! : 0) : null));
+    samplePoints(
+      f,
+      samples(input, (i) => (vals ? valueLabel(n, vals[i]!, cens ? cens[i]! : 0) : null)),
+    );
   const unit = n.unit ? ` (${n.unit})` : '';
   ctx.add(
     'surface',
@@ -144,8 +155,8 @@ function surfaceMap(ctx: MapContext, s: ReportInput['surfaces'][number]): void {
     {
       items: [
         ...labels.map((l, i) => ({ fill: colours[i]!, label: l })),
-        { fill: 'point', label: 'Soil sample and its value' },
-        { fill: 'line', label: 'Field boundary' },
+        { ...SAMPLE, label: 'Soil sample and its value' },
+        BOUNDARY,
       ],
       title: `${n.label}${unit}`,
       notes: s.raster.notes,
@@ -162,15 +173,13 @@ function chanceMap(ctx: MapContext, c: ReportChanceMap): void {
   const colours = chanceColours();
   const labels = chanceClassLabels();
   const rr = c.raster;
+  const dots = samples(input, () => null);
   const body = rr
     ? (id: string) =>
-        geoGroup(f) +
-        clipDef(f, parts, `${id}-clip`) +
-        rasterImage(f, rr, classify(rr.values, CHANCE_BREAKS), colours, `${id}-clip`) +
-        '</g>' +
+        rasterLayer(f, parts, rr.grid, classify(rr.values, CHANCE_BREAKS), colours, id).svg +
         boundary(f, parts) +
-        samplePoints(f, input, () => null)
-    : () => boundary(f, parts) + samplePoints(f, input, () => null) + noteBox(f, input, c.refused ?? '');
+        samplePoints(f, dots)
+    : () => boundary(f, parts) + samplePoints(f, dots) + noteBox(f, 'No chance map', c.refused ?? '');
   ctx.add(
     'chance',
     `${n.label}: chance ${below}`,
@@ -179,50 +188,11 @@ function chanceMap(ctx: MapContext, c: ReportChanceMap): void {
       : `No chance map of ${n.label}: ${c.refused}. ${ctx.utmNote}`,
     body,
     {
-      items: [
-        ...(rr ? labels.map((l, i) => ({ fill: colours[i]!, label: l })) : []),
-        { fill: 'point', label: 'Soil sample' },
-        { fill: 'line', label: 'Field boundary' },
-      ],
+      items: [...(rr ? labels.map((l, i) => ({ fill: colours[i]!, label: l })) : []), SAMPLE, BOUNDARY],
       title: `% chance ${below}`,
       notes: rr ? [c.assumption, ...(rr.notes ?? [])] : [`No chance map: ${c.refused}.`],
     },
   );
-}
-
-/** A note in a box in the middle of the field (in pixels), e.g. why a map could not be made. */
-function noteBox(f: Frame, input: ReportInput, text: string): string {
-  const [x0, y0, x1, y1] = partsBbox(input.field.parts);
-  const cx = px(f, (x0 + x1) / 2),
-    cy = py(f, (y0 + y1) / 2);
-  const lines = wrapLines(`${text.charAt(0).toUpperCase()}${text.slice(1)}.`, 60);
-  const w = 460,
-    h = 38 + 17 * lines.length;
-  return (
-    `<g class="note"><rect x="${(cx - w / 2).toFixed(1)}" y="${(cy - h / 2).toFixed(1)}" width="${w}" height="${h}" rx="6" fill="#fff" fill-opacity="0.94" stroke="#b10026" stroke-width="2"/>` +
-    `<text x="${cx.toFixed(1)}" y="${(cy - h / 2 + 24).toFixed(1)}" text-anchor="middle" font-size="16" font-weight="700" fill="#b10026">No chance map</text>` +
-    lines
-      .map(
-        (l, i) =>
-          `<text x="${cx.toFixed(1)}" y="${(cy - h / 2 + 44 + 17 * i).toFixed(1)}" text-anchor="middle" font-size="13">${esc(l)}</text>`,
-      )
-      .join('') +
-    '</g>'
-  );
-}
-
-/** Words wrapped into lines of at most `max` characters. */
-function wrapLines(text: string, max: number): string[] {
-  const out: string[] = [];
-  let cur = '';
-  for (const w of text.split(/\s+/).filter(Boolean)) {
-    if (cur && cur.length + 1 + w.length > max) {
-      out.push(cur);
-      cur = w;
-    } else cur = cur ? `${cur} ${w}` : w;
-  }
-  if (cur) out.push(cur);
-  return out;
 }
 
 /** 3. Response-probability classes of a nutrient, per cell or per zone. */
@@ -240,12 +210,7 @@ function responseMap(ctx: MapContext, r: ReportInput['response'][number]): void 
       const v = rr.values[i]!;
       idx[i] = Number.isFinite(v) && v >= 0 && v < colours.length ? v : 255;
     }
-    body = (id) =>
-      geoGroup(f) +
-      clipDef(f, parts, `${id}-clip`) +
-      rasterImage(f, rr, idx, colours, `${id}-clip`) +
-      '</g>' +
-      boundary(f, parts);
+    body = (id) => rasterLayer(f, parts, rr.grid, idx, colours, id).svg + boundary(f, parts);
   } else if (r.byZone) {
     const si = input.zoneSets.findIndex((s) => s.name === r.byZone!.zoneSet);
     const cls = r.byZone.classes;
@@ -264,7 +229,7 @@ function responseMap(ctx: MapContext, r: ReportInput['response'][number]): void 
     `Chance that the crop responds to applied ${n.label}, by soil-test class${r.source ? ` (${r.source})` : ''}. ${ctx.utmNote}`,
     body,
     {
-      items: [...items, { fill: 'line', label: 'Field boundary' }],
+      items: [...items, BOUNDARY],
       title: `Chance of response to ${n.label}`,
       notes: r.raster?.notes,
     },

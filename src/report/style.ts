@@ -4,6 +4,8 @@
  * most 230 mm tall, one map per page; tables avoid breaking inside rows and, where they fit, inside
  * the table.
  */
+import { MAP_CSS } from '../draw/style.js';
+
 export const REPORT_CSS = `
 :root { --ink: #1a1a1a; --muted: #555; --rule: #c8c8c8; --band: #f3f3f3; --warn: #7a4a00; }
 * { box-sizing: border-box; }
@@ -40,15 +42,7 @@ figure.map-page h3 { margin-top: 0; }
 figure.map-page svg { display: block; width: 100%; max-width: 820px; height: auto; border: 1px solid var(--rule); }
 figure.map-page figcaption { color: var(--muted); font-size: 12.5px; margin-top: 4px; }
 figure.chart img { display: block; max-width: 100%; height: auto; border: 1px solid var(--rule); }
-svg.map .geo *, svg.defs .zp { vector-effect: non-scaling-stroke; }
-svg.map text { font-family: system-ui, "Noto Sans", "DejaVu Sans", sans-serif; }
-svg.map .sample-labels text, svg.map .zone-labels text { font-size: 11px; paint-order: stroke; stroke: #fff; stroke-width: 3px; stroke-linejoin: round; fill: #000; }
-svg.map .zone-labels text { font-size: 12px; }
-svg.map .lg-title { font-size: 14px; font-weight: 700; }
-svg.map .lg-t { font-size: 12.5px; }
-svg.map .lg-n { font-size: 11px; fill: #555; }
-svg.map .sb-t { font-size: 12px; }
-svg.map .n-t { font-size: 14px; font-weight: 700; }
+${MAP_CSS}
 footer { margin-top: 28px; color: var(--muted); font-size: 12px; border-top: 1px solid var(--rule); padding-top: 6px; }
 @media print {
   @page { margin: 12mm; }

@@ -4,7 +4,7 @@
  */
 import polylabel from 'polylabel';
 import { esc } from '../draw/escape.js';
-import { type Frame, geoGroup, makeFrame, partsBbox, partsPath, px, py } from './frame.js';
+import { type Frame, geoGroup, makeFrame, partsBbox, partsPath, px, py } from '../draw/frame.js';
 import type { ReportInput, ReportPart, ReportZone } from './types.js';
 
 /** A flat ring [x0, y0, x1, y1, ...] as polylabel's [[x, y], ...]. */
@@ -101,5 +101,5 @@ export function zonePolys(
         .join('') +
       '</text>';
   }
-  return `${geoGroup(f, ' class="zones"')}<g stroke="#fff" stroke-width="1">${polys}</g></g><g class="zone-labels">${texts}</g>`;
+  return `${geoGroup(f, 'zones')}<g stroke="#fff" stroke-width="1">${polys}</g></g><g class="zone-labels">${texts}</g>`;
 }

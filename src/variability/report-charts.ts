@@ -46,6 +46,7 @@ export function variabilityReportCharts(
       title: `${r.label}: low spots`,
       svg: sampleMapSvg({
         parts: field.parts,
+        utm: field.utm,
         xy: samples.xy,
         values: samples.values[r.nutrient],
         ids: samples.ids,

@@ -5,7 +5,8 @@
 import type { Semivariogram } from './semivariogram.js';
 import { modelAt, type FittedModel } from './fit.js';
 import { esc } from '../draw/escape.js';
-import { fmtNum, fmtTick, FONT, niceTicks } from './charts.js';
+import { fmtTick, niceTicks } from '../draw/ticks.js';
+import { fmtNum, FONT } from './charts.js';
 
 const MODEL_STYLE: Record<string, { color: string; dash: string; name: string }> = {
   spherical: { color: '#d95f02', dash: '', name: 'spherical' },

@@ -4,7 +4,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { BoxIndex } from '../../src/report/maps.js';
+import { BoxIndex } from '../../src/draw/layers.js';
 
 type Box = [number, number, number, number];
 const boxArb = fc

@@ -6,8 +6,9 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { booleanPointInPolygon, polygon, point } from '@turf/turf';
 import { parseReportInput, renderReport, serializeReportInput } from '../../src/report/index.js';
-import { makeFrame } from '../../src/report/frame.js';
-import { breakLabels, buildMaps, classify, dilateClasses, labelPoint } from '../../src/report/maps.js';
+import { makeFrame } from '../../src/draw/frame.js';
+import { breakLabels, classify, dilateClasses } from '../../src/draw/layers.js';
+import { buildMaps, labelPoint } from '../../src/report/maps.js';
 import { chanceClassLabels } from '../../src/draw/chanceClasses.js';
 import { demoInput, demoInputAt } from '../helpers/report-fixture.js';
 
@@ -136,7 +137,7 @@ describe('maps', () => {
       .match(/data-utm-origin="([\d.]+) ([\d.]+)"/)!
       .slice(1)
       .map(Number) as [number, number];
-    const d = svg.match(/<g class="geo"[^>]*class="boundary"><path d="([^"]+)"/)![1]!;
+    const d = svg.match(/<g class="geo boundary"[^>]*><path d="([^"]+)"/)![1]!;
     const first = d
       .match(/^M([\d.-]+) ([\d.-]+)/)!
       .slice(1)

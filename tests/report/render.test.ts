@@ -4,7 +4,7 @@ import { crc32 as nodeCrc32, inflateSync } from 'node:zlib';
 import { renderReport, serializeReportInput, parseReportInput } from '../../src/report/index.js';
 import { esc, fmt } from '../../src/draw/escape.js';
 import { encodeIndexedPng, crc32 } from '../../src/draw/png.js';
-import { niceLength } from '../../src/report/frame.js';
+import { niceLength } from '../../src/draw/frame.js';
 import { M_PER_FT } from '../../src/units/index.js';
 import { demoInput } from '../helpers/report-fixture.js';
 import { isUserError } from '../../src/errors.js';
@@ -182,7 +182,7 @@ describe('report-data.json', () => {
 
 describe('north arrow', () => {
   it('points to true north: meridian convergence matches atan(tan(dlon) sin(lat)) within 0.02° (Snyder 1987, USGS PP 1395, transverse Mercator)', async () => {
-    const { trueNorthOnGrid } = await import('../../src/report/north.js');
+    const { trueNorthOnGrid } = await import('../../src/draw/north.js');
     const { projector, utmZoneFor } = await import('../../src/geo/utm.js');
     fc.assert(
       fc.property(
@@ -245,12 +245,12 @@ describe('other shapes of input', () => {
     inp.samples = { ids, xy, values: { p } };
     const svg = renderReport(inp).match(/<svg class="map"[^]*?<\/svg>/)![0];
     const boxes = [
-      ...svg.matchAll(/<text x="([\d.]+)" y="([\d.]+)"( text-anchor="end")?>([^<]*)<\/text>/g),
+      ...svg.matchAll(/<text x="([\d.]+)" y="([\d.]+)"(?: text-anchor="(end|middle)")?>([^<]*)<\/text>/g),
     ].map((m) => {
-      const x = Number(m[1]),
-        y = Number(m[2]),
+      const y = Number(m[2]),
         w = m[4]!.length * 6.3;
-      return m[3] ? [x - w, y - 11, x, y] : [x, y - 11, x + w, y];
+      const x = Number(m[1]) - (m[3] === 'end' ? w : m[3] === 'middle' ? w / 2 : 0);
+      return [x, y - 11, x + w, y];
     });
     expect(boxes.length).toBe(256);
     let overlaps = 0;

@@ -181,10 +181,15 @@ describe('chance below the threshold (synthetic S field, 49 samples)', () => {
     };
     const svg = chanceMapSvg({ ...input, map: m });
     expect(svg).toMatch(/^<svg[^>]+xmlns="http:\/\/www.w3.org\/2000\/svg"/);
-    for (const l of chanceClassLabels()) expect(svg).toContain(`>${l}</text>`);
+    for (const l of chanceClassLabels()) expect(svg).toContain(`>${l}</tspan>`);
     expect(svg).toContain('Gaussian with the kriging mean');
     expect(svg).toContain('Chance that sulphate-S is below 20 lb S/ac');
-    expect((svg.match(/r="8" fill="none" stroke="#e31a1c"/g) ?? []).length).toBe(4 + 1); // 4 low + legend
+    const rings = svg.slice(
+      svg.indexOf('class="low-rings"'),
+      svg.indexOf('</g>', svg.indexOf('class="low-rings"')),
+    );
+    expect((rings.match(/<circle /g) ?? []).length).toBe(4); // 4 low
+    expect((svg.match(/r="9" fill="none" stroke="#e31a1c"/g) ?? []).length).toBe(1); // the legend's
     const few = syntheticField().samples;
     few.values.so4_s = few.values.so4_s.map((v, i) => (i < 20 ? v : NaN));
     const none = chanceMapSvg({

@@ -7,11 +7,11 @@ import {
   analyzeVariability,
   areaShareBelow,
   defaultThreshold,
-  niceTicks,
   sampleMapSvg,
   sampleShareBelow,
   semivariogramSvg,
 } from '../../src/variability/index.js';
+import { niceTicks } from '../../src/draw/ticks.js';
 import { syntheticField } from '../helpers/variabilityField.js';
 
 describe('analyzeVariability on sulphate-S', () => {
@@ -72,7 +72,14 @@ describe('analyzeVariability on sulphate-S', () => {
       unit: r.unit,
       threshold: 20,
     });
-    expect((map.match(/r="12" fill="none" stroke="#e31a1c"/g) ?? []).length).toBe(4 + 1); // 4 low rings + legend ring
+    const rings = map.slice(
+      map.indexOf('class="low-rings"'),
+      map.indexOf('</g>', map.indexOf('class="low-rings"')),
+    );
+    expect((rings.match(/<circle /g) ?? []).length).toBe(4); // 4 low rings
+    expect((map.match(/r="9" fill="none" stroke="#e31a1c"/g) ?? []).length).toBe(1); // and the legend's
+    expect(map).toContain('class="colour-bar"');
+    expect(map).toContain('>20 low</text>');
     for (const l of r.low) expect(map).toContain(`${l.id}: `);
     expect(niceTicks(0, 1597, 6, true)).toEqual([0, 500, 1000, 1500, 2000]);
   });
@@ -99,7 +106,7 @@ describe('text and map with a surface', () => {
     );
   });
 
-  it('a surface row of equal colours becomes one rectangle; cells outside the mask are not drawn', () => {
+  it('a surface is one image clipped to the field; a grid finer than a pixel is shown coarser, and says so', () => {
     const grid = {
       xmin: 0,
       ymax: 20,
@@ -119,9 +126,22 @@ describe('text and map with a surface', () => {
       threshold: null,
       surface: { grid, values: [1, 1, 1, 1, 9, 9] },
     });
-    // row 0: one run of three equal cells; row 1: two runs (1 and 9), the masked cell skipped
-    const g = svg.slice(svg.indexOf('<g opacity'), svg.indexOf('</g>'));
-    expect((g.match(/<rect /g) ?? []).length).toBe(3);
+    expect((svg.match(/<image class="raster"/g) ?? []).length).toBe(1);
+    expect(svg).toContain('clip-path="url(#sample-map-clip)"');
+    expect(svg).not.toContain('drawn at');
+    // 0.01 m cells on a 30 m field (about 23 px per metre): 3000 x 2000 cells shown at 0.05 m
+    const fine = { ...grid, cell: 0.01, cols: 3000, rows: 2000, mask: new Uint8Array(6e6).fill(1) };
+    const coarse = sampleMapSvg({
+      parts: [{ exterior: new Float64Array([0, 0, 30, 0, 30, 20, 0, 20, 0, 0]), holes: [] }],
+      xy: new Float64Array([5, 5]),
+      values: [1],
+      ids: ['A'],
+      label: 'x',
+      unit: 'u',
+      threshold: null,
+      surface: { grid: fine, values: new Float32Array(6e6).fill(3) },
+    });
+    expect(coarse).toContain('interpolated (IDW), drawn at 0.05 m cells');
   });
 });
 

@@ -25,3 +25,16 @@ export function trueNorthOnGrid(
     dy = (y2 - y) * Math.sign(step);
   return (Math.atan2(dx, dy) * 180) / Math.PI;
 }
+
+/**
+ * The angle of `trueNorthOnGrid` at the centre of a bounding box [xmin, ymin, xmax, ymax]; 0 (grid north)
+ * without a UTM zone or with an empty box.
+ * @example trueNorthAtBox(field.utm, field.bbox)
+ */
+export function trueNorthAtBox(
+  utm: { zone: number; south: boolean; epsg: number } | undefined,
+  bbox: readonly [number, number, number, number],
+): number {
+  if (!utm || !bbox.every(Number.isFinite)) return 0;
+  return trueNorthOnGrid(utm, (bbox[0] + bbox[2]) / 2, (bbox[1] + bbox[3]) / 2);
+}
