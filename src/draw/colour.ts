@@ -4,7 +4,7 @@
  *
  * The ramps come from d3-scale-chromatic: viridis and magma are matplotlib's 256-colour tables (van der Walt
  * and Smith, CC0), cividis is d3's polynomial fit to the table of Nuñez, Anderton and Renslow 2018 (PLoS ONE
- * 13(8)); tests/report/colour.test.ts compares them with the values R's viridisLite prints.
+ * 13(8)); tests/draw/colour.test.ts compares them with the values R's viridisLite prints.
  *
  * Our own assignment: soil surfaces use viridis, response probability magma (darker = more likely to
  * respond), product rates cividis (lighter = more product), binding limits the Okabe-Ito qualitative set.
