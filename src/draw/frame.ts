@@ -5,6 +5,7 @@
  * to the map's north-west corner (recorded in data-utm-origin); labels, scale bar and legend are drawn in pixels
  * on top.
  */
+import { ringsBbox } from '../geo/area.js';
 import { M_PER_FT, mToFt } from '../units/index.js';
 import { esc, fmt, wrapWords } from './escape.js';
 import { MAP_CSS } from './style.js';
@@ -70,26 +71,15 @@ export function makeFrame(
 export const px = (f: Frame, x: number): number => f.left + (x - f.x0) * f.k;
 export const py = (f: Frame, y: number): number => f.top + (f.y0 - y) * f.k;
 
-/** Bounding box of parts' exterior rings (and of extra points x0 y0 x1 y1 ..., e.g. samples outside). */
+/**
+ * Bounding box of parts' exterior rings and of extra points x0 y0 x1 y1 ... (e.g. samples outside the field).
+ * @example partsBbox(field.parts, samples.xy) // [xmin, ymin, xmax, ymax]
+ */
 export function partsBbox(
   parts: readonly MapPart[],
   points: ArrayLike<number> = [],
 ): [number, number, number, number] {
-  let xmin = Infinity,
-    ymin = Infinity,
-    xmax = -Infinity,
-    ymax = -Infinity;
-  const grow = (x: number, y: number): void => {
-    if (!Number.isFinite(x) || !Number.isFinite(y)) return;
-    xmin = Math.min(xmin, x);
-    xmax = Math.max(xmax, x);
-    ymin = Math.min(ymin, y);
-    ymax = Math.max(ymax, y);
-  };
-  for (const p of parts)
-    for (let i = 0; i + 1 < p.exterior.length; i += 2) grow(p.exterior[i]!, p.exterior[i + 1]!);
-  for (let i = 0; i + 1 < points.length; i += 2) grow(points[i]!, points[i + 1]!);
-  return [xmin, ymin, xmax, ymax];
+  return ringsBbox([...parts.map((p) => p.exterior), points]);
 }
 
 function ringPath(f: Frame, r: ArrayLike<number>): string {

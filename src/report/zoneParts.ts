@@ -3,6 +3,7 @@
  * and a label at a point well inside its largest part.
  */
 import polylabel from 'polylabel';
+import { ringArea } from '../geo/area.js';
 import { esc } from '../draw/escape.js';
 import { type Frame, geoGroup, makeFrame, partsBbox, partsPath, px, py } from '../draw/frame.js';
 import type { ReportInput, ReportPart, ReportZone } from './types.js';
@@ -37,17 +38,9 @@ export function labelPoint(part: ReportPart): [number, number] {
   return [x, y];
 }
 
+/** A part's area, m² (exterior less holes, whichever way the rings turn). */
 function partArea(p: ReportPart): number {
-  const ring = (r: ArrayLike<number>): number => {
-    let a = 0;
-    const n = r.length / 2;
-    for (let i = 0; i < n; i++) {
-      const j = (i + 1) % n;
-      a += r[2 * i]! * r[2 * j + 1]! - r[2 * j]! * r[2 * i + 1]!;
-    }
-    return Math.abs(a) / 2;
-  };
-  return ring(p.exterior) - p.holes.reduce((s, h) => s + ring(h), 0);
+  return Math.abs(ringArea(p.exterior)) - p.holes.reduce((s, h) => s + Math.abs(ringArea(h)), 0);
 }
 
 /** Id of the shared path of zone `zi` of zone set `si` (see `zoneDefs`). */
