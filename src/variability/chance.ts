@@ -16,6 +16,21 @@ export type ChanceSpec =
   | { kind: 'below'; threshold: number; unit: string; source: string }
   | { kind: 'none' };
 
+/** A soil test class table (name, upper bound, chance of a response, source) as a class-based chance map. */
+function classesSpec(
+  rows: readonly { name: string; below_ppm: number | null; response_probability: number; source: string }[],
+): ChanceSpec {
+  return {
+    kind: 'classes',
+    classes: {
+      names: rows.map((r) => r.name),
+      below: rows.map((r) => r.below_ppm),
+      chance: rows.map((r) => r.response_probability),
+    },
+    source: rows.map((r) => `${r.name}: ${r.source}`).join('; '),
+  };
+}
+
 /**
  * Chance maps for a nutrient and crop.
  * @param analyte the nutrient
@@ -33,30 +48,8 @@ export function chanceSpec(
   pMethod: PMethod = 'olsen',
   kelownaFactor?: number,
 ): ChanceSpec {
-  if (analyte === 'p') {
-    const rows = pClassTable(pMethod, tables, kelownaFactor);
-    return {
-      kind: 'classes',
-      classes: {
-        names: rows.map((r) => r.name),
-        below: rows.map((r) => r.below_ppm),
-        chance: rows.map((r) => r.response_probability),
-      },
-      source: rows.map((r) => `${r.name}: ${r.source}`).join('; '),
-    };
-  }
-  if (analyte === 'k') {
-    const rows = tables.k_classes[crop.k_class_group] ?? [];
-    return {
-      kind: 'classes',
-      classes: {
-        names: rows.map((r) => r.name),
-        below: rows.map((r) => r.below_ppm),
-        chance: rows.map((r) => r.response_probability),
-      },
-      source: rows.map((r) => `${r.name}: ${r.source}`).join('; '),
-    };
-  }
+  if (analyte === 'p') return classesSpec(pClassTable(pMethod, tables, kelownaFactor));
+  if (analyte === 'k') return classesSpec(tables.k_classes[crop.k_class_group] ?? []);
   if (analyte === 'so4_s')
     return {
       kind: 'below',
