@@ -133,14 +133,10 @@ function samplesCsv(samples: SampleOut[], farm: string, field: string): string {
   for (const s of samples) {
     const p = sampleProps(s);
     const z = zoned ? [q(s.zone)] : [];
+    const row = (depth: string, cells: (string | number)[]) =>
+      [lab++, s.id, ...z, s.lat.toFixed(7), s.lon.toFixed(7), depth, ...cells].join(',');
     lines.push(
-      [
-        lab++,
-        s.id,
-        ...z,
-        s.lat.toFixed(7),
-        s.lon.toFixed(7),
-        '0-6',
+      row('0-6', [
         q(p.no3_n_lbac_0_6),
         q(p.p_olsen_ppm),
         q(p.k_ppm),
@@ -148,25 +144,9 @@ function samplesCsv(samples: SampleOut[], farm: string, field: string): string {
         q(p.om_pct),
         q(p.ph),
         s.soil.texture,
-      ].join(','),
+      ]),
     );
-    lines.push(
-      [
-        lab++,
-        s.id,
-        ...z,
-        s.lat.toFixed(7),
-        s.lon.toFixed(7),
-        '6-24',
-        q(p.no3_n_lbac_6_24),
-        '',
-        '',
-        q(p.so4_s_lbac_6_24),
-        '',
-        '',
-        '',
-      ].join(','),
-    );
+    lines.push(row('6-24', [q(p.no3_n_lbac_6_24), '', '', q(p.so4_s_lbac_6_24), '', '', '']));
   }
   return lines.join('\n') + '\n';
 }

@@ -59,25 +59,27 @@ function brokenBoundary(r: Rng): string {
     .replace(/"1e999"/g, '1e999');
 }
 
+/** A target that damages the quarter's samples `file` with `mutate` and loads it with the quarter's boundary. */
+function samplesTarget(
+  name: string,
+  weight: number,
+  file: string,
+  mutate: (r: Rng, text: string) => string,
+): Target {
+  return {
+    name,
+    weight,
+    async run(r, dir) {
+      const p = join(dir, file);
+      writeFileSync(p, many(r, text(join(Q, file)), mutate));
+      return afterLoad(r, p, join(Q, 'boundary.geojson'));
+    },
+  };
+}
+
 export const TARGETS: Target[] = [
-  {
-    name: 'csv-samples',
-    weight: 4,
-    async run(r, dir) {
-      const p = join(dir, 'samples.csv');
-      writeFileSync(p, many(r, text(join(Q, 'samples.csv')), mutateText));
-      return afterLoad(r, p, join(Q, 'boundary.geojson'));
-    },
-  },
-  {
-    name: 'geojson-samples',
-    weight: 3,
-    async run(r, dir) {
-      const p = join(dir, 'samples.geojson');
-      writeFileSync(p, many(r, text(join(Q, 'samples.geojson')), mutateJson));
-      return afterLoad(r, p, join(Q, 'boundary.geojson'));
-    },
-  },
+  samplesTarget('csv-samples', 4, 'samples.csv', mutateText),
+  samplesTarget('geojson-samples', 3, 'samples.geojson', mutateJson),
   {
     name: 'geojson-boundary',
     weight: 3,

@@ -3,25 +3,16 @@
  * zoning.basis): the P and K zones move, the N and S zones do not, and zones with a higher chance of a P
  * response get at least as much P2O5.
  */
-import { readFileSync } from 'node:fs';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { parse as parseYaml, stringify } from 'yaml';
 import { buildPrescription } from '../../src/prescription/index.js';
-import { defaultTables, parsePlan } from '../../src/agronomy/index.js';
+import { defaultTables } from '../../src/agronomy/index.js';
 import { responseChanceBasis } from '../../src/variability/index.js';
-import { fieldInputs } from '../helpers/inputs.js';
-import { ROOT } from '../helpers/cli.js';
+import { fieldInputs, quarterFile, quarterPlanWith } from '../helpers/inputs.js';
 
 const tables = defaultTables();
 const canola = tables.crops.canola!;
-const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
-const planWith = (edit: (p: Record<string, any>) => void) => {
-  const p = parseYaml(PLAN);
-  edit(p);
-  return parsePlan(stringify(p), 'plan.yaml', tables);
-};
-const src = (f: string) => ({ name: f, bytes: readFileSync(join(ROOT, 'sample-fields/quarter', f)) });
+const planWith = (edit: (p: Record<string, any>) => void) => quarterPlanWith(edit, tables);
+const src = quarterFile;
 
 describe('plan key zoning.basis on the demo quarter', () => {
   it('demo quarter: P and K zones follow the response chance, N and S zones stay; more chance, no less P2O5', async () => {

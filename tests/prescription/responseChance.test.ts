@@ -6,20 +6,16 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { parse as parseYaml, stringify } from 'yaml';
 import { defaultTables, parsePlan } from '../../src/agronomy/index.js';
 import { chanceSpec, responseChanceBasis } from '../../src/variability/index.js';
 import type { Grid } from '../../src/types.js';
 import { ROOT } from '../helpers/cli.js';
+import { quarterPlanWith } from '../helpers/inputs.js';
 
 const tables = defaultTables();
 const canola = tables.crops.canola!;
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
-const planWith = (edit: (p: Record<string, any>) => void) => {
-  const p = parseYaml(PLAN);
-  edit(p);
-  return parsePlan(stringify(p), 'plan.yaml', tables);
-};
+const planWith = (edit: (p: Record<string, any>) => void) => quarterPlanWith(edit, tables);
 
 /** A 1-row grid of n cells, all in the field. */
 function row(n: number): Grid {

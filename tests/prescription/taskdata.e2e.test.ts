@@ -19,7 +19,7 @@ import {
 import { prescriptionGeojson, rateColumn } from '../../src/prescription/outputs.js';
 import { prescriptionTaskDataFiles } from '../../src/prescription/taskdata.js';
 import { parsePlan, defaultTables } from '../../src/agronomy/index.js';
-import { fieldInputs } from '../helpers/inputs.js';
+import { fieldInputs, quarterFile } from '../helpers/inputs.js';
 import { projector } from '../../src/geo/utm.js';
 import { labelPoint } from '../../src/report/maps.js';
 import { zipFiles } from '../../src/io/zip.js';
@@ -31,7 +31,7 @@ import { ROOT } from '../helpers/cli.js';
 import { requireTool } from '../helpers/tools.js';
 
 const tables = defaultTables();
-const src = (f: string) => ({ name: f, bytes: readFileSync(join(ROOT, 'sample-fields/quarter', f)) });
+const src = quarterFile;
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
 const plan = (edit: (p: Record<string, any>) => void = () => {}) => {
   const p = parseYaml(PLAN);

@@ -8,22 +8,9 @@ import { describe, expect, it } from 'vitest';
 import { crossValidate, type CvRow } from '../../src/surface/crossValidate.js';
 import { requireTool } from '../helpers/tools.js';
 import { ROOT } from '../helpers/cli.js';
+import { gdalPoints } from '../helpers/gdalPoints.js';
 
-function points(): { xy: Float64Array; z: Float64Array } {
-  const lines = readFileSync(join(ROOT, 'tests/fixtures/gdal/points.csv'), 'utf8')
-    .trim()
-    .split('\n')
-    .slice(1);
-  const xy = new Float64Array(lines.length * 2),
-    z = new Float64Array(lines.length);
-  lines.forEach((l, i) => {
-    const [x, y, v] = l.split(',').map(Number);
-    xy[2 * i] = x;
-    xy[2 * i + 1] = y;
-    z[i] = v;
-  });
-  return { xy, z };
-}
+const points = gdalPoints;
 
 function parse(csv: string): CvRow[] {
   return csv

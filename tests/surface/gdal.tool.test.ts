@@ -11,21 +11,11 @@ import { describe, expect, it } from 'vitest';
 import { idwSurface, type IdwOptions } from '../../src/surface/idw.js';
 import { readAsc } from '../../src/surface/asc.js';
 import { requireTool } from '../helpers/tools.js';
+import { gdalPoints } from '../helpers/gdalPoints.js';
 
 const DIR = join(import.meta.dirname, '..', 'fixtures', 'gdal');
 
-function points(): { xy: Float64Array; z: Float64Array } {
-  const lines = readFileSync(join(DIR, 'points.csv'), 'utf8').trim().split('\n').slice(1);
-  const xy = new Float64Array(lines.length * 2),
-    z = new Float64Array(lines.length);
-  lines.forEach((l, i) => {
-    const [x, y, v] = l.split(',').map(Number);
-    xy[2 * i] = x;
-    xy[2 * i + 1] = y;
-    z[i] = v;
-  });
-  return { xy, z };
-}
+const points = gdalPoints;
 
 // the fixture grid: -txe 500000 501000 -tye 5700800 5700000 -outsize 50 40 (20 m cells, north-up)
 const GRID = { xmin: 500000, ymax: 5700800, cell: 20, cols: 50, rows: 40 };

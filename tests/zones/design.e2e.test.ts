@@ -5,7 +5,6 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { parse as parseYaml, stringify } from 'yaml';
 import {
   buildPrescription,
   productRate,
@@ -13,19 +12,15 @@ import {
   type ZoneSetResult,
 } from '../../src/prescription/index.js';
 import { defaultTables, parsePlan } from '../../src/agronomy/index.js';
-import { fieldInputs } from '../helpers/inputs.js';
+import { fieldInputs, quarterFile, quarterPlanWith } from '../helpers/inputs.js';
 import { M2_PER_AC } from '../../src/units/index.js';
 import { mulberry32 } from '../../src/stats/random.js';
 import { ROOT } from '../helpers/cli.js';
 
 const tables = defaultTables();
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
-const planWith = (edit: (p: Record<string, any>) => void) => {
-  const p = parseYaml(PLAN);
-  edit(p);
-  return parsePlan(stringify(p), 'plan.yaml', tables);
-};
-const src = (f: string) => ({ name: f, bytes: readFileSync(join(ROOT, 'sample-fields/quarter', f)) });
+const planWith = (edit: (p: Record<string, any>) => void) => quarterPlanWith(edit, tables);
+const src = quarterFile;
 
 /** Neighbouring zone pairs from the zone raster (cells sharing an edge), independent of the design record. */
 function neighbours(set: ZoneSetResult, cols: number): [number, number][] {
