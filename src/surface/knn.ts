@@ -66,6 +66,20 @@ export function buildBuckets(
 }
 
 /**
+ * Buckets of about 4 samples each over the box [x0, y0, x1, y1] (at least 1e-6 m wide and high), which must
+ * contain every sample.
+ * @example const b = fourPerBucket(xy, ringsBbox([xy]))
+ */
+export function fourPerBucket(xy: Float64Array, [x0, y0, x1, y1]: readonly number[]): Buckets {
+  const w = Math.max(x1 - x0, 1e-6),
+    h = Math.max(y1 - y0, 1e-6);
+  const size = Math.max(Math.sqrt((w * h * 4) / (xy.length >> 1)), 1e-6);
+  const nx = Math.max(1, Math.ceil(w / size)),
+    ny = Math.max(1, Math.ceil(h / size));
+  return buildBuckets(xy, size, x0, y0, nx, ny);
+}
+
+/**
  * Gathers candidates for a group of queries and answers each query's k nearest.
  * Reusable per thread of work: holds the scratch arrays.
  */

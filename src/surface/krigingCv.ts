@@ -4,7 +4,8 @@
  * table gives the mean standardized squared error, MSSE = mean(e^2 / kriging variance), which is near 1 when
  * the model's variance describes the real errors.
  */
-import { buildBuckets, KnnGroup } from './knn.js';
+import { fourPerBucket, KnnGroup } from './knn.js';
+import { ringsBbox } from '../geo/area.js';
 import { COINCIDENT_D2 } from './idw.js';
 import { OkSolver, type KrigingModel } from './kriging.js';
 
@@ -50,24 +51,8 @@ export function krigingAtPoints(
     lagrange: new Float64Array(nq).fill(NaN),
   };
   if (k < 1) return out;
-  let x0 = Infinity,
-    x1 = -Infinity,
-    y0 = Infinity,
-    y1 = -Infinity;
-  for (const a of [xy, q]) {
-    for (let i = 0; i < a.length; i += 2) {
-      x0 = Math.min(x0, a[i]);
-      x1 = Math.max(x1, a[i]);
-      y0 = Math.min(y0, a[i + 1]);
-      y1 = Math.max(y1, a[i + 1]);
-    }
-  }
-  const w = Math.max(x1 - x0, 1e-6),
-    h = Math.max(y1 - y0, 1e-6);
-  const size = Math.max(Math.sqrt((w * h * 4) / n), 1e-6); // about 4 samples per bucket
-  const nx = Math.max(1, Math.ceil(w / size)),
-    ny = Math.max(1, Math.ceil(h / size));
-  const b = buildBuckets(xy, size, x0, y0, nx, ny);
+  const b = fourPerBucket(xy, ringsBbox([xy, q]));
+  const { x0, y0, size, nx, ny } = b;
   const g = new KnnGroup(b, k);
   const ring = Math.max(1, Math.ceil(Math.sqrt(k / 4) / 2 + 0.5));
   const solver = new OkSolver(model, k, n, loo ? 1 : undefined);

@@ -11,7 +11,8 @@
  * See docs/surface.md ("One neighbour search") for the method.
  */
 import type { Grid } from '../types.js';
-import { buildBuckets, KnnGroup, type Buckets } from './knn.js';
+import { buildBuckets, fourPerBucket, KnnGroup, type Buckets } from './knn.js';
+import { ringsBbox } from '../geo/area.js';
 
 /** The geometry of a north-up grid (see Grid in src/types.ts). */
 export type GridShape = Pick<Grid, 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>;
@@ -345,22 +346,8 @@ export function sampleNeighbours(xy: Float64Array, k: number, radius = Infinity)
     if (n === 1) out.order[0] = 0;
     return out;
   }
-  let x0 = Infinity,
-    x1 = -Infinity,
-    y0 = Infinity,
-    y1 = -Infinity;
-  for (let i = 0; i < n; i++) {
-    x0 = Math.min(x0, xy[2 * i]);
-    x1 = Math.max(x1, xy[2 * i]);
-    y0 = Math.min(y0, xy[2 * i + 1]);
-    y1 = Math.max(y1, xy[2 * i + 1]);
-  }
-  const w = Math.max(x1 - x0, 1e-6),
-    h = Math.max(y1 - y0, 1e-6);
-  const size = Math.max(Math.sqrt((w * h * 4) / n), 1e-6); // about 4 samples per bucket
-  const nx = Math.max(1, Math.ceil(w / size)),
-    ny = Math.max(1, Math.ceil(h / size));
-  const b = buildBuckets(xy, size, x0, y0, nx, ny);
+  const b = fourPerBucket(xy, ringsBbox([xy]));
+  const { nx, ny } = b;
   const g = new KnnGroup(b, k, radius * radius);
   const ring = Math.max(1, Math.ceil(Math.sqrt(k / 4) / 2 + 0.5));
   let m = 0;

@@ -2,11 +2,10 @@
 import { mkdtempSync, readFileSync, readdirSync, writeFileSync, existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { parse as parseYaml, stringify } from 'yaml';
-import { ROOT, tilth } from '../helpers/cli.js';
-import { requireTool } from '../helpers/tools.js';
+import { quarterBuild, ROOT, tilth } from '../helpers/cli.js';
+import { ogrValid, requireTool } from '../helpers/tools.js';
 
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
 const withPlan = (edit: (p: Record<string, any>) => void) => {
@@ -18,15 +17,7 @@ const withPlan = (edit: (p: Record<string, any>) => void) => {
 describe('tilth build (CLI)', () => {
   const tmp = () => mkdtempSync(join(tmpdir(), 'tilth-build-'));
   const args = (out: string, plan = join(ROOT, 'sample-fields/quarter/plan.yaml')) => [
-    'build',
-    '--samples',
-    'sample-fields/quarter/samples.csv',
-    '--boundary',
-    'sample-fields/quarter/boundary.geojson',
-    '--plan',
-    plan,
-    '--out',
-    out,
+    ...quarterBuild(out, { plan }),
     '--quiet',
   ];
 
@@ -76,21 +67,7 @@ describe('tilth build (CLI)', () => {
     () => {
       const out = join(tmp(), 'rx');
       expect(tilth(args(out)).code).toBe(0);
-      const r = spawnSync(
-        'ogrinfo',
-        [
-          '-ro',
-          '-q',
-          '-dialect',
-          'sqlite',
-          '-sql',
-          'SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM prescription',
-          join(out, 'prescription.geojson'),
-        ],
-        { encoding: 'utf8' },
-      );
-      const n = Number(/n \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
-      const v = Number(/v \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
+      const [n, v] = ogrValid(join(out, 'prescription.geojson'), 'prescription');
       expect(n).toBeGreaterThan(1);
       expect(v).toBe(n);
     },

@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parse as parseYaml, stringify } from 'yaml';
 import { taskDataFiles } from '../../src/io/isoxml/index.js';
-import { ROOT, tilth } from '../helpers/cli.js';
+import { quarterBuild, ROOT, tilth } from '../helpers/cli.js';
 import { sample } from '../helpers/taskdata.js';
 
 const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8');
@@ -18,23 +18,11 @@ const PLAN = readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8')
 describe('the demo build (CLI)', () => {
   it('writes TASKDATA/ and taskdata.zip, and tilth check passes both', () => {
     const out = join(mkdtempSync(join(tmpdir(), 'tilth-demo-td-')), 'out');
-    const b = spawnSync(
-      process.execPath,
-      [
-        join(ROOT, 'bin/tilth.js'),
-        'build',
-        '--samples',
-        'sample-fields/quarter/samples.csv',
-        '--boundary',
-        'sample-fields/quarter/boundary.geojson',
-        '--plan',
-        'sample-fields/quarter/plan.yaml',
-        '--out',
-        out,
-        '--quiet',
-      ],
-      { cwd: ROOT, encoding: 'utf8', timeout: 120_000 },
-    );
+    const b = spawnSync(process.execPath, [join(ROOT, 'bin/tilth.js'), ...quarterBuild(out), '--quiet'], {
+      cwd: ROOT,
+      encoding: 'utf8',
+      timeout: 120_000,
+    });
     expect(b.status).toBe(0);
     expect(readFileSync(join(out, 'TASKDATA', 'TASKDATA.XML'), 'utf8')).toMatch(
       /^<\?xml version="1.0" encoding="UTF-8"\?>\n<ISO11783_TaskData VersionMajor="4"/,
@@ -80,15 +68,7 @@ describe('the demo build (CLI)', () => {
       process.execPath,
       [
         join(ROOT, 'bin/tilth.js'),
-        'build',
-        '--samples',
-        'sample-fields/quarter/samples.csv',
-        '--boundary',
-        'sample-fields/quarter/boundary.geojson',
-        '--plan',
-        join(d, 'plan.yaml'),
-        '--out',
-        join(d, 'out'),
+        ...quarterBuild(join(d, 'out'), { plan: join(d, 'plan.yaml') }),
         '--quiet',
       ],
       { cwd: ROOT, encoding: 'utf8', timeout: 120_000 },

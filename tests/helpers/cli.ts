@@ -25,3 +25,20 @@ export function tilth(
   });
   return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
 }
+
+/**
+ * `tilth build` of the demo quarter (sample-fields/quarter, paths from the repository root) into `out`, with
+ * its own samples and plan unless given; options after it are added by the caller.
+ * @example tilth([...quarterBuild(out), '--quiet']); quarterBuild(out, { plan: 'p.yaml' })
+ */
+export const quarterBuild = (out: string, over: { samples?: string; plan?: string } = {}): string[] => [
+  'build',
+  '--samples',
+  over.samples ?? 'sample-fields/quarter/samples.csv',
+  '--boundary',
+  'sample-fields/quarter/boundary.geojson',
+  '--plan',
+  over.plan ?? 'sample-fields/quarter/plan.yaml',
+  '--out',
+  out,
+];

@@ -44,3 +44,16 @@ export function sh(cmd: string, args: string[]): string {
   if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')}: ${r.stderr}`);
   return r.stdout;
 }
+
+/**
+ * GDAL's verdict on a layer's polygons (ogrinfo, SQLite dialect): [features, features ST_IsValid calls valid].
+ * @example expect(ogrValid('zones.geojson', 'zones')).toEqual([2, 2])
+ */
+export function ogrValid(file: string, layer: string): [number, number] {
+  const out = sh('ogrinfo', [
+    ...['-ro', '-q', '-dialect', 'sqlite', '-sql'],
+    `SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM ${layer}`,
+    file,
+  ]);
+  return [Number(/n \(Integer\) = (\d+)/.exec(out)?.[1]), Number(/v \(Integer\) = (\d+)/.exec(out)?.[1])];
+}

@@ -13,7 +13,7 @@ import { pathToFileURL } from 'node:url';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { parseReportInput, renderReport, type ReportInput } from '../../src/report/index.js';
 import { requireTool } from '../helpers/tools.js';
-import { ROOT, tilth } from '../helpers/cli.js';
+import { quarterBuild, ROOT, tilth } from '../helpers/cli.js';
 import { demoInput } from '../helpers/report-fixture.js';
 
 const CHROMIUM = '/usr/bin/chromium';
@@ -41,19 +41,7 @@ describe.skipIf(!have)('report in Chromium', () => {
 
   beforeAll(async () => {
     mkdirSync(ART, { recursive: true });
-    const b = tilth([
-      'build',
-      '--samples',
-      'sample-fields/quarter/samples.csv',
-      '--boundary',
-      'sample-fields/quarter/boundary.geojson',
-      '--plan',
-      'sample-fields/quarter/plan.yaml',
-      '--out',
-      demoOut,
-      '--force',
-      '--quiet',
-    ]);
+    const b = tilth([...quarterBuild(demoOut), '--force', '--quiet']);
     if (b.code !== 0) throw new Error(`tilth build failed: ${b.stderr}`);
     input = parseReportInput(readFileSync(join(demoOut, 'report-data.json'), 'utf8'));
     geojsonZones = JSON.parse(readFileSync(join(demoOut, 'prescription.geojson'), 'utf8')).features.length;

@@ -3,11 +3,10 @@
  * GEOS (ST_IsValid through OGR's SQLite dialect, the validity check GDAL documents).
  */
 import { describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { requireTool } from '../helpers/tools.js';
+import { ogrValid, requireTool } from '../helpers/tools.js';
 import { projectField } from '../../src/geo/field.js';
 import {
   labelComponents,
@@ -39,26 +38,6 @@ function field() {
     [lon0 + 0.004, lat0 + 0.002],
   ];
   return projectField([[outer, hole]], 'Test quarter');
-}
-
-function ogrValid(file: string): [number, number] {
-  const r = spawnSync(
-    'ogrinfo',
-    [
-      '-ro',
-      '-q',
-      '-dialect',
-      'sqlite',
-      '-sql',
-      'SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM zones',
-      file,
-    ],
-    { encoding: 'utf8' },
-  );
-  expect(r.status, r.stderr).toBe(0);
-  const n = Number(/n \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
-  const v = Number(/v \(Integer\) = (\d+)/.exec(r.stdout)?.[1]);
-  return [n, v];
 }
 
 const fc = (zones: { lonlat: number[][][][] }[]) =>
@@ -106,7 +85,7 @@ describe.skipIf(!requireTool('ogrinfo', 'gdal-bin'))(
         try {
           const file = join(dir, 'zones.geojson');
           writeFileSync(file, fc(zs.zones));
-          const [n, valid] = ogrValid(file);
+          const [n, valid] = ogrValid(file, 'zones');
           expect(n).toBe(zs.zones.length);
           expect(valid).toBe(n);
         } finally {
@@ -141,7 +120,7 @@ describe.skipIf(!requireTool('ogrinfo', 'gdal-bin'))(
       try {
         const file = join(dir, 'zones.geojson');
         writeFileSync(file, fc(zonesAll));
-        const [n, valid] = ogrValid(file);
+        const [n, valid] = ogrValid(file, 'zones');
         expect(n).toBe(zonesAll.length);
         expect(valid).toBe(n);
       } finally {
@@ -169,7 +148,7 @@ describe.skipIf(!requireTool('ogrinfo', 'gdal-bin'))(
       try {
         const file = join(dir, 'zones.geojson');
         writeFileSync(file, fc(zones));
-        expect(ogrValid(file)).toEqual([2, 2]);
+        expect(ogrValid(file, 'zones')).toEqual([2, 2]);
       } finally {
         rmSync(dir, { recursive: true, force: true });
       }

@@ -6,7 +6,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ROOT, tilth } from '../../helpers/cli.js';
+import { ROOT, quarterBuild, tilth } from '../../helpers/cli.js';
 
 const Q = join(ROOT, 'sample-fields', 'quarter');
 const tmp = () => mkdtempSync(join(tmpdir(), 'tilth-refuse-'));
@@ -29,18 +29,7 @@ describe('refusals before any work', () => {
   it('build with no nutrient column: exit 2 naming the fix; inspect: a warning block and exit 0', () => {
     const d = tmp(),
       csv = noNutrientCsv(d);
-    const b = tilth([
-      'build',
-      '--samples',
-      csv,
-      '--boundary',
-      join(Q, 'boundary.geojson'),
-      '--plan',
-      join(Q, 'plan.yaml'),
-      '--out',
-      join(d, 'rx'),
-      '--quiet',
-    ]);
+    const b = tilth([...quarterBuild(join(d, 'rx'), { samples: csv }), '--quiet']);
     expect(b.code, b.stderr).toBe(2);
     expect(b.stderr).toMatch(
       /cannot make a prescription[\s\S]*no usable nitrate-N, P, K or sulphate-S value/,
@@ -110,19 +99,7 @@ describe('refusals before any work', () => {
   });
   it('build --cell below the documented minimum (0.5 m) is refused at once', () => {
     const d = tmp();
-    const r = tilth([
-      'build',
-      '--samples',
-      join(Q, 'samples.csv'),
-      '--boundary',
-      join(Q, 'boundary.geojson'),
-      '--plan',
-      join(Q, 'plan.yaml'),
-      '--out',
-      join(d, 'rx'),
-      '--cell',
-      '0.1',
-    ]);
+    const r = tilth([...quarterBuild(join(d, 'rx')), '--cell', '0.1']);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/--cell: "0\.1" is not a number >= 0\.5/);
   });

@@ -6,7 +6,7 @@ import { mkdtempSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ROOT, tilth } from '../../helpers/cli.js';
+import { ROOT, quarterBuild, tilth } from '../../helpers/cli.js';
 
 const Q = join(ROOT, 'sample-fields', 'quarter');
 const MiB = 1024 * 1024;
@@ -31,22 +31,7 @@ describe('oversized inputs from the CLI', () => {
   it('build: a 60 MiB samples CSV (limit 50 MiB)', () => {
     const csv = sparse('samples.csv', 60 * MiB);
     const out = join(mkdtempSync(join(tmpdir(), 'tilth-size-out-')), 'rx');
-    refused(
-      [
-        'build',
-        '--samples',
-        csv,
-        '--boundary',
-        join(Q, 'boundary.geojson'),
-        '--plan',
-        join(Q, 'plan.yaml'),
-        '--out',
-        out,
-        '--quiet',
-      ],
-      csv,
-      '50 MiB tilth reads from one CSV file',
-    );
+    refused([...quarterBuild(out, { samples: csv }), '--quiet'], csv, '50 MiB tilth reads from one CSV file');
   });
 
   it('inspect: a 120 MiB boundary GeoJSON (limit 100 MiB), a 51 MiB xlsx (limit 50 MiB)', () => {
