@@ -7,7 +7,7 @@ import type { Tables } from '../agronomy/index.js';
 import type { FieldInputs } from '../types.js';
 import { zipFiles } from '../io/zip.js';
 import { renderReport, serializeReportInput } from '../report/index.js';
-import { buildSulphurChance, buildSulphurCharts } from '../variability/index.js';
+import { buildSulphurChance, buildSulphurCharts } from './sulphurCharts.js';
 import type { Prescription } from './types.js';
 import {
   geojsonName,
@@ -18,7 +18,7 @@ import {
   type Provenance,
 } from './outputs.js';
 import { reportInput } from './reportInput.js';
-import { coarsen, displayFactor } from './reportMaps.js';
+import { reportView } from './reportMaps.js';
 import { prescriptionFiles } from './shapefiles.js';
 import { prescriptionTaskDataFiles } from './taskdata.js';
 
@@ -111,14 +111,13 @@ export function prescriptionFolder(
   );
   const ri = reportInput(rx, inputs, tables, opts.provenance, { tablesEdited: opts.tablesEdited, charts });
   // beside the S surface: the chance S is below the crop's low level, from kriging (or why there is none)
-  const factor = displayFactor(rx.grid);
   const chance = buildSulphurChance(
     inputs.samples,
     rx.grid,
     tables.crops[plan.crop],
     sSurf,
     { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours },
-    { ...coarsen(rx.grid, factor), factor },
+    reportView(rx),
   );
   if (chance) ri.chance = [chance];
   files.set('report-data.json', serializeReportInput(ri));

@@ -54,6 +54,10 @@ export interface ReportView {
   grid: { xmin: number; ymax: number; cell: number; cols: number; rows: number };
   pick: (v: ArrayLike<number>) => ArrayLike<number>;
   note: string[] | undefined;
+  /** the display factor (1: full resolution) */
+  factor: number;
+  /** the original cells shown (null: all of them) */
+  cells: Int32Array | null;
 }
 
 /**
@@ -74,7 +78,7 @@ export function reportView(rx: Prescription): ReportView {
           `Shown at ${g.cell} m cells for display: each takes the value of the ${grid.cell} m cell at its centre (nearest); the prescription uses ${grid.cell} m cells.`,
         ]
       : undefined;
-  return { grid: g, pick: view.pick, note };
+  return { grid: g, pick: view.pick, note, factor, cells: view.cells };
 }
 
 /** One map per soil-test surface, P classed by its response classes, the others by quantiles of the cells shown. */

@@ -31,7 +31,6 @@ export * from './charts.js';
 export * from './semivariogramChart.js';
 export * from './sampleMap.js';
 export * from './text.js';
-export * from './report-charts.js';
 export * from './chance.js';
 export * from './lowSpots.js';
 export * from './chanceMap.js';

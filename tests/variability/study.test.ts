@@ -164,7 +164,7 @@ describe('thresholds', () => {
 
 describe('report charts', () => {
   it('the report embeds the variability charts (the same SVG) with captions carrying the findings', async () => {
-    const { variabilityReportCharts } = await import('../../src/variability/index.js');
+    const { variabilityReportCharts } = await import('../../src/prescription/sulphurCharts.js');
     const { renderReport } = await import('../../src/report/index.js');
     const { demoInput } = await import('../helpers/report-fixture.js');
     const { samples, field } = syntheticField();

@@ -2,12 +2,13 @@
  * The variability charts as report entries (src/report's `ReportChart`: title, complete SVG, caption), so the
  * build's report shows the same pictures `tilth variability --out` writes.
  */
-import type { ReportChanceMap, ReportChart, ReportGrid } from '../report/types.js';
+import type { ReportChanceMap, ReportChart } from '../report/types.js';
+import type { ReportView } from './reportMaps.js';
 import type { Field, Grid, Samples } from '../types.js';
-import { chanceBelowMap, chanceSentence, type KrigedSurface } from './chanceMap.js';
-import { analyzeVariability, type VariabilityReport } from './index.js';
-import { sampleMapSvg } from './sampleMap.js';
-import { semivariogramSvg } from './semivariogramChart.js';
+import { chanceBelowMap, chanceSentence, type KrigedSurface } from '../variability/chanceMap.js';
+import { analyzeVariability, type VariabilityReport } from '../variability/index.js';
+import { sampleMapSvg } from '../variability/sampleMap.js';
+import { semivariogramSvg } from '../variability/semivariogramChart.js';
 
 /**
  * The semivariogram and low-spot map of one study, with captions that carry the findings.
@@ -121,16 +122,6 @@ export function buildSulphurCharts(
         }
       : undefined,
   );
-}
-
-/** How the report shows a grid: coarsened by a whole factor for display (src/prescription/reportInput.ts). */
-export interface ReportView {
-  grid: ReportGrid;
-  pick: (v: ArrayLike<number>) => ArrayLike<number>;
-  /** the display factor (1: full resolution) */
-  factor: number;
-  /** the original cells shown (null: all of them) */
-  cells: Int32Array | null;
 }
 
 /**
