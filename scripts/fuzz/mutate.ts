@@ -1,5 +1,6 @@
 /** Mutators of bytes, text and JSON: the careless and the hostile edits a user's files go through. */
 import type { Rng } from './rng.js';
+import { concatBytes } from '../../src/io/zip.js';
 
 /** Values that break naive number handling. */
 export const NASTY_NUMBERS = [
@@ -88,15 +89,7 @@ export function mutateBytes(r: Rng, b: Uint8Array): Uint8Array {
   }
 }
 
-function concat(...parts: Uint8Array[]): Uint8Array {
-  const out = new Uint8Array(parts.reduce((s, p) => s + p.length, 0));
-  let o = 0;
-  for (const p of parts) {
-    out.set(p, o);
-    o += p.length;
-  }
-  return out;
-}
+const concat = (...parts: Uint8Array[]): Uint8Array => concatBytes(parts);
 
 /** One random text edit: a line dropped, duplicated or swapped, a cell or number replaced, a byte edit. */
 export function mutateText(r: Rng, text: string): string {

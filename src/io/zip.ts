@@ -189,11 +189,15 @@ export function readZip(
       { file: label },
     );
   const out: Record<string, Uint8Array> = {};
-  for (const [name, chunks] of parts) out[name] = concat(chunks);
+  for (const [name, chunks] of parts) out[name] = concatBytes(chunks);
   return out;
 }
 
-function concat(chunks: Uint8Array[]): Uint8Array {
+/**
+ * The chunks one after another in one array (a single chunk is returned as it is).
+ * @example concatBytes([Uint8Array.of(1), Uint8Array.of(2, 3)]) // Uint8Array [1, 2, 3]
+ */
+export function concatBytes(chunks: readonly Uint8Array[]): Uint8Array {
   if (chunks.length === 1) return chunks[0]!;
   const out = new Uint8Array(chunks.reduce((s, c) => s + c.length, 0));
   let o = 0;

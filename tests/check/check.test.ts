@@ -20,6 +20,8 @@ import { lengthOption, speedOption } from '../../src/cli/util.js';
 import { isUserError } from '../../src/errors.js';
 
 const { save } = tempDir('tilth-check-');
+/** Options that turn every check on: the field's boundary, a machine range of 40 to 200 and 12 km/h. */
+const EVERY_CHECK = ['--boundary', BOUNDARY, '--min', '40', '--max', '200', '--speed', '12'];
 /**
  * `tilth check ARGS --json`, but in this process (spawning the CLI costs seconds on a shared machine): reads the
  * files the way the command does (src/cli/check.ts loadLayer) and runs the library. Exit 0/1/2 as the CLI.
@@ -80,17 +82,7 @@ describe('hullExtent against brute force', () => {
 
 describe('tilth check on the hand-made prescriptions (GeoJSON)', () => {
   it('passes the good one: hole, MultiPolygon zone, with boundary, machine range and speed', async () => {
-    const { code, report } = await lib([
-      fx('good.geojson'),
-      '--boundary',
-      BOUNDARY,
-      '--min',
-      '40',
-      '--max',
-      '200',
-      '--speed',
-      '12',
-    ]);
+    const { code, report } = await lib([fx('good.geojson'), ...EVERY_CHECK]);
     expect(code).toBe(0);
     expect(report.ok).toBe(true);
     expect(report.lines.filter((l) => l.status !== 'pass')).toEqual([]);
@@ -167,18 +159,7 @@ describe("tilth check on tilth's own shapefile outputs", () => {
       const targets = Object.keys(files).filter((k) => /\.(zip|shp)$/i.test(k));
       expect(targets.length).toBe(4);
       for (const t of targets) {
-        const { code, report } = await lib([
-          join(d, t),
-          '--boundary',
-          BOUNDARY,
-          '--min',
-          '40',
-          '--max',
-          '200',
-          '--speed',
-          '12',
-          '--strict',
-        ]);
+        const { code, report } = await lib([join(d, t), ...EVERY_CHECK, '--strict']);
         expect(report.lines.filter((l) => l.status !== 'pass')).toEqual([]);
         expect(code).toBe(0);
         expect(line(report, 'crs')[0].message).toMatch(crs === 'utm' ? /EPSG:32613/ : /EPSG:4326/);
