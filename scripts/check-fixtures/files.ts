@@ -14,6 +14,9 @@ const COLS: ColumnSpec[] = [
   { key: 'map_lbac', type: 'N', width: 8, decimals: 1 },
 ];
 
+/** The .dbf header's date, fixed so that the fixtures are written byte for byte again. */
+const DATE = new Date(Date.UTC(2026, 0, 15));
+
 /** A shapefile set's files by name. */
 type FileSet = Record<string, Uint8Array>;
 
@@ -33,7 +36,7 @@ export function shapefileCases(): Record<string, FileSet> {
   // the set's own parts (the column list writeShapefile adds beside them is for people)
   const set = (fs: Feature[]) =>
     Object.fromEntries(
-      Object.entries(writeShapefile(fs, COLS, { name: 'rx' })).filter(([k]) =>
+      Object.entries(writeShapefile(fs, COLS, { name: 'rx', date: DATE })).filter(([k]) =>
         /\.(shp|shx|dbf|prj|cpg)$/.test(k),
       ),
     );

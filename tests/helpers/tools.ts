@@ -52,7 +52,7 @@ export function sh(cmd: string, args: string[]): string {
 export function ogrValid(file: string, layer: string): [number, number] {
   const out = sh('ogrinfo', [
     ...['-ro', '-q', '-dialect', 'sqlite', '-sql'],
-    `SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM ${layer}`,
+    `SELECT COUNT(*) AS n, SUM(ST_IsValid(geometry)) AS v FROM "${layer}"`,
     file,
   ]);
   return [Number(/n \(Integer\) = (\d+)/.exec(out)?.[1]), Number(/v \(Integer\) = (\d+)/.exec(out)?.[1])];
