@@ -9,9 +9,14 @@ import { fileURLToPath } from 'node:url';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const only = process.argv[2];
+// modules the benchmarks import, not benchmarks: the shared helpers and the section maker (which wants a folder)
+const NOT_BENCHMARKS = new Set(['bench-lib.mjs', 'bench-section.mjs']);
 const scripts = readdirSync(here)
   .filter(
-    (f) => /^bench-.+\.(mjs|ts)$/.test(f) && (!only || f.replace(/\.(mjs|ts)$/, '') === `bench-${only}`),
+    (f) =>
+      /^bench-.+\.(mjs|ts)$/.test(f) &&
+      !NOT_BENCHMARKS.has(f) &&
+      (!only || f.replace(/\.(mjs|ts)$/, '') === `bench-${only}`),
   )
   .sort();
 if (!scripts.length) {
