@@ -12,20 +12,24 @@ import {
   overlayFailed,
   SLIVER_M2,
   toMetres,
+  lineWriter,
+  type AddLine,
   type CheckContext,
 } from './context.js';
+import type { CheckLine } from './types.js';
 import { polysArea, ringCentroid, type Poly } from './shape.js';
 
 /**
- * Adds the `outside` and `gaps` lines (skipped without `opts.boundary`). Throws UserError for a boundary that
+ * The `outside` and `gaps` lines (skipped without `opts.boundary`). Throws UserError for a boundary that
  * cannot be used.
  * @example
- * checkBoundary(ctx); // a 400 m x 50 m strip in no zone:
- * ctx.lines.at(-1) // { check: 'gaps', status: 'fail', message: '1 part of the field (20011.1 m2, 4.945 ac) ...', zones: ['zone 1', 'zone 2', 'zone 3'] }
+ * checkBoundary(ctx)[1] // a 400 m x 50 m strip in no zone:
+ * // { check: 'gaps', status: 'fail', message: '1 part of the field (20011.1 m2, 4.945 ac) ...', zones: ['zone 1', 'zone 2', 'zone 3'] }
  */
-export function checkBoundary(ctx: CheckContext): void {
+export function checkBoundary(ctx: CheckContext): CheckLine[] {
+  const { lines, add } = lineWriter();
   const bl = ctx.opts.boundary;
-  if (!bl) return skipBoth(ctx, 'no --boundary given');
+  if (!bl) return skipBoth(add, lines, 'no --boundary given');
   const bp = usableFeatures(bl.features).problems.findIndex(Boolean);
   if (bp >= 0)
     throw new UserError(
@@ -34,8 +38,8 @@ export function checkBoundary(ctx: CheckContext): void {
     );
   const bframe = frameOf(bl);
   if (!ctx.work || bframe.kind === 'planar')
-    return skipBoth(ctx, 'the prescription or the boundary has no known coordinate system');
-  if (!ctx.covered) return skipBoth(ctx, 'the zones could not be merged (see overlap)');
+    return skipBoth(add, lines, 'the prescription or the boundary has no known coordinate system');
+  if (!ctx.covered) return skipBoth(add, lines, 'the zones could not be merged (see overlap)');
   try {
     const cov = ctx.covered;
     const bpolys = toMetres(bl.features, bframe, ctx.work, ctx.origin)
@@ -47,21 +51,23 @@ export function checkBoundary(ctx: CheckContext): void {
         { file: bl.label },
       );
     const boundary = clip.union(bpolys[0] as clip.Geom, ...(bpolys.slice(1) as clip.Geom[])) as Poly[];
-    addOutside(ctx, cov, boundary);
-    addGaps(ctx, cov, boundary);
+    addOutside(ctx, add, cov, boundary);
+    addGaps(ctx, add, cov, boundary);
   } catch (e) {
-    if (!ctx.lines.some((l) => l.check === 'outside')) overlayFailed(ctx, 'outside', e, isUserError);
-    overlayFailed(ctx, 'gaps', e, isUserError);
+    if (!lines.some((l) => l.check === 'outside')) overlayFailed(add, 'outside', e, isUserError);
+    overlayFailed(add, 'gaps', e, isUserError);
   }
+  return lines;
 }
 
-function skipBoth(ctx: CheckContext, why: string): void {
-  ctx.add('outside', 'skip', why);
-  ctx.add('gaps', 'skip', why);
+function skipBoth(add: AddLine, lines: CheckLine[], why: string): CheckLine[] {
+  add('outside', 'skip', why);
+  add('gaps', 'skip', why);
+  return lines;
 }
 
 /** `outside`: the zones' parts beyond the boundary, by zone (slivers left out). */
-function addOutside(ctx: CheckContext, cov: Poly[], boundary: Poly[]): void {
+function addOutside(ctx: CheckContext, add: AddLine, cov: Poly[], boundary: Poly[]): void {
   const out: string[] = [],
     outZones: string[] = [];
   const outsideTotal = cov.length
@@ -76,18 +82,18 @@ function addOutside(ctx: CheckContext, cov: Poly[], boundary: Poly[]): void {
         outZones.push(ctx.names[i]);
       }
     });
-  if (out.length) ctx.add('outside', 'fail', `parts outside the boundary: ${list(out, 8)}`, outZones);
-  else ctx.add('outside', 'pass', 'every zone lies inside the boundary');
+  if (out.length) add('outside', 'fail', `parts outside the boundary: ${list(out, 8)}`, outZones);
+  else add('outside', 'pass', 'every zone lies inside the boundary');
 }
 
 /** `gaps`: the parts of the field in no zone, largest first, each with where it lies and the zones beside it. */
-function addGaps(ctx: CheckContext, cov: Poly[], boundary: Poly[]): void {
+function addGaps(ctx: CheckContext, add: AddLine, cov: Poly[], boundary: Poly[]): void {
   const gaps = (cov.length ? clip.difference(boundary as clip.Geom, cov as clip.Geom) : boundary) as Poly[];
   const pieces = gaps
     .map((p) => ({ p, a: polysArea([p]) / ctx.scale }))
     .filter((g) => g.a >= SLIVER_M2 && ctx.significant([g.p], ctx.scale) > 0)
     .sort((a, b) => b.a - a.a);
-  if (!pieces.length) return ctx.add('gaps', 'pass', 'the zones cover the whole field');
+  if (!pieces.length) return add('gaps', 'pass', 'the zones cover the whole field');
   const beside = (p: Poly) =>
     ctx.usable.map((m, i) => (m && boxesMeet(ctx.boxes[i]!, bbox([p])) ? ctx.names[i] : '')).filter(Boolean);
   const where = pieces.slice(0, 5).map(({ p, a }) => {
@@ -100,7 +106,7 @@ function addGaps(ctx: CheckContext, cov: Poly[], boundary: Poly[]): void {
   const near = new Set<string>();
   for (const { p } of pieces)
     ctx.usable.forEach((m, i) => m && boxesMeet(ctx.boxes[i]!, bbox([p])) && near.add(ctx.names[i]));
-  ctx.add(
+  add(
     'gaps',
     'fail',
     `${pieces.length} part${pieces.length > 1 ? 's' : ''} of the field (${fmt(total)} m2, ${fmt(m2ToAc(total), 3)} ac) ${pieces.length > 1 ? 'lie' : 'lies'} in no zone and get the terminal's default rate: ${where.join('; ')}`,

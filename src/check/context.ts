@@ -1,6 +1,7 @@
 /**
- * What every check of `tilth check` shares: the layer, the options, zone names, the working metres frame and
- * the report lines being written. Built once by checkPrescription (./index.ts); each check is one file.
+ * What every check of `tilth check` reads: the layer, the options, zone names and the working metres frame. Built
+ * by checkPrescription (./index.ts); each check is one file whose entry function reads it, changes nothing, and
+ * returns its report lines.
  */
 import type { Feature, MultiPolygon, Polygon, Position } from 'geojson';
 import { utmZone } from '../geo/crs.js';
@@ -29,8 +30,6 @@ export interface CheckContext {
   /** per feature: why its coordinates are unusable ('' when usable) */
   problems: string[];
   names: string[];
-  lines: CheckLine[];
-  add: (check: string, status: CheckStatus, message: string, zones?: string[]) => void;
   /** area of the pieces that matter (slivers and a grid's staircase left out), m2 on the ground */
   significant: (polys: Poly[], scale: number) => number;
   frame: Frame;
@@ -43,10 +42,10 @@ export interface CheckContext {
   /** per feature: its polygons in working metres (null when not a polygon) */
   metres: (Poly[] | null)[];
   groundAreas: number[];
-  /** per feature: its metres when it is a valid polygon, else null (set by the geometry check) */
+  /** per feature: its metres when it is a valid polygon, else null (from the geometry check) */
   usable: (Poly[] | null)[];
   boxes: ([number, number, number, number] | null)[];
-  /** union of the usable zones (set by the overlap check; null when the overlay failed) */
+  /** union of the usable zones (from the overlap check; null when the overlay failed) */
   covered: Poly[] | null;
 }
 
@@ -146,15 +145,30 @@ export const bbox = (polys: Poly[]) => exteriorsBbox(polys);
 export const boxesMeet = (a: number[], b: number[]) =>
   a[0] <= b[2] && b[0] <= a[2] && a[1] <= b[3] && b[1] <= a[3];
 
+/** Adds one report line. */
+export type AddLine = (check: string, status: CheckStatus, message: string, zones?: string[]) => void;
+
+/**
+ * The lines one check writes, and `add` to write one (zones default to none).
+ * @example const { lines, add } = lineWriter(); add('crs', 'pass', 'WGS 84'); lines.length // 1
+ */
+export function lineWriter(): { lines: CheckLine[]; add: AddLine } {
+  const lines: CheckLine[] = [];
+  return {
+    lines,
+    add: (check, status, message, zones = []) => lines.push({ check, status, message, zones }),
+  };
+}
+
 /** When an overlay fails: a warning for the check, never a crash (a UserError still stops the run). */
 export function overlayFailed(
-  ctx: CheckContext,
+  add: AddLine,
   check: string,
   e: unknown,
   isUserError: (e: unknown) => boolean,
 ): void {
   if (isUserError(e)) throw e;
-  ctx.add(
+  add(
     check,
     'warn',
     `not computed: the polygon overlay failed (${(e as Error).message.slice(0, 120)}); inspect the zones in a GIS`,

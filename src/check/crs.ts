@@ -1,14 +1,16 @@
 /** Check `crs`: the layer's coordinate system is known and its coordinates fit it. */
 import { UserError } from '../errors.js';
-import { lonlatLike, type CheckContext } from './context.js';
+import { lineWriter, lonlatLike, type CheckContext } from './context.js';
+import type { CheckLine } from './types.js';
 
 /**
- * Adds the `crs` line. Throws UserError for a layer without a coordinate system when `strict`.
+ * The `crs` line. Throws UserError for a layer without a coordinate system when `strict`.
  * @example
- * checkCrs(ctx); // a GeoJSON naming EPSG:3857 (tests/check/fixtures/crs/in/fail-unknown-crs.geojson):
- * ctx.lines.at(-1) // { check: 'crs', status: 'fail', message: 'coordinate system not recognised (urn:ogc:def:crs:EPSG::3857); ...', zones: [] }
+ * checkCrs(ctx) // a GeoJSON naming EPSG:3857 (tests/check/fixtures/crs/in/fail-unknown-crs.geojson):
+ * // [{ check: 'crs', status: 'fail', message: 'coordinate system not recognised (urn:ogc:def:crs:EPSG::3857); ...', zones: [] }]
  */
-export function checkCrs(ctx: CheckContext): void {
+export function checkCrs(ctx: CheckContext): CheckLine[] {
+  const { lines, add } = lineWriter();
   if (!ctx.layer.crs) {
     if (ctx.opts.strict)
       throw new UserError(
@@ -16,19 +18,19 @@ export function checkCrs(ctx: CheckContext): void {
         { file: ctx.layer.label },
       );
     if (ctx.frame.kind === 'lonlat')
-      ctx.add(
+      add(
         'crs',
         'warn',
         'no .prj: coordinates are in longitude/latitude range and are read as WGS 84 (EPSG:4326); add the .prj before loading it in a terminal',
       );
     else
-      ctx.add(
+      add(
         'crs',
         'fail',
         'no .prj and the coordinates are not longitude/latitude: the coordinate system is unknown; measures below use them as metres',
       );
   } else if (ctx.layer.crs.kind === null) {
-    ctx.add(
+    add(
       'crs',
       'fail',
       `coordinate system not recognised (${ctx.layer.crs.label}); tilth knows WGS 84, NAD83 and NAD83(CSRS) longitude/latitude and UTM` +
@@ -37,7 +39,7 @@ export function checkCrs(ctx: CheckContext): void {
           : '; measures below use the coordinates as metres'),
     );
   } else if (ctx.frame.kind === 'lonlat' && !lonlatLike(ctx.feats)) {
-    ctx.add(
+    add(
       'crs',
       'fail',
       `${ctx.layer.crs.label} declared but coordinates lie outside longitude -180..180 / latitude -90..90`,
@@ -47,6 +49,7 @@ export function checkCrs(ctx: CheckContext): void {
       ctx.layer.crs.datum !== 'WGS84'
         ? ` (${ctx.layer.crs.datum} is used as WGS 84; they differ by 1-2 m)`
         : '';
-    ctx.add('crs', ctx.layer.crs.datum === 'WGS84' ? 'pass' : 'warn', `${ctx.layer.crs.label}${nad}`);
+    add('crs', ctx.layer.crs.datum === 'WGS84' ? 'pass' : 'warn', `${ctx.layer.crs.label}${nad}`);
   }
+  return lines;
 }

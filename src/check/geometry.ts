@@ -2,15 +2,17 @@
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import { booleanValid } from '@turf/boolean-valid';
 import { kinks } from '@turf/kinks';
-import { list, type CheckContext } from './context.js';
+import { lineWriter, list, type CheckContext } from './context.js';
+import type { CheckLine } from './types.js';
 
 /**
- * Adds the `geometry` line; returns, per zone, whether it is a valid polygon.
+ * The `geometry` line, and per zone whether it is a valid polygon.
  * @example
- * checkGeometry(ctx) // [true, true, true, false] for a bow-tie zone 4, and the line:
- * // { check: 'geometry', status: 'fail', message: '1 of 4 zones invalid: zone 4: edges cross themselves (1 crossing, ...)', zones: ['zone 4'] }
+ * checkGeometry(ctx) // a bow-tie zone 4: { valid: [true, true, true, false], lines: [{ check: 'geometry',
+ * // status: 'fail', message: '1 of 4 zones invalid: zone 4: edges cross themselves (1 crossing, ...)', zones: ['zone 4'] }] }
  */
-export function checkGeometry(ctx: CheckContext): boolean[] {
+export function checkGeometry(ctx: CheckContext): { lines: CheckLine[]; valid: boolean[] } {
+  const { lines, add } = lineWriter();
   const bad: string[] = [],
     why: string[] = [];
   const valid = ctx.feats.map((f, i) => {
@@ -42,10 +44,10 @@ export function checkGeometry(ctx: CheckContext): boolean[] {
     }
     return !reason;
   });
-  if (!ctx.feats.length) ctx.add('geometry', 'fail', 'the file holds no zones');
+  if (!ctx.feats.length) add('geometry', 'fail', 'the file holds no zones');
   else if (bad.length)
-    ctx.add('geometry', 'fail', `${bad.length} of ${ctx.feats.length} zones invalid: ${list(why, 6)}`, bad);
-  else ctx.add('geometry', 'pass', `${ctx.feats.length} zones, all valid polygons`);
+    add('geometry', 'fail', `${bad.length} of ${ctx.feats.length} zones invalid: ${list(why, 6)}`, bad);
+  else add('geometry', 'pass', `${ctx.feats.length} zones, all valid polygons`);
 
-  return valid;
+  return { lines, valid };
 }

@@ -1,8 +1,8 @@
 /**
  * checkPrescription: will this prescription load and apply what the agronomist meant?
  * One line per check (pass / warn / fail / skip) with the zones involved. Pure: layers in, report out.
- * Each check is one file here with one entry function that reads the shared context (./context.ts) and adds its
- * lines; its passing and failing cases are tests/check/fixtures/<file>/ (README there).
+ * Each check is one file here with one entry function that reads the shared context (./context.ts) and returns
+ * its lines; its passing and failing cases are tests/check/fixtures/<file>/ (README there).
  */
 import type { CheckLayer } from './layer.js';
 import { polysArea } from './shape.js';
@@ -59,8 +59,6 @@ export function checkPrescription(rawLayer: CheckLayer, opts: CheckOptions = {})
     feats: layer.features,
     problems,
     names: zoneNames(layer),
-    lines,
-    add: (check, status, message, zones = []) => lines.push({ check, status, message, zones }),
     // a grid follows the boundary only to a cell: pieces thinner on average than a cell are its staircase
     significant: significantWith(Math.max(SLIVER_WIDTH_M, layer.resolutionM ?? 0)),
     frame,
@@ -73,14 +71,19 @@ export function checkPrescription(rawLayer: CheckLayer, opts: CheckOptions = {})
     boxes: [],
     covered: null,
   };
-  checkCrs(ctx);
-  const valid = checkGeometry(ctx);
-  ctx.usable = metres.map((m, i) => (valid[i] && m ? m : null));
+  lines.push(...checkCrs(ctx));
+  const geometry = checkGeometry(ctx);
+  lines.push(...geometry.lines);
+  ctx.usable = metres.map((m, i) => (geometry.valid[i] && m ? m : null));
   ctx.boxes = ctx.usable.map((m) => (m ? bbox(m) : null));
-  checkOverlap(ctx);
-  checkBoundary(ctx);
-  const { rateFields, rates } = checkRates(ctx);
-  checkZoneSize(ctx);
-  const totals = rateTotals(ctx, rateFields, rates);
+  const overlap = checkOverlap(ctx);
+  lines.push(...overlap.lines);
+  ctx.covered = overlap.covered;
+  lines.push(...checkBoundary(ctx));
+  const { lines: rateLines, rateFields, rates } = checkRates(ctx);
+  lines.push(...rateLines);
+  lines.push(...checkZoneSize(ctx));
+  const { lines: totalLines, totals } = rateTotals(ctx, rateFields, rates);
+  lines.push(...totalLines);
   return { file: layer.label, ok: !lines.some((l) => l.status === 'fail'), lines, totals };
 }

@@ -4,22 +4,23 @@
  */
 import * as clip from 'polyclip-ts';
 import { isUserError } from '../errors.js';
-import { boxesMeet, fmt, list, overlayFailed, SLIVER_M2, type CheckContext } from './context.js';
+import { boxesMeet, fmt, lineWriter, list, overlayFailed, SLIVER_M2, type CheckContext } from './context.js';
+import type { CheckLine } from './types.js';
 import { polysArea, type Poly } from './shape.js';
 
 /**
- * Adds the `overlap` line and sets `ctx.covered`, the union of the usable zones.
+ * The `overlap` line, and the union of the usable zones (null when the overlay failed).
  * @example
- * checkOverlap(ctx); // zone 3 reaching 50 m into zone 2:
- * ctx.lines.at(-1) // { check: 'overlap', status: 'fail', message: 'zones overlap, ...: zone 2 & zone 3 (20011.1 m2)', zones: ['zone 2', 'zone 3'] }
+ * checkOverlap(ctx).lines // zone 3 reaching 50 m into zone 2:
+ * // [{ check: 'overlap', status: 'fail', message: 'zones overlap, ...: zone 2 & zone 3 (20011.1 m2)', zones: ['zone 2', 'zone 3'] }]
  */
-export function checkOverlap(ctx: CheckContext): void {
+export function checkOverlap(ctx: CheckContext): { lines: CheckLine[]; covered: Poly[] | null } {
+  const { lines, add } = lineWriter();
+  let covered: Poly[] | null = null;
   const ok = ctx.usable.filter((m): m is Poly[] => !!m);
   try {
-    ctx.covered = ok.length
-      ? (clip.union(ok[0] as clip.Geom, ...(ok.slice(1) as clip.Geom[])) as Poly[])
-      : [];
-    const overlapTotal = ok.reduce((s, m) => s + polysArea(m), 0) - polysArea(ctx.covered);
+    covered = ok.length ? (clip.union(ok[0] as clip.Geom, ...(ok.slice(1) as clip.Geom[])) as Poly[]) : [];
+    const overlapTotal = ok.reduce((s, m) => s + polysArea(m), 0) - polysArea(covered);
     const pairs: string[] = [],
       overlapZones = new Set<string>();
     if (overlapTotal >= SLIVER_M2)
@@ -37,11 +38,12 @@ export function checkOverlap(ctx: CheckContext): void {
           }
         }
     if (pairs.length)
-      ctx.add('overlap', 'fail', `zones overlap, the controller would pick one rate: ${list(pairs, 8)}`, [
+      add('overlap', 'fail', `zones overlap, the controller would pick one rate: ${list(pairs, 8)}`, [
         ...overlapZones,
       ]);
-    else ctx.add('overlap', 'pass', 'no zones overlap');
+    else add('overlap', 'pass', 'no zones overlap');
   } catch (e) {
-    overlayFailed(ctx, 'overlap', e, isUserError);
+    overlayFailed(add, 'overlap', e, isUserError);
   }
+  return { lines, covered };
 }

@@ -1,32 +1,37 @@
 /** Checks `rate_field`, `rate_range` and `total`: the rate columns, the machine's range and product totals. */
 import { UserError } from '../errors.js';
 import { m2ToAc, m2ToHa } from '../units/index.js';
-import { fmt, list, UNIT_SUFFIX, type CheckContext } from './context.js';
-import type { CheckOptions, CheckStatus, RateTotal } from './types.js';
+import { fmt, lineWriter, list, UNIT_SUFFIX, type AddLine, type CheckContext } from './context.js';
+import type { CheckLine, CheckOptions, RateTotal } from './types.js';
 import type { CheckLayer } from './layer.js';
 
 /**
- * Adds the `rate_field` and `rate_range` lines; returns the rate columns and their values per zone (null =
- * blank) for {@link rateTotals}, whose `total` lines close the report. Throws UserError for a rate written as text.
+ * The `rate_field` and `rate_range` lines, and the rate columns with their values per zone (null = blank) for
+ * {@link rateTotals}, whose `total` lines close the report. Throws UserError for a rate written as text.
  * @example
- * const { rateFields, rates } = checkRates(ctx); // with { rateField: 'urea_lbac', min: 100, max: 150 }:
- * ctx.lines.at(-1) // { check: 'rate_range', status: 'fail', message: '"urea_lbac" outside ... below: zone 3 (90); above: zone 4 (170)', zones: ['zone 3', 'zone 4'] }
+ * checkRates(ctx).lines.at(-1) // with { rateField: 'urea_lbac', min: 100, max: 150 }:
+ * // { check: 'rate_range', status: 'fail', message: '"urea_lbac" outside ... below: zone 3 (90); above: zone 4 (170)', zones: ['zone 3', 'zone 4'] }
  */
 export function checkRates(ctx: CheckContext): {
+  lines: CheckLine[];
   rateFields: string[];
   rates: Record<string, (number | null)[]>;
 } {
-  const found = checkRateFields(ctx);
-  checkRateRange(ctx, found.rateFields, found.rates);
-  return found;
+  const { lines, add } = lineWriter();
+  const found = checkRateFields(ctx, add);
+  checkRateRange(ctx, add, found.rateFields, found.rates);
+  return { lines, ...found };
 }
 
 /** Adds the `rate_field` lines; returns the rate columns and their values per zone (null = blank). */
-function checkRateFields(ctx: CheckContext): {
+function checkRateFields(
+  ctx: CheckContext,
+  add: AddLine,
+): {
   rateFields: string[];
   rates: Record<string, (number | null)[]>;
 } {
-  const rateFields = pickRateFields(ctx.layer, ctx.opts, ctx.add);
+  const rateFields = pickRateFields(ctx.layer, ctx.opts, add);
   const rates: Record<string, (number | null)[]> = {};
   for (const rf of rateFields) {
     const field = ctx.layer.fields.find((x) => x.name === rf)!;
@@ -44,13 +49,13 @@ function checkRateFields(ctx: CheckContext): {
   for (const rf of rateFields) {
     const missing = rates[rf].map((v, i) => (v === null ? ctx.names[i] : '')).filter(Boolean);
     if (missing.length)
-      ctx.add(
+      add(
         'rate_field',
         'fail',
         `"${rf}": ${missing.length} zone${missing.length > 1 ? 's have' : ' has'} no rate: ${list(missing)}`,
         missing,
       );
-    else ctx.add('rate_field', 'pass', `"${rf}" is numeric in every zone`);
+    else add('rate_field', 'pass', `"${rf}" is numeric in every zone`);
   }
 
   return { rateFields, rates };
@@ -59,11 +64,12 @@ function checkRateFields(ctx: CheckContext): {
 /** Adds the `rate_range` lines: rates above 0 below the machine's lowest, above its highest, or negative fail. */
 function checkRateRange(
   ctx: CheckContext,
+  add: AddLine,
   rateFields: string[],
   rates: Record<string, (number | null)[]>,
 ): void {
   if (ctx.opts.min === undefined && ctx.opts.max === undefined)
-    ctx.add('rate_range', 'skip', 'no --min or --max given');
+    add('rate_range', 'skip', 'no --min or --max given');
   else
     for (const rf of rateFields) {
       const low: string[] = [],
@@ -76,14 +82,14 @@ function checkRateRange(
       });
       const zones = [...low, ...high].map((s) => s.replace(/ \(.*$/, ''));
       if (low.length || high.length) {
-        ctx.add(
+        add(
           'rate_range',
           'fail',
           `"${rf}" outside the machine's ${ctx.opts.min ?? '-'} to ${ctx.opts.max ?? '-'}: ${[low.length ? `below: ${list(low)}` : '', high.length ? `above: ${list(high)}` : ''].filter(Boolean).join('; ')}`,
           zones,
         );
       } else
-        ctx.add(
+        add(
           'rate_range',
           'pass',
           `"${rf}" within ${ctx.opts.min ?? '-'} to ${ctx.opts.max ?? '-'} (0 = off)`,
@@ -92,14 +98,15 @@ function checkRateRange(
 }
 
 /**
- * Adds a `total` line per rate column and returns the totals (product = rate x ground area).
- * @example rateTotals(ctx, rateFields, rates) // [{ field: 'urea_lbac', unit: 'lb/ac', total: 18716.3, totalUnit: 'lb', areaAc: 158.24 }, ...]
+ * A `total` line per rate column, and the totals (product = rate x ground area).
+ * @example rateTotals(ctx, rateFields, rates).totals // [{ field: 'urea_lbac', unit: 'lb/ac', total: 18716.3, totalUnit: 'lb', areaAc: 158.24 }, ...]
  */
 export function rateTotals(
   ctx: CheckContext,
   rateFields: string[],
   rates: Record<string, (number | null)[]>,
-): RateTotal[] {
+): { lines: CheckLine[]; totals: RateTotal[] } {
+  const { lines, add } = lineWriter();
   const totals: RateTotal[] = [];
   const areaAc = m2ToAc(ctx.groundAreas.reduce((s, a) => s + a, 0));
   for (const rf of rateFields) {
@@ -116,20 +123,16 @@ export function rateTotals(
       areaAc,
     };
     totals.push(t);
-    ctx.add(
+    add(
       'total',
       ctx.work ? 'pass' : 'warn',
       `"${rf}": ${fmt(total, 0)} ${t.totalUnit} over ${fmt(areaAc, 2)} ac${u ? '' : ' (unit not known from the column name)'}${ctx.work ? '' : ' (areas in file units: coordinate system unknown)'}`,
     );
   }
-  return totals;
+  return { lines, totals };
 }
 
-function pickRateFields(
-  layer: CheckLayer,
-  opts: CheckOptions,
-  add: (c: string, s: CheckStatus, m: string, z?: string[]) => void,
-): string[] {
+function pickRateFields(layer: CheckLayer, opts: CheckOptions, add: AddLine): string[] {
   const all = layer.fields.map((f) => f.name);
   if (opts.rateField) {
     const f = layer.fields.find((x) => x.name.toLowerCase() === opts.rateField!.toLowerCase());
