@@ -10,7 +10,7 @@
  */
 import { mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { boundary, fc, ll, rect, utm, zones } from './check-fixtures/field.js';
+import { boundary, cw, fc, ll, rect, utm, zones } from './check-fixtures/field.js';
 import { shapefileCases, taskDataCases } from './check-fixtures/files.js';
 
 const ROOT = join(import.meta.dirname, '..', 'tests');
@@ -85,6 +85,20 @@ const GEOJSON: Record<string, Record<string, object>> = {
               [200, 300],
               [100, 300],
             ],
+          ],
+        ],
+      }),
+    ),
+    // zone 1's hole lies outside its ring (in zone 2's north part); zone 4, the island, is then inside zone 1
+    'fail-hole-outside': fc(
+      zones({
+        1: [
+          [
+            rect(0, 0, 400, 800, [
+              [400, 300],
+              [400, 600],
+            ]),
+            cw(rect(500, 650, 550, 700)),
           ],
         ],
       }),

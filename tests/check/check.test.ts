@@ -4,6 +4,7 @@
  * tests/check/fixtures/ (invented field, written by scripts/make-check-fixtures.ts); binary broken sets are made
  * here. Each check's pass and fail cases, compared with expected findings, are in fixtures.test.ts.
  */
+import { holeOutside } from '../../src/check/geometry.js';
 import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import fc from 'fast-check';
@@ -260,5 +261,38 @@ describe('checkPrescription (library)', () => {
     const r = checkPrescription(layer, { boundary });
     expect(r.lines.filter((l) => l.status === 'fail' || l.status === 'warn')).toEqual([]);
     expect(r.ok).toBe(true);
+  });
+});
+
+describe('holeOutside (the hole test turf booleanValid leaves out)', () => {
+  const ext = [
+    [0, 0],
+    [4, 0],
+    [4, 4],
+    [0, 4],
+    [0, 0],
+  ];
+  it('finds a hole outside its ring, passes one inside and one touching the ring at a vertex (OGC allows it)', () => {
+    const inside = [
+      [1, 1],
+      [1, 2],
+      [2, 2],
+      [1, 1],
+    ];
+    const touching = [
+      [4, 2],
+      [3, 1],
+      [3, 3],
+      [4, 2],
+    ];
+    const outside = [
+      [5, 1],
+      [5, 2],
+      [6, 2],
+      [5, 1],
+    ];
+    expect(holeOutside([[ext, inside]])).toBeNull();
+    expect(holeOutside([[ext, touching]])).toBeNull();
+    expect(holeOutside([[ext], [ext, inside, outside]])).toEqual({ part: 2, hole: 2 });
   });
 });
