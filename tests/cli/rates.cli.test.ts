@@ -11,7 +11,8 @@ describe('tilth plan / rates / tables', () => {
   it('plan init writes a commented plan that rates then uses; text and --json', () => {
     const init = tilth(['plan', 'init', '--crop', 'canola']);
     expect(init.code).toBe(0);
-    expect(init.stdout).toContain('CAUTION');
+    expect(init.stdout).toContain('# Caution: tilth computes suggestions');
+    expect(init.stdout).toContain('licensed agronomist or certified crop adviser');
     const plan = join(dir, 'plan.yaml');
     writeFileSync(plan, init.stdout);
     expect(tilth(['plan', 'check', '--plan', plan]).code).toBe(0);
