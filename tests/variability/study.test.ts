@@ -116,31 +116,25 @@ describe('text and map with a surface', () => {
       mask: new Uint8Array([1, 1, 1, 1, 1, 0]),
       fraction: new Float32Array(6).fill(1),
     };
-    const svg = sampleMapSvg({
-      parts: [{ exterior: new Float64Array([0, 0, 30, 0, 30, 20, 0, 20, 0, 0]), holes: [] }],
-      xy: new Float64Array([5, 5]),
-      values: [1],
-      ids: ['A'],
-      label: 'x',
-      unit: 'u',
-      threshold: null,
-      surface: { grid, values: [1, 1, 1, 1, 9, 9] },
-    });
+    // one sample on a 30 m x 20 m field, with the given surface
+    const mapWith = (surface: Parameters<typeof sampleMapSvg>[0]['surface']) =>
+      sampleMapSvg({
+        parts: [{ exterior: new Float64Array([0, 0, 30, 0, 30, 20, 0, 20, 0, 0]), holes: [] }],
+        xy: new Float64Array([5, 5]),
+        values: [1],
+        ids: ['A'],
+        label: 'x',
+        unit: 'u',
+        threshold: null,
+        surface,
+      });
+    const svg = mapWith({ grid, values: [1, 1, 1, 1, 9, 9] });
     expect((svg.match(/<image class="raster"/g) ?? []).length).toBe(1);
     expect(svg).toContain('clip-path="url(#sample-map-clip)"');
     expect(svg).not.toContain('drawn at');
     // 0.01 m cells on a 30 m field (about 23 px per metre): 3000 x 2000 cells shown at 0.05 m
     const fine = { ...grid, cell: 0.01, cols: 3000, rows: 2000, mask: new Uint8Array(6e6).fill(1) };
-    const coarse = sampleMapSvg({
-      parts: [{ exterior: new Float64Array([0, 0, 30, 0, 30, 20, 0, 20, 0, 0]), holes: [] }],
-      xy: new Float64Array([5, 5]),
-      values: [1],
-      ids: ['A'],
-      label: 'x',
-      unit: 'u',
-      threshold: null,
-      surface: { grid: fine, values: new Float32Array(6e6).fill(3) },
-    });
+    const coarse = mapWith({ grid: fine, values: new Float32Array(6e6).fill(3) });
     expect(coarse).toContain('interpolated (IDW), drawn at 0.05 m cells');
   });
 });
