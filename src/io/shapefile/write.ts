@@ -6,7 +6,7 @@ import { csvCell } from '../csv-escape.js';
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import type { UtmZone } from '../../types.js';
 import { projector, utmZoneFor } from '../../geo/utm.js';
-import { exteriorsBbox, ringArea } from '../../geo/area.js';
+import { exteriorsBbox, orient } from '../../geo/area.js';
 import { encodePolygons, type ShpPolygon } from './shp.js';
 import { encodeDbf, type DbfField } from './dbf.js';
 import { prjText } from '../../geo/crs.js';
@@ -83,16 +83,7 @@ function polygonsOf(f: Feature, i: number): number[][][][] {
 function shpRing(flat: number[], cw: boolean): Float64Array {
   const n = flat.length;
   const closed = flat[0] === flat[n - 2] && flat[1] === flat[n - 1];
-  const r = new Float64Array(closed ? flat : [...flat, flat[0], flat[1]]);
-  const a = ringArea(r);
-  if (a === 0 || a < 0 === cw) return r;
-  const m = r.length >> 1,
-    out = new Float64Array(r.length);
-  for (let k = 0; k < m; k++) {
-    out[2 * k] = r[2 * (m - 1 - k)];
-    out[2 * k + 1] = r[2 * (m - 1 - k) + 1];
-  }
-  return out;
+  return orient(new Float64Array(closed ? flat : [...flat, flat[0], flat[1]]), !cw);
 }
 
 /**
