@@ -3,7 +3,7 @@
  * and a label at a point well inside its largest part.
  */
 import polylabel from 'polylabel';
-import { ringArea } from '../geo/area.js';
+import { ringArea, ringsBbox } from '../geo/area.js';
 import { esc } from '../draw/escape.js';
 import { type Frame, geoGroup, makeFrame, partsBbox, partsPath, px, py } from '../draw/frame.js';
 import type { ReportInput, ReportPart, ReportZone } from './types.js';
@@ -22,16 +22,7 @@ function ringPairs(r: ArrayLike<number>): [number, number][] {
  */
 export function labelPoint(part: ReportPart): [number, number] {
   const rings = [part.exterior, ...part.holes].map(ringPairs);
-  let xmin = Infinity,
-    ymin = Infinity,
-    xmax = -Infinity,
-    ymax = -Infinity;
-  for (const [x, y] of rings[0]!) {
-    xmin = Math.min(xmin, x);
-    xmax = Math.max(xmax, x);
-    ymin = Math.min(ymin, y);
-    ymax = Math.max(ymax, y);
-  }
+  const [xmin, ymin, xmax, ymax] = ringsBbox([part.exterior]);
   const size = Math.max(xmax - xmin, ymax - ymin);
   if (!(size > 0)) return rings[0]!.length ? rings[0]![0]! : [0, 0];
   const [x, y] = polylabel(rings, size / 500);

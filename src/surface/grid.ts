@@ -3,6 +3,7 @@
  * and each cell's exact share of area inside the boundary (signed-area accumulation).
  * See docs/surface.md for why these are hand-written.
  */
+import { ringsBbox } from '../geo/area.js';
 import { UserError } from '../errors.js';
 import type { Field, Grid, RingsPart } from '../types.js';
 
@@ -69,20 +70,7 @@ export function fieldGrid(
 }
 
 function bboxOf(parts: RingsPart[]): [number, number, number, number] {
-  let x0 = Infinity,
-    y0 = Infinity,
-    x1 = -Infinity,
-    y1 = -Infinity;
-  for (const p of parts)
-    for (const r of [p.exterior, ...p.holes]) {
-      for (let i = 0; i < r.length; i += 2) {
-        x0 = Math.min(x0, r[i]);
-        x1 = Math.max(x1, r[i]);
-        y0 = Math.min(y0, r[i + 1]);
-        y1 = Math.max(y1, r[i + 1]);
-      }
-    }
-  return [x0, y0, x1, y1];
+  return ringsBbox(parts.flatMap((p) => [p.exterior, ...p.holes]));
 }
 
 /**

@@ -2,6 +2,7 @@
  * Which parts of a boundary the samples say something about: a part farther than a set distance from every
  * sample (another field in the file, or a part left unsampled) gets no rates from them. Pure.
  */
+import { ringsBbox } from '../geo/area.js';
 import type { RingsPart } from '../types.js';
 
 /**
@@ -23,16 +24,7 @@ export function farParts(
 ): number[] {
   const far: number[] = [];
   parts.forEach((p, k) => {
-    let x0 = Infinity,
-      y0 = Infinity,
-      x1 = -Infinity,
-      y1 = -Infinity;
-    for (let i = 0; i < p.exterior.length; i += 2) {
-      x0 = Math.min(x0, p.exterior[i]!);
-      x1 = Math.max(x1, p.exterior[i]!);
-      y0 = Math.min(y0, p.exterior[i + 1]!);
-      y1 = Math.max(y1, p.exterior[i + 1]!);
-    }
+    const [x0, y0, x1, y1] = ringsBbox([p.exterior]);
     let near = false;
     for (let i = 0; i < xy.length && !near; i += 2) {
       const dx = Math.max(x0 - xy[i]!, 0, xy[i]! - x1),

@@ -2,6 +2,7 @@
  * Work budgets and option checks made before the work starts, so a command either finishes in reasonable time
  * and memory or refuses at once, naming the option value that fits. Numbers: docs/reliability.md.
  */
+import { ringsBbox } from '../../geo/area.js';
 import { UserError } from '../../errors.js';
 import type { Field, RingsPart } from '../../types.js';
 
@@ -73,16 +74,7 @@ export function checkLags(xy: Float64Array, cutoff: number | undefined, width: n
       `${fmt(n)} samples make ${fmt(Math.round((n * (n - 1)) / 2))} pairs, more than the ${fmt(MAX_PAIRS)} a semivariogram compares. Fix: use a subset of the samples.`,
     );
   if (width === undefined) return;
-  let x0 = Infinity,
-    y0 = Infinity,
-    x1 = -Infinity,
-    y1 = -Infinity;
-  for (let i = 0; i < n; i++) {
-    x0 = Math.min(x0, xy[2 * i]!);
-    x1 = Math.max(x1, xy[2 * i]!);
-    y0 = Math.min(y0, xy[2 * i + 1]!);
-    y1 = Math.max(y1, xy[2 * i + 1]!);
-  }
+  const [x0, y0, x1, y1] = ringsBbox([xy]);
   const c = cutoff ?? Math.hypot(x1 - x0, y1 - y0) / 3;
   if (c / width > MAX_LAGS) {
     throw new UserError(

@@ -3,6 +3,7 @@
  * needs, every sample at one place, a boundary part far from every sample. Commands that compute rates or maps
  * refuse them; `tilth inspect` shows them as a warning block and exits 0. Pure.
  */
+import { ringsBbox } from '../../geo/area.js';
 import type { Plan } from '../../agronomy/index.js';
 import type { Analyte, FieldInputs } from '../../types.js';
 import { farParts, MAX_UNSAMPLED_DISTANCE_M } from './budgets.js';
@@ -65,16 +66,7 @@ export function readinessProblems(
   }
   out.push(...implausibleValues(inputs.samples));
   const xy = inputs.samples.xy;
-  let x0 = Infinity,
-    y0 = Infinity,
-    x1 = -Infinity,
-    y1 = -Infinity;
-  for (let i = 0; i < xy.length; i += 2) {
-    x0 = Math.min(x0, xy[i]!);
-    x1 = Math.max(x1, xy[i]!);
-    y0 = Math.min(y0, xy[i + 1]!);
-    y1 = Math.max(y1, xy[i + 1]!);
-  }
+  const [x0, y0, x1, y1] = ringsBbox([xy]);
   if (xy.length >= 4 && !inputs.zones && Math.hypot(x1 - x0, y1 - y0) <= ONE_PLACE_M) {
     out.push(
       `${samplesFile}: all ${xy.length / 2} samples lie within ${ONE_PLACE_M} m of one place; they cannot show how the field varies. Fix: check the coordinates (copied from one row?).`,
