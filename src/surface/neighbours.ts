@@ -73,18 +73,7 @@ interface Layout {
 function layout(xy: Float64Array, grid: GridShape, k: number, radius: number): Layout {
   const n = xy.length >> 1;
   const { cols, rows, cell, xmin, ymax } = grid;
-  let sxmin = Infinity,
-    sxmax = -Infinity,
-    symin = Infinity,
-    symax = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const x = xy[2 * i],
-      y = xy[2 * i + 1];
-    if (x < sxmin) sxmin = x;
-    if (x > sxmax) sxmax = x;
-    if (y < symin) symin = y;
-    if (y > symax) symax = y;
-  }
+  const [sxmin, symin, sxmax, symax] = ringsBbox([xy]);
   const gw = cols * cell,
     gh = rows * cell;
   const ux0 = Math.min(sxmin, xmin),
