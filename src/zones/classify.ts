@@ -187,19 +187,27 @@ export function classifyVectors(
   const valid = validCells(dims, weights);
   const classOf = new Int16Array(n).fill(-1);
   if (valid.length === 0) return { classOf, count: 0, mean: [], value: [], weight: [] };
-  const z = standardized(dims, valid, weights);
+  const { mu, sd } = standardization(dims, valid, weights);
+  const z: Standardized = (i, j) => (dims[j][i] - mu[j]) / sd[j];
   const rnd = mulberry32(opts.seed ?? 1);
   const m = Math.min(valid.length, opts.sample ?? 20000);
   const sample: number[] = [];
   if (m === valid.length) sample.push(...valid);
   else for (let t = 0; t < m; t++) sample.push(valid[Math.floor(rnd() * valid.length)]);
   const cent = kmeansPlusPlus(sample, z, d, k, rnd);
+  lloyd(sampleVectors(sample, z, d), d, cent, opts.maxIter ?? 50);
+  // cell i standardized once, then compared with every centre (the same arithmetic as z(i, j) per centre)
+  const zi = new Float64Array(d),
+    kc = cent.length,
+    cf = new Float64Array(kc * d);
+  cent.forEach((c, ci) => cf.set(c, ci * d));
   const nearest = (i: number) => {
+    for (let j = 0; j < d; j++) zi[j] = (dims[j][i] - mu[j]) / sd[j];
     let best = Infinity,
       arg = 0;
-    for (let c = 0; c < cent.length; c++) {
+    for (let c = 0; c < kc; c++) {
       let dd = 0;
-      for (let j = 0; j < d; j++) dd += (z(i, j) - cent[c][j]) ** 2;
+      for (let j = 0; j < d; j++) dd += (zi[j] - cf[c * d + j]) ** 2;
       if (dd < best) {
         best = dd;
         arg = c;
@@ -207,7 +215,6 @@ export function classifyVectors(
     }
     return arg;
   };
-  lloyd(sample, z, d, cent, nearest, opts.maxIter ?? 50);
   return vectorClasses(dims, valid, weights, cent, nearest, classOf, opts.steps);
 }
 
@@ -232,12 +239,12 @@ function validCells(dims: ArrayLike<number>[], weights: ArrayLike<number> | unde
 
 type Standardized = (i: number, j: number) => number;
 
-/** z(i, j): cell i's value of dimension j, centred on its weighted mean and divided by its weighted sd. */
-function standardized(
+/** Weighted mean and standard deviation (1 where it is 0) of each dimension over the valid cells. */
+function standardization(
   dims: ArrayLike<number>[],
   valid: Int32Array,
   weights: ArrayLike<number> | undefined,
-): Standardized {
+): { mu: Float64Array; sd: Float64Array } {
   const d = dims.length;
   const mu = new Float64Array(d),
     sd = new Float64Array(d);
@@ -256,7 +263,7 @@ function standardized(
     sd[j] = Math.sqrt(sd[j] / tw);
     if (!(sd[j] > 0)) sd[j] = 1;
   }
-  return (i, j) => (dims[j][i] - mu[j]) / sd[j];
+  return { mu, sd };
 }
 
 /** k-means++ start: the first centre at random, each next one drawn with probability by squared distance. */
@@ -296,20 +303,26 @@ function kmeansPlusPlus(
 }
 
 /** Lloyd iterations on the sample, moving `cent` in place until the centres move less than 1e-9 in all. */
-function lloyd(
-  sample: number[],
-  z: Standardized,
-  d: number,
-  cent: Float64Array[],
-  nearest: (i: number) => number,
-  maxIter: number,
-): void {
+function lloyd(zs: Float64Array, d: number, cent: Float64Array[], maxIter: number): void {
+  const m = zs.length / d;
+  const acc = cent.map(() => new Float64Array(d + 1));
   for (let it = 0; it < maxIter; it++) {
-    const acc = cent.map(() => new Float64Array(d + 1));
-    for (const i of sample) {
-      const c = nearest(i);
-      for (let j = 0; j < d; j++) acc[c][j] += z(i, j);
-      acc[c][d] += 1;
+    for (const a of acc) a.fill(0);
+    for (let s = 0; s < m; s++) {
+      const o = s * d;
+      let best = Infinity,
+        arg = 0;
+      for (let c = 0; c < cent.length; c++) {
+        let dd = 0;
+        for (let j = 0; j < d; j++) dd += (zs[o + j] - cent[c][j]) ** 2;
+        if (dd < best) {
+          best = dd;
+          arg = c;
+        }
+      }
+      const a = acc[arg];
+      for (let j = 0; j < d; j++) a[j] += zs[o + j];
+      a[d] += 1;
     }
     let moved = 0;
     for (let c = 0; c < cent.length; c++) {
@@ -322,6 +335,13 @@ function lloyd(
     }
     if (moved < 1e-9) break;
   }
+}
+
+/** The sample cells' standardized vectors, row by row (cell s's dimension j at s * d + j). */
+function sampleVectors(sample: number[], z: Standardized, d: number): Float64Array {
+  const zs = new Float64Array(sample.length * d);
+  for (let s = 0; s < sample.length; s++) for (let j = 0; j < d; j++) zs[s * d + j] = z(sample[s], j);
+  return zs;
 }
 
 /**
