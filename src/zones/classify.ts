@@ -194,8 +194,9 @@ export function classifyVectors(
   const sample: number[] = [];
   if (m === valid.length) sample.push(...valid);
   else for (let t = 0; t < m; t++) sample.push(valid[Math.floor(rnd() * valid.length)]);
-  const cent = kmeansPlusPlus(sample, z, d, k, rnd);
-  lloyd(sampleVectors(sample, z, d), d, cent, opts.maxIter ?? 50);
+  const zs = sampleVectors(sample, z, d);
+  const cent = kmeansPlusPlus(zs, d, k, rnd);
+  lloyd(zs, d, cent, opts.maxIter ?? 50);
   // cell i standardized once, then compared with every centre (the same arithmetic as z(i, j) per centre)
   const zi = new Float64Array(d),
     kc = cent.length,
@@ -267,37 +268,31 @@ function standardization(
 }
 
 /** k-means++ start: the first centre at random, each next one drawn with probability by squared distance. */
-function kmeansPlusPlus(
-  sample: number[],
-  z: Standardized,
-  d: number,
-  k: number,
-  rnd: () => number,
-): Float64Array[] {
-  const cent: Float64Array[] = [];
-  const first = sample[Math.floor(rnd() * sample.length)];
-  cent.push(Float64Array.from({ length: d }, (_, j) => z(first, j)));
-  const dist = new Float64Array(sample.length).fill(Infinity);
+function kmeansPlusPlus(zs: Float64Array, d: number, k: number, rnd: () => number): Float64Array[] {
+  const m = zs.length / d;
+  const row = (s: number) => zs.slice(s * d, s * d + d);
+  const cent: Float64Array[] = [row(Math.floor(rnd() * m))];
+  const dist = new Float64Array(m).fill(Infinity);
   while (cent.length < k) {
     const c = cent[cent.length - 1];
     let sum = 0;
-    for (let s = 0; s < sample.length; s++) {
+    for (let s = 0; s < m; s++) {
       let dd = 0;
-      for (let j = 0; j < d; j++) dd += (z(sample[s], j) - c[j]) ** 2;
+      for (let j = 0; j < d; j++) dd += (zs[s * d + j] - c[j]) ** 2;
       if (dd < dist[s]) dist[s] = dd;
       sum += dist[s];
     }
     if (!(sum > 0)) break;
     let r = rnd() * sum,
-      pick = sample.length - 1;
-    for (let s = 0; s < sample.length; s++) {
+      pick = m - 1;
+    for (let s = 0; s < m; s++) {
       r -= dist[s];
       if (r <= 0) {
         pick = s;
         break;
       }
     }
-    cent.push(Float64Array.from({ length: d }, (_, j) => z(sample[pick], j)));
+    cent.push(row(pick));
   }
   return cent;
 }
