@@ -7,7 +7,7 @@ import { NUTRIENT_NAME, PLACEMENT_NAME } from '../vocabulary.js';
 import { EPS, r1, zero } from './decision.js';
 import type { Plan } from './plan.js';
 import type { SeedRowLimits } from './seedrow.js';
-import { solveProducts, type ProductOption, type SolveResult } from './solve.js';
+import { solveProducts, type ProductOption, type ProductSolver, type SolveResult } from './solve.js';
 import { NUTRIENTS, type Nutrient, type Tables } from './tables.js';
 
 /** Nutrients placed with the seed, lb/ac; `nCounted` is the N that counts against the urea-N limit. */
@@ -78,6 +78,7 @@ export function diagnose(
   lim: SeedRowLimits,
   plan: Plan,
   tables: Tables,
+  solve: ProductSolver = solveProducts,
 ): { nutrient: Nutrient | null; reason: string }[] {
   const out: { nutrient: Nutrient | null; reason: string }[] = [];
   for (const n of NUTRIENTS) {
@@ -99,7 +100,7 @@ export function diagnose(
       });
       continue;
     }
-    const best = solveProducts(opts, zero(), 0, lim, n);
+    const best = solve(opts, zero(), 0, lim, n);
     let most = 0;
     opts.forEach((o, i) => (most += best.rates[i]! * o.frac[n] * o.eff[n]));
     if (most < need[n] * (1 - tol) - EPS) {

@@ -13,7 +13,13 @@ import { economicsFor, inputWarnings, outcomeWarnings } from './decisionNotes.js
 import { interpret, type SoilValues } from './interpret.js';
 import type { Plan } from './plan.js';
 import { seedRowLimits, type SeedRowLimits } from './seedrow.js';
-import { productOptions, solveProducts, type ProductOption, type SolveResult } from './solve.js';
+import {
+  productOptions,
+  solveProducts,
+  type ProductOption,
+  type ProductSolver,
+  type SolveResult,
+} from './solve.js';
 import {
   NUTRIENTS,
   PLACEMENTS,
@@ -101,13 +107,21 @@ function collectPlacements(opts: readonly ProductOption[], res: SolveResult, uni
  * @param soil soil values in canonical units (NaN = not tested)
  * @param plan a validated plan (`parsePlan`)
  * @param tables the tables in force (`loadTables`)
+ * @param how `solve`: the product solver (default {@link solveProducts}; a {@link memoSolver} when many locations
+ *   share their problems)
  * @returns the decision; `status: 'infeasible'` when the targets cannot be met within the limits, with reasons
  * @throws UserError when the plan names an unknown crop, or a seed-row or N-efficiency table value is missing and the plan says `ask`
  * @example
  * const d = decide({ no3_n: 25, p: 8, k: 140, so4_s: 12, om: 4 }, parsePlan(text, 'plan.yaml'), defaultTables());
  * d.placements[0].products[0].rate.lbac
  */
-export function decide(soil: SoilValues, plan: Plan, tables: Tables): Decision {
+export function decide(
+  soil: SoilValues,
+  plan: Plan,
+  tables: Tables,
+  how: { solve?: ProductSolver } = {},
+): Decision {
+  const solve = how.solve ?? solveProducts;
   const crop = cropOf(plan, tables);
   const warnings: Warning[] = [];
   const texture: Texture = soil.texture ?? plan.implement.default_texture;
@@ -120,7 +134,7 @@ export function decide(soil: SoilValues, plan: Plan, tables: Tables): Decision {
   const need = zero();
   for (const n of NUTRIENTS) need[n] = tg[n].lbac;
   opts = potashAlone(opts, lim, need);
-  const res = solveProducts(opts, need, tol, lim);
+  const res = solve(opts, need, tol, lim);
 
   const unit = plan.units;
   const feasible = res.status === 'optimal';
@@ -139,7 +153,7 @@ export function decide(soil: SoilValues, plan: Plan, tables: Tables): Decision {
   const binding = feasible ? bindingLimits(opts, res, lim, unit) : [];
   if (feasible && binding.length === 0)
     binding.push('none: every target met at least cost without reaching a limit');
-  const economics = feasible ? economicsFor({ opts, need, tol, lim, res, it, plan, tables }) : [];
+  const economics = feasible ? economicsFor({ opts, need, tol, lim, res, it, plan, tables, solve }) : [];
   outcomeWarnings({ feasible, crop, opts, lim, tg, need, tol, placements, supplied, effective }, warnings);
   return {
     status: feasible ? 'ok' : 'infeasible',
@@ -152,7 +166,7 @@ export function decide(soil: SoilValues, plan: Plan, tables: Tables): Decision {
     placements,
     costPerAc: feasible ? res.cost : NaN,
     binding,
-    infeasible: feasible ? [] : infeasibleReasons(res, opts, need, tol, lim, plan, tables),
+    infeasible: feasible ? [] : infeasibleReasons(res, opts, need, tol, lim, plan, tables, solve),
     economics,
     warnings,
   };
@@ -176,6 +190,7 @@ function infeasibleReasons(
   lim: SeedRowLimits,
   plan: Plan,
   tables: Tables,
+  solve: ProductSolver,
 ): Decision['infeasible'] {
   if (res.status === 'error')
     return [
@@ -184,5 +199,5 @@ function infeasibleReasons(
         reason: `the solver stopped without an answer (${res.solver}); this is a bug, please report it with the plan and soil values`,
       },
     ];
-  return diagnose(opts, need, tol, lim, plan, tables);
+  return diagnose(opts, need, tol, lim, plan, tables, solve);
 }

@@ -9,7 +9,7 @@ import { EPS, r1, type Economics, type PlacementResult } from './decision.js';
 import { pClassTable, type Interpretation } from './interpret.js';
 import type { Plan } from './plan.js';
 import type { SeedRowLimits } from './seedrow.js';
-import { solveProducts, type ProductOption, type SolveResult } from './solve.js';
+import type { ProductOption, ProductSolver, SolveResult } from './solve.js';
 import { NUTRIENTS, type CropTable, type Nutrient, type Tables } from './tables.js';
 import type { Targets } from './targets.js';
 
@@ -22,15 +22,17 @@ interface EconomicsInput {
   it: Interpretation;
   plan: Plan;
   tables: Tables;
+  /** the product solver (solveProducts, or a memoSolver) */
+  solve: ProductSolver;
 }
 
 /** P and K: the chance of a response x the yield gain x the crop price, less what meeting the target costs. */
 export function economicsFor(e: EconomicsInput): Economics[] {
-  const { opts, need, tol, lim, res, it, plan, tables } = e;
+  const { opts, need, tol, lim, res, it, plan, tables, solve } = e;
   const out: Economics[] = [];
   for (const n of ['p2o5', 'k2o'] as const) {
     if (!(need[n] > 0)) continue;
-    const without = solveProducts(opts, { ...need, [n]: 0 }, tol, lim);
+    const without = solve(opts, { ...need, [n]: 0 }, tol, lim);
     const extra = without.status === 'optimal' ? Math.max(0, res.cost - without.cost) : NaN;
     const prob = n === 'p2o5' ? it.p.responseProbability : it.k.responseProbability;
     const cls = n === 'p2o5' ? it.p.className : it.k.className;

@@ -279,6 +279,37 @@ export function solveProducts(
     : unsolved(options.length, m.status);
 }
 
+/** The signature of {@link solveProducts}: what decide calls to solve one location's products. */
+export type ProductSolver = typeof solveProducts;
+
+/** JSON that keeps Infinity, -Infinity and NaN apart from null (a memo key must not join two problems). */
+function keyOf(value: unknown): string {
+  return JSON.stringify(value, (_k, v: unknown) =>
+    typeof v === 'number' && !Number.isFinite(v) ? `#${v}` : v,
+  );
+}
+
+/**
+ * {@link solveProducts} with a memory: a problem asked before (the same options, targets, tolerance, limits and
+ * objective, compared in full) gets the same answer object back without solving again. Exact: the answers are
+ * the solver's own. The zone stage's rate judge asks the same problem many times (zones whose soil values
+ * differ only where no target depends on them, and the targets each soil value's error moves to); on the
+ * benchmark section about 900 decisions need about 240 different solves. Treat the answers as read-only.
+ * @example const solve = memoSolver(); decide(soil, plan, tables, { solve }); decide(soil, plan, tables, { solve }) // the second call solves nothing
+ */
+export function memoSolver(): ProductSolver {
+  const memo = new Map<string, SolveResult>();
+  return (options, target, tolerance, limits, maximize) => {
+    const key = keyOf([options, target, tolerance, limits, maximize ?? null]);
+    let r = memo.get(key);
+    if (!r) {
+      r = solveProducts(options, target, tolerance, limits, maximize);
+      memo.set(key, r);
+    }
+    return r;
+  };
+}
+
 /** A settled answer: rates in whole machine steps (below 1e-9 lb/ac: 0) and their cost. */
 function answerOf(pb: Problem, x: ArrayLike<number>, solver: string): SolveResult {
   const rates = new Float64Array(pb.options.length);

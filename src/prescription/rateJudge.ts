@@ -4,6 +4,7 @@
  * soil maps' own error moves that rate. See docs/zones.md, "Zones worth a boundary".
  */
 import { decide } from '../agronomy/decide.js';
+import { memoSolver, type ProductSolver } from '../agronomy/solve.js';
 import type { Decision } from '../agronomy/decision.js';
 import type { SoilValues } from '../agronomy/interpret.js';
 import type { Plan } from '../agronomy/plan.js';
@@ -62,10 +63,12 @@ const key = (product: string, placement: Placement) => `${product}|${placement}`
  */
 export function rateJudge(o: RateJudgeOptions): RateJudge {
   const minDifference = new Map<string, number>();
+  // zones and their error-moved soil values ask the same product problems again and again
+  const solve = memoSolver();
   const judge: RateJudge = {
     layers: o.layers,
     minDifference,
-    profile: (means) => zoneProfile(means, o),
+    profile: (means) => zoneProfile(means, o, solve),
     prepare(profiles, areas) {
       if (minDifference.size > 0) return;
       const total = areas.reduce((s, a) => s + a, 0);
@@ -113,9 +116,9 @@ function ratesOf(d: Decision, products: string[]): Map<string, number> {
 }
 
 /** A zone's decision, and its rates' range when each soil value moves by its leave-one-out RMSE. */
-function zoneProfile(means: Float64Array, o: RateJudgeOptions): ZoneProfile {
+function zoneProfile(means: Float64Array, o: RateJudgeOptions, solve: ProductSolver): ZoneProfile {
   const soil = soilOf(means, o);
-  const decision = decide(soil, o.plan, o.tables);
+  const decision = decide(soil, o.plan, o.tables, { solve });
   const rates = ratesOf(decision, o.products);
   const lo = new Map(rates),
     hi = new Map(rates);
@@ -124,7 +127,10 @@ function zoneProfile(means: Float64Array, o: RateJudgeOptions): ZoneProfile {
       v = (soil as unknown as Record<string, number>)[a];
     if (!(e! > 0) || !Number.isFinite(v)) continue;
     for (const moved of [v - e!, v + e!]) {
-      const r = ratesOf(decide({ ...soil, [a]: Math.max(0, moved) }, o.plan, o.tables), o.products);
+      const r = ratesOf(
+        decide({ ...soil, [a]: Math.max(0, moved) }, o.plan, o.tables, { solve }),
+        o.products,
+      );
       for (const k of new Set([...rates.keys(), ...r.keys()])) {
         const x = r.get(k) ?? 0;
         lo.set(k, Math.min(lo.get(k) ?? 0, x));
