@@ -15,7 +15,7 @@ type PClasses = ReturnType<typeof pClassTable>;
  * Report rasters are drawn at display resolution: at most this many cells per side (a map is 700 px wide);
  * finer grids are shown coarser by a whole factor (see `coarsen`), and the map's legend says so.
  */
-export const REPORT_MAX_SIDE = 500;
+export const REPORT_MAX_SIDE = 300;
 
 /** The whole factor that brings a grid to at most {@link REPORT_MAX_SIDE} cells per side (1 when it fits). */
 export function displayFactor(g: { cols: number; rows: number }): number {
@@ -25,7 +25,7 @@ export function displayFactor(g: { cols: number; rows: number }): number {
 /**
  * A grid coarsened by a whole factor for display: each new cell takes the value of the original cell at its
  * centre (nearest, so class rasters keep their classes). A 1 m grid on a section (2.6 million cells) is shown
- * at 4 m; the prescription itself is unchanged. `cells` lists the original cells shown (null at factor 1).
+ * at 6 m; the prescription itself is unchanged. `cells` lists the original cells shown (null at factor 1).
  */
 export function coarsen(
   g: { xmin: number; ymax: number; cell: number; cols: number; rows: number },

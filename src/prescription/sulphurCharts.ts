@@ -141,7 +141,7 @@ export function buildSulphurChance(
 ): ReportChanceMap | null {
   if (!Array.from(samples.values.so4_s).some(Number.isFinite)) return null;
   const t = { value: crop?.s_low_below_lb.value ?? 20, unit: 'lb S/ac' };
-  // kriged only at the cells the map shows (a sixteenth of a 1 m section's cells at 4 m)
+  // kriged only at the cells the map shows (a 36th of a 1 m section's cells at 6 m)
   const m = chanceBelowMap(samples, 'so4_s', grid, t, { ...settings, surface, cells: view.cells });
   const base = {
     nutrient: 'so4_s',

@@ -14,6 +14,20 @@ describe('report rasters of very fine grids are shown coarser', () => {
     // coarse cell (r, c) covers fine rows 3r..3r+2, cols 3c..3c+2; its centre is fine cell (3r+1, 3c+1), clamped
     expect(Array.from(c.pick(v))).toEqual([1 * 7 + 1, 1 * 7 + 4, 1 * 7 + 6, 4 * 7 + 1, 4 * 7 + 4, 4 * 7 + 6]);
   });
+
+  it('the display factor is the smallest whole factor that brings the grid to at most 300 cells a side', async () => {
+    const { displayFactor, REPORT_MAX_SIDE } = await import('../../src/prescription/reportMaps.js');
+    expect(REPORT_MAX_SIDE).toBe(300);
+    // the demo quarter at 5 m is shown cell for cell; at 2 m at 4 m; a 1 m section (1609 cells) at 6 m
+    expect(displayFactor({ cols: 162, rows: 162 })).toBe(1);
+    expect(displayFactor({ cols: 405, rows: 398 })).toBe(2);
+    expect(displayFactor({ cols: 1609, rows: 1609 })).toBe(6);
+    for (let side = 1; side <= 5000; side += 7) {
+      const f = displayFactor({ cols: side, rows: Math.ceil(side / 3) });
+      expect(Math.ceil(side / f)).toBeLessThanOrEqual(300);
+      if (f > 1) expect(Math.ceil(side / (f - 1))).toBeGreaterThan(300);
+    }
+  });
 });
 
 describe('mergeCloseClasses', () => {
