@@ -82,4 +82,30 @@ describe('cellTargets', () => {
       { numRuns: 60 },
     );
   });
+
+  it('values spread too far for the lookup table (K 20 to 5 million ppm, nitrate and OM a million cells apart) give the same targets', () => {
+    // 1e6 quantized K values or 1e6 x 100 nitrate x OM pairs exceed the flat table: the Map path answers
+    const k = Float64Array.of(20, 5e6, 140, 140.4, NaN, 60);
+    const no3_n = Float64Array.of(0, 5e5, 30, 30.2, 12, NaN);
+    const om = Float64Array.of(0.5, 5, 3, 3, NaN, 4);
+    const p = Float64Array.of(3, 12, 25, 8, 8, 40);
+    const fraction = Float32Array.of(1, 1, 1, 0.5, 1, 1);
+    const got = cellTargets({ k, no3_n, om, p }, fraction, plan, tables);
+    const small = cellTargets(
+      { k: k.map((v) => Math.min(v, 600)), no3_n: no3_n.map((v) => Math.min(v, 250)), om, p },
+      fraction,
+      plan,
+      tables,
+    );
+    for (let i = 0; i < k.length; i++) {
+      const want = oracle({ k, no3_n, om, p }, i);
+      if (Number.isNaN(k[i])) expect(got.k2o[i]).toBeNaN();
+      else expect(got.k2o[i]).toBe(want.k2o.lbac);
+      if (Number.isNaN(no3_n[i]) || Number.isNaN(om[i])) expect(got.n[i]).toBeNaN();
+      else expect(got.n[i]).toBe(want.n.lbac);
+      expect(got.p2o5[i]).toBe(want.p2o5.lbac);
+      // the table path (values within a small spread) agrees with the oracle too
+      expect(small.p2o5[i]).toBe(got.p2o5[i]);
+    }
+  });
 });
