@@ -15,6 +15,11 @@ if (!isMainThread && workerData?.tilthSurfaceWorker) {
   const { register } = await import('tsx/esm/api');
   register();
   await import(pathToFileURL(join(root, 'src', 'surface', 'worker.ts')).href);
+} else if (!isMainThread && workerData?.tilthReportWorker) {
+  // the report worker started by the CLI running from the sources (src/cli/sulphurAhead.ts)
+  const { register } = await import('tsx/esm/api');
+  register();
+  await import(pathToFileURL(join(root, 'src', 'cli', 'reportWorker.ts')).href);
 } else {
   await main();
 }

@@ -4,7 +4,9 @@
 //   lookups), split into chunks (dist/chunk-*.mjs) so that each command loads only what it uses: main.ts
 //   imports the command modules with import() (docs/performance.md, "Start-up");
 // - dist/surface-worker.mjs: the entry of the surface worker threads (src/surface/worker.ts, started by
-//   src/cli/threads.ts), sharing its chunks with the CLI.
+//   src/cli/threads.ts), sharing its chunks with the CLI;
+// - dist/report-worker.mjs: the entry of the report worker thread (src/cli/reportWorker.ts, started by
+//   src/cli/sulphurAhead.ts), the same way.
 // bin/tilth.js falls back to the TypeScript sources through tsx when dist/ is missing or older than src/.
 // `node scripts/build.mjs --outdir DIR` writes only the CLI and worker into DIR (tests build a private copy).
 import { build } from 'esbuild';
@@ -29,7 +31,11 @@ if (existsSync(outdir))
   for (const f of readdirSync(outdir)) if (/^chunk-.*\.mjs(\.map)?$/.test(f)) rmSync(join(outdir, f));
 await build({
   ...common,
-  entryPoints: { tilth: 'src/cli/main.ts', 'surface-worker': 'src/surface/worker.ts' },
+  entryPoints: {
+    tilth: 'src/cli/main.ts',
+    'surface-worker': 'src/surface/worker.ts',
+    'report-worker': 'src/cli/reportWorker.ts',
+  },
   outdir,
   splitting: true,
   outExtension: { '.js': '.mjs' },

@@ -24,7 +24,8 @@ import {
   writeOutputDir,
 } from './util.js';
 import { createTerminal, type Task, type Terminal } from './progress.js';
-import { addThreadsOption, surfaceThreads } from './threads.js';
+import { addThreadsOption, surfaceThreads, threadsReport } from './threads.js';
+import { sulphurAhead } from './sulphurAhead.js';
 
 export interface BuildFlags {
   samples: string;
@@ -127,6 +128,8 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
   const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
   const threads = surfaceThreads(o.threads);
+  // the report's sulphate-S pages on a second core while the zones are drawn (started now: it loads meanwhile)
+  const ahead = sulphurAhead(plan, tables, threads.threads, threadsReport);
   hooks.say('reading and checking the inputs ...');
   const io = inputOptionsFrom(o as unknown as Record<string, unknown>);
   if (io.outliers === undefined && plan.soil_test.outliers === 'drop')
@@ -136,8 +139,21 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   refuseUnfit(inputs, plan, o.samples, o.boundary);
   // the grid covers the sampled parts (unsampled_parts), the whole boundary must still fit it (task data grids)
   checkBuildCells(inputs.field.bbox, cell ?? defaultCell(gridBbox(inputs, plan)));
-  const rx = buildPrescription(inputs, plan, tables, { cell, threads, onProgress: hooks.onProgress });
+  const rx = (() => {
+    try {
+      return buildPrescription(inputs, plan, tables, {
+        cell,
+        threads,
+        onProgress: hooks.onProgress,
+        onSurfaces: ahead?.onSurfaces,
+      });
+    } catch (e) {
+      ahead?.close();
+      throw e;
+    }
+  })();
   hooks.stepDone();
+  const sulphur = await ahead?.pages(inputs, rx);
   const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const)
     .filter((k) => o[k])
     .map((k) => ({ name: k, bytes: readInput(o[k]!, k) }));
@@ -147,6 +163,7 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
     provenance: provenance(named),
     tablesEdited: !!o.tables,
     onStep: hooks.say,
+    sulphur,
   });
   writeOutputDir(o.out, files, { force: o.force, inputs: inputFiles });
   const zones = rx.zoneSets.reduce((n, z) => n + z.zones.length, 0);

@@ -47,3 +47,10 @@ export function surfaceThreads(flag: string | undefined): SurfaceThreads {
       : undefined;
   return { threads, startWorker: startSurfaceWorker, onBands };
 }
+
+/**
+ * With TILTH_THREADS_REPORT=1 (tests, tuning): writes a line about what the threads did on stderr; else undefined.
+ * @example threadsReport?.('sulphate-S pages: made in place')
+ */
+export const threadsReport: ((line: string) => void) | undefined =
+  process.env.TILTH_THREADS_REPORT === '1' ? (line) => void process.stderr.write(`${line}\n`) : undefined;

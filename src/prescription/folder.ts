@@ -7,7 +7,7 @@ import type { Tables } from '../agronomy/index.js';
 import type { FieldInputs } from '../types.js';
 import { zipFiles } from '../io/zip.js';
 import { renderReport, serializeReportInput } from '../report/index.js';
-import { buildSulphurChance, buildSulphurCharts } from './sulphurCharts.js';
+import { sulphurPages, sulphurPagesInput, type SulphurPages } from './sulphurPages.js';
 import type { Prescription } from './types.js';
 import {
   geojsonName,
@@ -18,7 +18,6 @@ import {
   type Provenance,
 } from './outputs.js';
 import { reportInput } from './reportInput.js';
-import { reportView } from './reportMaps.js';
 import { prescriptionFiles } from './shapefiles.js';
 import { prescriptionTaskDataFiles } from './taskdata.js';
 
@@ -29,6 +28,11 @@ export interface FolderOptions {
   tablesEdited?: boolean;
   /** called before each slow part ("writing shapefiles ...") */
   onStep?: (step: string) => void;
+  /**
+   * the report's sulphate-S pages when the caller computed them already (from {@link sulphurPagesInput} of this
+   * build, e.g. in a worker thread while the zones were drawn); default: computed here
+   */
+  sulphur?: SulphurPages;
 }
 
 /** A build's output folder: relative path -> text or bytes, and the summary object written as summary.json. */
@@ -98,27 +102,10 @@ export function prescriptionFolder(
     taskData(rx, tables, files);
   }
   say('drawing the report ...');
-  // the sulphate-S variability charts, from the build's own S surface
-  const sSurf = rx.surfaces.find((s) => s.analyte === 'so4_s');
-  const charts = buildSulphurCharts(
-    inputs.samples,
-    inputs.field,
-    tables.crops[plan.crop],
-    plan.strategy.s.method,
-    sSurf
-      ? { grid: sSurf.grid, values: sSurf.values, note: sSurf.choice, zones: sSurf.method === 'zones' }
-      : undefined,
-  );
+  // the sulphate-S variability charts and chance map, from the build's own S surface (or computed ahead)
+  const { charts, chance } =
+    opts.sulphur ?? sulphurPages(sulphurPagesInput(inputs, plan, tables, rx.grid, rx.surfaces));
   const ri = reportInput(rx, inputs, tables, opts.provenance, { tablesEdited: opts.tablesEdited, charts });
-  // beside the S surface: the chance S is below the crop's low level, from kriging (or why there is none)
-  const chance = buildSulphurChance(
-    inputs.samples,
-    rx.grid,
-    tables.crops[plan.crop],
-    sSurf,
-    { log: plan.surface.log, neighbours: plan.surface.kriging_neighbours },
-    reportView(rx),
-  );
   if (chance) ri.chance = [chance];
   files.set('report-data.json', serializeReportInput(ri));
   files.set('report.html', renderReport(ri));

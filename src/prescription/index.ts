@@ -78,6 +78,7 @@ export function buildPrescription(
 
   // 1. surfaces
   const { surfaces, byAnalyte } = buildSurfaces(inputs, plan, grid, progress, warnings, opts.threads);
+  opts.onSurfaces?.({ inputs, grid, surfaces });
 
   // 2. per-cell targets
   const tg = cellTargets(byAnalyte, grid.fraction, plan, tables);

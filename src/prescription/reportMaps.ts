@@ -65,7 +65,16 @@ export interface ReportView {
  * @example reportView(rx).note // undefined when the grid is shown at full resolution
  */
 export function reportView(rx: Prescription): ReportView {
-  const grid = rx.grid;
+  return gridView(rx.grid);
+}
+
+/**
+ * The display view of a grid (see {@link reportView}): what the report shows of a prescription on this grid.
+ * @example gridView(rx.grid).factor // 6 for a 1 m section
+ */
+export function gridView(
+  grid: Pick<Prescription['grid'], 'xmin' | 'ymax' | 'cell' | 'cols' | 'rows'>,
+): ReportView {
   const factor = displayFactor(grid);
   const view = coarsen(
     { xmin: grid.xmin, ymax: grid.ymax, cell: grid.cell, cols: grid.cols, rows: grid.rows },

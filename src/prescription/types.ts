@@ -16,6 +16,12 @@ export interface BuildOptions {
   onProgress?: (step: string, done: number) => void;
   /** worker threads for the surfaces' per-cell work (default none; src/surface/parallel.ts) */
   threads?: SurfaceThreads;
+  /**
+   * called once the surfaces are made, before the zones, with the inputs they were made from (a field with
+   * unsampled parts calls it with its sampled part), the grid and the surfaces (e.g. to start the report's
+   * sulphate-S pages on another core: src/prescription/sulphurPages.ts)
+   */
+  onSurfaces?: (made: { inputs: FieldInputs; grid: Grid; surfaces: readonly NutrientSurface[] }) => void;
 }
 
 /** One zone of one zone set, with its decision. */

@@ -67,16 +67,47 @@ describe('--threads', () => {
     expect(src.asc === one.asc).toBe(true);
   });
 
-  it('a build with 2 threads writes the same prescription as with 1', () => {
-    const files = (threads: string) => {
-      const out = join(tmp, `rx-${threads}`);
-      const args = ['build', '--samples', join(Q, 'samples.csv'), '--boundary', join(Q, 'boundary.geojson')];
-      args.push('--plan', join(Q, 'plan.yaml'), '--cell', '2', '--threads', threads, '--out', out, '--quiet');
-      const r = run(bundle, args);
-      expect(r.code, r.stderr).toBe(0);
-      return ['prescription.geojson', 'zones.csv'].map((f) => readFileSync(join(out, f), 'utf8'));
+  /** A build of the quarter at 2 m: its prescription and report files, and what the threads did (stderr). */
+  function build(entry: string[], threads: string, env: Record<string, string> = {}) {
+    const out = join(tmp, `rx-${entry.length}-${threads}-${env.TILTH_FROM_SOURCE ?? ''}`);
+    const args = ['build', '--samples', join(Q, 'samples.csv'), '--boundary', join(Q, 'boundary.geojson')];
+    args.push(
+      '--plan',
+      join(Q, 'plan.yaml'),
+      '--cell',
+      '2',
+      '--threads',
+      threads,
+      '--out',
+      out,
+      '--quiet',
+      '--force',
+    );
+    const r = run(entry, args, env);
+    expect(r.code, r.stderr).toBe(0);
+    const files = ['prescription.geojson', 'zones.csv', 'report.html', 'report-data.json'];
+    return {
+      files: files.map((f) => readFileSync(join(out, f), 'utf8')),
+      pages: r.stderr.match(/sulphate-S pages: (.*)/)?.[1],
     };
-    expect(files('2')).toEqual(files('1'));
+  }
+
+  it('a build with 2 threads writes the same prescription and report as with 1; the S pages come from the report worker', () => {
+    const one = build(bundle, '1');
+    expect(one.pages).toBeUndefined(); // one thread: no report worker
+    const two = build(bundle, '2');
+    expect(two.pages).toBe('made on a second thread beside the zones');
+    expect(two.files).toEqual(one.files);
+    // the report has the S pages at all (so the comparison above covers them)
+    expect(one.files[2]).toMatch(/chance below 20 lb S\/ac/);
+    expect(one.files[2]).toMatch(/Semivariogram of/);
+  });
+
+  it('the sources through tsx: the report worker runs src/cli/reportWorker.ts; the same report', () => {
+    const one = build(bundle, '1');
+    const src = build(source, '2', { TILTH_FROM_SOURCE: '1' });
+    expect(src.pages).toBe('made on a second thread beside the zones');
+    expect(src.files).toEqual(one.files);
   });
 
   it('--threads 0 is a user error (exit 2) naming the option', () => {
