@@ -189,6 +189,7 @@ export class KnnGroup {
     }
     this.px = qx;
     this.py = qy;
+    if (sorted) return this.nearestSorted(qx, qy, skip, bound);
     for (;;) {
       const c = this.within(qx, qy, bound, skip);
       const { sd, si2 } = this;
@@ -233,6 +234,76 @@ export class KnnGroup {
   }
 
   /**
+   * {@link nearest} with the answer in ascending (distance, index) order: each candidate within the bound is
+   * inserted into the sorted list of the k best so far, whose k-th then tightens the bound (no separate
+   * selection and sort). The same answer as selecting and sorting: the k smallest pairs, ties to the lower index.
+   */
+  private nearestSorted(qx: number, qy: number, skip: number, bound: number): number {
+    const k = this.k,
+      maxD2 = this.maxD2,
+      d2 = this.d2,
+      idx = this.idx;
+    for (;;) {
+      this.rowDy(qy);
+      const { cx, ci, rdy } = this;
+      const m = this.count;
+      let f = 0,
+        lim = bound;
+      for (let j = 0; j < m; j++) {
+        const dx = cx[j] - qx;
+        const dd = dx * dx + rdy[j];
+        if (dd > lim) continue;
+        const id = ci[j];
+        if (id === skip) continue;
+        let p: number;
+        if (f === k) {
+          // dd <= the k-th: it enters unless it ties the k-th with a higher index
+          if (dd === d2[k - 1] && id > idx[k - 1]) continue;
+          p = k - 1;
+        } else p = f++;
+        while (p > 0 && (d2[p - 1] > dd || (d2[p - 1] === dd && idx[p - 1] > id))) {
+          d2[p] = d2[p - 1];
+          idx[p] = idx[p - 1];
+          p--;
+        }
+        d2[p] = dd;
+        idx[p] = id;
+        if (f === k) lim = d2[k - 1];
+      }
+      if (f < k && bound < maxD2) {
+        bound = maxD2;
+        continue;
+      }
+      // proof: every point outside the gathered region is at least `edge` away
+      const ex = Math.min(qx - this.ex0, this.ex1 - qx),
+        ey = Math.min(qy - this.ey0, this.ey1 - qy);
+      const edge = ex < ey ? ex : ey;
+      const need2 = f === k ? d2[k - 1] : maxD2;
+      if (edge === Infinity || need2 < edge * edge) {
+        this.prevK2 = f === k ? d2[k - 1] : -1;
+        return f;
+      }
+      this.expansions++;
+      this.gather(this.bxa - 1, this.bxb + 1, this.bya - 1, this.byb + 1);
+    }
+  }
+
+  /** Squared y distances of the gathered candidates to the row y = qy (kept while the row and the candidates stay). */
+  private rowDy(qy: number): void {
+    if (qy === this.rowQy && this.rowGen === this.gen) return;
+    if (this.rdy.length < this.cx.length) this.rdy = new Float64Array(this.cx.length);
+    const cy = this.cy,
+      rdy = this.rdy,
+      m = this.count;
+    for (let j = 0; j < m; j++) {
+      const dy = cy[j] - qy;
+      rdy[j] = dy * dy;
+    }
+    this.rowQy = qy;
+    this.rowGen = this.gen;
+  }
+
+  /**
    * Gathered candidates within squared distance `bound` of (qx, qy), less original index `skip`, into
    * sd / si2 (unordered); returns how many. Squared y distances are shared by every query on one row
    * (grid cells): computed once per row.
@@ -244,17 +315,7 @@ export class KnnGroup {
     }
     const { cx, ci, sd, si2 } = this;
     const m = this.count;
-    if (qy !== this.rowQy || this.rowGen !== this.gen) {
-      if (this.rdy.length < this.cx.length) this.rdy = new Float64Array(this.cx.length);
-      const cy = this.cy,
-        rdy = this.rdy;
-      for (let j = 0; j < m; j++) {
-        const dy = cy[j] - qy;
-        rdy[j] = dy * dy;
-      }
-      this.rowQy = qy;
-      this.rowGen = this.gen;
-    }
+    this.rowDy(qy);
     const rdy = this.rdy;
     let c = 0;
     for (let j = 0; j < m; j++) {

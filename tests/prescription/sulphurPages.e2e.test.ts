@@ -4,7 +4,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { buildPrescription } from '../../src/prescription/index.js';
+import { buildPrescription, type BuildOptions } from '../../src/prescription/index.js';
 import { prescriptionFolder } from '../../src/prescription/folder.js';
 import { sulphurPages, sulphurPagesInput } from '../../src/prescription/sulphurPages.js';
 import { parsePlan, defaultTables } from '../../src/agronomy/index.js';
@@ -23,7 +23,7 @@ const provenance = { tilth: 'test', created: 'test', inputs: [] } as never;
 
 describe('sulphate-S pages made ahead', () => {
   it('onSurfaces hears the inputs, grid and surfaces of the prescription once; the folder is the same with the pages made from them', () => {
-    const heard: Parameters<NonNullable<Parameters<typeof buildPrescription>[3]>['onSurfaces']>[0][] = [];
+    const heard: Parameters<NonNullable<BuildOptions['onSurfaces']>>[0][] = [];
     const rx = buildPrescription(inputs, plan, tables, { cell: 5, onSurfaces: (m) => heard.push(m) });
     expect(heard).toHaveLength(1);
     expect(heard[0].inputs).toBe(inputs);
