@@ -169,6 +169,8 @@ function weighBand(b: NeighbourBand, w: Float64Array, s: IdwJobSurface, minN: nu
   const { cells, found, idx, d2 } = b,
     K = b.k;
   const { z, k, zlo, zhi, out } = s;
+  // sorted lists (nearest first): when the nearest is not on the cell, none is, and the sum needs no test
+  const sorted = b.sorted;
   for (let t = 0; t < b.count; t++) {
     const f = found[t] < k ? found[t] : k;
     if (f < minN) continue;
@@ -176,6 +178,16 @@ function weighBand(b: NeighbourBand, w: Float64Array, s: IdwJobSurface, minN: nu
     let num = 0,
       den = 0,
       hit = -1;
+    if (sorted && f > 0 && !(d2[o] < COINCIDENT_D2)) {
+      for (let j = o; j < o + f; j++) {
+        const wj = w[j];
+        num += wj * z[idx[j]];
+        den += wj;
+      }
+      const v = num / den;
+      out[cells[t]] = v < zlo ? zlo : v > zhi ? zhi : v;
+      continue;
+    }
     for (let j = o; j < o + f; j++) {
       if (d2[j] < COINCIDENT_D2) {
         if (hit < 0 || idx[j] < idx[hit]) hit = j;

@@ -37,6 +37,8 @@ export interface NeighbourBand {
   idx: Int32Array;
   /** squared distances (m^2) matching idx */
   d2: Float64Array;
+  /** whether each cell's list is in ascending (squared distance, index) order (the search's `sorted` option) */
+  sorted: boolean;
 }
 
 /** Options for the cell searches. */
@@ -186,6 +188,7 @@ class BandSearch implements NeighbourSearch {
       found,
       idx: new Int32Array(per * k),
       d2: new Float64Array(per * k),
+      sorted: this.sorted,
     };
   }
 
