@@ -343,8 +343,12 @@ export class KnnGroup {
    * [x0, x1] x [y0, y1] (relative coordinates): the k-th smallest farthest-corner distance bounds every
    * such query's k-th distance, so a candidate whose nearest distance to the rectangle exceeds it (or the
    * search radius) is never chosen. Answers are unchanged; only work is saved.
+   * With `nearFirst` the candidates left are also put in order of distance from the rectangle's centre, so that a
+   * sorted query ({@link nearest} with `sorted`) meets the near ones first: most then go to the end of its list,
+   * and its bound tightens early. The same answers (the k smallest pairs do not depend on the order met); unsorted
+   * queries return their neighbours in the order met, so they keep the gathering order.
    */
-  prune(x0: number, y0: number, x1: number, y1: number): void {
+  prune(x0: number, y0: number, x1: number, y1: number, nearFirst = false): void {
     const m = this.count,
       k = this.k;
     if (m <= k) return;
@@ -376,6 +380,36 @@ export class KnnGroup {
     }
     this.count = w;
     this.gen++;
+    if (nearFirst) this.nearFirst((x0 + x1) / 2, (y0 + y1) / 2);
+  }
+
+  /** Puts the gathered candidates in ascending order of squared distance from (px, py) (insertion sort: a few dozen). */
+  private nearFirst(px: number, py: number): void {
+    const { cx, cy, ci, sd } = this;
+    const m = this.count;
+    for (let j = 0; j < m; j++) {
+      const dx = cx[j] - px,
+        dy = cy[j] - py;
+      sd[j] = dx * dx + dy * dy;
+    }
+    for (let i = 1; i < m; i++) {
+      const d = sd[i],
+        x = cx[i],
+        y = cy[i],
+        id = ci[i];
+      let p = i;
+      while (p > 0 && sd[p - 1] > d) {
+        sd[p] = sd[p - 1];
+        cx[p] = cx[p - 1];
+        cy[p] = cy[p - 1];
+        ci[p] = ci[p - 1];
+        p--;
+      }
+      sd[p] = d;
+      cx[p] = x;
+      cy[p] = y;
+      ci[p] = id;
+    }
   }
 
   /** Forget the previous query (its bound no longer helps, e.g. at the start of a far-away group). */

@@ -207,7 +207,7 @@ class BandSearch implements NeighbourSearch {
         c1 = Math.min(cols, c0 + L.S);
       if (!anyWhere(where, cols, r0, r1, c0, c1)) continue;
       g.begin(L.axL + bc, L.axL + bc, by, by, L.ring);
-      g.prune((c0 + 0.5) * cell, -(r1 - 0.5) * cell, (c1 - 0.5) * cell, -(r0 + 0.5) * cell);
+      g.prune((c0 + 0.5) * cell, -(r1 - 0.5) * cell, (c1 - 0.5) * cell, -(r0 + 0.5) * cell, sorted);
       for (let r = r0; r < r1; r++) {
         const qy = -(r + 0.5) * cell;
         // serpentine order: each cell is next to the previous one, which keeps the search bound tight
