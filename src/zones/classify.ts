@@ -197,44 +197,30 @@ export function classifyVectors(
   const zs = sampleVectors(sample, z, d);
   const cent = kmeansPlusPlus(zs, d, k, rnd);
   lloyd(zs, d, cent, opts.maxIter ?? 50);
-  // cell i standardized once, then compared with every centre (the same arithmetic as z(i, j) per centre)
-  const zi = new Float64Array(d),
-    kc = cent.length,
-    cf = new Float64Array(kc * d);
-  cent.forEach((c, ci) => cf.set(c, ci * d));
-  const nearest = (i: number) => {
-    for (let j = 0; j < d; j++) zi[j] = (dims[j][i] - mu[j]) / sd[j];
-    let best = Infinity,
-      arg = 0;
-    for (let c = 0; c < kc; c++) {
-      let dd = 0;
-      for (let j = 0; j < d; j++) dd += (zi[j] - cf[c * d + j]) ** 2;
-      if (dd < best) {
-        best = dd;
-        arg = c;
-      }
-    }
-    return arg;
-  };
-  return vectorClasses(dims, valid, weights, cent, nearest, classOf, opts.steps);
+  return vectorClasses(dims, valid, weights, cent, mu, sd, classOf, opts.steps);
 }
 
 /** The cells with a weight and a value in every dimension, as one flat array (millions of cells). */
 function validCells(dims: ArrayLike<number>[], weights: ArrayLike<number> | undefined): Int32Array {
   const d = dims.length,
     n = dims[0].length;
-  const isValid = (i: number): boolean => {
-    if (weights !== undefined && !(weights[i] > 0)) return false;
+  const ok = new Uint8Array(n);
+  let nValid = 0;
+  for (let i = 0; i < n; i++) {
+    if (weights !== undefined && !(weights[i] > 0)) continue;
+    let all = 1;
     for (let j = 0; j < d; j++) {
       const x = dims[j][i];
-      if (x !== x) return false;
+      if (x !== x) {
+        all = 0;
+        break;
+      }
     }
-    return true;
-  };
-  let nValid = 0;
-  for (let i = 0; i < n; i++) if (isValid(i)) nValid++;
+    ok[i] = all;
+    nValid += all;
+  }
   const valid = new Int32Array(nValid);
-  for (let i = 0, t = 0; i < n; i++) if (isValid(i)) valid[t++] = i;
+  for (let i = 0, t = 0; i < n; i++) if (ok[i] === 1) valid[t++] = i;
   return valid;
 }
 
@@ -250,13 +236,15 @@ function standardization(
   const mu = new Float64Array(d),
     sd = new Float64Array(d);
   let tw = 0;
-  for (const i of valid) {
+  for (let t = 0; t < valid.length; t++) {
+    const i = valid[t];
     const wi = weights ? weights[i] : 1;
     tw += wi;
     for (let j = 0; j < d; j++) mu[j] += wi * dims[j][i];
   }
   for (let j = 0; j < d; j++) mu[j] /= tw;
-  for (const i of valid) {
+  for (let t = 0; t < valid.length; t++) {
+    const i = valid[t];
     const wi = weights ? weights[i] : 1;
     for (let j = 0; j < d; j++) sd[j] += wi * (dims[j][i] - mu[j]) ** 2;
   }
@@ -342,29 +330,48 @@ function sampleVectors(sample: number[], z: Standardized, d: number): Float64Arr
 /**
  * Every valid cell to its nearest centre, classes numbered by ascending sum of standardized centre coordinates,
  * empty classes dropped; per class the area-weighted mean of each dimension and its value rounded to the step.
+ * Each cell is standardized once ((value - mu) / sd per dimension) and compared with a flat array of centres.
  */
 function vectorClasses(
   dims: ArrayLike<number>[],
   valid: Int32Array,
   weights: ArrayLike<number> | undefined,
   cent: Float64Array[],
-  nearest: (i: number) => number,
+  mu: Float64Array,
+  sd: Float64Array,
   classOf: Int16Array,
   steps: number[] | undefined,
 ): VectorClasses {
-  const d = dims.length;
+  const d = dims.length,
+    kc = cent.length;
   const order = cent.map((c, idx) => ({ idx, s: c.reduce((a, b) => a + b, 0) })).sort((a, b) => a.s - b.s);
-  const rank = new Int16Array(cent.length);
+  const rank = new Int16Array(kc);
   order.forEach((o, r) => (rank[o.idx] = r));
-  const sw = new Float64Array(cent.length),
-    sm = cent.map(() => new Float64Array(d));
-  for (const i of valid) {
-    const c = rank[nearest(i)];
+  const cf = new Float64Array(kc * d);
+  cent.forEach((c, ci) => cf.set(c, ci * d));
+  const zi = new Float64Array(d);
+  const sw = new Float64Array(kc),
+    smf = new Float64Array(kc * d);
+  for (let t = 0; t < valid.length; t++) {
+    const i = valid[t];
+    for (let j = 0; j < d; j++) zi[j] = (dims[j][i] - mu[j]) / sd[j];
+    let best = Infinity,
+      arg = 0;
+    for (let c = 0; c < kc; c++) {
+      let dd = 0;
+      for (let j = 0; j < d; j++) dd += (zi[j] - cf[c * d + j]) ** 2;
+      if (dd < best) {
+        best = dd;
+        arg = c;
+      }
+    }
+    const c = rank[arg];
     classOf[i] = c;
     const wi = weights ? weights[i] : 1;
     sw[c] += wi;
-    for (let j = 0; j < d; j++) sm[c][j] += wi * dims[j][i];
+    for (let j = 0; j < d; j++) smf[c * d + j] += wi * dims[j][i];
   }
+  const sm = cent.map((_, c) => smf.subarray(c * d, c * d + d));
   // drop empty classes
   const remap = new Int16Array(cent.length).fill(-1);
   const mean: number[][] = [],
@@ -378,6 +385,6 @@ function vectorClasses(
     value.push(mc.map((x, j) => roundTo(x, steps?.[j] ?? 1)));
     weight.push(sw[c]);
   }
-  for (const i of valid) classOf[i] = remap[classOf[i]];
+  for (let t = 0; t < valid.length; t++) classOf[valid[t]] = remap[classOf[valid[t]]];
   return { classOf, count: mean.length, mean, value, weight };
 }
