@@ -40,4 +40,35 @@ describe('sulphate-S pages made ahead', () => {
     expect(ahead.files.get('report.html')).toBe(inPlace.files.get('report.html'));
     expect(ahead.files.get('report-data.json')).toBe(inPlace.files.get('report-data.json'));
   });
+
+  it('a field with an unsampled part hears the sampled part: not the inputs the folder gets, so the CLI makes the pages in place', async () => {
+    const d = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8'));
+    const g = d.features[0].geometry;
+    const square = [
+      [-106.385, 52.315],
+      [-106.382, 52.315],
+      [-106.382, 52.317],
+      [-106.385, 52.317],
+      [-106.385, 52.315],
+    ];
+    d.features[0].geometry = { type: 'MultiPolygon', coordinates: [g.coordinates, [square]] };
+    const two = await fieldInputs(src('samples.csv'), {
+      name: 'boundary.geojson',
+      bytes: Buffer.from(JSON.stringify(d)),
+    });
+    const p2 = parsePlan(
+      readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8').replace(
+        /^unsampled_parts: null /m,
+        'unsampled_parts: { urea: 80, map: 40 } ',
+      ),
+      'plan.yaml',
+      tables,
+    );
+    const heard: Parameters<NonNullable<BuildOptions['onSurfaces']>>[0][] = [];
+    const rx = buildPrescription(two, p2, tables, { cell: 5, onSurfaces: (m) => heard.push(m) });
+    expect(heard).toHaveLength(1);
+    expect(heard[0].inputs).not.toBe(two);
+    // the surfaces were made on the sampled part only; the prescription covers the whole field
+    expect(heard[0].inputs.field.areaM2).toBeLessThan(rx.field.areaM2 - 40_000);
+  });
 });
