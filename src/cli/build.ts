@@ -128,7 +128,7 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   const plan = parsePlan(readInput(o.plan, 'plan').toString('utf8'), o.plan, tables);
   const cell = numberOption('--cell', o.cell, { min: 0.5, max: 100 });
   const threads = surfaceThreads(o.threads);
-  // the report's sulphate-S pages on a second core while the zones are drawn (started now: it loads meanwhile)
+  // the report's sulphate-S pages on a second core while the zones are drawn
   const ahead = sulphurAhead(plan, tables, threads.threads, threadsReport);
   hooks.say('reading and checking the inputs ...');
   const io = inputOptionsFrom(o as unknown as Record<string, unknown>);

@@ -39,8 +39,10 @@ function startReportWorker(): Worker {
 }
 
 /**
- * A report worker for a build with `threads` threads, started now so that it loads while the inputs are read;
- * null with one thread (and `tilth batch`, whose fields already keep every core busy).
+ * A report worker for a build with `threads` threads, started when the surfaces are handed over (started earlier,
+ * its loading slowed the surface stage, whose threads keep both processors busy: the section's surfaces took
+ * 4.4-5.0 s instead of 4.1-4.2 s in paired runs); null with one thread (and `tilth batch`, whose fields already
+ * keep every core busy).
  * @param say where to say what happened, when TILTH_THREADS_REPORT=1 asks (tests)
  * @example const ahead = sulphurAhead(plan, tables, 2); buildPrescription(inputs, plan, tables, { onSurfaces: ahead?.onSurfaces })
  */
@@ -51,29 +53,34 @@ export function sulphurAhead(
   say?: (line: string) => void,
 ): SulphurAhead | null {
   if (!(threads > 1)) return null;
-  let w: Worker;
-  try {
-    w = startReportWorker();
-  } catch {
-    return null;
-  }
-  w.unref();
-  let failed = false;
-  w.on('error', () => (failed = true));
+  // started with the job (not earlier): while the surfaces are made both processors are busy already
+  let w: Worker | null = null;
   let sent: Parameters<SulphurAhead['onSurfaces']>[0] | null = null;
   let answer: Promise<SulphurPages | undefined> = Promise.resolve(undefined);
-  const stop = () => void w.terminate().catch(() => {});
+  const stop = () => void w?.terminate().catch(() => {});
+  const start = () => {
+    try {
+      w = startReportWorker();
+      w.unref();
+      w.on('error', () => {});
+    } catch {
+      w = null;
+    }
+  };
   return {
     onSurfaces(made) {
-      if (sent || failed) return;
+      if (sent) return;
       sent = made;
+      start();
+      const worker = w;
+      if (!worker) return;
       answer = new Promise((resolve) => {
-        w.once('message', (m: { pages?: SulphurPages; error?: string }) => resolve(m.pages));
-        w.once('error', () => resolve(undefined));
-        w.once('exit', () => resolve(undefined));
+        worker.once('message', (m: { pages?: SulphurPages; error?: string }) => resolve(m.pages));
+        worker.once('error', () => resolve(undefined));
+        worker.once('exit', () => resolve(undefined));
       });
       try {
-        w.postMessage(sulphurPagesInput(made.inputs, plan, tables, made.grid, made.surfaces));
+        worker.postMessage(sulphurPagesInput(made.inputs, plan, tables, made.grid, made.surfaces));
       } catch {
         // not cloneable (a bug to find in place): the folder step makes the pages
         answer = Promise.resolve(undefined);
@@ -83,7 +90,7 @@ export function sulphurAhead(
       const same =
         sent !== null && sent.inputs === inputs && sent.grid === rx.grid && sent.surfaces === rx.surfaces;
       // the worker is unref'd: hold the process open while waiting for it
-      if (same) w.ref();
+      if (same) w?.ref();
       const pages = same ? await answer : undefined;
       stop();
       say?.(`sulphate-S pages: ${pages ? 'made on a second thread beside the zones' : 'made in place'}`);
