@@ -194,11 +194,30 @@ function placeLabel(
 }
 
 /**
- * Sample dots (in metres, radius 4.5 px; low ones ringed red) and their labels (in pixels, with a halo so they
+ * Labels are drawn only when the labelled samples lie at least this far apart on average on the map (px; the
+ * square root of the map area per labelled sample). A value label is about 25 px wide and 12 px high: closer than
+ * this, labels cover one another and the surface under them, and a reader gets nothing from them. The demo
+ * quarter's 62 samples are about 90 px apart; one sample an acre on a section about 27 px (labelled); the
+ * benchmark section's 5000 samples about 10 px (dots only).
+ */
+export const MIN_LABEL_SPACING_PX = 24;
+
+/**
+ * Whether `n` labels fit the map area of `f` (see {@link MIN_LABEL_SPACING_PX}).
+ * @example labelsFit(f, 62) // true for a quarter-section map 700 px wide
+ */
+export function labelsFit(f: Frame, n: number): boolean {
+  return n === 0 || Math.sqrt((f.w * f.h) / n) >= MIN_LABEL_SPACING_PX;
+}
+
+/**
+ * Sample dots (in metres, radius 4.5 px, less where samples lie closer than 18 px apart on average; low ones
+ * ringed red) and their labels (in pixels, with a halo so they
  * read on any fill). Low samples are drawn last, on top. Each label takes the first of eight places around its
  * dot (NE, SE, NW, SW, E, W, N, S) that stays in the drawing and overlaps neither a label already placed, a
  * dot nor the north arrow, so dense grids (1 sample per acre) stay readable; where none is free it takes the
- * first place inside the drawing. `low` styles the labels red and bold.
+ * first place inside the drawing. `low` styles the labels red and bold. When the labelled samples are too dense
+ * to read ({@link labelsFit} false) only the dots are drawn: callers say so in the legend.
  * @example samplePoints(f, ids.map((id, i) => ({ x: xy[2 * i], y: xy[2 * i + 1], label: id })))
  */
 export function samplePoints(
@@ -206,15 +225,20 @@ export function samplePoints(
   samples: readonly MapSample[],
   opts: { lowLabels?: boolean } = {},
 ): string {
-  const r = 4.5 / f.k;
+  // dots shrink where samples crowd (to a quarter of their mean spacing, 1.5 px at least) so the map stays visible
+  const rPx = Math.min(4.5, Math.max(1.5, Math.sqrt((f.w * f.h) / Math.max(1, samples.length)) / 4));
+  const r = rPx / f.k;
   const order = samples
     .map((_, i) => i)
     .sort((a, b) => Number(!!samples[a]!.low) - Number(!!samples[b]!.low));
   let dots = '';
   let rings = '';
   let texts = '';
+  const labelled = samples.reduce((n, s) => n + (s.label === null || s.label === undefined ? 0 : 1), 0);
+  const drawLabels = labelsFit(f, labelled);
   const placed = new BoxIndex();
-  for (const s of samples) placed.add([px(f, s.x) - 4, py(f, s.y) - 4, px(f, s.x) + 4, py(f, s.y) + 4]);
+  if (drawLabels)
+    for (const s of samples) placed.add([px(f, s.x) - 4, py(f, s.y) - 4, px(f, s.x) + 4, py(f, s.y) + 4]);
   placed.add([f.left + f.w - 52, f.top, f.left + f.w, f.top + 74]); // the north arrow
   const bounds: Box = [2, f.top - 12, f.left + f.w + 14, f.top + f.h + 8];
   const CH = opts.lowLabels ? 7.2 : 6.3; // approximate glyph width at the labels' size
@@ -224,12 +248,12 @@ export function samplePoints(
       cy = (f.y0 - s.y).toFixed(1);
     dots += `<circle cx="${cx}" cy="${cy}" r="${r.toPrecision(3)}"${s.fill ? ` fill="${esc(s.fill)}"` : ''}/>`;
     if (s.low) rings += `<circle cx="${cx}" cy="${cy}" r="${(9 / f.k).toPrecision(3)}"/>`;
-    if (s.label === null || s.label === undefined) continue;
+    if (s.label === null || s.label === undefined || !drawLabels) continue;
     const p = placeLabel(px(f, s.x), py(f, s.y), s.label.length * CH, placed, s.low ? 4 : 0, bounds);
     texts += `<text x="${p[0].toFixed(1)}" y="${p[1].toFixed(1)}"${p[2] !== 'start' ? ` text-anchor="${p[2]}"` : ''}>${esc(s.label)}</text>`;
   }
   return (
-    `${geoGroup(f, 'samples')}<g fill="#fff" stroke="#000" stroke-width="1.5" class="sample-dots">${dots}</g>` +
+    `${geoGroup(f, 'samples')}<g fill="#fff" stroke="#000" stroke-width="${rPx < 4.5 ? fmt(rPx / 3, 2) : '1.5'}" class="sample-dots">${dots}</g>` +
     (rings ? `<g fill="none" stroke="${LOW_RED}" stroke-width="2.5" class="low-rings">${rings}</g>` : '') +
     `</g><g class="sample-labels${opts.lowLabels ? ' low' : ''}">${texts}</g>`
   );

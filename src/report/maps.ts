@@ -17,6 +17,7 @@ import {
   noteBox,
   rasterLayer,
   samplePoints,
+  labelsFit,
 } from '../draw/layers.js';
 import { type LegendItem, legend } from '../draw/legend.js';
 import { trueNorthAtBox } from '../draw/north.js';
@@ -110,10 +111,12 @@ export function buildMaps(input: ReportInput): ReportMap[] {
 /** 1. Sample locations, labelled with their ids. */
 function samplesMap(ctx: MapContext): void {
   const { input, f } = ctx;
+  const n = input.samples.ids.length;
+  const fit = labelsFit(f, n);
   ctx.add(
     'samples',
     'Soil sample locations',
-    `${input.samples.ids.length} samples, labelled with their ids. ${ctx.utmNote}`,
+    `${n} samples, ${fit ? 'labelled with their ids' : `too close together at this scale to label (the ids are in report-data.json)`}. ${ctx.utmNote}`,
     () =>
       boundary(f, input.field.parts) +
       samplePoints(
@@ -122,7 +125,10 @@ function samplesMap(ctx: MapContext): void {
       ),
     {
       items: [
-        { ...SAMPLE, label: `Soil sample (${input.samples.ids.length}), labelled with its id` },
+        {
+          ...SAMPLE,
+          label: fit ? `Soil sample (${n}), labelled with its id` : `Soil sample (${n}; too dense to label)`,
+        },
         BOUNDARY,
       ],
       title: 'Samples',
@@ -147,15 +153,16 @@ function surfaceMap(ctx: MapContext, s: ReportInput['surfaces'][number]): void {
       samples(input, (i) => (vals ? valueLabel(n, vals[i]!, cens ? cens[i]! : 0) : null)),
     );
   const unit = n.unit ? ` (${n.unit})` : '';
+  const fit = labelsFit(f, vals ? input.samples.ids.length : 0);
   ctx.add(
     'surface',
     `${n.label}: interpolated surface`,
-    `${n.label}${unit}${s.method ? `, ${s.method}` : ''}, ${fmt(s.raster.grid.cell, s.raster.grid.cell < 10 ? 1 : 0)} m cells; samples labelled with their lab values ("<" below detection, ">" above range). Classes are the zones' classes. ${ctx.utmNote}`,
+    `${n.label}${unit}${s.method ? `, ${s.method}` : ''}, ${fmt(s.raster.grid.cell, s.raster.grid.cell < 10 ? 1 : 0)} m cells; ${fit ? 'samples labelled with their lab values ("<" below detection, ">" above range)' : 'samples too close together at this scale to label with their values (they are in report-data.json)'}. Classes are the zones' classes. ${ctx.utmNote}`,
     body,
     {
       items: [
         ...labels.map((l, i) => ({ fill: colours[i]!, label: l })),
-        { ...SAMPLE, label: 'Soil sample and its value' },
+        { ...SAMPLE, label: fit ? 'Soil sample and its value' : 'Soil sample (too dense to label)' },
         BOUNDARY,
       ],
       title: `${n.label}${unit}`,

@@ -6,7 +6,7 @@
  */
 import { ramp } from '../draw/colour.js';
 import { makeFrame, mapHeader, mapSvg, PAD, partsBbox } from '../draw/frame.js';
-import { boundary, type MapSample, rasterLayer, samplePoints } from '../draw/layers.js';
+import { boundary, labelsFit, type MapSample, rasterLayer, samplePoints } from '../draw/layers.js';
 import { type LegendItem, legend } from '../draw/legend.js';
 import { trueNorthAtBox } from '../draw/north.js';
 import type { Grid, RingsPart, UtmZone } from '../types.js';
@@ -134,7 +134,13 @@ export function sampleMapSvg(input: SampleMapInput): string {
   const items: LegendItem[] = [
     { fill: viridis(0.5), symbol: 'point', label: 'sample (colour: its value)' },
     ...(input.threshold !== null
-      ? [{ fill: viridis(0.1), symbol: 'ring' as const, label: 'low sample (id: value)' }]
+      ? [
+          {
+            fill: viridis(0.1),
+            symbol: 'ring' as const,
+            label: labelsFit(f, nLow) ? 'low sample (id: value)' : 'low sample (too many to label here)',
+          },
+        ]
       : []),
     { fill: 'none', symbol: 'line', label: 'field boundary' },
     ...(input.surface

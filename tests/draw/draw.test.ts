@@ -3,7 +3,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { makeFrame, mapSvg, northArrow, px, py, scaleBar } from '../../src/draw/frame.js';
-import { samplePoints } from '../../src/draw/layers.js';
+import { labelsFit, MIN_LABEL_SPACING_PX, samplePoints } from '../../src/draw/layers.js';
 import { legend } from '../../src/draw/legend.js';
 import { trueNorthAtBox } from '../../src/draw/north.js';
 
@@ -113,5 +113,28 @@ describe('sample labels', () => {
     const x0 = Number(m[1]) - (m[3] === 'end' ? w : m[3] === 'middle' ? w / 2 : 0);
     expect(x0 + w).toBeLessThanOrEqual(f.left + f.w + 16);
     expect(Number(m[2]) - 11 >= f.top + 74 || x0 + w <= f.left + f.w - 52).toBe(true);
+  });
+
+  it('are left out, dots kept, when the samples are too close together on the map to read them', () => {
+    // an 800 m square drawn about 660 px wide: a grid of m x m samples lies 660 / m px apart
+    const f = makeFrame([0, 0, 800, 800]);
+    const grid = (m: number) =>
+      Array.from({ length: m * m }, (_, i) => ({
+        x: ((i % m) + 0.5) * (800 / m),
+        y: (Math.floor(i / m) + 0.5) * (800 / m),
+        label: '17.0',
+      }));
+    const spacing = (m: number) => Math.sqrt((f.w * f.h) / (m * m));
+    for (const m of [8, 20, 27, 28, 40, 71]) {
+      const s = samplePoints(f, grid(m));
+      const texts = (s.match(/<text /g) ?? []).length;
+      const dots = (s.match(/<circle /g) ?? []).length;
+      expect(dots).toBe(m * m);
+      expect(labelsFit(f, m * m)).toBe(spacing(m) >= MIN_LABEL_SPACING_PX);
+      expect(texts).toBe(spacing(m) >= MIN_LABEL_SPACING_PX ? m * m : 0);
+    }
+    // only labelled samples count: 5041 dots with 31 labels keep their labels
+    const many = grid(71).map((p, i) => ({ ...p, label: i % 168 === 0 ? 'L' : null }));
+    expect((samplePoints(f, many).match(/<text /g) ?? []).length).toBe(31);
   });
 });
