@@ -247,14 +247,16 @@ export function samplePoints(
     const cx = (s.x - f.x0).toFixed(1),
       cy = (f.y0 - s.y).toFixed(1);
     dots += `<circle cx="${cx}" cy="${cy}" r="${r.toPrecision(3)}"${s.fill ? ` fill="${esc(s.fill)}"` : ''}/>`;
-    if (s.low) rings += `<circle cx="${cx}" cy="${cy}" r="${(9 / f.k).toPrecision(3)}"/>`;
+    if (s.low) rings += `<circle cx="${cx}" cy="${cy}" r="${((2 * rPx) / f.k).toPrecision(3)}"/>`;
     if (s.label === null || s.label === undefined || !drawLabels) continue;
     const p = placeLabel(px(f, s.x), py(f, s.y), s.label.length * CH, placed, s.low ? 4 : 0, bounds);
     texts += `<text x="${p[0].toFixed(1)}" y="${p[1].toFixed(1)}"${p[2] !== 'start' ? ` text-anchor="${p[2]}"` : ''}>${esc(s.label)}</text>`;
   }
   return (
     `${geoGroup(f, 'samples')}<g fill="#fff" stroke="#000" stroke-width="${rPx < 4.5 ? fmt(rPx / 3, 2) : '1.5'}" class="sample-dots">${dots}</g>` +
-    (rings ? `<g fill="none" stroke="${LOW_RED}" stroke-width="2.5" class="low-rings">${rings}</g>` : '') +
+    (rings
+      ? `<g fill="none" stroke="${LOW_RED}" stroke-width="${rPx < 4.5 ? fmt((2.5 * rPx) / 4.5, 2) : '2.5'}" class="low-rings">${rings}</g>`
+      : '') +
     `</g><g class="sample-labels${opts.lowLabels ? ' low' : ''}">${texts}</g>`
   );
 }
