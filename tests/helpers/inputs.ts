@@ -39,3 +39,22 @@ export function quarterPlanWith(edit: (p: Record<string, any>) => void, tables: 
   edit(p);
   return parsePlan(stringify(p), 'plan.yaml', tables);
 }
+
+/**
+ * The demo quarter's boundary (GeoJSON text) with a detached square part about 1.4 km east of it that no sample
+ * speaks for (the plan key unsampled_parts decides what it gets).
+ * @example writeFileSync(b, quarterWithUnsampledPart())
+ */
+export function quarterWithUnsampledPart(): string {
+  const d = JSON.parse(readFileSync(join(QUARTER, 'boundary.geojson'), 'utf8'));
+  const g = d.features[0].geometry;
+  const square = [
+    [-106.385, 52.315],
+    [-106.382, 52.315],
+    [-106.382, 52.317],
+    [-106.385, 52.317],
+    [-106.385, 52.315],
+  ];
+  d.features[0].geometry = { type: 'MultiPolygon', coordinates: [g.coordinates, [square]] };
+  return JSON.stringify(d);
+}

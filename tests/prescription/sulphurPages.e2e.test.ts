@@ -8,7 +8,7 @@ import { buildPrescription, type BuildOptions } from '../../src/prescription/ind
 import { prescriptionFolder } from '../../src/prescription/folder.js';
 import { sulphurPages, sulphurPagesInput } from '../../src/prescription/sulphurPages.js';
 import { parsePlan, defaultTables } from '../../src/agronomy/index.js';
-import { fieldInputs } from '../helpers/inputs.js';
+import { fieldInputs, quarterWithUnsampledPart } from '../helpers/inputs.js';
 import { ROOT } from '../helpers/cli.js';
 
 const src = (f: string) => ({ name: f, bytes: readFileSync(join(ROOT, 'sample-fields/quarter', f)) });
@@ -42,19 +42,9 @@ describe('sulphate-S pages made ahead', () => {
   });
 
   it('a field with an unsampled part hears the sampled part: not the inputs the folder gets, so the CLI makes the pages in place', async () => {
-    const d = JSON.parse(readFileSync(join(ROOT, 'sample-fields/quarter/boundary.geojson'), 'utf8'));
-    const g = d.features[0].geometry;
-    const square = [
-      [-106.385, 52.315],
-      [-106.382, 52.315],
-      [-106.382, 52.317],
-      [-106.385, 52.317],
-      [-106.385, 52.315],
-    ];
-    d.features[0].geometry = { type: 'MultiPolygon', coordinates: [g.coordinates, [square]] };
     const two = await fieldInputs(src('samples.csv'), {
       name: 'boundary.geojson',
-      bytes: Buffer.from(JSON.stringify(d)),
+      bytes: Buffer.from(quarterWithUnsampledPart()),
     });
     const p2 = parsePlan(
       readFileSync(join(ROOT, 'sample-fields/quarter/plan.yaml'), 'utf8').replace(

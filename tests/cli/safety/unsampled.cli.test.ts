@@ -9,24 +9,15 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { ROOT, tilth } from '../../helpers/cli.js';
+import { quarterWithUnsampledPart } from '../../helpers/inputs.js';
 
 const Q = join(ROOT, 'sample-fields', 'quarter');
 const S = join(Q, 'samples.csv');
 
 function setup(unsampled: string, grid = false): { dir: string; b: string; plan: string } {
   const dir = mkdtempSync(join(tmpdir(), 'tilth-unsampled-'));
-  const d = JSON.parse(readFileSync(join(Q, 'boundary.geojson'), 'utf8'));
-  const g = d.features[0].geometry;
-  const square = [
-    [-106.385, 52.315],
-    [-106.382, 52.315],
-    [-106.382, 52.317],
-    [-106.385, 52.317],
-    [-106.385, 52.315],
-  ];
-  d.features[0].geometry = { type: 'MultiPolygon', coordinates: [g.coordinates, [square]] };
   const b = join(dir, 'boundary.geojson');
-  writeFileSync(b, JSON.stringify(d));
+  writeFileSync(b, quarterWithUnsampledPart());
   let text = readFileSync(join(Q, 'plan.yaml'), 'utf8').replace(
     /^unsampled_parts: null /m,
     `unsampled_parts: ${unsampled} `,
