@@ -139,19 +139,18 @@ export async function runBuild(o: BuildFlags, hooks: BuildHooks): Promise<BuildO
   refuseUnfit(inputs, plan, o.samples, o.boundary);
   // the grid covers the sampled parts (unsampled_parts), the whole boundary must still fit it (task data grids)
   checkBuildCells(inputs.field.bbox, cell ?? defaultCell(gridBbox(inputs, plan)));
-  const rx = (() => {
-    try {
-      return buildPrescription(inputs, plan, tables, {
-        cell,
-        threads,
-        onProgress: hooks.onProgress,
-        onSurfaces: ahead?.onSurfaces,
-      });
-    } catch (e) {
-      ahead?.close();
-      throw e;
-    }
-  })();
+  let rx: Prescription;
+  try {
+    rx = buildPrescription(inputs, plan, tables, {
+      cell,
+      threads,
+      onProgress: hooks.onProgress,
+      onSurfaces: ahead?.onSurfaces,
+    });
+  } catch (e) {
+    ahead?.close();
+    throw e;
+  }
   hooks.stepDone();
   const sulphur = await ahead?.pages(inputs, rx);
   const named = (['samples', 'boundary', 'plan', 'zones', 'tables'] as const)

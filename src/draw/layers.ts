@@ -193,6 +193,9 @@ function placeLabel(
   return pick;
 }
 
+/** A number for an SVG attribute: at most 2 decimals, no trailing zeros (1.5, 0.77). */
+const attrNumber = (v: number): string => String(Number(v.toFixed(2)));
+
 /**
  * Labels are drawn only when the labelled samples lie at least this far apart on average on the map (px; the
  * square root of the map area per labelled sample). A value label is about 25 px wide and 12 px high: closer than
@@ -253,9 +256,9 @@ export function samplePoints(
     texts += `<text x="${p[0].toFixed(1)}" y="${p[1].toFixed(1)}"${p[2] !== 'start' ? ` text-anchor="${p[2]}"` : ''}>${esc(s.label)}</text>`;
   }
   return (
-    `${geoGroup(f, 'samples')}<g fill="#fff" stroke="#000" stroke-width="${rPx < 4.5 ? fmt(rPx / 3, 2) : '1.5'}" class="sample-dots">${dots}</g>` +
+    `${geoGroup(f, 'samples')}<g fill="#fff" stroke="#000" stroke-width="${attrNumber(rPx / 3)}" class="sample-dots">${dots}</g>` +
     (rings
-      ? `<g fill="none" stroke="${LOW_RED}" stroke-width="${rPx < 4.5 ? fmt((2.5 * rPx) / 4.5, 2) : '2.5'}" class="low-rings">${rings}</g>`
+      ? `<g fill="none" stroke="${LOW_RED}" stroke-width="${attrNumber((2.5 * rPx) / 4.5)}" class="low-rings">${rings}</g>`
       : '') +
     `</g><g class="sample-labels${opts.lowLabels ? ' low' : ''}">${texts}</g>`
   );

@@ -219,17 +219,7 @@ export class KnnGroup {
         }
         if (sorted) sortPairs(d2, idx, found);
       }
-      // proof: every point outside the gathered region is at least `edge` away
-      const ex = Math.min(qx - this.ex0, this.ex1 - qx),
-        ey = Math.min(qy - this.ey0, this.ey1 - qy);
-      const edge = ex < ey ? ex : ey;
-      const need2 = found === k ? kth : maxD2;
-      if (edge === Infinity || need2 < edge * edge) {
-        this.prevK2 = found === k ? kth : -1;
-        return found;
-      }
-      this.expansions++;
-      this.gather(this.bxa - 1, this.bxb + 1, this.bya - 1, this.byb + 1);
+      if (this.proven(qx, qy, found === k ? kth : -1)) return found;
     }
   }
 
@@ -274,18 +264,28 @@ export class KnnGroup {
         bound = maxD2;
         continue;
       }
-      // proof: every point outside the gathered region is at least `edge` away
-      const ex = Math.min(qx - this.ex0, this.ex1 - qx),
-        ey = Math.min(qy - this.ey0, this.ey1 - qy);
-      const edge = ex < ey ? ex : ey;
-      const need2 = f === k ? d2[k - 1] : maxD2;
-      if (edge === Infinity || need2 < edge * edge) {
-        this.prevK2 = f === k ? d2[k - 1] : -1;
-        return f;
-      }
-      this.expansions++;
-      this.gather(this.bxa - 1, this.bxb + 1, this.bya - 1, this.byb + 1);
+      if (this.proven(qx, qy, f === k ? d2[k - 1] : -1)) return f;
     }
+  }
+
+  /**
+   * The proof of a query's answer: every point outside the gathered region is at least `edge` away, so the answer
+   * stands when its k-th squared distance (`kth2`; -1 when fewer than k were found, which must then hold for the
+   * whole search radius) is below edge^2. True: the k-th is kept as the next query's bound. False: the region has
+   * grown by one ring of buckets, and the query must be answered again.
+   */
+  private proven(qx: number, qy: number, kth2: number): boolean {
+    const ex = Math.min(qx - this.ex0, this.ex1 - qx),
+      ey = Math.min(qy - this.ey0, this.ey1 - qy);
+    const edge = ex < ey ? ex : ey;
+    const need2 = kth2 >= 0 ? kth2 : this.maxD2;
+    if (edge === Infinity || need2 < edge * edge) {
+      this.prevK2 = kth2;
+      return true;
+    }
+    this.expansions++;
+    this.gather(this.bxa - 1, this.bxb + 1, this.bya - 1, this.byb + 1);
+    return false;
   }
 
   /** Squared y distances of the gathered candidates to the row y = qy (kept while the row and the candidates stay). */
