@@ -93,38 +93,103 @@ export function cellTargets(
       r1 = keyRange(s1, q1, fraction);
     const w0 = r0.hi - r0.lo + 1,
       w1 = r1.hi - r1.lo + 1;
-    const table = w0 * w1 <= TABLE_MAX ? new Float64Array(w0 * w1) : null;
-    const known = table ? new Uint8Array(w0 * w1) : null;
-    const cache = new Map<number, number>();
-    for (let i = 0; i < n; i++) {
-      if (!(fraction[i] > 0)) continue;
-      // integer key from the quantized driver values; a missing surface counts as not tested (NaN)
-      const a = s0 ? s0[i] : NaN;
-      if (s0 && a !== a) continue;
-      const b = s1 ? s1[i] : NaN;
-      if (s1 && b !== b) continue;
-      const k0 = s0 ? Math.round(a / q0) : 0;
-      const k1 = s1 ? Math.round(b / q1) : 0;
-      let t: number | undefined;
-      if (table && known) {
-        const at = (k0 - r0.lo) * w1 + (k1 - r1.lo);
-        if (known[at] === 1) t = table[at];
-        else {
-          t = one(s0 ? k0 * q0 : NaN, s1 ? k1 * q1 : NaN);
-          table[at] = t;
-          known[at] = 1;
-        }
-      } else {
-        const key = two ? (k0 + 2_000_000) * 4_000_003 + (k1 + 2_000_000) : k0 + 2_000_000;
-        t = cache.get(key);
-        if (t === undefined) {
-          t = one(s0 ? k0 * q0 : NaN, s1 ? k1 * q1 : NaN);
-          cache.set(key, t);
-        }
-      }
-      arr[i] = t;
-    }
+    if (w0 * w1 <= TABLE_MAX) {
+      // the common case: a flat table, filled by a loop specialised to one or two present surfaces
+      // (one loop for every shape made V8 drop its optimised code at each change of shape)
+      const table = new Float64Array(w0 * w1);
+      const known = new Uint8Array(w0 * w1);
+      if (s0 && s1) fillTwo(arr, fraction, s0, s1, q0, q1, r0.lo, r1.lo, w1, table, known, one);
+      else if (s0) fillOne(arr, fraction, s0, q0, r0.lo, table, known, (v) => one(v, NaN));
+      else if (s1) fillOne(arr, fraction, s1, q1, r1.lo, table, known, (v) => one(NaN, v));
+    } else fillMap(arr, fraction, s0, s1, q0, q1, one);
     out[nut] = arr;
   }
   return out;
+}
+
+/** Targets of cells read from a flat table over one quantized driver (entries made on first use). */
+function fillOne(
+  arr: Float64Array,
+  fraction: ArrayLike<number>,
+  s: Float64Array,
+  q: number,
+  lo: number,
+  table: Float64Array,
+  known: Uint8Array,
+  one: (v: number) => number,
+): void {
+  for (let i = 0; i < arr.length; i++) {
+    if (!(fraction[i] > 0)) continue;
+    const a = s[i];
+    if (a !== a) continue;
+    const k = Math.round(a / q);
+    const at = k - lo;
+    if (known[at] === 0) {
+      table[at] = one(k * q);
+      known[at] = 1;
+    }
+    arr[i] = table[at];
+  }
+}
+
+/** Targets of cells read from a flat table over two quantized drivers (row = first, column = second). */
+function fillTwo(
+  arr: Float64Array,
+  fraction: ArrayLike<number>,
+  s0: Float64Array,
+  s1: Float64Array,
+  q0: number,
+  q1: number,
+  lo0: number,
+  lo1: number,
+  w1: number,
+  table: Float64Array,
+  known: Uint8Array,
+  one: (v0: number, v1: number) => number,
+): void {
+  for (let i = 0; i < arr.length; i++) {
+    if (!(fraction[i] > 0)) continue;
+    const a = s0[i];
+    if (a !== a) continue;
+    const b = s1[i];
+    if (b !== b) continue;
+    const k0 = Math.round(a / q0);
+    const k1 = Math.round(b / q1);
+    const at = (k0 - lo0) * w1 + (k1 - lo1);
+    if (known[at] === 0) {
+      table[at] = one(k0 * q0, k1 * q1);
+      known[at] = 1;
+    }
+    arr[i] = table[at];
+  }
+}
+
+/** Targets of cells whose drivers spread too far for a flat table: entries kept in a Map by integer key. */
+function fillMap(
+  arr: Float64Array,
+  fraction: ArrayLike<number>,
+  s0: Float64Array | undefined,
+  s1: Float64Array | undefined,
+  q0: number,
+  q1: number,
+  one: (v0: number, v1: number) => number,
+): void {
+  const cache = new Map<number, number>();
+  for (let i = 0; i < arr.length; i++) {
+    if (!(fraction[i] > 0)) continue;
+    // a missing surface counts as not tested (NaN)
+    const a = s0 ? s0[i] : NaN;
+    if (s0 && a !== a) continue;
+    const b = s1 ? s1[i] : NaN;
+    if (s1 && b !== b) continue;
+    const k0 = s0 ? Math.round(a / q0) : 0;
+    const k1 = s1 ? Math.round(b / q1) : 0;
+    const key = (k0 + 2_000_000) * 4_000_003 + (k1 + 2_000_000);
+    let t = cache.get(key);
+    if (t === undefined) {
+      t = one(s0 ? k0 * q0 : NaN, s1 ? k1 * q1 : NaN);
+      cache.set(key, t);
+    }
+    arr[i] = t;
+  }
 }
