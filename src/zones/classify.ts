@@ -235,18 +235,25 @@ function standardization(
   const d = dims.length;
   const mu = new Float64Array(d),
     sd = new Float64Array(d);
+  // one dimension at a time: each sum still adds the cells in order, so the figures are those of a
+  // cell-by-cell loop, while each loop reads one array
   let tw = 0;
-  for (let t = 0; t < valid.length; t++) {
-    const i = valid[t];
-    const wi = weights ? weights[i] : 1;
-    tw += wi;
-    for (let j = 0; j < d; j++) mu[j] += wi * dims[j][i];
-  }
-  for (let j = 0; j < d; j++) mu[j] /= tw;
-  for (let t = 0; t < valid.length; t++) {
-    const i = valid[t];
-    const wi = weights ? weights[i] : 1;
-    for (let j = 0; j < d; j++) sd[j] += wi * (dims[j][i] - mu[j]) ** 2;
+  for (let t = 0; t < valid.length; t++) tw += weights ? weights[valid[t]] : 1;
+  for (let j = 0; j < d; j++) {
+    const col = dims[j];
+    let s = 0;
+    for (let t = 0; t < valid.length; t++) {
+      const i = valid[t];
+      s += (weights ? weights[i] : 1) * col[i];
+    }
+    mu[j] = s / tw;
+    const m = mu[j];
+    let q = 0;
+    for (let t = 0; t < valid.length; t++) {
+      const i = valid[t];
+      q += (weights ? weights[i] : 1) * (col[i] - m) ** 2;
+    }
+    sd[j] = q;
   }
   for (let j = 0; j < d; j++) {
     sd[j] = Math.sqrt(sd[j] / tw);
@@ -352,17 +359,31 @@ function vectorClasses(
   const zi = new Float64Array(d);
   const sw = new Float64Array(kc),
     smf = new Float64Array(kc * d);
+  // neighbouring cells mostly carry the same targets (they come from a table of lab-precision values):
+  // a cell whose values equal the previous valid cell's takes its class without the distances
+  const prev = new Float64Array(d).fill(NaN);
+  let arg = 0;
   for (let t = 0; t < valid.length; t++) {
     const i = valid[t];
-    for (let j = 0; j < d; j++) zi[j] = (dims[j][i] - mu[j]) / sd[j];
-    let best = Infinity,
+    let same = true;
+    for (let j = 0; j < d; j++) {
+      const x = dims[j][i];
+      if (x !== prev[j]) {
+        same = false;
+        prev[j] = x;
+      }
+    }
+    if (!same) {
+      for (let j = 0; j < d; j++) zi[j] = (prev[j] - mu[j]) / sd[j];
+      let best = Infinity;
       arg = 0;
-    for (let c = 0; c < kc; c++) {
-      let dd = 0;
-      for (let j = 0; j < d; j++) dd += (zi[j] - cf[c * d + j]) ** 2;
-      if (dd < best) {
-        best = dd;
-        arg = c;
+      for (let c = 0; c < kc; c++) {
+        let dd = 0;
+        for (let j = 0; j < d; j++) dd += (zi[j] - cf[c * d + j]) ** 2;
+        if (dd < best) {
+          best = dd;
+          arg = c;
+        }
       }
     }
     const c = rank[arg];

@@ -163,6 +163,35 @@ describe('classifyVectors (one zone set for several products)', () => {
       { numRuns: 40 },
     );
   });
+  it('gives every cell with the same values the same class, in runs or apart (brute-force oracle over pairs)', () => {
+    // lab-precision targets repeat along rows; each cell must still take the centre nearest its own values
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 1e6 }), fc.integer({ min: 1, max: 3 }), (seed, d) => {
+        let s = seed;
+        const rnd = () => {
+          s = (s * 1664525 + 1013904223) >>> 0;
+          return s / 2 ** 32;
+        };
+        const n = 400;
+        const dims = Array.from({ length: d }, () => new Float64Array(n));
+        for (let i = 0; i < n;) {
+          // runs of 1-6 equal cells; each dimension drawn from a few values, so runs share some dimensions
+          const run = 1 + Math.floor(rnd() * 6);
+          const v = dims.map(() => 5 * Math.floor(rnd() * 4));
+          for (let r = 0; r < run && i < n; r++, i++) for (let j = 0; j < d; j++) dims[j][i] = v[j];
+        }
+        const vc = classifyVectors(dims, { classes: 4, seed });
+        const byKey = new Map<string, number>();
+        for (let i = 0; i < n; i++) {
+          const key = dims.map((a) => a[i]).join(',');
+          const c = byKey.get(key);
+          if (c === undefined) byKey.set(key, vc.classOf[i]);
+          else expect(vc.classOf[i]).toBe(c);
+        }
+      }),
+      { numRuns: 60 },
+    );
+  });
 });
 
 describe('cleaning helpers', () => {
