@@ -45,19 +45,24 @@ export function majorityFilter(classes: Int16Array, cols: number, rows: number, 
     for (let r = 0; r < rows; r++) {
       const r0 = r > 0 ? r - 1 : r,
         r1 = r < rows - 1 ? r + 1 : r;
+      // the class of the previous cell of the row when its whole window held only that class (or
+      // unclassed cells), else -2: a cell of that class then needs only its window's new column checked
+      let run = -2;
       for (let c = 0; c < cols; c++) {
         const i = r * cols + c,
           own = src[i];
         if (own < 0) {
           dst[i] = own;
+          run = -2;
           continue;
         }
         const c0 = c > 0 ? c - 1 : c,
           c1 = c < cols - 1 ? c + 1 : c;
         // fast path: all neighbours equal to own
         let same = true;
+        const from = run === own ? (c1 > c ? c1 : c1 + 1) : c0;
         for (let rr = r0; rr <= r1 && same; rr++)
-          for (let cc = c0; cc <= c1; cc++) {
+          for (let cc = from; cc <= c1; cc++) {
             const v = src[rr * cols + cc];
             if (v !== own && v >= 0) {
               same = false;
@@ -66,8 +71,10 @@ export function majorityFilter(classes: Int16Array, cols: number, rows: number, 
           }
         if (same) {
           dst[i] = own;
+          run = own;
           continue;
         }
+        run = -2;
         counts.fill(0);
         for (let rr = r0; rr <= r1; rr++)
           for (let cc = c0; cc <= c1; cc++) {

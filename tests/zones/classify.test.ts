@@ -212,4 +212,56 @@ describe('cleaning helpers', () => {
     expect(f[12]).toBe(1);
     expect(majorityFilter(new Int16Array(25).fill(2), cols, rows, 3)).toEqual(new Int16Array(25).fill(2));
   });
+
+  it('majority filter equals a brute-force 3 x 3 count on clumpy rasters with unclassed cells', () => {
+    // oracle: each classed cell takes the class most frequent in its 3 x 3 window (clipped at the edges,
+    // unclassed cells not counted), keeping its own on a tie and otherwise the lowest such class
+    const oracle = (src: Int16Array, cols: number, rows: number, nc: number) => {
+      const dst = new Int16Array(src.length);
+      for (let r = 0; r < rows; r++)
+        for (let c = 0; c < cols; c++) {
+          const i = r * cols + c;
+          if (src[i] < 0) {
+            dst[i] = src[i];
+            continue;
+          }
+          const counts = new Array<number>(nc).fill(0);
+          for (let rr = Math.max(0, r - 1); rr <= Math.min(rows - 1, r + 1); rr++)
+            for (let cc = Math.max(0, c - 1); cc <= Math.min(cols - 1, c + 1); cc++)
+              if (src[rr * cols + cc] >= 0) counts[src[rr * cols + cc]]++;
+          let best = src[i];
+          for (let k = 0; k < nc; k++) if (counts[k] > counts[best]) best = k;
+          dst[i] = best;
+        }
+      return dst;
+    };
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 1e6 }),
+        fc.integer({ min: 1, max: 14 }),
+        fc.integer({ min: 1, max: 14 }),
+        fc.integer({ min: 1, max: 3 }),
+        (seed, cols, rows, iterations) => {
+          let s = seed;
+          const rnd = () => {
+            s = (s * 1664525 + 1013904223) >>> 0;
+            return s / 2 ** 32;
+          };
+          // runs along rows (long stretches of one class, some unclassed), so the run shortcut is exercised
+          const a = new Int16Array(cols * rows);
+          let v = 0;
+          for (let i = 0; i < a.length; i++) {
+            if (rnd() < 0.25) v = rnd() < 0.15 ? -1 : Math.floor(rnd() * 3);
+            a[i] = v;
+          }
+          let want = a;
+          for (let it = 0; it < iterations; it++) want = oracle(want, cols, rows, 3);
+          const got = majorityFilter(a, cols, rows, iterations);
+          // the filter stops early once a pass changes nothing; the oracle's further passes change nothing then
+          expect(Array.from(got)).toEqual(Array.from(want));
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
 });
