@@ -16,6 +16,8 @@ export default defineConfig(({ mode }) => {
   return {
     test: {
       include: ['tests/**/*.test.ts', 'src/**/*.test.ts'],
+      // every temporary file of the run under one folder, removed at the end (tests/globalSetup.ts)
+      globalSetup: ['tests/globalSetup.ts'],
       exclude: fast
         ? ['**/node_modules/**', '**/*.cli.test.ts', '**/*.e2e.test.ts', '**/*.tool.test.ts']
         : ['**/node_modules/**'],
