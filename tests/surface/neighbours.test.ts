@@ -12,7 +12,7 @@ import { crossValidate, crossValidateMany } from '../../src/surface/crossValidat
 import { nutrientSurface, nutrientSurfaces } from '../../src/surface/nutrientSurface.js';
 import { fieldGrid } from '../../src/surface/grid.js';
 import { medianNearest } from '../../src/variability/sampling.js';
-import { neighbourOutliers } from '../../src/cli/safety/plausible.js';
+import { findNeighbourOutliers, neighbourOutliers } from '../../src/cli/safety/plausible.js';
 import type { Samples } from '../../src/types.js';
 import { orient } from '../../src/geo/field.js';
 import { ANALYTES, type Analyte } from '../../src/types.js';
@@ -255,6 +255,72 @@ describe('neighbourOutliers (input safety) on the shared search', () => {
     const s = { ids: [...Array(n).keys()].map((i) => `S${i + 1}`), xy, values } as unknown as Samples;
     const w = neighbourOutliers(s, 's.csv');
     expect(w.map((x) => x.where)).toEqual([expect.stringMatching(/^"S21" \(180/)]);
+  });
+});
+
+describe('findNeighbourOutliers against an every-pair oracle', () => {
+  it('flags the same values with the same neighbour medians as sorting every distance and every neighbour list', () => {
+    // the oracle: every pair's Math.hypot distance, a stable sort, the 6 nearest, their non-NaN values' median by
+    // sorting, 1.4826 x the median absolute residual, then z > 5 and a factor of 3 (pH 1.5 units) from the median
+    const med = (xs: number[]) => {
+      const t = [...xs].sort((a, b) => a - b);
+      const m = t.length >> 1;
+      return t.length % 2 ? t[m] : (t[m - 1] + t[m]) / 2;
+    };
+    fc.assert(
+      fc.property(fc.integer({ min: 8, max: 120 }), fc.integer({ min: 1, max: 2 ** 30 }), (n, seed) => {
+        const { xy } = setup(n, seed, 12, 12, 5);
+        const rnd = lcg(seed ^ 0x5bd1e995);
+        const values = Object.fromEntries(
+          ANALYTES.map((a) => [
+            a,
+            Float64Array.from({ length: n }, () => {
+              const u = rnd();
+              // a few missing values, a few planted far-off ones, the rest on a lab's 0.5 steps (ties in medians)
+              return u < 0.1
+                ? NaN
+                : u > 0.95
+                  ? 400 + Math.round(rnd() * 100)
+                  : 10 + Math.round(rnd() * 20) / 2;
+            }),
+          ]),
+        );
+        const s = { ids: [...Array(n).keys()].map((i) => `S${i + 1}`), xy, values } as unknown as Samples;
+        const want: { analyte: string; index: number[]; neighbourMedian: number[] }[] = [];
+        const near = [...Array(n).keys()].map((i) => {
+          const d: [number, number][] = [];
+          for (let j = 0; j < n; j++)
+            if (j !== i) d.push([Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]), j]);
+          return d
+            .sort((a, b) => a[0] - b[0])
+            .slice(0, 6)
+            .map((x) => x[1]);
+        });
+        for (const a of ['no3_n', 'p', 'k', 'so4_s', 'om', 'ph'] as Analyte[]) {
+          const v = values[a];
+          const res = near.map((nb, i) => {
+            const around = nb.map((j) => v[j]).filter((x) => !Number.isNaN(x));
+            return !Number.isNaN(v[i]) && around.length >= 3 ? v[i] - med(around) : NaN;
+          });
+          const abs = res.filter((x) => !Number.isNaN(x)).map(Math.abs);
+          if (abs.length < 6) continue;
+          const scale = 1.4826 * med(abs);
+          if (!(scale > 0)) continue;
+          const f = { analyte: a, index: [] as number[], neighbourMedian: [] as number[] };
+          res.forEach((r, i) => {
+            const m = v[i] - r;
+            const far = a === 'ph' ? Math.abs(v[i] - m) > 1.5 : v[i] > 3 * m || v[i] * 3 < m;
+            if (Math.abs(r) / scale > 5 && far) {
+              f.index.push(i);
+              f.neighbourMedian.push(m);
+            }
+          });
+          if (f.index.length) want.push(f);
+        }
+        expect(findNeighbourOutliers(s)).toEqual(want);
+      }),
+      { numRuns: 80, seed: 41 },
+    );
   });
 });
 

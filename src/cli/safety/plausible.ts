@@ -77,22 +77,37 @@ export interface OutlierFinding {
 /** What to do with flagged values: keep them in the maps (the default) or leave them out of interpolation. */
 export type OutlierMode = 'keep' | 'drop';
 
-/** The nearest others of each sample (at most {@link OUTLIER_NEIGHBOURS}), by Math.hypot, ties to the lower index. */
-function nearestOthers(xy: Float64Array, n: number): number[][] {
+/**
+ * The nearest others of each sample (at most {@link OUTLIER_NEIGHBOURS}), by Math.hypot, ties to the lower index:
+ * sample i's are idx[i * OUTLIER_NEIGHBOURS + t] for t < count[i], nearest first.
+ */
+function nearestOthers(xy: Float64Array, n: number): { idx: Int32Array; count: Int32Array } {
   // a few more than needed from the shared bucketed search (linear, not every pair), then ordered as a sort of
-  // every distance would order them
+  // every distance would order them (insertion into scratch arrays: a few thousand samples, no garbage)
   const near = sampleNeighbours(xy, OUTLIER_NEIGHBOURS + 4);
-  const nb: number[][] = [];
+  const K = OUTLIER_NEIGHBOURS;
+  const idx = new Int32Array(n * K),
+    count = new Int32Array(n);
+  const dd = new Float64Array(near.k),
+    jj = new Int32Array(near.k);
   for (let i = 0; i < n; i++) {
-    const d: [number, number][] = [];
-    for (let t = 0; t < near.found[i]; t++) {
+    let m = 0;
+    for (let t = 0; t < near.found[i]!; t++) {
       const j = near.idx[i * near.k + t]!;
-      d.push([Math.hypot(xy[2 * i]! - xy[2 * j]!, xy[2 * i + 1]! - xy[2 * j + 1]!), j]);
+      const d = Math.hypot(xy[2 * i]! - xy[2 * j]!, xy[2 * i + 1]! - xy[2 * j + 1]!);
+      let p = m++;
+      while (p > 0 && (dd[p - 1]! > d || (dd[p - 1] === d && jj[p - 1]! > j))) {
+        dd[p] = dd[p - 1]!;
+        jj[p] = jj[p - 1]!;
+        p--;
+      }
+      dd[p] = d;
+      jj[p] = j;
     }
-    d.sort((a, b) => a[0] - b[0] || a[1] - b[1]);
-    nb.push(d.slice(0, OUTLIER_NEIGHBOURS).map((x) => x[1]));
+    count[i] = Math.min(m, K);
+    for (let t = 0; t < count[i]!; t++) idx[i * K + t] = jj[t]!;
   }
-  return nb;
+  return { idx, count };
 }
 
 /**
@@ -106,14 +121,30 @@ export function findNeighbourOutliers(s: Samples): OutlierFinding[] {
   const n = s.ids.length;
   if (n < OUTLIER_NEIGHBOURS + 2 || n > OUTLIER_MAX_SAMPLES) return [];
   const nb = nearestOthers(s.xy, n);
+  const K = OUTLIER_NEIGHBOURS;
+  const around = new Float64Array(K);
   const found: OutlierFinding[] = [];
   for (const a of ['no3_n', 'p', 'k', 'so4_s', 'om', 'ph'] as Analyte[]) {
     const v = s.values[a];
     if (!v) continue;
     const res = new Float64Array(n).fill(NaN);
     for (let i = 0; i < n; i++) {
-      const around = nb[i]!.map((j) => v[j]!).filter((x) => !Number.isNaN(x));
-      if (!Number.isNaN(v[i]!) && around.length >= 3) res[i] = v[i]! - median(around);
+      if (Number.isNaN(v[i]!)) continue;
+      // the neighbours' values (NaN left out) in ascending order, for their median
+      let m = 0;
+      for (let t = 0; t < nb.count[i]!; t++) {
+        const x = v[nb.idx[i * K + t]!]!;
+        if (Number.isNaN(x)) continue;
+        let p = m++;
+        while (p > 0 && around[p - 1]! > x) {
+          around[p] = around[p - 1]!;
+          p--;
+        }
+        around[p] = x;
+      }
+      if (m < 3) continue;
+      const h = m >> 1;
+      res[i] = v[i]! - (m % 2 ? around[h]! : (around[h - 1]! + around[h]!) / 2);
     }
     const abs = [...res].filter((x) => !Number.isNaN(x)).map(Math.abs);
     if (abs.length < OUTLIER_NEIGHBOURS) continue;
