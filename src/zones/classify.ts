@@ -296,10 +296,16 @@ function kmeansPlusPlus(zs: Float64Array, d: number, k: number, rnd: () => numbe
 function lloyd(zs: Float64Array, d: number, cent: Float64Array[], maxIter: number): void {
   const m = zs.length / d;
   const acc = cent.map(() => new Float64Array(d + 1));
+  // cell targets come from a table of lab-precision values, so the sample holds few distinct vectors: each
+  // distinct vector's nearest centre is found once per pass and every sample takes its vector's; the centres'
+  // sums still add the samples in order (the same figures as finding each sample's centre on its own)
+  const { of, first } = distinctVectors(zs, d);
+  const u = first.length;
+  const near = new Int32Array(u);
   for (let it = 0; it < maxIter; it++) {
     for (const a of acc) a.fill(0);
-    for (let s = 0; s < m; s++) {
-      const o = s * d;
+    for (let v = 0; v < u; v++) {
+      const o = first[v] * d;
       let best = Infinity,
         arg = 0;
       for (let c = 0; c < cent.length; c++) {
@@ -310,7 +316,11 @@ function lloyd(zs: Float64Array, d: number, cent: Float64Array[], maxIter: numbe
           arg = c;
         }
       }
-      const a = acc[arg];
+      near[v] = arg;
+    }
+    for (let s = 0; s < m; s++) {
+      const o = s * d;
+      const a = acc[near[of[s]]];
       for (let j = 0; j < d; j++) a[j] += zs[o + j];
       a[d] += 1;
     }
@@ -325,6 +335,30 @@ function lloyd(zs: Float64Array, d: number, cent: Float64Array[], maxIter: numbe
     }
     if (moved < 1e-9) break;
   }
+}
+
+/**
+ * The distinct vectors of rows of `d` values: per row the number of its vector (`of`), and per vector the
+ * first row holding it (`first`). Vectors are equal when every value is (0 and -0 alike: they are as far
+ * from every centre).
+ */
+function distinctVectors(zs: Float64Array, d: number): { of: Int32Array; first: number[] } {
+  const m = zs.length / d;
+  const of = new Int32Array(m);
+  const first: number[] = [];
+  const seen = new Map<string, number>();
+  for (let s = 0; s < m; s++) {
+    let key = '';
+    for (let j = 0; j < d; j++) key += (j ? ',' : '') + zs[s * d + j];
+    let v = seen.get(key);
+    if (v === undefined) {
+      v = first.length;
+      first.push(s);
+      seen.set(key, v);
+    }
+    of[s] = v;
+  }
+  return { of, first };
 }
 
 /** The sample cells' standardized vectors, row by row (cell s's dimension j at s * d + j). */

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
@@ -162,6 +163,30 @@ describe('classifyVectors (one zone set for several products)', () => {
       ),
       { numRuns: 40 },
     );
+  });
+  it('gives the classes and means of the plain cell-by-cell k-means on seeded lab-step data (golden)', () => {
+    // golden values recorded with the implementation that found every sample's and every cell's centre on its
+    // own (before the shortcuts for repeated vectors); the shortcuts must not change one class or one bit of a mean
+    let s = 12345;
+    const rnd = () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32;
+    const n = 3000,
+      dims = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
+    for (let i = 0; i < n; i++) {
+      dims[0][i] = 100 + 5 * Math.floor(rnd() * 8);
+      dims[1][i] = 20 + 2.5 * Math.floor(rnd() * 10);
+      dims[2][i] = rnd() < 0.3 ? 0 : 10 * Math.floor(rnd() * 3);
+    }
+    const v = classifyVectors(dims, { classes: 5, seed: 3, sample: 1000 });
+    expect(createHash('sha256').update(Buffer.from(v.classOf.buffer)).digest('hex').slice(0, 16)).toBe(
+      '052398100a37b3b5',
+    );
+    expect(v.mean).toEqual([
+      [105.53497942386831, 29.386145404663925, 1.7421124828532235],
+      [126.33136094674556, 25.236686390532544, 0],
+      [124.21550094517958, 25.340264650283554, 15.51984877126654],
+      [123.59756097560975, 38.864329268292686, 2.057926829268293],
+      [111.50259067357513, 35.88946459412781, 17.202072538860104],
+    ]);
   });
   it('gives every cell with the same values the same class, in runs or apart (brute-force oracle over pairs)', () => {
     // lab-precision targets repeat along rows; each cell must still take the centre nearest its own values
