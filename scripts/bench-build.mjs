@@ -9,8 +9,11 @@
 // Medians of several runs (wall); peak memory from /usr/bin/time -v (maximum resident set size).
 // One extra run per case times the build's stages from its progress lines on stderr.
 //
-// Usage: node scripts/bench-build.mjs [--runs 5] [--quick] [--nn] [--keep]
+// Usage: node scripts/bench-build.mjs [--runs 5] [--quick] [--pairs N] [--nn] [--keep]
 //   --quick (or TILTH_BENCH_QUICK=1): 1 run per figure (the section takes tens of seconds a run)
+//   --pairs N: then N alternating pairs (one section build, one GDAL chain) and the median of the N ratios:
+//     on a shared machine whose speed drifts from minute to minute, a ratio within a pair is steadier than a
+//     ratio of medians taken minutes apart
 //   --nn: also time gdal_grid invdistnn:power=2:max_points=12 on the section (takes many minutes)
 //   --keep: keep the temporary folder with the synthetic inputs and outputs, and print its path
 //   TILTH_BENCH_CLI=dist/x.mjs: time that entry point instead of bin/tilth.js (experiments)
@@ -26,9 +29,11 @@ import {
   load,
   machine,
   measure,
+  med,
   QUARTER_INPUTS,
   root,
   TILTH,
+  timeRun,
 } from './bench-lib.mjs';
 
 const args = process.argv.slice(2);
@@ -36,6 +41,7 @@ const QUICK = args.includes('--quick') || process.env.TILTH_BENCH_QUICK === '1';
 const RUNS = QUICK ? 1 : Number(args[args.indexOf('--runs') + 1]) || 5;
 const SECTION_RUNS = QUICK ? 1 : Math.min(RUNS, 3);
 const NN = args.includes('--nn');
+const PAIRS = args.includes('--pairs') ? Number(args[args.indexOf('--pairs') + 1]) || 3 : 0;
 const KEEP = args.includes('--keep');
 const HAS_GDAL = ['gdal_grid', 'gdal_calc.py', 'gdal_polygonize.py'].every(
   (c) => !spawnSync(c, ['--help'], { stdio: 'ignore' }).error,
@@ -87,6 +93,40 @@ function stages(argv) {
   });
 }
 
+/** GDAL's chain on the section: gdal_grid invdist (all points), gdal_calc.py (classes), gdal_polygonize.py. */
+function chainSteps(grid, calc) {
+  return [
+    [
+      'gdal_grid',
+      [...grid, '-a', 'invdist:power=2:smoothing=0', join(dir, 'points.vrt'), join(dir, 'p.tif')],
+    ],
+    [
+      'gdal_calc.py',
+      [
+        '--quiet',
+        '--overwrite',
+        '-A',
+        join(dir, 'p.tif'),
+        '--outfile',
+        join(dir, 'class.tif'),
+        '--type',
+        'Byte',
+        '--NoDataValue',
+        '0',
+        '--calc',
+        calc,
+      ],
+    ],
+    [
+      'sh',
+      [
+        '-c',
+        `rm -f ${join(dir, 'zones.gpkg')} && gdal_polygonize.py -q ${join(dir, 'class.tif')} -of GPKG ${join(dir, 'zones.gpkg')} zones class`,
+      ],
+    ],
+  ];
+}
+
 const f3 = (x) => (Number.isFinite(x) ? x.toFixed(3) : 'n/a');
 const f0 = (x) => (Number.isFinite(x) ? x.toFixed(0) : 'n/a');
 
@@ -131,43 +171,11 @@ try {
       ...['-q', '-ot', 'Float32', '-of', 'GTiff', '-a_srs', 'EPSG:32613'],
       ...gdalGridFrame(X0, X0 + SIDE, Y0 + SIDE, Y0, SIDE, SIDE),
     ];
-    const g1 = measure(
-      'gdal_grid',
-      [...grid, '-a', 'invdist:power=2:smoothing=0', join(dir, 'points.vrt'), join(dir, 'p.tif')],
-      SECTION_RUNS,
-      dir,
-    );
     // five equal-interval classes of P Olsen between the samples' min and max
     const br = [1, 2, 3, 4].map((k) => pmin + ((pmax - pmin) * k) / 5);
     const calc = `1+${br.map((b) => `(A>${b.toFixed(4)})`).join('+')}`;
-    const g2 = measure(
-      'gdal_calc.py',
-      [
-        '--quiet',
-        '--overwrite',
-        '-A',
-        join(dir, 'p.tif'),
-        '--outfile',
-        join(dir, 'class.tif'),
-        '--type',
-        'Byte',
-        '--NoDataValue',
-        '0',
-        '--calc',
-        calc,
-      ],
-      SECTION_RUNS,
-      dir,
-    );
-    const g3 = measure(
-      'sh',
-      [
-        '-c',
-        `rm -f ${join(dir, 'zones.gpkg')} && gdal_polygonize.py -q ${join(dir, 'class.tif')} -of GPKG ${join(dir, 'zones.gpkg')} zones class`,
-      ],
-      SECTION_RUNS,
-      dir,
-    );
+    const steps = chainSteps(grid, calc);
+    const [g1, g2, g3] = steps.map(([cmd, argv]) => measure(cmd, argv, SECTION_RUNS, dir));
     const nz = spawnSync('ogrinfo', ['-so', join(dir, 'zones.gpkg'), 'zones'], {
       encoding: 'utf8',
     }).stdout.match(/Feature Count: (\d+)/)?.[1];
@@ -196,6 +204,16 @@ try {
         dir,
       );
     chain.nn = gnn;
+    // alternating pairs: the section build, then the chain, N times; the ratio within each pair
+    if (PAIRS > 0) {
+      const ratios = [];
+      for (let p = 0; p < PAIRS; p++) {
+        const t = timeRun(process.execPath, [TILTH, ...sArgs, ...EXTRA], { cwd: root, ok: [0, 1] }).wall;
+        const g = steps.reduce((a, [cmd, argv]) => a + timeRun(cmd, argv, { cwd: dir }).wall, 0);
+        ratios.push({ t, g, r: t / g });
+      }
+      chain.pairs = ratios;
+    }
   }
   const loadEnd = load();
 
@@ -236,6 +254,12 @@ try {
   console.log(
     `section: peak memory ${f0(sec.rss)} MB; target < 500 MB: ${sec.rss < 500 ? 'met' : Number.isFinite(sec.rss) ? 'NOT met' : 'not measured (/usr/bin/time missing)'}`,
   );
+  if (chain?.pairs) {
+    const r = chain.pairs.map((x) => x.r);
+    console.log(
+      `section: ${r.length} alternating pairs, build / chain (wall) = ${chain.pairs.map((x) => `${f3(x.t)}/${f3(x.g)}`).join(', ')}; median ratio ${med(r).toFixed(2)} (range ${Math.min(...r).toFixed(2)}-${Math.max(...r).toFixed(2)})`,
+    );
+  }
   console.log(`quarter at 2 m: ${f3(qu.wall)} s; target < 1 s: ${qu.wall < 1 ? 'met' : 'NOT met'}`);
   for (const [name, st] of [
     ['quarter', sq],
