@@ -44,6 +44,12 @@ const totalSsd = (values: number[], classOf: Int16Array) => {
   return s;
 };
 
+/** A seeded linear congruential generator in [0, 1) (the constants of Numerical Recipes). */
+function lcg(seed: number): () => number {
+  let s = seed >>> 0;
+  return () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32;
+}
+
 describe('classify', () => {
   it('natural breaks reach the least within-class squared deviation (brute-force oracle)', () => {
     fc.assert(
@@ -137,11 +143,7 @@ describe('classifyVectors (one zone set for several products)', () => {
         fc.double({ min: 0.01, max: 1000, noNaN: true }),
         (seed, scale) => {
           // three groups in (N lb/ac, S lb/ac x scale): low, middle, high need; S in arbitrary units must not matter
-          let s = seed;
-          const rnd = () => {
-            s = (s * 1664525 + 1013904223) >>> 0;
-            return s / 2 ** 32;
-          };
+          const rnd = lcg(seed);
           const n = 300,
             nRate = new Float64Array(n + 1),
             sRate = new Float64Array(n + 1),
@@ -167,8 +169,7 @@ describe('classifyVectors (one zone set for several products)', () => {
   it('gives the classes and means of the plain cell-by-cell k-means on seeded lab-step data (golden)', () => {
     // golden values recorded with the implementation that found every sample's and every cell's centre on its
     // own (before the shortcuts for repeated vectors); the shortcuts must not change one class or one bit of a mean
-    let s = 12345;
-    const rnd = () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32;
+    const rnd = lcg(12345);
     const n = 3000,
       dims = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
     for (let i = 0; i < n; i++) {
@@ -192,11 +193,7 @@ describe('classifyVectors (one zone set for several products)', () => {
     // lab-precision targets repeat along rows; each cell must still take the centre nearest its own values
     fc.assert(
       fc.property(fc.integer({ min: 1, max: 1e6 }), fc.integer({ min: 1, max: 3 }), (seed, d) => {
-        let s = seed;
-        const rnd = () => {
-          s = (s * 1664525 + 1013904223) >>> 0;
-          return s / 2 ** 32;
-        };
+        const rnd = lcg(seed);
         const n = 400;
         const dims = Array.from({ length: d }, () => new Float64Array(n));
         for (let i = 0; i < n;) {
@@ -267,11 +264,7 @@ describe('cleaning helpers', () => {
         fc.integer({ min: 1, max: 14 }),
         fc.integer({ min: 1, max: 3 }),
         (seed, cols, rows, iterations) => {
-          let s = seed;
-          const rnd = () => {
-            s = (s * 1664525 + 1013904223) >>> 0;
-            return s / 2 ** 32;
-          };
+          const rnd = lcg(seed);
           // runs along rows (long stretches of one class, some unclassed), so the run shortcut is exercised
           const a = new Int16Array(cols * rows);
           let v = 0;
