@@ -175,7 +175,15 @@ export class KnnGroup {
    * two bounds this query's k-th distance (triangle inequality), so candidates beyond that bound are
    * dropped without a heap or insertion; if too few remain, the pass is redone without the bound.
    */
-  nearest(qx: number, qy: number, skip = -1, sorted = false): number {
+  nearest(
+    qx: number,
+    qy: number,
+    skip = -1,
+    sorted = false,
+    outD2: Float64Array = this.d2,
+    outIdx: Int32Array = this.idx,
+    at = 0,
+  ): number {
     const k = this.k,
       maxD2 = this.maxD2,
       d2 = this.d2,
@@ -189,7 +197,7 @@ export class KnnGroup {
     }
     this.px = qx;
     this.py = qy;
-    if (sorted) return this.nearestSorted(qx, qy, skip, bound);
+    if (sorted) return this.nearestSorted(qx, qy, skip, bound, outD2, outIdx, at);
     for (;;) {
       const c = this.within(qx, qy, bound, skip);
       const { sd, si2 } = this;
@@ -228,11 +236,18 @@ export class KnnGroup {
    * inserted into the sorted list of the k best so far, whose k-th then tightens the bound (no separate
    * selection and sort). The same answer as selecting and sorting: the k smallest pairs, ties to the lower index.
    */
-  private nearestSorted(qx: number, qy: number, skip: number, bound: number): number {
+  private nearestSorted(
+    qx: number,
+    qy: number,
+    skip: number,
+    bound: number,
+    d2: Float64Array,
+    idx: Int32Array,
+    o: number,
+  ): number {
     const k = this.k,
       maxD2 = this.maxD2,
-      d2 = this.d2,
-      idx = this.idx;
+      last = o + k - 1;
     for (;;) {
       this.rowDy(qy);
       const { cx, ci, rdy } = this;
@@ -248,23 +263,23 @@ export class KnnGroup {
         let p: number;
         if (f === k) {
           // dd <= the k-th: it enters unless it ties the k-th with a higher index
-          if (dd === d2[k - 1] && id > idx[k - 1]) continue;
-          p = k - 1;
-        } else p = f++;
-        while (p > 0 && (d2[p - 1] > dd || (d2[p - 1] === dd && idx[p - 1] > id))) {
+          if (dd === d2[last] && id > idx[last]) continue;
+          p = last;
+        } else p = o + f++;
+        while (p > o && (d2[p - 1] > dd || (d2[p - 1] === dd && idx[p - 1] > id))) {
           d2[p] = d2[p - 1];
           idx[p] = idx[p - 1];
           p--;
         }
         d2[p] = dd;
         idx[p] = id;
-        if (f === k) lim = d2[k - 1];
+        if (f === k) lim = d2[last];
       }
       if (f < k && bound < maxD2) {
         bound = maxD2;
         continue;
       }
-      if (this.proven(qx, qy, f === k ? d2[k - 1] : -1)) return f;
+      if (this.proven(qx, qy, f === k ? d2[last] : -1)) return f;
     }
   }
 

@@ -216,14 +216,16 @@ class BandSearch implements NeighbourSearch {
           const c = fwd ? t : c1 - 1 - (t - c0);
           const i = r * cols + c;
           if (where && !(where[i] > 0)) continue;
-          const f = g.nearest((c + 0.5) * cell, qy, -1, sorted);
+          const o = m * k;
+          // sorted answers go straight into the band; unsorted ones are copied from the group's arrays
+          const f = g.nearest((c + 0.5) * cell, qy, -1, sorted, d2, idx, o);
           cells[m] = i;
           found[m] = f;
-          const o = m * k;
-          for (let j = 0; j < f; j++) {
-            idx[o + j] = gi[j];
-            d2[o + j] = gd[j];
-          }
+          if (!sorted)
+            for (let j = 0; j < f; j++) {
+              idx[o + j] = gi[j];
+              d2[o + j] = gd[j];
+            }
           m++;
         }
       }
