@@ -108,7 +108,8 @@ function collectPlacements(opts: readonly ProductOption[], res: SolveResult, uni
  * @param plan a validated plan (`parsePlan`)
  * @param tables the tables in force (`loadTables`)
  * @param how `solve`: the product solver (default {@link solveProducts}; a {@link memoSolver} when many locations
- *   share their problems)
+ *   share their problems); `economics: false` leaves `economics` empty (default true: it costs two more solves
+ *   when P and K are both needed, and only notes read it, never the rates)
  * @returns the decision; `status: 'infeasible'` when the targets cannot be met within the limits, with reasons
  * @throws UserError when the plan names an unknown crop, or a seed-row or N-efficiency table value is missing and the plan says `ask`
  * @example
@@ -119,7 +120,7 @@ export function decide(
   soil: SoilValues,
   plan: Plan,
   tables: Tables,
-  how: { solve?: ProductSolver } = {},
+  how: { solve?: ProductSolver; economics?: boolean } = {},
 ): Decision {
   const solve = how.solve ?? solveProducts;
   const crop = cropOf(plan, tables);
@@ -153,7 +154,10 @@ export function decide(
   const binding = feasible ? bindingLimits(opts, res, lim, unit) : [];
   if (feasible && binding.length === 0)
     binding.push('none: every target met at least cost without reaching a limit');
-  const economics = feasible ? economicsFor({ opts, need, tol, lim, res, it, plan, tables, solve }) : [];
+  const economics =
+    feasible && how.economics !== false
+      ? economicsFor({ opts, need, tol, lim, res, it, plan, tables, solve })
+      : [];
   outcomeWarnings({ feasible, crop, opts, lim, tg, need, tol, placements, supplied, effective }, warnings);
   return {
     status: feasible ? 'ok' : 'infeasible',

@@ -15,7 +15,8 @@ import type { RegionJudge } from '../zones/regions.js';
 /** A zone (or class) as the rate engine sees it. */
 export interface ZoneProfile {
   soil: SoilValues;
-  decision: Decision;
+  /** the full decision (economics notes included), made on first read */
+  readonly decision: Decision;
   /** product rate in the plan's unit per "product|placement" (absent = 0) */
   rates: Map<string, number>;
   /** lowest and highest rate when each soil value moves by its surface's leave-one-out RMSE (one at a time) */
@@ -118,8 +119,10 @@ function ratesOf(d: Decision, products: string[]): Map<string, number> {
 /** A zone's decision, and its rates' range when each soil value moves by its leave-one-out RMSE. */
 function zoneProfile(means: Float64Array, o: RateJudgeOptions, solve: ProductSolver): ZoneProfile {
   const soil = soilOf(means, o);
-  const decision = decide(soil, o.plan, o.tables, { solve });
-  const rates = ratesOf(decision, o.products);
+  // Merging judges many zones that never reach the output: their rates need no economics notes (two more
+  // solves each), so the full decision is made only when a caller reads it.
+  const rates = ratesOf(decide(soil, o.plan, o.tables, { solve, economics: false }), o.products);
+  let decision: Decision | undefined;
   const lo = new Map(rates),
     hi = new Map(rates);
   for (const a of o.analytes) {
@@ -128,7 +131,7 @@ function zoneProfile(means: Float64Array, o: RateJudgeOptions, solve: ProductSol
     if (!(e! > 0) || !Number.isFinite(v)) continue;
     for (const moved of [v - e!, v + e!]) {
       const r = ratesOf(
-        decide({ ...soil, [a]: Math.max(0, moved) }, o.plan, o.tables, { solve }),
+        decide({ ...soil, [a]: Math.max(0, moved) }, o.plan, o.tables, { solve, economics: false }),
         o.products,
       );
       for (const k of new Set([...rates.keys(), ...r.keys()])) {
@@ -138,7 +141,15 @@ function zoneProfile(means: Float64Array, o: RateJudgeOptions, solve: ProductSol
       }
     }
   }
-  return { soil, decision, rates, lo, hi };
+  return {
+    soil,
+    get decision() {
+      return (decision ??= decide(soil, o.plan, o.tables, { solve }));
+    },
+    rates,
+    lo,
+    hi,
+  };
 }
 
 /** Two zones stay apart when a rate differs by the minimum and lies outside the other's error range. */

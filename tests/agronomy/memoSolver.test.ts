@@ -39,6 +39,22 @@ describe('memoSolver', () => {
     );
   });
 
+  it('a decision without economics is the full decision with economics left empty (rates never read them)', () => {
+    const solve = memoSolver();
+    let withEconomics = 0;
+    fc.assert(
+      fc.property(soilArb, (s) => {
+        const soil = { ...s, pMethod: 'olsen' as const };
+        const full = decide(soil, plan, T, { solve });
+        if (full.economics.length > 0) withEconomics++;
+        expect(decide(soil, plan, T, { solve, economics: false })).toEqual({ ...full, economics: [] });
+      }),
+      { numRuns: tierRuns(60), seed: 12 },
+    );
+    // the lattice reaches soils where P or K is needed, so the comparison above covers dropped notes
+    expect(withEconomics).toBeGreaterThan(0);
+  });
+
   it('answers a problem asked again from memory, compared in full; a changed problem is solved afresh', () => {
     const solve = memoSolver();
     const opts = productOptions(plan, T);
