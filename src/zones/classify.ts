@@ -8,6 +8,7 @@
  */
 import { mulberry32 } from '../stats/random.js';
 import { jenksUppers, kmeans1d, summarize, type Summary } from './breaks.js';
+import { assign4, moments4, validCells4 } from './classify4.js';
 
 /** How the class breaks are chosen. */
 export type ClassMethod = 'equal' | 'quantile' | 'jenks' | 'kmeans';
@@ -202,6 +203,12 @@ export function classifyVectors(
 
 /** The cells with a weight and a value in every dimension, as one flat array (millions of cells). */
 function validCells(dims: ArrayLike<number>[], weights: ArrayLike<number> | undefined): Int32Array {
+  if (dims.length === 4) return validCells4(dims, weights);
+  return validCellsAny(dims, weights);
+}
+
+/** {@link validCells} for any number of dimensions. */
+function validCellsAny(dims: ArrayLike<number>[], weights: ArrayLike<number> | undefined): Int32Array {
   const d = dims.length,
     n = dims[0].length;
   const ok = new Uint8Array(n);
@@ -239,22 +246,27 @@ function standardization(
   // cell-by-cell loop, while each loop reads one array
   let tw = 0;
   for (let t = 0; t < valid.length; t++) tw += weights ? weights[valid[t]] : 1;
-  for (let j = 0; j < d; j++) {
-    const col = dims[j];
-    let s = 0;
-    for (let t = 0; t < valid.length; t++) {
-      const i = valid[t];
-      s += (weights ? weights[i] : 1) * col[i];
+  if (d === 4) {
+    const m = moments4(dims, valid, weights, tw);
+    mu.set(m.mu);
+    sd.set(m.q);
+  } else
+    for (let j = 0; j < d; j++) {
+      const col = dims[j];
+      let s = 0;
+      for (let t = 0; t < valid.length; t++) {
+        const i = valid[t];
+        s += (weights ? weights[i] : 1) * col[i];
+      }
+      mu[j] = s / tw;
+      const m = mu[j];
+      let q = 0;
+      for (let t = 0; t < valid.length; t++) {
+        const i = valid[t];
+        q += (weights ? weights[i] : 1) * (col[i] - m) ** 2;
+      }
+      sd[j] = q;
     }
-    mu[j] = s / tw;
-    const m = mu[j];
-    let q = 0;
-    for (let t = 0; t < valid.length; t++) {
-      const i = valid[t];
-      q += (weights ? weights[i] : 1) * (col[i] - m) ** 2;
-    }
-    sd[j] = q;
-  }
   for (let j = 0; j < d; j++) {
     sd[j] = Math.sqrt(sd[j] / tw);
     if (!(sd[j] > 0)) sd[j] = 1;
@@ -390,9 +402,47 @@ function vectorClasses(
   order.forEach((o, r) => (rank[o.idx] = r));
   const cf = new Float64Array(kc * d);
   cent.forEach((c, ci) => cf.set(c, ci * d));
-  const zi = new Float64Array(d);
   const sw = new Float64Array(kc),
     smf = new Float64Array(kc * d);
+  if (d === 4) assign4(dims, valid, weights, cf, kc, rank, mu, sd, classOf, sw, smf);
+  else assignAny(dims, valid, weights, cf, kc, rank, mu, sd, classOf, sw, smf);
+  const sm = cent.map((_, c) => smf.subarray(c * d, c * d + d));
+  // drop empty classes
+  const remap = new Int16Array(cent.length).fill(-1);
+  const mean: number[][] = [],
+    value: number[][] = [],
+    weight: number[] = [];
+  for (let c = 0; c < cent.length; c++) {
+    if (!(sw[c] > 0)) continue;
+    remap[c] = mean.length;
+    const mc = Array.from(sm[c], (x) => x / sw[c]);
+    mean.push(mc);
+    value.push(mc.map((x, j) => roundTo(x, steps?.[j] ?? 1)));
+    weight.push(sw[c]);
+  }
+  for (let t = 0; t < valid.length; t++) classOf[valid[t]] = remap[classOf[valid[t]]];
+  return { classOf, count: mean.length, mean, value, weight };
+}
+
+/**
+ * {@link assign4} for any number of dimensions: each valid cell's nearest centre, as its rank, into `classOf`, and
+ * per class the weight and weighted value sums in cell order.
+ */
+function assignAny(
+  dims: ArrayLike<number>[],
+  valid: Int32Array,
+  weights: ArrayLike<number> | undefined,
+  cf: Float64Array,
+  kc: number,
+  rank: Int16Array,
+  mu: Float64Array,
+  sd: Float64Array,
+  classOf: Int16Array,
+  sw: Float64Array,
+  smf: Float64Array,
+): void {
+  const d = dims.length;
+  const zi = new Float64Array(d);
   // neighbouring cells mostly carry the same targets (they come from a table of lab-precision values):
   // a cell whose values equal the previous valid cell's takes its class without the distances
   const prev = new Float64Array(d).fill(NaN);
@@ -426,20 +476,4 @@ function vectorClasses(
     sw[c] += wi;
     for (let j = 0; j < d; j++) smf[c * d + j] += wi * dims[j][i];
   }
-  const sm = cent.map((_, c) => smf.subarray(c * d, c * d + d));
-  // drop empty classes
-  const remap = new Int16Array(cent.length).fill(-1);
-  const mean: number[][] = [],
-    value: number[][] = [],
-    weight: number[] = [];
-  for (let c = 0; c < cent.length; c++) {
-    if (!(sw[c] > 0)) continue;
-    remap[c] = mean.length;
-    const mc = Array.from(sm[c], (x) => x / sw[c]);
-    mean.push(mc);
-    value.push(mc.map((x, j) => roundTo(x, steps?.[j] ?? 1)));
-    weight.push(sw[c]);
-  }
-  for (let t = 0; t < valid.length; t++) classOf[valid[t]] = remap[classOf[valid[t]]];
-  return { classOf, count: mean.length, mean, value, weight };
 }

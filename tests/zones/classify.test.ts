@@ -189,6 +189,42 @@ describe('classifyVectors (one zone set for several products)', () => {
       [111.50259067357513, 35.88946459412781, 17.202072538860104],
     ]);
   });
+  it('four dimensions (written-out loops) give what the general loops give, bit for bit', () => {
+    // the general loops run when a fifth dimension is all 0: it standardizes to 0 and adds 0 to every distance,
+    // so classes, weights and means must be those of the four dimensions alone
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 1e6 }), (seed) => {
+        const rnd = lcg(seed);
+        const n = 1500;
+        const dims = Array.from({ length: 4 }, () => new Float64Array(n));
+        const weights = new Float32Array(n);
+        for (let i = 0; i < n;) {
+          const run = 1 + Math.floor(rnd() * 8);
+          const v = [
+            100 + 5 * Math.floor(rnd() * 8),
+            2.5 * Math.floor(rnd() * 10),
+            20 * Math.floor(rnd() * 3),
+            5 * Math.floor(rnd() * 5),
+          ];
+          for (let r = 0; r < run && i < n; r++, i++) {
+            for (let j = 0; j < 4; j++) dims[j][i] = v[j];
+            // edge cells (a fraction of the cell in the field), cells outside (0), cells without a value (NaN)
+            weights[i] = rnd() < 0.1 ? 0 : rnd() < 0.2 ? Math.fround(rnd()) : 1;
+            if (rnd() < 0.03) dims[Math.floor(rnd() * 4)][i] = NaN;
+          }
+        }
+        const opts = { classes: 5, seed, sample: 500, weights };
+        const four = classifyVectors(dims, { ...opts, steps: [5, 1, 1, 1] });
+        const five = classifyVectors([...dims, new Float64Array(n)], { ...opts, steps: [5, 1, 1, 1, 1] });
+        expect(four.classOf).toEqual(five.classOf);
+        expect(four.weight).toEqual(five.weight);
+        expect(four.mean).toEqual(five.mean.map((m) => m.slice(0, 4)));
+        expect(four.value).toEqual(five.value.map((m) => m.slice(0, 4)));
+        expect(four.count).toBeGreaterThan(1);
+      }),
+      { numRuns: 30 },
+    );
+  });
   it('gives every cell with the same values the same class, in runs or apart (brute-force oracle over pairs)', () => {
     // lab-precision targets repeat along rows; each cell must still take the centre nearest its own values
     fc.assert(
