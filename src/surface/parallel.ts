@@ -30,11 +30,12 @@ export interface SurfaceThreads {
 
 /**
  * Below this many searched cells the surfaces are computed in the calling thread only: starting a worker
- * (about 30-60 ms from the bundle on an idle machine, more from the TypeScript sources) costs more than
- * it saves. At about 0.4 microseconds of work per cell and surface, 150 000 cells are about 60 ms of
- * search and weighing for one surface (docs/performance.md, "Threads").
+ * (about 30-60 ms from the bundle on an idle machine, more from the TypeScript sources, and its code compiled
+ * again in the worker) costs more than it saves. Whole builds in alternating pairs on a 2-thread machine: the
+ * demo quarter at 2 m (160 000 cells) took less wall and CPU time without the worker, at 1.25 m (400 000 cells)
+ * a little less wall time with it (docs/performance.md, "Threads").
  */
-export const PARALLEL_MIN_CELLS = 150_000;
+export const PARALLEL_MIN_CELLS = 300_000;
 
 /** How long the calling thread waits without any band finishing before it gives up (a stuck worker). */
 const STALL_MS = 120_000;
@@ -111,8 +112,8 @@ export class SurfacePool {
   static start(threads: SurfaceThreads | undefined, cells: number): SurfacePool | null {
     if (!threads) return null;
     const min = threads.minCells ?? PARALLEL_MIN_CELLS;
-    // at least min / 2 cells per thread: a 64-core machine starts 2 workers for a small field, not 63
-    const n = Math.min(Math.floor(threads.threads), min > 0 ? Math.floor(cells / (min / 2)) : Infinity);
+    // at least min / 4 cells per thread: a 64-core machine starts 3 workers for a small field, not 63
+    const n = Math.min(Math.floor(threads.threads), min > 0 ? Math.floor(cells / (min / 4)) : Infinity);
     if (!(n > 1) || cells < min) return null;
     return new SurfacePool({ ...threads, threads: n });
   }

@@ -36,11 +36,11 @@ function run(entry: string[], args: string[], env: Record<string, string> = {}) 
   return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
 }
 
-/** `tilth surface` of P on the quarter at 1.5 m (about 290 000 cells, above the threads' minimum). */
+/** `tilth surface` of P on the quarter at 1.25 m (about 410 000 cells, above the threads' minimum). */
 function surface(entry: string[], threads: string, env: Record<string, string> = {}) {
   const out = join(tmp, `p-${entry.length}-${threads}-${env.TILTH_FROM_SOURCE ?? ''}.asc`);
   const args = ['surface', '--samples', join(Q, 'samples.csv'), '--boundary', join(Q, 'boundary.geojson')];
-  args.push('--nutrient', 'p', '--cell', '1.5', '--decimals', '12', '--threads', threads, '--out', out);
+  args.push('--nutrient', 'p', '--cell', '1.25', '--decimals', '12', '--threads', threads, '--out', out);
   const r = run(entry, args, env);
   expect(r.code, r.stderr).toBe(0);
   return { asc: readFileSync(out, 'utf8'), report: r.stderr.match(/bands per thread ([\d/]+)/)?.[1] };

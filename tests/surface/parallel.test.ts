@@ -115,14 +115,14 @@ describe('surface worker threads', () => {
     expect(counts.slice(1)).toEqual([0, 0]);
   });
 
-  it('no pool for one thread or a small grid (below PARALLEL_MIN_CELLS); at most one thread per half of it', () => {
+  it('no pool for one thread or a small grid (below PARALLEL_MIN_CELLS); at most one thread per quarter of it', () => {
     let started = 0;
     const t = { threads: 64, startWorker: () => (started++, startSurfaceWorker()) };
     expect(SurfacePool.start({ ...t, threads: 1 }, 10_000_000)).toBeNull();
     expect(SurfacePool.start(t, PARALLEL_MIN_CELLS - 1)).toBeNull();
     expect(SurfacePool.start(undefined, 10_000_000)).toBeNull();
     expect(started).toBe(0);
-    const p = SurfacePool.start(t, 2 * PARALLEL_MIN_CELLS)!; // room for 4 threads: 3 workers
+    const p = SurfacePool.start(t, PARALLEL_MIN_CELLS)!; // room for 4 threads: 3 workers
     pools.push(p);
     expect(started).toBe(3);
   });
