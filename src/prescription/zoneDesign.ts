@@ -12,7 +12,7 @@ import type { NutrientSurface } from '../surface/nutrientSurface.js';
 import { forEachNeighbourBand } from '../surface/neighbours.js';
 import { classify, classifyVectors, type Classes } from '../zones/classify.js';
 import { makeZones, type ZoneSet } from '../zones/index.js';
-import type { Analyte, FieldInputs, Grid } from '../types.js';
+import type { Analyte, FieldInputs, Grid, RingsPart } from '../types.js';
 import { lengthM, M2_PER_AC, m2ToAc, quantityText, speedMs } from '../units/index.js';
 import { NUTRIENT_NAME, PLACEMENT_NAME } from '../vocabulary.js';
 import { rateJudge, type ApartReason, type ZoneProfile } from './rateJudge.js';
@@ -303,11 +303,41 @@ function textureLayers(inputs: FieldInputs, grid: Grid): Uint8Array[] | null {
 function samplesInZones(inputs: FieldInputs, zs: ZoneSet<ZoneProfile, ApartReason>): number[][] {
   const out: number[][] = zs.zones.map(() => []);
   const xy = inputs.samples.xy;
+  // a point outside a zone's box (by more than any rounding of the crossing test, 1 mm) is outside the zone:
+  // skip the zone's rings (thousands of vertices on a large field) for it
+  const box = zs.zones.map((zone) => ringsBox(zone.parts, 1e-3));
   for (let j = 0; j < inputs.samples.ids.length; j++) {
-    const z = zs.zones.findIndex((zone) => pointInParts(zone.parts, xy[2 * j], xy[2 * j + 1]));
+    const x = xy[2 * j],
+      y = xy[2 * j + 1];
+    const z = zs.zones.findIndex(
+      (zone, k) =>
+        x >= box[k][0] &&
+        x <= box[k][2] &&
+        y >= box[k][1] &&
+        y <= box[k][3] &&
+        pointInParts(zone.parts, x, y),
+    );
     if (z >= 0) out[z].push(j);
   }
   return out;
+}
+
+/** [xmin, ymin, xmax, ymax] of the parts' exteriors, widened by `pad` on every side. */
+function ringsBox(parts: RingsPart[], pad: number): [number, number, number, number] {
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
+  for (const p of parts)
+    for (let i = 0; i < p.exterior.length; i += 2) {
+      const x = p.exterior[i],
+        y = p.exterior[i + 1];
+      if (x < x0) x0 = x;
+      if (x > x1) x1 = x;
+      if (y < y0) y0 = y;
+      if (y > y1) y1 = y;
+    }
+  return [x0 - pad, y0 - pad, x1 + pad, y1 + pad];
 }
 
 /** A pair's reason with `a` the rate of the pair's first zone. */
@@ -316,15 +346,19 @@ function orientWhy(w: ApartReason | null, first: ZoneProfile): ApartReason | nul
   return { ...w, a: w.b, b: w.a };
 }
 
+/** Whether the values in the field (weight > 0, not NaN) span more than 1e-9; stops at the first such pair. */
 function varies(v: Float64Array, w: ArrayLike<number>): boolean {
   let lo = Infinity,
     hi = -Infinity;
-  for (let i = 0; i < v.length; i++)
-    if (w[i] > 0 && v[i] === v[i]) {
-      if (v[i] < lo) lo = v[i];
-      if (v[i] > hi) hi = v[i];
+  for (let i = 0; i < v.length; i++) {
+    const x = v[i];
+    if (w[i] > 0 && x === x) {
+      if (x < lo) lo = x;
+      if (x > hi) hi = x;
+      if (hi - lo > 1e-9) return true;
     }
-  return hi - lo > 1e-9;
+  }
+  return false;
 }
 
 /**

@@ -64,6 +64,21 @@ describe('buildPrescription on the demo quarter', () => {
           ).length;
           expect(hits).toBe(1);
         }
+        // each zone's sample list (its own point-in-polygon test, which skips zones whose box the sample is
+        // outside) holds exactly the samples turf finds in that zone's polygon
+        fc.features.forEach((f: any, k: number) => {
+          const inZone = inputs.samples.ids.filter((_, i) =>
+            booleanPointInPolygon(
+              point([inputs.samples.lonlat[2 * i], inputs.samples.lonlat[2 * i + 1]]),
+              f,
+              {
+                ignoreBoundary: true,
+              },
+            ),
+          );
+          expect(set.zones[k].samples).toEqual(inZone);
+        });
+        expect(set.zones.some((z) => z.samples.length > 0)).toBe(true);
         // no zone puts more urea-type N (MAP's N sits within the P2O5-as-MAP limit), or P2O5 + K2O, in the seed row than the limits allow
         for (const z of set.zones) {
           const d = z.decision;
