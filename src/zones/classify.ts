@@ -429,17 +429,7 @@ function vectorClasses(
  * per class the weight and weighted value sums in cell order.
  */
 function assignAny(
-  dims: ArrayLike<number>[],
-  valid: Int32Array,
-  weights: ArrayLike<number> | undefined,
-  cf: Float64Array,
-  kc: number,
-  rank: Int16Array,
-  mu: Float64Array,
-  sd: Float64Array,
-  classOf: Int16Array,
-  sw: Float64Array,
-  smf: Float64Array,
+  ...[dims, valid, weights, cf, kc, rank, mu, sd, classOf, sw, smf]: Parameters<typeof assign4>
 ): void {
   const d = dims.length;
   const zi = new Float64Array(d);
