@@ -246,11 +246,9 @@ function standardization(
   // cell-by-cell loop, while each loop reads one array
   let tw = 0;
   for (let t = 0; t < valid.length; t++) tw += weights ? weights[valid[t]] : 1;
-  if (d === 4) {
-    const m = moments4(dims, valid, weights, tw);
-    mu.set(m.mu);
-    sd.set(m.q);
-  } else
+  // sd holds the sums of squared deviations until the end
+  if (d === 4) moments4(dims, valid, weights, tw, mu, sd);
+  else
     for (let j = 0; j < d; j++) {
       const col = dims[j];
       let s = 0;

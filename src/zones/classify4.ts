@@ -4,7 +4,7 @@
  * same sums added in the same cell order, the same distances (a four-term sum starting from its first term equals
  * one that starts from 0), the same comparisons. Written out, the four columns, means and centres sit in locals;
  * the general loops index an array of columns for every value, which costs about twice the time on 2.6 M cells
- * (docs/zones.md, "k-means shortcuts"). tests/zones/classify.test.ts checks each against the general loops.
+ * (docs/zones.md, "Classes"). tests/zones/classify.test.ts checks each against the general loops.
  */
 
 /**
@@ -36,16 +36,19 @@ export function validCells4(dims: ArrayLike<number>[], weights: ArrayLike<number
 }
 
 /**
- * Weighted sums of the four columns over the valid cells, in cell order (`s`), then of the squared deviations
- * from `s / tw` (`q`): what standardization's one-column-at-a-time sums give.
- * @example const { s, q } = moments4(dims, valid, weights, tw)
+ * The weighted mean of each of the four columns over the valid cells (`mu`, sums added in cell order, divided by
+ * the total weight `tw`), and the weighted sum of squared deviations from it (`q`): what standardization's
+ * one-column-at-a-time sums give. Fills `mu` and `q` (length 4).
+ * @example moments4(dims, valid, weights, tw, mu, q)
  */
 export function moments4(
   dims: ArrayLike<number>[],
   valid: Int32Array,
   weights: ArrayLike<number> | undefined,
   tw: number,
-): { mu: Float64Array; q: Float64Array } {
+  mu: Float64Array,
+  q: Float64Array,
+): void {
   const a0 = dims[0],
     a1 = dims[1],
     a2 = dims[2],
@@ -78,7 +81,8 @@ export function moments4(
     q2 += w * (a2[i] - m2) ** 2;
     q3 += w * (a3[i] - m3) ** 2;
   }
-  return { mu: Float64Array.of(m0, m1, m2, m3), q: Float64Array.of(q0, q1, q2, q3) };
+  mu.set([m0, m1, m2, m3]);
+  q.set([q0, q1, q2, q3]);
 }
 
 /**
